@@ -1,1 +1,3 @@
-export const CONTRACT_VERSION = 1;
+// The one contract between the server and the web app: request/response schemas and their types.
+export * from './auth';
+export * from './problem';

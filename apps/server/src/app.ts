@@ -1,0 +1,42 @@
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import { sessionMiddleware } from './auth/session';
+import type { AppContext } from './context';
+import { authRoutes } from './features/auth/routes';
+import { healthRoutes } from './features/health/routes';
+import { errorHandler, notFoundApi } from './http/errors';
+import { originCheck } from './http/origin';
+
+/** Builds the Express app; `main.ts` listens, the integration tests call it in-process. */
+export function createApp(ctx: AppContext): Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: { 'img-src': ["'self'", 'data:', 'blob:'], 'script-src': ["'self'"], 'style-src': ["'self'", "'unsafe-inline'"] },
+      },
+    }),
+  );
+
+  const api = express.Router();
+  api.use(express.json({ limit: '1mb' }));
+  api.use(originCheck(ctx.config.PUBLIC_URL));
+  api.use(healthRoutes(ctx));
+  api.use(sessionMiddleware(ctx.auth));
+  api.use(authRoutes(ctx));
+  api.use(notFoundApi);
+  app.use('/api', api);
+
+  const dist = ctx.config.WEB_DIST;
+  if (dist && existsSync(join(dist, 'index.html'))) {
+    app.use(express.static(dist, { index: false, maxAge: '1h' }));
+    // Client-side routes all load the SPA shell.
+    app.get('/{*splat}', (_req, res) => res.sendFile(join(dist, 'index.html')));
+  }
+  app.use(errorHandler);
+  return app;
+}

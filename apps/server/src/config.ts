@@ -1,0 +1,42 @@
+import { z } from 'zod';
+
+// Every variable the server reads, parsed once at start-up. `.env.example` documents each one.
+const schema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  HOST: z.string().default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(5180), // 0: any free port (tests)
+  DATABASE_URL: z.string().url({ message: 'must be a postgres:// URL' }),
+  /** Where the built web app lives; served on the same port in production. */
+  WEB_DIST: z.string().optional(),
+  UPLOAD_DIR: z.string().default('.data/uploads'),
+  UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(8 * 1024 * 1024),
+  /** The address people reach the app at; used for links in e-mail and the Origin check. */
+  PUBLIC_URL: z.string().url().optional(),
+  LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(10),
+  SMTP_HOST: z.string().default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
+  MAIL_FROM: z.string().default('Splitscope Demo Repair <bench@demo.test>'),
+  PAYMENTS_HOST: z.string().default('127.0.0.1'),
+  PAYMENTS_PORT: z.coerce.number().int().min(1).max(65535).default(12111),
+  PAYMENTS_PROTOCOL: z.enum(['http', 'https']).default('http'),
+  PAYMENTS_SECRET_KEY: z.string().default('sk_test_local_fake'),
+  PAYMENTS_WEBHOOK_SECRET: z.string().default('whsec_local_fake'),
+  LOG_REQUESTS: z
+    .enum(['0', '1'])
+    .default('0')
+    .transform((v) => v === '1'),
+});
+
+export type Config = z.infer<typeof schema>;
+
+export class ConfigError extends Error {}
+
+/** Parses the environment; a bad value stops start-up with a list of what is wrong. */
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
+  const parsed = schema.safeParse(env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new ConfigError(`invalid configuration:\n${lines.join('\n')}`);
+  }
+  return parsed.data;
+}

@@ -1,0 +1,48 @@
+import { index, pgEnum, pgTable, text, timestamp, uniqueIndex } from 'drizzle-orm/pg-core';
+
+export const roleEnum = pgEnum('role', ['admin', 'lead', 'tech', 'trainee']);
+
+export const shops = pgTable('shops', {
+  id: text('id').primaryKey(),
+  name: text('name').notNull(),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+export const users = pgTable(
+  'users',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id),
+    email: text('email').notNull(),
+    name: text('name').notNull(),
+    role: roleEnum('role').notNull(),
+    passwordHash: text('password_hash').notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('users_email_unique').on(t.email), index('users_shop_idx').on(t.shopId)],
+);
+
+// lucia's session table: id, user_id, expires_at are the columns its Drizzle adapter expects.
+export const sessions = pgTable('sessions', {
+  id: text('id').primaryKey(),
+  userId: text('user_id')
+    .notNull()
+    .references(() => users.id, { onDelete: 'cascade' }),
+  expiresAt: timestamp('expires_at', { withTimezone: true, mode: 'date' }).notNull(),
+});
+
+export const auditLog = pgTable(
+  'audit_log',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id').references(() => shops.id),
+    userId: text('user_id'),
+    action: text('action').notNull(),
+    subject: text('subject'),
+    detail: text('detail'),
+    at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('audit_shop_idx').on(t.shopId, t.at)],
+);

@@ -1,0 +1,34 @@
+// The demo shop: invented people in an invented repair shop. Idempotent: fixed ids, inserts that skip rows
+// already there, so running it on every start seeds nothing twice.
+import { eq } from 'drizzle-orm';
+import type { Role } from '@splitscope/contract';
+import type { Db } from './client';
+import { users } from './schema';
+import { createShop, createUser } from '../testing/factories';
+
+export const DEMO_PASSWORD = 'splitscope-demo';
+
+export const DEMO_SHOP = { id: 'shop-demo', name: 'Harbour Lane Board Repair' };
+export const OTHER_SHOP = { id: 'shop-other', name: 'Ridgeview Climate Electronics' };
+
+export const DEMO_USERS: { id: string; shopId: string; email: string; name: string; role: Role }[] = [
+  { id: 'user-admin', shopId: DEMO_SHOP.id, email: 'admin@demo.test', name: 'Ines Okafor', role: 'admin' },
+  { id: 'user-lead', shopId: DEMO_SHOP.id, email: 'lead@demo.test', name: 'Tomas Brandt', role: 'lead' },
+  { id: 'user-tech', shopId: DEMO_SHOP.id, email: 'tech@demo.test', name: 'Priya Nair', role: 'tech' },
+  { id: 'user-trainee', shopId: DEMO_SHOP.id, email: 'trainee@demo.test', name: 'Leo Marchetti', role: 'trainee' },
+  { id: 'user-other-tech', shopId: OTHER_SHOP.id, email: 'tech@other.test', name: 'Dana Whitfield', role: 'tech' },
+];
+
+/** Seeds the demo; returns how many users it created (0 on a second run). */
+export async function seedDemo(db: Db): Promise<{ created: number }> {
+  await createShop(db, DEMO_SHOP);
+  await createShop(db, OTHER_SHOP);
+  let created = 0;
+  for (const u of DEMO_USERS) {
+    const [exists] = await db.select({ id: users.id }).from(users).where(eq(users.id, u.id));
+    if (exists) continue;
+    await createUser(db, { ...u, password: DEMO_PASSWORD });
+    created++;
+  }
+  return { created };
+}

@@ -1,0 +1,104 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import type { Problem } from '@splitscope/contract';
+import { z } from 'zod';
+
+const statusOf = {
+  bad_request: 400,
+  unauthorized: 401,
+  forbidden: 403,
+  not_found: 404,
+  conflict: 409,
+  too_large: 413,
+  unsupported_media_type: 415,
+  invalid: 422,
+  rate_limited: 429,
+  unavailable: 503,
+} as const;
+
+export type ErrorCode = keyof typeof statusOf;
+
+/** The one error type services throw; the error middleware turns it into problem+json. */
+export class AppError extends Error {
+  constructor(
+    readonly code: ErrorCode,
+    readonly detail: string,
+    readonly extra: Pick<Problem, 'errors' | 'allowed'> = {},
+  ) {
+    super(detail);
+  }
+  get status(): number {
+    return statusOf[this.code];
+  }
+}
+
+const titles: Record<ErrorCode, string> = {
+  bad_request: 'Bad request',
+  unauthorized: 'Sign-in required',
+  forbidden: 'Not allowed for your role',
+  not_found: 'Not found',
+  conflict: 'Conflict',
+  too_large: 'Too large',
+  unsupported_media_type: 'Unsupported media type',
+  invalid: 'Invalid input',
+  rate_limited: 'Too many attempts',
+  unavailable: 'Temporarily unavailable',
+};
+
+/** Validates input against a contract schema; failures become one 422 that lists the failing fields. */
+export function parse<S extends z.ZodType>(schema: S, value: unknown): z.infer<S> {
+  const r = schema.safeParse(value);
+  if (r.success) return r.data;
+  const errors = r.error.issues.map((i) => ({ path: i.path.map(String).join('.') || '(body)', message: i.message }));
+  throw new AppError('invalid', `Invalid input: ${errors.map((e) => `${e.path}: ${e.message}`).join('; ')}`, { errors });
+}
+
+export function problem(err: AppError): Problem {
+  return {
+    type: `https://splitscope.invalid/problems/${err.code}`,
+    title: titles[err.code],
+    status: err.status,
+    detail: err.detail,
+    code: err.code,
+    ...err.extra,
+  };
+}
+
+export function sendProblem(res: Parameters<RequestHandler>[1], err: AppError): void {
+  if (err.code === 'unavailable') res.setHeader('Retry-After', '2');
+  res.status(err.status).type('application/problem+json').json(problem(err));
+}
+
+const DB_DOWN = new Set(['ECONNREFUSED', 'ECONNRESET', '57P01', '57P02', '57P03', '08006', '08001', '08003', 'ETIMEDOUT']);
+
+function isDbDown(err: unknown): boolean {
+  const e = err as { code?: string; message?: string; cause?: unknown };
+  if (e?.code && DB_DOWN.has(e.code)) return true;
+  if (/Connection terminated|timeout exceeded when trying to connect|connect ECONNREFUSED/i.test(e?.message ?? '')) return true;
+  return e?.cause ? isDbDown(e.cause) : false;
+}
+
+/** The one error middleware: known errors as problem+json, everything else as a 500 without a stack trace. */
+export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
+  if (err instanceof AppError) return sendProblem(res, err);
+  const e = err as { type?: string; status?: number; statusCode?: number };
+  // body-parser's own errors carry a type and a status
+  if (e?.type === 'entity.too.large') return sendProblem(res, new AppError('too_large', 'The request body is too large'));
+  if (e?.type === 'entity.parse.failed') return sendProblem(res, new AppError('bad_request', 'The request body is not valid JSON'));
+  if (e?.type === 'encoding.unsupported' || e?.type === 'charset.unsupported')
+    return sendProblem(res, new AppError('unsupported_media_type', 'Unsupported body encoding'));
+  if (isDbDown(err)) return sendProblem(res, new AppError('unavailable', 'The database is not reachable right now; try again shortly'));
+  const status = e?.status ?? e?.statusCode;
+  if (typeof status === 'number' && status >= 400 && status < 500) {
+    return sendProblem(res, new AppError('bad_request', 'The request could not be read'));
+  }
+  console.error('unhandled error:', err);
+  res.status(500).type('application/problem+json').json({
+    type: 'https://splitscope.invalid/problems/internal',
+    title: 'Internal error',
+    status: 500,
+    detail: 'Something went wrong on the server; the error was logged.',
+    code: 'internal',
+  });
+};
+
+export const notFoundApi: RequestHandler = (req, _res, next) => next(new AppError('not_found', `No API route ${req.method} ${req.path}`));

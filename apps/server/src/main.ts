@@ -1,0 +1,16 @@
+import { ConfigError, loadConfig } from './config';
+import { startServer } from './server';
+
+try {
+  const config = loadConfig();
+  const running = await startServer(config);
+  console.log(`splitscope: server listening on ${running.url}`);
+  const stop = () => running.close().then(() => process.exit(0));
+  process.on('SIGTERM', stop);
+  process.on('SIGINT', stop);
+} catch (err) {
+  if (err instanceof ConfigError) console.error(`splitscope: ${err.message}`);
+  else if ((err as NodeJS.ErrnoException).code === 'EADDRINUSE') console.error(`splitscope: the port is already in use (${(err as Error).message})`);
+  else console.error('splitscope: server failed to start:', err);
+  process.exit(1);
+}

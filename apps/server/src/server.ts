@@ -1,0 +1,36 @@
+import type { Server } from 'node:http';
+import { createApp } from './app';
+import { createAuth } from './auth/lucia';
+import type { Config } from './config';
+import { createDatabase } from './db/client';
+import type { AppContext } from './context';
+
+export interface RunningServer {
+  ctx: AppContext;
+  server: Server;
+  url: string;
+  close(): Promise<void>;
+}
+
+/** Starts the HTTP server on the configured host and port (port 0 picks a free one). */
+export async function startServer(config: Config): Promise<RunningServer> {
+  const { db, pool } = createDatabase(config.DATABASE_URL);
+  const secureCookies = config.PUBLIC_URL?.startsWith('https://') ?? false;
+  const ctx: AppContext = { config, db, pool, auth: createAuth(db, { secureCookies }) };
+  const app = createApp(ctx);
+  const server = await new Promise<Server>((resolve, reject) => {
+    const s = app.listen(config.PORT, config.HOST, () => resolve(s));
+    s.once('error', reject);
+  });
+  const addr = server.address();
+  const port = typeof addr === 'object' && addr ? addr.port : config.PORT;
+  return {
+    ctx,
+    server,
+    url: `http://${config.HOST}:${port}`,
+    close: async () => {
+      await new Promise<void>((r) => server.close(() => r()));
+      await pool.end();
+    },
+  };
+}

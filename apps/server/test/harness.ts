@@ -1,0 +1,46 @@
+// Starts the real server in-process on a free port against the test database that `npm test` prepared.
+import { loadConfig } from '../src/config';
+import { startServer, type RunningServer } from '../src/server';
+
+export async function startTestServer(env: Record<string, string> = {}): Promise<RunningServer> {
+  if (!process.env.DATABASE_URL) throw new Error('DATABASE_URL is not set: run the integration tests through `npm test`');
+  const config = loadConfig({ ...process.env, NODE_ENV: 'test', PORT: '0', LOGIN_RATE_LIMIT: '1000', ...env });
+  return startServer(config);
+}
+
+/** A tiny HTTP client that keeps one session cookie, like a browser tab. */
+export class Client {
+  cookie = '';
+  constructor(readonly base: string) {}
+
+  async request(method: string, path: string, body?: unknown, headers: Record<string, string> = {}) {
+    const res = await fetch(this.base + path, {
+      method,
+      headers: {
+        ...(body !== undefined ? { 'content-type': 'application/json' } : {}),
+        ...(this.cookie ? { cookie: this.cookie } : {}),
+        ...headers,
+      },
+      body: body === undefined ? undefined : typeof body === 'string' ? body : JSON.stringify(body),
+    });
+    const setCookie = res.headers.get('set-cookie');
+    if (setCookie) this.cookie = setCookie.split(';')[0]!;
+    const text = await res.text();
+    let json: unknown;
+    try {
+      json = text ? JSON.parse(text) : undefined;
+    } catch {
+      json = text;
+    }
+    return { status: res.status, headers: res.headers, body: json as Record<string, unknown> & unknown[] };
+  }
+  get = (path: string) => this.request('GET', path);
+  post = (path: string, body?: unknown, headers?: Record<string, string>) => this.request('POST', path, body ?? {}, headers);
+  patch = (path: string, body?: unknown) => this.request('PATCH', path, body ?? {});
+
+  async signIn(email: string, password = 'splitscope-demo') {
+    const r = await this.post('/api/auth/sign-in', { email, password });
+    if (r.status !== 204) throw new Error(`sign-in as ${email} failed: ${r.status} ${JSON.stringify(r.body)}`);
+    return this;
+  }
+}

@@ -1,0 +1,46 @@
+import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
+import { useMe } from '@/features/auth/api/me';
+import { useSignOut } from '@/features/auth/api/sign-in';
+
+const roleLabel = { admin: 'Shop admin', lead: 'Lead', tech: 'Technician', trainee: 'Trainee' } as const;
+
+/** The signed-in frame: header with navigation; sends signed-out visitors to the sign-in page. */
+export function AppLayout() {
+  const me = useMe();
+  const signOut = useSignOut();
+  const navigate = useNavigate();
+  const location = useLocation();
+  if (me.isPending) return <p className="p-6">Loading…</p>;
+  if (me.isError) return <p className="p-6 text-high">Could not reach the server: {me.error.message}</p>;
+  if (!me.data) return <Navigate to="/sign-in" replace state={{ from: location.pathname }} />;
+
+  const link = ({ isActive }: { isActive: boolean }) =>
+    `flex min-h-11 items-center rounded-md px-3 ${isActive ? 'bg-white/15 font-semibold' : 'hover:bg-white/10'}`;
+  return (
+    <div className="flex min-h-full flex-col">
+      <header className="no-print flex flex-wrap items-center gap-2 bg-board px-4 py-1 text-white">
+        <NavLink to="/" className="mr-4 flex items-center gap-2 font-semibold">
+          <img src="/favicon.svg" alt="" className="h-7 w-7" /> Splitscope
+        </NavLink>
+        <nav aria-label="Main" className="flex flex-1 flex-wrap gap-1">
+          <NavLink to="/" end className={link}>
+            Home
+          </NavLink>
+        </nav>
+        <span className="text-sm">
+          {me.data.name} · {roleLabel[me.data.role]} · {me.data.shopName}
+        </span>
+        <button
+          type="button"
+          className="min-h-11 rounded-md px-3 hover:bg-white/10"
+          onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}
+        >
+          Sign out
+        </button>
+      </header>
+      <main className="flex-1 p-4">
+        <Outlet />
+      </main>
+    </div>
+  );
+}

@@ -1,0 +1,104 @@
+// The pieces `npm start`, `npm test` and the benchmarks share: the database, the web build, the server process.
+import { spawn, type ChildProcess } from 'node:child_process';
+import { existsSync, readdirSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { migrateAndSeed } from '../../apps/server/src/db/setup';
+import { ensureCluster, ensureDatabase, type ClusterSpec } from './pg';
+import { runInherit, SetupError, waitForHttp } from './proc';
+
+export const root = join(import.meta.dirname, '..', '..');
+export const WEB_DIST = join(root, 'apps', 'web', 'dist');
+
+export function clusterSpec(kind: 'main' | 'test'): ClusterSpec {
+  const port = Number(process.env.SPLITSCOPE_PG_PORT ?? 54329);
+  if (kind === 'main' && !(Number.isInteger(port) && port > 0 && port < 65536)) {
+    throw new SetupError(`SPLITSCOPE_PG_PORT must be a TCP port number, not "${process.env.SPLITSCOPE_PG_PORT}"`);
+  }
+  return {
+    root,
+    name: kind === 'main' ? 'pg' : 'pg-test',
+    port: kind === 'main' ? port : 'auto',
+    user: 'splitscope',
+    password: process.env.SPLITSCOPE_PG_PASSWORD ?? 'splitscope-local',
+    throwaway: kind === 'test',
+  };
+}
+
+/** Cluster up, database there (recreated for tests), migrations applied, demo seeded. Returns DATABASE_URL. */
+export async function prepareDatabase(kind: 'main' | 'test'): Promise<string> {
+  const t0 = Date.now();
+  const cluster = await ensureCluster(clusterSpec(kind));
+  const name = kind === 'main' ? (process.env.SPLITSCOPE_DB_NAME ?? 'splitscope') : 'splitscope_test';
+  const url = await ensureDatabase(cluster, name, { recreate: kind === 'test' });
+  const { created } = await migrateAndSeed(url);
+  console.log(
+    `splitscope: PostgreSQL on 127.0.0.1:${cluster.port} (${cluster.dir}), database ${name} migrated` +
+      (created ? `, demo seeded (${created} users)` : ', demo already seeded') +
+      ` in ${Date.now() - t0} ms`,
+  );
+  return url;
+}
+
+function newestMtime(dir: string): number {
+  let newest = 0;
+  if (!existsSync(dir)) return 0;
+  for (const entry of readdirSync(dir, { withFileTypes: true })) {
+    if (entry.name === 'node_modules' || entry.name === 'dist') continue;
+    const p = join(dir, entry.name);
+    newest = Math.max(newest, entry.isDirectory() ? newestMtime(p) : statSync(p).mtimeMs);
+  }
+  return newest;
+}
+
+/** Production build of the web app, skipped when nothing it is built from changed since the last build. */
+export async function buildWeb(): Promise<void> {
+  const stamp = join(WEB_DIST, 'index.html');
+  const sources = Math.max(newestMtime(join(root, 'apps', 'web')), newestMtime(join(root, 'packages')));
+  if (existsSync(stamp) && statSync(stamp).mtimeMs > sources) {
+    console.log('splitscope: web build is up to date');
+    return;
+  }
+  console.log('splitscope: building the web app');
+  const code = await runInherit(join(root, 'apps', 'web', 'node_modules', '.bin', 'vite'), ['build', '--logLevel', 'warn'], process.env, join(root, 'apps', 'web'));
+  if (code !== 0) throw new SetupError('the web build failed (see above)');
+}
+
+export interface ServerProcess {
+  url: string;
+  child: ChildProcess;
+  stop(signal?: NodeJS.Signals): Promise<void>;
+}
+
+/** Starts the API server as a child process in its own process group (so a stop ends everything it started). */
+export async function spawnServer(env: Record<string, string>, { quiet = false } = {}): Promise<ServerProcess> {
+  const port = env.PORT ?? '5180';
+  const child = spawn(process.execPath, ['--import', 'tsx', join(root, 'apps', 'server', 'src', 'main.ts')], {
+    cwd: root,
+    env: { ...process.env, NODE_ENV: 'production', WEB_DIST, ...env },
+    stdio: quiet ? ['ignore', 'ignore', 'inherit'] : 'inherit',
+    detached: true,
+  });
+  const url = `http://127.0.0.1:${port}`;
+  const exited = new Promise<void>((r) => child.once('exit', () => r()));
+  const stop = async (signal: NodeJS.Signals = 'SIGTERM') => {
+    if (child.exitCode !== null || child.signalCode !== null) return;
+    try {
+      process.kill(-child.pid!, signal);
+    } catch {
+      /* already gone */
+    }
+    await exited;
+  };
+  try {
+    await Promise.race([
+      waitForHttp(`${url}/api/health`, 60_000),
+      exited.then(() => {
+        throw new SetupError('the server exited during start-up (see above)');
+      }),
+    ]);
+  } catch (err) {
+    await stop('SIGKILL');
+    throw err;
+  }
+  return { url, child, stop };
+}
