@@ -1,6 +1,6 @@
 // The pieces `npm start`, `npm test` and the benchmarks share: the database, the web build, the server process.
 import { spawn, type ChildProcess } from 'node:child_process';
-import { existsSync, readdirSync, statSync } from 'node:fs';
+import { existsSync, readdirSync, statSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { migrateAndSeed } from '../../apps/server/src/db/setup';
 import { ensureCluster, ensureDatabase, type ClusterSpec } from './pg';
@@ -31,6 +31,8 @@ export async function prepareDatabase(kind: 'main' | 'test'): Promise<string> {
   const name = kind === 'main' ? (process.env.SPLITSCOPE_DB_NAME ?? 'splitscope') : 'splitscope_test';
   const url = await ensureDatabase(cluster, name, { recreate: kind === 'test' });
   const { created } = await migrateAndSeed(url);
+  // Lets a developer run one integration test file by hand against the same database.
+  if (kind === 'test') writeFileSync(join(root, '.data', 'test-url'), url + '\n');
   console.log(
     `splitscope: PostgreSQL on 127.0.0.1:${cluster.port} (${cluster.dir}), database ${name} migrated` +
       (created ? `, demo seeded (${created} users)` : ', demo already seeded') +
