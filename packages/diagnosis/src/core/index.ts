@@ -1,0 +1,15 @@
+export * from './types.js';
+export {
+  diagnose,
+  PredictionCache,
+  entropyBits,
+  logSumExp,
+  modeChoices,
+  okPrior,
+  partMarginals,
+  minimalDiagnoses,
+  subFaultKey,
+  refsKey,
+  type DiagnoseOptions,
+} from './engine.js';
+export { rankTests, testEntropy, activeSet, type ProbeOptions, type TestScore } from './probe.js';
