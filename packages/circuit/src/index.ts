@@ -1,1 +1,44 @@
-export {};
+/**
+ * @splitscope/circuit — netlist parsing, flattening, DC operating point and meter models.
+ * Public surface: docs/decisions/0001-engine-api.md (plus the helpers exported below).
+ */
+export { parseNetlist, NetlistError } from './netlist';
+export type { Netlist, RawElement, RawValue, ModelDef, ParamDef, SubcktDef, ElementLetter, ParseOptions } from './netlist';
+export { flatten } from './flatten';
+export type { FlattenOptions } from './flatten';
+export {
+  cloneCircuit,
+  cloneElement,
+  resistor,
+  vsource,
+  isource,
+  diode,
+  withoutParts,
+  normNode,
+  REFERENCE,
+  DEFAULT_DIODE,
+  DEFAULT_BJT,
+} from './circuit';
+export type {
+  Circuit,
+  Element,
+  ResistorElement,
+  CapacitorElement,
+  InductorElement,
+  VSourceElement,
+  ISourceElement,
+  DiodeElement,
+  BjtElement,
+  VcvsElement,
+  VccsElement,
+  CccsElement,
+  CcvsElement,
+  DiodeModel,
+  BjtModel,
+} from './circuit';
+export { solveOp, VT, GMIN, GISLAND } from './solver';
+export type { OpResult, SolveOptions, SolveMethod } from './solver';
+export { measure, read, applyState, stateOf, refusal, meterProfile, DEFAULT_METER, MeasurementError } from './meter';
+export type { Probe, BoardState, Reading, MeterProfile, MeterMode, MeasureOptions } from './meter';
+export { parseSpiceNumber } from './values';
+export { nodesWithoutDcPath } from './topology';

@@ -1,0 +1,280 @@
+import { create, all, type EvalFunction } from 'mathjs';
+import type { BjtModel, Circuit, DiodeModel, Element } from './circuit';
+import { DEFAULT_BJT, DEFAULT_DIODE, normNode, REFERENCE } from './circuit';
+import { NetlistError, type ModelDef, type Netlist, type ParamDef, type RawElement, type RawValue, type SubcktDef } from './netlist';
+import { nodesWithoutDcPath } from './topology';
+import { rewriteSuffixedNumbers } from './values';
+
+const math = create(all as NonNullable<typeof all>, {});
+const evaluateExpr = math.evaluate;
+const parseExpr = math.parse;
+// Expressions come from netlists users upload: disable the functions that change mathjs itself
+// (mathjs documentation, "Security").
+math.import(
+  {
+    import: () => {
+      throw new Error('import is disabled');
+    },
+    createUnit: () => {
+      throw new Error('createUnit is disabled');
+    },
+    evaluate: () => {
+      throw new Error('evaluate is disabled');
+    },
+    parse: () => {
+      throw new Error('parse is disabled');
+    },
+  },
+  { override: true },
+);
+void evaluateExpr;
+
+const compiled = new Map<string, EvalFunction>();
+
+function evalExpr(expr: string, scope: Map<string, number>, line: number, what: string): number {
+  let fn = compiled.get(expr);
+  if (!fn) {
+    try {
+      fn = parseExpr(rewriteSuffixedNumbers(expr.toLowerCase())).compile();
+    } catch (err) {
+      throw new NetlistError(line, `${what}: cannot parse {${expr}}: ${(err as Error).message}`);
+    }
+    if (compiled.size > 5000) compiled.clear();
+    compiled.set(expr, fn);
+  }
+  let v: unknown;
+  try {
+    v = fn.evaluate(new Map(scope));
+  } catch (err) {
+    throw new NetlistError(line, `${what}: cannot evaluate {${expr}}: ${(err as Error).message}`);
+  }
+  if (typeof v === 'boolean') return v ? 1 : 0;
+  if (typeof v !== 'number' || !Number.isFinite(v)) {
+    throw new NetlistError(line, `${what}: {${expr}} does not give a finite number`);
+  }
+  return v;
+}
+
+function value(v: RawValue, scope: Map<string, number>, line: number, what: string): number {
+  return v.kind === 'number' ? v.value : evalExpr(v.expr, scope, line, what);
+}
+
+function evalParams(defs: readonly ParamDef[], scope: Map<string, number>, overrides: Record<string, number> | undefined): void {
+  for (const p of defs) {
+    const o = overrides?.[p.name];
+    scope.set(p.name, o !== undefined ? o : value(p.value, scope, p.line, `.param ${p.name}`));
+  }
+}
+
+interface Scope {
+  def: SubcktDef;
+  /** Chain of enclosing definitions for model/subckt lookup (innermost first). */
+  lexical: SubcktDef[];
+  params: Map<string, number>;
+  /** Instance path as written ("XU1.XQ2") and lower-case node prefix ("xu1.xq2"). */
+  path: string;
+  prefix: string;
+  part: string | undefined;
+  portMap: Map<string, string>;
+  depth: number;
+}
+
+function lookupModel(scope: Scope, name: string): ModelDef | undefined {
+  for (const d of scope.lexical) {
+    const m = d.models[name];
+    if (m) return m;
+  }
+  return undefined;
+}
+
+function lookupSubckt(scope: Scope, name: string): SubcktDef | undefined {
+  for (const d of scope.lexical) {
+    const s = d.subckts[name];
+    if (s) return s;
+  }
+  return undefined;
+}
+
+function diodeModel(m: ModelDef, params: Map<string, number>): DiodeModel {
+  const out: DiodeModel = { ...DEFAULT_DIODE };
+  for (const [k, v] of Object.entries(m.params)) {
+    const x = value(v, params, m.line, `.model ${m.name} ${k}`);
+    if (k === 'is' || k === 'n' || k === 'rs' || k === 'bv' || k === 'ibv') out[k] = x;
+  }
+  if (!(out.is > 0)) throw new NetlistError(m.line, `.model ${m.name}: IS must be > 0`);
+  if (!(out.n > 0)) throw new NetlistError(m.line, `.model ${m.name}: N must be > 0`);
+  if (out.rs < 0) throw new NetlistError(m.line, `.model ${m.name}: RS must be >= 0`);
+  if (!(out.bv > 0)) throw new NetlistError(m.line, `.model ${m.name}: BV must be > 0`);
+  return out;
+}
+
+function bjtModel(m: ModelDef, params: Map<string, number>): BjtModel {
+  const out: BjtModel = { type: m.type === 'pnp' ? 'pnp' : 'npn', ...DEFAULT_BJT };
+  for (const [k, v] of Object.entries(m.params)) {
+    const x = value(v, params, m.line, `.model ${m.name} ${k}`);
+    if (k === 'is' || k === 'bf' || k === 'br' || k === 'nf' || k === 'nr' || k === 'rb' || k === 'rc' || k === 're') out[k] = x;
+  }
+  for (const k of ['is', 'bf', 'br', 'nf', 'nr'] as const) {
+    if (!(out[k] > 0)) throw new NetlistError(m.line, `.model ${m.name}: ${k.toUpperCase()} must be > 0`);
+  }
+  return out;
+}
+
+export interface FlattenOptions {
+  /** Check that every node has a DC path to the reference (default true; the netlist as written must). */
+  checkDcPaths?: boolean;
+}
+
+/**
+ * Expands subcircuit instances (nested), evaluates parameters and {expressions} with mathjs and resolves models.
+ * `params` overrides top-level `.param` values (case-insensitive names).
+ */
+export function flatten(netlist: Netlist, params?: Record<string, number>, options: FlattenOptions = {}): Circuit {
+  const overrides: Record<string, number> = {};
+  for (const [k, v] of Object.entries(params ?? {})) overrides[k.toLowerCase()] = v;
+  const top: SubcktDef = { name: '', ports: [], params: netlist.params, elements: netlist.elements, models: netlist.models, subckts: netlist.subckts, line: 0 };
+  const topParams = new Map<string, number>();
+  evalParams(netlist.params, topParams, overrides);
+  for (const [k, v] of Object.entries(overrides)) if (!topParams.has(k)) topParams.set(k, v);
+
+  const elements: Element[] = [];
+  const nets = new Set<string>([REFERENCE]);
+  const vNames = new Set<string>();
+  const pendingControls: { el: Element & { control: string }; line: number; prefix: string; raw: string }[] = [];
+
+  const walk = (scope: Scope) => {
+    const node = (n: string): string => {
+      const l = normNode(n);
+      if (l === REFERENCE) return REFERENCE;
+      const mapped = scope.portMap.get(l);
+      if (mapped !== undefined) return mapped;
+      const full = scope.prefix ? `${scope.prefix}.${l}` : l;
+      nets.add(full);
+      return full;
+    };
+    for (const raw of scope.def.elements) {
+      const name = scope.path ? `${scope.path}.${raw.name}` : raw.name;
+      const part = scope.part ?? raw.name;
+      const p = scope.params;
+      const val = (what = raw.name) => value(raw.value as RawValue, p, raw.line, what);
+      const n = raw.nodes.map(node);
+      switch (raw.letter) {
+        case 'R': {
+          const v = val();
+          if (v === 0) throw new NetlistError(raw.line, `${raw.name}: resistance must not be 0`);
+          elements.push({ kind: 'R', name, part, nodes: [n[0] as string, n[1] as string], value: v });
+          break;
+        }
+        case 'C':
+        case 'L':
+          elements.push({ kind: raw.letter, name, part, nodes: [n[0] as string, n[1] as string], value: val() });
+          break;
+        case 'V':
+        case 'I':
+          elements.push({ kind: raw.letter, name, part, nodes: [n[0] as string, n[1] as string], value: val() });
+          if (raw.letter === 'V') vNames.add(name.toLowerCase());
+          break;
+        case 'E':
+        case 'G':
+          elements.push({ kind: raw.letter, name, part, nodes: [n[0], n[1], n[2], n[3]] as [string, string, string, string], gain: val(`${raw.name} gain`) });
+          break;
+        case 'F':
+        case 'H': {
+          const ctl = scope.path ? `${scope.path}.${raw.control as string}` : (raw.control as string);
+          const el = { kind: raw.letter, name, part, nodes: [n[0], n[1]] as [string, string], control: ctl, gain: val(`${raw.name} gain`) };
+          elements.push(el);
+          pendingControls.push({ el, line: raw.line, prefix: scope.path, raw: raw.control as string });
+          break;
+        }
+        case 'D': {
+          const m = lookupModel(scope, raw.model as string);
+          if (!m) throw new NetlistError(raw.line, `${raw.name}: model "${raw.model}" is not defined`);
+          if (m.type !== 'd') throw new NetlistError(raw.line, `${raw.name}: model "${raw.model}" is ${m.type.toUpperCase()}, a diode needs a D model`);
+          const area = val(`${raw.name} area`);
+          elements.push({ kind: 'D', name, part, nodes: [n[0] as string, n[1] as string], model: diodeModel(m, p), area });
+          break;
+        }
+        case 'Q': {
+          const words = (raw.model as string).split(' ');
+          let modelName: string;
+          let areaTok: string | undefined;
+          if (words.length === 1) modelName = words[0] as string;
+          else if (lookupModel(scope, words[0] as string)) {
+            modelName = words[0] as string;
+            areaTok = words[1];
+          } else {
+            modelName = words[1] as string; // words[0] is the substrate node (no effect at DC)
+            areaTok = words[2];
+          }
+          const m = lookupModel(scope, modelName);
+          if (!m) throw new NetlistError(raw.line, `${raw.name}: model "${modelName}" is not defined`);
+          if (m.type === 'd') throw new NetlistError(raw.line, `${raw.name}: model "${modelName}" is a diode model, a transistor needs NPN or PNP`);
+          let area = 1;
+          if (areaTok !== undefined) {
+            const a = Number(areaTok);
+            if (!(a > 0)) throw new NetlistError(raw.line, `${raw.name}: bad area "${areaTok}"`);
+            area = a;
+          }
+          elements.push({ kind: 'Q', name, part, nodes: [n[0], n[1], n[2]] as [string, string, string], model: bjtModel(m, p), area });
+          break;
+        }
+        case 'X': {
+          const sub = lookupSubckt(scope, raw.model as string);
+          if (!sub) throw new NetlistError(raw.line, `${raw.name}: subcircuit "${raw.model}" is not defined`);
+          if (sub.ports.length !== raw.nodes.length) {
+            throw new NetlistError(raw.line, `${raw.name}: subcircuit ${sub.name} has ${sub.ports.length} ports, ${raw.nodes.length} nodes given`);
+          }
+          if (scope.depth > 50) throw new NetlistError(raw.line, `${raw.name}: subcircuits nested too deeply (recursive definition?)`);
+          const childParams = new Map(p);
+          const inst = raw.params ?? {};
+          for (const k of Object.keys(inst)) {
+            if (!sub.params.some((d) => d.name === k)) throw new NetlistError(raw.line, `${raw.name}: subcircuit ${sub.name} has no parameter "${k}"`);
+          }
+          for (const d of sub.params) {
+            const given = inst[d.name];
+            childParams.set(d.name, given ? value(given, p, raw.line, `${raw.name} ${d.name}`) : value(d.value, childParams, d.line, `.subckt ${sub.name} ${d.name}`));
+          }
+          const portMap = new Map<string, string>();
+          sub.ports.forEach((port, i) => portMap.set(port, n[i] as string));
+          walk({
+            def: sub,
+            lexical: [sub, ...scope.lexical],
+            params: childParams,
+            path: name,
+            prefix: name.toLowerCase(),
+            part,
+            portMap,
+            depth: scope.depth + 1,
+          });
+          break;
+        }
+      }
+    }
+  };
+  walk({ def: top, lexical: [top], params: topParams, path: '', prefix: '', part: undefined, portMap: new Map(), depth: 0 });
+
+  for (const pc of pendingControls) {
+    if (!vNames.has(pc.el.control.toLowerCase())) {
+      throw new NetlistError(pc.line, `${pc.el.name}: controlling voltage source "${pc.raw}" is not defined${pc.prefix ? ` in ${pc.prefix}` : ''}`);
+    }
+    const v = elements.find((e) => e.kind === 'V' && e.name.toLowerCase() === pc.el.control.toLowerCase());
+    if (v) pc.el.control = v.name;
+  }
+
+  const circuit: Circuit = { title: netlist.title, elements, nets: [...nets], params: Object.fromEntries(topParams) };
+  if (options.checkDcPaths !== false) {
+    const islands = nodesWithoutDcPath(elements);
+    if (islands.length > 0) {
+      const el = findLine(netlist, islands[0] as string);
+      const list = islands.slice(0, 5).join(', ') + (islands.length > 5 ? ', …' : '');
+      throw new NetlistError(el, `node${islands.length > 1 ? 's' : ''} ${list} ha${islands.length > 1 ? 've' : 's'} no DC path to the reference (0)`);
+    }
+  }
+  return circuit;
+}
+
+/** First line of a top-level element touching `node` (0 when it lies inside a subcircuit). */
+function findLine(netlist: Netlist, node: string): number {
+  const el: RawElement | undefined = netlist.elements.find((e) => e.nodes.some((n) => normNode(n) === node));
+  return el?.line ?? 0;
+}

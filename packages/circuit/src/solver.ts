@@ -1,0 +1,649 @@
+import type { Circuit, Element } from './circuit';
+import { REFERENCE } from './circuit';
+import { luFactor, luSolve, luWorkspace, type LuWorkspace } from './lu';
+import { nodesWithoutDcPath } from './topology';
+
+/** Thermal voltage kT/q at 27 °C (300.15 K) with the constants ngspice uses (CONSTboltz, CHARGE). */
+export const VT = (1.38064852e-23 * 300.15) / 1.6021766208e-19;
+/** Conductance SPICE puts across every pn junction (ngspice default GMIN). */
+export const GMIN = 1e-12;
+/** Conductance from nodes with no DC path to the reference (islands of a derived board state). */
+export const GISLAND = 1e-12;
+
+export interface SolveOptions {
+  /** Warm start: a previous OpResult.x of the same topology, or node voltages by name. */
+  initialGuess?: Float64Array | Record<string, number>;
+  /** Newton iterations per attempt (default 150). */
+  maxIterations?: number;
+  /** Relative tolerance on the solution (default 1e-6, tighter than SPICE's RELTOL 1e-3). */
+  reltol?: number;
+  /** Absolute voltage tolerance, V (default 1e-9). */
+  vntol?: number;
+  /** Absolute current tolerance, A (default 1e-14). */
+  abstol?: number;
+  /** Nodes that must exist even if no element touches them (e.g. probe nets). */
+  extraNodes?: readonly string[];
+}
+
+export type SolveMethod = 'linear' | 'newton' | 'damped' | 'gmin' | 'source';
+
+export interface OpResult {
+  converged: boolean;
+  /** Node voltages by lower-case name, internal nodes included, reference excluded. */
+  nodes: Record<string, number>;
+  /** Branch currents of V, L, E and H elements by lower-case flat name (SPICE sign: into the + terminal). */
+  sources: Record<string, number>;
+  /**
+   * Per-element current by flat name as written: R, L, V, E, H from nodes[0] through the element to nodes[1];
+   * C 0; I, F, G their source current; D anode → cathode; Q collector current, with "<name>:b" (base) and
+   * "<name>:e" (emitter) currents into the terminals.
+   */
+  currents: Record<string, number>;
+  iterations: number;
+  message?: string;
+  /** How the solution was found. */
+  method?: SolveMethod;
+  /** The solution vector (node voltages then branch currents); pass as `initialGuess` for a warm start. */
+  x?: Float64Array;
+}
+
+interface DiodeDev {
+  name: string;
+  a: number;
+  k: number;
+  is: number;
+  vte: number;
+  vcrit: number;
+  /** Breakdown voltage adjusted to give IBV at BV (ngspice diotemp), Infinity when BV not given. */
+  xbv: number;
+  vold: number;
+}
+
+interface BjtDev {
+  name: string;
+  c: number;
+  b: number;
+  e: number;
+  pol: number;
+  is: number;
+  bf: number;
+  br: number;
+  vtf: number;
+  vtr: number;
+  vcrit: number;
+  vbe: number;
+  vbc: number;
+  // last evaluated currents (model polarity) for reporting
+  ic: number;
+  ib: number;
+}
+
+/** Compiled MNA system of one circuit. */
+interface System {
+  n: number;
+  /** Row stride = n + 1: row/column n is a sink for the reference node, so stamps need no branches. */
+  s: number;
+  nodeNames: string[];
+  nodeCount: number;
+  branchNames: string[];
+  a0: Float64Array;
+  bsrc: Float64Array;
+  diodes: DiodeDev[];
+  bjts: BjtDev[];
+  nodeIndex: Map<string, number>;
+  branchOf: Map<string, number>;
+  elements: readonly Element[];
+}
+
+function breakdownVoltage(bv: number, ibv: number, is: number, vt: number): number {
+  if (!Number.isFinite(bv)) return Infinity;
+  // ngspice diotemp.c: adjust BV so that the current at -BV equals IBV.
+  let cbv = ibv;
+  if (cbv < (is * bv) / vt) {
+    cbv = (is * bv) / vt;
+    return bv;
+  }
+  const tol = 1e-3 * cbv;
+  let xbv = bv - vt * Math.log(1 + cbv / is);
+  for (let i = 0; i < 25; i++) {
+    xbv = bv - vt * Math.log(cbv / is + 1 - xbv / vt);
+    const xcbv = is * (Math.exp((bv - xbv) / vt) - 1 + xbv / vt);
+    if (Math.abs(xcbv - cbv) <= tol) break;
+  }
+  return xbv;
+}
+
+function compile(circuit: Circuit, extraNodes: readonly string[]): System {
+  const elements = circuit.elements;
+  const nodeIndex = new Map<string, number>();
+  const nodeNames: string[] = [];
+  const addNode = (name: string): number => {
+    if (name === REFERENCE) return -1;
+    let i = nodeIndex.get(name);
+    if (i === undefined) {
+      i = nodeNames.length;
+      nodeIndex.set(name, i);
+      nodeNames.push(name);
+    }
+    return i;
+  };
+  for (const e of elements) for (const nd of e.nodes) addNode(nd);
+  for (const nd of extraNodes) addNode(nd);
+  // internal nodes
+  const internal = new Map<Element, number[]>();
+  for (const e of elements) {
+    const low = e.name.toLowerCase();
+    if (e.kind === 'D' && e.model.rs > 0) internal.set(e, [addNode(`${low}#int`)]);
+    if (e.kind === 'Q') {
+      const m = e.model;
+      internal.set(e, [m.rc > 0 ? addNode(`${low}#c`) : -2, m.rb > 0 ? addNode(`${low}#b`) : -2, m.re > 0 ? addNode(`${low}#e`) : -2]);
+    }
+  }
+  const nodeCount = nodeNames.length;
+  const branchNames: string[] = [];
+  const branchOf = new Map<string, number>();
+  for (const e of elements) {
+    if (e.kind === 'V' || e.kind === 'L' || e.kind === 'E' || e.kind === 'H') {
+      branchOf.set(e.name.toLowerCase(), nodeCount + branchNames.length);
+      branchNames.push(e.name.toLowerCase());
+    }
+  }
+  const n = nodeCount + branchNames.length;
+  const s = n + 1;
+  const a0 = new Float64Array(s * s);
+  const bsrc = new Float64Array(s);
+  const G = (i: number) => (i < 0 ? n : i);
+  const idx = (name: string) => G(nodeIndex.get(name) ?? -1);
+  const cond = (p: number, q: number, g: number) => {
+    a0[p * s + p] = (a0[p * s + p] as number) + (g);
+    a0[q * s + q] = (a0[q * s + q] as number) + (g);
+    a0[p * s + q] = (a0[p * s + q] as number) - (g);
+    a0[q * s + p] = (a0[q * s + p] as number) - (g);
+  };
+  const branchStamp = (k: number, p: number, q: number) => {
+    a0[p * s + k] = (a0[p * s + k] as number) + (1);
+    a0[q * s + k] = (a0[q * s + k] as number) - (1);
+    a0[k * s + p] = (a0[k * s + p] as number) + (1);
+    a0[k * s + q] = (a0[k * s + q] as number) - (1);
+  };
+  const diodes: DiodeDev[] = [];
+  const bjts: BjtDev[] = [];
+  for (const e of elements) {
+    switch (e.kind) {
+      case 'R':
+        cond(idx(e.nodes[0]), idx(e.nodes[1]), 1 / e.value);
+        break;
+      case 'C':
+        break;
+      case 'V':
+      case 'L': {
+        const k = branchOf.get(e.name.toLowerCase()) as number;
+        branchStamp(k, idx(e.nodes[0]), idx(e.nodes[1]));
+        if (e.kind === 'V') bsrc[k] = (bsrc[k] as number) + e.value;
+        break;
+      }
+      case 'I': {
+        bsrc[idx(e.nodes[0])] = (bsrc[idx(e.nodes[0])] as number) - (e.value);
+        bsrc[idx(e.nodes[1])] = (bsrc[idx(e.nodes[1])] as number) + (e.value);
+        break;
+      }
+      case 'E': {
+        const k = branchOf.get(e.name.toLowerCase()) as number;
+        branchStamp(k, idx(e.nodes[0]), idx(e.nodes[1]));
+        a0[k * s + idx(e.nodes[2])] = (a0[k * s + idx(e.nodes[2])] as number) - (e.gain);
+        a0[k * s + idx(e.nodes[3])] = (a0[k * s + idx(e.nodes[3])] as number) + (e.gain);
+        break;
+      }
+      case 'G': {
+        const p = idx(e.nodes[0]);
+        const q = idx(e.nodes[1]);
+        const cp = idx(e.nodes[2]);
+        const cq = idx(e.nodes[3]);
+        a0[p * s + cp] = (a0[p * s + cp] as number) + (e.gain);
+        a0[p * s + cq] = (a0[p * s + cq] as number) - (e.gain);
+        a0[q * s + cp] = (a0[q * s + cp] as number) - (e.gain);
+        a0[q * s + cq] = (a0[q * s + cq] as number) + (e.gain);
+        break;
+      }
+      case 'F':
+      case 'H': {
+        const kc = branchOf.get(e.control.toLowerCase());
+        if (kc === undefined) throw new Error(`${e.name}: controlling voltage source "${e.control}" is not in the circuit`);
+        const p = idx(e.nodes[0]);
+        const q = idx(e.nodes[1]);
+        if (e.kind === 'F') {
+          a0[p * s + kc] = (a0[p * s + kc] as number) + (e.gain);
+          a0[q * s + kc] = (a0[q * s + kc] as number) - (e.gain);
+        } else {
+          const k = branchOf.get(e.name.toLowerCase()) as number;
+          branchStamp(k, p, q);
+          a0[k * s + kc] = (a0[k * s + kc] as number) - (e.gain);
+        }
+        break;
+      }
+      case 'D': {
+        const m = e.model;
+        const is = m.is * e.area;
+        const vte = m.n * VT;
+        let a = idx(e.nodes[0]);
+        if (m.rs > 0) {
+          const ai = G((internal.get(e) as number[])[0] as number);
+          cond(a, ai, e.area / m.rs);
+          a = ai;
+        }
+        diodes.push({
+          name: e.name,
+          a,
+          k: idx(e.nodes[1]),
+          is,
+          vte,
+          vcrit: vte * Math.log(vte / (Math.SQRT2 * is)),
+          xbv: breakdownVoltage(m.bv, m.ibv, is, vte),
+          vold: 0,
+        });
+        break;
+      }
+      case 'Q': {
+        const m = e.model;
+        const ins = internal.get(e) as number[];
+        const ext = [idx(e.nodes[0]), idx(e.nodes[1]), idx(e.nodes[2])];
+        const rr = [m.rc, m.rb, m.re];
+        const t = ext.map((x, i) => {
+          const ii = ins[i] as number;
+          if (ii === -2) return x;
+          const gi = G(ii);
+          cond(x, gi, e.area / (rr[i] as number));
+          return gi;
+        });
+        const is = m.is * e.area;
+        bjts.push({
+          name: e.name,
+          c: t[0] as number,
+          b: t[1] as number,
+          e: t[2] as number,
+          pol: m.type === 'pnp' ? -1 : 1,
+          is,
+          bf: m.bf,
+          br: m.br,
+          vtf: m.nf * VT,
+          vtr: m.nr * VT,
+          vcrit: VT * Math.log(VT / (Math.SQRT2 * is)),
+          vbe: 0,
+          vbc: 0,
+          ic: 0,
+          ib: 0,
+        });
+        break;
+      }
+    }
+  }
+  // islands of a derived state: a tiny conductance to the reference keeps the matrix regular
+  for (const nd of nodesWithoutDcPath(elements, extraNodes)) {
+    const i = nodeIndex.get(nd);
+    if (i !== undefined) a0[i * s + i] = (a0[i * s + i] as number) + GISLAND;
+  }
+  // internal nodes are always tied by their series resistors, so no island check is needed for them
+  return { n, s, nodeNames, nodeCount, branchNames, a0, bsrc, diodes, bjts, nodeIndex, branchOf, elements };
+}
+
+/** SPICE junction voltage limiting (ngspice DEVpnjlim). Returns the limited voltage; sets lim.hit. */
+function pnjlim(vnew: number, vold: number, vt: number, vcrit: number, lim: { hit: boolean }): number {
+  if (vnew > vcrit && Math.abs(vnew - vold) > vt + vt) {
+    lim.hit = true;
+    if (vold > 0) {
+      const arg = 1 + (vnew - vold) / vt;
+      return arg > 0 ? vold + vt * Math.log(arg) : vcrit;
+    }
+    return vt * Math.log(vnew / vt);
+  }
+  if (vnew < 0) {
+    const arg = vold > 0 ? -1 * vold - 1 : 2 * vold - 1;
+    if (vnew < arg) {
+      lim.hit = true;
+      return arg;
+    }
+  }
+  return vnew;
+}
+
+/** Junction current and conductance (ngspice dioload/bjtload): forward exponential, reverse cubic, breakdown. */
+function junction(v: number, is: number, vte: number, xbv: number, out: Float64Array): void {
+  if (v >= -3 * vte) {
+    const ev = Math.exp(v / vte);
+    out[0] = is * (ev - 1);
+    out[1] = (is * ev) / vte;
+  } else if (v >= -xbv) {
+    let arg = (3 * vte) / (v * Math.E);
+    arg = arg * arg * arg;
+    out[0] = -is * (1 + arg);
+    out[1] = (is * 3 * arg) / v;
+  } else {
+    const ev = Math.exp(-(xbv + v) / vte);
+    out[0] = -is * ev;
+    out[1] = (is * ev) / vte;
+  }
+}
+
+interface Work {
+  a: Float64Array;
+  b: Float64Array;
+  x: Float64Array;
+  xn: Float64Array;
+  ws: LuWorkspace;
+  jv: Float64Array;
+  lim: { hit: boolean };
+}
+
+interface AttemptConfig {
+  maxIter: number;
+  srcScale: number;
+  gshunt: number;
+  maxStep: number;
+  reltol: number;
+  vntol: number;
+  abstol: number;
+  /** First iteration sets junctions to their critical voltages (SPICE MODEINITJCT) instead of from x. */
+  initJunctions: boolean;
+}
+
+/** Runs Newton–Raphson from w.x; returns iterations used (negative when not converged). */
+function newton(sys: System, w: Work, cfg: AttemptConfig): { ok: boolean; iterations: number; singular?: number } {
+  const { n, s, a0, bsrc, diodes, bjts, nodeCount } = sys;
+  const { a, b, x, xn, ws, jv, lim } = w;
+  const size = s * s;
+  const nonlinear = diodes.length + bjts.length > 0;
+  x[n] = 0;
+  // junction states from the start point
+  for (const d of diodes) d.vold = cfg.initJunctions ? d.vcrit : (x[d.a] as number) - (x[d.k] as number);
+  for (const q of bjts) {
+    q.vbe = cfg.initJunctions ? q.vcrit : q.pol * ((x[q.b] as number) - (x[q.e] as number));
+    q.vbc = cfg.initJunctions ? 0 : q.pol * ((x[q.b] as number) - (x[q.c] as number));
+  }
+  for (let iter = 1; iter <= cfg.maxIter; iter++) {
+    a.set(a0);
+    for (let i = 0; i < s; i++) b[i] = cfg.srcScale * (bsrc[i] as number);
+    if (cfg.gshunt > 0) for (let i = 0; i < nodeCount; i++) a[i * s + i] = (a[i * s + i] as number) + cfg.gshunt;
+    lim.hit = false;
+    const first = iter === 1;
+    for (let di = 0; di < diodes.length; di++) {
+      const d = diodes[di] as DiodeDev;
+      let vd = (x[d.a] as number) - (x[d.k] as number);
+      if (first) vd = d.vold;
+      else if (Number.isFinite(d.xbv) && vd < Math.min(0, -d.xbv + 10 * d.vte)) {
+        vd = -(pnjlim(-(vd + d.xbv), -(d.vold + d.xbv), d.vte, d.vcrit, lim) + d.xbv);
+      } else vd = pnjlim(vd, d.vold, d.vte, d.vcrit, lim);
+      d.vold = vd;
+      junction(vd, d.is, d.vte, d.xbv, jv);
+      const id = (jv[0] as number) + GMIN * vd;
+      const gd = (jv[1] as number) + GMIN;
+      const ieq = id - gd * vd;
+      const pa = d.a * s;
+      const pk = d.k * s;
+      a[pa + d.a] = (a[pa + d.a] as number) + (gd);
+      a[pk + d.k] = (a[pk + d.k] as number) + (gd);
+      a[pa + d.k] = (a[pa + d.k] as number) - (gd);
+      a[pk + d.a] = (a[pk + d.a] as number) - (gd);
+      b[d.a] = (b[d.a] as number) - (ieq);
+      b[d.k] = (b[d.k] as number) + (ieq);
+    }
+    for (let qi = 0; qi < bjts.length; qi++) {
+      const q = bjts[qi] as BjtDev;
+      const p = q.pol;
+      let vbe = p * ((x[q.b] as number) - (x[q.e] as number));
+      let vbc = p * ((x[q.b] as number) - (x[q.c] as number));
+      if (first) {
+        vbe = q.vbe;
+        vbc = q.vbc;
+      } else {
+        vbe = pnjlim(vbe, q.vbe, VT, q.vcrit, lim);
+        vbc = pnjlim(vbc, q.vbc, VT, q.vcrit, lim);
+      }
+      q.vbe = vbe;
+      q.vbc = vbc;
+      junction(vbe, q.is, q.vtf, Infinity, jv);
+      const cbe = jv[0] as number;
+      const gbe = jv[1] as number;
+      junction(vbc, q.is, q.vtr, Infinity, jv);
+      const cbc = jv[0] as number;
+      const gbc = jv[1] as number;
+      const ic = cbe - cbc - cbc / q.br - GMIN * vbc;
+      const ib = cbe / q.bf + GMIN * vbe + cbc / q.br + GMIN * vbc;
+      q.ic = ic;
+      q.ib = ib;
+      const g11 = gbe;
+      const g12 = -(gbc + gbc / q.br + GMIN);
+      const g21 = gbe / q.bf + GMIN;
+      const g22 = gbc / q.br + GMIN;
+      const rc = q.c * s;
+      const rb = q.b * s;
+      const re = q.e * s;
+      a[rc + q.b] = (a[rc + q.b] as number) + (g11 + g12);
+      a[rc + q.e] = (a[rc + q.e] as number) - (g11);
+      a[rc + q.c] = (a[rc + q.c] as number) - (g12);
+      b[q.c] = (b[q.c] as number) - (p * (ic - g11 * vbe - g12 * vbc));
+      a[rb + q.b] = (a[rb + q.b] as number) + (g21 + g22);
+      a[rb + q.e] = (a[rb + q.e] as number) - (g21);
+      a[rb + q.c] = (a[rb + q.c] as number) - (g22);
+      b[q.b] = (b[q.b] as number) - (p * (ib - g21 * vbe - g22 * vbc));
+      a[re + q.b] = (a[re + q.b] as number) - (g11 + g12 + g21 + g22);
+      a[re + q.e] = (a[re + q.e] as number) + (g11 + g21);
+      a[re + q.c] = (a[re + q.c] as number) + (g12 + g22);
+      b[q.e] = (b[q.e] as number) + (p * (ic + ib - (g11 + g21) * vbe - (g12 + g22) * vbc));
+    }
+    void size;
+    const sing = luFactor(a, ws);
+    if (sing >= 0) return { ok: false, iterations: iter, singular: sing };
+    luSolve(a, ws, b, xn);
+    if (!nonlinear) {
+      x.set(xn.subarray(0, n));
+      return { ok: true, iterations: iter };
+    }
+    // damping (fall-back attempts only): limit the largest node-voltage step
+    if (cfg.maxStep < Infinity) {
+      let maxd = 0;
+      for (let i = 0; i < nodeCount; i++) maxd = Math.max(maxd, Math.abs((xn[i] as number) - (x[i] as number)));
+      if (maxd > cfg.maxStep) {
+        const f = cfg.maxStep / maxd;
+        for (let i = 0; i < n; i++) xn[i] = (x[i] as number) + f * ((xn[i] as number) - (x[i] as number));
+        lim.hit = true;
+      }
+    }
+    let conv = !lim.hit && !first;
+    for (let i = 0; i < n; i++) {
+      const xo = x[i] as number;
+      const xv = xn[i] as number;
+      if (!Number.isFinite(xv)) return { ok: false, iterations: iter };
+      if (conv) {
+        const tol = cfg.reltol * Math.max(Math.abs(xo), Math.abs(xv)) + (i < nodeCount ? cfg.vntol : cfg.abstol);
+        if (Math.abs(xv - xo) > tol) conv = false;
+      }
+      x[i] = xv;
+    }
+    if (conv) return { ok: true, iterations: iter };
+  }
+  return { ok: false, iterations: cfg.maxIter };
+}
+
+function describeSingular(sys: System, col: number): string {
+  if (col < sys.nodeCount) return `singular matrix at node ${sys.nodeNames[col]} (floating node or no DC path?)`;
+  return `singular matrix at the branch of ${sys.branchNames[col - sys.nodeCount]} (a loop of voltage sources or inductors?)`;
+}
+
+/** DC operating point: MNA + Newton–Raphson with pnjlim; damped Newton, gmin stepping, source stepping as fall-backs. */
+export function solveOp(circuit: Circuit, options: SolveOptions = {}): OpResult {
+  let sys: System;
+  try {
+    sys = compile(circuit, options.extraNodes ?? []);
+  } catch (err) {
+    return { converged: false, nodes: {}, sources: {}, currents: {}, iterations: 0, message: (err as Error).message };
+  }
+  const { n, s } = sys;
+  const w: Work = {
+    a: new Float64Array(s * s),
+    b: new Float64Array(s),
+    x: new Float64Array(s),
+    xn: new Float64Array(s),
+    ws: luWorkspace(n, s),
+    jv: new Float64Array(2),
+    lim: { hit: false },
+  };
+  let warm = false;
+  const ig = options.initialGuess;
+  if (ig instanceof Float64Array) {
+    if (ig.length === n) {
+      w.x.set(ig);
+      warm = true;
+    }
+  } else if (ig) {
+    for (const [k, v] of Object.entries(ig)) {
+      const i = sys.nodeIndex.get(k.toLowerCase());
+      if (i !== undefined && Number.isFinite(v)) {
+        w.x[i] = v;
+        warm = true;
+      }
+    }
+  }
+  const start = new Float64Array(w.x);
+  const base: AttemptConfig = {
+    maxIter: options.maxIterations ?? 150,
+    srcScale: 1,
+    gshunt: 0,
+    maxStep: Infinity,
+    reltol: options.reltol ?? 1e-6,
+    vntol: options.vntol ?? 1e-9,
+    abstol: options.abstol ?? 1e-14,
+    initJunctions: !warm,
+  };
+  let total = 0;
+  const nonlinear = sys.diodes.length + sys.bjts.length > 0;
+  let r = newton(sys, w, base);
+  total += r.iterations;
+  let method: SolveMethod = nonlinear ? 'newton' : 'linear';
+  if (r.singular !== undefined) {
+    return { converged: false, nodes: {}, sources: {}, currents: {}, iterations: total, message: describeSingular(sys, r.singular) };
+  }
+  if (!r.ok && warm) {
+    // a stale warm start: retry cold
+    w.x.fill(0);
+    r = newton(sys, w, { ...base, initJunctions: true });
+    total += r.iterations;
+  }
+  if (!r.ok) {
+    method = 'damped';
+    w.x.set(start);
+    r = newton(sys, w, { ...base, maxIter: base.maxIter * 4, maxStep: 1 });
+    total += r.iterations;
+  }
+  if (!r.ok) {
+    method = 'gmin';
+    w.x.fill(0);
+    let ok = true;
+    let first = true;
+    for (let g = 1e-2; g >= 1e-13; g /= 10) {
+      const rr = newton(sys, w, { ...base, gshunt: g, initJunctions: first });
+      first = false;
+      total += rr.iterations;
+      if (!rr.ok) {
+        ok = false;
+        break;
+      }
+    }
+    if (ok) {
+      r = newton(sys, w, { ...base, initJunctions: false });
+      total += r.iterations;
+    }
+  }
+  if (!r.ok) {
+    method = 'source';
+    w.x.fill(0);
+    let ok = true;
+    let first = true;
+    for (let k = 1; k <= 20; k++) {
+      const rr = newton(sys, w, { ...base, srcScale: k / 20, initJunctions: first, maxIter: base.maxIter * 2 });
+      first = false;
+      total += rr.iterations;
+      if (!rr.ok) {
+        ok = false;
+        break;
+      }
+    }
+    r = { ok, iterations: 0 };
+  }
+  if (!r.ok) {
+    return {
+      converged: false,
+      nodes: {},
+      sources: {},
+      currents: {},
+      iterations: total,
+      message: `no convergence after ${total} Newton iterations (plain, damped, gmin stepping and source stepping all failed)`,
+    };
+  }
+  return report(sys, w.x, total, method);
+}
+
+function report(sys: System, x: Float64Array, iterations: number, method: SolveMethod): OpResult {
+  const { n, nodeNames, nodeIndex, branchNames, nodeCount } = sys;
+  const nodes: Record<string, number> = {};
+  for (let i = 0; i < nodeCount; i++) nodes[nodeNames[i] as string] = x[i] as number;
+  const sources: Record<string, number> = {};
+  for (let i = 0; i < branchNames.length; i++) sources[branchNames[i] as string] = x[nodeCount + i] as number;
+  const v = (name: string) => {
+    const i = nodeIndex.get(name);
+    return i === undefined ? 0 : (x[i] as number);
+  };
+  const currents: Record<string, number> = {};
+  let qi = 0;
+  let di = 0;
+  for (const e of sys.elements) {
+    switch (e.kind) {
+      case 'R':
+        currents[e.name] = (v(e.nodes[0]) - v(e.nodes[1])) / e.value;
+        break;
+      case 'C':
+        currents[e.name] = 0;
+        break;
+      case 'I':
+        currents[e.name] = e.value;
+        break;
+      case 'V':
+      case 'L':
+      case 'E':
+      case 'H':
+        currents[e.name] = x[sys.branchOf.get(e.name.toLowerCase()) as number] as number;
+        break;
+      case 'G':
+        currents[e.name] = e.gain * (v(e.nodes[2]) - v(e.nodes[3]));
+        break;
+      case 'F':
+        currents[e.name] = e.gain * (x[sys.branchOf.get(e.control.toLowerCase()) as number] as number);
+        break;
+      case 'D': {
+        const d = sys.diodes[di++] as DiodeDev;
+        const vd = (d.a === n ? 0 : (x[d.a] as number)) - (d.k === n ? 0 : (x[d.k] as number));
+        const jv = new Float64Array(2);
+        junction(vd, d.is, d.vte, d.xbv, jv);
+        currents[e.name] = (jv[0] as number) + GMIN * vd;
+        break;
+      }
+      case 'Q': {
+        const q = sys.bjts[qi++] as BjtDev;
+        const xv = (i: number) => (i === n ? 0 : (x[i] as number));
+        const vbe = q.pol * (xv(q.b) - xv(q.e));
+        const vbc = q.pol * (xv(q.b) - xv(q.c));
+        const jv = new Float64Array(2);
+        junction(vbe, q.is, q.vtf, Infinity, jv);
+        const cbe = jv[0] as number;
+        junction(vbc, q.is, q.vtr, Infinity, jv);
+        const cbc = jv[0] as number;
+        const ic = q.pol * (cbe - cbc - cbc / q.br - GMIN * vbc);
+        const ib = q.pol * (cbe / q.bf + GMIN * vbe + cbc / q.br + GMIN * vbc);
+        currents[e.name] = ic;
+        currents[`${e.name}:b`] = ib;
+        currents[`${e.name}:e`] = -(ic + ib);
+        break;
+      }
+    }
+  }
+  return { converged: true, nodes, sources, currents, iterations, method, x: new Float64Array(x.subarray(0, n)) };
+}
