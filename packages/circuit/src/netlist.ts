@@ -197,7 +197,6 @@ function splitAssignment(tok: string, line: number, what: string): [string, RawV
   return [key, rawValue(val, line, `${what} ${key}`)];
 }
 
-const NODE_COUNT: Partial<Record<ElementLetter, number>> = { R: 2, C: 2, L: 2, V: 2, I: 2, D: 2, E: 4, G: 4, F: 2, H: 2 };
 const USAGE: Record<ElementLetter, string> = {
   R: 'needs 2 nodes and a value',
   C: 'needs 2 nodes and a value',

@@ -98,11 +98,8 @@ interface System {
 function breakdownVoltage(bv: number, ibv: number, is: number, vt: number): number {
   if (!Number.isFinite(bv)) return Infinity;
   // ngspice diotemp.c: adjust BV so that the current at -BV equals IBV.
-  let cbv = ibv;
-  if (cbv < (is * bv) / vt) {
-    cbv = (is * bv) / vt;
-    return bv;
-  }
+  const cbv = ibv;
+  if (cbv < (is * bv) / vt) return bv;
   const tol = 1e-3 * cbv;
   let xbv = bv - vt * Math.log(1 + cbv / is);
   for (let i = 0; i < 25; i++) {
@@ -350,7 +347,6 @@ interface AttemptConfig {
 function newton(sys: System, w: Work, cfg: AttemptConfig): { ok: boolean; iterations: number; singular?: number } {
   const { n, s, a0, bsrc, diodes, bjts, nodeCount } = sys;
   const { a, b, x, xn, ws, jv, lim } = w;
-  const size = s * s;
   const nonlinear = diodes.length + bjts.length > 0;
   x[n] = 0;
   // junction states from the start point
@@ -430,7 +426,6 @@ function newton(sys: System, w: Work, cfg: AttemptConfig): { ok: boolean; iterat
       a[re + q.c] = (a[re + q.c] as number) + (g12 + g22);
       b[q.e] = (b[q.e] as number) + (p * (ic + ib - (g11 + g21) * vbe - (g12 + g22) * vbc));
     }
-    void size;
     const sing = luFactor(a, ws);
     if (sing >= 0) return { ok: false, iterations: iter, singular: sing };
     luSolve(a, ws, b, xn);
