@@ -1,0 +1,118 @@
+export interface RankedPart {
+  part: string;
+  mode: string;
+  probability: number;
+  description?: string;
+  evidenceFor: string[];
+  evidenceAgainst: string[];
+}
+
+export interface NextTestView {
+  id: string;
+  label: string;
+  meter: string;
+  power: 'on' | 'off';
+  red: string;
+  black: string;
+  /** Expected information gain in bits, as the engine reports it. */
+  gainBits?: number;
+  pointId?: string;
+}
+
+const pct = (p: number) => `${(p * 100).toFixed(p < 0.1 ? 1 : 0)} %`;
+
+/** The engine's ranking of probable faulty parts and its best next tests. */
+export function RankingPanel({
+  parts,
+  nextTests,
+  selectedPart,
+  onPickPart,
+  onPickTest,
+}: {
+  parts: RankedPart[];
+  nextTests: NextTestView[];
+  selectedPart?: string | null;
+  onPickPart: (part: string) => void;
+  onPickTest?: (t: NextTestView) => void;
+}) {
+  return (
+    <div className="space-y-4">
+      <section aria-labelledby="ranking-h">
+        <h2 id="ranking-h" className="mb-2 text-lg font-semibold">
+          Probable faulty parts
+        </h2>
+        {parts.length === 0 ? (
+          <p className="text-sm text-stone-700">No part stands out yet: record a reading.</p>
+        ) : (
+          <ol className="space-y-2">
+            {parts.map((p, i) => (
+              <li key={`${p.part}-${p.mode}`}>
+                <button
+                  type="button"
+                  onClick={() => onPickPart(p.part)}
+                  aria-pressed={selectedPart === p.part}
+                  className={`w-full rounded-md border p-2 text-left ${selectedPart === p.part ? 'border-copper bg-amber-50' : 'border-stone-300 bg-white hover:bg-stone-50'}`}
+                >
+                  <span className="flex items-baseline justify-between gap-2">
+                    <span className="font-semibold">
+                      {i + 1}. {p.part} <span className="font-normal text-stone-700">{p.mode}</span>
+                    </span>
+                    <span className="tabular-nums font-semibold">{pct(p.probability)}</span>
+                  </span>
+                  <span
+                    className="mt-1 block h-2.5 overflow-hidden rounded-full bg-stone-200"
+                    role="meter"
+                    aria-label={`${p.part} probability`}
+                    aria-valuemin={0}
+                    aria-valuemax={100}
+                    aria-valuenow={Math.round(p.probability * 100)}
+                  >
+                    <span className="block h-full rounded-full bg-copper" style={{ width: `${Math.max(1, p.probability * 100)}%` }} />
+                  </span>
+                  {(p.evidenceFor.length > 0 || p.evidenceAgainst.length > 0) && (
+                    <span className="mt-1 grid gap-x-3 text-xs sm:grid-cols-2">
+                      <span>
+                        <span className="font-semibold text-ok">For: </span>
+                        {p.evidenceFor.join('; ') || '—'}
+                      </span>
+                      <span>
+                        <span className="font-semibold text-high">Against: </span>
+                        {p.evidenceAgainst.join('; ') || '—'}
+                      </span>
+                    </span>
+                  )}
+                </button>
+              </li>
+            ))}
+          </ol>
+        )}
+      </section>
+      <section aria-labelledby="next-h">
+        <h2 id="next-h" className="mb-2 text-lg font-semibold">
+          Next tests
+        </h2>
+        {nextTests.length === 0 ? (
+          <p className="text-sm text-stone-700">No further test would change the ranking.</p>
+        ) : (
+          <ol className="space-y-1">
+            {nextTests.map((t) => (
+              <li key={t.id}>
+                <button
+                  type="button"
+                  disabled={!onPickTest}
+                  onClick={() => onPickTest?.(t)}
+                  className="flex min-h-11 w-full flex-wrap items-center justify-between gap-2 rounded-md border border-stone-300 bg-white px-2 text-left text-sm hover:bg-stone-50"
+                >
+                  <span>
+                    <span className="font-semibold">{t.label}</span> · {t.meter} · power {t.power === 'on' ? 'ON' : 'OFF'}
+                  </span>
+                  {t.gainBits !== undefined && <span className="tabular-nums text-stone-700">{t.gainBits.toFixed(2)} bit</span>}
+                </button>
+              </li>
+            ))}
+          </ol>
+        )}
+      </section>
+    </div>
+  );
+}

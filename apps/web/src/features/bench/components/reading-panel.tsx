@@ -1,0 +1,130 @@
+import { useEffect, useRef, useState, type FormEvent } from 'react';
+import { Caution } from '@/components/ui/caution';
+import { MARKER, type MarkerState } from '../lib/map-geometry';
+import { MarkerGlyph } from './board-map';
+
+export const METER_LABEL: Record<string, string> = {
+  dcv: 'DC volts',
+  ohm: 'Resistance (Ω)',
+  diode: 'Diode test',
+  continuity: 'Continuity',
+};
+
+export interface ReadingTarget {
+  pointId: string;
+  pointLabel: string;
+  meter: string;
+  power: 'on' | 'off';
+  red: { label: string };
+  black: { label: string };
+  /** What the engine computed for this test on a healthy board. */
+  expected?: { text: string; band: string } | null;
+  touchesBus?: boolean;
+}
+
+export interface LatestReading {
+  text: string;
+  state: MarkerState | 'unsent';
+  detail?: string;
+}
+
+/**
+ * Where the probes go, what the engine expects, and a keyboard-first value field: type "14.9", "2.2k" or "OL"
+ * and press Enter. The verdict shown is the server's (the diagnosis engine's), never worked out here.
+ */
+export function ReadingPanel({
+  target,
+  latest,
+  onSave,
+  error,
+  busy,
+}: {
+  target: ReadingTarget;
+  latest?: LatestReading | null;
+  onSave: (text: string) => Promise<boolean> | boolean;
+  error?: string | null;
+  busy?: boolean;
+}) {
+  const [text, setText] = useState('');
+  const field = useRef<HTMLInputElement>(null);
+  useEffect(() => {
+    setText('');
+    field.current?.focus();
+  }, [target.pointId, target.meter]);
+
+  const submit = async (e: FormEvent) => {
+    e.preventDefault();
+    if (!text.trim()) return;
+    if (await onSave(text)) setText('');
+  };
+
+  return (
+    <section aria-labelledby="reading-h" className="space-y-3 rounded-lg border border-stone-300 bg-white p-3">
+      <h2 id="reading-h" className="text-lg font-semibold">
+        Reading at {target.pointLabel}
+      </h2>
+      <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 text-sm">
+        <dt className="text-stone-700">Meter</dt>
+        <dd className="font-semibold">{METER_LABEL[target.meter] ?? target.meter}</dd>
+        <dt className="text-stone-700">Red probe</dt>
+        <dd className="font-semibold">
+          <span className="mr-1 inline-block h-3 w-3 rounded-full bg-[#c81e1e] align-middle" aria-hidden /> {target.red.label}
+        </dd>
+        <dt className="text-stone-700">Black probe</dt>
+        <dd className="font-semibold">
+          <span className="mr-1 inline-block h-3 w-3 rounded-full bg-[#111827] align-middle" aria-hidden /> {target.black.label}
+        </dd>
+        <dt className="text-stone-700">Power</dt>
+        <dd className="font-semibold">{target.power === 'on' ? 'Board powered (ON)' : 'Unplugged, bus discharged (OFF)'}</dd>
+        <dt className="text-stone-700">Expected</dt>
+        <dd className="font-semibold">{target.expected ? `${target.expected.text} (${target.expected.band})` : 'not computed for this test'}</dd>
+      </dl>
+      {target.power === 'on' && (
+        <Caution title="Powered board: mains and ~300 V DC bus present">
+          <p>One hand, insulated probes, a meter rated for the bus. Follow your shop’s procedures and local codes.</p>
+        </Caution>
+      )}
+      <form onSubmit={submit} className="flex flex-wrap items-end gap-2">
+        <label className="flex-1">
+          <span className="block text-sm font-medium">Measured value</span>
+          <input
+            ref={field}
+            value={text}
+            onChange={(e) => setText(e.target.value)}
+            inputMode="decimal"
+            autoComplete="off"
+            spellCheck={false}
+            placeholder='e.g. 14.9, 2.2k, OL'
+            aria-describedby="reading-hint"
+            className="mt-1 block min-h-11 w-full rounded-md border border-stone-500 px-3 font-mono text-lg"
+          />
+        </label>
+        <button type="submit" disabled={busy} className="min-h-11 rounded-md bg-board px-4 font-semibold text-white disabled:opacity-60">
+          Save
+        </button>
+        <p id="reading-hint" className="w-full text-xs text-stone-700">
+          Enter saves. Prefixes k, M, m, u, n and codes like 4k7 work; OL for overload.
+        </p>
+      </form>
+      {error && (
+        <p role="alert" className="rounded-md bg-red-50 p-2 text-sm text-high">
+          {error}
+        </p>
+      )}
+      <div aria-live="polite" className="min-h-8">
+        {latest && (
+          <p className="flex items-center gap-2 text-base" data-testid="verdict">
+            {latest.state === 'unsent' ? (
+              <span className="rounded bg-amber-100 px-2 py-0.5 text-sm font-semibold text-amber-950">UNSENT</span>
+            ) : (
+              <MarkerGlyph state={latest.state} />
+            )}
+            <span className="font-mono font-semibold">{latest.text}</span>
+            <span className="font-semibold">{latest.state === 'unsent' ? 'kept on this device, will be sent' : MARKER[latest.state].label}</span>
+            {latest.detail && <span className="text-sm text-stone-700">{latest.detail}</span>}
+          </p>
+        )}
+      </div>
+    </section>
+  );
+}
