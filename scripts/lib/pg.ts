@@ -156,6 +156,31 @@ export function restartCluster(spec: ClusterSpec): void {
   if (r.status !== 0) throw new SetupError(`PostgreSQL restart failed: ${lastLine(r.stderr || r.stdout)}`);
 }
 
+/**
+ * Test databases are named after the run's process id, so two test runs on one machine (two clones, or two
+ * developers in one tree) never drop each other's database. Those of runs that have ended are dropped here.
+ */
+export async function dropStaleTestDatabases(cluster: Cluster, prefix: string): Promise<void> {
+  const client = new pg.Client({ connectionString: cluster.url('postgres') });
+  await client.connect();
+  try {
+    const { rows } = await client.query<{ datname: string }>('SELECT datname FROM pg_database WHERE datname LIKE $1', [`${prefix}%`]);
+    for (const { datname } of rows) {
+      const pid = Number(datname.slice(prefix.length));
+      let alive = false;
+      try {
+        process.kill(pid, 0);
+        alive = pid !== process.pid;
+      } catch {
+        alive = false;
+      }
+      if (!alive) await client.query(`DROP DATABASE IF EXISTS "${datname.replace(/"/g, '""')}" WITH (FORCE)`);
+    }
+  } finally {
+    await client.end();
+  }
+}
+
 export async function ensureDatabase(cluster: Cluster, database: string, { recreate }: { recreate: boolean }): Promise<string> {
   const client = new pg.Client({ connectionString: cluster.url('postgres') });
   await client.connect();

@@ -1,9 +1,11 @@
 // The pieces `npm start`, `npm test` and the benchmarks share: the database, the web build, the server process.
 import { spawn, type ChildProcess } from 'node:child_process';
-import { existsSync, readdirSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, readdirSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { migrateAndSeed } from '../../apps/server/src/db/setup';
-import { ensureCluster, ensureDatabase, type ClusterSpec } from './pg';
+import { dropStaleTestDatabases, ensureCluster, ensureDatabase, type ClusterSpec } from './pg';
+
+const TEST_DB_PREFIX = 'splitscope_test_';
 import { runInherit, SetupError, waitForHttp } from './proc';
 
 export const root = join(import.meta.dirname, '..', '..');
@@ -28,7 +30,8 @@ export function clusterSpec(kind: 'main' | 'test'): ClusterSpec {
 export async function prepareDatabase(kind: 'main' | 'test'): Promise<string> {
   const t0 = Date.now();
   const cluster = await ensureCluster(clusterSpec(kind));
-  const name = kind === 'main' ? (process.env.SPLITSCOPE_DB_NAME ?? 'splitscope') : 'splitscope_test';
+  if (kind === 'test') await dropStaleTestDatabases(cluster, TEST_DB_PREFIX);
+  const name = kind === 'main' ? (process.env.SPLITSCOPE_DB_NAME ?? 'splitscope') : `${TEST_DB_PREFIX}${process.pid}`;
   const url = await ensureDatabase(cluster, name, { recreate: kind === 'test' });
   const { created } = await migrateAndSeed(url);
   // Lets a developer run one integration test file by hand against the same database.
@@ -45,7 +48,7 @@ function newestMtime(dir: string): number {
   let newest = 0;
   if (!existsSync(dir)) return 0;
   for (const entry of readdirSync(dir, { withFileTypes: true })) {
-    if (entry.name === 'node_modules' || entry.name === 'dist') continue;
+    if (entry.name === 'node_modules' || entry.name.startsWith('dist')) continue;
     const p = join(dir, entry.name);
     newest = Math.max(newest, entry.isDirectory() ? newestMtime(p) : statSync(p).mtimeMs);
   }
@@ -61,8 +64,20 @@ export async function buildWeb(): Promise<void> {
     return;
   }
   console.log('splitscope: building the web app');
-  const code = await runInherit(join(root, 'apps', 'web', 'node_modules', '.bin', 'vite'), ['build', '--logLevel', 'warn'], process.env, join(root, 'apps', 'web'));
-  if (code !== 0) throw new SetupError('the web build failed (see above)');
+  // Build beside the live folder and swap it in, so a server already serving dist/ never sees half a build.
+  const tmp = `${WEB_DIST}-${process.pid}`;
+  const code = await runInherit(
+    join(root, 'apps', 'web', 'node_modules', '.bin', 'vite'),
+    ['build', '--logLevel', 'warn', '--outDir', tmp],
+    process.env,
+    join(root, 'apps', 'web'),
+  );
+  if (code !== 0) {
+    rmSync(tmp, { recursive: true, force: true });
+    throw new SetupError('the web build failed (see above)');
+  }
+  rmSync(WEB_DIST, { recursive: true, force: true });
+  renameSync(tmp, WEB_DIST);
 }
 
 export interface ServerProcess {
