@@ -1,0 +1,120 @@
+/**
+ * Electrical system model: predictions from the circuit engine (@splitscope/circuit).
+ *
+ * A test is a meter reading in a board state (power on/off, parts lifted). A prediction for a sub-fault set is
+ * the reading the meter model gives on the flat circuit in that state with the faults rewritten in
+ * (faults.ts). Board states are built once per state key; predictions are cached by the core per
+ * (sub-fault set, test), since they never depend on the readings.
+ */
+import { DEFAULT_METER, flatten, measure, stateOf, type Circuit, type MeterProfile, type Netlist } from '@splitscope/circuit';
+import type { Component, SubFault, SystemModel } from '../core/types.js';
+import { applyFaults, buildParts, toComponents, type ElectricalPart, type PartOverride } from './faults.js';
+import { consistent, logLikelihood, outcomeBins, type MeterMode, type Prediction, type ReadingValue } from './noise.js';
+
+export interface ElectricalTest {
+  mode: MeterMode;
+  /** Lower-case net names ("0" is the reference). */
+  red: string;
+  black: string;
+  power: 'on' | 'off';
+  /** Lifted parts as written in the netlist, sorted. */
+  lifted: string[];
+}
+
+export function stateKey(t: Pick<ElectricalTest, 'power' | 'lifted'>): string {
+  return `${t.power}|${t.lifted.join(',')}`;
+}
+
+export function testKey(t: ElectricalTest): string {
+  return `${t.mode}|${t.red}|${t.black}|${stateKey(t)}`;
+}
+
+export interface BoardModelInput {
+  netlist: Netlist;
+  params?: Record<string, number>;
+  parts?: Record<string, PartOverride>;
+  meter?: MeterProfile;
+}
+
+export class ElectricalModel implements SystemModel<ElectricalTest, ReadingValue, Prediction> {
+  readonly components: Component[];
+  readonly parts: ElectricalPart[];
+  readonly partsByName: Map<string, ElectricalPart>;
+  readonly circuit: Circuit;
+  readonly meter: MeterProfile;
+  /** Every net of the board (lower-case). */
+  readonly nets: Set<string>;
+  private readonly states = new Map<string, Circuit>();
+  private readonly healthy = new Map<string, Prediction>();
+  /** Number of meter solves done (for the benchmark). */
+  solves = 0;
+
+  constructor(input: BoardModelInput) {
+    this.circuit = flatten(input.netlist, input.params);
+    this.meter = input.meter ?? DEFAULT_METER;
+    this.parts = buildParts(input.netlist, this.circuit, input.parts);
+    this.partsByName = new Map(this.parts.map((p) => [p.name, p]));
+    this.components = toComponents(this.parts);
+    this.nets = new Set(['0', ...this.circuit.nets]);
+  }
+
+  stateCircuit(t: Pick<ElectricalTest, 'power' | 'lifted'>): Circuit {
+    const k = stateKey(t);
+    let c = this.states.get(k);
+    if (!c) {
+      c = stateOf(this.circuit, { power: t.power, lifted: t.lifted });
+      this.states.set(k, c);
+    }
+    return c;
+  }
+
+  testKey(t: ElectricalTest): string {
+    return testKey(t);
+  }
+
+  predict(faults: readonly SubFault[], tests: readonly ElectricalTest[]): Prediction[] {
+    const byState = new Map<string, Circuit>();
+    return tests.map((t) => {
+      const k = stateKey(t);
+      let c = byState.get(k);
+      if (!c) {
+        c = applyFaults(this.stateCircuit(t), faults, this.partsByName);
+        byState.set(k, c);
+      }
+      return this.measureOn(c, t);
+    });
+  }
+
+  private measureOn(c: Circuit, t: ElectricalTest): Prediction {
+    this.solves++;
+    try {
+      const r = measure(c, { mode: t.mode, red: t.red, black: t.black }, this.meter);
+      return r.beep === undefined ? { value: r.value } : { value: r.value, beep: r.beep };
+    } catch {
+      return { value: 'unknown' };
+    }
+  }
+
+  /** The healthy board's prediction for a test (cached). */
+  healthyPrediction(t: ElectricalTest): Prediction {
+    const k = testKey(t);
+    let p = this.healthy.get(k);
+    if (!p) {
+      p = this.measureOn(this.stateCircuit(t), t);
+      this.healthy.set(k, p);
+    }
+    return p;
+  }
+
+  logLikelihood(t: ElectricalTest, v: ReadingValue, p: Prediction): number {
+    return logLikelihood(t.mode, v, p, this.meter);
+  }
+
+  consistent(t: ElectricalTest, v: ReadingValue, p: Prediction): boolean {
+    return consistent(t.mode, v, p, this.meter);
+  }
+
+  outcomes(t: ElectricalTest, p: Prediction): Array<[string, number]> {
+    return outcomeBins(t.mode, p, this.healthyPrediction(t), this.meter);
+  }
+}
