@@ -1,3 +1,13 @@
 // The one contract between the server and the web app: request/response schemas and their types.
 export * from './auth';
 export * from './problem';
+export * from './common';
+export * from './customers';
+export * from './users';
+export * from './readings';
+export * from './boards';
+export * from './diagnosis';
+export * from './reviews';
+export * from './repairs';
+export * from './uploads';
+export * from './jobs';

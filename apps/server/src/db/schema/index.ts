@@ -1,1 +1,4 @@
 export * from './auth';
+export * from './customers';
+export * from './boards';
+export * from './jobs';

@@ -1,0 +1,193 @@
+import { sql } from 'drizzle-orm';
+import { boolean, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex } from 'drizzle-orm/pg-core';
+import { shops, users } from './auth';
+import { boardModels, boardModelVersions } from './boards';
+import { customers } from './customers';
+
+export const jobStatusEnum = pgEnum('job_status', ['received', 'diagnosing', 'awaiting-review', 'approved', 'repaired', 'verified', 'returned']);
+export const priorityEnum = pgEnum('job_priority', ['low', 'normal', 'high']);
+export const meterModeEnum = pgEnum('meter_mode', ['dcv', 'ohm', 'diode', 'continuity']);
+export const powerStateEnum = pgEnum('power_state', ['on', 'off']);
+export const readingPhaseEnum = pgEnum('reading_phase', ['diagnosis', 'verification']);
+export const reviewDecisionEnum = pgEnum('review_decision', ['approve', 'send-back']);
+export const repairActionEnum = pgEnum('repair_action', ['replaced', 'removed', 'reflowed', 'cleaned']);
+
+export const jobs = pgTable(
+  'jobs',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id),
+    number: integer('number').notNull(),
+    customerId: text('customer_id')
+      .notNull()
+      .references(() => customers.id),
+    unitDescription: text('unit_description').notNull(),
+    serial: text('serial'),
+    boardId: text('board_id')
+      .notNull()
+      .references(() => boardModels.id),
+    /** The board model version the job is diagnosed on; later edits to the board do not move it. */
+    boardVersionId: text('board_version_id')
+      .notNull()
+      .references(() => boardModelVersions.id),
+    faultCode: text('fault_code'),
+    symptom: text('symptom').notNull(),
+    status: jobStatusEnum('status').notNull().default('received'),
+    sentBack: boolean('sent_back').notNull().default(false),
+    proposedPart: text('proposed_part'),
+    assigneeId: text('assignee_id').references(() => users.id),
+    priority: priorityEnum('priority').notNull().default('normal'),
+    receivedAt: timestamp('received_at', { withTimezone: true }).notNull().defaultNow(),
+    dueAt: timestamp('due_at', { withTimezone: true }),
+    closedAt: timestamp('closed_at', { withTimezone: true }),
+    createdBy: text('created_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    uniqueIndex('jobs_shop_number_unique').on(t.shopId, t.number),
+    index('jobs_shop_status_idx').on(t.shopId, t.status),
+    index('jobs_assignee_idx').on(t.assigneeId),
+  ],
+);
+
+/**
+ * Append-only: a correction is a new row whose `supersedes` names the corrected one; nothing is updated.
+ * The verdict is computed against the job's pinned board version when the row is stored.
+ */
+export const readings = pgTable(
+  'readings',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id),
+    jobId: text('job_id')
+      .notNull()
+      .references(() => jobs.id),
+    idempotencyKey: text('idempotency_key').notNull(),
+    mode: meterModeEnum('mode').notNull(),
+    red: text('red').notNull(),
+    black: text('black').notNull(),
+    redNet: text('red_net').notNull(),
+    blackNet: text('black_net').notNull(),
+    power: powerStateEnum('power').notNull(),
+    lifted: text('lifted').array().notNull().default([]),
+    /** SI units (V or ohm); null when the meter showed OL. */
+    value: doublePrecision('value'),
+    overLimit: boolean('over_limit').notNull().default(false),
+    unit: text('unit').notNull(),
+    beep: boolean('beep'),
+    raw: text('raw').notNull(),
+    instrument: text('instrument'),
+    phase: readingPhaseEnum('phase').notNull().default('diagnosis'),
+    supersedes: text('supersedes'),
+    verdict: jsonb('verdict'),
+    authorId: text('author_id')
+      .notNull()
+      .references(() => users.id),
+    takenAt: timestamp('taken_at', { withTimezone: true }).notNull().defaultNow(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    uniqueIndex('readings_job_key_unique').on(t.jobId, t.idempotencyKey),
+    // A reading is corrected at most once; a second correction corrects the correction.
+    uniqueIndex('readings_supersedes_unique')
+      .on(t.supersedes)
+      .where(sql`${t.supersedes} is not null`),
+    index('readings_job_idx').on(t.jobId, t.createdAt),
+  ],
+);
+
+export const diagnosisSnapshots = pgTable(
+  'diagnosis_snapshots',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id),
+    jobId: text('job_id')
+      .notNull()
+      .references(() => jobs.id),
+    engineVersion: text('engine_version').notNull(),
+    proposedPart: text('proposed_part'),
+    output: jsonb('output').notNull(),
+    createdBy: text('created_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('diagnosis_snapshots_job_idx').on(t.jobId, t.createdAt)],
+);
+
+export const reviews = pgTable(
+  'reviews',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id),
+    jobId: text('job_id')
+      .notNull()
+      .references(() => jobs.id),
+    reviewerId: text('reviewer_id')
+      .notNull()
+      .references(() => users.id),
+    decision: reviewDecisionEnum('decision').notNull(),
+    comment: text('comment').notNull().default(''),
+    proposedPart: text('proposed_part'),
+    snapshotId: text('snapshot_id').references(() => diagnosisSnapshots.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('reviews_job_idx').on(t.jobId, t.createdAt)],
+);
+
+export const repairActions = pgTable(
+  'repair_actions',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id),
+    jobId: text('job_id')
+      .notNull()
+      .references(() => jobs.id),
+    part: text('part').notNull(),
+    action: repairActionEnum('action').notNull(),
+    replacementValue: text('replacement_value'),
+    marking: text('marking'),
+    notes: text('notes'),
+    uploadIds: text('upload_ids').array().notNull().default([]),
+    authorId: text('author_id')
+      .notNull()
+      .references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('repair_actions_job_idx').on(t.jobId, t.createdAt)],
+);
+
+export const uploads = pgTable(
+  'uploads',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id),
+    jobId: text('job_id').references(() => jobs.id),
+    contentType: text('content_type').notNull(),
+    size: integer('size').notNull(),
+    sha256: text('sha256').notNull(),
+    name: text('name'),
+    /** The key under which the Storage keeps the bytes. */
+    storageKey: text('storage_key').notNull(),
+    createdBy: text('created_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('uploads_shop_idx').on(t.shopId, t.jobId)],
+);

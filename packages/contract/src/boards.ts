@@ -1,0 +1,92 @@
+import { z } from 'zod';
+import { idSchema, isoDateTime, optionalText } from './common';
+import { meterModeSchema, powerStateSchema, readingUnitSchema } from './readings';
+
+/**
+ * A board model document (netlist, parts, test points, sections, fault codes). Its full schema is
+ * `boardModelSchema` in `board-model.ts`; the server validates documents with it on create and edit.
+ */
+export const boardDocumentSchema = z.record(z.string(), z.unknown());
+export type BoardDocument = z.infer<typeof boardDocumentSchema>;
+
+/** One row of the expected-readings table computed from the board model's netlist. */
+export const expectedReadingSchema = z.looseObject({
+  id: z.string(),
+  label: z.string().optional(),
+  mode: meterModeSchema,
+  red: z.string(),
+  black: z.string(),
+  power: powerStateSchema,
+  lifted: z.array(z.string()).default([]),
+  expected: z.union([z.number(), z.literal('OL')]),
+  low: z.number(),
+  high: z.number(),
+  unit: readingUnitSchema,
+});
+export type ExpectedReadingRow = z.infer<typeof expectedReadingSchema>;
+
+export const faultCodeSchema = z.object({
+  id: idSchema,
+  boardId: idSchema.nullable(),
+  code: z.string(),
+  title: z.string(),
+  description: z.string().nullable(),
+  /** Sections of the board the code points at (section ids of the board model). */
+  sections: z.array(z.string()),
+});
+export type FaultCode = z.infer<typeof faultCodeSchema>;
+
+export const boardSummarySchema = z.object({
+  id: idSchema,
+  key: z.string(),
+  name: z.string(),
+  /** The newest version; jobs pin the version they were diagnosed on. */
+  version: z.number().int().positive(),
+  versionId: idSchema,
+  updatedAt: isoDateTime,
+});
+export type BoardSummary = z.infer<typeof boardSummarySchema>;
+
+export const boardDetailSchema = boardSummarySchema.extend({
+  document: boardDocumentSchema,
+  expectedReadings: z.array(expectedReadingSchema),
+  faultCodes: z.array(faultCodeSchema),
+});
+export type BoardDetail = z.infer<typeof boardDetailSchema>;
+
+export const boardListResponse = z.object({ items: z.array(boardSummarySchema) });
+export type BoardList = z.infer<typeof boardListResponse>;
+
+export const boardDetailQuery = z.object({ version: z.coerce.number().int().positive().optional() });
+
+export const createBoardRequest = z.object({ document: boardDocumentSchema, note: optionalText(500) });
+export type CreateBoardRequest = z.infer<typeof createBoardRequest>;
+
+/** Editing a board model stores a new version; jobs keep the version they pinned. */
+export const updateBoardRequest = z.object({ document: boardDocumentSchema, note: optionalText(500) });
+export type UpdateBoardRequest = z.infer<typeof updateBoardRequest>;
+
+export const boardVersionSchema = z.object({
+  versionId: idSchema,
+  version: z.number().int().positive(),
+  note: z.string().nullable(),
+  createdBy: idSchema.nullable(),
+  createdByName: z.string().nullable(),
+  createdAt: isoDateTime,
+});
+export type BoardVersion = z.infer<typeof boardVersionSchema>;
+export const boardVersionListResponse = z.object({ items: z.array(boardVersionSchema) });
+export type BoardVersionList = z.infer<typeof boardVersionListResponse>;
+
+export const faultCodeListQuery = z.object({ boardId: idSchema.optional() });
+export const faultCodeListResponse = z.object({ items: z.array(faultCodeSchema) });
+export type FaultCodeList = z.infer<typeof faultCodeListResponse>;
+
+export const createFaultCodeRequest = z.object({
+  boardId: idSchema.nullable().optional(),
+  code: z.string().trim().min(1).max(20),
+  title: z.string().trim().min(1).max(200),
+  description: optionalText(4000),
+  sections: z.array(z.string().trim().min(1).max(50)).max(20).default([]),
+});
+export type CreateFaultCodeRequest = z.input<typeof createFaultCodeRequest>;

@@ -1,0 +1,131 @@
+import { z } from 'zod';
+import { boardDetailSchema } from './boards';
+import { idSchema, isoDateTime, optionalText } from './common';
+import { customerSchema } from './customers';
+import { diagnosisSnapshotSchema } from './diagnosis';
+import { reviewSchema } from './reviews';
+
+export const jobStatuses = ['received', 'diagnosing', 'awaiting-review', 'approved', 'repaired', 'verified', 'returned'] as const;
+export const jobStatusSchema = z.enum(jobStatuses);
+export type JobStatus = z.infer<typeof jobStatusSchema>;
+
+export const jobStatusLabels: Record<JobStatus, string> = {
+  received: 'Received',
+  diagnosing: 'Diagnosing',
+  'awaiting-review': 'Awaiting review',
+  approved: 'Approved',
+  repaired: 'Repaired',
+  verified: 'Verified',
+  returned: 'Returned',
+};
+
+/**
+ * The job status flow. Approval and sending back happen through a review (POST /jobs/:id/reviews);
+ * a repaired board whose verification fails goes back to diagnosing.
+ */
+export const jobTransitions: Record<JobStatus, readonly JobStatus[]> = {
+  received: ['diagnosing'],
+  diagnosing: ['awaiting-review'],
+  'awaiting-review': ['approved', 'diagnosing'],
+  approved: ['repaired'],
+  repaired: ['verified', 'diagnosing'],
+  verified: ['returned'],
+  returned: [],
+};
+
+export const priorities = ['low', 'normal', 'high'] as const;
+export const prioritySchema = z.enum(priorities);
+export type Priority = z.infer<typeof prioritySchema>;
+
+export const jobSchema = z.object({
+  id: idSchema,
+  shopId: idSchema,
+  /** The shop's running job number, shown on tags and paperwork. */
+  number: z.number().int().positive(),
+  customerId: idSchema,
+  customerName: z.string(),
+  unitDescription: z.string(),
+  serial: z.string().nullable(),
+  boardId: idSchema,
+  boardName: z.string(),
+  boardVersionId: idSchema,
+  boardVersion: z.number().int().positive(),
+  faultCode: z.string().nullable(),
+  symptom: z.string(),
+  status: jobStatusSchema,
+  /** True after a reviewer sent the diagnosis back, until it is proposed again. */
+  sentBack: z.boolean(),
+  proposedPart: z.string().nullable(),
+  assigneeId: idSchema.nullable(),
+  assigneeName: z.string().nullable(),
+  priority: prioritySchema,
+  receivedAt: isoDateTime,
+  dueAt: isoDateTime.nullable(),
+  closedAt: isoDateTime.nullable(),
+  createdBy: idSchema,
+  createdAt: isoDateTime,
+  updatedAt: isoDateTime,
+});
+export type Job = z.infer<typeof jobSchema>;
+
+export const jobDetailSchema = jobSchema.extend({
+  customer: customerSchema,
+  /** The pinned board model version: its document and expected-readings table draw the bench map. */
+  board: boardDetailSchema,
+  /** Status changes the signed-in user may make now (through PATCH, or a review for approve/send back). */
+  allowedTransitions: z.array(jobStatusSchema),
+  reviews: z.array(reviewSchema),
+  latestSnapshot: diagnosisSnapshotSchema.nullable(),
+});
+export type JobDetail = z.infer<typeof jobDetailSchema>;
+
+export const jobListQuery = z.object({
+  /** One status or several separated by commas: `?status=awaiting-review`. */
+  status: z
+    .string()
+    .transform((s) => s.split(',').filter(Boolean))
+    .pipe(z.array(jobStatusSchema))
+    .optional(),
+  /** `me` or a user id. */
+  assignee: z.string().trim().min(1).max(100).optional(),
+  customerId: idSchema.optional(),
+  /** Searches the unit description, serial, symptom, fault code and customer name. */
+  q: z.string().trim().max(200).optional(),
+});
+export type JobListQuery = z.input<typeof jobListQuery>;
+
+export const jobListResponse = z.object({ items: z.array(jobSchema) });
+export type JobList = z.infer<typeof jobListResponse>;
+
+export const createJobRequest = z.object({
+  customerId: idSchema,
+  unitDescription: z.string().trim().min(1).max(300),
+  serial: optionalText(100),
+  boardId: idSchema,
+  /** Defaults to the board model's newest version. */
+  boardVersion: z.number().int().positive().optional(),
+  faultCode: optionalText(20),
+  symptom: z.string().trim().min(1).max(2000),
+  priority: prioritySchema.default('normal'),
+  assigneeId: idSchema.nullable().optional(),
+  receivedAt: isoDateTime.optional(),
+  dueAt: isoDateTime.nullable().optional(),
+});
+export type CreateJobRequest = z.input<typeof createJobRequest>;
+
+export const updateJobRequest = z
+  .object({
+    status: jobStatusSchema,
+    /** Required (here or already on the job) to move to awaiting review. */
+    proposedPart: optionalText(50),
+    assigneeId: idSchema.nullable(),
+    priority: prioritySchema,
+    unitDescription: z.string().trim().min(1).max(300),
+    serial: optionalText(100),
+    faultCode: optionalText(20),
+    symptom: z.string().trim().min(1).max(2000),
+    dueAt: isoDateTime.nullable(),
+  })
+  .partial()
+  .refine((o) => Object.keys(o).length > 0, 'nothing to change');
+export type UpdateJobRequest = z.input<typeof updateJobRequest>;

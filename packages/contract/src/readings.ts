@@ -1,0 +1,114 @@
+import { z } from 'zod';
+import { idSchema, isoDateTime, optionalText } from './common';
+
+export const meterModes = ['dcv', 'ohm', 'diode', 'continuity'] as const;
+export const meterModeSchema = z.enum(meterModes);
+export type MeterModeName = z.infer<typeof meterModeSchema>;
+
+export const powerStates = ['on', 'off'] as const;
+export const powerStateSchema = z.enum(powerStates);
+export type PowerState = z.infer<typeof powerStateSchema>;
+
+/** Diagnosis readings find the fault; verification readings, taken after the repair, prove the board good. */
+export const readingPhases = ['diagnosis', 'verification'] as const;
+export const readingPhaseSchema = z.enum(readingPhases);
+export type ReadingPhase = z.infer<typeof readingPhaseSchema>;
+
+export const verdicts = ['ok', 'low', 'high'] as const;
+export const verdictSchema = z.enum(verdicts);
+export type Verdict = z.infer<typeof verdictSchema>;
+
+/** Volts for dcv and diode, ohms for ohm and continuity. */
+export const readingUnitSchema = z.enum(['V', 'ohm']);
+export type ReadingUnit = z.infer<typeof readingUnitSchema>;
+
+/** A meter value in SI units, or "OL" (over range / open). Only finite numbers: NaN, Infinity, 1e400 are refused. */
+export const meterValueSchema = z.union([
+  z.literal('OL'),
+  z.number({ error: 'must be a number in SI units (V or ohm) or "OL"' }).refine(Number.isFinite, 'must be a finite number'),
+]);
+export type MeterValue = z.infer<typeof meterValueSchema>;
+
+const netName = z.string().trim().min(1).max(100);
+
+export const createReadingRequest = z.object({
+  /** Chosen by the client once per reading; a retried POST with the same key returns the stored reading. */
+  idempotencyKey: z.string().trim().min(8).max(100),
+  mode: meterModeSchema,
+  /** A net name or a test point id of the pinned board model. */
+  red: netName,
+  black: netName,
+  power: powerStateSchema,
+  /** Top-level part names lifted from the board for this reading. */
+  lifted: z.array(z.string().trim().min(1).max(50)).max(20).default([]),
+  value: meterValueSchema,
+  /** Continuity: whether the meter beeped. */
+  beep: z.boolean().optional(),
+  /** What the technician typed ("4.7k", "0.61 V", "OL"). */
+  raw: z.string().trim().min(1).max(100),
+  instrument: optionalText(100),
+  phase: readingPhaseSchema.default('diagnosis'),
+  /** The id of a reading this one corrects; the corrected one stays in the history, marked superseded. */
+  supersedes: idSchema.optional(),
+  /** When it was read at the bench, if queued offline; defaults to the time the server stored it. */
+  takenAt: isoDateTime.optional(),
+});
+export type CreateReadingRequest = z.input<typeof createReadingRequest>;
+export type CreateReadingInput = z.output<typeof createReadingRequest>;
+
+/** What the pinned board model says this reading should be, and how the reading compares. */
+export const readingVerdictSchema = z.object({
+  expected: z.union([z.number(), z.literal('OL')]),
+  low: z.number(),
+  high: z.number(),
+  unit: readingUnitSchema,
+  verdict: verdictSchema,
+});
+export type ReadingVerdict = z.infer<typeof readingVerdictSchema>;
+
+export const readingSchema = z.object({
+  id: idSchema,
+  jobId: idSchema,
+  mode: meterModeSchema,
+  red: z.string(),
+  black: z.string(),
+  /** The nets the probes were on, after resolving test point ids through the pinned board model. */
+  redNet: z.string(),
+  blackNet: z.string(),
+  power: powerStateSchema,
+  lifted: z.array(z.string()),
+  value: z.union([z.number(), z.literal('OL')]),
+  unit: readingUnitSchema,
+  beep: z.boolean().nullable(),
+  raw: z.string(),
+  instrument: z.string().nullable(),
+  phase: readingPhaseSchema,
+  idempotencyKey: z.string(),
+  supersedes: idSchema.nullable(),
+  /** Set when a later reading corrects this one. */
+  supersededBy: idSchema.nullable(),
+  authorId: idSchema,
+  authorName: z.string(),
+  takenAt: isoDateTime,
+  createdAt: isoDateTime,
+  /** Null when the board model cannot predict this probe (the engine refused or did not converge). */
+  verdict: readingVerdictSchema.nullable(),
+});
+export type StoredReading = z.infer<typeof readingSchema>;
+
+/** POST answer: the stored reading with the verdict at top level, as the issue asks. */
+export const createReadingResponse = readingSchema.extend({
+  expected: z.union([z.number(), z.literal('OL')]).nullable(),
+  low: z.number().nullable(),
+  high: z.number().nullable(),
+});
+export type CreateReadingResponse = z.infer<typeof createReadingResponse>;
+
+export const readingListQuery = z.object({
+  /** `current` leaves out superseded rows; the default `all` is the full history. */
+  view: z.enum(['all', 'current']).default('all'),
+  phase: readingPhaseSchema.optional(),
+});
+
+export const readingListResponse = z.object({ items: z.array(readingSchema) });
+export type ReadingList = z.infer<typeof readingListResponse>;
