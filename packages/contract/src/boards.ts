@@ -18,9 +18,9 @@ export const expectedReadingSchema = z.looseObject({
   black: z.string(),
   power: powerStateSchema,
   lifted: z.array(z.string()).default([]),
-  expected: z.union([z.number(), z.literal('OL')]),
-  low: z.number(),
-  high: z.number(),
+  expected: z.union([z.number(), z.literal('OL'), z.boolean()]),
+  low: z.number().nullable(),
+  high: z.number().nullable(),
   unit: readingUnitSchema,
 });
 export type ExpectedReadingRow = z.infer<typeof expectedReadingSchema>;

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { idSchema, isoDateTime } from './common';
-import { meterModeSchema, powerStateSchema, readingUnitSchema, verdictSchema } from './readings';
+import { expectedValueSchema, meterModeSchema, powerStateSchema, readingUnitSchema, verdictSchema } from './readings';
 
 const faultRef = z.object({ part: z.string(), mode: z.string() });
 
@@ -13,7 +13,7 @@ export const diagnosisReadingSchema = z.looseObject({
   power: powerStateSchema,
   lifted: z.array(z.string()).default([]),
   value: z.union([z.number(), z.literal('OL')]),
-  expected: z.union([z.number(), z.literal('OL')]).nullable(),
+  expected: expectedValueSchema.nullable(),
   low: z.number().nullable(),
   high: z.number().nullable(),
   unit: readingUnitSchema.optional(),

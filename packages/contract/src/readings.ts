@@ -56,11 +56,15 @@ export const createReadingRequest = z.object({
 export type CreateReadingRequest = z.input<typeof createReadingRequest>;
 export type CreateReadingInput = z.output<typeof createReadingRequest>;
 
+export const expectedValueSchema = z.union([z.number(), z.literal('OL'), z.boolean()]);
+
 /** What the pinned board model says this reading should be, and how the reading compares. */
 export const readingVerdictSchema = z.object({
-  expected: z.union([z.number(), z.literal('OL')]),
-  low: z.number(),
-  high: z.number(),
+  /** A number in SI units, "OL", or for continuity whether the meter should beep. */
+  expected: expectedValueSchema,
+  /** The healthy band; null where there is none (an expected OL, continuity). */
+  low: z.number().nullable(),
+  high: z.number().nullable(),
   unit: readingUnitSchema,
   verdict: verdictSchema,
 });
@@ -98,7 +102,7 @@ export type StoredReading = z.infer<typeof readingSchema>;
 
 /** POST answer: the stored reading with the verdict at top level, as the issue asks. */
 export const createReadingResponse = readingSchema.extend({
-  expected: z.union([z.number(), z.literal('OL')]).nullable(),
+  expected: expectedValueSchema.nullable(),
   low: z.number().nullable(),
   high: z.number().nullable(),
 });
