@@ -11,3 +11,4 @@ export * from './reviews';
 export * from './repairs';
 export * from './uploads';
 export * from './jobs';
+export * from './billing';
