@@ -1,0 +1,3 @@
+export * from './bus-safety';
+export * from './eseries';
+export * from './markings';
