@@ -1,0 +1,143 @@
+import { z } from 'zod';
+
+/**
+ * Board-model documents: the data that turns a board picture into a workbench. Stored by the server (which owns
+ * `schemaVersion` migrations), read by the web app, computed on by @splitscope/boards and @splitscope/diagnosis.
+ * Hot side = referenced to bus negative (SPICE node "0"); cold side = microcontroller ground (e.g. "gnd_c").
+ */
+export const BOARD_MODEL_SCHEMA_VERSION = 1;
+
+export const boardSideSchema = z.enum(['hot', 'cold']);
+export type BoardSide = z.infer<typeof boardSideSchema>;
+export const powerStateSchema = z.enum(['on', 'off']);
+export const meterModeSchema = z.enum(['dcv', 'ohm', 'diode', 'continuity']);
+export type MeterModeName = z.infer<typeof meterModeSchema>;
+
+export const partKinds = [
+  'resistor', 'ceramic-capacitor', 'electrolytic-capacitor', 'film-capacitor', 'diode', 'led', 'zener', 'bjt',
+  'opto-coupler', 'regulator', 'connector', 'fuse', 'thermistor', 'ic', 'other',
+] as const;
+export const partKindSchema = z.enum(partKinds);
+export type PartKind = z.infer<typeof partKindSchema>;
+
+const id = z.string().min(1).max(64);
+const coord = z.number().finite();
+
+export const pictureSchema = z
+  .object({
+    svg: z.string().max(2_000_000).optional(),
+    url: z.string().max(2000).optional(),
+    width: z.number().positive(),
+    height: z.number().positive(),
+    units: z.enum(['mm', 'px']),
+  })
+  .refine((p) => p.svg !== undefined || p.url !== undefined, { message: 'picture needs svg or url' });
+
+export const sectionRefSchema = z.object({
+  id,
+  template: z.string().min(1).max(64),
+  params: z.record(z.string(), z.union([z.number(), z.string(), z.boolean()])).default({}),
+  side: boardSideSchema,
+  title: z.string().max(200),
+  touchesBus: z.boolean().default(false),
+});
+
+export const partPinSchema = z.object({ pin: z.string().max(16), net: z.string().max(64) });
+
+export const partSchema = z.object({
+  designator: z.string().min(1).max(32),
+  /** The top-level netlist element that models this part ("R101", "XU201"); absent for parts not in the netlist. */
+  element: z.string().max(32).optional(),
+  kind: partKindSchema,
+  value: z.string().max(64),
+  /** Nominal value in SI units where it has one (ohms, farads, volts for a zener/regulator). */
+  nominal: z.number().optional(),
+  /** Relative tolerance (0.05 = ±5 %). */
+  tolerance: z.number().min(0).max(1).optional(),
+  package: z.string().max(32),
+  marking: z.string().max(64).optional(),
+  x: coord,
+  y: coord,
+  rotation: z.number().default(0),
+  section: z.string().max(64),
+  side: boardSideSchema.optional(),
+  pins: z.array(partPinSchema).default([]),
+  /** Extra part parameters, e.g. an opto-coupler's CTR or a motor's pulses per revolution. */
+  params: z.record(z.string(), z.union([z.number(), z.string()])).optional(),
+});
+export type BoardPart = z.infer<typeof partSchema>;
+
+export const netSchema = z.object({
+  name: z.string().min(1).max(64),
+  label: z.string().max(200),
+  side: boardSideSchema,
+  /** The net a meter's black probe goes on for readings of this net. */
+  reference: z.string().max(64),
+});
+
+export const connectorSchema = z.object({
+  name: z.string().min(1).max(32),
+  x: coord,
+  y: coord,
+  title: z.string().max(200).optional(),
+  pins: z.array(z.object({ pin: z.string().max(16), net: z.string().max(64), function: z.string().max(200) })),
+});
+
+export const testPointSchema = z.object({
+  id: z.string().regex(/^TP\d+$/),
+  label: z.string().max(200),
+  net: z.string().max(64),
+  reference: z.string().max(64),
+  x: coord,
+  y: coord,
+  powerStates: z.array(powerStateSchema).min(1),
+  modes: z.array(meterModeSchema).min(1),
+  section: z.string().max(64),
+  touchesBus: z.boolean(),
+  side: boardSideSchema.optional(),
+  /** Where the healthy band of the powered reading comes from, when a standard or datasheet fixes it. */
+  band: z.object({ low: z.number(), high: z.number(), source: z.string().max(400) }).optional(),
+});
+export type BoardTestPoint = z.infer<typeof testPointSchema>;
+
+export const faultCodeSchema = z.object({
+  code: z.string().min(1).max(32),
+  meaning: z.string().max(400),
+  suspectSections: z.array(z.string().max(64)),
+});
+
+export const motorSchema = z.object({
+  connector: z.string().max(32).optional(),
+  pulsesPerRevolution: z.number().int().positive(),
+  /** Netlist elements that model the off-board motor; lifted (unplugged) for unpowered readings. */
+  elements: z.array(z.string().max(32)).default([]),
+  note: z.string().max(400).optional(),
+});
+
+export const boardModelSchema = z.object({
+  schemaVersion: z.literal(BOARD_MODEL_SCHEMA_VERSION),
+  id: z.string().min(1).max(64),
+  slug: z.string().regex(/^[a-z0-9][a-z0-9-]*$/).max(64),
+  name: z.string().min(1).max(200),
+  family: z.string().max(200),
+  maker: z.string().max(200),
+  description: z.string().max(4000).optional(),
+  picture: pictureSchema,
+  /** Composed from templates, or empty when the model is plain SPICE plus metadata. */
+  sections: z.array(sectionRefSchema).default([]),
+  /** The composed (or pasted) SPICE-subset netlist. */
+  netlist: z.string().min(1).max(500_000),
+  /** Default .param values used for powered readings (e.g. FAN_ON, DUTY). */
+  params: z.record(z.string(), z.number()).default({}),
+  parts: z.array(partSchema),
+  nets: z.array(netSchema),
+  connectors: z.array(connectorSchema).default([]),
+  testPoints: z.array(testPointSchema),
+  faultCodes: z.array(faultCodeSchema).default([]),
+  /** Per-part prior overrides: designator → fault mode → prior probability. */
+  priors: z.record(z.string(), z.record(z.string(), z.number().min(0).max(1))).default({}),
+  motor: motorSchema.optional(),
+  cautions: z.array(z.string().max(1000)).default([]),
+});
+export type BoardModel = z.infer<typeof boardModelSchema>;
+export type BoardModelInput = z.input<typeof boardModelSchema>;
