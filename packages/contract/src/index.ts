@@ -12,3 +12,4 @@ export * from './repairs';
 export * from './uploads';
 export * from './jobs';
 export * from './billing';
+export * from './board-model';
