@@ -2,3 +2,4 @@ export * from './auth';
 export * from './customers';
 export * from './boards';
 export * from './jobs';
+export * from './billing';
