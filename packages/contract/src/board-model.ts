@@ -9,21 +9,21 @@ export const BOARD_MODEL_SCHEMA_VERSION = 1;
 
 export const boardSideSchema = z.enum(['hot', 'cold']);
 export type BoardSide = z.infer<typeof boardSideSchema>;
-export const powerStateSchema = z.enum(['on', 'off']);
-export const meterModeSchema = z.enum(['dcv', 'ohm', 'diode', 'continuity']);
-export type MeterModeName = z.infer<typeof meterModeSchema>;
+export const boardPowerStateSchema = z.enum(['on', 'off']);
+export const boardMeterModeSchema = z.enum(['dcv', 'ohm', 'diode', 'continuity']);
+export type BoardMeterMode = z.infer<typeof boardMeterModeSchema>;
 
-export const partKinds = [
+export const boardPartKinds = [
   'resistor', 'ceramic-capacitor', 'electrolytic-capacitor', 'film-capacitor', 'diode', 'led', 'zener', 'bjt',
   'opto-coupler', 'regulator', 'connector', 'fuse', 'thermistor', 'ic', 'other',
 ] as const;
-export const partKindSchema = z.enum(partKinds);
-export type PartKind = z.infer<typeof partKindSchema>;
+export const boardPartKindSchema = z.enum(boardPartKinds);
+export type BoardPartKind = z.infer<typeof boardPartKindSchema>;
 
 const id = z.string().min(1).max(64);
 const coord = z.number().finite();
 
-export const pictureSchema = z
+export const boardPictureSchema = z
   .object({
     svg: z.string().max(2_000_000).optional(),
     url: z.string().max(2000).optional(),
@@ -33,7 +33,7 @@ export const pictureSchema = z
   })
   .refine((p) => p.svg !== undefined || p.url !== undefined, { message: 'picture needs svg or url' });
 
-export const sectionRefSchema = z.object({
+export const boardSectionRefSchema = z.object({
   id,
   template: z.string().min(1).max(64),
   params: z.record(z.string(), z.union([z.number(), z.string(), z.boolean()])).default({}),
@@ -42,13 +42,13 @@ export const sectionRefSchema = z.object({
   touchesBus: z.boolean().default(false),
 });
 
-export const partPinSchema = z.object({ pin: z.string().max(16), net: z.string().max(64) });
+export const boardPartPinSchema = z.object({ pin: z.string().max(16), net: z.string().max(64) });
 
-export const partSchema = z.object({
+export const boardPartSchema = z.object({
   designator: z.string().min(1).max(32),
   /** The top-level netlist element that models this part ("R101", "XU201"); absent for parts not in the netlist. */
   element: z.string().max(32).optional(),
-  kind: partKindSchema,
+  kind: boardPartKindSchema,
   value: z.string().max(64),
   /** Nominal value in SI units where it has one (ohms, farads, volts for a zener/regulator). */
   nominal: z.number().optional(),
@@ -61,13 +61,13 @@ export const partSchema = z.object({
   rotation: z.number().default(0),
   section: z.string().max(64),
   side: boardSideSchema.optional(),
-  pins: z.array(partPinSchema).default([]),
+  pins: z.array(boardPartPinSchema).default([]),
   /** Extra part parameters, e.g. an opto-coupler's CTR or a motor's pulses per revolution. */
   params: z.record(z.string(), z.union([z.number(), z.string()])).optional(),
 });
-export type BoardPart = z.infer<typeof partSchema>;
+export type BoardPart = z.infer<typeof boardPartSchema>;
 
-export const netSchema = z.object({
+export const boardNetSchema = z.object({
   name: z.string().min(1).max(64),
   label: z.string().max(200),
   side: boardSideSchema,
@@ -75,7 +75,7 @@ export const netSchema = z.object({
   reference: z.string().max(64),
 });
 
-export const connectorSchema = z.object({
+export const boardConnectorSchema = z.object({
   name: z.string().min(1).max(32),
   x: coord,
   y: coord,
@@ -83,30 +83,30 @@ export const connectorSchema = z.object({
   pins: z.array(z.object({ pin: z.string().max(16), net: z.string().max(64), function: z.string().max(200) })),
 });
 
-export const testPointSchema = z.object({
+export const boardTestPointSchema = z.object({
   id: z.string().regex(/^TP\d+$/),
   label: z.string().max(200),
   net: z.string().max(64),
   reference: z.string().max(64),
   x: coord,
   y: coord,
-  powerStates: z.array(powerStateSchema).min(1),
-  modes: z.array(meterModeSchema).min(1),
+  powerStates: z.array(boardPowerStateSchema).min(1),
+  modes: z.array(boardMeterModeSchema).min(1),
   section: z.string().max(64),
   touchesBus: z.boolean(),
   side: boardSideSchema.optional(),
   /** Where the healthy band of the powered reading comes from, when a standard or datasheet fixes it. */
   band: z.object({ low: z.number(), high: z.number(), source: z.string().max(400) }).optional(),
 });
-export type BoardTestPoint = z.infer<typeof testPointSchema>;
+export type BoardTestPoint = z.infer<typeof boardTestPointSchema>;
 
-export const faultCodeSchema = z.object({
+export const boardFaultCodeSchema = z.object({
   code: z.string().min(1).max(32),
   meaning: z.string().max(400),
   suspectSections: z.array(z.string().max(64)),
 });
 
-export const motorSchema = z.object({
+export const boardMotorSchema = z.object({
   connector: z.string().max(32).optional(),
   pulsesPerRevolution: z.number().int().positive(),
   /** Netlist elements that model the off-board motor; lifted (unplugged) for unpowered readings. */
@@ -122,21 +122,21 @@ export const boardModelSchema = z.object({
   family: z.string().max(200),
   maker: z.string().max(200),
   description: z.string().max(4000).optional(),
-  picture: pictureSchema,
+  picture: boardPictureSchema,
   /** Composed from templates, or empty when the model is plain SPICE plus metadata. */
-  sections: z.array(sectionRefSchema).default([]),
+  sections: z.array(boardSectionRefSchema).default([]),
   /** The composed (or pasted) SPICE-subset netlist. */
   netlist: z.string().min(1).max(500_000),
   /** Default .param values used for powered readings (e.g. FAN_ON, DUTY). */
   params: z.record(z.string(), z.number()).default({}),
-  parts: z.array(partSchema),
-  nets: z.array(netSchema),
-  connectors: z.array(connectorSchema).default([]),
-  testPoints: z.array(testPointSchema),
-  faultCodes: z.array(faultCodeSchema).default([]),
+  parts: z.array(boardPartSchema),
+  nets: z.array(boardNetSchema),
+  connectors: z.array(boardConnectorSchema).default([]),
+  testPoints: z.array(boardTestPointSchema),
+  faultCodes: z.array(boardFaultCodeSchema).default([]),
   /** Per-part prior overrides: designator → fault mode → prior probability. */
   priors: z.record(z.string(), z.record(z.string(), z.number().min(0).max(1))).default({}),
-  motor: motorSchema.optional(),
+  motor: boardMotorSchema.optional(),
   cautions: z.array(z.string().max(1000)).default([]),
 });
 export type BoardModel = z.infer<typeof boardModelSchema>;
