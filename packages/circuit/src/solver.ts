@@ -1,6 +1,6 @@
 import type { Circuit, Element } from './circuit';
 import { REFERENCE } from './circuit';
-import { luFactor, luSolve, luWorkspace, type LuWorkspace } from './lu';
+import { luFactor, luSolve, luWorkspace, minimumDegreeOrder, type LuWorkspace } from './lu';
 import { nodesWithoutDcPath } from './topology';
 
 /** Thermal voltage kT/q at 27 °C (300.15 K) with the constants ngspice uses (CONSTboltz, CHARGE). */
@@ -93,6 +93,8 @@ interface System {
   nodeIndex: Map<string, number>;
   branchOf: Map<string, number>;
   elements: readonly Element[];
+  /** Fill-reducing elimination order: order[k] = unknown eliminated k-th. */
+  order: Int32Array;
 }
 
 function breakdownVoltage(bv: number, ibv: number, is: number, vt: number): number {
@@ -280,7 +282,19 @@ function compile(circuit: Circuit, extraNodes: readonly string[]): System {
     if (i !== undefined) a0[i * s + i] = (a0[i * s + i] as number) + GISLAND;
   }
   // internal nodes are always tied by their series resistors, so no island check is needed for them
-  return { n, s, nodeNames, nodeCount, branchNames, a0, bsrc, diodes, bjts, nodeIndex, branchOf, elements };
+  const adj: Set<number>[] = Array.from({ length: n }, () => new Set<number>());
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      if (i !== j && (a0[i * s + j] !== 0 || a0[j * s + i] !== 0)) (adj[i] as Set<number>).add(j);
+    }
+  }
+  const link = (t: number[]) => {
+    for (const x of t) for (const y of t) if (x !== y && x < n && y < n) (adj[x] as Set<number>).add(y);
+  };
+  for (const d of diodes) link([d.a, d.k]);
+  for (const q of bjts) link([q.c, q.b, q.e]);
+  const order = minimumDegreeOrder(n, adj);
+  return { n, s, nodeNames, nodeCount, branchNames, a0, bsrc, diodes, bjts, nodeIndex, branchOf, elements, order };
 }
 
 /** SPICE junction voltage limiting (ngspice DEVpnjlim). Returns the limited voltage; sets lim.hit. */
@@ -329,6 +343,10 @@ interface Work {
   ws: LuWorkspace;
   jv: Float64Array;
   lim: { hit: boolean };
+  /** Symmetrically permuted copy of the matrix, right-hand side and solution (elimination order). */
+  pa: Float64Array;
+  pb: Float64Array;
+  px: Float64Array;
 }
 
 interface AttemptConfig {
@@ -341,6 +359,8 @@ interface AttemptConfig {
   abstol: number;
   /** First iteration sets junctions to their critical voltages (SPICE MODEINITJCT) instead of from x. */
   initJunctions: boolean;
+  /** Called with the assembled, reordered n×n matrix and right-hand side before each factorisation (benchmark use). */
+  capture?: (a: Float64Array, b: Float64Array) => void;
 }
 
 /** Runs Newton–Raphson from w.x; returns iterations used (negative when not converged). */
@@ -426,9 +446,20 @@ function newton(sys: System, w: Work, cfg: AttemptConfig): { ok: boolean; iterat
       a[re + q.c] = (a[re + q.c] as number) + (g12 + g22);
       b[q.e] = (b[q.e] as number) + (p * (ic + ib - (g11 + g21) * vbe - (g12 + g22) * vbc));
     }
-    const sing = luFactor(a, ws);
-    if (sing >= 0) return { ok: false, iterations: iter, singular: sing };
-    luSolve(a, ws, b, xn);
+    const { pa, pb, px } = w;
+    const order = sys.order;
+    for (let i = 0; i < n; i++) {
+      const oi = order[i] as number;
+      const src = oi * s;
+      const dst = i * n;
+      for (let j = 0; j < n; j++) pa[dst + j] = a[src + (order[j] as number)] as number;
+      pb[i] = b[oi] as number;
+    }
+    if (cfg.capture) cfg.capture(pa, pb);
+    const sing = luFactor(pa, ws);
+    if (sing >= 0) return { ok: false, iterations: iter, singular: order[sing] as number };
+    luSolve(pa, ws, pb, px);
+    for (let i = 0; i < n; i++) xn[order[i] as number] = px[i] as number;
     if (!nonlinear) {
       x.set(xn.subarray(0, n));
       return { ok: true, iterations: iter };
@@ -478,9 +509,12 @@ export function solveOp(circuit: Circuit, options: SolveOptions = {}): OpResult 
     b: new Float64Array(s),
     x: new Float64Array(s),
     xn: new Float64Array(s),
-    ws: luWorkspace(n, s),
+    ws: luWorkspace(n),
     jv: new Float64Array(2),
     lim: { hit: false },
+    pa: new Float64Array(n * n),
+    pb: new Float64Array(n),
+    px: new Float64Array(n),
   };
   let warm = false;
   const ig = options.initialGuess;
@@ -641,4 +675,43 @@ function report(sys: System, x: Float64Array, iterations: number, method: SolveM
     }
   }
   return { converged: true, nodes, sources, currents, iterations, method, x: new Float64Array(x.subarray(0, n)) };
+}
+
+/**
+ * The Newton-loop linear system at the operating point of a circuit: the n×n MNA Jacobian (row-major, no reference
+ * row, in the solver's fill-reducing order) and right-hand side exactly as the solver factors them. Used by the benchmark to compare linear solvers.
+ */
+export function newtonSystem(circuit: Circuit): { n: number; a: Float64Array; b: Float64Array } | undefined {
+  const first = solveOp(circuit);
+  if (!first.converged || !first.x) return undefined;
+  const sys = compile(circuit, []);
+  const { n, s } = sys;
+  const w: Work = {
+    a: new Float64Array(s * s),
+    b: new Float64Array(s),
+    x: new Float64Array(s),
+    xn: new Float64Array(s),
+    ws: luWorkspace(n),
+    jv: new Float64Array(2),
+    lim: { hit: false },
+    pa: new Float64Array(n * n),
+    pb: new Float64Array(n),
+    px: new Float64Array(n),
+  };
+  w.x.set(first.x);
+  let out: { n: number; a: Float64Array; b: Float64Array } | undefined;
+  newton(sys, w, {
+    maxIter: 1,
+    srcScale: 1,
+    gshunt: 0,
+    maxStep: Infinity,
+    reltol: 1e-6,
+    vntol: 1e-9,
+    abstol: 1e-14,
+    initJunctions: false,
+    capture: (a, b) => {
+      out = { n, a: new Float64Array(a), b: new Float64Array(b) };
+    },
+  });
+  return out;
 }
