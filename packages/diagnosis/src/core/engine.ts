@@ -104,38 +104,61 @@ export function subFaultKey(faults: readonly SubFault[]): string {
  */
 export class PredictionCache<T, P> {
   private readonly map = new Map<string, Map<string, P>>();
+  private readonly testKeys = new WeakMap<object, string>();
   hits = 0;
   misses = 0;
   constructor(private readonly model: SystemModel<T, unknown, P>) {}
 
-  get(faults: readonly SubFault[], tests: readonly T[]): P[] {
-    const fk = subFaultKey(faults);
+  private keyOf(t: T): string {
+    if (typeof t !== 'object' || t === null) return this.model.testKey(t);
+    let k = this.testKeys.get(t);
+    if (k === undefined) {
+      k = this.model.testKey(t);
+      this.testKeys.set(t, k);
+    }
+    return k;
+  }
+
+  /** One prediction (a cached lookup; predicts on a miss). */
+  getOne(faults: readonly SubFault[], test: T, key?: string): P {
+    const fk = key ?? subFaultKey(faults);
+    const inner = this.map.get(fk);
+    const p = inner?.get(this.keyOf(test));
+    if (p !== undefined) {
+      this.hits++;
+      return p;
+    }
+    return this.get(faults, [test], fk)[0] as P;
+  }
+
+  get(faults: readonly SubFault[], tests: readonly T[], key?: string): P[] {
+    const fk = key ?? subFaultKey(faults);
     let inner = this.map.get(fk);
     if (!inner) {
       inner = new Map();
       this.map.set(fk, inner);
     }
     const out: (P | undefined)[] = new Array(tests.length);
-    const missing: T[] = [];
-    const missingIdx: number[] = [];
+    let missing: T[] | undefined;
+    let missingIdx: number[] | undefined;
     for (let i = 0; i < tests.length; i++) {
       const t = tests[i] as T;
-      const k = this.model.testKey(t);
+      const k = this.keyOf(t);
       const p = inner.get(k);
       if (p === undefined) {
-        missing.push(t);
-        missingIdx.push(i);
+        (missing ??= []).push(t);
+        (missingIdx ??= []).push(i);
       } else {
         out[i] = p;
         this.hits++;
       }
     }
-    if (missing.length > 0) {
+    if (missing && missingIdx) {
       this.misses += missing.length;
       const preds = this.model.predict(faults, missing);
       for (let j = 0; j < missing.length; j++) {
         const p = preds[j] as P;
-        inner.set(this.model.testKey(missing[j] as T), p);
+        inner.set(this.keyOf(missing[j] as T), p);
         out[missingIdx[j] as number] = p;
       }
     }
@@ -149,10 +172,78 @@ export class PredictionCache<T, P> {
   }
 }
 
+interface ComboTemplate {
+  faults: SubFault[];
+  logShare: number;
+  key: string;
+}
+
+// The sweep combinations of a candidate do not depend on the readings: enumerate once per choice set.
+const comboMemo = new WeakMap<readonly ModeChoice[], ComboTemplate[]>();
+const choiceSetMemo = new Map<string, WeakMap<ModeChoice, ModeChoice[]>>();
+
+function enumerateCombos(choices: readonly ModeChoice[]): ComboTemplate[] {
+  const memo = comboMemo.get(choices);
+  if (memo) return memo;
+  // Cartesian product of the members' sweep points.
+  let combos: { faults: SubFault[]; logShare: number }[] = [{ faults: [], logShare: 0 }];
+  for (const ch of choices) {
+    const next: typeof combos = [];
+    for (const c of combos) for (const s of ch.subs) next.push({ faults: [...c.faults, s.sub], logShare: c.logShare + s.logShare });
+    combos = next;
+  }
+  const out = combos.map((c) => ({ ...c, key: subFaultKey(c.faults) }));
+  comboMemo.set(choices, out);
+  return out;
+}
+
+/** A stable array object per (ordered) set of mode choices, so the combo memo hits across updates. */
+function choiceSet(a?: ModeChoice, b?: ModeChoice): readonly ModeChoice[] {
+  if (!a) return EMPTY_CHOICES;
+  const k = b ? '2' : '1';
+  let m = choiceSetMemo.get(k);
+  if (!m) {
+    m = new WeakMap();
+    choiceSetMemo.set(k, m);
+  }
+  if (!b) {
+    let arr = m.get(a);
+    if (!arr) {
+      arr = [a];
+      m.set(a, arr);
+    }
+    return arr;
+  }
+  let inner = pairMemo.get(a);
+  if (!inner) {
+    inner = new WeakMap();
+    pairMemo.set(a, inner);
+  }
+  let arr = inner.get(b);
+  if (!arr) {
+    arr = [a, b];
+    inner.set(b, arr);
+  }
+  return arr;
+}
+const EMPTY_CHOICES: readonly ModeChoice[] = [];
+const pairMemo = new WeakMap<ModeChoice, WeakMap<ModeChoice, ModeChoice[]>>();
+
+// Mode choices per model (stable objects, so the memos above hit).
+const choicesMemo = new WeakMap<object, ModeChoice[]>();
+function choicesOf(model: { components: readonly Component[] }): ModeChoice[] {
+  let c = choicesMemo.get(model);
+  if (!c) {
+    c = modeChoices(model.components);
+    choicesMemo.set(model, c);
+  }
+  return c;
+}
+
 interface Scored {
   refs: FaultRef[];
   logPrior: number;
-  combos: { faults: SubFault[]; logShare: number; perReading: number[]; consistent: boolean }[];
+  combos: { faults: SubFault[]; key: string; logShare: number; perReading: number[]; consistent: boolean }[];
 }
 
 function scoreCandidate<T, V, P>(
@@ -164,21 +255,15 @@ function scoreCandidate<T, V, P>(
 ): Scored {
   const refs = choices.map((c) => c.ref);
   const logPrior = choices.reduce((a, c) => a + c.logRelPrior, 0);
-  // Cartesian product of the members' sweep points.
-  let combos: { faults: SubFault[]; logShare: number }[] = [{ faults: [], logShare: 0 }];
-  for (const ch of choices) {
-    const next: typeof combos = [];
-    for (const c of combos) for (const s of ch.subs) next.push({ faults: [...c.faults, s.sub], logShare: c.logShare + s.logShare });
-    combos = next;
-  }
+  const combos = enumerateCombos(choices);
   return {
     refs,
     logPrior,
     combos: combos.map((c) => {
-      const preds = cache.get(c.faults, tests);
+      const preds = cache.get(c.faults, tests, c.key);
       const perReading = observations.map((o, i) => model.logLikelihood(o.test, o.value, preds[i] as P));
       const consistent = observations.every((o, i) => model.consistent(o.test, o.value, preds[i] as P));
-      return { faults: c.faults, logShare: c.logShare, perReading, consistent };
+      return { faults: c.faults, key: c.key, logShare: c.logShare, perReading, consistent };
     }),
   };
 }
@@ -200,13 +285,13 @@ export function diagnose<T, V, P>(
   const allPairsLimit = options.allPairsLimit ?? 8;
   const pairTopK = options.pairTopK ?? 12;
   const tests = observations.map((o) => o.test);
-  const choices = modeChoices(model.components);
+  const choices = choicesOf(model);
 
   const scored: Scored[] = [];
-  scored.push(scoreCandidate(model, cache, [], observations, tests));
+  scored.push(scoreCandidate(model, cache, choiceSet(), observations, tests));
   const singles: { ch: ModeChoice; s: Scored; logPost: number }[] = [];
   for (const ch of choices) {
-    const s = scoreCandidate(model, cache, [ch], observations, tests);
+    const s = scoreCandidate(model, cache, choiceSet(ch), observations, tests);
     scored.push(s);
     singles.push({ ch, s, logPost: s.logPrior + logMarginal(s) });
   }
@@ -229,7 +314,7 @@ export function diagnose<T, V, P>(
         const a = pool[i] as ModeChoice;
         const b = pool[j] as ModeChoice;
         if (a.ref.part === b.ref.part) continue;
-        scored.push(scoreCandidate(model, cache, [a, b], observations, tests));
+        scored.push(scoreCandidate(model, cache, choiceSet(a, b), observations, tests));
       }
     }
   }
@@ -250,6 +335,7 @@ function buildPosterior(scored: Scored[], nReadings: number, pairRule: Posterior
     const lz = logSumExp(logW);
     const combos: Combo[] = s.combos.map((c, k) => ({
       faults: c.faults,
+      key: c.key,
       logWeight: logW[k] as number,
       weight: lz === -Infinity ? 1 / s.combos.length : Math.exp((logW[k] as number) - lz),
     }));

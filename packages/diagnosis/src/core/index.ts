@@ -12,4 +12,4 @@ export {
   refsKey,
   type DiagnoseOptions,
 } from './engine.js';
-export { rankTests, testEntropy, activeSet, type ProbeOptions, type TestScore } from './probe.js';
+export { rankTests, testEntropy, activeSet, type ProbeOptions, type TestScore, type ActiveCandidate } from './probe.js';

@@ -21,6 +21,8 @@ export interface ProbeOptions {
   maxCandidates?: number;
   /** Sweep combinations with a weight below this fraction of the candidate's best are skipped. */
   comboCutoff?: number;
+  /** At most this many sweep combinations per candidate (the heaviest; weights renormalised). */
+  maxCombos?: number;
 }
 
 export interface TestScore<T> {
@@ -33,17 +35,26 @@ export interface TestScore<T> {
 }
 
 /** Select the candidates (and their significant combos) used for probing, renormalised. */
-export function activeSet(posterior: Posterior, options: ProbeOptions = {}): { cand: ScoredCandidate; p: number; combos: { faults: ScoredCandidate['combos'][number]['faults']; w: number }[] }[] {
+export interface ActiveCandidate {
+  cand: ScoredCandidate;
+  p: number;
+  combos: { faults: ScoredCandidate['combos'][number]['faults']; key?: string; w: number }[];
+}
+
+export function activeSet(posterior: Posterior, options: ProbeOptions = {}): ActiveCandidate[] {
   const massCutoff = options.massCutoff ?? 0.9999;
   const maxCandidates = options.maxCandidates ?? 60;
   const comboCutoff = options.comboCutoff ?? 1e-3;
+  const maxCombos = options.maxCombos ?? Infinity;
   const out: ReturnType<typeof activeSet> = [];
   let mass = 0;
   for (const c of posterior.candidates) {
     if (out.length >= maxCandidates || mass >= massCutoff) break;
     if (!(c.probability > 0)) break;
-    const wmax = Math.max(...c.combos.map((k) => k.weight));
-    const combos = c.combos.filter((k) => k.weight >= wmax * comboCutoff).map((k) => ({ faults: k.faults, w: k.weight }));
+    let wmax = 0;
+    for (const k of c.combos) if (k.weight > wmax) wmax = k.weight;
+    let combos = c.combos.filter((k) => k.weight >= wmax * comboCutoff).map((k) => ({ faults: k.faults, key: k.key, w: k.weight }));
+    if (combos.length > maxCombos) combos = combos.sort((a, b) => b.w - a.w).slice(0, maxCombos);
     const ws = combos.reduce((a, k) => a + k.w, 0);
     for (const k of combos) k.w /= ws;
     out.push({ cand: c, p: c.probability, combos });
@@ -58,14 +69,14 @@ export function activeSet(posterior: Posterior, options: ProbeOptions = {}): { c
 export function testEntropy<T, P>(
   model: SystemModel<T, unknown, P>,
   cache: PredictionCache<T, P>,
-  active: ReturnType<typeof activeSet>,
+  active: readonly ActiveCandidate[],
   test: T,
 ): { expectedEntropy: number; outcomeEntropy: number } {
   // joint[o][c] = P(c) P(o | c)
   const joint = new Map<string, Float64Array>();
   active.forEach((a, ci) => {
     for (const k of a.combos) {
-      const pred = cache.get(k.faults, [test])[0] as P;
+      const pred = cache.getOne(k.faults, test, k.key);
       for (const [bin, po] of model.outcomes(test, pred)) {
         if (!(po > 0)) continue;
         let row = joint.get(bin);
@@ -100,6 +111,9 @@ export function rankTests<T, P>(
   cache: PredictionCache<T, P> = new PredictionCache(model),
 ): TestScore<T>[] {
   const active = activeSet(posterior, options);
+  // Prefetch: one predict call per combination for all tests, so a model can share work across tests in
+  // the same state.
+  for (const a of active) for (const k of a.combos) cache.get(k.faults, tests, k.key);
   const h0 = entropyBits(active.map((a) => a.p));
   const scores = tests.map((test) => {
     const { expectedEntropy, outcomeEntropy } = testEntropy(model, cache, active, test);

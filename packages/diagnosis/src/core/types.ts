@@ -73,6 +73,8 @@ export interface SystemModel<T, V, P> {
 
 export interface Combo {
   faults: SubFault[];
+  /** Cache key of the sub-fault set. */
+  key: string;
   /** Normalised posterior weight of this sweep combination within its candidate. */
   weight: number;
   /** Unnormalised log weight (log prior share + log likelihood) — used when re-weighting. */

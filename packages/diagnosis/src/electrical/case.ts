@@ -257,7 +257,7 @@ export class Diagnoser {
       points = [...nets].map((net) => ({ net, ref: '0' }));
     }
     const tests = candidateTests({ points, cur, liftParts: likelyParts.slice(0, 3).map(partNets) });
-    const ranked = rankTests(this.model, post, tests, (t) => testCost(t, cur), { maxCandidates: options.probeCandidates ?? 40, comboCutoff: 0.01 }, this.cache);
+    const ranked = rankTests(this.model, post, tests, (t) => testCost(t, cur), { maxCandidates: options.probeCandidates ?? 40, comboCutoff: 0.02, maxCombos: 4 }, this.cache);
     const labels = this.testPoints ?? [];
     const nextTests: NextTestReport[] = ranked.slice(0, options.nextTests ?? 10).map((r) => ({
       mode: r.test.mode,

@@ -6,9 +6,10 @@
  * (faults.ts). Board states are built once per state key; predictions are cached by the core per
  * (sub-fault set, test), since they never depend on the readings.
  */
-import { DEFAULT_METER, flatten, measure, stateOf, type Circuit, type MeterProfile, type Netlist } from '@splitscope/circuit';
+import { DEFAULT_METER, flatten, stateOf, type Circuit, type MeterProfile, type Netlist } from '@splitscope/circuit';
 import type { Component, SubFault, SystemModel } from '../core/types.js';
 import { applyFaults, buildParts, toComponents, type ElectricalPart, type PartOverride } from './faults.js';
+import { meterReading } from './meter.js';
 import { consistent, logLikelihood, outcomeBins, type MeterMode, type Prediction, type ReadingValue } from './noise.js';
 
 export interface ElectricalTest {
@@ -46,6 +47,8 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ReadingValue
   readonly nets: Set<string>;
   private readonly states = new Map<string, Circuit>();
   private readonly healthy = new Map<string, Prediction>();
+  private readonly guesses = new Map<string, Record<string, number>>();
+  private readonly outcomeMemo = new WeakMap<Prediction, Array<[string, number]>>();
   /** Number of meter solves done (for the benchmark). */
   solves = 0;
 
@@ -81,15 +84,23 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ReadingValue
         c = applyFaults(this.stateCircuit(t), faults, this.partsByName);
         byState.set(k, c);
       }
-      return this.measureOn(c, t);
+      return this.measureOn(c, t, this.guessFor(t));
     });
   }
 
-  private measureOn(c: Circuit, t: ElectricalTest): Prediction {
+  /** Warm start for a probe in a state: the healthy board's solution of the same measurement. */
+  private guessFor(t: ElectricalTest): Record<string, number> | undefined {
+    const k = testKey(t);
+    if (!this.guesses.has(k)) this.healthyPrediction(t);
+    return this.guesses.get(k);
+  }
+
+  private measureOn(c: Circuit, t: ElectricalTest, guess?: Record<string, number>): Prediction {
     this.solves++;
     try {
-      const r = measure(c, { mode: t.mode, red: t.red, black: t.black }, this.meter);
-      return r.beep === undefined ? { value: r.value } : { value: r.value, beep: r.beep };
+      const r = meterReading(c, t, this.meter, guess);
+      if (!guess && r.nodes) this.guesses.set(testKey(t), r.nodes);
+      return r.prediction;
     } catch {
       return { value: 'unknown' };
     }
@@ -115,6 +126,12 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ReadingValue
   }
 
   outcomes(t: ElectricalTest, p: Prediction): Array<[string, number]> {
-    return outcomeBins(t.mode, p, this.healthyPrediction(t), this.meter);
+    // Memoised per prediction object (each cached prediction belongs to one test).
+    let o = this.outcomeMemo.get(p);
+    if (!o) {
+      o = outcomeBins(t.mode, p, this.healthyPrediction(t), this.meter);
+      this.outcomeMemo.set(p, o);
+    }
+    return o;
   }
 }

@@ -64,7 +64,26 @@ export interface Scale {
   overRange: number;
 }
 
+const scaleMemo = new WeakMap<MeterProfile, Partial<Record<MeterMode, Scale>>>();
+
 export function scaleOf(mode: MeterMode, meter: MeterProfile): Scale {
+  let m = scaleMemo.get(meter);
+  if (!m) {
+    m = {};
+    scaleMemo.set(meter, m);
+  }
+  let sc = m[mode];
+  if (!sc) {
+    sc = makeScale(mode, meter);
+    m[mode] = sc;
+  }
+  return sc;
+}
+
+const LN_R0 = Math.log(R0);
+const SIG_OHM = Math.hypot(0.01, 0.08);
+
+function makeScale(mode: MeterMode, meter: MeterProfile): Scale {
   switch (mode) {
     case 'dcv':
       return {
@@ -76,7 +95,7 @@ export function scaleOf(mode: MeterMode, meter: MeterProfile): Scale {
     case 'diode':
       return { s: (x) => x, sigma: (mu) => Math.hypot(0.015, 0.03 * mu), gammaFloor: 0.1, overRange: meter.diode.overRange };
     case 'ohm':
-      return { s: (x) => Math.log(Math.max(x, 0) + R0), sigma: () => Math.hypot(0.01, 0.08), gammaFloor: 0.5, overRange: meter.ohm.overRange };
+      return { s: (x) => (x > 0 ? Math.log(x + R0) : LN_R0), sigma: () => SIG_OHM, gammaFloor: 0.5, overRange: meter.ohm.overRange };
     case 'continuity':
       return { s: (x) => Math.log(Math.max(x, 0) + R0), sigma: () => SIG_CONT, gammaFloor: 0.5, overRange: meter.continuity.overRange };
   }
