@@ -15,7 +15,18 @@ const schema = z.object({
   LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(10),
   SMTP_HOST: z.string().default('127.0.0.1'),
   SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
+  /** A real relay: `SMTP_SECURE=1` for implicit TLS (port 465); otherwise STARTTLS is used when offered. */
+  SMTP_SECURE: z.enum(['0', '1']).default('0').transform((v) => v === '1'),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASS: z.string().optional(),
   MAIL_FROM: z.string().default('Splitscope Demo Repair <bench@demo.test>'),
+  /** Where the local SMTP capture server keeps what it receives (the development outbox reads it). */
+  MAIL_CAPTURE_DIR: z.string().default('.data/mail'),
+  /**
+   * `1`: run the local SMTP capture server and fake payment API in-process on SMTP_PORT / PAYMENTS_PORT.
+   * Default on, except in production with a payment key that is not the local fake's.
+   */
+  LOCAL_FAKES: z.enum(['0', '1']).optional(),
   PAYMENTS_HOST: z.string().default('127.0.0.1'),
   PAYMENTS_PORT: z.coerce.number().int().min(1).max(65535).default(12111),
   PAYMENTS_PROTOCOL: z.enum(['http', 'https']).default('http'),
