@@ -40,6 +40,9 @@ export interface DiagnoseOptions {
 
 export const LN2 = Math.log(2);
 
+/** |ln LR| below this (nats, a factor of about 1.05) is reported as neutral evidence. */
+export const NEUTRAL_LLR = 0.05;
+
 export function logSumExp(xs: readonly number[]): number {
   let m = -Infinity;
   for (const x of xs) if (x > m) m = x;
@@ -345,7 +348,7 @@ function buildPosterior(scored: Scored[], nReadings: number, pairRule: Posterior
     for (let i = 0; i < nReadings; i++) {
       const li = logSumExp(s.combos.map((c, k) => Math.log(Math.max((combos[k] as Combo).weight, 1e-300)) + (c.perReading[i] as number)));
       const llr = li - (healthyPer[i] as number);
-      evidence.push({ index: i, llr, sign: llr > 1e-6 ? 'supports' : llr < -1e-6 ? 'against' : 'neutral' });
+      evidence.push({ index: i, llr, sign: llr > NEUTRAL_LLR ? 'supports' : llr < -NEUTRAL_LLR ? 'against' : 'neutral' });
     }
     return {
       faults: s.refs,
