@@ -84,6 +84,7 @@ const readCmd: Command = (args) => {
 export const commands: Record<string, Command> = {
   op,
   read: readCmd,
+  diagnose: (args) => import('./cli/diagnose').then((m) => m.diagnose(args)),
   // state: an `applyState` view for debugging: the elements left in a board state
   state: (args) => {
     const { positional, flags } = parseFlags(args, ['power', 'lift', 'param']);
