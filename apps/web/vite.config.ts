@@ -8,12 +8,15 @@ const here = (p: string) => fileURLToPath(new URL(p, import.meta.url));
 export default defineConfig({
   plugins: [react(), tailwindcss()],
   resolve: {
-    alias: {
-      '@splitscope/contract': here('../../packages/contract/src/index.ts'),
-      '@splitscope/boards': here('../../packages/boards/src/index.ts'),
-      '@splitscope/circuit': here('../../packages/circuit/src/index.ts'),
-      '@': here('./src'),
-    },
+    // Sub-paths first: the unit parser (mathjs) and the bench references load only in the screens that use them.
+    alias: [
+      { find: /^@splitscope\/boards\/units$/, replacement: here('../../packages/boards/src/units.ts') },
+      { find: /^@splitscope\/boards\/references$/, replacement: here('../../packages/boards/src/references/index.ts') },
+      { find: /^@splitscope\/contract$/, replacement: here('../../packages/contract/src/index.ts') },
+      { find: /^@splitscope\/boards$/, replacement: here('../../packages/boards/src/index.ts') },
+      { find: /^@splitscope\/circuit$/, replacement: here('../../packages/circuit/src/index.ts') },
+      { find: /^@\//, replacement: here('./src') + '/' },
+    ],
   },
   server: {
     port: 5173,

@@ -1,3 +1,4 @@
+import { Suspense } from 'react';
 import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
 import { useMe } from '@/features/auth/api/me';
 import { useSignOut } from '@/features/auth/api/sign-in';
@@ -26,6 +27,22 @@ export function AppLayout() {
           <NavLink to="/" end className={link}>
             Home
           </NavLink>
+          <NavLink to="/jobs" end className={link}>
+            Jobs
+          </NavLink>
+          {(me.data.role === 'lead' || me.data.role === 'admin') && (
+            <NavLink to="/review" className={link}>
+              Review
+            </NavLink>
+          )}
+          {(me.data.role === 'lead' || me.data.role === 'admin') && (
+            <NavLink to="/boards" className={link}>
+              Board library
+            </NavLink>
+          )}
+          <NavLink to="/references" className={link}>
+            Bench references
+          </NavLink>
         </nav>
         <span className="text-sm">
           {me.data.name} · {roleLabel[me.data.role]} · {me.data.shopName}
@@ -39,7 +56,15 @@ export function AppLayout() {
         </button>
       </header>
       <main className="flex-1 p-4">
-        <Outlet />
+        <Suspense
+          fallback={
+            <p role="status" className="p-4">
+              Loading the screen…
+            </p>
+          }
+        >
+          <Outlet />
+        </Suspense>
       </main>
     </div>
   );

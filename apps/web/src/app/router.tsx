@@ -1,12 +1,37 @@
+import { lazy } from 'react';
 import { createBrowserRouter } from 'react-router-dom';
 import { SignInPage } from '@/features/auth/components/sign-in-page';
 import { HomePage } from '@/features/home/components/home-page';
 import { AppLayout } from './layout';
 
+// Every screen but sign-in and home loads on demand: the bench brings konva, the references bring mathjs.
+const JobsPage = lazy(() => import('@/features/jobs/components/jobs-page'));
+const NewJobPage = lazy(() => import('@/features/jobs/components/new-job-page'));
+const BenchPage = lazy(() => import('@/features/bench/components/bench-page'));
+const ReviewQueuePage = lazy(() => import('@/features/review/components/review-queue-page'));
+const ReviewJobPage = lazy(() => import('@/features/review/components/review-job-page'));
+const RepairPage = lazy(() => import('@/features/repair/components/repair-page'));
+const ReportPage = lazy(() => import('@/features/report/components/report-page'));
+const BoardLibraryPage = lazy(() => import('@/features/board-library/components/board-library-page'));
+const BoardEditorPage = lazy(() => import('@/features/board-library/components/board-editor-page'));
+const ReferencesPage = lazy(() => import('@/features/references/components/references-page'));
+
 export const router = createBrowserRouter([
   { path: '/sign-in', element: <SignInPage /> },
   {
     element: <AppLayout />,
-    children: [{ index: true, element: <HomePage /> }],
+    children: [
+      { index: true, element: <HomePage /> },
+      { path: 'jobs', element: <JobsPage /> },
+      { path: 'jobs/new', element: <NewJobPage /> },
+      { path: 'jobs/:id', element: <BenchPage /> },
+      { path: 'jobs/:id/review', element: <ReviewJobPage /> },
+      { path: 'jobs/:id/repair', element: <RepairPage /> },
+      { path: 'jobs/:id/report', element: <ReportPage /> },
+      { path: 'review', element: <ReviewQueuePage /> },
+      { path: 'boards', element: <BoardLibraryPage /> },
+      { path: 'boards/:id', element: <BoardEditorPage /> },
+      { path: 'references', element: <ReferencesPage /> },
+    ],
   },
 ]);

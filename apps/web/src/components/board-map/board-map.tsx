@@ -1,6 +1,7 @@
 import type Konva from 'konva';
 import { useEffect, useLayoutEffect, useMemo, useRef, useState, type KeyboardEvent } from 'react';
 import { Circle, Group, Image as KonvaImage, Layer, Line, Rect, Stage, Text } from 'react-konva';
+import { MarkerGlyph } from './marker-glyph';
 import {
   MARKER,
   fitView,
@@ -12,7 +13,7 @@ import {
   type Size,
   type Vec,
   type View,
-} from '../lib/map-geometry';
+} from '@/lib/map-geometry';
 
 export interface MapPoint {
   id: string;
@@ -47,6 +48,10 @@ export interface BoardMapProps {
   probes?: { red?: string; black?: string };
   highlightPart?: string | null;
   onSelect: (pointId: string) => void;
+  /** Editing: test points can be dragged; the new board position is reported. */
+  onPointMove?: (pointId: string, x: number, y: number) => void;
+  /** Editing: a click on empty board reports the board position. */
+  onBoardClick?: (x: number, y: number) => void;
 }
 
 function usePicture(url?: string) {
@@ -176,6 +181,11 @@ export function BoardMap(props: BoardMapProps) {
               if (e.target === e.target.getStage()) setView({ ...current, x: e.target.x(), y: e.target.y() });
             }}
             onWheel={onWheel}
+            onClick={(e) => {
+              if (!props.onBoardClick || e.target !== e.target.getStage()) return;
+              const pos = e.target.getStage()?.getRelativePointerPosition();
+              if (pos) props.onBoardClick(Math.round(pos.x), Math.round(pos.y));
+            }}
             onTouchMove={onTouchMove}
             onTouchEnd={() => (pinch.current = null)}
           >
@@ -238,6 +248,11 @@ export function BoardMap(props: BoardMapProps) {
                     y={p.y}
                     onClick={() => onSelect(p.id)}
                     onTap={() => onSelect(p.id)}
+                    draggable={!!props.onPointMove}
+                    onDragEnd={(e) => {
+                      e.cancelBubble = true;
+                      props.onPointMove?.(p.id, Math.round(e.target.x()), Math.round(e.target.y()));
+                    }}
                     {...hoverHandlers(p.net)}
                   >
                     {/* generous invisible hit area: a fingertip, not a pixel */}
@@ -288,23 +303,3 @@ export function BoardMap(props: BoardMapProps) {
   );
 }
 
-/** The same marker as on the map, for lists and legends. */
-export function MarkerGlyph({ state }: { state: MarkerState }) {
-  const m = MARKER[state];
-  const pts = m.shape === 'ring' ? null : markerPoints(m.shape, 5.5);
-  return (
-    <svg width="18" height="18" viewBox="-9 -9 18 18" aria-hidden className="shrink-0">
-      <circle r="7.5" fill="#fff" stroke={m.colour} strokeWidth="2" />
-      {pts && (
-        <polyline
-          points={pts.join(' ')}
-          fill={m.shape === 'check' ? 'none' : m.colour}
-          stroke={m.colour}
-          strokeWidth={m.shape === 'check' ? 2.2 : 1}
-          strokeLinecap="round"
-          strokeLinejoin="round"
-        />
-      )}
-    </svg>
-  );
-}

@@ -1,5 +1,5 @@
-import { MARKER, type MarkerState } from '../lib/map-geometry';
-import { MarkerGlyph } from './board-map';
+import { MARKER, type MarkerState } from '@/lib/map-geometry';
+import { MarkerGlyph } from '@/components/board-map/marker-glyph';
 
 export interface PointListItem {
   id: string;

@@ -1,7 +1,7 @@
 import { useEffect, useRef, useState, type FormEvent } from 'react';
 import { Caution } from '@/components/ui/caution';
-import { MARKER, type MarkerState } from '../lib/map-geometry';
-import { MarkerGlyph } from './board-map';
+import { MARKER, type MarkerState } from '@/lib/map-geometry';
+import { MarkerGlyph } from '@/components/board-map/marker-glyph';
 
 export const METER_LABEL: Record<string, string> = {
   dcv: 'DC volts',

@@ -1,4 +1,4 @@
-import { MARKER, type MarkerState } from '../lib/map-geometry';
+import { MARKER, type MarkerState } from '@/lib/map-geometry';
 
 export interface ChainLink {
   id: string;

@@ -1,0 +1,116 @@
+/**
+ * Joins what the server sent (expected-readings table, readings with their verdicts, the engine's diagnosis) to the
+ * drawable board. Only lookups and labels: verdicts, bands, probabilities and next tests are the engine's.
+ */
+import type { Diagnosis, ExpectedReadingRow, StoredReading } from '@splitscope/contract';
+import type { MarkerState } from '@/lib/map-geometry';
+import { meterText } from '@/lib/format';
+import type { NextTestView, RankedPart } from '../components/ranking-panel';
+import { netOf, type BoardView } from './board-view';
+
+export interface Target {
+  mode: ExpectedReadingRow['mode'];
+  red: string;
+  black: string;
+  power: 'on' | 'off';
+  lifted: string[];
+}
+
+const norm = (s: string) => s.trim().toLowerCase();
+const sameProbe = (view: BoardView, a: string, b: string) => norm(netOf(view, a)) === norm(netOf(view, b));
+
+export const stateOf = (verdict: 'ok' | 'low' | 'high' | null | undefined): MarkerState =>
+  verdict === 'ok' ? 'healthy' : verdict === 'low' ? 'low' : verdict === 'high' ? 'high' : 'unmeasured';
+
+export function sameTarget(view: BoardView, a: Target, b: Target) {
+  return (
+    a.mode === b.mode &&
+    a.power === b.power &&
+    sameProbe(view, a.red, b.red) &&
+    sameProbe(view, a.black, b.black) &&
+    [...a.lifted].sort().join() === [...b.lifted].sort().join()
+  );
+}
+
+export const currentReadings = (items: StoredReading[], phase: 'diagnosis' | 'verification' = 'diagnosis') =>
+  items.filter((r) => !r.supersededBy && r.phase === phase);
+
+/** The newest reading of this test, if any. */
+export function latestFor(view: BoardView, readings: StoredReading[], t: Target): StoredReading | undefined {
+  return [...readings].reverse().find((r) => sameTarget(view, { ...r, red: r.redNet, black: r.blackNet }, t));
+}
+
+/** A point's marker: the verdict of the newest reading with the red probe on its net. */
+export function pointState(view: BoardView, readings: StoredReading[], pointNet: string): { state: MarkerState; reading?: StoredReading } {
+  const r = [...readings].reverse().find((x) => norm(x.redNet) === norm(pointNet));
+  return { state: r ? stateOf(r.verdict?.verdict) : 'unmeasured', reading: r };
+}
+
+/** The rows of the expected table that put the red probe on this point. */
+export function rowsForPoint(view: BoardView, rows: ExpectedReadingRow[], pointId: string): ExpectedReadingRow[] {
+  const p = view.pointOf(pointId);
+  if (!p) return [];
+  return rows.filter((r) => norm(r.red) === norm(p.id) || norm(netOf(view, r.red)) === norm(p.net));
+}
+
+export function expectedFor(view: BoardView, rows: ExpectedReadingRow[], t: Target): ExpectedReadingRow | undefined {
+  return rows.find((r) => sameTarget(view, r, t));
+}
+
+export function describeTest(view: BoardView, t: Target & { value?: number | 'OL'; unit?: string }) {
+  const m = { dcv: 'DC V', ohm: 'Ω', diode: 'diode', continuity: 'continuity' }[t.mode];
+  return `${view.netLabel(t.red)} to ${view.netLabel(t.black)}, ${m}, power ${t.power}${t.lifted.length ? `, ${t.lifted.join(', ')} lifted` : ''}`;
+}
+
+const rec = (v: unknown): Record<string, unknown> => (typeof v === 'object' && v !== null ? (v as Record<string, unknown>) : {});
+
+/** Parts ranked by the engine, each with the readings that speak for and against it. */
+export function rankedParts(view: BoardView, d: Diagnosis): RankedPart[] {
+  const readingText = (i: number) => {
+    const r = d.readings[i];
+    if (!r) return `reading ${i + 1}`;
+    return `${view.pointOf(r.red)?.label ?? r.red} ${meterText(r.value, r.unit)}${r.verdict ? ` (${r.verdict})` : ''}`;
+  };
+  return d.parts.map((p) => {
+    const single = d.candidates.find((c) => c.faults.length === 1 && c.faults[0]!.part === p.part && c.faults[0]!.mode === p.mode);
+    const ev = Array.isArray(rec(single).evidence) ? (rec(single).evidence as unknown[]).map(rec) : [];
+    const idx = (e: Record<string, unknown>) => (typeof e.reading === 'number' ? e.reading : typeof e.index === 'number' ? e.index : -1);
+    const sign = (e: Record<string, unknown>) => e.effect ?? e.sign;
+    const partRec = rec(p);
+    return {
+      part: p.part,
+      mode: p.mode,
+      probability: p.probability,
+      description: typeof partRec.description === 'string' ? partRec.description : undefined,
+      evidenceFor: ev.filter((e) => sign(e) === 'supports').map((e) => readingText(idx(e))),
+      evidenceAgainst: ev.filter((e) => sign(e) === 'against').map((e) => readingText(idx(e))),
+    };
+  });
+}
+
+export function nextTests(view: BoardView, d: Diagnosis): (NextTestView & { target: Target })[] {
+  return d.nextTests.map((t, i) => {
+    const r = rec(t);
+    const target: Target = { mode: t.mode, red: t.red, black: t.black, power: t.power, lifted: t.lifted };
+    const gain = typeof r.expectedGain === 'number' ? r.expectedGain : undefined;
+    return {
+      id: `${i}-${t.mode}-${t.red}-${t.black}-${t.power}`,
+      label: typeof r.instruction === 'string' ? r.instruction : describeTest(view, target),
+      meter: { dcv: 'DC volts', ohm: 'resistance', diode: 'diode test', continuity: 'continuity' }[t.mode],
+      power: t.power,
+      red: t.red,
+      black: t.black,
+      gainBits: gain,
+      pointId: view.pointOf(t.red)?.id,
+      target,
+    };
+  });
+}
+
+/** Whether a test is on a section that touches the bus, as the board model marks its test points and sections. */
+export function touchesBus(view: BoardView, t: Target): boolean {
+  const bus = new Set(view.sections.filter((s) => s.touchesBus).map((s) => norm(s.id)));
+  const pts = [t.red, t.black].map((p) => view.pointOf(p)).filter((p) => p !== undefined);
+  if (pts.length === 0) return true; // not a known point: be cautious and gate it
+  return pts.some((p) => p.touchesBus || (p.section ? bus.has(norm(p.section)) : false));
+}

@@ -1,0 +1,169 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { createJobRequest } from '@splitscope/contract';
+import { useState } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
+import { useNavigate } from 'react-router-dom';
+import type { z } from 'zod';
+import { PageHeader } from '@/components/ui/page-header';
+import { useCreateJob } from '../api/create-job';
+import { useBoards } from '@/lib/api/get-boards';
+import { useCustomers } from '../api/get-customers';
+import { useFaultCodes } from '../api/get-fault-codes';
+import { useUsers } from '../api/get-users';
+import { uploadPhoto } from '../api/upload-photo';
+
+type FormIn = z.input<typeof createJobRequest>;
+type FormOut = z.output<typeof createJobRequest>;
+
+const field = 'mt-1 block min-h-11 w-full rounded-md border border-stone-500 bg-white px-3';
+
+function Err({ msg }: { msg?: string }) {
+  return msg ? <span className="text-sm text-high">{msg}</span> : null;
+}
+
+/** Intake: who sent the board, which unit and board model, and what the unit showed. */
+export function NewJobPage() {
+  const customers = useCustomers();
+  const boards = useBoards();
+  const users = useUsers();
+  const create = useCreateJob();
+  const navigate = useNavigate();
+  const [photos, setPhotos] = useState<File[]>([]);
+  const [photoError, setPhotoError] = useState<string | null>(null);
+  const form = useForm<FormIn, unknown, FormOut>({
+    resolver: zodResolver(createJobRequest),
+    defaultValues: { customerId: '', unitDescription: '', serial: '', boardId: '', faultCode: '', symptom: '', priority: 'normal', assigneeId: null },
+  });
+  const boardId = useWatch({ control: form.control, name: 'boardId' });
+  const faultCode = useWatch({ control: form.control, name: 'faultCode' });
+  const codes = useFaultCodes(boardId || undefined);
+  const code = (faultCode ?? '').trim().toUpperCase();
+  const match = code ? codes.data?.items.find((c) => c.code.toUpperCase() === code) : undefined;
+  const e = form.formState.errors;
+
+  const submit = form.handleSubmit(async (v) => {
+    const job = await create.mutateAsync(v);
+    try {
+      for (const f of photos) await uploadPhoto(f, job.id);
+    } catch (err) {
+      setPhotoError(`The job is open, but a photo was not stored: ${(err as Error).message}`);
+      return;
+    }
+    navigate(`/jobs/${job.id}`);
+  });
+
+  return (
+    <section className="max-w-3xl">
+      <PageHeader title="Open a job (intake)" />
+      <form onSubmit={submit} noValidate className="grid gap-4 sm:grid-cols-2">
+        <label className="block">
+          <span className="text-sm font-medium">Customer</span>
+          <select className={field} {...form.register('customerId')} aria-invalid={!!e.customerId}>
+            <option value="">{customers.isPending ? 'Loading…' : 'Choose a customer'}</option>
+            {customers.data?.items.map((c) => (
+              <option key={c.id} value={c.id}>
+                {c.name}
+                {c.company ? ` (${c.company})` : ''}
+              </option>
+            ))}
+          </select>
+          {customers.isError && <Err msg={`Customers could not be loaded: ${customers.error.message}`} />}
+          <Err msg={e.customerId && 'Choose the customer'} />
+        </label>
+        <label className="block">
+          <span className="text-sm font-medium">Board model</span>
+          <select className={field} {...form.register('boardId')} aria-invalid={!!e.boardId}>
+            <option value="">{boards.isPending ? 'Loading…' : 'Choose the board model'}</option>
+            {boards.data?.items.map((b) => (
+              <option key={b.id} value={b.id}>
+                {b.name} (v{b.version})
+              </option>
+            ))}
+          </select>
+          {boards.isError && <Err msg={`Boards could not be loaded: ${boards.error.message}`} />}
+          <Err msg={e.boardId && 'Choose the board model'} />
+        </label>
+        <label className="block">
+          <span className="text-sm font-medium">Unit (make-free description, model line)</span>
+          <input className={field} {...form.register('unitDescription')} aria-invalid={!!e.unitDescription} />
+          <Err msg={e.unitDescription?.message} />
+        </label>
+        <label className="block">
+          <span className="text-sm font-medium">Serial (optional)</span>
+          <input className={field} {...form.register('serial')} />
+        </label>
+        <div className="sm:col-span-2">
+          <label className="block max-w-xs">
+            <span className="text-sm font-medium">Reported fault code</span>
+            <input className={`${field} font-mono uppercase`} {...form.register('faultCode')} autoComplete="off" />
+          </label>
+          <div aria-live="polite" className="mt-2 text-sm">
+            {!boardId && code && <p className="text-stone-700">Choose the board model to look the code up.</p>}
+            {boardId && codes.isPending && code && <p>Looking up the code…</p>}
+            {codes.isError && <Err msg={`The code table could not be loaded: ${codes.error.message}`} />}
+            {boardId && code && codes.data && !match && <p className="text-stone-700">{code} is not in this board family’s code table.</p>}
+            {match && (
+              <div className="rounded-md border border-copper bg-amber-50 p-2" data-testid="fault-code-match">
+                <p className="font-semibold">
+                  {match.code}: {match.title}
+                </p>
+                {match.description && <p>{match.description}</p>}
+                <p>
+                  Suspect sections: <strong>{match.sections.join(', ') || 'none named'}</strong>
+                </p>
+              </div>
+            )}
+          </div>
+        </div>
+        <label className="block sm:col-span-2">
+          <span className="text-sm font-medium">Symptom</span>
+          <textarea rows={3} className={`${field} py-2`} {...form.register('symptom')} aria-invalid={!!e.symptom} />
+          <Err msg={e.symptom?.message} />
+        </label>
+        <label className="block">
+          <span className="text-sm font-medium">Priority</span>
+          <select className={field} {...form.register('priority')}>
+            <option value="low">Low</option>
+            <option value="normal">Normal</option>
+            <option value="high">High</option>
+          </select>
+        </label>
+        <label className="block">
+          <span className="text-sm font-medium">Assign to</span>
+          <select className={field} {...form.register('assigneeId', { setValueAs: (v: string) => v || null })}>
+            <option value="">Nobody yet</option>
+            {users.data?.items
+              .filter((u) => u.role !== 'admin')
+              .map((u) => (
+                <option key={u.id} value={u.id}>
+                  {u.name}
+                </option>
+              ))}
+          </select>
+        </label>
+        <label className="block sm:col-span-2">
+          <span className="text-sm font-medium">Photos of the board as received (PNG or JPEG)</span>
+          <input
+            type="file"
+            accept="image/png,image/jpeg"
+            multiple
+            onChange={(ev) => setPhotos(Array.from(ev.target.files ?? []))}
+            className="mt-1 block min-h-11 w-full"
+          />
+        </label>
+        {(create.error || photoError) && (
+          <p role="alert" className="rounded-md bg-red-50 p-2 text-sm text-high sm:col-span-2">
+            {photoError ?? create.error?.message}
+          </p>
+        )}
+        <div className="sm:col-span-2">
+          <button type="submit" disabled={form.formState.isSubmitting} className="min-h-11 rounded-md bg-board px-6 font-semibold text-white">
+            {form.formState.isSubmitting ? 'Opening…' : 'Open the job'}
+          </button>
+        </div>
+      </form>
+    </section>
+  );
+}
+
+export default NewJobPage;

@@ -1,0 +1,156 @@
+import { busSafety, decodeColourBands, decodeSmdCode, nearestPreferred, SAFE_THRESHOLDS, type SafeThresholdId } from '@splitscope/boards/references';
+import { parseReadingInput } from '@splitscope/boards/units';
+import { useState } from 'react';
+import { Caution } from '@/components/ui/caution';
+import { PageHeader } from '@/components/ui/page-header';
+import { meterText } from '@/lib/format';
+
+const field = 'mt-1 block min-h-11 w-full rounded-md border border-stone-500 bg-white px-3 font-mono';
+
+function parse(text: string, unit: 'V' | 'ohm' | 'F'): { value?: number; error?: string } {
+  if (!text.trim()) return {};
+  const r = parseReadingInput(text, unit);
+  if (!r.ok) return { error: r.error };
+  if (r.value === 'OL') return { error: 'OL is not a value here' };
+  return { value: r.value };
+}
+
+function BusCalculator() {
+  const [c, setC] = useState('680u');
+  const [r, setR] = useState('220k');
+  const [v, setV] = useState('340');
+  const [t, setT] = useState<SafeThresholdId>('selv-60vdc');
+  const cap = parse(c, 'F');
+  const bleeder = parse(r, 'ohm');
+  const volts = parse(v, 'V');
+  let result: ReturnType<typeof busSafety> | null = null;
+  let error = cap.error ?? bleeder.error ?? volts.error ?? null;
+  if (!error && cap.value && volts.value) {
+    try {
+      result = busSafety({ capacitanceF: cap.value, bleederOhms: bleeder.value, busVolts: volts.value, threshold: SAFE_THRESHOLDS[t] });
+    } catch (e) {
+      error = (e as Error).message;
+    }
+  }
+  return (
+    <section aria-labelledby="bus-h" className="space-y-3 rounded-lg border border-stone-300 bg-white p-4">
+      <h2 id="bus-h" className="text-lg font-semibold">
+        Bus-safety calculator
+      </h2>
+      <div className="grid gap-3 sm:grid-cols-2">
+        <label>
+          <span className="text-sm font-medium">Bulk capacitance</span>
+          <input className={field} value={c} onChange={(e) => setC(e.target.value)} />
+        </label>
+        <label>
+          <span className="text-sm font-medium">Bleeder resistance (empty if none)</span>
+          <input className={field} value={r} onChange={(e) => setR(e.target.value)} />
+        </label>
+        <label>
+          <span className="text-sm font-medium">Bus voltage at unplugging (V)</span>
+          <input className={field} value={v} onChange={(e) => setV(e.target.value)} />
+        </label>
+        <label>
+          <span className="text-sm font-medium">Safe threshold</span>
+          <select className={`${field} font-sans`} value={t} onChange={(e) => setT(e.target.value as SafeThresholdId)}>
+            {Object.values(SAFE_THRESHOLDS).map((s) => (
+              <option key={s.id} value={s.id}>
+                {s.volts} V — {s.standard}
+              </option>
+            ))}
+          </select>
+        </label>
+      </div>
+      <div aria-live="polite">
+        {error && (
+          <p role="alert" className="text-high">
+            {error}
+          </p>
+        )}
+        {result && (
+          <div className="space-y-2">
+            <dl className="grid grid-cols-[12rem_1fr] gap-y-1">
+              <dt>Stored energy</dt>
+              <dd className="font-semibold tabular-nums">{result.energyJ.toPrecision(3)} J</dd>
+              <dt>Time constant</dt>
+              <dd className="font-semibold tabular-nums">{result.tauS === null ? 'no bleed path' : `${result.tauS.toPrecision(3)} s`}</dd>
+              <dt>Bleed time to {result.threshold.volts} V</dt>
+              <dd className="font-semibold tabular-nums" data-testid="calc-bleed">
+                {result.bleedTimeS === null ? 'never by itself — discharge it' : `${result.bleedTimeS.toPrecision(3)} s`}
+              </dd>
+            </dl>
+            <p className="text-sm">{result.summary}</p>
+            <p className="text-xs text-stone-700">
+              Threshold: {result.threshold.clause}. {result.threshold.note}
+            </p>
+          </div>
+        )}
+      </div>
+    </section>
+  );
+}
+
+function MarkingDecoder() {
+  const [bands, setBands] = useState('brown black orange gold');
+  const [smd, setSmd] = useState('4R7');
+  const decode = <T,>(f: () => T): { ok: T } | { err: string } => {
+    try {
+      return { ok: f() };
+    } catch (e) {
+      return { err: (e as Error).message };
+    }
+  };
+  const b = bands.trim() ? decode(() => decodeColourBands(bands)) : null;
+  const s = smd.trim() ? decode(() => decodeSmdCode(smd)) : null;
+  return (
+    <section aria-labelledby="mark-h" className="space-y-3 rounded-lg border border-stone-300 bg-white p-4">
+      <h2 id="mark-h" className="text-lg font-semibold">
+        Marking decoder
+      </h2>
+      <label className="block">
+        <span className="text-sm font-medium">Colour bands (IEC 60062), first band first</span>
+        <input className={field} value={bands} onChange={(e) => setBands(e.target.value)} />
+      </label>
+      <p aria-live="polite" data-testid="bands-result">
+        {b && ('ok' in b ? (
+          <>
+            <strong>{meterText(b.ok.ohms, 'ohm')}</strong> ±{(b.ok.tolerance * 100).toFixed(b.ok.tolerance < 0.01 ? 2 : 0)} %
+            {b.ok.tempcoPpmK ? `, ${b.ok.tempcoPpmK} ppm/K` : ''} · nearest E24 value {meterText(nearestPreferred(b.ok.ohms, 'E24').value, 'ohm')}
+          </>
+        ) : (
+          <span className="text-high">{b.err}</span>
+        ))}
+      </p>
+      <label className="block">
+        <span className="text-sm font-medium">SMD resistor code (3-digit, 4-digit, R-notation, EIA-96)</span>
+        <input className={field} value={smd} onChange={(e) => setSmd(e.target.value)} />
+      </label>
+      <p aria-live="polite" data-testid="smd-result">
+        {s && ('ok' in s ? (
+          <>
+            <strong>{meterText(s.ok.ohms, 'ohm')}</strong> · {s.ok.system} code, usually ±{(s.ok.typicalTolerance * 100).toFixed(0)} %
+          </>
+        ) : (
+          <span className="text-high">{s.err}</span>
+        ))}
+      </p>
+    </section>
+  );
+}
+
+export function ReferencesPage() {
+  return (
+    <div className="space-y-4">
+      <PageHeader title="Bench references" />
+      <Caution title="These figures are a bench aid, not a safety device">
+        <p>Always measure the bus before touching. Follow your shop’s procedures, local electrical codes and licensed practice.</p>
+      </Caution>
+      <div className="grid gap-4 lg:grid-cols-2">
+        <BusCalculator />
+        <MarkingDecoder />
+      </div>
+    </div>
+  );
+}
+
+export default ReferencesPage;

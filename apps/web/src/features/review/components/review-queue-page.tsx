@@ -1,0 +1,52 @@
+import { Link } from 'react-router-dom';
+import { PageHeader } from '@/components/ui/page-header';
+import { QueryState } from '@/components/ui/query-state';
+import { useJobs } from '@/lib/api/get-jobs';
+import { age } from '@/lib/format';
+
+export function ReviewQueuePage() {
+  const jobs = useJobs({ status: 'awaiting-review' });
+  return (
+    <section>
+      <PageHeader title="Review queue" />
+      <QueryState query={jobs} label="the review queue">
+        {(d) =>
+          d.items.length === 0 ? (
+            <p className="text-stone-700">No diagnosis is waiting for review.</p>
+          ) : (
+            <table className="w-full rounded-lg border border-stone-300 bg-white text-left">
+              <thead className="bg-stone-100 text-sm">
+                <tr>
+                  <th className="p-2">Job</th>
+                  <th>Board</th>
+                  <th>Customer</th>
+                  <th>Proposed part</th>
+                  <th>Technician</th>
+                  <th>Waiting</th>
+                </tr>
+              </thead>
+              <tbody>
+                {d.items.map((j) => (
+                  <tr key={j.id} className="border-t border-stone-200">
+                    <td className="p-1">
+                      <Link className="inline-flex min-h-11 items-center px-1 font-semibold text-board underline" to={`/jobs/${j.id}/review`}>
+                        Review #{j.number}
+                      </Link>
+                    </td>
+                    <td>{j.boardName}</td>
+                    <td>{j.customerName}</td>
+                    <td className="font-semibold">{j.proposedPart ?? '—'}</td>
+                    <td>{j.assigneeName ?? '—'}</td>
+                    <td>{age(j.updatedAt)}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          )
+        }
+      </QueryState>
+    </section>
+  );
+}
+
+export default ReviewQueuePage;
