@@ -138,6 +138,14 @@ describe('islands, singular circuits and non-convergence', () => {
     expect(r.message).toMatch(/no convergence/);
   });
 
+  it('the cached ordering of a topology is value-independent: zero gains, then non-zero gains, solve correctly (hand calculation)', () => {
+    const deck = (g: number) => `t\nV1 a 0 2\nR1 a 0 1k\nE1 e 0 a 0 ${g}\nRE e 0 10k\nG1 0 g a 0 ${g / 1000}\nRG g 0 1k\n`;
+    expect(solveOp(flatten(parseNetlist(deck(0)))).nodes.e).toBe(0);
+    const r = solveOp(flatten(parseNetlist(deck(3))));
+    expect(r.nodes.e).toBeCloseTo(6, 12);
+    expect(r.nodes.g).toBeCloseTo(6, 12);
+  });
+
   it('copies of a circuit can be edited (a fault) without touching the original', () => {
     const c = flatten(parseNetlist('t\nV1 a 0 10\nR1 a b 1k\nR2 b 0 1k\n'));
     const f: Circuit = cloneCircuit(c);

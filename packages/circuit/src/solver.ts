@@ -1,6 +1,6 @@
 import type { Circuit, Element } from './circuit';
 import { REFERENCE } from './circuit';
-import { luFactor, luSolve, luWorkspace, minimumDegreeOrder, type LuWorkspace } from './lu';
+import { luFactor, luSolve, luSparseFactor, luSparseSolve, luWorkspace, minimumDegreeOrder, sparsePattern, type LuWorkspace, type SparsePattern } from './lu';
 import { nodesWithoutDcPath } from './topology';
 
 /** Thermal voltage kT/q at 27 °C (300.15 K) with the constants ngspice uses (CONSTboltz, CHARGE). */
@@ -57,6 +57,9 @@ interface DiodeDev {
   /** Breakdown voltage adjusted to give IBV at BV (ngspice diotemp), Infinity when BV not given. */
   xbv: number;
   vold: number;
+  /** Companion model of the last evaluation. */
+  gd: number;
+  ieq: number;
 }
 
 interface BjtDev {
@@ -73,9 +76,13 @@ interface BjtDev {
   vcrit: number;
   vbe: number;
   vbc: number;
-  // last evaluated currents (model polarity) for reporting
-  ic: number;
-  ib: number;
+  /** Companion model of the last evaluation (conductances in model polarity, equivalent sources signed). */
+  g11: number;
+  g12: number;
+  g21: number;
+  g22: number;
+  ceq: number;
+  beq: number;
 }
 
 /** Compiled MNA system of one circuit. */
@@ -93,8 +100,11 @@ interface System {
   nodeIndex: Map<string, number>;
   branchOf: Map<string, number>;
   elements: readonly Element[];
-  /** Fill-reducing elimination order: order[k] = unknown eliminated k-th. */
+  /** Fill-reducing elimination order: order[k] = unknown (compile numbering) eliminated k-th. */
   order: Int32Array;
+  /** isNode[i]: unknown i (solver numbering) is a node voltage, not a branch current. */
+  isNode: Uint8Array;
+  pattern: SparsePattern;
 }
 
 function breakdownVoltage(bv: number, ibv: number, is: number, vt: number): number {
@@ -110,6 +120,53 @@ function breakdownVoltage(bv: number, ibv: number, is: number, vt: number): numb
     if (Math.abs(xcbv - cbv) <= tol) break;
   }
   return xbv;
+}
+
+function markClique(st: Uint8Array, s: number, n: number, t: number[]): void {
+  for (const x of t) for (const y of t) if (x < n && y < n) st[x * s + y] = 1;
+}
+
+interface Symbolic {
+  order: Int32Array;
+  pattern: SparsePattern;
+}
+
+/**
+ * Ordering and fill-in pattern depend only on the structure, so they are cached: the diagnosis engine solves the
+ * same topology many times with different values.
+ */
+const symbolicCache = new Map<string, Symbolic>();
+
+function symbolic(st: Uint8Array, s: number, n: number, after: (number[] | undefined)[]): Symbolic {
+  let key = `${n}:`;
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) if (st[i * s + j]) key += `${i},${j};`;
+    key += after[i] ? `|${after[i]!.join(',')}|` : '/';
+  }
+  const hit = symbolicCache.get(key);
+  if (hit) {
+    symbolicCache.delete(key);
+    symbolicCache.set(key, hit);
+    return hit;
+  }
+  const adj: Set<number>[] = Array.from({ length: n }, () => new Set<number>());
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      if (i !== j && (st[i * s + j] || st[j * s + i])) {
+        (adj[i] as Set<number>).add(j);
+        (adj[j] as Set<number>).add(i);
+      }
+    }
+  }
+  const order = minimumDegreeOrder(n, adj, after);
+  const inv = new Int32Array(n);
+  for (let k = 0; k < n; k++) inv[order[k] as number] = k;
+  const nz = new Uint8Array(n * n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (st[i * s + j]) nz[(inv[i] as number) * n + (inv[j] as number)] = 1;
+  const sym = { order, pattern: sparsePattern(n, n + 1, nz) };
+  symbolicCache.set(key, sym);
+  if (symbolicCache.size > 200) symbolicCache.delete(symbolicCache.keys().next().value as string);
+  return sym;
 }
 
 function compile(circuit: Circuit, extraNodes: readonly string[]): System {
@@ -151,23 +208,39 @@ function compile(circuit: Circuit, extraNodes: readonly string[]): System {
   const s = n + 1;
   const a0 = new Float64Array(s * s);
   const bsrc = new Float64Array(s);
+  /** Structural non-zeros (from the topology, independent of values). */
+  const st = new Uint8Array(s * s);
   const G = (i: number) => (i < 0 ? n : i);
   const idx = (name: string) => G(nodeIndex.get(name) ?? -1);
   const cond = (p: number, q: number, g: number) => {
     a0[p * s + p] = (a0[p * s + p] as number) + (g);
+    st[p * s + p] = 1;
     a0[q * s + q] = (a0[q * s + q] as number) + (g);
+    st[q * s + q] = 1;
     a0[p * s + q] = (a0[p * s + q] as number) - (g);
+    st[p * s + q] = 1;
     a0[q * s + p] = (a0[q * s + p] as number) - (g);
+    st[q * s + p] = 1;
   };
   const branchStamp = (k: number, p: number, q: number) => {
     a0[p * s + k] = (a0[p * s + k] as number) + (1);
+    st[p * s + k] = 1;
     a0[q * s + k] = (a0[q * s + k] as number) - (1);
+    st[q * s + k] = 1;
     a0[k * s + p] = (a0[k * s + p] as number) + (1);
+    st[k * s + p] = 1;
     a0[k * s + q] = (a0[k * s + q] as number) - (1);
+    st[k * s + q] = 1;
   };
   const diodes: DiodeDev[] = [];
   const bjts: BjtDev[] = [];
+  const after: (number[] | undefined)[] = new Array<number[] | undefined>(n);
+  const terminals = (e: Element) => {
+    const k = branchOf.get(e.name.toLowerCase()) as number;
+    after[k] = [idx(e.nodes[0]), idx(e.nodes[1])].filter((i) => i !== n);
+  };
   for (const e of elements) {
+    if (e.kind === 'V' || e.kind === 'L' || e.kind === 'E' || e.kind === 'H') terminals(e);
     switch (e.kind) {
       case 'R':
         cond(idx(e.nodes[0]), idx(e.nodes[1]), 1 / e.value);
@@ -189,8 +262,12 @@ function compile(circuit: Circuit, extraNodes: readonly string[]): System {
       case 'E': {
         const k = branchOf.get(e.name.toLowerCase()) as number;
         branchStamp(k, idx(e.nodes[0]), idx(e.nodes[1]));
-        a0[k * s + idx(e.nodes[2])] = (a0[k * s + idx(e.nodes[2])] as number) - (e.gain);
-        a0[k * s + idx(e.nodes[3])] = (a0[k * s + idx(e.nodes[3])] as number) + (e.gain);
+        const cp = k * s + idx(e.nodes[2]);
+        const cq = k * s + idx(e.nodes[3]);
+        a0[cp] = (a0[cp] as number) - e.gain;
+        a0[cq] = (a0[cq] as number) + e.gain;
+        st[cp] = 1;
+        st[cq] = 1;
         break;
       }
       case 'G': {
@@ -199,9 +276,13 @@ function compile(circuit: Circuit, extraNodes: readonly string[]): System {
         const cp = idx(e.nodes[2]);
         const cq = idx(e.nodes[3]);
         a0[p * s + cp] = (a0[p * s + cp] as number) + (e.gain);
+        st[p * s + cp] = 1;
         a0[p * s + cq] = (a0[p * s + cq] as number) - (e.gain);
+        st[p * s + cq] = 1;
         a0[q * s + cp] = (a0[q * s + cp] as number) - (e.gain);
+        st[q * s + cp] = 1;
         a0[q * s + cq] = (a0[q * s + cq] as number) + (e.gain);
+        st[q * s + cq] = 1;
         break;
       }
       case 'F':
@@ -212,11 +293,14 @@ function compile(circuit: Circuit, extraNodes: readonly string[]): System {
         const q = idx(e.nodes[1]);
         if (e.kind === 'F') {
           a0[p * s + kc] = (a0[p * s + kc] as number) + (e.gain);
+          st[p * s + kc] = 1;
           a0[q * s + kc] = (a0[q * s + kc] as number) - (e.gain);
+          st[q * s + kc] = 1;
         } else {
           const k = branchOf.get(e.name.toLowerCase()) as number;
           branchStamp(k, p, q);
           a0[k * s + kc] = (a0[k * s + kc] as number) - (e.gain);
+          st[k * s + kc] = 1;
         }
         break;
       }
@@ -239,6 +323,8 @@ function compile(circuit: Circuit, extraNodes: readonly string[]): System {
           vcrit: vte * Math.log(vte / (Math.SQRT2 * is)),
           xbv: breakdownVoltage(m.bv, m.ibv, is, vte),
           vold: 0,
+          gd: 0,
+          ieq: 0,
         });
         break;
       }
@@ -269,8 +355,12 @@ function compile(circuit: Circuit, extraNodes: readonly string[]): System {
           vcrit: VT * Math.log(VT / (Math.SQRT2 * is)),
           vbe: 0,
           vbc: 0,
-          ic: 0,
-          ib: 0,
+          g11: 0,
+          g12: 0,
+          g21: 0,
+          g22: 0,
+          ceq: 0,
+          beq: 0,
         });
         break;
       }
@@ -282,19 +372,55 @@ function compile(circuit: Circuit, extraNodes: readonly string[]): System {
     if (i !== undefined) a0[i * s + i] = (a0[i * s + i] as number) + GISLAND;
   }
   // internal nodes are always tied by their series resistors, so no island check is needed for them
-  const adj: Set<number>[] = Array.from({ length: n }, () => new Set<number>());
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j < n; j++) {
-      if (i !== j && (a0[i * s + j] !== 0 || a0[j * s + i] !== 0)) (adj[i] as Set<number>).add(j);
+  for (const d of diodes) markClique(st, s, n, [d.a, d.k]);
+  for (const q of bjts) markClique(st, s, n, [q.c, q.b, q.e]);
+  const sym = symbolic(st, s, n, after);
+  const order = sym.order;
+  // renumber every unknown into elimination order (the reference sink n stays n)
+  const inv = new Int32Array(n + 1);
+  for (let k = 0; k < n; k++) inv[order[k] as number] = k;
+  inv[n] = n;
+  const pa0 = new Float64Array(s * s);
+  const pbsrc = new Float64Array(s);
+  for (let i = 0; i < s; i++) {
+    const ni = (inv[i] as number) * s;
+    for (let j = 0; j < s; j++) {
+      const v = a0[i * s + j] as number;
+      if (v !== 0) pa0[ni + (inv[j] as number)] = v;
     }
+    pbsrc[inv[i] as number] = bsrc[i] as number;
   }
-  const link = (t: number[]) => {
-    for (const x of t) for (const y of t) if (x !== y && x < n && y < n) (adj[x] as Set<number>).add(y);
+  for (const d of diodes) {
+    d.a = inv[d.a] as number;
+    d.k = inv[d.k] as number;
+  }
+  for (const q of bjts) {
+    q.c = inv[q.c] as number;
+    q.b = inv[q.b] as number;
+    q.e = inv[q.e] as number;
+  }
+  for (const [k, v] of nodeIndex) nodeIndex.set(k, inv[v] as number);
+  for (const [k, v] of branchOf) branchOf.set(k, inv[v] as number);
+  const isNode = new Uint8Array(n);
+  for (let i = 0; i < nodeCount; i++) isNode[inv[i] as number] = 1;
+  const pattern = sym.pattern;
+  return {
+    n,
+    s,
+    nodeNames,
+    nodeCount,
+    branchNames,
+    a0: pa0,
+    bsrc: pbsrc,
+    diodes,
+    bjts,
+    nodeIndex,
+    branchOf,
+    elements,
+    order,
+    isNode,
+    pattern,
   };
-  for (const d of diodes) link([d.a, d.k]);
-  for (const q of bjts) link([q.c, q.b, q.e]);
-  const order = minimumDegreeOrder(n, adj);
-  return { n, s, nodeNames, nodeCount, branchNames, a0, bsrc, diodes, bjts, nodeIndex, branchOf, elements, order };
 }
 
 /** SPICE junction voltage limiting (ngspice DEVpnjlim). Returns the limited voltage; sets lim.hit. */
@@ -343,10 +469,8 @@ interface Work {
   ws: LuWorkspace;
   jv: Float64Array;
   lim: { hit: boolean };
-  /** Symmetrically permuted copy of the matrix, right-hand side and solution (elimination order). */
-  pa: Float64Array;
-  pb: Float64Array;
-  px: Float64Array;
+  /** Factorisations that needed the dense pivoting path. */
+  denseFallbacks: number;
 }
 
 interface AttemptConfig {
@@ -363,10 +487,99 @@ interface AttemptConfig {
   capture?: (a: Float64Array, b: Float64Array) => void;
 }
 
-/** Runs Newton–Raphson from w.x; returns iterations used (negative when not converged). */
+/** Evaluates the devices at the (limited) junction voltages of the iterate x; stores companion models on them. */
+function evaluateDevices(sys: System, w: Work, first: boolean): void {
+  const { diodes, bjts } = sys;
+  const { x, jv, lim } = w;
+  for (let di = 0; di < diodes.length; di++) {
+    const d = diodes[di] as DiodeDev;
+    let vd = (x[d.a] as number) - (x[d.k] as number);
+    if (first) vd = d.vold;
+    else if (d.xbv < Infinity && vd < Math.min(0, -d.xbv + 10 * d.vte)) {
+      vd = -(pnjlim(-(vd + d.xbv), -(d.vold + d.xbv), d.vte, d.vcrit, lim) + d.xbv);
+    } else vd = pnjlim(vd, d.vold, d.vte, d.vcrit, lim);
+    d.vold = vd;
+    junction(vd, d.is, d.vte, d.xbv, jv);
+    const gd = (jv[1] as number) + GMIN;
+    d.gd = gd;
+    d.ieq = (jv[0] as number) + GMIN * vd - gd * vd;
+  }
+  for (let qi = 0; qi < bjts.length; qi++) {
+    const q = bjts[qi] as BjtDev;
+    const p = q.pol;
+    let vbe = p * ((x[q.b] as number) - (x[q.e] as number));
+    let vbc = p * ((x[q.b] as number) - (x[q.c] as number));
+    if (first) {
+      vbe = q.vbe;
+      vbc = q.vbc;
+    } else {
+      vbe = pnjlim(vbe, q.vbe, VT, q.vcrit, lim);
+      vbc = pnjlim(vbc, q.vbc, VT, q.vcrit, lim);
+    }
+    q.vbe = vbe;
+    q.vbc = vbc;
+    junction(vbe, q.is, q.vtf, Infinity, jv);
+    const cbe = jv[0] as number;
+    const gbe = jv[1] as number;
+    junction(vbc, q.is, q.vtr, Infinity, jv);
+    const cbc = jv[0] as number;
+    const gbc = jv[1] as number;
+    const ic = cbe - cbc - cbc / q.br - GMIN * vbc;
+    const ib = cbe / q.bf + GMIN * vbe + cbc / q.br + GMIN * vbc;
+    q.g11 = gbe;
+    q.g12 = -(gbc + gbc / q.br + GMIN);
+    q.g21 = gbe / q.bf + GMIN;
+    q.g22 = gbc / q.br + GMIN;
+    q.ceq = p * (ic - q.g11 * vbe - q.g12 * vbc);
+    q.beq = p * (ib - q.g21 * vbe - q.g22 * vbc);
+  }
+}
+
+/** Assembles the linearised MNA system into w.a / w.b from the linear part and the device companion models. */
+function assemble(sys: System, w: Work, cfg: AttemptConfig): void {
+  const { n, s, a0, bsrc, diodes, bjts, isNode } = sys;
+  const { a, b } = w;
+  a.set(a0);
+  for (let i = 0; i < s; i++) b[i] = cfg.srcScale * (bsrc[i] as number);
+  if (cfg.gshunt > 0) for (let i = 0; i < n; i++) if (isNode[i]) a[i * s + i] = (a[i * s + i] as number) + cfg.gshunt;
+  for (let di = 0; di < diodes.length; di++) {
+    const d = diodes[di] as DiodeDev;
+    const gd = d.gd;
+    const ieq = d.ieq;
+    const ra = d.a * s;
+    const rk = d.k * s;
+    a[ra + d.a] = (a[ra + d.a] as number) + gd;
+    a[rk + d.k] = (a[rk + d.k] as number) + gd;
+    a[ra + d.k] = (a[ra + d.k] as number) - gd;
+    a[rk + d.a] = (a[rk + d.a] as number) - gd;
+    b[d.a] = (b[d.a] as number) - ieq;
+    b[d.k] = (b[d.k] as number) + ieq;
+  }
+  for (let qi = 0; qi < bjts.length; qi++) {
+    const q = bjts[qi] as BjtDev;
+    const { g11, g12, g21, g22, ceq, beq } = q;
+    const rc = q.c * s;
+    const rb = q.b * s;
+    const re = q.e * s;
+    a[rc + q.b] = (a[rc + q.b] as number) + (g11 + g12);
+    a[rc + q.e] = (a[rc + q.e] as number) - g11;
+    a[rc + q.c] = (a[rc + q.c] as number) - g12;
+    b[q.c] = (b[q.c] as number) - ceq;
+    a[rb + q.b] = (a[rb + q.b] as number) + (g21 + g22);
+    a[rb + q.e] = (a[rb + q.e] as number) - g21;
+    a[rb + q.c] = (a[rb + q.c] as number) - g22;
+    b[q.b] = (b[q.b] as number) - beq;
+    a[re + q.b] = (a[re + q.b] as number) - (g11 + g12 + g21 + g22);
+    a[re + q.e] = (a[re + q.e] as number) + (g11 + g21);
+    a[re + q.c] = (a[re + q.c] as number) + (g12 + g22);
+    b[q.e] = (b[q.e] as number) + (ceq + beq);
+  }
+}
+
+/** Runs Newton–Raphson from w.x. */
 function newton(sys: System, w: Work, cfg: AttemptConfig): { ok: boolean; iterations: number; singular?: number } {
-  const { n, s, a0, bsrc, diodes, bjts, nodeCount } = sys;
-  const { a, b, x, xn, ws, jv, lim } = w;
+  const { n, diodes, bjts, isNode, pattern } = sys;
+  const { a, b, x, xn, ws, lim } = w;
   const nonlinear = diodes.length + bjts.length > 0;
   x[n] = 0;
   // junction states from the start point
@@ -376,90 +589,20 @@ function newton(sys: System, w: Work, cfg: AttemptConfig): { ok: boolean; iterat
     q.vbc = cfg.initJunctions ? 0 : q.pol * ((x[q.b] as number) - (x[q.c] as number));
   }
   for (let iter = 1; iter <= cfg.maxIter; iter++) {
-    a.set(a0);
-    for (let i = 0; i < s; i++) b[i] = cfg.srcScale * (bsrc[i] as number);
-    if (cfg.gshunt > 0) for (let i = 0; i < nodeCount; i++) a[i * s + i] = (a[i * s + i] as number) + cfg.gshunt;
     lim.hit = false;
     const first = iter === 1;
-    for (let di = 0; di < diodes.length; di++) {
-      const d = diodes[di] as DiodeDev;
-      let vd = (x[d.a] as number) - (x[d.k] as number);
-      if (first) vd = d.vold;
-      else if (Number.isFinite(d.xbv) && vd < Math.min(0, -d.xbv + 10 * d.vte)) {
-        vd = -(pnjlim(-(vd + d.xbv), -(d.vold + d.xbv), d.vte, d.vcrit, lim) + d.xbv);
-      } else vd = pnjlim(vd, d.vold, d.vte, d.vcrit, lim);
-      d.vold = vd;
-      junction(vd, d.is, d.vte, d.xbv, jv);
-      const id = (jv[0] as number) + GMIN * vd;
-      const gd = (jv[1] as number) + GMIN;
-      const ieq = id - gd * vd;
-      const pa = d.a * s;
-      const pk = d.k * s;
-      a[pa + d.a] = (a[pa + d.a] as number) + (gd);
-      a[pk + d.k] = (a[pk + d.k] as number) + (gd);
-      a[pa + d.k] = (a[pa + d.k] as number) - (gd);
-      a[pk + d.a] = (a[pk + d.a] as number) - (gd);
-      b[d.a] = (b[d.a] as number) - (ieq);
-      b[d.k] = (b[d.k] as number) + (ieq);
+    evaluateDevices(sys, w, first);
+    assemble(sys, w, cfg);
+    if (cfg.capture) cfg.capture(a, b);
+    // sparse LU along the fill-reducing order; if a diagonal pivot is too weak, re-assemble and pivot densely
+    if (luSparseFactor(a, pattern)) luSparseSolve(a, pattern, b, xn);
+    else {
+      w.denseFallbacks++;
+      assemble(sys, w, cfg);
+      const sing = luFactor(a, ws);
+      if (sing >= 0) return { ok: false, iterations: iter, singular: sing };
+      luSolve(a, ws, b, xn);
     }
-    for (let qi = 0; qi < bjts.length; qi++) {
-      const q = bjts[qi] as BjtDev;
-      const p = q.pol;
-      let vbe = p * ((x[q.b] as number) - (x[q.e] as number));
-      let vbc = p * ((x[q.b] as number) - (x[q.c] as number));
-      if (first) {
-        vbe = q.vbe;
-        vbc = q.vbc;
-      } else {
-        vbe = pnjlim(vbe, q.vbe, VT, q.vcrit, lim);
-        vbc = pnjlim(vbc, q.vbc, VT, q.vcrit, lim);
-      }
-      q.vbe = vbe;
-      q.vbc = vbc;
-      junction(vbe, q.is, q.vtf, Infinity, jv);
-      const cbe = jv[0] as number;
-      const gbe = jv[1] as number;
-      junction(vbc, q.is, q.vtr, Infinity, jv);
-      const cbc = jv[0] as number;
-      const gbc = jv[1] as number;
-      const ic = cbe - cbc - cbc / q.br - GMIN * vbc;
-      const ib = cbe / q.bf + GMIN * vbe + cbc / q.br + GMIN * vbc;
-      q.ic = ic;
-      q.ib = ib;
-      const g11 = gbe;
-      const g12 = -(gbc + gbc / q.br + GMIN);
-      const g21 = gbe / q.bf + GMIN;
-      const g22 = gbc / q.br + GMIN;
-      const rc = q.c * s;
-      const rb = q.b * s;
-      const re = q.e * s;
-      a[rc + q.b] = (a[rc + q.b] as number) + (g11 + g12);
-      a[rc + q.e] = (a[rc + q.e] as number) - (g11);
-      a[rc + q.c] = (a[rc + q.c] as number) - (g12);
-      b[q.c] = (b[q.c] as number) - (p * (ic - g11 * vbe - g12 * vbc));
-      a[rb + q.b] = (a[rb + q.b] as number) + (g21 + g22);
-      a[rb + q.e] = (a[rb + q.e] as number) - (g21);
-      a[rb + q.c] = (a[rb + q.c] as number) - (g22);
-      b[q.b] = (b[q.b] as number) - (p * (ib - g21 * vbe - g22 * vbc));
-      a[re + q.b] = (a[re + q.b] as number) - (g11 + g12 + g21 + g22);
-      a[re + q.e] = (a[re + q.e] as number) + (g11 + g21);
-      a[re + q.c] = (a[re + q.c] as number) + (g12 + g22);
-      b[q.e] = (b[q.e] as number) + (p * (ic + ib - (g11 + g21) * vbe - (g12 + g22) * vbc));
-    }
-    const { pa, pb, px } = w;
-    const order = sys.order;
-    for (let i = 0; i < n; i++) {
-      const oi = order[i] as number;
-      const src = oi * s;
-      const dst = i * n;
-      for (let j = 0; j < n; j++) pa[dst + j] = a[src + (order[j] as number)] as number;
-      pb[i] = b[oi] as number;
-    }
-    if (cfg.capture) cfg.capture(pa, pb);
-    const sing = luFactor(pa, ws);
-    if (sing >= 0) return { ok: false, iterations: iter, singular: order[sing] as number };
-    luSolve(pa, ws, pb, px);
-    for (let i = 0; i < n; i++) xn[order[i] as number] = px[i] as number;
     if (!nonlinear) {
       x.set(xn.subarray(0, n));
       return { ok: true, iterations: iter };
@@ -467,7 +610,7 @@ function newton(sys: System, w: Work, cfg: AttemptConfig): { ok: boolean; iterat
     // damping (fall-back attempts only): limit the largest node-voltage step
     if (cfg.maxStep < Infinity) {
       let maxd = 0;
-      for (let i = 0; i < nodeCount; i++) maxd = Math.max(maxd, Math.abs((xn[i] as number) - (x[i] as number)));
+      for (let i = 0; i < n; i++) if (isNode[i]) maxd = Math.max(maxd, Math.abs((xn[i] as number) - (x[i] as number)));
       if (maxd > cfg.maxStep) {
         const f = cfg.maxStep / maxd;
         for (let i = 0; i < n; i++) xn[i] = (x[i] as number) + f * ((xn[i] as number) - (x[i] as number));
@@ -480,7 +623,7 @@ function newton(sys: System, w: Work, cfg: AttemptConfig): { ok: boolean; iterat
       const xv = xn[i] as number;
       if (!Number.isFinite(xv)) return { ok: false, iterations: iter };
       if (conv) {
-        const tol = cfg.reltol * Math.max(Math.abs(xo), Math.abs(xv)) + (i < nodeCount ? cfg.vntol : cfg.abstol);
+        const tol = cfg.reltol * Math.max(Math.abs(xo), Math.abs(xv)) + (isNode[i] ? cfg.vntol : cfg.abstol);
         if (Math.abs(xv - xo) > tol) conv = false;
       }
       x[i] = xv;
@@ -490,7 +633,8 @@ function newton(sys: System, w: Work, cfg: AttemptConfig): { ok: boolean; iterat
   return { ok: false, iterations: cfg.maxIter };
 }
 
-function describeSingular(sys: System, col: number): string {
+function describeSingular(sys: System, newCol: number): string {
+  const col = sys.order[newCol] as number;
   if (col < sys.nodeCount) return `singular matrix at node ${sys.nodeNames[col]} (floating node or no DC path?)`;
   return `singular matrix at the branch of ${sys.branchNames[col - sys.nodeCount]} (a loop of voltage sources or inductors?)`;
 }
@@ -509,12 +653,10 @@ export function solveOp(circuit: Circuit, options: SolveOptions = {}): OpResult 
     b: new Float64Array(s),
     x: new Float64Array(s),
     xn: new Float64Array(s),
-    ws: luWorkspace(n),
+    ws: luWorkspace(n, s),
     jv: new Float64Array(2),
     lim: { hit: false },
-    pa: new Float64Array(n * n),
-    pb: new Float64Array(n),
-    px: new Float64Array(n),
+    denseFallbacks: 0,
   };
   let warm = false;
   const ig = options.initialGuess;
@@ -614,9 +756,9 @@ export function solveOp(circuit: Circuit, options: SolveOptions = {}): OpResult 
 function report(sys: System, x: Float64Array, iterations: number, method: SolveMethod): OpResult {
   const { n, nodeNames, nodeIndex, branchNames, nodeCount } = sys;
   const nodes: Record<string, number> = {};
-  for (let i = 0; i < nodeCount; i++) nodes[nodeNames[i] as string] = x[i] as number;
+  for (let i = 0; i < nodeCount; i++) nodes[nodeNames[i] as string] = x[nodeIndex.get(nodeNames[i] as string) as number] as number;
   const sources: Record<string, number> = {};
-  for (let i = 0; i < branchNames.length; i++) sources[branchNames[i] as string] = x[nodeCount + i] as number;
+  for (let i = 0; i < branchNames.length; i++) sources[branchNames[i] as string] = x[sys.branchOf.get(branchNames[i] as string) as number] as number;
   const v = (name: string) => {
     const i = nodeIndex.get(name);
     return i === undefined ? 0 : (x[i] as number);
@@ -691,12 +833,10 @@ export function newtonSystem(circuit: Circuit): { n: number; a: Float64Array; b:
     b: new Float64Array(s),
     x: new Float64Array(s),
     xn: new Float64Array(s),
-    ws: luWorkspace(n),
+    ws: luWorkspace(n, s),
     jv: new Float64Array(2),
     lim: { hit: false },
-    pa: new Float64Array(n * n),
-    pb: new Float64Array(n),
-    px: new Float64Array(n),
+    denseFallbacks: 0,
   };
   w.x.set(first.x);
   let out: { n: number; a: Float64Array; b: Float64Array } | undefined;
@@ -710,7 +850,9 @@ export function newtonSystem(circuit: Circuit): { n: number; a: Float64Array; b:
     abstol: 1e-14,
     initJunctions: false,
     capture: (a, b) => {
-      out = { n, a: new Float64Array(a), b: new Float64Array(b) };
+      const m = new Float64Array(n * n);
+      for (let i = 0; i < n; i++) m.set(a.subarray(i * s, i * s + n), i * n);
+      out = { n, a: m, b: new Float64Array(b.subarray(0, n)) };
     },
   });
   return out;
