@@ -823,7 +823,9 @@ function report(sys: System, x: Float64Array, iterations: number, method: SolveM
  * The Newton-loop linear system at the operating point of a circuit: the n×n MNA Jacobian (row-major, no reference
  * row, in the solver's fill-reducing order) and right-hand side exactly as the solver factors them. Used by the benchmark to compare linear solvers.
  */
-export function newtonSystem(circuit: Circuit): { n: number; a: Float64Array; b: Float64Array } | undefined {
+export function newtonSystem(
+  circuit: Circuit,
+): { n: number; a: Float64Array; b: Float64Array; strided: Float64Array; pattern: SparsePattern } | undefined {
   const first = solveOp(circuit);
   if (!first.converged || !first.x) return undefined;
   const sys = compile(circuit, []);
@@ -839,7 +841,7 @@ export function newtonSystem(circuit: Circuit): { n: number; a: Float64Array; b:
     denseFallbacks: 0,
   };
   w.x.set(first.x);
-  let out: { n: number; a: Float64Array; b: Float64Array } | undefined;
+  let out: { n: number; a: Float64Array; b: Float64Array; strided: Float64Array; pattern: SparsePattern } | undefined;
   newton(sys, w, {
     maxIter: 1,
     srcScale: 1,
@@ -852,7 +854,7 @@ export function newtonSystem(circuit: Circuit): { n: number; a: Float64Array; b:
     capture: (a, b) => {
       const m = new Float64Array(n * n);
       for (let i = 0; i < n; i++) m.set(a.subarray(i * s, i * s + n), i * n);
-      out = { n, a: m, b: new Float64Array(b.subarray(0, n)) };
+      out = { n, a: m, b: new Float64Array(b.subarray(0, n)), strided: new Float64Array(a), pattern: sys.pattern };
     },
   });
   return out;
