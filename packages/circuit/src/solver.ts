@@ -137,12 +137,8 @@ interface Symbolic {
  */
 const symbolicCache = new Map<string, Symbolic>();
 
-function symbolic(st: Uint8Array, s: number, n: number, after: (number[] | undefined)[]): Symbolic {
-  let key = `${n}:`;
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j < n; j++) if (st[i * s + j]) key += `${i},${j};`;
-    key += after[i] ? `|${after[i]!.join(',')}|` : '/';
-  }
+/** `key` identifies the structure: element kinds and the unknowns each touches, in order. */
+function symbolic(key: string, st: Uint8Array, s: number, n: number, after: (number[] | undefined)[]): Symbolic {
   const hit = symbolicCache.get(key);
   if (hit) {
     symbolicCache.delete(key);
@@ -374,7 +370,16 @@ function compile(circuit: Circuit, extraNodes: readonly string[]): System {
   // internal nodes are always tied by their series resistors, so no island check is needed for them
   for (const d of diodes) markClique(st, s, n, [d.a, d.k]);
   for (const q of bjts) markClique(st, s, n, [q.c, q.b, q.e]);
-  const sym = symbolic(st, s, n, after);
+  const keyParts: string[] = [String(n)];
+  for (const e of elements) {
+    let k = e.kind;
+    for (const nd of e.nodes) k += `,${nodeIndex.get(nd) ?? -1}`;
+    if (e.kind === 'F' || e.kind === 'H') k += `>${branchOf.get(e.control.toLowerCase()) ?? -1}`;
+    const ins = internal.get(e);
+    if (ins) k += `#${ins.join(',')}`;
+    keyParts.push(k);
+  }
+  const sym = symbolic(keyParts.join(';'), st, s, n, after);
   const order = sym.order;
   // renumber every unknown into elimination order (the reference sink n stays n)
   const inv = new Int32Array(n + 1);
