@@ -122,6 +122,22 @@ function breakdownVoltage(bv: number, ibv: number, is: number, vt: number): numb
   return xbv;
 }
 
+/**
+ * Reusable matrix buffers by size: solving is synchronous and a System never outlives its solveOp call, so the
+ * n² arrays are recycled instead of allocated (and collected) on every solve.
+ */
+const bufferPool = new Map<number, { a0: Float64Array; st: Uint8Array; pa0: Float64Array; a: Float64Array }>();
+
+function buffers(s: number): { a0: Float64Array; st: Uint8Array; pa0: Float64Array; a: Float64Array } {
+  let b = bufferPool.get(s);
+  if (!b) {
+    if (bufferPool.size > 16) bufferPool.clear();
+    b = { a0: new Float64Array(s * s), st: new Uint8Array(s * s), pa0: new Float64Array(s * s), a: new Float64Array(s * s) };
+    bufferPool.set(s, b);
+  }
+  return b;
+}
+
 function markClique(st: Uint8Array, s: number, n: number, t: number[]): void {
   for (const x of t) for (const y of t) if (x < n && y < n) st[x * s + y] = 1;
 }
@@ -202,10 +218,14 @@ function compile(circuit: Circuit, extraNodes: readonly string[]): System {
   }
   const n = nodeCount + branchNames.length;
   const s = n + 1;
-  const a0 = new Float64Array(s * s);
+  const buf = buffers(s);
+  buf.a0.fill(0);
+  buf.st.fill(0);
+  buf.pa0.fill(0);
+  const a0 = buf.a0;
   const bsrc = new Float64Array(s);
   /** Structural non-zeros (from the topology, independent of values). */
-  const st = new Uint8Array(s * s);
+  const st = buf.st;
   const G = (i: number) => (i < 0 ? n : i);
   const idx = (name: string) => G(nodeIndex.get(name) ?? -1);
   const cond = (p: number, q: number, g: number) => {
@@ -385,7 +405,7 @@ function compile(circuit: Circuit, extraNodes: readonly string[]): System {
   const inv = new Int32Array(n + 1);
   for (let k = 0; k < n; k++) inv[order[k] as number] = k;
   inv[n] = n;
-  const pa0 = new Float64Array(s * s);
+  const pa0 = buf.pa0;
   const pbsrc = new Float64Array(s);
   for (let i = 0; i < s; i++) {
     const ni = (inv[i] as number) * s;
@@ -654,7 +674,7 @@ export function solveOp(circuit: Circuit, options: SolveOptions = {}): OpResult 
   }
   const { n, s } = sys;
   const w: Work = {
-    a: new Float64Array(s * s),
+    a: buffers(s).a,
     b: new Float64Array(s),
     x: new Float64Array(s),
     xn: new Float64Array(s),
@@ -836,7 +856,7 @@ export function newtonSystem(
   const sys = compile(circuit, []);
   const { n, s } = sys;
   const w: Work = {
-    a: new Float64Array(s * s),
+    a: buffers(s).a,
     b: new Float64Array(s),
     x: new Float64Array(s),
     xn: new Float64Array(s),
