@@ -1,0 +1,68 @@
+// Read-only access to the jobs, customers and boards that billing needs; the job tables belong to the jobs
+// feature, and billing changes a job's status only through the flow's own transitions (see customer-portal).
+import { and, eq } from 'drizzle-orm';
+import type { Db } from '../../db/client';
+import { boardModels, customers, jobs, shops } from '../../db/schema';
+import { AppError } from '../../http/errors';
+import type { JobSummary } from '../mail/templates';
+
+export interface BillingJob {
+  id: string;
+  shopId: string;
+  number: number;
+  status: (typeof jobs.$inferSelect)['status'];
+  updatedAt: Date;
+  unitDescription: string;
+  serial: string | null;
+  faultCode: string | null;
+  symptom: string;
+  proposedPart: string | null;
+  receivedAt: Date;
+  boardName: string | null;
+  shopName: string;
+  customer: { id: string; name: string; company: string | null; email: string | null };
+}
+
+/** The job with its customer, board and shop; another shop's job answers 404. */
+export async function getBillingJob(db: Db, shopId: string, jobId: string): Promise<BillingJob> {
+  const [row] = await db
+    .select({ job: jobs, customer: customers, boardName: boardModels.name, shopName: shops.name })
+    .from(jobs)
+    .innerJoin(customers, eq(customers.id, jobs.customerId))
+    .innerJoin(shops, eq(shops.id, jobs.shopId))
+    .leftJoin(boardModels, eq(boardModels.id, jobs.boardId))
+    .where(and(eq(jobs.id, jobId), eq(jobs.shopId, shopId)));
+  if (!row) throw new AppError('not_found', `No job ${jobId}`);
+  const j = row.job;
+  return {
+    id: j.id,
+    shopId: j.shopId,
+    number: j.number,
+    status: j.status,
+    updatedAt: j.updatedAt,
+    unitDescription: j.unitDescription,
+    serial: j.serial,
+    faultCode: j.faultCode,
+    symptom: j.symptom,
+    proposedPart: j.proposedPart,
+    receivedAt: j.receivedAt,
+    boardName: row.boardName,
+    shopName: row.shopName,
+    customer: { id: row.customer.id, name: row.customer.name, company: row.customer.company, email: row.customer.email },
+  };
+}
+
+export const jobSummary = (j: BillingJob): JobSummary => ({
+  shopName: j.shopName,
+  customerName: j.customer.name,
+  jobNumber: j.number,
+  unitDescription: j.unitDescription,
+  boardName: j.boardName,
+});
+
+/** Where a mail to the customer goes: the address asked for, else the one on file. */
+export function recipientOf(j: BillingJob, to: string | undefined): string {
+  const address = to ?? j.customer.email;
+  if (!address) throw new AppError('invalid', `${j.customer.name} has no e-mail address on file; give one to send to`);
+  return address;
+}

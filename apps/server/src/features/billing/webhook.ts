@@ -1,0 +1,27 @@
+import express, { Router } from 'express';
+import type Stripe from 'stripe';
+import type { AppContext } from '../../context';
+import { AppError } from '../../http/errors';
+import { applyPaymentEvent } from '../invoices/service';
+import { paymentsFor } from './payments';
+
+/**
+ * The payment service's webhook. Mounted ahead of the JSON parser: the signature is over the raw bytes, so
+ * the body must reach `constructEvent` untouched. A bad or missing signature is a 400 and changes nothing.
+ */
+export function paymentWebhookRoutes(ctx: AppContext): Router {
+  const r = Router();
+  r.post('/', express.raw({ type: 'application/json', limit: '512kb' }), async (req, res) => {
+    const signature = req.get('stripe-signature');
+    if (!signature || !Buffer.isBuffer(req.body)) throw new AppError('bad_request', 'Missing webhook signature or body');
+    let event: Stripe.Event;
+    try {
+      event = paymentsFor(ctx.config).webhooks.constructEvent(req.body, signature, ctx.config.PAYMENTS_WEBHOOK_SECRET);
+    } catch {
+      throw new AppError('bad_request', 'The webhook signature does not verify');
+    }
+    const outcome = await applyPaymentEvent({ db: ctx.db, config: ctx.config, event });
+    res.json({ received: true, outcome });
+  });
+  return r;
+}

@@ -1,0 +1,115 @@
+// What the customer sees and does through a link: one job, nothing else of the shop. Every query below is
+// scoped by the link's shop and job; ids from the URL only ever narrow that scope.
+import { and, eq, inArray, isNull } from 'drizzle-orm';
+import { jobStatusLabels, jobTransitions, type PublicJob } from '@splitscope/contract';
+import type { Config } from '../../config';
+import type { Db } from '../../db/client';
+import { auditLog, jobs, quotes, users } from '../../db/schema';
+import { AppError } from '../../http/errors';
+import { newId } from '../../lib/ids';
+import { findJobInvoices, findJobQuotes } from '../billing/documents';
+import { getBillingJob, jobSummary } from '../billing/jobs';
+import { resolveCustomerLink } from '../billing/links';
+import { loadRepairReport, renderReportPdf, reportAvailable } from '../billing/report';
+import { getSettingsRow } from '../billing/settings';
+import { startCheckout } from '../invoices/service';
+import { quoteDecisionMail } from '../mail/templates';
+import { sendMail } from '../mail/transport';
+
+export async function getPublicJob({ db, token }: { db: Db; token: string }): Promise<PublicJob> {
+  const link = await resolveCustomerLink(db, token);
+  const job = await getBillingJob(db, link.shopId, link.jobId);
+  const quotesOfJob = (await findJobQuotes(db, job.id)).filter((q) => q.status !== 'draft');
+  return {
+    shopName: job.shopName,
+    reference: `Job ${job.number}`,
+    customerName: job.customer.name,
+    board: job.boardName ? `${job.boardName} (${job.unitDescription})` : job.unitDescription,
+    status: job.status,
+    statusLabel: jobStatusLabels[job.status],
+    reportAvailable: reportAvailable(job.status),
+    expiresAt: link.expiresAt.toISOString(),
+    quotes: quotesOfJob.map(({ sentTo: _sentTo, ...q }) => q),
+    invoices: await findJobInvoices(db, job.id),
+  };
+}
+
+/** The shop's people who hear about a customer's answer: the reply-to address, else its admins and leads. */
+async function shopRecipients(db: Db, shopId: string, replyTo: string | null): Promise<string[]> {
+  if (replyTo) return [replyTo];
+  const rows = await db
+    .select({ email: users.email })
+    .from(users)
+    .where(and(eq(users.shopId, shopId), inArray(users.role, ['admin', 'lead'])));
+  return rows.map((r) => r.email);
+}
+
+/**
+ * Records the customer's answer on a sent quote (once). Approval moves a job still at `received` on to
+ * `diagnosing`, the flow's own next step; later steps stay with the shop (the lead's review approves the
+ * repair). Either way the shop is told by e-mail.
+ */
+export async function decideQuote({
+  db,
+  config,
+  token,
+  quoteId,
+  decision,
+  reason,
+}: {
+  db: Db;
+  config: Config;
+  token: string;
+  quoteId: string;
+  decision: 'approved' | 'declined';
+  reason: string | null;
+}) {
+  const link = await resolveCustomerLink(db, token);
+  const [q] = await db.select().from(quotes).where(and(eq(quotes.id, quoteId), eq(quotes.jobId, link.jobId), eq(quotes.shopId, link.shopId)));
+  if (!q || q.status === 'draft') throw new AppError('not_found', 'No such quote on this job');
+  if (q.customerApproval) throw new AppError('conflict', `This quote was already ${q.customerApproval}`);
+  const now = new Date();
+  const changed = await db.transaction(async (tx) => {
+    const [row] = await tx
+      .update(quotes)
+      .set({ status: decision, customerApproval: decision, decidedAt: now, declineReason: decision === 'declined' ? reason : null, updatedAt: now })
+      .where(and(eq(quotes.id, q.id), eq(quotes.status, 'sent'), isNull(quotes.customerApproval)))
+      .returning({ id: quotes.id });
+    if (!row) return false;
+    await tx.insert(auditLog).values({ id: newId(), shopId: link.shopId, action: `quote.customer-${decision}`, subject: q.id, detail: reason });
+    if (decision === 'approved' && jobTransitions.received.includes('diagnosing')) {
+      const [moved] = await tx
+        .update(jobs)
+        .set({ status: 'diagnosing', updatedAt: now })
+        .where(and(eq(jobs.id, link.jobId), eq(jobs.status, 'received')))
+        .returning({ id: jobs.id });
+      if (moved) await tx.insert(auditLog).values({ id: newId(), shopId: link.shopId, action: 'job.status', subject: link.jobId, detail: 'received → diagnosing (quote approved by the customer)' });
+    }
+    return true;
+  });
+  if (!changed) throw new AppError('conflict', 'This quote was already answered');
+
+  const job = await getBillingJob(db, link.shopId, link.jobId);
+  const settings = await getSettingsRow(db, link.shopId);
+  const content = quoteDecisionMail(jobSummary(job), q, decision, reason);
+  for (const to of await shopRecipients(db, link.shopId, settings.replyTo)) {
+    try {
+      await sendMail({ config, db, mail: { shopId: link.shopId, jobId: job.id, kind: 'quote-decision', to, ...content } });
+    } catch {
+      // logged in mail_log; the customer's answer is recorded regardless
+    }
+  }
+  return getPublicJob({ db, token });
+}
+
+export async function getPublicReport({ db, token }: { db: Db; token: string }) {
+  const link = await resolveCustomerLink(db, token);
+  const job = await getBillingJob(db, link.shopId, link.jobId);
+  if (!reportAvailable(job.status)) throw new AppError('not_found', 'The repair report is not ready yet');
+  return { filename: `repair-report-job-${job.number}.pdf`, pdf: await renderReportPdf(await loadRepairReport(db, job)) };
+}
+
+export async function startPublicCheckout({ db, config, token, invoiceId }: { db: Db; config: Config; token: string; invoiceId: string }) {
+  const link = await resolveCustomerLink(db, token);
+  return startCheckout({ db, config, shopId: link.shopId, jobId: link.jobId, invoiceId, token });
+}

@@ -1,0 +1,220 @@
+import { and, asc, desc, eq } from 'drizzle-orm';
+import type Stripe from 'stripe';
+import type { createInvoiceRequest, Invoice } from '@splitscope/contract';
+import type { z } from 'zod';
+import type { Actor } from '../../auth/guards';
+import type { Config } from '../../config';
+import type { Db } from '../../db/client';
+import { auditLog, invoiceLines, invoices, paymentEvents, payments, quoteLines, quotes } from '../../db/schema';
+import { AppError } from '../../http/errors';
+import { newId } from '../../lib/ids';
+import { priceLines, toInvoice } from '../billing/documents';
+import { getBillingJob, jobSummary, recipientOf } from '../billing/jobs';
+import { createCustomerLink, publicBase } from '../billing/links';
+import { paymentsFor } from '../billing/payments';
+import { loadRepairReport, renderReportPdf, reportAvailable } from '../billing/report';
+import { getSettingsRow, takeNumber } from '../billing/settings';
+import { invoiceMail, paidMail } from '../mail/templates';
+import { sendMail } from '../mail/transport';
+
+async function loadInvoice(db: Db, shopId: string, id: string) {
+  const [inv] = await db.select().from(invoices).where(and(eq(invoices.id, id), eq(invoices.shopId, shopId)));
+  if (!inv) throw new AppError('not_found', `No invoice ${id}`);
+  const lines = await db.select().from(invoiceLines).where(eq(invoiceLines.invoiceId, id)).orderBy(asc(invoiceLines.position));
+  return { inv, lines };
+}
+
+export async function getInvoice({ db, shopId, id }: { db: Db; shopId: string; id: string }): Promise<Invoice> {
+  const { inv, lines } = await loadInvoice(db, shopId, id);
+  return toInvoice(inv, lines);
+}
+
+/** Issues the invoice of a verified job: the given lines, or the approved quote's. One open invoice per job. */
+export async function createInvoice({
+  db,
+  config,
+  actor,
+  jobId,
+  input,
+}: {
+  db: Db;
+  config: Config;
+  actor: Actor;
+  jobId: string;
+  input: z.output<typeof createInvoiceRequest>;
+}): Promise<Invoice> {
+  const job = await getBillingJob(db, actor.shopId, jobId);
+  if (!reportAvailable(job.status)) {
+    throw new AppError('conflict', `Job ${job.number} is ${job.status}; the invoice is issued after verification`, { allowed: ['verified', 'returned'] });
+  }
+  const [open] = await db
+    .select({ number: invoices.number })
+    .from(invoices)
+    .where(and(eq(invoices.jobId, jobId), eq(invoices.status, 'issued')));
+  if (open) throw new AppError('conflict', `Job ${job.number} already has the open invoice ${open.number}`);
+
+  let quoteId: string | null = null;
+  let source: { kind: 'part' | 'labour' | 'other'; description: string; quantity: number; unitCents: number; taxable: boolean }[];
+  let quoteRate: number | null = null;
+  if (input.lines) {
+    source = input.lines;
+  } else {
+    const where = input.quoteId
+      ? and(eq(quotes.id, input.quoteId), eq(quotes.jobId, jobId), eq(quotes.shopId, actor.shopId))
+      : and(eq(quotes.jobId, jobId), eq(quotes.status, 'approved'));
+    const [q] = await db.select().from(quotes).where(where).orderBy(desc(quotes.decidedAt)).limit(1);
+    if (!q) throw new AppError('invalid', input.quoteId ? `No quote ${input.quoteId} on this job` : `Job ${job.number} has no approved quote; give the invoice lines`);
+    if (q.status !== 'approved') throw new AppError('conflict', `Quote ${q.number} is ${q.status}, not approved by the customer`);
+    quoteId = q.id;
+    quoteRate = q.taxRateMilliPercent;
+    const lines = await db.select().from(quoteLines).where(eq(quoteLines.quoteId, q.id)).orderBy(asc(quoteLines.position));
+    source = lines.map((l) => ({ kind: l.kind, description: l.description, quantity: l.quantityHundredths, unitCents: l.unitCents, taxable: l.taxable }));
+  }
+
+  const id = newId();
+  await db.transaction(async (tx) => {
+    const settings = await getSettingsRow(tx, actor.shopId);
+    const rate = input.taxRate ?? quoteRate ?? settings.taxRateMilliPercent;
+    const priced = priceLines(source, rate);
+    const number = await takeNumber(tx, actor.shopId, 'invoice');
+    await tx.insert(invoices).values({
+      id,
+      shopId: actor.shopId,
+      jobId,
+      customerId: job.customer.id,
+      quoteId,
+      number,
+      currency: settings.currency,
+      taxRateMilliPercent: rate,
+      subtotalCents: priced.totals.subtotalCents,
+      taxCents: priced.totals.taxCents,
+      totalCents: priced.totals.totalCents,
+      createdBy: actor.id,
+    });
+    await tx.insert(invoiceLines).values(priced.lines.map((l) => ({ ...l, invoiceId: id })));
+    await tx.insert(auditLog).values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: 'invoice.issue', subject: id, detail: number });
+  });
+  if (input.send) await sendInvoice({ db, config, actor, id });
+  return getInvoice({ db, shopId: actor.shopId, id });
+}
+
+/** E-mails the invoice with a fresh customer link and the repair report attached as a PDF. */
+export async function sendInvoice({ db, config, actor, id, to }: { db: Db; config: Config; actor: Actor; id: string; to?: string }) {
+  const { inv, lines } = await loadInvoice(db, actor.shopId, id);
+  if (inv.status === 'void') throw new AppError('conflict', `Invoice ${inv.number} is void`);
+  const job = await getBillingJob(db, actor.shopId, inv.jobId);
+  const address = recipientOf(job, to);
+  const settings = await getSettingsRow(db, actor.shopId);
+  const link = await createCustomerLink({ db, config, shopId: actor.shopId, jobId: job.id, validDays: settings.linkValidDays, createdBy: actor.id });
+  const pdf = await renderReportPdf(await loadRepairReport(db, job));
+  const content = invoiceMail(jobSummary(job), toInvoice(inv, lines), link, true);
+  const sent = await sendMail({
+    config,
+    db,
+    mail: {
+      shopId: actor.shopId,
+      jobId: job.id,
+      kind: 'invoice',
+      to: address,
+      replyTo: settings.replyTo,
+      ...content,
+      attachments: [{ filename: `repair-report-job-${job.number}.pdf`, content: pdf, contentType: 'application/pdf' }],
+    },
+  });
+  await db.update(invoices).set({ sentAt: sent.sentAt }).where(eq(invoices.id, id));
+  return { mailId: sent.mailId, to: address, sentAt: sent.sentAt.toISOString() };
+}
+
+/** Opens a hosted checkout for an unpaid invoice of the link's job; the customer is sent to its URL. */
+export async function startCheckout({ db, config, shopId, jobId, invoiceId, token }: { db: Db; config: Config; shopId: string; jobId: string; invoiceId: string; token: string }) {
+  const { inv } = await loadInvoice(db, shopId, invoiceId);
+  if (inv.jobId !== jobId) throw new AppError('not_found', `No invoice ${invoiceId}`);
+  if (inv.status !== 'issued') throw new AppError('conflict', `Invoice ${inv.number} is ${inv.status}`);
+  const job = await getBillingJob(db, shopId, jobId);
+  const page = `${publicBase(config)}/c/${token}`;
+  let session: Stripe.Checkout.Session;
+  try {
+    session = await paymentsFor(config).checkout.sessions.create({
+      mode: 'payment',
+      line_items: [
+        {
+          quantity: 1,
+          price_data: { currency: inv.currency, unit_amount: inv.totalCents, product_data: { name: `Invoice ${inv.number}, job ${job.number}` } },
+        },
+      ],
+      client_reference_id: inv.id,
+      customer_email: job.customer.email ?? undefined,
+      metadata: { invoiceId: inv.id, shopId },
+      success_url: `${page}?paid={CHECKOUT_SESSION_ID}`,
+      cancel_url: page,
+    });
+  } catch (err) {
+    console.error('payments: checkout session refused:', (err as Error).message);
+    throw new AppError('unavailable', 'The payment service is not answering; try again shortly.');
+  }
+  if (!session.url) throw new AppError('unavailable', 'The payment service gave no checkout address');
+  await db.update(invoices).set({ checkoutSessionId: session.id }).where(eq(invoices.id, inv.id));
+  return { url: session.url };
+}
+
+export type PaymentOutcome = 'paid' | 'duplicate' | 'ignored' | 'unknown-invoice' | 'amount-mismatch' | 'already-paid';
+
+/**
+ * Applies one verified payment event. The event id is the primary key of payment_events: a redelivered
+ * event conflicts on insert and changes nothing. The whole effect is one transaction.
+ */
+export async function applyPaymentEvent({ db, config, event }: { db: Db; config: Config; event: Stripe.Event }): Promise<PaymentOutcome> {
+  const result = await db.transaction(async (tx) => {
+    if (event.type !== 'checkout.session.completed') {
+      const [row] = await tx.insert(paymentEvents).values({ eventId: event.id, type: event.type, outcome: 'ignored' }).onConflictDoNothing().returning();
+      return { outcome: row ? ('ignored' as const) : ('duplicate' as const) };
+    }
+    const session = event.data.object;
+    const invoiceId = session.metadata?.invoiceId ?? session.client_reference_id ?? '';
+    const [inv] = await tx.select().from(invoices).where(eq(invoices.id, invoiceId)).for('update');
+    let outcome: PaymentOutcome;
+    if (!inv) outcome = 'unknown-invoice';
+    else if (inv.status === 'paid') outcome = 'already-paid';
+    else if (session.payment_status !== 'paid' || session.amount_total !== inv.totalCents || session.currency !== inv.currency) outcome = 'amount-mismatch';
+    else outcome = 'paid';
+    const [row] = await tx
+      .insert(paymentEvents)
+      .values({ eventId: event.id, type: event.type, outcome, invoiceId: inv?.id ?? null })
+      .onConflictDoNothing()
+      .returning();
+    if (!row) return { outcome: 'duplicate' as const };
+    if (outcome !== 'paid' || !inv) return { outcome };
+    const paidAt = new Date(event.created * 1000);
+    await tx.insert(payments).values({
+      id: newId(),
+      shopId: inv.shopId,
+      invoiceId: inv.id,
+      eventId: event.id,
+      checkoutSessionId: session.id,
+      amountCents: session.amount_total!,
+      currency: session.currency!,
+      paidAt,
+    });
+    await tx.update(invoices).set({ status: 'paid', paidAt, paidCents: session.amount_total! }).where(eq(invoices.id, inv.id));
+    await tx.insert(auditLog).values({ id: newId(), shopId: inv.shopId, action: 'invoice.paid', subject: inv.id, detail: event.id });
+    return { outcome, inv };
+  });
+  if (result.outcome === 'amount-mismatch') console.error(`payments: event ${event.id} does not match its invoice; not marked paid`);
+  if (result.outcome === 'paid' && 'inv' in result && result.inv) await mailReceipt(db, config, result.inv.shopId, result.inv.id);
+  return result.outcome;
+}
+
+/** The receipt; a mail failure does not undo the payment (it is logged in mail_log). */
+async function mailReceipt(db: Db, config: Config, shopId: string, invoiceId: string) {
+  try {
+    const { inv } = await loadInvoice(db, shopId, invoiceId);
+    const job = await getBillingJob(db, shopId, inv.jobId);
+    if (!job.customer.email) return;
+    const settings = await getSettingsRow(db, shopId);
+    const link = await createCustomerLink({ db, config, shopId, jobId: job.id, validDays: settings.linkValidDays, createdBy: null });
+    const content = paidMail(jobSummary(job), inv, link);
+    await sendMail({ config, db, mail: { shopId, jobId: job.id, kind: 'paid', to: job.customer.email, replyTo: settings.replyTo, ...content } });
+  } catch (err) {
+    console.error('mail: receipt not sent:', (err as Error).message);
+  }
+}
