@@ -5,6 +5,9 @@ import { join } from 'node:path';
 import { sessionMiddleware } from './auth/session';
 import type { AppContext } from './context';
 import { authRoutes } from './features/auth/routes';
+import { billingApiRoutes } from './features/billing/api';
+import { paymentWebhookRoutes } from './features/billing/webhook';
+import { customerPortalRoutes } from './features/customer-portal/routes';
 import { healthRoutes } from './features/health/routes';
 import { errorHandler, notFoundApi } from './http/errors';
 import { originCheck } from './http/origin';
@@ -22,12 +25,16 @@ export function createApp(ctx: AppContext): Express {
     }),
   );
 
+  // The payment webhook reads its raw body (the signature covers the bytes), so it sits ahead of the JSON parser.
+  app.use('/api/webhooks/payments', paymentWebhookRoutes(ctx));
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
   api.use(originCheck(ctx.config.PUBLIC_URL));
   api.use(healthRoutes(ctx));
+  api.use(customerPortalRoutes(ctx));
   api.use(sessionMiddleware(ctx.auth));
   api.use(authRoutes(ctx));
+  api.use(billingApiRoutes(ctx));
   api.use(notFoundApi);
   app.use('/api', api);
 
