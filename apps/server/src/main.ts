@@ -1,11 +1,14 @@
 import { ConfigError, loadConfig } from './config';
+import { startBillingServices } from './features/billing/services';
 import { startServer } from './server';
 
 try {
   const config = loadConfig();
   const running = await startServer(config);
   console.log(`splitscope: server listening on ${running.url}`);
-  const stop = () => running.close().then(() => process.exit(0));
+  // The status e-mail sweep, and with LOCAL_FAKES the SMTP capture server and the fake payment API.
+  const billing = await startBillingServices(running.ctx, running.url);
+  const stop = () => billing.stop().then(() => running.close()).then(() => process.exit(0));
   process.on('SIGTERM', stop);
   process.on('SIGINT', stop);
 } catch (err) {
