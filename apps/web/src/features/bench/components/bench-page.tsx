@@ -279,7 +279,7 @@ function Bench({ job }: { job: JobDetail }) {
                   />
                 )}
               </QueryState>
-              {top && job.allowedTransitions.includes('awaiting-review') && me.data?.role !== 'trainee' && (
+              {top && (job.allowedTransitions.includes('awaiting-review') || (job.status === 'received' && job.allowedTransitions.includes('diagnosing'))) && (
                 <div className="rounded-lg border border-stone-300 bg-white p-3">
                   <Button onClick={() => void propose(selectedPart ?? top.part)} disabled={update.isPending}>
                     Propose {selectedPart ?? top.part} for review

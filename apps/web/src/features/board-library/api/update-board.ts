@@ -4,7 +4,7 @@ import { api } from '@/lib/api-client';
 
 /** Saves a new version of the board model; the answer carries the recomputed expected-readings table. */
 export const updateBoard = (id: string, input: UpdateBoardRequest) =>
-  api(`/boards/${encodeURIComponent(id)}`, { method: 'PUT', body: JSON.stringify(input), schema: boardDetailSchema });
+  api(`/boards/${encodeURIComponent(id)}`, { method: 'PATCH', body: JSON.stringify(input), schema: boardDetailSchema });
 
 export const useUpdateBoard = (id: string) => {
   const qc = useQueryClient();

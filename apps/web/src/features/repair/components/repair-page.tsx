@@ -216,11 +216,14 @@ function Repair({ job }: { job: JobDetail }) {
               </tbody>
             </table>
           </div>
-          {job.status === 'repaired' && (
+          {job.status === 'repaired' && !canVerify && (
+            <p className="text-sm text-stone-700">A lead signs the repair off once the verification readings are healthy.</p>
+          )}
+          {job.status === 'repaired' && canVerify && (
             <div className="space-y-1">
               <button
                 type="button"
-                disabled={!canVerify || update.isPending}
+                disabled={update.isPending}
                 onClick={() => update.mutate({ status: 'verified' })}
                 className="min-h-11 rounded-md bg-ok px-4 font-semibold text-white disabled:opacity-60"
               >

@@ -1,0 +1,69 @@
+import AxeBuilder from '@axe-core/playwright';
+import type { Page } from '@playwright/test';
+import { expect, signIn, test } from './fixtures';
+import { findJob } from './helpers';
+
+async function noSeriousViolations(page: Page, name: string) {
+  await page.screenshot({ path: `tests/artifacts/axe-${name}.png`, fullPage: true });
+  const r = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).analyze();
+  const bad = r.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
+  expect(bad.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`), `${name}: serious or critical violations`).toEqual([]);
+}
+
+test('sign-in has no serious accessibility violations', async ({ page }) => {
+  await page.goto('/sign-in');
+  await expect(page.getByRole('button', { name: 'Sign in' })).toBeVisible();
+  await noSeriousViolations(page, 'sign-in');
+});
+
+test('the technician views have no serious accessibility violations', async ({ page }) => {
+  await signIn(page, 'tech@demo.test');
+  await expect(page.getByRole('heading', { name: /Welcome/ })).toBeVisible();
+  await expect(page.getByRole('heading', { name: 'My open jobs' })).toBeVisible();
+  await noSeriousViolations(page, 'home-tech');
+
+  await page.goto('/jobs');
+  await expect(page.getByRole('table')).toBeVisible();
+  await noSeriousViolations(page, 'jobs');
+
+  await page.goto('/jobs/new');
+  await expect(page.getByRole('button', { name: 'Open the job' })).toBeVisible();
+  await noSeriousViolations(page, 'intake');
+
+  const job = await findJob(page, ['received', 'diagnosing']);
+  await page.goto(`/jobs/${job.id}?mode=free`);
+  await expect(page.getByTestId('board-map').locator('canvas').first()).toBeVisible();
+  await expect(page.getByRole('heading', { name: 'Probable faulty parts' })).toBeVisible();
+  await noSeriousViolations(page, 'bench');
+
+  await page.goto(`/jobs/${job.id}?mode=free&tab=chain`);
+  await expect(page.getByRole('table', { name: 'Signal chain readings' })).toBeVisible();
+  await noSeriousViolations(page, 'signal-chain');
+
+  await page.goto(`/jobs/${job.id}?mode=guided`);
+  await expect(page.getByRole('heading', { name: /Guided order/ })).toBeVisible();
+  await noSeriousViolations(page, 'guided');
+
+  await page.goto(`/jobs/${job.id}/report`);
+  await expect(page.getByRole('heading', { name: /Repair report/ })).toBeVisible();
+  await noSeriousViolations(page, 'report');
+
+  await page.goto('/references');
+  await expect(page.getByTestId('calc-bleed')).toBeVisible();
+  await noSeriousViolations(page, 'references');
+});
+
+test('the lead and admin views have no serious accessibility violations', async ({ page }) => {
+  await signIn(page, 'lead@demo.test');
+  await expect(page.getByRole('heading', { name: 'Review queue' })).toBeVisible();
+  await noSeriousViolations(page, 'home-lead');
+  await page.goto('/review');
+  await expect(page.getByRole('heading', { name: 'Review queue' })).toBeVisible();
+  await noSeriousViolations(page, 'review-queue');
+  await page.goto('/boards');
+  await expect(page.getByRole('link', { name: 'Open the editor' }).first()).toBeVisible();
+  await noSeriousViolations(page, 'board-library');
+  await page.getByRole('link', { name: 'Open the editor' }).first().click();
+  await expect(page.getByRole('heading', { name: /Expected readings/ })).toBeVisible();
+  await noSeriousViolations(page, 'board-editor');
+});
