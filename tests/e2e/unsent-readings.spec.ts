@@ -1,0 +1,28 @@
+import type { ReadingList } from '@splitscope/contract';
+import { expect, signIn, test } from './fixtures';
+import { findJob, getJson, shot } from './helpers';
+
+test.describe('readings typed while the network is down', () => {
+  test.use({ expectedConsoleErrors: [/ERR_INTERNET_DISCONNECTED/, /Failed to fetch/] });
+
+  test('are kept, listed as unsent and sent once with the same key when the network returns', async ({ page, context }) => {
+    await signIn(page, 'tech@demo.test');
+    await expect(page.getByRole('heading', { name: /Welcome/ })).toBeVisible();
+    const job = await findJob(page, ['received', 'diagnosing'], '&assignee=me');
+    const before = (await getJson<ReadingList>(page, `/jobs/${job.id}/readings`)).items.length;
+    await page.goto(`/jobs/${job.id}?mode=free`);
+    await page.getByRole('navigation', { name: 'Test points' }).getByRole('button').first().click();
+    await expect(page.getByLabel('Measured value')).toBeFocused();
+    await page.getByLabel('Measured value').fill('14.9');
+    await context.setOffline(true);
+    await page.getByLabel('Measured value').press('Enter');
+    await expect(page.getByTestId('unsent')).toContainText('1 reading not sent yet');
+    await expect(page.getByTestId('verdict')).toContainText('UNSENT');
+    await shot(page, 'unsent-offline');
+    await context.setOffline(false);
+    await expect(page.getByTestId('unsent')).toHaveCount(0);
+    const after = await getJson<ReadingList>(page, `/jobs/${job.id}/readings`);
+    expect(after.items.length).toBe(before + 1);
+    expect(after.items.at(-1)!.raw).toBe('14.9');
+  });
+});
