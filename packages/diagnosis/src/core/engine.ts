@@ -36,6 +36,12 @@ export interface DiagnoseOptions {
   pairTopK?: number;
   /** Include pairs at all. Default true. */
   pairs?: boolean;
+  /**
+   * Under the top-k rule each pair member keeps only its this many likeliest sweep points (as a single
+   * fault given the readings; default 2), so a pair costs at most pairPoints² simulations. The dropped points'
+   * share of the prior is dropped with them (a slight under-estimate of the pair).
+   */
+  pairPoints?: number;
 }
 
 export const LN2 = Math.log(2);
@@ -243,6 +249,31 @@ function choicesOf(model: { components: readonly Component[] }): ModeChoice[] {
   return c;
 }
 
+// Truncated sweeps per (choice, kept points), stable objects for the memos.
+const truncMemo = new WeakMap<ModeChoice, Map<string, ModeChoice>>();
+
+function truncatedChoice(ch: ModeChoice, single: Scored, keep: number): ModeChoice {
+  if (ch.subs.length <= keep) return ch;
+  const ranked = single.combos
+    .map((c, i) => ({ i, w: c.logShare + c.perReading.reduce((a, x) => a + x, 0) }))
+    .sort((a, b) => b.w - a.w || a.i - b.i)
+    .slice(0, keep)
+    .map((x) => x.i)
+    .sort((a, b) => a - b);
+  const k = ranked.join(',');
+  let m = truncMemo.get(ch);
+  if (!m) {
+    m = new Map();
+    truncMemo.set(ch, m);
+  }
+  let t = m.get(k);
+  if (!t) {
+    t = { ref: ch.ref, logRelPrior: ch.logRelPrior, subs: ranked.map((i) => ch.subs[i] as ModeChoice['subs'][number]) };
+    m.set(k, t);
+  }
+  return t;
+}
+
 interface Scored {
   refs: FaultRef[];
   logPrior: number;
@@ -287,6 +318,7 @@ export function diagnose<T, V, P>(
 ): Posterior {
   const allPairsLimit = options.allPairsLimit ?? 8;
   const pairTopK = options.pairTopK ?? 12;
+  const pairPoints = options.pairPoints ?? 2;
   const tests = observations.map((o) => o.test);
   const choices = choicesOf(model);
 
@@ -310,7 +342,7 @@ export function diagnose<T, V, P>(
       pool = [...singles]
         .sort((a, b) => b.logPost - a.logPost)
         .slice(0, pairTopK)
-        .map((x) => x.ch);
+        .map((x) => truncatedChoice(x.ch, x.s, pairPoints));
     }
     for (let i = 0; i < pool.length; i++) {
       for (let j = i + 1; j < pool.length; j++) {

@@ -95,7 +95,7 @@ export interface UpdateOptions {
   nextTests?: number;
   /** Pairs among this many strongest singles (default 12). */
   pairTopK?: number;
-  /** Probing considers at most this many candidates (default 40). */
+  /** Probing considers at most this many candidates (default 30; each with its 3 heaviest sweep points). */
   probeCandidates?: number;
 }
 
@@ -257,7 +257,7 @@ export class Diagnoser {
       points = [...nets].map((net) => ({ net, ref: '0' }));
     }
     const tests = candidateTests({ points, cur, liftParts: likelyParts.slice(0, 3).map(partNets) });
-    const ranked = rankTests(this.model, post, tests, (t) => testCost(t, cur), { maxCandidates: options.probeCandidates ?? 40, comboCutoff: 0.02, maxCombos: 4 }, this.cache);
+    const ranked = rankTests(this.model, post, tests, (t) => testCost(t, cur), { maxCandidates: options.probeCandidates ?? 30, comboCutoff: 0.02, maxCombos: 3 }, this.cache);
     const labels = this.testPoints ?? [];
     const nextTests: NextTestReport[] = ranked.slice(0, options.nextTests ?? 10).map((r) => ({
       mode: r.test.mode,
