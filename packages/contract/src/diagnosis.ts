@@ -5,40 +5,48 @@ import { expectedValueSchema, meterModeSchema, powerStateSchema, readingUnitSche
 const faultRef = z.object({ part: z.string(), mode: z.string() });
 
 /** A reading as the engine saw it, with what the healthy board model predicts for it. */
-export const diagnosisReadingSchema = z.looseObject({
-  readingId: idSchema.optional(),
+export const diagnosisReadingSchema = z.object({
+  readingId: idSchema,
   mode: meterModeSchema,
   red: z.string(),
   black: z.string(),
   power: powerStateSchema,
-  lifted: z.array(z.string()).default([]),
+  lifted: z.array(z.string()),
   value: z.union([z.number(), z.literal('OL')]),
   expected: expectedValueSchema.nullable(),
   low: z.number().nullable(),
   high: z.number().nullable(),
-  unit: readingUnitSchema.optional(),
-  verdict: verdictSchema.nullable(),
+  unit: readingUnitSchema,
+  verdict: verdictSchema,
 });
 
-export const diagnosisCandidateSchema = z.looseObject({
+/** How one reading moves a candidate: ln L(reading | candidate) − ln L(reading | no fault). */
+export const diagnosisEvidenceSchema = z.object({ reading: z.number().int(), llr: z.number(), effect: z.enum(['supports', 'against', 'neutral']) });
+
+export const diagnosisCandidateSchema = z.object({
   faults: z.array(faultRef),
   probability: z.number(),
-  consistent: z.boolean().optional(),
+  evidence: z.array(diagnosisEvidenceSchema),
 });
 
-export const diagnosisPartSchema = z.looseObject({ part: z.string(), mode: z.string(), probability: z.number() });
+export const diagnosisPartSchema = z.object({ part: z.string(), mode: z.string(), probability: z.number() });
 
-/** A proposed next measurement and how much it is expected to tell. */
-export const nextTestSchema = z.looseObject({
+/** A proposed next measurement, how much it is expected to tell and what it costs at the bench. */
+export const nextTestSchema = z.object({
   mode: meterModeSchema,
   red: z.string(),
   black: z.string(),
   power: powerStateSchema,
-  lifted: z.array(z.string()).default([]),
+  lifted: z.array(z.string()),
+  /** Expected entropy (bits) of the candidate posterior after the test. */
+  expectedEntropy: z.number(),
+  cost: z.number(),
+  /** The sentence the bench screen shows ("Unplug, discharge the bus, then ..."). */
+  instruction: z.string(),
 });
 
 /** The output of `circuit diagnose` for a job's current readings, plus where it came from. */
-export const diagnosisResponse = z.looseObject({
+export const diagnosisResponse = z.object({
   jobId: idSchema,
   boardVersionId: idSchema,
   engineVersion: z.string(),
@@ -48,6 +56,8 @@ export const diagnosisResponse = z.looseObject({
   restProbability: z.number(),
   minimalDiagnoses: z.array(z.array(z.string())),
   nextTests: z.array(nextTestSchema),
+  /** Entropy (bits) of the candidate posterior. */
+  entropy: z.number(),
 });
 export type Diagnosis = z.infer<typeof diagnosisResponse>;
 
