@@ -4,6 +4,7 @@ import { createAuth } from './auth/lucia';
 import type { Config } from './config';
 import { createDatabase } from './db/client';
 import type { AppContext } from './context';
+import { DiskStorage } from './storage/storage';
 
 export interface RunningServer {
   ctx: AppContext;
@@ -16,7 +17,7 @@ export interface RunningServer {
 export async function startServer(config: Config): Promise<RunningServer> {
   const { db, pool } = createDatabase(config.DATABASE_URL);
   const secureCookies = config.PUBLIC_URL?.startsWith('https://') ?? false;
-  const ctx: AppContext = { config, db, pool, auth: createAuth(db, { secureCookies }) };
+  const ctx: AppContext = { config, db, pool, auth: createAuth(db, { secureCookies }), storage: new DiskStorage(config.UPLOAD_DIR) };
   const app = createApp(ctx);
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.PORT, config.HOST, () => resolve(s));

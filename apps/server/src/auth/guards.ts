@@ -41,3 +41,21 @@ export function requireRole(...allowed: Role[]): RequestHandler {
     next();
   };
 }
+
+/**
+ * For checks that depend on the request's content (which status a PATCH moves to): the same rule as
+ * `requireRole`, called from a service once it knows what is asked.
+ */
+export function assertRole(actor: Actor, allowed: readonly Role[], what: string): void {
+  if (!allowed.includes(actor.role)) {
+    throw new AppError('forbidden', `${what} needs the role ${allowed.join(' or ')}; you are signed in as ${actor.role}`);
+  }
+}
+
+/** Roles by what they may do; routes and services name these instead of listing roles again. */
+export const ROLES = {
+  everyone: ['admin', 'lead', 'tech', 'trainee'],
+  bench: ['admin', 'lead', 'tech'],
+  reviewers: ['admin', 'lead'],
+  admins: ['admin'],
+} as const satisfies Record<string, readonly Role[]>;

@@ -1,0 +1,173 @@
+// The engines' view of one stored board model version: its netlist, part priors and test points, a cached
+// diagnoser, and the verdict of a single reading against the healthy board. A version never changes, so
+// everything here is cached per version id for the life of the process.
+import { refusal } from '@splitscope/circuit';
+import { bandOf, CaseError, createDiagnoser, verdictOf, type CasePart, type Diagnoser, type ReadingValue, type TestPoint } from '@splitscope/diagnosis';
+import type { ExpectedReadingRow, MeterModeName, PowerState, ReadingVerdict } from '@splitscope/contract';
+import { AppError } from '../../http/errors';
+
+export interface BoardTestPoint extends TestPoint {
+  id: string;
+}
+
+export interface BoardEngine {
+  versionId: string;
+  netlist: string;
+  params?: Record<string, number>;
+  parts: Record<string, CasePart>;
+  testPoints: BoardTestPoint[];
+  diagnoser: Diagnoser;
+}
+
+const isRecord = (x: unknown): x is Record<string, unknown> => typeof x === 'object' && x !== null && !Array.isArray(x);
+const str = (x: unknown) => (typeof x === 'string' && x.trim() !== '' ? x : undefined);
+
+/** The netlist text of a board model document. */
+export function netlistOf(doc: Record<string, unknown>): string | undefined {
+  return str(doc.netlist) ?? (isRecord(doc.circuit) ? str(doc.circuit.netlist) : undefined);
+}
+
+function partsOf(doc: Record<string, unknown>): Record<string, CasePart> {
+  const out: Record<string, CasePart> = {};
+  const add = (name: unknown, p: unknown) => {
+    if (typeof name !== 'string' || !isRecord(p)) return;
+    const part: CasePart = {};
+    if (typeof p.kind === 'string') part.kind = p.kind as CasePart['kind'];
+    if (isRecord(p.priors)) part.priors = p.priors as Record<string, number>;
+    if (part.kind || part.priors) out[name] = part;
+  };
+  if (Array.isArray(doc.parts)) {
+    for (const p of doc.parts) if (isRecord(p)) add(p.ref ?? p.name ?? p.id, p);
+  } else if (isRecord(doc.parts)) {
+    for (const [k, p] of Object.entries(doc.parts)) add(k, p);
+  }
+  return out;
+}
+
+function testPointsOf(doc: Record<string, unknown>): BoardTestPoint[] {
+  if (!Array.isArray(doc.testPoints)) return [];
+  return doc.testPoints.flatMap((tp) => {
+    if (!isRecord(tp) || typeof tp.net !== 'string') return [];
+    const id = str(tp.id) ?? tp.net;
+    return [{ id, net: tp.net, label: str(tp.label) ?? id, ...(str(tp.ref) ? { ref: tp.ref as string } : {}) }];
+  });
+}
+
+function paramsOf(doc: Record<string, unknown>): Record<string, number> | undefined {
+  return isRecord(doc.params) ? (doc.params as Record<string, number>) : undefined;
+}
+
+/** Builds the engine view of a document; a document the engines cannot use is a 422 naming why. */
+export function buildBoardEngine(versionId: string, doc: Record<string, unknown>): BoardEngine {
+  const netlist = netlistOf(doc);
+  if (!netlist) throw new AppError('invalid', 'The board model has no netlist', { errors: [{ path: 'document.netlist', message: 'required' }] });
+  const parts = partsOf(doc);
+  const testPoints = testPointsOf(doc);
+  const params = paramsOf(doc);
+  try {
+    const diagnoser = createDiagnoser({ netlist, params, parts, testPoints: testPoints.map(({ net, label, ref }) => ({ net, label, ref })) });
+    return { versionId, netlist, params, parts, testPoints, diagnoser };
+  } catch (err) {
+    if (err instanceof CaseError) throw new AppError('invalid', `The board model cannot be used: ${err.message}`, { errors: [{ path: 'document', message: err.message }] });
+    throw err;
+  }
+}
+
+const cache = new Map<string, BoardEngine>();
+const CACHE_LIMIT = 50;
+
+/** The engine for a stored version, built once per process (the diagnoser's prediction cache survives). */
+export function boardEngine(versionId: string, doc: unknown): BoardEngine {
+  const hit = cache.get(versionId);
+  if (hit) {
+    cache.delete(versionId);
+    cache.set(versionId, hit);
+    return hit;
+  }
+  const built = buildBoardEngine(versionId, isRecord(doc) ? doc : {});
+  cache.set(versionId, built);
+  if (cache.size > CACHE_LIMIT) cache.delete(cache.keys().next().value as string);
+  return built;
+}
+
+const normNet = (n: string) => {
+  const l = n.trim().toLowerCase();
+  return l === 'gnd' ? '0' : l;
+};
+
+/** A probe name as typed (a test point id or a net name) → the net, or undefined when the board has neither. */
+export function resolveNet(engine: BoardEngine, name: string): string | undefined {
+  const tp = engine.testPoints.find((t) => t.id.toLowerCase() === name.trim().toLowerCase());
+  const net = normNet(tp ? tp.net : name);
+  return engine.diagnoser.model.nets.has(net) ? net : undefined;
+}
+
+/** Lifted part names as typed → the netlist's names, or the first unknown one. */
+export function resolveParts(engine: BoardEngine, names: readonly string[]): { parts: string[] } | { unknown: string } {
+  const byLower = new Map(engine.diagnoser.model.parts.map((p) => [p.name.toLowerCase(), p.name]));
+  const parts: string[] = [];
+  for (const n of names) {
+    const name = byLower.get(n.trim().toLowerCase());
+    if (!name) return { unknown: n };
+    if (!parts.includes(name)) parts.push(name);
+  }
+  return { parts: parts.sort() };
+}
+
+/** Why a reading cannot be taken in that power state (the circuit engine's own wording), if it cannot. */
+export const powerRefusal = (mode: MeterModeName, power: PowerState) => refusal(mode, power);
+
+export interface ProbeState {
+  mode: MeterModeName;
+  red: string;
+  black: string;
+  power: PowerState;
+  lifted: string[];
+}
+
+const round = (x: number) => (x === 0 || !Number.isFinite(x) ? x : Number(x.toPrecision(4)));
+export const unitOf = (mode: MeterModeName) => (mode === 'dcv' || mode === 'diode' ? 'V' : 'ohm') as 'V' | 'ohm';
+
+/**
+ * The healthy board's band for a probe and how a value compares, from the diagnosis engine's noise model.
+ * Null when the engine cannot predict this probe.
+ */
+export function verdictFor(engine: BoardEngine, probe: ProbeState, value: ReadingValue | null): ReadingVerdict | null {
+  const model = engine.diagnoser.model;
+  const test = { mode: probe.mode, red: probe.red, black: probe.black, power: probe.power, lifted: probe.lifted };
+  const healthy = model.healthyPrediction(test);
+  if (healthy.value === 'unknown') return null;
+  const band = bandOf(probe.mode, healthy, model.meter);
+  const expected = typeof band.expected === 'number' ? round(band.expected) : band.expected;
+  return {
+    expected,
+    low: band.low === undefined ? null : round(band.low),
+    high: band.high === undefined ? null : round(band.high),
+    unit: unitOf(probe.mode),
+    verdict: value === null ? 'ok' : verdictOf(probe.mode, value, band),
+  };
+}
+
+/**
+ * The expected-readings table: every test point against its reference, powered (dcv) and unpowered
+ * (resistance and diode), as the healthy board model predicts them.
+ */
+export function expectedTable(engine: BoardEngine): ExpectedReadingRow[] {
+  const rows: ExpectedReadingRow[] = [];
+  const probes: { mode: MeterModeName; power: PowerState }[] = [
+    { mode: 'dcv', power: 'on' },
+    { mode: 'ohm', power: 'off' },
+    { mode: 'diode', power: 'off' },
+  ];
+  for (const tp of engine.testPoints) {
+    const red = resolveNet(engine, tp.net);
+    const black = resolveNet(engine, tp.ref ?? '0');
+    if (!red || !black || red === black) continue;
+    for (const p of probes) {
+      const v = verdictFor(engine, { ...p, red, black, lifted: [] }, null);
+      if (!v) continue;
+      rows.push({ id: `${tp.id}:${p.mode}`, label: tp.label, mode: p.mode, red: tp.id, black: tp.ref ?? '0', power: p.power, lifted: [], expected: v.expected, low: v.low, high: v.high, unit: v.unit });
+    }
+  }
+  return rows;
+}

@@ -1,0 +1,53 @@
+import { Router } from 'express';
+import {
+  boardDetailQuery,
+  boardDetailSchema,
+  boardListResponse,
+  boardVersionListResponse,
+  createBoardRequest,
+  createFaultCodeRequest,
+  faultCodeListQuery,
+  faultCodeListResponse,
+  faultCodeSchema,
+  idParams,
+  updateBoardRequest,
+} from '@splitscope/contract';
+import { actorOf, requireRole, ROLES } from '../../auth/guards';
+import type { AppContext } from '../../context';
+import { parse } from '../../http/errors';
+import { createBoard, createFaultCode, findBoards, findBoardVersions, findFaultCodes, getBoard, updateBoard } from './service';
+
+export function boardRoutes(ctx: AppContext): Router {
+  const r = Router();
+  r.get('/boards', requireRole(...ROLES.everyone), async (req, res) => {
+    res.json(boardListResponse.parse(await findBoards({ db: ctx.db, shopId: actorOf(req).shopId })));
+  });
+  // The admin keeps the library; leads edit the models in it.
+  r.post('/boards', requireRole(...ROLES.admins), async (req, res) => {
+    const { document, note } = parse(createBoardRequest, req.body);
+    res.status(201).json(boardDetailSchema.parse(await createBoard({ db: ctx.db, actor: actorOf(req), document, note })));
+  });
+  r.get('/boards/:id', requireRole(...ROLES.everyone), async (req, res) => {
+    const { id } = parse(idParams, req.params);
+    const { version } = parse(boardDetailQuery, req.query);
+    res.json(boardDetailSchema.parse(await getBoard({ db: ctx.db, shopId: actorOf(req).shopId, id, version })));
+  });
+  r.patch('/boards/:id', requireRole(...ROLES.reviewers), async (req, res) => {
+    const { id } = parse(idParams, req.params);
+    const { document, note } = parse(updateBoardRequest, req.body);
+    res.json(boardDetailSchema.parse(await updateBoard({ db: ctx.db, actor: actorOf(req), id, document, note })));
+  });
+  r.get('/boards/:id/versions', requireRole(...ROLES.everyone), async (req, res) => {
+    const { id } = parse(idParams, req.params);
+    res.json(boardVersionListResponse.parse(await findBoardVersions({ db: ctx.db, shopId: actorOf(req).shopId, id })));
+  });
+  r.get('/fault-codes', requireRole(...ROLES.everyone), async (req, res) => {
+    const { boardId } = parse(faultCodeListQuery, req.query);
+    res.json(faultCodeListResponse.parse(await findFaultCodes({ db: ctx.db, shopId: actorOf(req).shopId, boardId })));
+  });
+  r.post('/fault-codes', requireRole(...ROLES.admins), async (req, res) => {
+    const input = parse(createFaultCodeRequest, req.body);
+    res.status(201).json(faultCodeSchema.parse(await createFaultCode({ db: ctx.db, shopId: actorOf(req).shopId, input })));
+  });
+  return r;
+}

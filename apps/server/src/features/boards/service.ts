@@ -1,0 +1,175 @@
+import { and, asc, desc, eq, isNull, or } from 'drizzle-orm';
+import type { BoardDetail, BoardDocument, BoardSummary, CreateFaultCodeRequest, ExpectedReadingRow, FaultCode } from '@splitscope/contract';
+import type { Actor } from '../../auth/guards';
+import type { Db } from '../../db/client';
+import { boardModels, boardModelVersions, faultCodes, users } from '../../db/schema';
+import { AppError } from '../../http/errors';
+import { iso } from '../../lib/dates';
+import { newId } from '../../lib/ids';
+import { buildBoardEngine, expectedTable } from './engine';
+
+type BoardRow = typeof boardModels.$inferSelect;
+type VersionRow = typeof boardModelVersions.$inferSelect;
+
+const summary = (b: BoardRow, v: Pick<VersionRow, 'id' | 'version'>): BoardSummary => ({
+  id: b.id,
+  key: b.key,
+  name: b.name,
+  version: v.version,
+  versionId: v.id,
+  updatedAt: iso(b.updatedAt),
+});
+
+const faultCode = (f: typeof faultCodes.$inferSelect): FaultCode => ({ id: f.id, boardId: f.boardId, code: f.code, title: f.title, description: f.description, sections: f.sections });
+
+const slug = (s: string) =>
+  s
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-|-$/g, '')
+    .slice(0, 80) || 'board';
+
+/** Checks a document and computes what a stored version keeps beside it. */
+export function prepareVersion(document: BoardDocument): { key: string; name: string; expectedReadings: ExpectedReadingRow[] } {
+  const name = typeof document.name === 'string' && document.name.trim() ? document.name.trim() : undefined;
+  if (!name) throw new AppError('invalid', 'The board model needs a name', { errors: [{ path: 'document.name', message: 'required' }] });
+  const key = typeof document.id === 'string' && document.id.trim() ? document.id.trim() : slug(name);
+  const engine = buildBoardEngine('unsaved', document);
+  return { key, name, expectedReadings: expectedTable(engine) };
+}
+
+function documentFaultCodes(document: BoardDocument): CreateFaultCodeRequest[] {
+  if (!Array.isArray(document.faultCodes)) return [];
+  return document.faultCodes.flatMap((f: unknown) => {
+    const r = f as Record<string, unknown>;
+    if (typeof r?.code !== 'string') return [];
+    return [
+      {
+        code: r.code,
+        title: typeof r.title === 'string' ? r.title : r.code,
+        description: typeof r.description === 'string' ? r.description : null,
+        sections: Array.isArray(r.sections) ? r.sections.filter((s): s is string => typeof s === 'string') : [],
+      },
+    ];
+  });
+}
+
+export async function findBoards({ db, shopId }: { db: Db; shopId: string }) {
+  const rows = await db
+    .select({ b: boardModels, v: { id: boardModelVersions.id, version: boardModelVersions.version } })
+    .from(boardModels)
+    .innerJoin(boardModelVersions, and(eq(boardModelVersions.boardId, boardModels.id), eq(boardModelVersions.version, boardModels.currentVersion)))
+    .where(eq(boardModels.shopId, shopId))
+    .orderBy(asc(boardModels.name));
+  return { items: rows.map((r) => summary(r.b, r.v)) };
+}
+
+async function boardFaultCodes(db: Db, shopId: string, boardId: string) {
+  const rows = await db
+    .select()
+    .from(faultCodes)
+    .where(and(eq(faultCodes.shopId, shopId), or(eq(faultCodes.boardId, boardId), isNull(faultCodes.boardId))))
+    .orderBy(asc(faultCodes.code));
+  return rows.map(faultCode);
+}
+
+/** One board at its newest version, or at `version`; another shop's board is unknown here. */
+export async function getBoard({ db, shopId, id, version }: { db: Db; shopId: string; id: string; version?: number }): Promise<BoardDetail> {
+  const [b] = await db.select().from(boardModels).where(and(eq(boardModels.id, id), eq(boardModels.shopId, shopId)));
+  if (!b) throw new AppError('not_found', `No board model ${id}`);
+  const [v] = await db
+    .select()
+    .from(boardModelVersions)
+    .where(and(eq(boardModelVersions.boardId, id), eq(boardModelVersions.version, version ?? b.currentVersion)));
+  if (!v) throw new AppError('not_found', `Board model ${b.name} has no version ${version}`);
+  return boardDetail(db, b, v);
+}
+
+/** A pinned version by its id (for job detail). */
+export async function getBoardVersion({ db, shopId, versionId }: { db: Db; shopId: string; versionId: string }): Promise<BoardDetail> {
+  const [row] = await db
+    .select({ b: boardModels, v: boardModelVersions })
+    .from(boardModelVersions)
+    .innerJoin(boardModels, eq(boardModels.id, boardModelVersions.boardId))
+    .where(and(eq(boardModelVersions.id, versionId), eq(boardModels.shopId, shopId)));
+  if (!row) throw new AppError('not_found', `No board model version ${versionId}`);
+  return boardDetail(db, row.b, row.v);
+}
+
+async function boardDetail(db: Db, b: BoardRow, v: VersionRow): Promise<BoardDetail> {
+  return {
+    ...summary(b, v),
+    document: v.document as BoardDocument,
+    expectedReadings: v.expectedReadings as ExpectedReadingRow[],
+    faultCodes: await boardFaultCodes(db, b.shopId, b.id),
+  };
+}
+
+export async function createBoard({ db, actor, document, note, id }: { db: Db; actor: Pick<Actor, 'id' | 'shopId'>; document: BoardDocument; note?: string | null; id?: string }) {
+  const prepared = prepareVersion(document);
+  const boardId = id ?? newId();
+  await db.transaction(async (tx) => {
+    const [clash] = await tx.select({ id: boardModels.id }).from(boardModels).where(and(eq(boardModels.shopId, actor.shopId), eq(boardModels.key, prepared.key)));
+    if (clash) throw new AppError('conflict', `The library already has a board model "${prepared.key}"; edit it to make a new version`);
+    await tx.insert(boardModels).values({ id: boardId, shopId: actor.shopId, key: prepared.key, name: prepared.name, currentVersion: 1 });
+    await tx.insert(boardModelVersions).values({ id: newId(), boardId, version: 1, document, expectedReadings: prepared.expectedReadings, note: note ?? null, createdBy: actor.id });
+    const codes = documentFaultCodes(document);
+    if (codes.length) {
+      await tx.insert(faultCodes).values(codes.map((c) => ({ id: newId(), shopId: actor.shopId, boardId, code: c.code, title: c.title, description: c.description ?? null, sections: c.sections ?? [] })));
+    }
+  });
+  return getBoard({ db, shopId: actor.shopId, id: boardId });
+}
+
+/** Editing stores a new version; jobs pinned to older versions keep theirs. */
+export async function updateBoard({ db, actor, id, document, note }: { db: Db; actor: Actor; id: string; document: BoardDocument; note?: string | null }) {
+  const prepared = prepareVersion(document);
+  const version = await db.transaction(async (tx) => {
+    const [b] = await tx.select().from(boardModels).where(and(eq(boardModels.id, id), eq(boardModels.shopId, actor.shopId))).for('update');
+    if (!b) throw new AppError('not_found', `No board model ${id}`);
+    if (prepared.key !== b.key) {
+      throw new AppError('invalid', `The document's id "${prepared.key}" is not this board model's ("${b.key}")`, { errors: [{ path: 'document.id', message: `must be ${b.key}` }] });
+    }
+    const next = b.currentVersion + 1;
+    await tx.insert(boardModelVersions).values({ id: newId(), boardId: id, version: next, document, expectedReadings: prepared.expectedReadings, note: note ?? null, createdBy: actor.id });
+    await tx.update(boardModels).set({ currentVersion: next, name: prepared.name, updatedAt: new Date() }).where(eq(boardModels.id, id));
+    return next;
+  });
+  return getBoard({ db, shopId: actor.shopId, id, version });
+}
+
+export async function findBoardVersions({ db, shopId, id }: { db: Db; shopId: string; id: string }) {
+  const [b] = await db.select({ id: boardModels.id }).from(boardModels).where(and(eq(boardModels.id, id), eq(boardModels.shopId, shopId)));
+  if (!b) throw new AppError('not_found', `No board model ${id}`);
+  const rows = await db
+    .select({ v: boardModelVersions, name: users.name })
+    .from(boardModelVersions)
+    .leftJoin(users, eq(users.id, boardModelVersions.createdBy))
+    .where(eq(boardModelVersions.boardId, id))
+    .orderBy(desc(boardModelVersions.version));
+  return {
+    items: rows.map(({ v, name }) => ({ versionId: v.id, version: v.version, note: v.note, createdBy: v.createdBy, createdByName: name, createdAt: iso(v.createdAt) })),
+  };
+}
+
+export async function findFaultCodes({ db, shopId, boardId }: { db: Db; shopId: string; boardId?: string }) {
+  if (boardId) {
+    const [b] = await db.select({ id: boardModels.id }).from(boardModels).where(and(eq(boardModels.id, boardId), eq(boardModels.shopId, shopId)));
+    if (!b) throw new AppError('not_found', `No board model ${boardId}`);
+    return { items: await boardFaultCodes(db, shopId, boardId) };
+  }
+  const rows = await db.select().from(faultCodes).where(eq(faultCodes.shopId, shopId)).orderBy(asc(faultCodes.code));
+  return { items: rows.map(faultCode) };
+}
+
+export async function createFaultCode({ db, shopId, input }: { db: Db; shopId: string; input: CreateFaultCodeRequest }) {
+  if (input.boardId) {
+    const [b] = await db.select({ id: boardModels.id }).from(boardModels).where(and(eq(boardModels.id, input.boardId), eq(boardModels.shopId, shopId)));
+    if (!b) throw new AppError('not_found', `No board model ${input.boardId}`);
+  }
+  const [row] = await db
+    .insert(faultCodes)
+    .values({ id: newId(), shopId, boardId: input.boardId ?? null, code: input.code, title: input.title, description: input.description ?? null, sections: input.sections ?? [] })
+    .returning();
+  return faultCode(row!);
+}

@@ -1,0 +1,243 @@
+import { and, asc, desc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/pg-core';
+import type { CreateJobRequest, Job, JobDetail, JobListQuery, JobStatus, UpdateJobRequest } from '@splitscope/contract';
+import { assertRole, type Actor } from '../../auth/guards';
+import type { Db } from '../../db/client';
+import { auditLog, boardModels, boardModelVersions, customers, diagnosisSnapshots, jobs, readings, repairActions, reviews, shops, users } from '../../db/schema';
+import { AppError } from '../../http/errors';
+import { iso, isoOrNull } from '../../lib/dates';
+import { newId } from '../../lib/ids';
+import { getBoardVersion } from '../boards/service';
+import { toCustomer } from '../customers/service';
+import { computeDiagnosis, toSnapshot } from '../diagnosis/service';
+import { toReview } from '../reviews/view';
+import { allowedFor, ruleOf } from './flow';
+
+export type JobRow = typeof jobs.$inferSelect;
+
+/** A job of the actor's shop, or 404: another shop's ids look exactly like unknown ones. */
+export async function getJobRow(db: Db, shopId: string, id: string, lock = false): Promise<JobRow> {
+  const q = db.select().from(jobs).where(and(eq(jobs.id, id), eq(jobs.shopId, shopId)));
+  const [row] = lock ? await q.for('update') : await q;
+  if (!row) throw new AppError('not_found', `No job ${id}`);
+  return row;
+}
+
+const assignee = alias(users, 'assignee');
+
+function jobQuery(db: Db) {
+  return db
+    .select({ j: jobs, customerName: customers.name, assigneeName: assignee.name, boardName: boardModels.name, boardVersion: boardModelVersions.version })
+    .from(jobs)
+    .innerJoin(customers, eq(customers.id, jobs.customerId))
+    .innerJoin(boardModels, eq(boardModels.id, jobs.boardId))
+    .innerJoin(boardModelVersions, eq(boardModelVersions.id, jobs.boardVersionId))
+    .leftJoin(assignee, eq(assignee.id, jobs.assigneeId));
+}
+
+type JobQueryRow = Awaited<ReturnType<ReturnType<typeof jobQuery>['execute']>>[number];
+
+const toJob = ({ j, customerName, assigneeName, boardName, boardVersion }: JobQueryRow): Job => ({
+  id: j.id,
+  shopId: j.shopId,
+  number: j.number,
+  customerId: j.customerId,
+  customerName,
+  unitDescription: j.unitDescription,
+  serial: j.serial,
+  boardId: j.boardId,
+  boardName,
+  boardVersionId: j.boardVersionId,
+  boardVersion,
+  faultCode: j.faultCode,
+  symptom: j.symptom,
+  status: j.status,
+  sentBack: j.sentBack,
+  proposedPart: j.proposedPart,
+  assigneeId: j.assigneeId,
+  assigneeName,
+  priority: j.priority,
+  receivedAt: iso(j.receivedAt),
+  dueAt: isoOrNull(j.dueAt),
+  closedAt: isoOrNull(j.closedAt),
+  createdBy: j.createdBy,
+  createdAt: iso(j.createdAt),
+  updatedAt: iso(j.updatedAt),
+});
+
+const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
+
+export async function findJobs({ db, actor, query }: { db: Db; actor: Actor; query: { status?: JobStatus[]; assignee?: string; customerId?: string; q?: string } }) {
+  const where: SQL[] = [eq(jobs.shopId, actor.shopId)];
+  if (query.status?.length) where.push(inArray(jobs.status, query.status));
+  if (query.assignee) where.push(query.assignee === 'none' ? sql`${jobs.assigneeId} is null` : eq(jobs.assigneeId, query.assignee === 'me' ? actor.id : query.assignee));
+  if (query.customerId) where.push(eq(jobs.customerId, query.customerId));
+  if (query.q) {
+    const like = `%${escapeLike(query.q)}%`;
+    where.push(or(ilike(jobs.unitDescription, like), ilike(jobs.serial, like), ilike(jobs.symptom, like), ilike(jobs.faultCode, like), ilike(customers.name, like), sql`${jobs.number}::text = ${query.q}`)!);
+  }
+  const priorityOrder = sql`case ${jobs.priority} when 'high' then 0 when 'normal' then 1 else 2 end`;
+  const rows = await jobQuery(db)
+    .where(and(...where))
+    .orderBy(priorityOrder, asc(jobs.receivedAt));
+  return { items: rows.map(toJob) };
+}
+
+export type { JobListQuery };
+
+export async function getJob({ db, shopId, id }: { db: Db; shopId: string; id: string }): Promise<Job> {
+  const [row] = await jobQuery(db).where(and(eq(jobs.id, id), eq(jobs.shopId, shopId)));
+  if (!row) throw new AppError('not_found', `No job ${id}`);
+  return toJob(row);
+}
+
+export async function getJobDetail({ db, actor, id }: { db: Db; actor: Actor; id: string }): Promise<JobDetail> {
+  const job = await getJob({ db, shopId: actor.shopId, id });
+  const [customer] = await db.select().from(customers).where(eq(customers.id, job.customerId));
+  const board = await getBoardVersion({ db, shopId: actor.shopId, versionId: job.boardVersionId });
+  const reviewRows = await db
+    .select({ r: reviews, name: users.name })
+    .from(reviews)
+    .innerJoin(users, eq(users.id, reviews.reviewerId))
+    .where(eq(reviews.jobId, id))
+    .orderBy(asc(reviews.createdAt));
+  const [snap] = await db.select().from(diagnosisSnapshots).where(eq(diagnosisSnapshots.jobId, id)).orderBy(desc(diagnosisSnapshots.createdAt)).limit(1);
+  return {
+    ...job,
+    customer: toCustomer(customer!),
+    board,
+    allowedTransitions: allowedFor(job.status, actor.role),
+    reviews: reviewRows.map(({ r, name }) => toReview(r, name)),
+    latestSnapshot: snap ? toSnapshot(snap) : null,
+  };
+}
+
+async function checkAssignee(db: Db, shopId: string, assigneeId: string | null | undefined) {
+  if (!assigneeId) return;
+  const [u] = await db.select({ id: users.id }).from(users).where(and(eq(users.id, assigneeId), eq(users.shopId, shopId)));
+  if (!u) throw new AppError('invalid', `No member ${assigneeId} in this shop to assign`, { errors: [{ path: 'assigneeId', message: 'not a member of this shop' }] });
+}
+
+export async function createJob({ db, actor, input }: { db: Db; actor: Pick<Actor, 'id' | 'shopId'>; input: CreateJobRequest & { id?: string } }): Promise<Job> {
+  const [customer] = await db.select({ id: customers.id }).from(customers).where(and(eq(customers.id, input.customerId), eq(customers.shopId, actor.shopId)));
+  if (!customer) throw new AppError('invalid', `No customer ${input.customerId}`, { errors: [{ path: 'customerId', message: 'unknown customer' }] });
+  const [board] = await db.select().from(boardModels).where(and(eq(boardModels.id, input.boardId), eq(boardModels.shopId, actor.shopId)));
+  if (!board) throw new AppError('invalid', `No board model ${input.boardId}`, { errors: [{ path: 'boardId', message: 'unknown board model' }] });
+  const [version] = await db
+    .select({ id: boardModelVersions.id })
+    .from(boardModelVersions)
+    .where(and(eq(boardModelVersions.boardId, board.id), eq(boardModelVersions.version, input.boardVersion ?? board.currentVersion)));
+  if (!version) throw new AppError('invalid', `Board model ${board.name} has no version ${input.boardVersion}`, { errors: [{ path: 'boardVersion', message: 'unknown version' }] });
+  await checkAssignee(db, actor.shopId, input.assigneeId);
+  const id = input.id ?? newId();
+  await db.transaction(async (tx) => {
+    // The shop's counter row is locked by the update, so two intakes never get the same number.
+    const [shop] = await tx
+      .update(shops)
+      .set({ nextJobNumber: sql`${shops.nextJobNumber} + 1` })
+      .where(eq(shops.id, actor.shopId))
+      .returning({ taken: sql<number>`${shops.nextJobNumber} - 1` });
+    await tx.insert(jobs).values({
+      id,
+      shopId: actor.shopId,
+      number: Number(shop!.taken),
+      customerId: customer.id,
+      unitDescription: input.unitDescription,
+      serial: input.serial ?? null,
+      boardId: board.id,
+      boardVersionId: version.id,
+      faultCode: input.faultCode ?? null,
+      symptom: input.symptom,
+      priority: input.priority ?? 'normal',
+      assigneeId: input.assigneeId ?? null,
+      receivedAt: input.receivedAt ? new Date(input.receivedAt) : new Date(),
+      dueAt: input.dueAt ? new Date(input.dueAt) : null,
+      createdBy: actor.id,
+    });
+  });
+  return getJob({ db, shopId: actor.shopId, id });
+}
+
+function refuseTransition(from: JobStatus, to: JobStatus, role: Actor['role']): never {
+  const viaPatch = allowedFor(from, role, 'patch');
+  const list = viaPatch.length ? viaPatch.join(', ') : 'nowhere by an edit';
+  const rule = ruleOf(from, to);
+  if (rule?.via === 'review') {
+    throw new AppError('conflict', `${rule.name[0]!.toUpperCase()}${rule.name.slice(1)} is a review decision: POST /api/jobs/:id/reviews. From ${from} an edit can move the job to: ${list}`, { allowed: viaPatch });
+  }
+  throw new AppError('conflict', `A job cannot move from ${from} to ${to}. From ${from} it can move to: ${list}`, { allowed: viaPatch });
+}
+
+/** The unhealthy verification readings since the last repair action, or why there are none to judge. */
+async function verificationProblems(db: Db, jobId: string): Promise<string | null> {
+  const [last] = await db.select({ at: repairActions.createdAt }).from(repairActions).where(eq(repairActions.jobId, jobId)).orderBy(desc(repairActions.createdAt)).limit(1);
+  if (!last) return 'no repair action is recorded';
+  const corrected = db.select({ id: readings.supersedes }).from(readings).where(and(eq(readings.jobId, jobId), sql`${readings.supersedes} is not null`));
+  const rows = await db
+    .select()
+    .from(readings)
+    .where(and(eq(readings.jobId, jobId), eq(readings.phase, 'verification'), sql`${readings.createdAt} > ${last.at}`, sql`${readings.id} not in (${corrected})`))
+    .orderBy(asc(readings.createdAt));
+  if (rows.length === 0) return 'no verification readings were taken after the last repair action';
+  const bad = rows.filter((r) => (r.verdict as { verdict?: string } | null)?.verdict !== 'ok');
+  if (bad.length === 0) return null;
+  const describe = (r: (typeof rows)[number]) => {
+    const v = r.verdict as { verdict: string; expected: unknown } | null;
+    return `${r.mode} ${r.red}–${r.black} read ${r.raw}${v ? ` (${v.verdict}, expected ${String(v.expected)})` : ' (no expected value)'}`;
+  };
+  return `these verification readings are not healthy: ${bad.map(describe).join('; ')}`;
+}
+
+export async function updateJob({ db, actor, id, input }: { db: Db; actor: Actor; id: string; input: UpdateJobRequest }): Promise<Job> {
+  const current = await getJobRow(db, actor.shopId, id);
+  const { status, ...fields } = input;
+  if (fields.assigneeId !== undefined) await checkAssignee(db, actor.shopId, fields.assigneeId);
+  const set: Partial<typeof jobs.$inferInsert> = { updatedAt: new Date() };
+  if (fields.assigneeId !== undefined) set.assigneeId = fields.assigneeId;
+  if (fields.priority) set.priority = fields.priority;
+  if (fields.unitDescription) set.unitDescription = fields.unitDescription;
+  if (fields.serial !== undefined) set.serial = fields.serial;
+  if (fields.faultCode !== undefined) set.faultCode = fields.faultCode;
+  if (fields.symptom) set.symptom = fields.symptom;
+  if (fields.dueAt !== undefined) set.dueAt = fields.dueAt ? new Date(fields.dueAt) : null;
+  if (fields.proposedPart !== undefined) set.proposedPart = fields.proposedPart;
+
+  let snapshot: typeof diagnosisSnapshots.$inferInsert | undefined;
+  let audit: typeof auditLog.$inferInsert | undefined;
+  if (status && status !== current.status) {
+    const rule = ruleOf(current.status, status);
+    if (!rule || rule.via !== 'patch') refuseTransition(current.status, status, actor.role);
+    assertRole(actor, rule.roles, rule.name[0]!.toUpperCase() + rule.name.slice(1));
+    set.status = status;
+    if (status === 'awaiting-review') {
+      const part = fields.proposedPart ?? current.proposedPart;
+      if (!part) throw new AppError('invalid', 'Name the part you propose (proposedPart) before asking for a review', { errors: [{ path: 'proposedPart', message: 'required to move to awaiting-review' }] });
+      set.sentBack = false;
+      const output = await computeDiagnosis({ db, job: current });
+      snapshot = { id: newId(), shopId: actor.shopId, jobId: id, engineVersion: output.engineVersion, proposedPart: part, output, createdBy: actor.id };
+    }
+    if (status === 'repaired') {
+      const [any] = await db.select({ id: repairActions.id }).from(repairActions).where(eq(repairActions.jobId, id)).limit(1);
+      if (!any) throw new AppError('conflict', 'Record the repair action first (POST /api/jobs/:id/repairs)');
+    }
+    if (status === 'verified') {
+      const problem = await verificationProblems(db, id);
+      if (problem) throw new AppError('conflict', `The repair cannot be signed off: ${problem}`);
+      audit = { id: newId(), shopId: actor.shopId, userId: actor.id, action: 'sign-off', subject: id, detail: `job ${current.number}` };
+    }
+    if (status === 'returned') set.closedAt = new Date();
+  }
+
+  await db.transaction(async (tx) => {
+    // Compare-and-set on the status we read, so two people moving the same job cannot both win.
+    const done = await tx
+      .update(jobs)
+      .set(set)
+      .where(and(eq(jobs.id, id), eq(jobs.status, current.status)))
+      .returning({ id: jobs.id });
+    if (done.length === 0) throw new AppError('conflict', 'The job changed while you were editing it; reload and try again');
+    if (snapshot) await tx.insert(diagnosisSnapshots).values(snapshot);
+    if (audit) await tx.insert(auditLog).values(audit);
+  });
+  return getJob({ db, shopId: actor.shopId, id });
+}

@@ -1,0 +1,15 @@
+import type { Review } from '@splitscope/contract';
+import type { reviews } from '../../db/schema';
+import { iso } from '../../lib/dates';
+
+export const toReview = (r: typeof reviews.$inferSelect, reviewerName: string): Review => ({
+  id: r.id,
+  jobId: r.jobId,
+  reviewerId: r.reviewerId,
+  reviewerName,
+  decision: r.decision,
+  comment: r.comment,
+  proposedPart: r.proposedPart,
+  snapshotId: r.snapshotId,
+  createdAt: iso(r.createdAt),
+});

@@ -1,0 +1,67 @@
+import { createHash } from 'node:crypto';
+import { and, eq } from 'drizzle-orm';
+import type { Upload } from '@splitscope/contract';
+import type { Actor } from '../../auth/guards';
+import type { Db } from '../../db/client';
+import { uploads } from '../../db/schema';
+import { AppError } from '../../http/errors';
+import { iso } from '../../lib/dates';
+import { newId } from '../../lib/ids';
+import type { Storage } from '../../storage/storage';
+import { getJobRow } from '../jobs/service';
+
+const PNG = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
+const JPEG = Buffer.from([0xff, 0xd8, 0xff]);
+
+/** The picture type from its first bytes (PNG and JPEG signatures); whatever the name or header claim. */
+export function sniffImage(bytes: Buffer): 'image/png' | 'image/jpeg' | null {
+  if (bytes.subarray(0, PNG.length).equals(PNG)) return 'image/png';
+  if (bytes.subarray(0, JPEG.length).equals(JPEG)) return 'image/jpeg';
+  return null;
+}
+
+const toUpload = (u: typeof uploads.$inferSelect): Upload => ({
+  id: u.id,
+  jobId: u.jobId,
+  contentType: u.contentType as Upload['contentType'],
+  size: u.size,
+  sha256: u.sha256,
+  name: u.name,
+  url: `/api/uploads/${u.id}`,
+  createdBy: u.createdBy,
+  createdAt: iso(u.createdAt),
+});
+
+export async function createUpload({ db, storage, actor, bytes, jobId, name }: { db: Db; storage: Storage; actor: Actor; bytes: Buffer; jobId?: string; name?: string | null }) {
+  if (bytes.length === 0) throw new AppError('invalid', 'The upload is empty');
+  const type = sniffImage(bytes);
+  if (!type) throw new AppError('unsupported_media_type', 'Only PNG and JPEG pictures are accepted (checked from the file contents; SVG is refused)');
+  if (jobId) await getJobRow(db, actor.shopId, jobId);
+  const id = newId();
+  const key = `${actor.shopId}/${id}`;
+  await storage.put(key, bytes);
+  try {
+    const [row] = await db
+      .insert(uploads)
+      .values({ id, shopId: actor.shopId, jobId: jobId ?? null, contentType: type, size: bytes.length, sha256: createHash('sha256').update(bytes).digest('hex'), name: name ?? null, storageKey: key, createdBy: actor.id })
+      .returning();
+    return toUpload(row!);
+  } catch (err) {
+    await storage.delete(key);
+    throw err;
+  }
+}
+
+export async function getUploadBytes({ db, storage, shopId, id }: { db: Db; storage: Storage; shopId: string; id: string }) {
+  const [row] = await db.select().from(uploads).where(and(eq(uploads.id, id), eq(uploads.shopId, shopId)));
+  if (!row) throw new AppError('not_found', `No upload ${id}`);
+  const bytes = await storage.get(row.storageKey);
+  if (!bytes) throw new AppError('not_found', `The picture ${id} is missing from storage`);
+  return { contentType: row.contentType, bytes };
+}
+
+export async function findUploads({ db, shopId, jobId }: { db: Db; shopId: string; jobId: string }) {
+  await getJobRow(db, shopId, jobId);
+  const rows = await db.select().from(uploads).where(and(eq(uploads.shopId, shopId), eq(uploads.jobId, jobId)));
+  return { items: rows.map(toUpload) };
+}
