@@ -12,5 +12,9 @@ export const getPublicJobQueryOptions = (token: string) =>
     retry: (count, err) => !(err instanceof ApiError && err.status === 404) && count < 2,
   });
 
-export const usePublicJob = (token: string, opts: { pollMs?: number } = {}) =>
-  useQuery({ ...getPublicJobQueryOptions(token), refetchInterval: opts.pollMs ?? false });
+/** `awaitingPayment`: back from the checkout, poll until the payment webhook has marked the invoice paid. */
+export const usePublicJob = (token: string, awaitingPayment = false) =>
+  useQuery({
+    ...getPublicJobQueryOptions(token),
+    refetchInterval: (q) => (awaitingPayment && q.state.data?.invoices.some((i) => i.status === 'issued') ? 2000 : false),
+  });

@@ -112,9 +112,7 @@ export default function CustomerPage() {
   const { token = '' } = useParams();
   const [search] = useSearchParams();
   const returning = search.has('paid');
-  const first = usePublicJob(token);
-  const waitingForPayment = returning && !!first.data?.invoices.some((i) => i.status === 'issued');
-  const job = usePublicJob(token, { pollMs: waitingForPayment ? 2000 : undefined });
+  const job = usePublicJob(token, returning);
 
   if (job.isPending) return <p className="p-6">Loading…</p>;
   if (job.isError) {
