@@ -1,4 +1,4 @@
-import { lazy } from 'react';
+import { lazy, Suspense } from 'react';
 import { createBrowserRouter } from 'react-router-dom';
 import { SignInPage } from '@/features/auth/components/sign-in-page';
 import { HomePage } from '@/features/home/components/home-page';
@@ -15,9 +15,12 @@ const ReportPage = lazy(() => import('@/features/report/components/report-page')
 const BoardLibraryPage = lazy(() => import('@/features/board-library/components/board-library-page'));
 const BoardEditorPage = lazy(() => import('@/features/board-library/components/board-editor-page'));
 const ReferencesPage = lazy(() => import('@/features/references/components/references-page'));
+const CustomerPage = lazy(() => import('@/features/customer-page/components/customer-page'));
+const MailOutboxPage = lazy(() => import('@/features/mail-outbox/components/mail-outbox-page'));
 
 export const router = createBrowserRouter([
   { path: '/sign-in', element: <SignInPage /> },
+  { path: '/c/:token', element: <Suspense fallback={<p className="p-6">Loading…</p>}><CustomerPage /></Suspense> },
   {
     element: <AppLayout />,
     children: [
@@ -32,6 +35,7 @@ export const router = createBrowserRouter([
       { path: 'boards', element: <BoardLibraryPage /> },
       { path: 'boards/:id', element: <BoardEditorPage /> },
       { path: 'references', element: <ReferencesPage /> },
+      { path: 'dev/mail', element: <MailOutboxPage /> },
     ],
   },
 ]);
