@@ -1,4 +1,5 @@
 // Tasks beyond start/test: fault injection, fuzzing and the benchmarks that need the running stack.
+import { printFuzzReport, runFuzz } from './proof/fuzz';
 import { FULL, printFaultReport, runFaults, SHORT, type FaultReport } from './proof/faults';
 
 /**
@@ -18,6 +19,15 @@ async function faults(args: string[]): Promise<number> {
   return report.ok ? 0 : 1;
 }
 
+async function fuzz(args: string[]): Promise<number> {
+  const n = Number(args.find((a) => a.startsWith('--runs='))?.slice(7) ?? 4000);
+  const seedArg = args.find((a) => a.startsWith('--seed='));
+  const report = await runFuzz({ total: Number.isFinite(n) && n > 0 ? n : 4000, seed: seedArg ? Number(seedArg.slice(7)) : undefined, log: console.log });
+  printFuzzReport(report);
+  return report.ok ? 0 : 1;
+}
+
 export const tasks: Record<string, (args: string[]) => Promise<number>> = {
   faults,
+  fuzz,
 };
