@@ -23,10 +23,9 @@ export const readingUnitSchema = z.enum(['V', 'ohm']);
 export type ReadingUnit = z.infer<typeof readingUnitSchema>;
 
 /** A meter value in SI units, or "OL" (over range / open). Only finite numbers: NaN, Infinity, 1e400 are refused. */
-export const meterValueSchema = z.union([
-  z.literal('OL'),
-  z.number({ error: 'must be a number in SI units (V or ohm) or "OL"' }).refine(Number.isFinite, 'must be a finite number'),
-]);
+export const meterValueSchema = z.union([z.literal('OL'), z.number().refine(Number.isFinite)], {
+  error: 'must be a finite number in SI units (V or ohm) or "OL"',
+});
 export type MeterValue = z.infer<typeof meterValueSchema>;
 
 const netName = z.string().trim().min(1).max(100);

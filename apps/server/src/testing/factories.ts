@@ -1,8 +1,11 @@
 // Factories shared by the demo seed and the tests: one way to make a shop or a user.
-import type { Role } from '@splitscope/contract';
+import { eq } from 'drizzle-orm';
+import type { CreateJobRequest, Role } from '@splitscope/contract';
 import { hashPassword } from '../auth/password';
 import type { Db } from '../db/client';
-import { shops, users } from '../db/schema';
+import { boardModels, customers, jobs, shops, users } from '../db/schema';
+import { createBoard } from '../features/boards/service';
+import { createJob as createJobService } from '../features/jobs/service';
 import { newId } from '../lib/ids';
 
 export async function createShop(db: Db, overrides: Partial<typeof shops.$inferInsert> = {}) {
@@ -25,4 +28,45 @@ export async function createUser(
   };
   await db.insert(users).values(row).onConflictDoNothing();
   return row;
+}
+
+/** A small invented board: a 15 V rail through a 10k/10k divider, two test points. */
+export const DIVIDER_BOARD = {
+  id: 'test-divider',
+  name: 'Test divider board',
+  netlist: '* invented test board\nVS in 0 DC 15\nR1 in mid 10k\nR2 mid 0 10k\n.end\n',
+  testPoints: [
+    { id: 'TP1', net: 'in', label: '15 V rail' },
+    { id: 'TP2', net: 'mid', label: 'divider' },
+  ],
+  faultCodes: [{ code: 'T1', title: 'Rail missing (invented)', sections: [] }],
+};
+
+export async function createCustomer(db: Db, overrides: Partial<typeof customers.$inferInsert> & { shopId: string }) {
+  const row = { id: newId(), name: 'Test Customer', kind: 'contractor' as const, ...overrides };
+  await db.insert(customers).values(row).onConflictDoNothing();
+  return row;
+}
+
+/** A board model at version 1 (skipped when the id is already there). */
+export async function createBoardModel(db: Db, o: { shopId: string; createdBy: string; id?: string; document?: Record<string, unknown> }) {
+  const id = o.id ?? newId();
+  const [exists] = await db.select({ id: boardModels.id }).from(boardModels).where(eq(boardModels.id, id));
+  if (exists) return { id };
+  const document = o.document ?? { ...DIVIDER_BOARD, id: `test-divider-${id}` };
+  await createBoard({ db, actor: { id: o.createdBy, shopId: o.shopId }, document, id });
+  return { id };
+}
+
+export async function createJob(db: Db, o: { shopId: string; createdBy: string; customerId: string; boardId: string } & Partial<CreateJobRequest> & { id?: string }) {
+  if (o.id) {
+    const [exists] = await db.select({ id: jobs.id }).from(jobs).where(eq(jobs.id, o.id));
+    if (exists) return { id: o.id };
+  }
+  const job = await createJobService({
+    db,
+    actor: { id: o.createdBy, shopId: o.shopId },
+    input: { unitDescription: 'Test outdoor unit', symptom: 'outdoor fan never starts', ...o },
+  });
+  return { id: job.id };
 }
