@@ -33,7 +33,7 @@ export const createCustomerRequest = z.object({
 });
 export type CreateCustomerRequest = z.infer<typeof createCustomerRequest>;
 
-export const updateCustomerRequest = createCustomerRequest.partial();
+export const updateCustomerRequest = createCustomerRequest.partial().refine((o) => Object.keys(o).length > 0, 'nothing to change');
 export type UpdateCustomerRequest = z.infer<typeof updateCustomerRequest>;
 
 export const customerListQuery = z.object({

@@ -123,10 +123,10 @@ export async function createBoard({ db, actor, document, note, id }: { db: Db; a
 
 /** Editing stores a new version; jobs pinned to older versions keep theirs. */
 export async function updateBoard({ db, actor, id, document, note }: { db: Db; actor: Actor; id: string; document: BoardDocument; note?: string | null }) {
-  const prepared = prepareVersion(document);
   const version = await db.transaction(async (tx) => {
     const [b] = await tx.select().from(boardModels).where(and(eq(boardModels.id, id), eq(boardModels.shopId, actor.shopId))).for('update');
     if (!b) throw new AppError('not_found', `No board model ${id}`);
+    const prepared = prepareVersion(document);
     if (prepared.key !== b.key) {
       throw new AppError('invalid', `The document's id "${prepared.key}" is not this board model's ("${b.key}")`, { errors: [{ path: 'document.id', message: `must be ${b.key}` }] });
     }

@@ -1,0 +1,152 @@
+// The authorization matrix: every API route × every role × own shop / other shop, from one table. A route
+// registered on the app but missing here fails the test, so a new route cannot skip its access rules.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Role } from '@splitscope/contract';
+import { createApp } from '../src/app';
+import type { RunningServer } from '../src/server';
+import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
+import { Client, startTestServer } from './harness';
+import { apiRoutes } from './routes';
+
+const ALL: Role[] = ['admin', 'lead', 'tech', 'trainee'];
+const BENCH: Role[] = ['admin', 'lead', 'tech'];
+const REVIEWERS: Role[] = ['admin', 'lead'];
+const ADMIN: Role[] = ['admin'];
+
+/** `kind` names which row an `:id` stands for; `public` routes answer without a session. */
+type Kind = 'job' | 'customer' | 'board' | 'user' | 'upload';
+interface Entry {
+  method: string;
+  path: string;
+  roles?: Role[];
+  kind?: Kind;
+  public?: boolean;
+  /** Routes of the billing feature: its own tests hold the role rules; here the route must at least need a session. */
+  billing?: boolean;
+  /** A body that passes validation, so the shop scoping (404) is reached; default {}. */
+  body?: () => unknown;
+  /** Own-shop answers that differ from "allowed": a trainee records readings only on jobs assigned to them. */
+  own?: Partial<Record<Role, number>>;
+}
+
+const readingBody = () => ({ idempotencyKey: crypto.randomUUID(), mode: 'dcv', red: 'TP2', black: '0', power: 'on', value: 7.5, raw: '7.5' });
+
+const TABLE: Entry[] = [
+  { method: 'GET', path: '/api/health', public: true },
+  { method: 'POST', path: '/api/auth/sign-in', public: true },
+  { method: 'POST', path: '/api/auth/sign-out', public: true },
+  { method: 'GET', path: '/api/auth/session', public: true },
+  { method: 'POST', path: '/api/auth/accept-invitation', public: true },
+  { method: 'GET', path: '/api/me', roles: ALL },
+  { method: 'GET', path: '/api/users', roles: ALL },
+  { method: 'GET', path: '/api/users/invitations', roles: ADMIN },
+  { method: 'POST', path: '/api/users/invitations', roles: ADMIN },
+  { method: 'PATCH', path: '/api/users/:id', roles: ADMIN, kind: 'user', body: () => ({ role: 'trainee' }) },
+  { method: 'GET', path: '/api/customers', roles: ALL },
+  { method: 'POST', path: '/api/customers', roles: BENCH },
+  { method: 'GET', path: '/api/customers/:id', roles: ALL, kind: 'customer' },
+  { method: 'PATCH', path: '/api/customers/:id', roles: REVIEWERS, kind: 'customer', body: () => ({ notes: 'matrix' }) },
+  { method: 'GET', path: '/api/boards', roles: ALL },
+  { method: 'POST', path: '/api/boards', roles: ADMIN },
+  { method: 'GET', path: '/api/boards/:id', roles: ALL, kind: 'board' },
+  { method: 'PATCH', path: '/api/boards/:id', roles: REVIEWERS, kind: 'board', body: () => ({ document: { name: 'Matrix edit' } }) },
+  { method: 'GET', path: '/api/boards/:id/versions', roles: ALL, kind: 'board' },
+  { method: 'GET', path: '/api/fault-codes', roles: ALL },
+  { method: 'POST', path: '/api/fault-codes', roles: ADMIN },
+  { method: 'GET', path: '/api/jobs', roles: ALL },
+  { method: 'POST', path: '/api/jobs', roles: BENCH },
+  { method: 'GET', path: '/api/jobs/:id', roles: ALL, kind: 'job' },
+  { method: 'PATCH', path: '/api/jobs/:id', roles: BENCH, kind: 'job', body: () => ({ priority: 'normal' }) },
+  { method: 'GET', path: '/api/jobs/:id/readings', roles: ALL, kind: 'job' },
+  { method: 'POST', path: '/api/jobs/:id/readings', roles: ALL, kind: 'job', body: readingBody, own: { trainee: 403 } },
+  { method: 'GET', path: '/api/jobs/:id/diagnosis', roles: ALL, kind: 'job' },
+  { method: 'GET', path: '/api/jobs/:id/diagnosis-snapshots', roles: ALL, kind: 'job' },
+  { method: 'GET', path: '/api/jobs/:id/reviews', roles: ALL, kind: 'job' },
+  { method: 'POST', path: '/api/jobs/:id/reviews', roles: REVIEWERS, kind: 'job', body: () => ({ decision: 'approve' }) },
+  { method: 'GET', path: '/api/jobs/:id/repairs', roles: ALL, kind: 'job' },
+  { method: 'POST', path: '/api/jobs/:id/repairs', roles: BENCH, kind: 'job', body: () => ({ part: 'R1', action: 'cleaned' }) },
+  { method: 'POST', path: '/api/uploads', roles: ALL },
+  { method: 'GET', path: '/api/uploads/:id', roles: ALL, kind: 'upload' },
+  { method: 'GET', path: '/api/jobs/:id/uploads', roles: ALL, kind: 'job' },
+  // Billing and the customer portal.
+  { method: 'POST', path: '/api/', public: true, billing: true },
+  { method: 'GET', path: '/api/public/links/:token', public: true, billing: true },
+  { method: 'POST', path: '/api/public/links/:token/quotes/:id/approve', public: true, billing: true },
+  { method: 'POST', path: '/api/public/links/:token/quotes/:id/decline', public: true, billing: true },
+  { method: 'GET', path: '/api/public/links/:token/report.pdf', public: true, billing: true },
+  { method: 'POST', path: '/api/public/links/:token/invoices/:id/checkout', public: true, billing: true },
+  { method: 'GET', path: '/api/billing/settings', billing: true },
+  { method: 'PATCH', path: '/api/billing/settings', billing: true },
+  { method: 'GET', path: '/api/jobs/:jobId/billing', billing: true },
+  { method: 'POST', path: '/api/jobs/:jobId/notify', billing: true },
+  { method: 'POST', path: '/api/jobs/:jobId/quotes', billing: true },
+  { method: 'GET', path: '/api/quotes/:id', billing: true },
+  { method: 'PATCH', path: '/api/quotes/:id', billing: true },
+  { method: 'POST', path: '/api/quotes/:id/send', billing: true },
+  { method: 'POST', path: '/api/jobs/:jobId/invoices', billing: true },
+  { method: 'GET', path: '/api/invoices/:id', billing: true },
+  { method: 'POST', path: '/api/invoices/:id/send', billing: true },
+  { method: 'GET', path: '/api/dev/mail', billing: true },
+  { method: 'GET', path: '/api/dev/mail/:id', billing: true },
+];
+
+let server: RunningServer;
+const clients = {} as Record<Role, Client>;
+const ids = { own: {} as Record<Kind, string>, other: {} as Record<Kind, string> };
+
+beforeAll(async () => {
+  server = await startTestServer();
+  const db = server.ctx.db;
+  for (const [side, shopId, author] of [
+    ['own', 'shop-demo', 'user-tech'],
+    ['other', 'shop-other', 'user-other-tech'],
+  ] as const) {
+    const customer = await createCustomer(db, { shopId, name: 'Matrix Customer' });
+    const board = await createBoardModel(db, { shopId, createdBy: author });
+    const job = await createJob(db, { shopId, createdBy: author, customerId: customer.id, boardId: board.id });
+    const c = await new Client(server.url).signIn(side === 'own' ? 'tech@demo.test' : 'tech@other.test');
+    const png = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(16)]);
+    const up = await fetch(`${server.url}/api/uploads`, { method: 'POST', headers: { cookie: c.cookie, 'content-type': 'image/png' }, body: png });
+    const upload = ((await up.json()) as { id: string }).id;
+    ids[side] = { job: job.id, customer: customer.id, board: board.id, upload, user: side === 'own' ? 'user-trainee' : 'user-other-tech' };
+  }
+  for (const role of ALL) clients[role] = await new Client(server.url).signIn(`${role}@demo.test`);
+});
+afterAll(() => server.close());
+
+const fill = (e: Entry, side: 'own' | 'other') => e.path.replace(':id', e.kind ? ids[side][e.kind] : 'unknown-id').replace(':jobId', ids[side].job).replace(':token', 'no-such-token');
+// Empty bodies: they pass or fail the guard exactly like real ones, and never change anything.
+const call = (c: Client, e: Entry, side: 'own' | 'other') => c.request(e.method, fill(e, side), e.method === 'GET' ? undefined : (e.body?.() ?? {}));
+
+describe('authorization matrix', () => {
+  it('covers every registered API route', () => {
+    const listed = new Set(TABLE.map((e) => `${e.method} ${e.path}`));
+    const missing = apiRoutes(createApp(server.ctx))
+      .map((r) => `${r.method} ${r.path}`)
+      .filter((r) => !listed.has(r));
+    expect(missing).toEqual([]);
+  });
+
+  for (const e of TABLE) {
+    it(`${e.method} ${e.path}`, async () => {
+      const anon = await call(new Client(server.url), e, 'own');
+      if (e.public) {
+        expect(anon.status, 'answers without a session').not.toBe(401);
+        return;
+      }
+      expect(anon.status).toBe(401);
+      if (e.billing || !e.roles) return;
+      for (const role of ALL) {
+        const own = await call(clients[role], e, 'own');
+        const special = e.own?.[role];
+        if (special) expect(own.status, `${role} own shop`).toBe(special);
+        else if (e.roles.includes(role)) expect([401, 403, 404], `${role} own shop`).not.toContain(own.status);
+        else expect(own.status, `${role} own shop`).toBe(403);
+        if (e.kind) {
+          const other = await call(clients[role], e, 'other');
+          expect(other.status, `${role} other shop`).toBe(e.roles.includes(role) ? 404 : 403);
+        }
+      }
+    });
+  }
+});
