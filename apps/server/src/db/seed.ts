@@ -4,7 +4,7 @@ import { eq } from 'drizzle-orm';
 import type { Role } from '@splitscope/contract';
 import type { Db } from './client';
 import { users } from './schema';
-import { createShop, createUser } from '../testing/factories';
+import { createCustomer, createShop, createUser } from '../testing/factories';
 
 export const DEMO_PASSWORD = 'splitscope-demo';
 
@@ -19,6 +19,14 @@ export const DEMO_USERS: { id: string; shopId: string; email: string; name: stri
   { id: 'user-other-tech', shopId: OTHER_SHOP.id, email: 'tech@other.test', name: 'Dana Whitfield', role: 'tech' },
 ];
 
+/** Invented customers: contracting firms and field technicians who send boards in. */
+export const DEMO_CUSTOMERS = [
+  { id: 'customer-coastline', shopId: DEMO_SHOP.id, name: 'Marta Keel', company: 'Coastline Comfort Contractors', email: 'service@coastline.test', phone: '555-0141', kind: 'contractor' as const, notes: 'Sends boards in batches on Mondays.' },
+  { id: 'customer-northgate', shopId: DEMO_SHOP.id, name: 'Rafael Osei', company: 'Northgate Heating & Cooling', email: 'rafael@northgate.test', phone: '555-0172', kind: 'contractor' as const, notes: null },
+  { id: 'customer-jun', shopId: DEMO_SHOP.id, name: 'Jun Halvorsen', company: null, email: 'jun.h@fieldmail.test', phone: '555-0119', kind: 'field-technician' as const, notes: 'Works alone; prefers a call before a quote.' },
+  { id: 'customer-other', shopId: OTHER_SHOP.id, name: 'Ada Brennan', company: 'Ridge Air Services', email: 'ada@ridgeair.test', phone: '555-0190', kind: 'contractor' as const, notes: null },
+];
+
 /** Seeds the demo; returns how many users it created (0 on a second run). */
 export async function seedDemo(db: Db): Promise<{ created: number }> {
   await createShop(db, DEMO_SHOP);
@@ -30,5 +38,6 @@ export async function seedDemo(db: Db): Promise<{ created: number }> {
     await createUser(db, { ...u, password: DEMO_PASSWORD });
     created++;
   }
+  for (const c of DEMO_CUSTOMERS) await createCustomer(db, c);
   return { created };
 }
