@@ -8,9 +8,10 @@ export const test = base.extend<{ expectedConsoleErrors: RegExp[]; failOnConsole
   expectedConsoleErrors: [[], { option: true }],
   failOnConsoleError: [
     async ({ page, expectedConsoleErrors }, use) => {
+      const expected = ([] as RegExp[]).concat(expectedConsoleErrors);
       const errors: string[] = [];
       page.on('console', (m) => {
-        if (m.type() === 'error' && !expectedConsoleErrors.some((re) => re.test(m.text()))) errors.push(m.text());
+        if (m.type() === 'error' && !expected.some((re) => re.test(m.text()))) errors.push(m.text());
       });
       page.on('pageerror', (e) => errors.push(e.message));
       await use();

@@ -3,7 +3,8 @@ import { expect, signIn, test } from './fixtures';
 import { findJob, getJson, shot } from './helpers';
 
 test.describe('readings typed while the network is down', () => {
-  test.use({ expectedConsoleErrors: [/ERR_INTERNET_DISCONNECTED/, /Failed to fetch/] });
+  // One pattern: a two-element array whose second element is an object reads as Playwright's [value, options].
+  test.use({ expectedConsoleErrors: [/ERR_INTERNET_DISCONNECTED|Failed to fetch/] });
 
   test('are kept, listed as unsent and sent once with the same key when the network returns', async ({ page, context }) => {
     await signIn(page, 'tech@demo.test');

@@ -4,3 +4,4 @@ export * from './references';
 export * from './sections/types';
 export * from './sections/templates';
 export { MODELS, SUBCKTS, OPTO_SUBCKT, OPTO_CTR, OPTO_LED_IS, regulatorSubckt } from './sections/library';
+export * from './demo/outdoor-fan';

@@ -4,7 +4,8 @@ import { eq } from 'drizzle-orm';
 import type { Role } from '@splitscope/contract';
 import type { Db } from './client';
 import { users } from './schema';
-import { createCustomer, createShop, createUser } from '../testing/factories';
+import { OUTDOOR_FAN_BOARD } from '@splitscope/boards';
+import { createBoardModel, createCustomer, createJob, createShop, createUser } from '../testing/factories';
 
 export const DEMO_PASSWORD = 'splitscope-demo';
 
@@ -39,5 +40,17 @@ export async function seedDemo(db: Db): Promise<{ created: number }> {
     created++;
   }
   for (const c of DEMO_CUSTOMERS) await createCustomer(db, c);
+  await seedDemoBench(db);
   return { created };
+}
+
+/** The demo bench: the outdoor fan-drive board and jobs for the technician and the trainee (fixed ids). */
+async function seedDemoBench(db: Db): Promise<void> {
+  const board = await createBoardModel(db, { shopId: DEMO_SHOP.id, createdBy: 'user-admin', id: 'board-demo-ofd-220', document: OUTDOOR_FAN_BOARD });
+  await createBoardModel(db, { shopId: OTHER_SHOP.id, createdBy: 'user-other-tech', id: 'board-other-ofd-220', document: OUTDOOR_FAN_BOARD });
+  const base = { shopId: DEMO_SHOP.id, createdBy: 'user-tech', boardId: board.id, faultCode: 'F7' };
+  await createJob(db, { ...base, id: 'job-demo-fan-1', customerId: 'customer-coastline', unitDescription: 'Outdoor unit, 3.5 kW heat pump', serial: 'DEMO-0001', symptom: 'Outdoor fan never starts; compressor stops after a minute', assigneeId: 'user-tech' });
+  await createJob(db, { ...base, id: 'job-demo-fan-2', customerId: 'customer-jun', unitDescription: 'Outdoor unit, 2.5 kW', serial: 'DEMO-0002', symptom: 'Fan starts, then the unit stops with F7', assigneeId: 'user-trainee' });
+  await createJob(db, { ...base, id: 'job-demo-fan-3', customerId: 'customer-northgate', unitDescription: 'Outdoor unit, 5 kW', serial: 'DEMO-0003', symptom: 'Outdoor fan never starts', assigneeId: 'user-tech' });
+  await createJob(db, { shopId: OTHER_SHOP.id, createdBy: 'user-other-tech', boardId: 'board-other-ofd-220', customerId: 'customer-other', id: 'job-other-1', unitDescription: 'Outdoor unit', serial: 'OTHER-0001', symptom: 'Fan never starts', faultCode: 'F7' });
 }

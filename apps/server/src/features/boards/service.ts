@@ -38,6 +38,8 @@ export function prepareVersion(document: BoardDocument): { key: string; name: st
   return { key, name, expectedReadings: expectedTable(engine) };
 }
 
+const strings = (v: unknown): string[] => (Array.isArray(v) ? v.filter((s): s is string => typeof s === 'string') : []);
+
 function documentFaultCodes(document: BoardDocument): CreateFaultCodeRequest[] {
   if (!Array.isArray(document.faultCodes)) return [];
   return document.faultCodes.flatMap((f: unknown) => {
@@ -46,9 +48,10 @@ function documentFaultCodes(document: BoardDocument): CreateFaultCodeRequest[] {
     return [
       {
         code: r.code,
-        title: typeof r.title === 'string' ? r.title : r.code,
+        // The board-model schema names these `meaning` and `suspectSections`; older documents say title/sections.
+        title: typeof r.title === 'string' ? r.title : typeof r.meaning === 'string' ? r.meaning : r.code,
         description: typeof r.description === 'string' ? r.description : null,
-        sections: Array.isArray(r.sections) ? r.sections.filter((s): s is string => typeof s === 'string') : [],
+        sections: strings(r.suspectSections ?? r.sections),
       },
     ];
   });

@@ -1,6 +1,6 @@
 import type { ExpectedReadingRow, JobDetail, StoredReading } from '@splitscope/contract';
 import { BUS_CAUTIONS, busSafety, DEFAULT_SAFE_THRESHOLD } from '@splitscope/boards/references';
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
 import { Button } from '@/components/ui/button';
@@ -29,7 +29,7 @@ import {
 } from '../lib/bench-model';
 import { boardView, type BoardView } from '../lib/board-view';
 import { busFigures } from '../lib/bus-figures';
-import { parseTyped } from '@/lib/parse-reading';
+import { parseTyped, preloadReadingParser } from '@/lib/parse-reading';
 import { GuidedOrder } from './guided-order';
 import { PointList } from './point-list';
 import { RankingPanel } from './ranking-panel';
@@ -303,6 +303,7 @@ function UnsentBlock({ sender }: { sender: ReturnType<typeof useReadingSender> }
 export function BenchPage() {
   const { id = '' } = useParams();
   const job = useJob(id);
+  useEffect(() => void preloadReadingParser(), []);
   return (
     <QueryState query={job} label="the job">
       {(j) => <Bench job={j} />}
