@@ -87,6 +87,8 @@ export const readings = pgTable(
     phase: readingPhaseEnum('phase').notNull().default('diagnosis'),
     supersedes: text('supersedes'),
     verdict: jsonb('verdict'),
+    /** The bus voltage the technician measured at the safety gate before this unpowered reading, if one was asked. */
+    safetyBusVolts: doublePrecision('safety_bus_volts'),
     authorId: text('author_id')
       .notNull()
       .references(() => users.id),

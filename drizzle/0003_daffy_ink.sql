@@ -1,0 +1,1 @@
+ALTER TABLE "readings" ADD COLUMN "safety_bus_volts" double precision;
