@@ -157,6 +157,13 @@ export const billingLineInput = z.object({
 });
 export type BillingLineInput = z.input<typeof billingLineInput>;
 
+/** The lines of a quote or an invoice: one schema for both documents. */
+export const billingLinesInput = z.array(billingLineInput).min(1).max(100);
+export type BillingLinesInput = z.output<typeof billingLinesInput>;
+
+/** A line as stored and priced (quantity in hundredths); what `computeTotals` takes. */
+export type BillingLineValues = Pick<z.output<typeof billingLineInput>, 'kind' | 'description' | 'unitCents' | 'taxable'> & LineForTotals;
+
 export const billingLineSchema = z.object({
   id: idSchema,
   kind: lineKindSchema,
@@ -169,13 +176,18 @@ export const billingLineSchema = z.object({
 });
 export type BillingLine = z.infer<typeof billingLineSchema>;
 
-const documentTotals = {
+/** The fields a quote and an invoice share: money in integer cents and their priced lines. */
+const billingDocumentFields = {
+  id: idSchema,
+  jobId: idSchema,
+  number: z.string(),
   currency: z.string(),
   taxRateMilliPercent: z.number().int(),
   taxRate: z.string(),
   subtotalCents: z.number().int(),
   taxCents: z.number().int(),
   totalCents: z.number().int(),
+  lines: z.array(billingLineSchema),
 };
 
 export const quoteStatuses = ['draft', 'sent', 'approved', 'declined'] as const;
@@ -183,12 +195,8 @@ export const quoteStatusSchema = z.enum(quoteStatuses);
 export type QuoteStatus = z.infer<typeof quoteStatusSchema>;
 
 export const quoteSchema = z.object({
-  id: idSchema,
-  jobId: idSchema,
-  number: z.string(),
+  ...billingDocumentFields,
   status: quoteStatusSchema,
-  ...documentTotals,
-  lines: z.array(billingLineSchema),
   note: z.string().nullable(),
   /** the customer's answer on the customer page: recorded here, the job's own status flow is untouched */
   customerApproval: z.enum(['approved', 'declined']).nullable(),
@@ -201,7 +209,7 @@ export const quoteSchema = z.object({
 export type Quote = z.infer<typeof quoteSchema>;
 
 export const createQuoteRequest = z.object({
-  lines: z.array(billingLineInput).min(1).max(100),
+  lines: billingLinesInput,
   /** percent text; the shop's default rate when omitted */
   taxRate: taxRateText.optional(),
   note: z
@@ -224,13 +232,9 @@ export const invoiceStatusSchema = z.enum(invoiceStatuses);
 export type InvoiceStatus = z.infer<typeof invoiceStatusSchema>;
 
 export const invoiceSchema = z.object({
-  id: idSchema,
-  jobId: idSchema,
+  ...billingDocumentFields,
   quoteId: idSchema.nullable(),
-  number: z.string(),
   status: invoiceStatusSchema,
-  ...documentTotals,
-  lines: z.array(billingLineSchema),
   issuedAt: isoDateTime,
   sentAt: isoDateTime.nullable(),
   paidAt: isoDateTime.nullable(),
@@ -241,7 +245,7 @@ export type Invoice = z.infer<typeof invoiceSchema>;
 /** Issue an invoice: from the approved quote's lines when `lines` is omitted. */
 export const createInvoiceRequest = z.object({
   quoteId: idSchema.optional(),
-  lines: z.array(billingLineInput).min(1).max(100).optional(),
+  lines: billingLinesInput.optional(),
   taxRate: taxRateText.optional(),
   /** e-mail it to the customer with the customer-page link at once (default) */
   send: z.boolean().default(true),

@@ -1,28 +1,12 @@
-// Quote and invoice rows to the contract shapes, and lines with their amounts computed by the contract's
-// money functions (the one place the arithmetic lives).
+// Quote and invoice rows to the contract shapes, and the reads of a job's documents. Pricing and numbering
+// live in billing-document.ts.
 import { asc, eq, inArray } from 'drizzle-orm';
-import { computeTotals, formatQuantity, formatTaxRate, type BillingLine, type Invoice, type Quote } from '@splitscope/contract';
+import { formatQuantity, formatTaxRate, type BillingLine, type Invoice, type Quote } from '@splitscope/contract';
 import type { Db } from '../../db/client';
 import { invoiceLines, invoices, quoteLines, quotes } from '../../db/schema';
 import { iso, isoOrNull } from '../../lib/dates';
-import { newId } from '../../lib/ids';
 
-export interface LineValues {
-  kind: 'part' | 'labour' | 'other';
-  description: string;
-  quantityHundredths: number;
-  unitCents: number;
-  taxable: boolean;
-}
-
-/** Parsed request lines (quantity already in hundredths) with amounts and the document totals. */
-export function priceLines(lines: readonly { kind: LineValues['kind']; description: string; quantity: number; unitCents: number; taxable: boolean }[], rate: number) {
-  const values: LineValues[] = lines.map((l) => ({ kind: l.kind, description: l.description, quantityHundredths: l.quantity, unitCents: l.unitCents, taxable: l.taxable }));
-  const totals = computeTotals(values, rate);
-  return { lines: values.map((l, i) => ({ ...l, position: i, amountCents: totals.lines[i]!, id: newId() })), totals };
-}
-
-type LineRow = typeof quoteLines.$inferSelect | typeof invoiceLines.$inferSelect;
+export type LineRow = typeof quoteLines.$inferSelect | typeof invoiceLines.$inferSelect;
 
 const toLine = (l: LineRow): BillingLine => ({
   id: l.id,
@@ -35,18 +19,25 @@ const toLine = (l: LineRow): BillingLine => ({
   taxable: l.taxable,
 });
 
-export const toQuote = (q: typeof quotes.$inferSelect, lines: LineRow[]): Quote => ({
-  id: q.id,
-  jobId: q.jobId,
-  number: q.number,
-  status: q.status,
-  currency: q.currency,
-  taxRateMilliPercent: q.taxRateMilliPercent,
-  taxRate: formatTaxRate(q.taxRateMilliPercent),
-  subtotalCents: q.subtotalCents,
-  taxCents: q.taxCents,
-  totalCents: q.totalCents,
+type HeadRow = Pick<typeof quotes.$inferSelect, 'id' | 'jobId' | 'number' | 'currency' | 'taxRateMilliPercent' | 'subtotalCents' | 'taxCents' | 'totalCents'>;
+
+/** The fields both documents share (the contract's billingDocumentFields). */
+const documentFields = (d: HeadRow, lines: LineRow[]) => ({
+  id: d.id,
+  jobId: d.jobId,
+  number: d.number,
+  currency: d.currency,
+  taxRateMilliPercent: d.taxRateMilliPercent,
+  taxRate: formatTaxRate(d.taxRateMilliPercent),
+  subtotalCents: d.subtotalCents,
+  taxCents: d.taxCents,
+  totalCents: d.totalCents,
   lines: lines.map(toLine),
+});
+
+export const toQuote = (q: typeof quotes.$inferSelect, lines: LineRow[]): Quote => ({
+  ...documentFields(q, lines),
+  status: q.status,
   note: q.note,
   customerApproval: q.customerApproval,
   decidedAt: isoOrNull(q.decidedAt),
@@ -57,18 +48,9 @@ export const toQuote = (q: typeof quotes.$inferSelect, lines: LineRow[]): Quote 
 });
 
 export const toInvoice = (i: typeof invoices.$inferSelect, lines: LineRow[]): Invoice => ({
-  id: i.id,
-  jobId: i.jobId,
+  ...documentFields(i, lines),
   quoteId: i.quoteId,
-  number: i.number,
   status: i.status,
-  currency: i.currency,
-  taxRateMilliPercent: i.taxRateMilliPercent,
-  taxRate: formatTaxRate(i.taxRateMilliPercent),
-  subtotalCents: i.subtotalCents,
-  taxCents: i.taxCents,
-  totalCents: i.totalCents,
-  lines: lines.map(toLine),
   issuedAt: iso(i.issuedAt),
   sentAt: isoOrNull(i.sentAt),
   paidAt: isoOrNull(i.paidAt),

@@ -1,19 +1,20 @@
 import { and, asc, desc, eq } from 'drizzle-orm';
 import type Stripe from 'stripe';
-import type { createInvoiceRequest, Invoice } from '@splitscope/contract';
+import type { BillingLineValues, createInvoiceRequest, Invoice } from '@splitscope/contract';
 import type { z } from 'zod';
 import type { Actor } from '../../auth/guards';
 import type { Config } from '../../config';
 import type { Db } from '../../db/client';
-import { auditLog, invoiceLines, invoices, paymentEvents, payments, quoteLines, quotes } from '../../db/schema';
+import { invoiceLines, invoices, paymentEvents, payments, quoteLines, quotes } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
-import { priceLines, toInvoice } from '../billing/documents';
-import { getBillingJob, jobSummary, recipientOf } from '../billing/jobs';
+import { auditBilling, linesFromInput, linesFromRows, mailDocument, openDocument } from '../billing/billing-document';
+import { toInvoice } from '../billing/documents';
+import { getBillingJob, jobSummary } from '../billing/jobs';
 import { createCustomerLink, publicBase } from '../billing/links';
 import { paymentsFor } from '../billing/payments';
 import { loadRepairReport, renderReportPdf, reportAvailable } from '../billing/report';
-import { getSettingsRow, takeNumber } from '../billing/settings';
+import { getSettingsRow } from '../billing/settings';
 import { invoiceMail, paidMail } from '../mail/templates';
 import { sendMail } from '../mail/transport';
 
@@ -54,10 +55,10 @@ export async function createInvoice({
   if (open) throw new AppError('conflict', `Job ${job.number} already has the open invoice ${open.number}`);
 
   let quoteId: string | null = null;
-  let source: { kind: 'part' | 'labour' | 'other'; description: string; quantity: number; unitCents: number; taxable: boolean }[];
+  let source: BillingLineValues[];
   let quoteRate: number | null = null;
   if (input.lines) {
-    source = input.lines;
+    source = linesFromInput(input.lines);
   } else {
     const where = input.quoteId
       ? and(eq(quotes.id, input.quoteId), eq(quotes.jobId, jobId), eq(quotes.shopId, actor.shopId))
@@ -68,31 +69,27 @@ export async function createInvoice({
     quoteId = q.id;
     quoteRate = q.taxRateMilliPercent;
     const lines = await db.select().from(quoteLines).where(eq(quoteLines.quoteId, q.id)).orderBy(asc(quoteLines.position));
-    source = lines.map((l) => ({ kind: l.kind, description: l.description, quantity: l.quantityHundredths, unitCents: l.unitCents, taxable: l.taxable }));
+    source = linesFromRows(lines);
   }
 
   const id = newId();
   await db.transaction(async (tx) => {
     const settings = await getSettingsRow(tx, actor.shopId);
     const rate = input.taxRate ?? quoteRate ?? settings.taxRateMilliPercent;
-    const priced = priceLines(source, rate);
-    const number = await takeNumber(tx, actor.shopId, 'invoice');
+    const doc = await openDocument(tx, { shopId: actor.shopId, kind: 'invoice', lines: source, rate });
     await tx.insert(invoices).values({
       id,
       shopId: actor.shopId,
       jobId,
       customerId: job.customer.id,
       quoteId,
-      number,
+      number: doc.number,
       currency: settings.currency,
-      taxRateMilliPercent: rate,
-      subtotalCents: priced.totals.subtotalCents,
-      taxCents: priced.totals.taxCents,
-      totalCents: priced.totals.totalCents,
+      ...doc.money,
       createdBy: actor.id,
     });
-    await tx.insert(invoiceLines).values(priced.lines.map((l) => ({ ...l, invoiceId: id })));
-    await tx.insert(auditLog).values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: 'invoice.issue', subject: id, detail: number });
+    await tx.insert(invoiceLines).values(doc.lines.map((l) => ({ ...l, invoiceId: id })));
+    await auditBilling(tx, actor.shopId, actor, 'invoice.issue', id, doc.number);
   });
   if (input.send) await sendInvoice({ db, config, actor, id });
   return getInvoice({ db, shopId: actor.shopId, id });
@@ -102,27 +99,20 @@ export async function createInvoice({
 export async function sendInvoice({ db, config, actor, id, to }: { db: Db; config: Config; actor: Actor; id: string; to?: string }) {
   const { inv, lines } = await loadInvoice(db, actor.shopId, id);
   if (inv.status === 'void') throw new AppError('conflict', `Invoice ${inv.number} is void`);
-  const job = await getBillingJob(db, actor.shopId, inv.jobId);
-  const address = recipientOf(job, to);
-  const settings = await getSettingsRow(db, actor.shopId);
-  const link = await createCustomerLink({ db, config, shopId: actor.shopId, jobId: job.id, validDays: settings.linkValidDays, createdBy: actor.id });
-  const pdf = await renderReportPdf(await loadRepairReport(db, job));
-  const content = invoiceMail(jobSummary(job), toInvoice(inv, lines), link, true);
-  const sent = await sendMail({
-    config,
+  const sent = await mailDocument({
     db,
-    mail: {
-      shopId: actor.shopId,
-      jobId: job.id,
-      kind: 'invoice',
-      to: address,
-      replyTo: settings.replyTo,
-      ...content,
-      attachments: [{ filename: `repair-report-job-${job.number}.pdf`, content: pdf, contentType: 'application/pdf' }],
-    },
+    config,
+    actor,
+    jobId: inv.jobId,
+    kind: 'invoice',
+    to,
+    render: async (job, link) => ({
+      ...invoiceMail(jobSummary(job), toInvoice(inv, lines), link, true),
+      attachments: [{ filename: `repair-report-job-${job.number}.pdf`, content: await renderReportPdf(await loadRepairReport(db, job)), contentType: 'application/pdf' }],
+    }),
   });
   await db.update(invoices).set({ sentAt: sent.sentAt }).where(eq(invoices.id, id));
-  return { mailId: sent.mailId, to: address, sentAt: sent.sentAt.toISOString() };
+  return { mailId: sent.mailId, to: sent.to, sentAt: sent.sentAt.toISOString() };
 }
 
 /** Opens a hosted checkout for an unpaid invoice of the link's job; the customer is sent to its URL. */
@@ -196,7 +186,7 @@ export async function applyPaymentEvent({ db, config, event }: { db: Db; config:
       paidAt,
     });
     await tx.update(invoices).set({ status: 'paid', paidAt, paidCents: session.amount_total! }).where(eq(invoices.id, inv.id));
-    await tx.insert(auditLog).values({ id: newId(), shopId: inv.shopId, action: 'invoice.paid', subject: inv.id, detail: event.id });
+    await auditBilling(tx, inv.shopId, null, 'invoice.paid', inv.id, event.id);
     return { outcome, inv };
   });
   if (result.outcome === 'amount-mismatch') console.error(`payments: event ${event.id} does not match its invoice; not marked paid`);

@@ -4,15 +4,14 @@ import type { z } from 'zod';
 import type { Actor } from '../../auth/guards';
 import type { Config } from '../../config';
 import type { Db } from '../../db/client';
-import { auditLog, quoteLines, quotes } from '../../db/schema';
+import { quoteLines, quotes } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
-import { priceLines, toQuote } from '../billing/documents';
-import { getBillingJob, jobSummary, recipientOf } from '../billing/jobs';
-import { createCustomerLink } from '../billing/links';
-import { getSettingsRow, takeNumber } from '../billing/settings';
+import { auditBilling, linesFromInput, linesFromRows, mailDocument, openDocument, priceLines } from '../billing/billing-document';
+import { toQuote } from '../billing/documents';
+import { getBillingJob, jobSummary } from '../billing/jobs';
+import { getSettingsRow } from '../billing/settings';
 import { quoteMail } from '../mail/templates';
-import { sendMail } from '../mail/transport';
 
 async function loadQuote(db: Db, shopId: string, id: string) {
   const [q] = await db.select().from(quotes).where(and(eq(quotes.id, id), eq(quotes.shopId, shopId)));
@@ -33,24 +32,20 @@ export async function createQuote({ db, actor, jobId, input }: { db: Db; actor: 
   await db.transaction(async (tx) => {
     const settings = await getSettingsRow(tx, actor.shopId);
     const rate = input.taxRate ?? settings.taxRateMilliPercent;
-    const priced = priceLines(input.lines, rate);
-    const number = await takeNumber(tx, actor.shopId, 'quote');
+    const doc = await openDocument(tx, { shopId: actor.shopId, kind: 'quote', lines: linesFromInput(input.lines), rate });
     await tx.insert(quotes).values({
       id,
       shopId: actor.shopId,
       jobId,
       customerId: job.customer.id,
-      number,
+      number: doc.number,
       currency: settings.currency,
-      taxRateMilliPercent: rate,
-      subtotalCents: priced.totals.subtotalCents,
-      taxCents: priced.totals.taxCents,
-      totalCents: priced.totals.totalCents,
+      ...doc.money,
       note: input.note ?? null,
       createdBy: actor.id,
     });
-    await tx.insert(quoteLines).values(priced.lines.map((l) => ({ ...l, quoteId: id })));
-    await tx.insert(auditLog).values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: 'quote.create', subject: id, detail: number });
+    await tx.insert(quoteLines).values(doc.lines.map((l) => ({ ...l, quoteId: id })));
+    await auditBilling(tx, actor.shopId, actor, 'quote.create', id, doc.number);
   });
   return getQuote({ db, shopId: actor.shopId, id });
 }
@@ -63,18 +58,17 @@ export async function updateQuote({ db, actor, id, input }: { db: Db; actor: Act
     const rate = input.taxRate ?? q.taxRateMilliPercent;
     const set: Partial<typeof quotes.$inferInsert> = { taxRateMilliPercent: rate, updatedAt: new Date() };
     if (input.note !== undefined) set.note = input.note;
-    if (input.lines) {
-      const priced = priceLines(input.lines, rate);
-      await tx.delete(quoteLines).where(eq(quoteLines.quoteId, id));
-      await tx.insert(quoteLines).values(priced.lines.map((l) => ({ ...l, quoteId: id })));
-      Object.assign(set, { subtotalCents: priced.totals.subtotalCents, taxCents: priced.totals.taxCents, totalCents: priced.totals.totalCents });
-    } else if (input.taxRate !== undefined) {
-      const lines = await tx.select().from(quoteLines).where(eq(quoteLines.quoteId, id)).orderBy(asc(quoteLines.position));
-      const priced = priceLines(
-        lines.map((l) => ({ ...l, quantity: l.quantityHundredths })),
-        rate,
-      );
-      Object.assign(set, { subtotalCents: priced.totals.subtotalCents, taxCents: priced.totals.taxCents, totalCents: priced.totals.totalCents });
+    if (input.lines || input.taxRate !== undefined) {
+      // New lines, or the same lines at a new rate: either way the totals are computed again, once.
+      const values = input.lines
+        ? linesFromInput(input.lines)
+        : linesFromRows(await tx.select().from(quoteLines).where(eq(quoteLines.quoteId, id)).orderBy(asc(quoteLines.position)));
+      const priced = priceLines(values, rate);
+      if (input.lines) {
+        await tx.delete(quoteLines).where(eq(quoteLines.quoteId, id));
+        await tx.insert(quoteLines).values(priced.lines.map((l) => ({ ...l, quoteId: id })));
+      }
+      Object.assign(set, priced.money);
     }
     await tx.update(quotes).set(set).where(eq(quotes.id, id));
   });
@@ -85,17 +79,20 @@ export async function updateQuote({ db, actor, id, input }: { db: Db; actor: Act
 export async function sendQuote({ db, config, actor, id, to }: { db: Db; config: Config; actor: Actor; id: string; to?: string }) {
   const { q, lines } = await loadQuote(db, actor.shopId, id);
   if (q.status === 'approved' || q.status === 'declined') throw new AppError('conflict', `Quote ${q.number} is already ${q.status}`);
-  const job = await getBillingJob(db, actor.shopId, q.jobId);
-  const address = recipientOf(job, to);
-  const settings = await getSettingsRow(db, actor.shopId);
-  const link = await createCustomerLink({ db, config, shopId: actor.shopId, jobId: job.id, validDays: settings.linkValidDays, createdBy: actor.id });
-  const quote = toQuote(q, lines);
-  const content = quoteMail(jobSummary(job), quote, link);
-  const sent = await sendMail({ config, db, mail: { shopId: actor.shopId, jobId: job.id, kind: 'quote', to: address, replyTo: settings.replyTo, ...content } });
+  const sent = await mailDocument({
+    db,
+    config,
+    actor,
+    jobId: q.jobId,
+    kind: 'quote',
+    to,
+    render: async (job, link) => quoteMail(jobSummary(job), toQuote(q, lines), link),
+  });
+  const address = sent.to;
   await db
     .update(quotes)
     .set({ status: 'sent', sentAt: sent.sentAt, sentTo: address, updatedAt: new Date() })
     .where(eq(quotes.id, id));
-  await db.insert(auditLog).values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: 'quote.send', subject: id, detail: address });
+  await auditBilling(db, actor.shopId, actor, 'quote.send', id, address);
   return { mailId: sent.mailId, to: address, sentAt: sent.sentAt.toISOString() };
 }
