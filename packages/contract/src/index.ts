@@ -13,3 +13,4 @@ export * from './uploads';
 export * from './jobs';
 export * from './billing';
 export * from './board-model';
+export * from './safety-gate';

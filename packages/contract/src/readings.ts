@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { idSchema, isoDateTime, optionalText } from './common';
+import { safetyCheckSchema } from './safety-gate';
 
 export const meterModes = ['dcv', 'ohm', 'diode', 'continuity'] as const;
 export const meterModeSchema = z.enum(meterModes);
@@ -51,6 +52,8 @@ export const createReadingRequest = z.object({
   supersedes: idSchema.optional(),
   /** When it was read at the bench, if queued offline; defaults to the time the server stored it. */
   takenAt: isoDateTime.optional(),
+  /** The bus-discharge gate passed before an unpowered reading on a section that touches the bus. */
+  safetyCheck: safetyCheckSchema.optional(),
 });
 export type CreateReadingRequest = z.input<typeof createReadingRequest>;
 export type CreateReadingInput = z.output<typeof createReadingRequest>;
@@ -96,6 +99,8 @@ export const readingSchema = z.object({
   createdAt: isoDateTime,
   /** Null when the board model cannot predict this probe (the engine refused or did not converge). */
   verdict: readingVerdictSchema.nullable(),
+  /** The bus voltage measured at the safety gate before this unpowered reading; null when no gate was asked. */
+  safetyBusVolts: z.number().nullable(),
 });
 export type StoredReading = z.infer<typeof readingSchema>;
 

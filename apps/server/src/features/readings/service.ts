@@ -9,6 +9,7 @@ import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
 import { boardEngine, powerRefusal, resolveNet, resolveParts, unitOf, verdictFor } from '../boards/engine';
 import { getJobRow } from '../jobs/service';
+import { checkGuidedStep, checkSafetyGate } from './guided';
 
 type Row = typeof readings.$inferSelect;
 const later = alias(readings, 'later');
@@ -38,6 +39,7 @@ function toReading(r: Row, authorName: string, supersededBy: string | null): Sto
     takenAt: iso(r.takenAt),
     createdAt: iso(r.createdAt),
     verdict: (r.verdict as ReadingVerdict | null) ?? null,
+    safetyBusVolts: r.safetyBusVolts,
   };
 }
 
@@ -75,6 +77,7 @@ const invalid = (path: string, message: string) => new AppError('invalid', messa
 export async function createReading({ db, actor, jobId, input }: { db: Db; actor: Actor; jobId: string; input: CreateReadingInput }): Promise<CreateReadingResponse> {
   const job = await getJobRow(db, actor.shopId, jobId);
   if (actor.role === 'trainee' && job.assigneeId !== actor.id) throw new AppError('forbidden', 'Trainees record readings only on jobs assigned to them');
+  if (actor.role === 'trainee' && input.phase !== 'diagnosis') throw new AppError('forbidden', 'Trainees take diagnosis steps; verification readings after a repair are taken by a technician');
   const stored = await getStored(db, jobId, input.idempotencyKey);
   if (stored) return stored;
 
@@ -95,9 +98,14 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
   const lifted = resolveParts(engine, input.lifted);
   if ('unknown' in lifted) throw invalid('lifted', `Unknown part "${lifted.unknown}" on this board model`);
 
+  let corrects: { mode: string; redNet: string; blackNet: string; power: string; lifted: string[] } | undefined;
   if (input.supersedes) {
-    const [old] = await db.select({ id: readings.id }).from(readings).where(and(eq(readings.id, input.supersedes), eq(readings.jobId, jobId)));
-    if (!old) throw invalid('supersedes', `No reading ${input.supersedes} on this job to correct`);
+    [corrects] = await db.select({ mode: readings.mode, redNet: readings.redNet, blackNet: readings.blackNet, power: readings.power, lifted: readings.lifted }).from(readings).where(and(eq(readings.id, input.supersedes), eq(readings.jobId, jobId)));
+    if (!corrects) throw invalid('supersedes', `No reading ${input.supersedes} on this job to correct`);
+  }
+  if (actor.role === 'trainee') {
+    await checkGuidedStep({ db, job, input, probe: { redNet, blackNet, lifted: lifted.parts }, corrects });
+    checkSafetyGate(version!.document, input);
   }
 
   const engineValue = input.mode === 'continuity' ? (input.beep ?? input.value !== 'OL') : input.value;
@@ -127,6 +135,7 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
           phase: input.phase,
           supersedes: input.supersedes ?? null,
           verdict,
+          safetyBusVolts: input.safetyCheck?.busVolts ?? null,
           authorId: actor.id,
           takenAt: input.takenAt ? new Date(input.takenAt) : new Date(),
         })

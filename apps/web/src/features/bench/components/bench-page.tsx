@@ -95,7 +95,8 @@ function Bench({ job }: { job: JobDetail }) {
   const [target, setTarget] = useState<(Target & { pointId?: string }) | null>(null);
   const [selectedPart, setSelectedPart] = useState<string | null>(null);
   const [entryError, setEntryError] = useState<string | null>(null);
-  const [gatePassed, setGatePassed] = useState<number | null>(null);
+  // The bus voltage typed at the safety gate; null until the gate is passed for this unplugged spell.
+  const [gateVolts, setGateVolts] = useState<number | null>(null);
 
   const readings = useMemo(() => currentReadings(readingsQ.data?.items ?? []), [readingsQ.data]);
   const steps = useMemo(() => (diagnosisQ.data ? nextTests(view, diagnosisQ.data) : []), [view, diagnosisQ.data]);
@@ -103,7 +104,7 @@ function Bench({ job }: { job: JobDetail }) {
   const step = steps[0];
   const active: (Target & { pointId?: string }) | null = guided ? (step ? { ...step.target, pointId: step.pointId } : null) : target;
   const canWrite = ['received', 'diagnosing'].includes(job.status);
-  const needsGate = !!active && active.power === 'off' && touchesBus(view, active) && gatePassed === null;
+  const needsGate = !!active && active.power === 'off' && touchesBus(view, active) && gateVolts === null;
 
   const points = view.points.map((p) => ({ ...p, ...pointState(view, readings, p.net) }));
   const selectPoint = (id: string) => {
@@ -124,8 +125,9 @@ function Bench({ job }: { job: JobDetail }) {
     }
     setEntryError(null);
     const { pointId: _p, ...probe } = active;
-    if (active.power === 'on') setGatePassed(null); // the board was powered again: the next unpowered step gates again
-    await sender.save({ ...probe, value: parsed.value, raw: text.trim(), phase: 'diagnosis' });
+    if (active.power === 'on') setGateVolts(null); // the board was powered again: the next unpowered step gates again
+    const safetyCheck = active.power === 'off' && gateVolts !== null ? { safetyCheck: { unplugged: true as const, busVolts: gateVolts } } : {};
+    await sender.save({ ...probe, value: parsed.value, raw: text.trim(), phase: 'diagnosis', ...safetyCheck });
     return true;
   };
 
@@ -160,6 +162,14 @@ function Bench({ job }: { job: JobDetail }) {
     if (job.status === 'received') await update.mutateAsync({ status: 'diagnosing' });
     await update.mutateAsync({ status: 'awaiting-review', proposedPart: part });
   };
+
+  const checkBus = async (t: string): Promise<{ ok: true; volts: number } | { ok: false; message: string }> => {
+    const r = await parseTyped(t, 'dcv');
+    if (!r.ok) return { ok: false, message: r.error };
+    if (r.value === 'OL') return { ok: false, message: 'OL is not a bus voltage: set the meter to DC volts and measure again.' };
+    return { ok: true, volts: r.value };
+  };
+  const safetyGate = <SafetyGate figures={gateFigures(view, rows)} check={checkBus} onPass={setGateVolts} />;
 
   const probeNets = active ? { red: view.pointOf(active.red)?.net ?? active.red, black: view.pointOf(active.black)?.net ?? active.black } : undefined;
 
@@ -234,7 +244,7 @@ function Bench({ job }: { job: JobDetail }) {
           {guided ? (
             <GuidedOrder view={view} step={step} done={readings}>
               {diagnosisQ.isPending && <p role="status">Asking the engine for the next step…</p>}
-              {needsGate && <SafetyGate figures={gateFigures(view, rows)} check={async (t) => { const r = await parseTyped(t, 'dcv'); return !r.ok ? { ok: false, message: r.error } : r.value === 'OL' ? { ok: false, message: 'OL is not a bus voltage: set the meter to DC volts and measure again.' } : { ok: true, volts: r.value }; }} onPass={() => setGatePassed(Date.now())} />}
+              {needsGate && safetyGate}
               {!needsGate && panelTarget && canWrite && (
                 <ReadingPanel target={panelTarget} latest={latest} onSave={save} error={entryError} />
               )}
@@ -259,9 +269,7 @@ function Bench({ job }: { job: JobDetail }) {
                       ))}
                     </fieldset>
                   )}
-                  {active?.power === 'off' && touchesBus(view, active) && gatePassed === null && (
-                    <SafetyGate figures={gateFigures(view, rows)} check={async (t) => { const r = await parseTyped(t, 'dcv'); return !r.ok ? { ok: false, message: r.error } : r.value === 'OL' ? { ok: false, message: 'OL is not a bus voltage: set the meter to DC volts and measure again.' } : { ok: true, volts: r.value }; }} onPass={() => setGatePassed(Date.now())} />
-                  )}
+                  {needsGate && safetyGate}
                   {canWrite && !needsGate && <ReadingPanel target={panelTarget} latest={latest} onSave={save} error={entryError} />}
                   {!canWrite && <p className="rounded-md bg-board-light p-2 text-sm">This job is {job.status}: diagnosis readings are closed.</p>}
                 </>

@@ -2,7 +2,7 @@
  * Joins what the server sent (expected-readings table, readings with their verdicts, the engine's diagnosis) to the
  * drawable board. Only lookups and labels: verdicts, bands, probabilities and next tests are the engine's.
  */
-import type { Diagnosis, ExpectedReadingRow, StoredReading } from '@splitscope/contract';
+import { probesTouchBus, type Diagnosis, type ExpectedReadingRow, type StoredReading } from '@splitscope/contract';
 import type { MarkerState } from '@/lib/map-geometry';
 import { meterText } from '@/lib/format';
 import type { NextTestView, RankedPart } from '../components/ranking-panel';
@@ -107,10 +107,7 @@ export function nextTests(view: BoardView, d: Diagnosis): (NextTestView & { targ
   });
 }
 
-/** Whether a test is on a section that touches the bus, as the board model marks its test points and sections. */
+/** Whether a test is on a section that touches the bus: the contract's rule, which the server enforces too. */
 export function touchesBus(view: BoardView, t: Target): boolean {
-  const bus = new Set(view.sections.filter((s) => s.touchesBus).map((s) => norm(s.id)));
-  const pts = [t.red, t.black].map((p) => view.pointOf(p)).filter((p) => p !== undefined);
-  if (pts.length === 0) return true; // not a known point: be cautious and gate it
-  return pts.some((p) => p.touchesBus || (p.section ? bus.has(norm(p.section)) : false));
+  return probesTouchBus({ testPoints: view.points, sections: view.sections }, t.red, t.black);
 }
