@@ -2,7 +2,9 @@
 // registered on the app but missing here fails the test, so a new route cannot skip its access rules.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '@splitscope/contract';
+import { eq } from 'drizzle-orm';
 import { createApp } from '../src/app';
+import { jobs } from '../src/db/schema';
 import type { RunningServer } from '../src/server';
 import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
@@ -14,14 +16,14 @@ const REVIEWERS: Role[] = ['admin', 'lead'];
 const ADMIN: Role[] = ['admin'];
 
 /** `kind` names which row an `:id` stands for; `public` routes answer without a session. */
-type Kind = 'job' | 'customer' | 'board' | 'user' | 'upload';
+type Kind = 'job' | 'customer' | 'board' | 'user' | 'upload' | 'quote' | 'invoice';
 interface Entry {
   method: string;
   path: string;
   roles?: Role[];
   kind?: Kind;
   public?: boolean;
-  /** Routes of the billing feature: its own tests hold the role rules; here the route must at least need a session. */
+  /** Routes of the billing feature and the customer portal (the portal's token rules are in billing.test.ts). */
   billing?: boolean;
   /** A body that passes validation, so the shop scoping (404) is reached; default {}. */
   body?: () => unknown;
@@ -29,6 +31,7 @@ interface Entry {
   own?: Partial<Record<Role, number>>;
 }
 
+const quoteBody = () => ({ lines: [{ kind: 'labour', description: 'Matrix bench time', quantity: '1', unitCents: 5000 }] });
 const readingBody = () => ({ idempotencyKey: crypto.randomUUID(), mode: 'dcv', red: 'TP2', black: '0', power: 'on', value: 7.5, raw: '7.5' });
 
 const TABLE: Entry[] = [
@@ -75,19 +78,21 @@ const TABLE: Entry[] = [
   { method: 'POST', path: '/api/public/links/:token/quotes/:id/decline', public: true, billing: true },
   { method: 'GET', path: '/api/public/links/:token/report.pdf', public: true, billing: true },
   { method: 'POST', path: '/api/public/links/:token/invoices/:id/checkout', public: true, billing: true },
-  { method: 'GET', path: '/api/billing/settings', billing: true },
-  { method: 'PATCH', path: '/api/billing/settings', billing: true },
-  { method: 'GET', path: '/api/jobs/:jobId/billing', billing: true },
-  { method: 'POST', path: '/api/jobs/:jobId/notify', billing: true },
-  { method: 'POST', path: '/api/jobs/:jobId/quotes', billing: true },
-  { method: 'GET', path: '/api/quotes/:id', billing: true },
-  { method: 'PATCH', path: '/api/quotes/:id', billing: true },
-  { method: 'POST', path: '/api/quotes/:id/send', billing: true },
-  { method: 'POST', path: '/api/jobs/:jobId/invoices', billing: true },
-  { method: 'GET', path: '/api/invoices/:id', billing: true },
-  { method: 'POST', path: '/api/invoices/:id/send', billing: true },
-  { method: 'GET', path: '/api/dev/mail', billing: true },
-  { method: 'GET', path: '/api/dev/mail/:id', billing: true },
+  // Everyone reads billing; admin, lead and tech quote, invoice and mail the customer; only the admin
+  // changes the shop's billing settings or reads the development outbox.
+  { method: 'GET', path: '/api/billing/settings', roles: ALL, billing: true },
+  { method: 'PATCH', path: '/api/billing/settings', roles: ADMIN, billing: true },
+  { method: 'GET', path: '/api/jobs/:jobId/billing', roles: ALL, kind: 'job', billing: true },
+  { method: 'POST', path: '/api/jobs/:jobId/notify', roles: BENCH, kind: 'job', billing: true },
+  { method: 'POST', path: '/api/jobs/:jobId/quotes', roles: BENCH, kind: 'job', billing: true, body: quoteBody },
+  { method: 'GET', path: '/api/quotes/:id', roles: ALL, kind: 'quote', billing: true },
+  { method: 'PATCH', path: '/api/quotes/:id', roles: BENCH, kind: 'quote', billing: true, body: () => ({ note: 'matrix' }) },
+  { method: 'POST', path: '/api/quotes/:id/send', roles: BENCH, kind: 'quote', billing: true },
+  { method: 'POST', path: '/api/jobs/:jobId/invoices', roles: BENCH, kind: 'job', billing: true, body: () => ({ ...quoteBody(), send: false }) },
+  { method: 'GET', path: '/api/invoices/:id', roles: ALL, kind: 'invoice', billing: true },
+  { method: 'POST', path: '/api/invoices/:id/send', roles: BENCH, kind: 'invoice', billing: true },
+  { method: 'GET', path: '/api/dev/mail', roles: ADMIN, billing: true },
+  { method: 'GET', path: '/api/dev/mail/:id', roles: ADMIN, billing: true },
 ];
 
 let server: RunningServer;
@@ -108,7 +113,21 @@ beforeAll(async () => {
     const png = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(16)]);
     const up = await fetch(`${server.url}/api/uploads`, { method: 'POST', headers: { cookie: c.cookie, 'content-type': 'image/png' }, body: png });
     const upload = ((await up.json()) as { id: string }).id;
-    ids[side] = { job: job.id, customer: customer.id, board: board.id, upload, user: side === 'own' ? 'user-trainee' : 'user-other-tech' };
+    // A quote, and an invoice on a second job that is past verification (the invoice comes after it).
+    const quote = await c.post(`/api/jobs/${job.id}/quotes`, quoteBody());
+    const verified = await createJob(db, { shopId, createdBy: author, customerId: customer.id, boardId: board.id });
+    await db.update(jobs).set({ status: 'verified' }).where(eq(jobs.id, verified.id));
+    const invoice = await c.post(`/api/jobs/${verified.id}/invoices`, { ...quoteBody(), send: false });
+    expect([quote.status, invoice.status]).toEqual([201, 201]);
+    ids[side] = {
+      job: job.id,
+      customer: customer.id,
+      board: board.id,
+      upload,
+      user: side === 'own' ? 'user-trainee' : 'user-other-tech',
+      quote: String(quote.body.id),
+      invoice: String(invoice.body.id),
+    };
   }
   for (const role of ALL) clients[role] = await new Client(server.url).signIn(`${role}@demo.test`);
 });
@@ -135,7 +154,7 @@ describe('authorization matrix', () => {
         return;
       }
       expect(anon.status).toBe(401);
-      if (e.billing || !e.roles) return;
+      if (!e.roles) return;
       for (const role of ALL) {
         const own = await call(clients[role], e, 'own');
         const special = e.own?.[role];

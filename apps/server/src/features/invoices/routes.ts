@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { createInvoiceRequest, idParams, invoiceSchema, sendRequest, sentResponse } from '@splitscope/contract';
 import { z } from 'zod';
-import { actorOf, requireRole } from '../../auth/guards';
+import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';
 import { createInvoice, getInvoice, sendInvoice } from './service';
@@ -10,16 +10,16 @@ const jobParams = z.object({ jobId: z.string().trim().min(1).max(100) });
 
 export function invoiceRoutes(ctx: AppContext): Router {
   const r = Router();
-  r.post('/jobs/:jobId/invoices', requireRole('admin', 'lead'), async (req, res) => {
+  r.post('/jobs/:jobId/invoices', requireRole(...ROLES.bench), async (req, res) => {
     const { jobId } = parse(jobParams, req.params);
     const input = parse(createInvoiceRequest, req.body);
     res.status(201).json(invoiceSchema.parse(await createInvoice({ db: ctx.db, config: ctx.config, actor: actorOf(req), jobId, input })));
   });
-  r.get('/invoices/:id', requireRole('admin', 'lead', 'tech', 'trainee'), async (req, res) => {
+  r.get('/invoices/:id', requireRole(...ROLES.everyone), async (req, res) => {
     const { id } = parse(idParams, req.params);
     res.json(invoiceSchema.parse(await getInvoice({ db: ctx.db, shopId: actorOf(req).shopId, id })));
   });
-  r.post('/invoices/:id/send', requireRole('admin', 'lead'), async (req, res) => {
+  r.post('/invoices/:id/send', requireRole(...ROLES.bench), async (req, res) => {
     const { id } = parse(idParams, req.params);
     const { to } = parse(sendRequest, req.body);
     res.json(sentResponse.parse(await sendInvoice({ db: ctx.db, config: ctx.config, actor: actorOf(req), id, to })));

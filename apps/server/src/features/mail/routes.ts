@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { capturedMailListResponse, capturedMailSchema } from '@splitscope/contract';
 import { z } from 'zod';
-import { requireRole } from '../../auth/guards';
+import { requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { AppError, parse } from '../../http/errors';
 import { readCapturedMail } from '../../fakes/smtp-capture';
@@ -16,7 +16,7 @@ export function mailOutboxRoutes(ctx: AppContext): Router {
     if (!localFakesOn(ctx.config)) return next(new AppError('not_found', 'The mail outbox exists only with the local mail capture server'));
     next();
   });
-  r.get('/dev/mail', requireRole('admin'), async (_req, res) => {
+  r.get('/dev/mail', requireRole(...ROLES.admins), async (_req, res) => {
     const all = await readCapturedMail(ctx.config.MAIL_CAPTURE_DIR);
     res.json(
       capturedMailListResponse.parse({
@@ -31,7 +31,7 @@ export function mailOutboxRoutes(ctx: AppContext): Router {
       }),
     );
   });
-  r.get('/dev/mail/:id', requireRole('admin'), async (req, res) => {
+  r.get('/dev/mail/:id', requireRole(...ROLES.admins), async (req, res) => {
     const { id } = parse(idParams, req.params);
     const m = (await readCapturedMail(ctx.config.MAIL_CAPTURE_DIR)).find((x) => x.id === id);
     if (!m) throw new AppError('not_found', `No captured message ${id}`);
