@@ -3,7 +3,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import { OUTDOOR_FAN_BOARD } from '@splitscope/boards';
-import type { Diagnosis, ExpectedReadingRow } from '@splitscope/contract';
+import type { Diagnosis, ExpectedReadingRow, StoredReading } from '@splitscope/contract';
 import type { RunningServer } from '../src/server';
 import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
@@ -20,12 +20,12 @@ beforeAll(async () => {
   const board = await createBoardModel(db, { shopId: 'shop-demo', createdBy: 'user-admin', document: { ...OUTDOOR_FAN_BOARD, id: `guided-${randomUUID()}` } });
   jobId = (await createJob(db, { shopId: 'shop-demo', createdBy: 'user-tech', customerId: customer.id, boardId: board.id, assigneeId: 'user-trainee' })).id;
   trainee = await new Client(server.url).signIn('trainee@demo.test');
-  expected = (await trainee.get(`/api/jobs/${jobId}`)).body.board.expectedReadings;
+  expected = ((await trainee.get(`/api/jobs/${jobId}`)).body as unknown as { board: { expectedReadings: ExpectedReadingRow[] } }).board.expectedReadings;
 }, 120_000);
 afterAll(() => server.close());
 
 type Step = Diagnosis['nextTests'][number];
-const next = async (): Promise<Step> => ((await trainee.get(`/api/jobs/${jobId}/diagnosis`)).body as Diagnosis).nextTests[0]!;
+const next = async (): Promise<Step> => ((await trainee.get(`/api/jobs/${jobId}/diagnosis`)).body as unknown as Diagnosis).nextTests[0]!;
 const netOf = (p: string) => (OUTDOOR_FAN_BOARD.testPoints.find((t) => t.id.toLowerCase() === p.toLowerCase())?.net ?? p).toLowerCase();
 const healthy = (s: Step) => {
   const row = expected.find((r) => r.mode === s.mode && r.power === s.power && netOf(r.red) === netOf(s.red) && netOf(r.black) === netOf(s.black) && [...r.lifted].sort().join() === [...s.lifted].sort().join());
@@ -50,7 +50,7 @@ describe('guided order for trainees', () => {
     for (let i = 0; i < 12 && step.power === 'on'; i++) {
       const r = await post(step);
       expect(r.status, JSON.stringify(r.body)).toBe(201);
-      firstId ??= r.body.id;
+      firstId ??= r.body.id as string;
       step = await next();
     }
     // (the engine may well start with an unpowered step: a resistance reading can split more candidates)
@@ -67,7 +67,8 @@ describe('guided order for trainees', () => {
 
     // A typo fixed on a step already taken is a correction, not skipping ahead; a "correction" that changes the probes is not.
     firstId ??= ok.body.id as string;
-    const first = (await trainee.get(`/api/jobs/${jobId}/readings`)).body.items.find((x: { id: string }) => x.id === firstId);
+    const items = (await trainee.get(`/api/jobs/${jobId}/readings`)).body.items as StoredReading[];
+    const first = items.find((x) => x.id === firstId)!;
     const gate = first.power === 'off' ? { safetyCheck: { unplugged: true, busVolts: 1.2 } } : {};
     const fix = await trainee.post(`/api/jobs/${jobId}/readings`, { idempotencyKey: randomUUID(), mode: first.mode, red: first.red, black: first.black, power: first.power, lifted: first.lifted, value: first.value, raw: 'retyped', supersedes: firstId, ...gate });
     expect(fix.status, JSON.stringify(fix.body)).toBe(201);

@@ -6,6 +6,7 @@ import type { Db } from './client';
 import { users } from './schema';
 import { OUTDOOR_FAN_BOARD } from '@splitscope/boards';
 import { createBoardModel, createCustomer, createJob, createShop, createUser } from '../testing/factories';
+import { seedReviewJob } from './seed-review';
 
 export const DEMO_PASSWORD = 'splitscope-demo';
 
@@ -41,6 +42,7 @@ export async function seedDemo(db: Db): Promise<{ created: number }> {
   }
   for (const c of DEMO_CUSTOMERS) await createCustomer(db, c);
   await seedDemoBench(db);
+  await seedReviewJob(db);
   return { created };
 }
 
