@@ -139,24 +139,39 @@ export function minimumDegreeOrder(n: number, adj: Set<number>[], after?: (reado
 }
 
 /**
- * Symbolic structure for sparse LU with diagonal pivots in a fixed (fill-reducing) order: for each pivot k the
- * rows below it and the columns right of it that are structurally non-zero after fill-in.
+ * Sparse LU "compiled" for one structure: diagonal pivots in a fixed (fill-reducing) order over a compressed value
+ * array. Every entry of the filled pattern has a position; the elimination is stored as lists of positions, so a
+ * factorisation is a run over integer arrays with no searching (the approach of SPICE's sparse solvers, which
+ * reuse the pivot order found once; Kundert, "Sparse Matrix Techniques", in Circuit Analysis, Simulation and
+ * Design, 1986). Position `nnz` is a spare slot that stamps into the reference row or column write to.
  */
-export interface SparsePattern {
+export interface LuProgram {
   n: number;
-  stride: number;
-  rowStart: Int32Array;
-  rows: Int32Array;
-  colStart: Int32Array;
-  cols: Int32Array;
-  /** Flat indices and columns of every structural entry (for column scales). */
-  nzIndex: Int32Array;
-  nzCol: Int32Array;
+  nnz: number;
+  /** Position of the diagonal entry of pivot k. */
+  diag: Int32Array;
+  /** Below pivot k: rows lRow[lStart[k] .. lStart[k+1]) with the positions lPos of (row, k). */
+  lStart: Int32Array;
+  lRow: Int32Array;
+  lPos: Int32Array;
+  /** Right of pivot k: columns uCol[uStart[k] .. uStart[k+1]) with the positions uPos of (k, col). */
+  uStart: Int32Array;
+  uCol: Int32Array;
+  uPos: Int32Array;
+  /** For pivot k, row after row of L(k), the positions of (row, col) for every col of U(k). */
+  target: Int32Array;
+  /** Row and column of every position (dense fall-back, column scales). */
+  posRow: Int32Array;
+  posCol: Int32Array;
+  /** Scratch: largest magnitude per column. */
   colScale: Float64Array;
 }
 
-/** Builds the fill-in pattern from a structural pattern `nz` (n×n, row-major, 1 = non-zero). */
-export function sparsePattern(n: number, stride: number, nz: Uint8Array): SparsePattern {
+/**
+ * Builds the program from a structural pattern `nz` (n×n, row-major, 1 = non-zero; diagonals are added).
+ * Returns it with `posOf` (n×n: position of (i, j), -1 where the filled pattern is zero).
+ */
+export function luProgram(n: number, nz: Uint8Array): { program: LuProgram; posOf: Int32Array } {
   const p = nz.slice();
   for (let i = 0; i < n; i++) p[i * n + i] = 1;
   const rowsL: number[][] = [];
@@ -170,100 +185,129 @@ export function sparsePattern(n: number, stride: number, nz: Uint8Array): Sparse
     rowsL.push(r);
     colsL.push(c);
   }
-  const flat = (ls: number[][]) => {
-    const start = new Int32Array(n + 1);
-    for (let k = 0; k < n; k++) start[k + 1] = (start[k] as number) + (ls[k] as number[]).length;
-    const out = new Int32Array(start[n] as number);
-    ls.forEach((l, k) => out.set(l, start[k] as number));
-    return { start, out };
-  };
-  const r = flat(rowsL);
-  const c = flat(colsL);
-  const idx: number[] = [];
-  const col: number[] = [];
+  const posOf = new Int32Array(n * n).fill(-1);
+  const posRow: number[] = [];
+  const posCol: number[] = [];
   for (let i = 0; i < n; i++) {
     for (let j = 0; j < n; j++) {
-      if (p[i * n + j]) {
-        idx.push(i * stride + j);
-        col.push(j);
-      }
+      if (!p[i * n + j]) continue;
+      posOf[i * n + j] = posRow.length;
+      posRow.push(i);
+      posCol.push(j);
     }
   }
-  return {
+  const at = (i: number, j: number) => posOf[i * n + j] as number;
+  const lStart = new Int32Array(n + 1);
+  const uStart = new Int32Array(n + 1);
+  const lRow: number[] = [];
+  const lPos: number[] = [];
+  const uCol: number[] = [];
+  const uPos: number[] = [];
+  const target: number[] = [];
+  const diag = new Int32Array(n);
+  for (let k = 0; k < n; k++) {
+    diag[k] = at(k, k);
+    const r = rowsL[k] as number[];
+    const c = colsL[k] as number[];
+    for (const i of r) {
+      lRow.push(i);
+      lPos.push(at(i, k));
+      for (const j of c) target.push(at(i, j));
+    }
+    for (const j of c) {
+      uCol.push(j);
+      uPos.push(at(k, j));
+    }
+    lStart[k + 1] = lRow.length;
+    uStart[k + 1] = uCol.length;
+  }
+  const program: LuProgram = {
     n,
-    stride,
-    rowStart: r.start,
-    rows: r.out,
-    colStart: c.start,
-    cols: c.out,
-    nzIndex: Int32Array.from(idx),
-    nzCol: Int32Array.from(col),
+    nnz: posRow.length,
+    diag,
+    lStart,
+    lRow: Int32Array.from(lRow),
+    lPos: Int32Array.from(lPos),
+    uStart,
+    uCol: Int32Array.from(uCol),
+    uPos: Int32Array.from(uPos),
+    target: Int32Array.from(target),
+    posRow: Int32Array.from(posRow),
+    posCol: Int32Array.from(posCol),
     colScale: new Float64Array(n),
   };
+  return { program, posOf };
 }
 
 /** Relative pivot threshold of the sparse path; a weaker diagonal sends the factorisation to the dense path. */
 const SPARSE_PIVOT_THRESHOLD = 1e-6;
 
 /**
- * Sparse LU in place with diagonal pivots along the pattern. Returns false (matrix partly modified) when a
- * diagonal pivot is too small relative to its column; the caller then re-assembles and uses luFactor.
+ * Factors the compressed values `v` in place along the program. Returns false (v partly modified) when a diagonal
+ * pivot is too small relative to its column; the caller then factors a copy densely with luFactor.
  */
-export function luSparseFactor(a: Float64Array, sp: SparsePattern): boolean {
-  const { n, stride: s, rowStart, rows, colStart, cols, nzIndex, nzCol, colScale } = sp;
+export function luProgramFactor(v: Float64Array, lp: LuProgram): boolean {
+  const { n, nnz, diag, lStart, lPos, uStart, uPos, target, posCol, colScale } = lp;
   colScale.fill(0);
-  for (let t = 0; t < nzIndex.length; t++) {
-    const c = nzCol[t] as number;
-    const v = Math.abs(a[nzIndex[t] as number] as number);
-    if (v > (colScale[c] as number)) colScale[c] = v;
+  for (let t = 0; t < nnz; t++) {
+    const c = posCol[t] as number;
+    const a = Math.abs(v[t] as number);
+    if (a > (colScale[c] as number)) colScale[c] = a;
   }
+  let tp = 0;
   for (let k = 0; k < n; k++) {
-    const rk = k * s;
-    const piv = a[rk + k] as number;
+    const piv = v[diag[k] as number] as number;
     const ap = Math.abs(piv);
     if (!(ap > 1e-14 * (colScale[k] as number))) return false;
-    const r0 = rowStart[k] as number;
-    const r1 = rowStart[k + 1] as number;
-    for (let t = r0; t < r1; t++) if (Math.abs(a[(rows[t] as number) * s + k] as number) * SPARSE_PIVOT_THRESHOLD > ap) return false;
+    const r0 = lStart[k] as number;
+    const r1 = lStart[k + 1] as number;
+    for (let t = r0; t < r1; t++) if (Math.abs(v[lPos[t] as number] as number) * SPARSE_PIVOT_THRESHOLD > ap) return false;
     const inv = 1 / piv;
-    const c0 = colStart[k] as number;
-    const c1 = colStart[k + 1] as number;
+    const c0 = uStart[k] as number;
+    const nc = (uStart[k + 1] as number) - c0;
     for (let t = r0; t < r1; t++) {
-      const ri = (rows[t] as number) * s;
-      const f = a[ri + k] as number;
-      if (f === 0) continue;
-      const m = f * inv;
-      a[ri + k] = m;
-      for (let u = c0; u < c1; u++) {
-        const j = cols[u] as number;
-        a[ri + j] = (a[ri + j] as number) - m * (a[rk + j] as number);
+      const li = lPos[t] as number;
+      const f = v[li] as number;
+      if (f === 0) {
+        tp += nc;
+        continue;
       }
+      const m = f * inv;
+      v[li] = m;
+      for (let u = 0; u < nc; u++) {
+        const ti = target[tp + u] as number;
+        v[ti] = (v[ti] as number) - m * (v[uPos[c0 + u] as number] as number);
+      }
+      tp += nc;
     }
   }
   return true;
 }
 
-/** Solves after luSparseFactor: x = A⁻¹ b (x may not alias b). */
-export function luSparseSolve(a: Float64Array, sp: SparsePattern, b: Float64Array, x: Float64Array): void {
-  const { n, stride: s, rowStart, rows, colStart, cols } = sp;
+/** Solves after luProgramFactor: x = A⁻¹ b for the first n entries (x may not alias b). */
+export function luProgramSolve(v: Float64Array, lp: LuProgram, b: Float64Array, x: Float64Array): void {
+  const { n, diag, lStart, lRow, lPos, uStart, uCol, uPos } = lp;
   for (let i = 0; i < n; i++) x[i] = b[i] as number;
   for (let k = 0; k < n; k++) {
     const yk = x[k] as number;
     if (yk === 0) continue;
-    const r1 = rowStart[k + 1] as number;
-    for (let t = rowStart[k] as number; t < r1; t++) {
-      const i = rows[t] as number;
-      x[i] = (x[i] as number) - (a[i * s + k] as number) * yk;
+    const r1 = lStart[k + 1] as number;
+    for (let t = lStart[k] as number; t < r1; t++) {
+      const i = lRow[t] as number;
+      x[i] = (x[i] as number) - (v[lPos[t] as number] as number) * yk;
     }
   }
   for (let k = n - 1; k >= 0; k--) {
-    const rk = k * s;
     let sum = x[k] as number;
-    const c1 = colStart[k + 1] as number;
-    for (let u = colStart[k] as number; u < c1; u++) {
-      const j = cols[u] as number;
-      sum -= (a[rk + j] as number) * (x[j] as number);
-    }
-    x[k] = sum / (a[rk + k] as number);
+    const c1 = uStart[k + 1] as number;
+    for (let u = uStart[k] as number; u < c1; u++) sum -= (v[uPos[u] as number] as number) * (x[uCol[u] as number] as number);
+    x[k] = sum / (v[diag[k] as number] as number);
   }
+}
+
+/** Scatters compressed values into a dense n×n row-major matrix (for the pivoting fall-back and the benchmark). */
+export function luProgramToDense(v: Float64Array, lp: LuProgram, out: Float64Array): void {
+  const { n, nnz, posRow, posCol } = lp;
+  out.fill(0);
+  for (let t = 0; t < nnz; t++) out[(posRow[t] as number) * n + (posCol[t] as number)] = v[t] as number;
 }

@@ -1,0 +1,530 @@
+/**
+ * Compiles a circuit's structure into a reusable MNA system. Everything that depends only on the structure (the
+ * node and branch numbering, the fill-reducing order, the sparse LU program, the matrix position of every stamp)
+ * is computed once per structure and cached; a solve then only writes values into preallocated arrays. The
+ * diagnosis engine solves the same board in a handful of states and fault variants many times, and a first reading
+ * on a board compiles once for all the probes that follow.
+ */
+import type { Circuit, Element } from './circuit';
+import { REFERENCE } from './circuit';
+import { add, breakdownVoltage, criticalVoltage, GISLAND, VT } from './devices';
+import { luProgram, minimumDegreeOrder, type LuProgram, type LuWorkspace } from './lu';
+import { nodesWithoutDcPath } from './topology';
+
+/** Values and scratch of one solve; allocated once per topology (solving is synchronous, so it is reused). */
+export interface Work {
+  /** Linear stamps (compressed, position nnz is the spare slot) and the source vector. */
+  base: Float64Array;
+  rhs0: Float64Array;
+  /** Assembled Jacobian of the current iteration, and the copy that is factored in place. */
+  asm: Float64Array;
+  fac: Float64Array;
+  /** Right-hand side, iterate and next iterate; index n is the reference (always 0). */
+  b: Float64Array;
+  x: Float64Array;
+  xn: Float64Array;
+  /** Dense pivoting fall-back, allocated the first time a sparse pivot is too weak. */
+  dense?: { a: Float64Array; ws: LuWorkspace };
+  denseFallbacks: number;
+  /** Diode values (IS·area, N·VT, critical voltage, adjusted BV) and junction state. */
+  dIs: Float64Array;
+  dVte: Float64Array;
+  dVcrit: Float64Array;
+  dXbv: Float64Array;
+  dVold: Float64Array;
+  /** BJT values (polarity, IS·area, BF, BR, NF·VT, NR·VT, critical voltage) and junction state. */
+  qPol: Float64Array;
+  qIs: Float64Array;
+  qBf: Float64Array;
+  qBr: Float64Array;
+  qVtf: Float64Array;
+  qVtr: Float64Array;
+  qVcrit: Float64Array;
+  qVbe: Float64Array;
+  qVbc: Float64Array;
+}
+
+export interface Topology {
+  /** Unknowns: node voltages then branch currents, numbered in elimination order ("solution index"). */
+  n: number;
+  nodeCount: number;
+  nodeNames: string[];
+  branchNames: string[];
+  /** Solution index of node i / branch i of the name lists above. */
+  nodeX: Int32Array;
+  branchX: Int32Array;
+  nodeIndex: Map<string, number>;
+  /** Lower-case flat name of a V, L, E or H element → solution index of its branch current. */
+  branchOf: Map<string, number>;
+  /** isNode[i]: unknown i is a node voltage, not a branch current. */
+  isNode: Uint8Array;
+  /** Per solution index: a name for messages about a singular matrix. */
+  describe: string[];
+  lu: LuProgram;
+  /** Per element: where its stamp slots start in `slots` (positions, right-hand-side rows; layout by kind). */
+  slotStart: Int32Array;
+  slots: Int32Array;
+  /** Per element: solution indices of its nodes, 4 per element (n = reference). */
+  xOf: Int32Array;
+  /** Diagonal positions of island nodes (GISLAND) and of every node (gmin stepping's shunt). */
+  islandPos: Int32Array;
+  shuntPos: Int32Array;
+  /** Diodes: element index, 4 positions (aa, kk, ak, ka), 2 rows (a, k), 2 solution indices (a, k). */
+  dEl: Int32Array;
+  dPos: Int32Array;
+  dRow: Int32Array;
+  dX: Int32Array;
+  /** BJTs: element index, 9 positions (rows c, b, e × columns b, e, c), 3 rows and 3 solution indices (c, b, e). */
+  qEl: Int32Array;
+  qPos: Int32Array;
+  qRow: Int32Array;
+  qX: Int32Array;
+  work: Work;
+}
+
+/**
+ * The structure of a circuit as a string: element kinds, nodes, and the names that define branches, internal nodes
+ * and controls. Values are left out: they are stamped on every solve.
+ */
+export function structureKey(elements: readonly Element[], extraNodes: readonly string[]): string {
+  let k = extraNodes.join(' ');
+  for (const e of elements) {
+    k += '\n' + e.kind;
+    for (const nd of e.nodes) k += ' ' + nd;
+    switch (e.kind) {
+      case 'V':
+      case 'L':
+      case 'E':
+        k += ' =' + e.name;
+        break;
+      case 'H':
+        k += ' =' + e.name + ' >' + e.control;
+        break;
+      case 'F':
+        k += ' >' + e.control;
+        break;
+      case 'D':
+        if (e.model.rs > 0) k += ' =' + e.name;
+        break;
+      case 'Q':
+        k += ` =${e.name} ${e.model.rc > 0 ? 'c' : ''}${e.model.rb > 0 ? 'b' : ''}${e.model.re > 0 ? 'e' : ''}`;
+        break;
+      default:
+        break;
+    }
+  }
+  return k;
+}
+
+const cache = new Map<string, Topology>();
+/** Enough for every state and fault variant of a few boards; the oldest entry is dropped beyond it. */
+export const TOPOLOGY_CACHE_SIZE = 256;
+
+/** Empties the topology cache (the benchmark uses it to time a first solve of a structure). */
+export function clearTopologyCache(): void {
+  cache.clear();
+}
+
+/** The compiled system for the circuit's structure, from the cache or compiled now (throws on a bad control). */
+export function topologyOf(circuit: Circuit, extraNodes: readonly string[]): Topology {
+  const key = structureKey(circuit.elements, extraNodes);
+  const hit = cache.get(key);
+  if (hit) {
+    cache.delete(key);
+    cache.set(key, hit);
+    return hit;
+  }
+  const top = compileTopology(circuit.elements, extraNodes);
+  cache.set(key, top);
+  if (cache.size > TOPOLOGY_CACHE_SIZE) cache.delete(cache.keys().next().value as string);
+  return top;
+}
+
+/** Slot kinds recorded before the numbering is final. */
+const MAT = 0;
+const ROW = 1;
+
+function compileTopology(elements: readonly Element[], extraNodes: readonly string[]): Topology {
+  const nodeIndex = new Map<string, number>();
+  const nodeNames: string[] = [];
+  const addNode = (name: string): number => {
+    if (name === REFERENCE) return -1;
+    let i = nodeIndex.get(name);
+    if (i === undefined) {
+      i = nodeNames.length;
+      nodeIndex.set(name, i);
+      nodeNames.push(name);
+    }
+    return i;
+  };
+  for (const e of elements) for (const nd of e.nodes) addNode(nd);
+  for (const nd of extraNodes) addNode(nd);
+  const internal: number[][] = elements.map((e) => {
+    const low = e.name.toLowerCase();
+    if (e.kind === 'D') return [e.model.rs > 0 ? addNode(`${low}#int`) : -2];
+    if (e.kind !== 'Q') return [];
+    const m = e.model;
+    return [m.rc > 0 ? addNode(`${low}#c`) : -2, m.rb > 0 ? addNode(`${low}#b`) : -2, m.re > 0 ? addNode(`${low}#e`) : -2];
+  });
+  const nodeCount = nodeNames.length;
+  const branchNames: string[] = [];
+  const branchLogical = new Map<string, number>();
+  for (const e of elements) {
+    if (e.kind === 'V' || e.kind === 'L' || e.kind === 'E' || e.kind === 'H') {
+      branchLogical.set(e.name.toLowerCase(), nodeCount + branchNames.length);
+      branchNames.push(e.name.toLowerCase());
+    }
+  }
+  const n = nodeCount + branchNames.length;
+  const node = (name: string) => nodeIndex.get(name) ?? -1;
+
+  // Slots in logical numbering (equation = unknown index: KCL of node i, equation of branch k).
+  const code: number[] = [];
+  const sa: number[] = [];
+  const sb: number[] = [];
+  const mat = (eq: number, unk: number) => {
+    code.push(MAT);
+    sa.push(eq);
+    sb.push(unk);
+  };
+  const row = (eq: number) => {
+    code.push(ROW);
+    sa.push(eq);
+    sb.push(-1);
+  };
+  const cond = (p: number, q: number) => {
+    mat(p, p);
+    mat(q, q);
+    mat(p, q);
+    mat(q, p);
+  };
+  const branch = (k: number, p: number, q: number) => {
+    mat(p, k);
+    mat(q, k);
+    mat(k, p);
+    mat(k, q);
+  };
+  // Twin rows (SPICE's pre-ordering of voltage-source branches): the branch equation of a V/L/E/H element takes the
+  // row of one of its nodes and that node's KCL takes the branch row, so both diagonals are the exact ±1 of the
+  // branch stamp instead of a structural zero that only fill-in can make non-zero.
+  const eqRow = Int32Array.from({ length: n }, (_, i) => i);
+  const twinned = new Uint8Array(n);
+  const after: (number[] | undefined)[] = new Array<number[] | undefined>(n);
+  const slotStart = new Int32Array(elements.length + 1);
+  const dEl: number[] = [];
+  const bjEl: number[] = [];
+  const dSlots: number[] = [];
+  const qSlots: number[] = [];
+  const xOf = new Int32Array(4 * elements.length).fill(-1);
+  elements.forEach((e, ei) => {
+    slotStart[ei] = code.length;
+    e.nodes.forEach((nd, t) => (xOf[4 * ei + t] = node(nd)));
+    const p = node(e.nodes[0]);
+    const q = node(e.nodes[1]);
+    switch (e.kind) {
+      case 'R':
+        cond(p, q);
+        break;
+      case 'C':
+        break;
+      case 'I':
+        row(p);
+        row(q);
+        break;
+      case 'G': {
+        const cp = node(e.nodes[2]);
+        const cq = node(e.nodes[3]);
+        mat(p, cp);
+        mat(p, cq);
+        mat(q, cp);
+        mat(q, cq);
+        break;
+      }
+      case 'F': {
+        const kc = branchLogical.get(e.control.toLowerCase());
+        if (kc === undefined) throw new Error(`${e.name}: controlling voltage source "${e.control}" is not in the circuit`);
+        mat(p, kc);
+        mat(q, kc);
+        break;
+      }
+      case 'V':
+      case 'L':
+      case 'E':
+      case 'H': {
+        const k = branchLogical.get(e.name.toLowerCase()) as number;
+        const twin = p >= 0 && !twinned[p] ? p : q >= 0 && !twinned[q] ? q : -1;
+        if (twin >= 0) {
+          twinned[twin] = 1;
+          eqRow[k] = twin;
+          eqRow[twin] = k;
+        } else after[k] = [p, q].filter((i) => i >= 0);
+        branch(k, p, q);
+        if (e.kind === 'V') row(k);
+        if (e.kind === 'E') {
+          mat(k, node(e.nodes[2]));
+          mat(k, node(e.nodes[3]));
+        }
+        if (e.kind === 'H') {
+          const kc = branchLogical.get(e.control.toLowerCase());
+          if (kc === undefined) throw new Error(`${e.name}: controlling voltage source "${e.control}" is not in the circuit`);
+          mat(k, kc);
+        }
+        break;
+      }
+      case 'D': {
+        const ai = (internal[ei] as number[])[0] as number;
+        const a = ai === -2 ? p : ai;
+        if (ai === -2) cond(-1, -1);
+        else cond(p, ai);
+        dEl.push(ei);
+        dSlots.push(code.length);
+        cond(a, q);
+        row(a);
+        row(q);
+        break;
+      }
+      case 'Q': {
+        const ins = internal[ei] as number[];
+        const t = [p, q, node(e.nodes[2])].map((x, i) => {
+          const ii = ins[i] as number;
+          if (ii === -2) cond(-1, -1);
+          else cond(x, ii);
+          return ii === -2 ? x : ii;
+        });
+        const [c, b, em] = t as [number, number, number];
+        bjEl.push(ei);
+        qSlots.push(code.length);
+        for (const r of [c, b, em]) for (const col of [b, em, c]) mat(r, col);
+        row(c);
+        row(b);
+        row(em);
+        break;
+      }
+    }
+  });
+  slotStart[elements.length] = code.length;
+  // every node's own diagonal (islands, gmin stepping)
+  const shuntSlot = code.length;
+  for (let i = 0; i < nodeCount; i++) mat(i, i);
+
+  // fill-reducing order on the row-permuted structure
+  const adj: Set<number>[] = Array.from({ length: n }, () => new Set<number>());
+  for (let t = 0; t < code.length; t++) {
+    if (code[t] !== MAT) continue;
+    const eq = sa[t] as number;
+    const unk = sb[t] as number;
+    if (eq < 0 || unk < 0) continue;
+    const r = eqRow[eq] as number;
+    if (r !== unk) {
+      (adj[r] as Set<number>).add(unk);
+      (adj[unk] as Set<number>).add(r);
+    }
+  }
+  // An untwinned branch waits for one of its nodes (its diagonal is non-zero only by fill-in); twins need not.
+  const order = minimumDegreeOrder(n, adj, after);
+  const inv = new Int32Array(n + 1);
+  for (let k = 0; k < n; k++) inv[order[k] as number] = k;
+  inv[n] = n;
+  const rowPos = (eq: number) => (eq < 0 ? n : (inv[eqRow[eq] as number] as number));
+  const colPos = (unk: number) => (unk < 0 ? n : (inv[unk] as number));
+  const nz = new Uint8Array(n * n);
+  for (let t = 0; t < code.length; t++) {
+    if (code[t] !== MAT) continue;
+    const r = rowPos(sa[t] as number);
+    const c = colPos(sb[t] as number);
+    if (r < n && c < n) nz[r * n + c] = 1;
+  }
+  const { program, posOf } = luProgram(n, nz);
+  const trash = program.nnz;
+  const slots = new Int32Array(code.length);
+  for (let t = 0; t < code.length; t++) {
+    const r = rowPos(sa[t] as number);
+    if (code[t] === ROW) slots[t] = r;
+    else {
+      const c = colPos(sb[t] as number);
+      slots[t] = r < n && c < n ? (posOf[r * n + c] as number) : trash;
+    }
+  }
+  for (let t = 0; t < xOf.length; t++) xOf[t] = colPos(xOf[t] as number);
+
+  const dPos = new Int32Array(4 * dEl.length);
+  const dRow = new Int32Array(2 * dEl.length);
+  const dX = new Int32Array(2 * dEl.length);
+  dSlots.forEach((s0, i) => {
+    dPos.set(slots.subarray(s0, s0 + 4), 4 * i);
+    dRow.set(slots.subarray(s0 + 4, s0 + 6), 2 * i);
+    dX[2 * i] = colPos(sa[s0] as number); // cond(a, k): slot 0 is (a, a)
+    dX[2 * i + 1] = colPos(sa[s0 + 1] as number);
+  });
+  const qPos = new Int32Array(9 * bjEl.length);
+  const qRow = new Int32Array(3 * bjEl.length);
+  const qX = new Int32Array(3 * bjEl.length);
+  qSlots.forEach((s0, i) => {
+    qPos.set(slots.subarray(s0, s0 + 9), 9 * i);
+    qRow.set(slots.subarray(s0 + 9, s0 + 12), 3 * i);
+    // slot layout: rows c, b, e × columns b, e, c; slot 2 is (c, c), slot 3 is (b, b), slot 4 is (b, e)
+    qX[3 * i] = colPos(sb[s0 + 2] as number);
+    qX[3 * i + 1] = colPos(sb[s0 + 3] as number);
+    qX[3 * i + 2] = colPos(sb[s0 + 4] as number);
+  });
+  const shuntPos = slots.slice(shuntSlot, shuntSlot + nodeCount);
+  const islandPos = Int32Array.from(nodesWithoutDcPath(elements, extraNodes), (nd) => shuntPos[nodeIndex.get(nd) as number] as number);
+
+  const solutionIndex = new Map<string, number>();
+  for (const [k, v] of nodeIndex) solutionIndex.set(k, inv[v] as number);
+  const branchOf = new Map<string, number>();
+  for (const [k, v] of branchLogical) branchOf.set(k, inv[v] as number);
+  const isNode = new Uint8Array(n);
+  const describe = new Array<string>(n);
+  for (let i = 0; i < nodeCount; i++) {
+    isNode[inv[i] as number] = 1;
+    describe[inv[i] as number] = `node ${nodeNames[i]}`;
+  }
+  for (let i = 0; i < branchNames.length; i++) describe[inv[nodeCount + i] as number] = `the branch of ${branchNames[i]}`;
+  const nd = dEl.length;
+  const nq = bjEl.length;
+  const f = (m: number) => new Float64Array(m);
+  return {
+    n,
+    nodeCount,
+    nodeNames,
+    branchNames,
+    nodeX: Int32Array.from(nodeNames, (_, i) => inv[i] as number),
+    branchX: Int32Array.from(branchNames, (_, i) => inv[nodeCount + i] as number),
+    nodeIndex: solutionIndex,
+    branchOf,
+    isNode,
+    describe,
+    lu: program,
+    slotStart,
+    slots,
+    xOf,
+    islandPos,
+    shuntPos,
+    dEl: Int32Array.from(dEl),
+    dPos,
+    dRow,
+    dX,
+    qEl: Int32Array.from(bjEl),
+    qPos,
+    qRow,
+    qX,
+    work: {
+      base: f(trash + 1),
+      rhs0: f(n + 1),
+      asm: f(trash + 1),
+      fac: f(trash + 1),
+      b: f(n + 1),
+      x: f(n + 1),
+      xn: f(n + 1),
+      denseFallbacks: 0,
+      dIs: f(nd),
+      dVte: f(nd),
+      dVcrit: f(nd),
+      dXbv: f(nd),
+      dVold: f(nd),
+      qPol: f(nq),
+      qIs: f(nq),
+      qBf: f(nq),
+      qBr: f(nq),
+      qVtf: f(nq),
+      qVtr: f(nq),
+      qVcrit: f(nq),
+      qVbe: f(nq),
+      qVbc: f(nq),
+    },
+  };
+}
+
+/** Writes the circuit's values into the topology's work arrays: linear stamps, sources and device parameters. */
+export function stampValues(top: Topology, elements: readonly Element[]): Work {
+  const w = top.work;
+  const { base: a, rhs0: b } = w;
+  const { slots, slotStart } = top;
+  a.fill(0);
+  b.fill(0);
+  const cond = (s: number, g: number) => {
+    add(a, slots[s], g);
+    add(a, slots[s + 1], g);
+    add(a, slots[s + 2], -g);
+    add(a, slots[s + 3], -g);
+  };
+  const branch = (s: number) => {
+    add(a, slots[s], 1);
+    add(a, slots[s + 1], -1);
+    add(a, slots[s + 2], 1);
+    add(a, slots[s + 3], -1);
+  };
+  let di = 0;
+  let qi = 0;
+  for (let ei = 0; ei < elements.length; ei++) {
+    const e = elements[ei] as Element;
+    const s = slotStart[ei] as number;
+    switch (e.kind) {
+      case 'R':
+        cond(s, 1 / e.value);
+        break;
+      case 'C':
+        break;
+      case 'I':
+        add(b, slots[s], -e.value);
+        add(b, slots[s + 1], e.value);
+        break;
+      case 'G':
+        add(a, slots[s], e.gain);
+        add(a, slots[s + 1], -e.gain);
+        add(a, slots[s + 2], -e.gain);
+        add(a, slots[s + 3], e.gain);
+        break;
+      case 'F':
+        add(a, slots[s], e.gain);
+        add(a, slots[s + 1], -e.gain);
+        break;
+      case 'V':
+      case 'L':
+        branch(s);
+        if (e.kind === 'V') add(b, slots[s + 4], e.value);
+        break;
+      case 'E':
+        branch(s);
+        add(a, slots[s + 4], -e.gain);
+        add(a, slots[s + 5], e.gain);
+        break;
+      case 'H':
+        branch(s);
+        add(a, slots[s + 4], -e.gain);
+        break;
+      case 'D': {
+        const m = e.model;
+        if (m.rs > 0) cond(s, e.area / m.rs);
+        const is = m.is * e.area;
+        const vte = m.n * VT;
+        w.dIs[di] = is;
+        w.dVte[di] = vte;
+        w.dVcrit[di] = criticalVoltage(vte, is);
+        w.dXbv[di] = breakdownVoltage(m.bv, m.ibv, is, vte);
+        di++;
+        break;
+      }
+      case 'Q': {
+        const m = e.model;
+        if (m.rc > 0) cond(s, e.area / m.rc);
+        if (m.rb > 0) cond(s + 4, e.area / m.rb);
+        if (m.re > 0) cond(s + 8, e.area / m.re);
+        const is = m.is * e.area;
+        w.qPol[qi] = m.type === 'pnp' ? -1 : 1;
+        w.qIs[qi] = is;
+        w.qBf[qi] = m.bf;
+        w.qBr[qi] = m.br;
+        w.qVtf[qi] = m.nf * VT;
+        w.qVtr[qi] = m.nr * VT;
+        w.qVcrit[qi] = criticalVoltage(VT, is);
+        qi++;
+        break;
+      }
+    }
+  }
+  // islands of a derived state: a tiny conductance to the reference keeps the matrix regular
+  for (let t = 0; t < top.islandPos.length; t++) add(a, top.islandPos[t], GISLAND);
+  return w;
+}

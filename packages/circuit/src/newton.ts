@@ -1,0 +1,111 @@
+/**
+ * One Newton–Raphson run on a compiled system: each iteration copies the linear stamps, adds the companion models
+ * of the junctions at the limited junction voltages, factors along the sparse LU program and checks convergence.
+ */
+import type { Topology, Work } from './compile';
+import { add, limit, stampJunctions } from './devices';
+import { luFactor, luProgramFactor, luProgramSolve, luProgramToDense, luSolve, luWorkspace } from './lu';
+
+export interface AttemptConfig {
+  maxIter: number;
+  srcScale: number;
+  gshunt: number;
+  maxStep: number;
+  reltol: number;
+  vntol: number;
+  abstol: number;
+  /** First iteration sets junctions to their critical voltages (SPICE MODEINITJCT) instead of from x. */
+  initJunctions: boolean;
+  /** Called with the assembled compressed Jacobian and right-hand side before each factorisation (benchmark use). */
+  capture?: (a: Float64Array, b: Float64Array) => void;
+}
+
+export interface AttemptResult {
+  ok: boolean;
+  iterations: number;
+  /** Solution index of a column found singular. */
+  singular?: number;
+}
+
+/** Assembles w.asm / w.b: linear part, optional shunt, then the junctions at their (limited) voltages. */
+function assemble(top: Topology, w: Work, cfg: AttemptConfig, first: boolean): void {
+  const { asm: a, b, rhs0 } = w;
+  a.set(w.base);
+  const scale = cfg.srcScale;
+  for (let i = 0; i < b.length; i++) b[i] = scale * (rhs0[i] as number);
+  if (cfg.gshunt > 0) for (let i = 0; i < top.shuntPos.length; i++) add(a, top.shuntPos[i], cfg.gshunt);
+  stampJunctions(top, w, first);
+}
+
+/** Solves the assembled system into w.xn: sparse along the program, densely with pivoting when a pivot is weak. */
+function linearSolve(top: Topology, w: Work): number {
+  const { lu } = top;
+  w.fac.set(w.asm);
+  if (luProgramFactor(w.fac, lu)) {
+    luProgramSolve(w.fac, lu, w.b, w.xn);
+    return -1;
+  }
+  w.denseFallbacks++;
+  const n = top.n;
+  if (!w.dense) w.dense = { a: new Float64Array(n * n), ws: luWorkspace(n) };
+  const { a, ws } = w.dense;
+  luProgramToDense(w.asm, lu, a);
+  const sing = luFactor(a, ws);
+  if (sing >= 0) return sing;
+  luSolve(a, ws, w.b, w.xn);
+  return -1;
+}
+
+/** Runs Newton–Raphson from w.x (w.x[n] is the reference and stays 0). */
+export function newton(top: Topology, w: Work, cfg: AttemptConfig): AttemptResult {
+  const { n, isNode } = top;
+  const { x, xn } = w;
+  const nonlinear = top.dEl.length + top.qEl.length > 0;
+  x[n] = 0;
+  xn[n] = 0;
+  // junction states from the start point
+  for (let i = 0; i < top.dEl.length; i++) {
+    w.dVold[i] = cfg.initJunctions ? (w.dVcrit[i] as number) : (x[top.dX[2 * i] as number] as number) - (x[top.dX[2 * i + 1] as number] as number);
+  }
+  for (let i = 0; i < top.qEl.length; i++) {
+    const pol = w.qPol[i] as number;
+    const xb = x[top.qX[3 * i + 1] as number] as number;
+    w.qVbe[i] = cfg.initJunctions ? (w.qVcrit[i] as number) : pol * (xb - (x[top.qX[3 * i + 2] as number] as number));
+    w.qVbc[i] = cfg.initJunctions ? 0 : pol * (xb - (x[top.qX[3 * i] as number] as number));
+  }
+  for (let iter = 1; iter <= cfg.maxIter; iter++) {
+    limit.hit = false;
+    const first = iter === 1;
+    assemble(top, w, cfg, first);
+    if (cfg.capture) cfg.capture(w.asm, w.b);
+    const sing = linearSolve(top, w);
+    if (sing >= 0) return { ok: false, iterations: iter, singular: sing };
+    if (!nonlinear) {
+      x.set(xn.subarray(0, n));
+      return { ok: true, iterations: iter };
+    }
+    // damping (fall-back attempts only): limit the largest node-voltage step
+    if (cfg.maxStep < Infinity) {
+      let maxd = 0;
+      for (let i = 0; i < n; i++) if (isNode[i]) maxd = Math.max(maxd, Math.abs((xn[i] as number) - (x[i] as number)));
+      if (maxd > cfg.maxStep) {
+        const f = cfg.maxStep / maxd;
+        for (let i = 0; i < n; i++) xn[i] = (x[i] as number) + f * ((xn[i] as number) - (x[i] as number));
+        limit.hit = true;
+      }
+    }
+    let conv = !limit.hit && !first;
+    for (let i = 0; i < n; i++) {
+      const xo = x[i] as number;
+      const xv = xn[i] as number;
+      if (!Number.isFinite(xv)) return { ok: false, iterations: iter };
+      if (conv) {
+        const tol = cfg.reltol * Math.max(Math.abs(xo), Math.abs(xv)) + (isNode[i] ? cfg.vntol : cfg.abstol);
+        if (Math.abs(xv - xo) > tol) conv = false;
+      }
+      x[i] = xv;
+    }
+    if (conv) return { ok: true, iterations: iter };
+  }
+  return { ok: false, iterations: cfg.maxIter };
+}
