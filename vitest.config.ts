@@ -8,6 +8,7 @@ const alias = {
   '@splitscope/contract': here('./packages/contract/src/index.ts'),
   '@splitscope/circuit': here('./packages/circuit/src/index.ts'),
   '@splitscope/diagnosis': here('./packages/diagnosis/src/index.ts'),
+  '@splitscope/boards/readings': here('./packages/boards/src/readings/index.ts'),
   '@splitscope/boards': here('./packages/boards/src/index.ts'),
 };
 

@@ -1,7 +1,15 @@
-// @splitscope/boards — section templates, board references. Unit parsing (mathjs) lives in './units' and is
-// deliberately not re-exported here, so the web app can lazy-import it.
+// @splitscope/boards — section templates, board composition, demo boards, bench references. Free of the
+// circuit engine and mathjs at import time, so the board editor can compose boards in the browser. Unit parsing
+// (mathjs) is in '@splitscope/boards/units' and the expected readings (circuit engine) in
+// '@splitscope/boards/readings', both loaded only where they are needed.
 export * from './references';
 export * from './sections/types';
 export * from './sections/templates';
+export * from './sections/bands';
+export { ntcResistance } from './sections/sensing';
 export { MODELS, SUBCKTS, OPTO_SUBCKT, OPTO_CTR, OPTO_LED_IS, regulatorSubckt } from './sections/library';
-export * from './demo/outdoor-fan';
+export { composeBoard, ComposeError } from './compose/compose';
+export type * from './compose/types';
+export { renderBoardSvg, pinPosition, connectorPinPosition } from './compose/render';
+export { spiceParts, spiceValue } from './compose/spice-section';
+export * from './demo';

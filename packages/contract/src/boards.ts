@@ -22,6 +22,10 @@ export const expectedReadingSchema = z.looseObject({
   low: z.number().nullable(),
   high: z.number().nullable(),
   unit: readingUnitSchema,
+  /** Where the healthy band comes from, when a standard or datasheet fixes it. */
+  source: z.string().optional(),
+  /** What the technician should know about the reading, e.g. a parallel path that muddies an ohm reading. */
+  note: z.string().optional(),
 });
 export type ExpectedReadingRow = z.infer<typeof expectedReadingSchema>;
 

@@ -5,43 +5,10 @@
  * compose without clashes and meet on the nets the board names.
  * Hot side = bus negative "0"; cold side = microcontroller ground (board net, e.g. "gnd_c").
  */
-import { OPTO_CTR } from './library';
+import { busBand, RAIL_15V, RAIL_5V, REG15_INPUT, REG5_INPUT, SPEED_COMMAND, SWITCHED_15V } from './bands';
+import { C, collect, mk, net, num, OPTO, R } from './parts';
+import { thermistorSense } from './sensing';
 import type { SectionContext, SectionOutput, SectionTemplate, TemplatePart } from './types';
-
-const num = (ctx: SectionContext, k: string, d: number): number => {
-  const v = ctx.params[k];
-  return typeof v === 'number' ? v : typeof v === 'string' && v.trim() !== '' && !Number.isNaN(Number(v)) ? Number(v) : d;
-};
-const net = (ctx: SectionContext, k: string, d: string): string => ctx.nets[k] ?? d;
-
-type PartArgs = [kind: TemplatePart['kind'], value: string, nominal: number | undefined, tolerance: number | undefined, pkg: string, pins: [string, string][]];
-
-function mk(designator: string, element: string | undefined, ...[kind, value, nominal, tolerance, pkg, pins]: PartArgs): TemplatePart {
-  const p: TemplatePart = { designator, kind, value, package: pkg, pins: pins.map(([pin, n]) => ({ pin, net: n })) };
-  if (element) p.element = element;
-  if (nominal !== undefined) p.nominal = nominal;
-  if (tolerance !== undefined) p.tolerance = tolerance;
-  return p;
-}
-const R = (d: string, a: string, b: string, ohms: number, label: string, tol = 0.05, pkg = 'axial-0207'): [TemplatePart, string] => [
-  mk(d, d, 'resistor', label, ohms, tol, pkg, [['1', a], ['2', b]]),
-  `${d} ${a} ${b} ${ohms}`,
-];
-const C = (d: string, a: string, b: string, farads: number, label: string, electrolytic: boolean): [TemplatePart, string] => [
-  mk(d, d, electrolytic ? 'electrolytic-capacitor' : 'ceramic-capacitor', label, farads, electrolytic ? 0.2 : 0.1, electrolytic ? 'radial-e' : 'disc-2.5', [
-    ['+', a], ['-', b],
-  ]),
-  `${d} ${a} ${b} ${farads}`,
-];
-const OPTO = (d: string, a: string, k: string, c: string, e: string): [TemplatePart, string] => {
-  const p = mk(d, `X${d}`, 'opto-coupler', 'opto-coupler, CTR 130 %', undefined, undefined, 'dip-4', [['1', a], ['2', k], ['3', e], ['4', c]]);
-  p.params = { ctr: OPTO_CTR };
-  return [p, `X${d} ${a} ${k} ${c} ${e} OPTO`];
-};
-
-function collect(rows: [TemplatePart, string][]): { parts: TemplatePart[]; lines: string[] } {
-  return { parts: rows.map((r) => r[0]), lines: rows.map((r) => r[1]) };
-}
 
 /** 1. DC bus: mains as its DC peak equivalent through a full bridge, bulk capacitor, bleeder. */
 export const dcBus: SectionTemplate = (ctx) => {
@@ -53,7 +20,6 @@ export const dcBus: SectionTemplate = (ctx) => {
   const bleed = num(ctx, 'bleederOhms', 150e3);
   const rms = num(ctx, 'mainsRms', 230);
   const tol = num(ctx, 'mainsTolerance', 0.1);
-  const vf = 0.8; // bridge diode forward drop at light load (common practice)
   const acl = `${s}_acl`, acn = `${s}_acn`, bl = `${s}_l`, bn = `${s}_n`, mid = `${s}_mid`;
   const rows: [TemplatePart, string][] = [
     [mk(`F${b + 1}`, `RF${b + 1}`, 'fuse', 'T3.15A 250V', 0.05, undefined, 'fuse-5x20', [['1', acl], ['2', bl]]), `RF${b + 1} ${acl} ${bl} 0.05`],
@@ -69,8 +35,6 @@ export const dcBus: SectionTemplate = (ctx) => {
   ];
   const { parts, lines } = collect(rows);
   const vpk = Math.SQRT2 * rms;
-  const low = Math.SQRT2 * rms * (1 - tol) - 2 * vf;
-  const high = Math.SQRT2 * rms * (1 + tol) - 2 * vf;
   return {
     template: 'dc-bus', title: 'DC bus', side: 'hot', touchesBus: true,
     netlist: [
@@ -88,10 +52,7 @@ export const dcBus: SectionTemplate = (ctx) => {
     testPoints: [
       {
         label: 'DC bus + (bulk capacitor)', net: vbus, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'],
-        band: {
-          low, high,
-          source: `computed: Vdc ≈ √2·Vrms − 2·VF (VF ${vf} V, common practice) for ${rms} V ±${tol * 100} % mains; capacitor-input bridge at light load charges to the line peak (Power Integrations AN-17). A loaded board sits lower, about 280–320 V (common practice, from memory).`,
-        },
+        band: busBand(rms, tol),
       },
       { label: 'Bleeder midpoint', net: mid, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm'] },
     ],
@@ -125,11 +86,7 @@ function regulator(ctx: SectionContext, vout: 15 | 5): SectionOutput {
     [mk(`LED${b + 1}`, `DLED${b + 1}`, 'led', 'red LED', undefined, undefined, 'led-3mm', [['A', led], ['K', gnd]]), `DLED${b + 1} ${led} ${gnd} DLED_R`],
   ];
   const { parts, lines } = collect(rows);
-  const band15 = { low: 14.25, high: 15.75, source: 'onsemi MC7800 series datasheet, MC7815C electrical characteristics: VO 14.25–15.75 V over 5 mA–1 A, Vin 17.5–30 V' };
-  const band5 = { low: 4.75, high: 5.25, source: 'LM78xx datasheet (Fairchild DS400018), LM7805: VO 4.75–5.25 V over load/line/temperature' };
-  const inBand = cold
-    ? { low: 7, high: 25, source: 'computed: 5 V + 2.0 V typical dropout (onsemi MC7800 series datasheet); upper limit 25 V chosen below the 35 V absolute maximum (LM78xx datasheet, Fairchild DS400018)' }
-    : { low: 17.5, high: 30, source: 'onsemi MC7800 series datasheet, MC7815C: output band specified for Vin 17.5–30 V' };
+  const inBand = cold ? REG5_INPUT : REG15_INPUT;
   return {
     template: cold ? 'regulator-5v' : 'regulator-15v',
     title: cold ? '5 V regulator (microcontroller supply)' : '15 V regulator (motor control supply)',
@@ -143,7 +100,7 @@ function regulator(ctx: SectionContext, vout: 15 | 5): SectionOutput {
     ],
     testPoints: [
       { label: `U${b + 1} input`, net: vin, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'], band: inBand },
-      { label: `${vout} V rail (U${b + 1} output)`, net: out, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'], band: cold ? band5 : band15 },
+      { label: `${vout} V rail (U${b + 1} output)`, net: out, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'], band: cold ? RAIL_5V : RAIL_15V },
     ],
     externals: [{ element: `VAUX${b + 1}`, description: 'Auxiliary winding of the switch-mode supply (rectified DC equivalent)' }],
     uses: ['DSIG', 'DLED_R', cold ? 'REG7805' : 'REG7815'],
@@ -187,7 +144,7 @@ export const fanSwitch: SectionTemplate = (ctx) => {
     ],
     testPoints: [
       { label: 'Switched 15 V rail (motor Vcc)', net: sw, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'],
-        band: { low: 13.9, high: 15.75, source: 'computed: 15 V rail band 14.25–15.75 V (onsemi MC7800 series datasheet, MC7815C) less a saturated PNP drop of up to 0.35 V (common practice)' } },
+        band: SWITCHED_15V },
       { label: `Q${b + 1} base`, net: base, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'] },
       { label: `PC${b + 1} LED anode (MCU side)`, net: la, reference: gc, powerStates: ['on', 'off'], modes: ['dcv', 'diode'] },
       { label: 'Rail sense to MCU', net: fc, reference: gc, powerStates: ['on', 'off'], modes: ['dcv', 'ohm'] },
@@ -232,7 +189,7 @@ export const speedCommand: SectionTemplate = (ctx) => {
     ],
     testPoints: [
       { label: 'Speed command Vsp', net: vsp, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'],
-        band: { low: 1, high: 7, source: 'speed-command inputs of DC fan motors with built-in drivers span roughly 1–7 V (common practice, from memory)' } },
+        band: SPEED_COMMAND },
       { label: `PC${b + 1} collector`, net: oc, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm'] },
       { label: `PC${b + 1} LED anode (MCU PWM side)`, net: la, reference: gc, powerStates: ['on', 'off'], modes: ['dcv', 'diode'] },
     ],
@@ -289,6 +246,7 @@ export const TEMPLATES: Record<string, SectionTemplate> = {
   'fan-switch': fanSwitch,
   'speed-command': speedCommand,
   'speed-feedback': speedFeedback,
+  'thermistor-sense': thermistorSense,
 };
 
 /** Motor speed from the FG frequency: RPM = 60·f / pulses-per-revolution (TI DRV10975 datasheet, FG output). */

@@ -1,6 +1,8 @@
 // The engines' view of one stored board model version: its netlist, part priors and test points, a cached
-// diagnoser, and the verdict of a single reading against the healthy board. A version never changes, so
-// everything here is cached per version id for the life of the process.
+// diagnoser, the expected-readings table (from the board library) and the verdict of a single reading against
+// the healthy board. A version never changes, so everything here is cached per version id for the life of the
+// process.
+import { expectedReadings, type BandFn, type ExpectedReadingsInput, type ExpectedReadingsTestPoint } from '@splitscope/boards/readings';
 import { refusal } from '@splitscope/circuit';
 import { bandOf, CaseError, createDiagnoser, verdictOf, type CasePart, type Diagnoser, type ReadingValue, type TestPoint } from '@splitscope/diagnosis';
 import type { ExpectedReadingRow, MeterModeName, PowerState, ReadingVerdict } from '@splitscope/contract';
@@ -8,6 +10,8 @@ import { AppError } from '../../http/errors';
 
 export interface BoardTestPoint extends TestPoint {
   id: string;
+  /** What the expected table reads at this point (reference net, power states, modes, sourced band). */
+  table: ExpectedReadingsTestPoint;
 }
 
 export interface BoardEngine {
@@ -17,6 +21,8 @@ export interface BoardEngine {
   parts: Record<string, CasePart>;
   testPoints: BoardTestPoint[];
   diagnoser: Diagnoser;
+  /** The expected-readings table, computed on first use. */
+  expected?: ExpectedReadingRow[];
 }
 
 const isRecord = (x: unknown): x is Record<string, unknown> => typeof x === 'object' && x !== null && !Array.isArray(x);
@@ -44,12 +50,32 @@ function partsOf(doc: Record<string, unknown>): Record<string, CasePart> {
   return out;
 }
 
+const MODES = new Set<string>(['dcv', 'ohm', 'diode', 'continuity']);
+const POWER = new Set<string>(['on', 'off']);
+const listOf = <T extends string>(x: unknown, allowed: Set<string>): T[] | undefined =>
+  Array.isArray(x) ? (x.filter((v) => typeof v === 'string' && allowed.has(v)) as T[]) : undefined;
+
+function bandOfDoc(x: unknown): ExpectedReadingsTestPoint['band'] {
+  if (!isRecord(x) || typeof x.low !== 'number' || typeof x.high !== 'number' || typeof x.source !== 'string') return undefined;
+  return { low: x.low, high: x.high, source: x.source };
+}
+
 function testPointsOf(doc: Record<string, unknown>): BoardTestPoint[] {
   if (!Array.isArray(doc.testPoints)) return [];
   return doc.testPoints.flatMap((tp) => {
     if (!isRecord(tp) || typeof tp.net !== 'string') return [];
     const id = str(tp.id) ?? tp.net;
-    return [{ id, net: tp.net, label: str(tp.label) ?? id, ...(str(tp.ref) ? { ref: tp.ref as string } : {}) }];
+    const label = str(tp.label) ?? id;
+    // Board-model documents name the black probe's net `reference`; older documents say `ref`.
+    const ref = str(tp.reference) ?? str(tp.ref);
+    const powerStates = listOf<'on' | 'off'>(tp.powerStates, POWER);
+    const modes = listOf<ExpectedReadingsTestPoint['modes'] & string>(tp.modes, MODES) as ExpectedReadingsTestPoint['modes'];
+    const band = bandOfDoc(tp.band);
+    const table: ExpectedReadingsTestPoint = {
+      id, label, net: tp.net, ...(ref ? { reference: ref } : {}), ...(powerStates?.length ? { powerStates } : {}),
+      ...(modes?.length ? { modes } : {}), ...(band ? { band } : {}),
+    };
+    return [{ id, net: tp.net, label, ...(ref ? { ref } : {}), table }];
   });
 }
 
@@ -133,6 +159,12 @@ export const unitOf = (mode: MeterModeName) => (mode === 'dcv' || mode === 'diod
  * Null when the engine cannot predict this probe.
  */
 export function verdictFor(engine: BoardEngine, probe: ProbeState, value: ReadingValue | null): ReadingVerdict | null {
+  const row = tableRow(engine, probe);
+  if (row?.source && row.low !== null && row.high !== null) {
+    // A sourced band (a datasheet's output tolerance, the mains range) is the healthy range the table shows.
+    const band = { expected: row.expected, low: row.low, high: row.high };
+    return { expected: row.expected, low: row.low, high: row.high, unit: row.unit, verdict: value === null ? 'ok' : verdictOf(probe.mode, value, band) };
+  }
   const model = engine.diagnoser.model;
   const test = { mode: probe.mode, red: probe.red, black: probe.black, power: probe.power, lifted: probe.lifted };
   const healthy = model.healthyPrediction(test);
@@ -148,26 +180,33 @@ export function verdictFor(engine: BoardEngine, probe: ProbeState, value: Readin
   };
 }
 
+/** The diagnoser's noise band, so an unsourced row of the table and the verdict of a reading agree. */
+function diagnoserBand(engine: BoardEngine): BandFn {
+  const meter = engine.diagnoser.model.meter;
+  return (mode, value) => {
+    const b = bandOf(mode, { value }, meter);
+    return { low: b.low ?? value, high: b.high ?? value };
+  };
+}
+
 /**
- * The expected-readings table: every test point against its reference, powered (dcv) and unpowered
- * (resistance and diode), as the healthy board model predicts them.
+ * The expected-readings table: every test point against its reference in each power state and meter mode it
+ * allows, computed by the board library from the netlist. Bands come from the point's sourced band (powered
+ * readings of the main rails) or the diagnoser's noise model; ohm rows carry the parallel-path note.
  */
 export function expectedTable(engine: BoardEngine): ExpectedReadingRow[] {
-  const rows: ExpectedReadingRow[] = [];
-  const probes: { mode: MeterModeName; power: PowerState }[] = [
-    { mode: 'dcv', power: 'on' },
-    { mode: 'ohm', power: 'off' },
-    { mode: 'diode', power: 'off' },
-  ];
-  for (const tp of engine.testPoints) {
-    const red = resolveNet(engine, tp.net);
-    const black = resolveNet(engine, tp.ref ?? '0');
-    if (!red || !black || red === black) continue;
-    for (const p of probes) {
-      const v = verdictFor(engine, { ...p, red, black, lifted: [] }, null);
-      if (!v) continue;
-      rows.push({ id: `${tp.id}:${p.mode}`, label: tp.label, mode: p.mode, red: tp.id, black: tp.ref ?? '0', power: p.power, lifted: [], expected: v.expected, low: v.low, high: v.high, unit: v.unit });
-    }
-  }
-  return rows;
+  if (engine.expected) return engine.expected;
+  const input: ExpectedReadingsInput = { netlist: engine.netlist, testPoints: engine.testPoints.map((t) => t.table), ...(engine.params ? { params: engine.params } : {}) };
+  const rows = expectedReadings(input, { meter: engine.diagnoser.model.meter, band: diagnoserBand(engine) });
+  engine.expected = rows.map((r) => ({
+    id: r.id, label: r.label, mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted,
+    expected: r.expected, low: r.low, high: r.high, unit: r.unit, ...(r.source ? { source: r.source } : {}), ...(r.note ? { note: r.note } : {}),
+  }));
+  return engine.expected;
+}
+
+/** The table row a probe reads, when it is one (no parts lifted). */
+function tableRow(engine: BoardEngine, probe: ProbeState): ExpectedReadingRow | undefined {
+  if (probe.lifted.length > 0) return undefined;
+  return expectedTable(engine).find((r) => r.mode === probe.mode && r.power === probe.power && resolveNet(engine, r.red) === probe.red && resolveNet(engine, r.black) === probe.black);
 }
