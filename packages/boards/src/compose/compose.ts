@@ -70,7 +70,7 @@ function placeParts(sec: Resolved): Map<string, { x: number; y: number; rotation
       continue;
     }
     const x = sec.region.x + 8 + CELL_W / 2 + (i % cols) * CELL_W;
-    const y = sec.region.y + 56 + Math.floor(i / cols) * CELL_H;
+    const y = sec.region.y + 70 + Math.floor(i / cols) * CELL_H;
     out.set(p.designator, { x: Math.round(x), y: Math.round(y), rotation: 0 });
     i++;
   }

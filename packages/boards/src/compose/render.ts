@@ -143,7 +143,7 @@ export function renderBoardSvg(input: RenderInput): string {
     labels +
     input.connectors.map((c) => connector(c, silk)).join('') +
     tps +
-    `<text x="${W - 44}" y="${H - 14}" text-anchor="end" font-family="sans-serif" font-size="15" fill="${silk}">${esc(input.title)}</text>` +
+    `<text x="${W / 2}" y="40" text-anchor="middle" font-family="sans-serif" font-size="15" fill="${silk}">${esc(input.title)}</text>` +
     `</svg>`
   );
 }

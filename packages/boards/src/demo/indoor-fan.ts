@@ -15,7 +15,7 @@ export const INDOOR_FAN_SPEC: BoardSpec = {
     'Invented demo board: indoor unit controller with a DC fan motor drive (bus, 15 V supply switched by an opto-driven PNP, ' +
     'opto-isolated speed command and feedback), a 5 V controller supply on the cold side and room/coil thermistor inputs.',
   width: 1200,
-  height: 880,
+  height: 920,
   colours: { mask: '#1d3f5e', silk: '#eef3f7', copper: '#c8924a' },
   silkTitle: 'FJORDLINE IDF-310 rev A (demo)',
   coldGround: 'gnd_c',

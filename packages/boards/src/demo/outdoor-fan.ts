@@ -22,7 +22,7 @@ export const OUTDOOR_FAN_SPEC: BoardSpec = {
   maker: 'Fjordline (invented demo maker)',
   description: 'Invented demo board: DC bus, 15 V regulator, opto-driven PNP fan-supply switch, speed command and feedback.',
   width: 1200,
-  height: 860,
+  height: 930,
   silkTitle: 'FJORDLINE OFD-220 rev B (demo)',
   header: OUTDOOR_HEADER,
   params: { FAN_ON: 1, SPEED: 0.6 },
@@ -54,8 +54,8 @@ export const OUTDOOR_FAN_SPEC: BoardSpec = {
     { id: 'TP12', net: 'rl', label: 'Relay driver collector', section: 'logic', near: 'Q4' },
   ],
   connectors: [
-    { name: 'CN1', x: 60, y: 780, title: 'DC bus in', pins: [{ pin: '1', net: 'bus', function: 'Bus +' }, { pin: '2', net: '0', function: 'Bus −' }] },
-    { name: 'CN3', x: 1040, y: 780, title: 'Fan motor', pins: [
+    { name: 'CN1', x: 60, y: 800, title: 'DC bus in', pins: [{ pin: '1', net: 'bus', function: 'Bus +' }, { pin: '2', net: '0', function: 'Bus −' }] },
+    { name: 'CN3', x: 1040, y: 800, title: 'Fan motor', pins: [
       { pin: '1', net: 'vfan', function: '15 V control supply' }, { pin: '2', net: 'vsp', function: 'Speed command' },
       { pin: '3', net: 'fgk', function: 'Speed pulses' }, { pin: '4', net: '0', function: 'Ground' },
     ] },
