@@ -87,6 +87,15 @@ async function test(): Promise<number> {
   const intJson = join(reports, 'integration.json');
   await step('integration tests (PostgreSQL)', bin('vitest'), ['run', '--project', 'integration', '--reporter=default', '--reporter=json', `--outputFile.json=${intJson}`], () => vitestCounts(intJson));
 
+  // Acknowledged readings survive server kills and database restarts: one pass/fail in the summary.
+  console.log('\n── fault injection (short) ──');
+  const { faultsShort } = await import('./extra-tasks');
+  const faults = await faultsShort().catch((err: unknown) => {
+    console.error(`faults: FAILED to run: ${(err as Error).message}`);
+    return { ok: false };
+  });
+  results.push({ name: 'fault injection (short)', ok: faults.ok, passed: faults.ok ? 1 : 0, failed: faults.ok ? 0 : 1 });
+
   await buildWeb();
   const port = String(await findFreePort(5300));
   const server = await spawnServer({ DATABASE_URL: url, PORT: port, LOGIN_RATE_LIMIT: '1000' }, { quiet: true });

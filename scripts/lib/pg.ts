@@ -148,11 +148,44 @@ export function stopCluster(spec: ClusterSpec): boolean {
   return r.status === 0;
 }
 
+/** Stops a cluster and deletes its data folder and log: for clusters that belong to one run only. */
+export function removeCluster(spec: ClusterSpec): void {
+  const dir = clusterDir(spec);
+  if (runningPort(dir) !== null) asOwner(join(pgBinDir(), 'pg_ctl'), ['-D', dir, '-m', 'immediate', '-w', 'stop']);
+  rmSync(dir, { recursive: true, force: true });
+  rmSync(`${dir}.log`, { force: true });
+}
+
+/**
+ * Per-run clusters are named `<prefix><pid>`; those whose run has ended (killed before it could clean up)
+ * are removed here, those of runs still going are left alone.
+ */
+export function removeStaleClusters(spec: ClusterSpec, prefix: string): void {
+  const parent = dirname(clusterDir(spec));
+  if (!existsSync(parent)) return;
+  for (const name of readdirSync(parent)) {
+    if (!name.startsWith(prefix) || name.endsWith('.log')) continue;
+    const pid = Number(name.slice(prefix.length));
+    if (!Number.isInteger(pid) || pid === process.pid || pidAlive(pid)) continue;
+    removeCluster({ ...spec, name });
+  }
+}
+
+function pidAlive(pid: number): boolean {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch {
+    return false;
+  }
+}
+
 /** Restarts a running cluster with a fast shutdown (used by the fault-injection test). */
 export function restartCluster(spec: ClusterSpec): void {
   const bin = pgBinDir();
   const dir = clusterDir(spec);
-  const r = asOwner(join(bin, 'pg_ctl'), ['-D', dir, '-m', 'fast', '-w', 'restart']);
+  // `-l` matters: without it the new postmaster keeps our stdout pipe open and the synchronous call never returns.
+  const r = asOwner(join(bin, 'pg_ctl'), ['-D', dir, '-l', `${dir}.log`, '-m', 'fast', '-w', '-t', '60', 'restart']);
   if (r.status !== 0) throw new SetupError(`PostgreSQL restart failed: ${lastLine(r.stderr || r.stdout)}`);
 }
 

@@ -4,19 +4,22 @@ import { createWriteStream, mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import pg from 'pg';
 import { migrateAndSeed } from '../../apps/server/src/db/setup';
-import { ensureCluster, ensureDatabase, type Cluster, type ClusterSpec } from '../lib/pg';
+import { ensureCluster, ensureDatabase, removeStaleClusters, type Cluster, type ClusterSpec } from '../lib/pg';
 import { findFreePort } from '../lib/proc';
 import { clusterSpec, root, WEB_DIST } from '../lib/stack';
 
 export const reportsDir = join(root, '.data', 'reports');
 
 /**
- * The fault run restarts its PostgreSQL, so it gets a cluster of its own: restarting the shared test cluster
- * would break another test run on the same machine. Unlike the test cluster it keeps fsync and synchronous
- * commit on, like the shop's cluster, so what it proves about acknowledged writes holds there too.
+ * The fault run stops and restarts its PostgreSQL, so each run gets a cluster of its own (`pg-faults-<pid>`):
+ * restarting a shared cluster would break another test run on the same machine. Unlike the test cluster it
+ * keeps fsync and synchronous commit on, like the shop's cluster, so what it proves about acknowledged writes
+ * holds there too. Clusters left by runs that were killed are removed first.
  */
-export function proofClusterSpec(name: 'pg-faults' | 'pg-bench'): ClusterSpec {
-  return { ...clusterSpec('test'), name, throwaway: false };
+export function proofClusterSpec(kind: 'pg-faults' | 'pg-bench'): ClusterSpec {
+  const base = { ...clusterSpec('test'), name: kind, throwaway: false };
+  removeStaleClusters(base, `${kind}-`);
+  return { ...base, name: `${kind}-${process.pid}` };
 }
 
 export interface ProofDatabase {

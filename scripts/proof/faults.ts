@@ -3,8 +3,8 @@
 // stored exactly once. Bounded: the chaos schedule is fixed, writing stops at a deadline, draining has its own.
 import { randomUUID } from 'node:crypto';
 import pg from 'pg';
-import { ensureCluster, restartCluster, stopCluster } from '../lib/pg';
-import { proofClusterSpec, proofDatabase, ServerChild, signIn, sleep, type Session } from './env';
+import { ensureCluster, removeCluster, restartCluster, stopCluster, type ClusterSpec } from '../lib/pg';
+import { proofClusterSpec, proofDatabase, ServerChild, signIn, sleep, type ProofDatabase, type Session } from './env';
 import { readingsPath, readingTarget, type ReadingTarget } from './target';
 
 export interface FaultOptions {
@@ -100,11 +100,29 @@ async function sendReading(baseUrl: string, session: Session, target: ReadingTar
 
 export async function runFaults(opts: FaultOptions): Promise<FaultReport> {
   const t0 = Date.now();
-  const { log } = opts;
   const spec = proofClusterSpec('pg-faults');
-  const db = await proofDatabase(spec, 'splitscope_faults');
-  const fixedSpec = { ...spec, port: db.cluster.port };
-  const server = await ServerChild.create(db.url, 'faults-server.log');
+  let server: ServerChild | null = null;
+  // The run owns its cluster and server: both go away at the end, on a failure and on Ctrl-C alike.
+  const cleanUp = async () => {
+    await server?.kill('SIGKILL');
+    removeCluster(spec);
+  };
+  const onSignal = (signal: NodeJS.Signals) => void cleanUp().finally(() => process.exit(signal === 'SIGINT' ? 130 : 143));
+  process.once('SIGINT', onSignal);
+  process.once('SIGTERM', onSignal);
+  try {
+    const db = await proofDatabase(spec, 'splitscope_faults');
+    server = await ServerChild.create(db.url, 'faults-server.log', { LOCAL_FAKES: '0' });
+    return await faultRun(opts, t0, { ...spec, port: db.cluster.port }, db, server);
+  } finally {
+    process.off('SIGINT', onSignal);
+    process.off('SIGTERM', onSignal);
+    await cleanUp();
+  }
+}
+
+async function faultRun(opts: FaultOptions, t0: number, fixedSpec: ClusterSpec, db: ProofDatabase, server: ServerChild): Promise<FaultReport> {
+  const { log } = opts;
   const problems: string[] = [];
   let serverKills = 0;
   let dbRestarts = 0;
@@ -150,15 +168,16 @@ export async function runFaults(opts: FaultOptions): Promise<FaultReport> {
       faults.push('kill');
       for (; d < opts.dbRestarts && k >= Math.ceil(((d + 1) * opts.serverKills) / opts.dbRestarts); d++) faults.push('db');
     }
-    const writeFor = (faults.length + 1) * opts.gapMs + opts.dbRestarts * opts.dbDownMs;
-    const writeDeadline = Date.now() + writeFor;
-    const drainDeadline = writeDeadline + 30_000;
-    log(`faults: ${opts.technicians} technicians for ${(writeFor / 1000).toFixed(0)} s; schedule ${faults.join(', ')}`);
+    // Writing goes on until one gap after the last fault (server start-up time varies with the machine's
+    // load, so no fixed deadline); a hard cap keeps the run bounded if a start hangs.
+    const hardStop = Date.now() + 120_000;
+    let writeUntil = hardStop;
+    log(`faults: ${opts.technicians} technicians; schedule ${faults.join(', ')}`);
 
     let next = 0;
     const workers = sessions.map(async (session) => {
-      while (Date.now() < writeDeadline) {
-        await sendReading(server.url, session, target, next++, tally, drainDeadline);
+      while (Date.now() < writeUntil) {
+        await sendReading(server.url, session, target, next++, tally, hardStop + 30_000);
         await sleep(Math.random() * 20);
       }
     });
@@ -189,6 +208,7 @@ export async function runFaults(opts: FaultOptions): Promise<FaultReport> {
           log(`  PostgreSQL stopped (fast) for ${opts.dbDownMs / 1000} s and started again (${dbRestarts})`);
         }
       }
+      writeUntil = Math.min(hardStop, Date.now() + opts.gapMs);
     })();
     await Promise.all([chaos, ...workers]);
   } finally {
@@ -216,7 +236,6 @@ export async function runFaults(opts: FaultOptions): Promise<FaultReport> {
     for (const key of tally.acked) if (!byKey.has(key)) lost++;
   } finally {
     await client.end();
-    await db.drop();
   }
 
   if (lost) problems.push(`${lost} acknowledged readings are not in the database`);
