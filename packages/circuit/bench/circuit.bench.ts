@@ -102,12 +102,12 @@ for (const c of cases) {
   const x = new Float64Array(n);
   const mathjsMs = timeIt(() => {
     lusolve(rows, rhs);
-  }, 300);
+  }, 200);
   const denseMs = timeIt(() => {
     work.set(a);
     if (luFactor(work, ws) >= 0) throw new Error('singular');
     luSolve(work, ws, b, x);
-  }, 300);
+  }, 200);
   const sv = new Float64Array(values.length);
   const sx = new Float64Array(n);
   let sparseOk = true;
@@ -115,7 +115,7 @@ for (const c of cases) {
     sv.set(values);
     sparseOk = luProgramFactor(sv, program);
     if (sparseOk) luProgramSolve(sv, program, b, sx);
-  }, 300);
+  }, 200);
   // the solvers must agree before their speed means anything
   const ref = (lusolve(rows, rhs) as number[][]).map((r) => r[0] as number);
   const scale = Math.max(...ref.map((v) => Math.abs(v)));

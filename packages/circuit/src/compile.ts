@@ -7,9 +7,17 @@
  */
 import type { Circuit, Element } from './circuit';
 import { REFERENCE } from './circuit';
-import { add, breakdownVoltage, criticalVoltage, GISLAND, VT } from './devices';
-import { luProgram, minimumDegreeOrder, type LuProgram, type LuWorkspace } from './lu';
+import { breakdownVoltage, criticalVoltage, GISLAND, VT } from './devices';
+import { luColumnScale, luProgram, minimumDegreeOrder, type LuProgram, type LuWorkspace } from './lu';
 import { nodesWithoutDcPath } from './topology';
+
+/**
+ * a[i] += v. Kept local: the stamping loops call it per entry, and an imported function is reached through a module
+ * binding that some loaders (tsx) turn into a getter call.
+ */
+function add(a: Float64Array, i: number | undefined, v: number): void {
+  a[i as number] = (a[i as number] as number) + v;
+}
 
 /** Values and scratch of one solve; allocated once per topology (solving is synchronous, so it is reused). */
 export interface Work {
@@ -23,6 +31,9 @@ export interface Work {
   b: Float64Array;
   x: Float64Array;
   xn: Float64Array;
+  /** Column scales of the linear part (per solve) and of the assembled matrix (per iteration). */
+  scale0: Float64Array;
+  scale: Float64Array;
   /** Dense pivoting fall-back, allocated the first time a sparse pivot is too weak. */
   dense?: { a: Float64Array; ws: LuWorkspace };
   denseFallbacks: number;
@@ -45,6 +56,8 @@ export interface Work {
 }
 
 export interface Topology {
+  /** The structure codes this was compiled from (cache key, compared in full on a hash hit). */
+  codes: Int32Array;
   /** Unknowns: node voltages then branch currents, numbered in elimination order ("solution index"). */
   n: number;
   nodeCount: number;
@@ -83,60 +96,95 @@ export interface Topology {
 }
 
 /**
- * The structure of a circuit as a string: element kinds, nodes, and the names that define branches, internal nodes
- * and controls. Values are left out: they are stamped on every solve.
+ * The structure of a circuit as integers: per element its kind and node count, its nodes, and the names that
+ * define branches, internal nodes and controls, each string interned to a number. Values are left out: they are
+ * stamped on every solve. Interning costs one Map lookup per string (V8 keeps a string's hash), far less than
+ * building and hashing one long string key.
  */
-export function structureKey(elements: readonly Element[], extraNodes: readonly string[]): string {
-  let k = extraNodes.join(' ');
-  for (const e of elements) {
-    k += '\n' + e.kind;
-    for (const nd of e.nodes) k += ' ' + nd;
-    switch (e.kind) {
-      case 'V':
-      case 'L':
-      case 'E':
-        k += ' =' + e.name;
-        break;
-      case 'H':
-        k += ' =' + e.name + ' >' + e.control;
-        break;
-      case 'F':
-        k += ' >' + e.control;
-        break;
-      case 'D':
-        if (e.model.rs > 0) k += ' =' + e.name;
-        break;
-      case 'Q':
-        k += ` =${e.name} ${e.model.rc > 0 ? 'c' : ''}${e.model.rb > 0 ? 'b' : ''}${e.model.re > 0 ? 'e' : ''}`;
-        break;
-      default:
-        break;
-    }
+const interned = new Map<string, number>();
+const KINDS = 'RCLVIDQEGFH';
+let codes = new Int32Array(1024);
+let codeLength = 0;
+
+function intern(s: string): number {
+  let i = interned.get(s);
+  if (i === undefined) {
+    i = interned.size + 1;
+    interned.set(s, i);
   }
-  return k;
+  return i;
 }
 
-const cache = new Map<string, Topology>();
-/** Enough for every state and fault variant of a few boards; the oldest entry is dropped beyond it. */
+function push(v: number): void {
+  if (codeLength === codes.length) {
+    const grown = new Int32Array(codes.length * 2);
+    grown.set(codes);
+    codes = grown;
+  }
+  codes[codeLength++] = v;
+}
+
+/** Writes the structure codes of the circuit into `codes[0 .. codeLength)` and returns their hash (FNV-1a). */
+function structureCodes(elements: readonly Element[], extraNodes: readonly string[]): number {
+  codeLength = 0;
+  push(extraNodes.length);
+  for (const nd of extraNodes) push(intern(nd));
+  for (const e of elements) {
+    let kind = KINDS.indexOf(e.kind) + 16 * e.nodes.length;
+    if (e.kind === 'D' && e.model.rs > 0) kind += 256;
+    if (e.kind === 'Q') kind += 256 * ((e.model.rc > 0 ? 1 : 0) + (e.model.rb > 0 ? 2 : 0) + (e.model.re > 0 ? 4 : 0));
+    push(kind);
+    for (const nd of e.nodes) push(intern(nd));
+    if (e.kind === 'V' || e.kind === 'L' || e.kind === 'E' || e.kind === 'H' || kind >= 256) push(intern(e.name));
+    if (e.kind === 'F' || e.kind === 'H') push(intern(e.control));
+  }
+  let h = 0x811c9dc5;
+  for (let i = 0; i < codeLength; i++) h = Math.imul(h ^ (codes[i] as number), 16777619);
+  return h;
+}
+
+function sameCodes(stored: Int32Array): boolean {
+  if (stored.length !== codeLength) return false;
+  for (let i = 0; i < codeLength; i++) if (stored[i] !== codes[i]) return false;
+  return true;
+}
+
+/** Compiled topologies by structure hash (collisions share a bucket), and all of them in least-recent-first order. */
+const buckets = new Map<number, Topology[]>();
+const recency = new Map<Topology, number>();
+/** Enough for every state and fault variant of a few boards; the least recently used entry is dropped beyond it. */
 export const TOPOLOGY_CACHE_SIZE = 256;
 
 /** Empties the topology cache (the benchmark uses it to time a first solve of a structure). */
 export function clearTopologyCache(): void {
-  cache.clear();
+  buckets.clear();
+  recency.clear();
+  interned.clear();
 }
 
 /** The compiled system for the circuit's structure, from the cache or compiled now (throws on a bad control). */
 export function topologyOf(circuit: Circuit, extraNodes: readonly string[]): Topology {
-  const key = structureKey(circuit.elements, extraNodes);
-  const hit = cache.get(key);
+  // interned numbers only grow; start over (with the topologies that use them) before the map gets large
+  if (interned.size > 1 << 20) clearTopologyCache();
+  const hash = structureCodes(circuit.elements, extraNodes);
+  const bucket = buckets.get(hash);
+  const hit = bucket?.find((t) => sameCodes(t.codes));
   if (hit) {
-    cache.delete(key);
-    cache.set(key, hit);
+    recency.delete(hit);
+    recency.set(hit, hash);
     return hit;
   }
-  const top = compileTopology(circuit.elements, extraNodes);
-  cache.set(key, top);
-  if (cache.size > TOPOLOGY_CACHE_SIZE) cache.delete(cache.keys().next().value as string);
+  const top = compileTopology(circuit.elements, extraNodes, codes.slice(0, codeLength));
+  if (bucket) bucket.push(top);
+  else buckets.set(hash, [top]);
+  recency.set(top, hash);
+  if (recency.size > TOPOLOGY_CACHE_SIZE) {
+    const [old, oldHash] = recency.entries().next().value as [Topology, number];
+    recency.delete(old);
+    const b = buckets.get(oldHash) as Topology[];
+    b.splice(b.indexOf(old), 1);
+    if (b.length === 0) buckets.delete(oldHash);
+  }
   return top;
 }
 
@@ -144,7 +192,7 @@ export function topologyOf(circuit: Circuit, extraNodes: readonly string[]): Top
 const MAT = 0;
 const ROW = 1;
 
-function compileTopology(elements: readonly Element[], extraNodes: readonly string[]): Topology {
+function compileTopology(elements: readonly Element[], extraNodes: readonly string[], structure: Int32Array): Topology {
   const nodeIndex = new Map<string, number>();
   const nodeNames: string[] = [];
   const addNode = (name: string): number => {
@@ -385,6 +433,7 @@ function compileTopology(elements: readonly Element[], extraNodes: readonly stri
   const nq = bjEl.length;
   const f = (m: number) => new Float64Array(m);
   return {
+    codes: structure,
     n,
     nodeCount,
     nodeNames,
@@ -417,6 +466,8 @@ function compileTopology(elements: readonly Element[], extraNodes: readonly stri
       b: f(n + 1),
       x: f(n + 1),
       xn: f(n + 1),
+      scale0: f(n),
+      scale: f(n),
       denseFallbacks: 0,
       dIs: f(nd),
       dVte: f(nd),
@@ -526,5 +577,6 @@ export function stampValues(top: Topology, elements: readonly Element[]): Work {
   }
   // islands of a derived state: a tiny conductance to the reference keeps the matrix regular
   for (let t = 0; t < top.islandPos.length; t++) add(a, top.islandPos[t], GISLAND);
+  luColumnScale(a, top.lu, w.scale0);
   return w;
 }

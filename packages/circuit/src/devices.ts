@@ -8,8 +8,8 @@ export const GMIN = 1e-12;
 /** Conductance from nodes with no DC path to the reference (islands of a derived board state). */
 export const GISLAND = 1e-12;
 
-/** a[i] += v (an index into a typed array that the compiler knows is in range). */
-export function add(a: Float64Array, i: number | undefined, v: number): void {
+/** a[i] += v (local to each stamping module, see compile.ts). */
+function add(a: Float64Array, i: number | undefined, v: number): void {
   a[i as number] = (a[i as number] as number) + v;
 }
 
@@ -34,7 +34,7 @@ export function criticalVoltage(vt: number, is: number): number {
 }
 
 /** Set by pnjlim when it limited a step: the iteration cannot count as converged. */
-export const limit = { hit: false };
+const limit = { hit: false };
 
 /** SPICE junction voltage limiting (ngspice DEVpnjlim). Returns the limited voltage; sets limit.hit. */
 export function pnjlim(vnew: number, vold: number, vt: number, vcrit: number): number {
@@ -80,10 +80,11 @@ export function junction(v: number, is: number, vte: number, xbv: number): void 
 /**
  * Adds the companion model of every junction to w.asm / w.b, at the junction voltages of the iterate w.x after
  * pnjlim (at the stored start voltages on the first iteration). Kept in this module with the functions it calls in
- * its inner loop.
+ * its inner loop. Returns true when pnjlim limited a junction step (the iterate cannot count as converged).
  */
-export function stampJunctions(top: Topology, w: Work, first: boolean): void {
+export function stampJunctions(top: Topology, w: Work, first: boolean): boolean {
   const { asm: a, b, x } = w;
+  limit.hit = false;
   const { dPos, dRow, dX, qPos, qRow, qX } = top;
   const nd = top.dEl.length;
   for (let i = 0; i < nd; i++) {
@@ -154,5 +155,5 @@ export function stampJunctions(top: Topology, w: Work, first: boolean): void {
     add(b, qRow[3 * i + 1], -beq);
     add(b, qRow[3 * i + 2], ceq + beq);
   }
+  return limit.hit;
 }
-

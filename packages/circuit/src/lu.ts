@@ -242,26 +242,34 @@ export function luProgram(n: number, nz: Uint8Array): { program: LuProgram; posO
 /** Relative pivot threshold of the sparse path; a weaker diagonal sends the factorisation to the dense path. */
 const SPARSE_PIVOT_THRESHOLD = 1e-6;
 
-/**
- * Factors the compressed values `v` in place along the program. Returns false (v partly modified) when a diagonal
- * pivot is too small relative to its column; the caller then factors a copy densely with luFactor.
- */
-export function luProgramFactor(v: Float64Array, lp: LuProgram): boolean {
-  const { n, nnz, diag, lStart, lPos, uStart, uPos, target, posCol, colScale } = lp;
-  colScale.fill(0);
+/** Largest magnitude per column of the compressed values `v` (the scale of luProgramFactor's singularity test). */
+export function luColumnScale(v: Float64Array, lp: LuProgram, out: Float64Array): void {
+  const { nnz, posCol } = lp;
+  out.fill(0);
   for (let t = 0; t < nnz; t++) {
     const c = posCol[t] as number;
     const a = Math.abs(v[t] as number);
-    if (a > (colScale[c] as number)) colScale[c] = a;
+    if (a > (out[c] as number)) out[c] = a;
   }
+}
+
+/**
+ * Factors the compressed values `v` in place along the program. Returns false (v partly modified) when a diagonal
+ * pivot is too small relative to its column; the caller then factors a copy densely with luFactor. `colScale` is
+ * the column scale of the matrix as assembled (luColumnScale, or an upper bound of it).
+ */
+export function luProgramFactor(v: Float64Array, lp: LuProgram, colScale?: Float64Array): boolean {
+  const { n, diag, lStart, lPos, uStart, uPos, target } = lp;
+  const scale = colScale ?? lp.colScale;
+  if (!colScale) luColumnScale(v, lp, scale);
   let tp = 0;
   for (let k = 0; k < n; k++) {
     const piv = v[diag[k] as number] as number;
     const ap = Math.abs(piv);
-    if (!(ap > 1e-14 * (colScale[k] as number))) return false;
+    if (!(ap > 1e-14 * (scale[k] as number))) return false;
+    const weak = ap / SPARSE_PIVOT_THRESHOLD;
     const r0 = lStart[k] as number;
     const r1 = lStart[k + 1] as number;
-    for (let t = r0; t < r1; t++) if (Math.abs(v[lPos[t] as number] as number) * SPARSE_PIVOT_THRESHOLD > ap) return false;
     const inv = 1 / piv;
     const c0 = uStart[k] as number;
     const nc = (uStart[k + 1] as number) - c0;
@@ -272,6 +280,7 @@ export function luProgramFactor(v: Float64Array, lp: LuProgram): boolean {
         tp += nc;
         continue;
       }
+      if (Math.abs(f) > weak) return false;
       const m = f * inv;
       v[li] = m;
       for (let u = 0; u < nc; u++) {

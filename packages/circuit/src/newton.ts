@@ -3,8 +3,8 @@
  * of the junctions at the limited junction voltages, factors along the sparse LU program and checks convergence.
  */
 import type { Topology, Work } from './compile';
-import { add, limit, stampJunctions } from './devices';
-import { luFactor, luProgramFactor, luProgramSolve, luProgramToDense, luSolve, luWorkspace } from './lu';
+import { stampJunctions } from './devices';
+import { luColumnScale, luFactor, luProgramFactor, luProgramSolve, luProgramToDense, luSolve, luWorkspace } from './lu';
 
 export interface AttemptConfig {
   maxIter: number;
@@ -27,21 +27,45 @@ export interface AttemptResult {
   singular?: number;
 }
 
-/** Assembles w.asm / w.b: linear part, optional shunt, then the junctions at their (limited) voltages. */
-function assemble(top: Topology, w: Work, cfg: AttemptConfig, first: boolean): void {
+/** Assembles w.asm / w.b: linear part, optional shunt, then the junctions at their (limited) voltages; true if limited. */
+function assemble(top: Topology, w: Work, cfg: AttemptConfig, first: boolean): boolean {
   const { asm: a, b, rhs0 } = w;
   a.set(w.base);
   const scale = cfg.srcScale;
   for (let i = 0; i < b.length; i++) b[i] = scale * (rhs0[i] as number);
-  if (cfg.gshunt > 0) for (let i = 0; i < top.shuntPos.length; i++) add(a, top.shuntPos[i], cfg.gshunt);
-  stampJunctions(top, w, first);
+  if (cfg.gshunt > 0) for (let i = 0; i < top.shuntPos.length; i++) a[top.shuntPos[i] as number] = (a[top.shuntPos[i] as number] as number) + cfg.gshunt;
+  return stampJunctions(top, w, first);
+}
+
+/**
+ * Column scales of the assembled matrix without a pass over every entry: the linear part's scales (computed once
+ * per solve) raised by the entries the junctions stamp into. An upper bound of the exact scales (a junction stamp
+ * can only cancel part of a linear entry), so the singularity test stays at least as strict.
+ */
+function columnScale(top: Topology, w: Work): void {
+  const { scale, asm } = w;
+  const { posCol, nnz } = top.lu;
+  scale.set(w.scale0);
+  const raise = (pos: Int32Array) => {
+    for (let t = 0; t < pos.length; t++) {
+      const p = pos[t] as number;
+      if (p >= nnz) continue;
+      const c = posCol[p] as number;
+      const a = Math.abs(asm[p] as number);
+      if (a > (scale[c] as number)) scale[c] = a;
+    }
+  };
+  raise(top.dPos);
+  raise(top.qPos);
 }
 
 /** Solves the assembled system into w.xn: sparse along the program, densely with pivoting when a pivot is weak. */
-function linearSolve(top: Topology, w: Work): number {
+function linearSolve(top: Topology, w: Work, shunted: boolean): number {
   const { lu } = top;
+  if (shunted) luColumnScale(w.asm, lu, w.scale);
+  else columnScale(top, w);
   w.fac.set(w.asm);
-  if (luProgramFactor(w.fac, lu)) {
+  if (luProgramFactor(w.fac, lu, w.scale)) {
     luProgramSolve(w.fac, lu, w.b, w.xn);
     return -1;
   }
@@ -74,11 +98,10 @@ export function newton(top: Topology, w: Work, cfg: AttemptConfig): AttemptResul
     w.qVbc[i] = cfg.initJunctions ? 0 : pol * (xb - (x[top.qX[3 * i] as number] as number));
   }
   for (let iter = 1; iter <= cfg.maxIter; iter++) {
-    limit.hit = false;
     const first = iter === 1;
-    assemble(top, w, cfg, first);
+    let limited = assemble(top, w, cfg, first);
     if (cfg.capture) cfg.capture(w.asm, w.b);
-    const sing = linearSolve(top, w);
+    const sing = linearSolve(top, w, cfg.gshunt > 0);
     if (sing >= 0) return { ok: false, iterations: iter, singular: sing };
     if (!nonlinear) {
       x.set(xn.subarray(0, n));
@@ -91,10 +114,10 @@ export function newton(top: Topology, w: Work, cfg: AttemptConfig): AttemptResul
       if (maxd > cfg.maxStep) {
         const f = cfg.maxStep / maxd;
         for (let i = 0; i < n; i++) xn[i] = (x[i] as number) + f * ((xn[i] as number) - (x[i] as number));
-        limit.hit = true;
+        limited = true;
       }
     }
-    let conv = !limit.hit && !first;
+    let conv = !limited && !first;
     for (let i = 0; i < n; i++) {
       const xo = x[i] as number;
       const xv = xn[i] as number;
