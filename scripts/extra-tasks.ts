@@ -1,5 +1,6 @@
 // Tasks beyond start/test: fault injection, fuzzing and the benchmarks that need the running stack.
 import { printFuzzReport, runFuzz } from './proof/fuzz';
+import { printApiBench, runApiBench } from './proof/bench-api';
 import { FULL, printFaultReport, runFaults, SHORT, type FaultReport } from './proof/faults';
 
 /**
@@ -27,7 +28,16 @@ async function fuzz(args: string[]): Promise<number> {
   return report.ok ? 0 : 1;
 }
 
+async function benchApi(args: string[]): Promise<number> {
+  const seconds = Number(args.find((a) => a.startsWith('--seconds='))?.slice(10) ?? 10);
+  const report = await runApiBench({ connections: 50, seconds: Number.isFinite(seconds) && seconds > 0 ? seconds : 10, log: console.log });
+  printApiBench(report);
+  // A missed target is a figure to report, not a broken command: exit 0 unless the run itself failed.
+  return report.writes.failed + report.diagnosis.failed === 0 ? 0 : 1;
+}
+
 export const tasks: Record<string, (args: string[]) => Promise<number>> = {
   faults,
   fuzz,
+  'bench:api': benchApi,
 };

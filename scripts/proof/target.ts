@@ -22,15 +22,15 @@ async function getJson<T>(url: string, session: Session): Promise<T> {
   return (await r.json()) as T;
 }
 
-/** The first job the signed-in technician's shop has, with a probe pair its board model knows. */
-export async function readingTarget(baseUrl: string, session: Session): Promise<ReadingTarget> {
+/** A job of the signed-in technician's shop (the first, unless `skip` names one not to use), with a probe pair its board model knows. */
+export async function readingTarget(baseUrl: string, session: Session, skip?: string): Promise<ReadingTarget> {
   let jobs: JobList;
   try {
     jobs = await getJson<JobList>(`${baseUrl}/api/jobs`, session);
   } catch (err) {
     throw new Error(`no job to write readings to: ${(err as Error).message} (the jobs and readings API must be there)`, { cause: err });
   }
-  const job = jobs.items[0];
+  const job = jobs.items.find((j) => j.id !== skip) ?? jobs.items[0];
   if (!job) throw new Error('no job to write readings to: the demo seed has no jobs for this shop');
   const detail = await getJson<JobDetail>(`${baseUrl}/api/jobs/${encodeURIComponent(job.id)}`, session);
   const tp = detail.board?.document?.testPoints?.find((t) => t.modes?.includes('dcv') && t.powerStates?.includes('on'));
