@@ -20,7 +20,7 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { lusolve } from 'mathjs';
 import { ngspiceAvailable, ngspiceVersion } from '../ngspice/ngspice';
-import { clearTopologyCache } from '../src/compile';
+import { clearTopologyCache } from '../src/structure-cache';
 import { cloneCircuit, flatten, parseNetlist, solveOp, type Circuit } from '../src/index';
 import { luFactor, luProgramFactor, luProgramSolve, luSolve, luWorkspace } from '../src/lu';
 import { newtonSystem } from '../src/solver';

@@ -1,23 +1,15 @@
 /**
  * Compiles a circuit's structure into a reusable MNA system. Everything that depends only on the structure (the
  * node and branch numbering, the fill-reducing order, the sparse LU program, the matrix position of every stamp)
- * is computed once per structure and cached; a solve then only writes values into preallocated arrays. The
+ * is computed once per structure and cached (structure-cache.ts); a solve then only writes values into
+ * preallocated arrays (stamp.ts) and runs Newton (newton.ts, stepping.ts). The
  * diagnosis engine solves the same board in a handful of states and fault variants many times, and a first reading
  * on a board compiles once for all the probes that follow.
  */
-import type { Circuit, Element } from './circuit';
+import type { Element } from './circuit';
 import { REFERENCE } from './circuit';
-import { breakdownVoltage, criticalVoltage, GISLAND, VT } from './devices';
-import { luColumnScale, luProgram, minimumDegreeOrder, type LuProgram, type LuWorkspace } from './lu';
+import { luProgram, minimumDegreeOrder, type LuProgram, type LuWorkspace } from './lu';
 import { nodesWithoutDcPath } from './topology';
-
-/**
- * a[i] += v. Kept local: the stamping loops call it per entry, and an imported function is reached through a module
- * binding that some loaders (tsx) turn into a getter call.
- */
-function add(a: Float64Array, i: number | undefined, v: number): void {
-  a[i as number] = (a[i as number] as number) + v;
-}
 
 /** Values and scratch of one solve; allocated once per topology (solving is synchronous, so it is reused). */
 export interface Work {
@@ -95,104 +87,11 @@ export interface Topology {
   work: Work;
 }
 
-/**
- * The structure of a circuit as integers: per element its kind and node count, its nodes, and the names that
- * define branches, internal nodes and controls, each string interned to a number. Values are left out: they are
- * stamped on every solve. Interning costs one Map lookup per string (V8 keeps a string's hash), far less than
- * building and hashing one long string key.
- */
-const interned = new Map<string, number>();
-const KINDS = 'RCLVIDQEGFH';
-let codes = new Int32Array(1024);
-let codeLength = 0;
-
-function intern(s: string): number {
-  let i = interned.get(s);
-  if (i === undefined) {
-    i = interned.size + 1;
-    interned.set(s, i);
-  }
-  return i;
-}
-
-function push(v: number): void {
-  if (codeLength === codes.length) {
-    const grown = new Int32Array(codes.length * 2);
-    grown.set(codes);
-    codes = grown;
-  }
-  codes[codeLength++] = v;
-}
-
-/** Writes the structure codes of the circuit into `codes[0 .. codeLength)` and returns their hash (FNV-1a). */
-function structureCodes(elements: readonly Element[], extraNodes: readonly string[]): number {
-  codeLength = 0;
-  push(extraNodes.length);
-  for (const nd of extraNodes) push(intern(nd));
-  for (const e of elements) {
-    let kind = KINDS.indexOf(e.kind) + 16 * e.nodes.length;
-    if (e.kind === 'D' && e.model.rs > 0) kind += 256;
-    if (e.kind === 'Q') kind += 256 * ((e.model.rc > 0 ? 1 : 0) + (e.model.rb > 0 ? 2 : 0) + (e.model.re > 0 ? 4 : 0));
-    push(kind);
-    for (const nd of e.nodes) push(intern(nd));
-    if (e.kind === 'V' || e.kind === 'L' || e.kind === 'E' || e.kind === 'H' || kind >= 256) push(intern(e.name));
-    if (e.kind === 'F' || e.kind === 'H') push(intern(e.control));
-  }
-  let h = 0x811c9dc5;
-  for (let i = 0; i < codeLength; i++) h = Math.imul(h ^ (codes[i] as number), 16777619);
-  return h;
-}
-
-function sameCodes(stored: Int32Array): boolean {
-  if (stored.length !== codeLength) return false;
-  for (let i = 0; i < codeLength; i++) if (stored[i] !== codes[i]) return false;
-  return true;
-}
-
-/** Compiled topologies by structure hash (collisions share a bucket), and all of them in least-recent-first order. */
-const buckets = new Map<number, Topology[]>();
-const recency = new Map<Topology, number>();
-/** Enough for every state and fault variant of a few boards; the least recently used entry is dropped beyond it. */
-export const TOPOLOGY_CACHE_SIZE = 256;
-
-/** Empties the topology cache (the benchmark uses it to time a first solve of a structure). */
-export function clearTopologyCache(): void {
-  buckets.clear();
-  recency.clear();
-  interned.clear();
-}
-
-/** The compiled system for the circuit's structure, from the cache or compiled now (throws on a bad control). */
-export function topologyOf(circuit: Circuit, extraNodes: readonly string[]): Topology {
-  // interned numbers only grow; start over (with the topologies that use them) before the map gets large
-  if (interned.size > 1 << 20) clearTopologyCache();
-  const hash = structureCodes(circuit.elements, extraNodes);
-  const bucket = buckets.get(hash);
-  const hit = bucket?.find((t) => sameCodes(t.codes));
-  if (hit) {
-    recency.delete(hit);
-    recency.set(hit, hash);
-    return hit;
-  }
-  const top = compileTopology(circuit.elements, extraNodes, codes.slice(0, codeLength));
-  if (bucket) bucket.push(top);
-  else buckets.set(hash, [top]);
-  recency.set(top, hash);
-  if (recency.size > TOPOLOGY_CACHE_SIZE) {
-    const [old, oldHash] = recency.entries().next().value as [Topology, number];
-    recency.delete(old);
-    const b = buckets.get(oldHash) as Topology[];
-    b.splice(b.indexOf(old), 1);
-    if (b.length === 0) buckets.delete(oldHash);
-  }
-  return top;
-}
-
 /** Slot kinds recorded before the numbering is final. */
 const MAT = 0;
 const ROW = 1;
 
-function compileTopology(elements: readonly Element[], extraNodes: readonly string[], structure: Int32Array): Topology {
+export function compileTopology(elements: readonly Element[], extraNodes: readonly string[], structure: Int32Array): Topology {
   const nodeIndex = new Map<string, number>();
   const nodeNames: string[] = [];
   const addNode = (name: string): number => {
@@ -485,98 +384,4 @@ function compileTopology(elements: readonly Element[], extraNodes: readonly stri
       qVbc: f(nq),
     },
   };
-}
-
-/** Writes the circuit's values into the topology's work arrays: linear stamps, sources and device parameters. */
-export function stampValues(top: Topology, elements: readonly Element[]): Work {
-  const w = top.work;
-  const { base: a, rhs0: b } = w;
-  const { slots, slotStart } = top;
-  a.fill(0);
-  b.fill(0);
-  const cond = (s: number, g: number) => {
-    add(a, slots[s], g);
-    add(a, slots[s + 1], g);
-    add(a, slots[s + 2], -g);
-    add(a, slots[s + 3], -g);
-  };
-  const branch = (s: number) => {
-    add(a, slots[s], 1);
-    add(a, slots[s + 1], -1);
-    add(a, slots[s + 2], 1);
-    add(a, slots[s + 3], -1);
-  };
-  let di = 0;
-  let qi = 0;
-  for (let ei = 0; ei < elements.length; ei++) {
-    const e = elements[ei] as Element;
-    const s = slotStart[ei] as number;
-    switch (e.kind) {
-      case 'R':
-        cond(s, 1 / e.value);
-        break;
-      case 'C':
-        break;
-      case 'I':
-        add(b, slots[s], -e.value);
-        add(b, slots[s + 1], e.value);
-        break;
-      case 'G':
-        add(a, slots[s], e.gain);
-        add(a, slots[s + 1], -e.gain);
-        add(a, slots[s + 2], -e.gain);
-        add(a, slots[s + 3], e.gain);
-        break;
-      case 'F':
-        add(a, slots[s], e.gain);
-        add(a, slots[s + 1], -e.gain);
-        break;
-      case 'V':
-      case 'L':
-        branch(s);
-        if (e.kind === 'V') add(b, slots[s + 4], e.value);
-        break;
-      case 'E':
-        branch(s);
-        add(a, slots[s + 4], -e.gain);
-        add(a, slots[s + 5], e.gain);
-        break;
-      case 'H':
-        branch(s);
-        add(a, slots[s + 4], -e.gain);
-        break;
-      case 'D': {
-        const m = e.model;
-        if (m.rs > 0) cond(s, e.area / m.rs);
-        const is = m.is * e.area;
-        const vte = m.n * VT;
-        w.dIs[di] = is;
-        w.dVte[di] = vte;
-        w.dVcrit[di] = criticalVoltage(vte, is);
-        w.dXbv[di] = breakdownVoltage(m.bv, m.ibv, is, vte);
-        di++;
-        break;
-      }
-      case 'Q': {
-        const m = e.model;
-        if (m.rc > 0) cond(s, e.area / m.rc);
-        if (m.rb > 0) cond(s + 4, e.area / m.rb);
-        if (m.re > 0) cond(s + 8, e.area / m.re);
-        const is = m.is * e.area;
-        w.qPol[qi] = m.type === 'pnp' ? -1 : 1;
-        w.qIs[qi] = is;
-        w.qBf[qi] = m.bf;
-        w.qBr[qi] = m.br;
-        w.qVtf[qi] = m.nf * VT;
-        w.qVtr[qi] = m.nr * VT;
-        w.qVcrit[qi] = criticalVoltage(VT, is);
-        qi++;
-        break;
-      }
-    }
-  }
-  // islands of a derived state: a tiny conductance to the reference keeps the matrix regular
-  for (let t = 0; t < top.islandPos.length; t++) add(a, top.islandPos[t], GISLAND);
-  luColumnScale(a, top.lu, w.scale0);
-  return w;
 }

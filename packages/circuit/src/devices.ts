@@ -8,7 +8,7 @@ export const GMIN = 1e-12;
 /** Conductance from nodes with no DC path to the reference (islands of a derived board state). */
 export const GISLAND = 1e-12;
 
-/** a[i] += v (local to each stamping module, see compile.ts). */
+/** a[i] += v (local to each stamping module, see stamp.ts). */
 function add(a: Float64Array, i: number | undefined, v: number): void {
   a[i as number] = (a[i as number] as number) + v;
 }

@@ -38,7 +38,7 @@ export type {
 } from './circuit';
 export { solveOp, VT, GMIN, GISLAND } from './solver';
 export type { OpResult, SolveOptions, SolveMethod } from './solver';
-export { measure, read, applyState, stateOf, refusal, meterProfile, DEFAULT_METER, MeasurementError } from './meter';
-export type { Probe, BoardState, Reading, MeterProfile, MeterMode, MeasureOptions } from './meter';
+export { measure, measureDetailed, read, applyState, stateOf, refusal, meterProfile, DEFAULT_METER, MeasurementError } from './meter';
+export type { Probe, BoardState, Reading, MeterProfile, MeterMode, MeasureOptions, MeasuredReading } from './meter';
 export { parseSpiceNumber } from './values';
 export { nodesWithoutDcPath } from './topology';

@@ -4,6 +4,7 @@ import {
   DEFAULT_METER,
   flatten,
   measure,
+  measureDetailed,
   MeasurementError,
   meterProfile,
   parseNetlist,
@@ -165,5 +166,22 @@ describe('dcv function and refusals', () => {
     const c = stateOf(flatten(SECTION), { power: 'off' });
     expect(() => measure(c, { mode: 'ohm', red: 'nosuch', black: '0' })).toThrow('red probe: net "nosuch" is not in the circuit');
     expect(() => measure(c, { mode: 'ohm', red: 'vfan', black: 'vx' })).toThrow('black probe: net "vx" is not in the circuit');
+  });
+});
+
+describe('measure with a warm start', () => {
+  it('reads the same on a variant whether or not it starts from the healthy board’s solution', () => {
+    const healthy = applyState(SECTION, { power: 'on' });
+    const probe = { mode: 'dcv' as const, red: 'vfan', black: '0' };
+    const first = measureDetailed(healthy, probe);
+    expect(first.x).toBeInstanceOf(Float64Array);
+    const variant: Circuit = {
+      ...healthy,
+      elements: healthy.elements.map((e) => (e.kind === 'R' && e.name === 'RSENSE' ? { ...e, value: 2 } : e)),
+    };
+    const cold = measure(variant, probe);
+    const warm = measureDetailed(variant, probe, DEFAULT_METER, { solve: { initialGuess: first.x } });
+    expect(warm.reading.value as number).toBeCloseTo(cold.value as number, 9);
+    expect(warm.reading.value).not.toBe(first.reading.value);
   });
 });

@@ -2,7 +2,7 @@ import type { Circuit, Element } from './circuit';
 import { normNode, REFERENCE } from './circuit';
 import { flatten } from './flatten';
 import type { Netlist } from './netlist';
-import { solveOp, type SolveOptions } from './solver';
+import { solveOp, type OpResult, type SolveOptions } from './solver';
 
 export type MeterMode = 'dcv' | 'ohm' | 'diode' | 'continuity';
 
@@ -125,24 +125,44 @@ function checkNet(circuit: Circuit, net: string, which: string): string {
 }
 
 export interface MeasureOptions {
-  /** Passed to solveOp (e.g. a warm start). */
-  solve?: SolveOptions;
+  /**
+   * Passed to solveOp, e.g. `initialGuess` from an earlier reading of the same probe (`MeasuredReading.x`). A warm
+   * start changes how many Newton iterations the solve takes, not the reading (within the solver's tolerance).
+   * `extraNodes` is always the two probed nets.
+   */
+  solve?: Omit<SolveOptions, 'extraNodes'>;
+}
+
+/** A reading with the solved circuit behind it (undefined for a probe on one net, which needs no solve). */
+export interface MeasuredReading {
+  reading: Reading;
+  /** Node voltages of the circuit with the meter attached. */
+  nodes?: Record<string, number>;
+  /** Solution vector: `options.solve.initialGuess` for the next reading of the same probe on a variant. */
+  x?: Float64Array;
 }
 
 const METER_NODE = 'meter#src';
 
-function driven(circuit: Circuit, red: string, black: string, voc: number, rs: number): { v: number; i: number } {
+function driven(
+  circuit: Circuit,
+  red: string,
+  black: string,
+  voc: number,
+  rs: number,
+  solve: MeasureOptions['solve'],
+): { v: number; i: number; op: OpResult } {
   const elements: Element[] = [
     ...circuit.elements,
     { kind: 'V', name: 'meter#v', part: 'meter#', nodes: [METER_NODE, black], value: voc },
     { kind: 'R', name: 'meter#r', part: 'meter#', nodes: [METER_NODE, red], value: rs },
   ];
-  const op = solveOp({ ...circuit, elements }, { extraNodes: [red, black] });
+  const op = solveOp({ ...circuit, elements }, { ...solve, extraNodes: [red, black] });
   if (!op.converged) throw new MeasurementError(`the circuit with the meter attached does not solve: ${op.message ?? 'no convergence'}`);
   const vr = red === REFERENCE ? 0 : (op.nodes[red] ?? 0);
   const vb = black === REFERENCE ? 0 : (op.nodes[black] ?? 0);
   const vm = op.nodes[METER_NODE] ?? 0;
-  return { v: vr - vb, i: (vm - vr) / rs };
+  return { v: vr - vb, i: (vm - vr) / rs, op };
 }
 
 function resistanceReading(v: number, i: number, overRange: number): number | 'OL' {
@@ -157,38 +177,44 @@ function resistanceReading(v: number, i: number, overRange: number): number | 'O
  * dcv loads it with its input resistance; ohm, continuity and diode connect a Thevenin test source between red (+)
  * and black and read V/I (ohm, continuity) or V (diode).
  */
-export function measure(circuit: Circuit, probe: Probe, meter: MeterProfile = DEFAULT_METER): Reading {
+export function measure(circuit: Circuit, probe: Probe, meter: MeterProfile = DEFAULT_METER, options: MeasureOptions = {}): Reading {
+  return measureDetailed(circuit, probe, meter, options).reading;
+}
+
+/** measure, also returning the solution (a warm start for the same probe on a variant of the circuit). */
+export function measureDetailed(circuit: Circuit, probe: Probe, meter: MeterProfile = DEFAULT_METER, options: MeasureOptions = {}): MeasuredReading {
   const red = checkNet(circuit, probe.red, 'red');
   const black = checkNet(circuit, probe.black, 'black');
+  const solved = (reading: Reading, op: OpResult): MeasuredReading => ({ reading, nodes: op.nodes, x: op.x });
   switch (probe.mode) {
     case 'dcv': {
-      if (red === black) return { value: 0, unit: 'V' };
+      if (red === black) return { reading: { value: 0, unit: 'V' } };
       const rin = meter.dcv.inputResistance;
       const elements: Element[] =
         Number.isFinite(rin) && rin > 0
           ? [...circuit.elements, { kind: 'R', name: 'meter#rin', part: 'meter#', nodes: [red, black], value: rin }]
           : circuit.elements;
-      const op = solveOp({ ...circuit, elements }, { extraNodes: [red, black] });
+      const op = solveOp({ ...circuit, elements }, { ...options.solve, extraNodes: [red, black] });
       if (!op.converged) throw new MeasurementError(`the circuit does not solve: ${op.message ?? 'no convergence'}`);
       const v = (red === REFERENCE ? 0 : (op.nodes[red] ?? 0)) - (black === REFERENCE ? 0 : (op.nodes[black] ?? 0));
-      return { value: v, unit: 'V' };
+      return solved({ value: v, unit: 'V' }, op);
     }
     case 'ohm': {
-      if (red === black) return { value: 0, unit: 'ohm' };
-      const { v, i } = driven(circuit, red, black, meter.ohm.openCircuitVoltage, meter.ohm.sourceResistance);
-      return { value: resistanceReading(v, i, meter.ohm.overRange), unit: 'ohm' };
+      if (red === black) return { reading: { value: 0, unit: 'ohm' } };
+      const { v, i, op } = driven(circuit, red, black, meter.ohm.openCircuitVoltage, meter.ohm.sourceResistance, options.solve);
+      return solved({ value: resistanceReading(v, i, meter.ohm.overRange), unit: 'ohm' }, op);
     }
     case 'continuity': {
       const c = meter.continuity;
-      if (red === black) return { value: 0, unit: 'ohm', beep: true };
-      const { v, i } = driven(circuit, red, black, c.openCircuitVoltage, c.sourceResistance);
+      if (red === black) return { reading: { value: 0, unit: 'ohm', beep: true } };
+      const { v, i, op } = driven(circuit, red, black, c.openCircuitVoltage, c.sourceResistance, options.solve);
       const value = resistanceReading(v, i, c.overRange);
-      return { value, unit: 'ohm', beep: value !== 'OL' && value < c.threshold };
+      return solved({ value, unit: 'ohm', beep: value !== 'OL' && value < c.threshold }, op);
     }
     case 'diode': {
-      if (red === black) return { value: 0, unit: 'V' };
-      const { v } = driven(circuit, red, black, meter.diode.openCircuitVoltage, meter.diode.sourceResistance);
-      return { value: v > meter.diode.overRange ? 'OL' : v, unit: 'V' };
+      if (red === black) return { reading: { value: 0, unit: 'V' } };
+      const { v, op } = driven(circuit, red, black, meter.diode.openCircuitVoltage, meter.diode.sourceResistance, options.solve);
+      return solved({ value: v > meter.diode.overRange ? 'OL' : v, unit: 'V' }, op);
     }
     default:
       throw new MeasurementError(`unknown meter mode "${String((probe as Probe).mode)}" (dcv, ohm, diode, continuity)`);

@@ -1,5 +1,7 @@
 import type { Circuit } from './circuit';
-import { topologyOf, stampValues, type Topology, type Work } from './compile';
+import type { Topology, Work } from './compile';
+import { stampValues } from './stamp';
+import { topologyOf } from './structure-cache';
 import { GMIN, junction, jv } from './devices';
 import { luProgramToDense, type LuProgram } from './lu';
 import { newton, type AttemptConfig } from './newton';
