@@ -9,6 +9,7 @@ import {
   formatTaxRate,
   lineAmountCents,
   parseMoney,
+  centsToDecimal,
   parseQuantity,
   parseTaxRate,
   taxCents,
@@ -122,6 +123,9 @@ describe('parsing and formatting without floats', () => {
   });
 
   it('formats integers back to text', () => {
+    expect(centsToDecimal(1250)).toBe('12.50');
+    expect(centsToDecimal(7)).toBe('0.07');
+    expect(parseMoney(centsToDecimal(123456789))).toBe(123456789);
     expect(formatTaxRate(8875)).toBe('8.875');
     expect(formatTaxRate(8000)).toBe('8');
     expect(formatTaxRate(8250)).toBe('8.25');

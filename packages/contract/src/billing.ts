@@ -113,6 +113,13 @@ export function parseMoney(text: string): number {
   return Number(m[1]) * 100 + Number((m[2] ?? '').padEnd(2, '0'));
 }
 
+/** 1250 → "12.50": cents as the decimal a person types back into a price field. */
+export function centsToDecimal(cents: number): string {
+  assertInt(cents, 'amount');
+  const a = Math.abs(cents);
+  return `${cents < 0 ? '-' : ''}${Math.trunc(a / 100)}.${String(a % 100).padStart(2, '0')}`;
+}
+
 /** 123456 → "1,234.56" with the currency code, e.g. "USD 1,234.56". */
 export function formatMoney(cents: number, currency: string): string {
   const neg = cents < 0;
@@ -133,17 +140,30 @@ export const lineKinds = ['part', 'labour', 'other'] as const;
 export const lineKindSchema = z.enum(lineKinds);
 export type LineKind = z.infer<typeof lineKindSchema>;
 
+/** Quantity text as the API takes it ("1", "1.5"): exported for forms that validate before sending. */
+export const quantityPattern = /^\d{1,6}(\.\d{1,2})?$/;
+/** Tax-rate text as the API takes it ("8.25"). */
+export const taxRatePattern = /^\d{1,3}(\.\d{1,3})?$/;
+
 const quantityText = z
   .string()
   .trim()
-  .regex(/^\d{1,6}(\.\d{1,2})?$/, 'quantity must look like 1 or 1.5')
+  .regex(quantityPattern, 'quantity must look like 1 or 1.5')
   .transform(parseQuantity)
   .refine((q) => q > 0, 'quantity must be more than 0');
+
+/** A price typed in the shop's currency ("12.50") → integer cents, never through a float. */
+export const moneyText = z
+  .string()
+  .trim()
+  .regex(/^\d{1,9}(\.\d{1,2})?$/, 'An amount like 12.50 (a point, no thousands separators)')
+  .transform(parseMoney)
+  .refine((c) => c <= MAX_CENTS, 'Amount too large');
 
 const taxRateText = z
   .string()
   .trim()
-  .regex(/^\d{1,3}(\.\d{1,3})?$/, 'tax rate must look like 8.25')
+  .regex(taxRatePattern, 'tax rate must look like 8.25')
   .transform(parseTaxRate)
   .refine((v) => v <= MAX_TAX_RATE_MILLI_PERCENT, 'tax rate must be at most 100 %');
 

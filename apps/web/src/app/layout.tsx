@@ -43,6 +43,7 @@ export function AppLayout() {
           <NavLink to="/references" className={link}>
             Bench references
           </NavLink>
+          {me.data.role === 'admin' && <NavLink to="/billing/settings" className={link}>Billing</NavLink>}
           {me.data.role === 'admin' && <NavLink to="/dev/mail" className={link}>Mail outbox</NavLink>}
         </nav>
         <span className="text-sm">

@@ -17,9 +17,12 @@ const BoardEditorPage = lazy(() => import('@/features/board-library/components/b
 const ReferencesPage = lazy(() => import('@/features/references/components/references-page'));
 const CustomerPage = lazy(() => import('@/features/customer-page/components/customer-page'));
 const MailOutboxPage = lazy(() => import('@/features/mail-outbox/components/mail-outbox-page'));
+const JobBillingPage = lazy(() => import('@/features/billing/components/job-billing-page'));
+const BillingSettingsPage = lazy(() => import('@/features/billing/components/billing-settings-page'));
 
 export const router = createBrowserRouter([
   { path: '/sign-in', element: <SignInPage /> },
+  { path: '/dev/perf', lazy: async () => ({ Component: (await import('@/features/perf-lab/components/perf-lab-page')).default }) },
   { path: '/c/:token', element: <Suspense fallback={<p className="p-6">Loading…</p>}><CustomerPage /></Suspense> },
   {
     element: <AppLayout />,
@@ -31,11 +34,13 @@ export const router = createBrowserRouter([
       { path: 'jobs/:id/review', element: <ReviewJobPage /> },
       { path: 'jobs/:id/repair', element: <RepairPage /> },
       { path: 'jobs/:id/report', element: <ReportPage /> },
+      { path: 'jobs/:id/billing', element: <JobBillingPage /> },
       { path: 'review', element: <ReviewQueuePage /> },
       { path: 'boards', element: <BoardLibraryPage /> },
       { path: 'boards/:id', element: <BoardEditorPage /> },
       { path: 'references', element: <ReferencesPage /> },
       { path: 'dev/mail', element: <MailOutboxPage /> },
+      { path: 'billing/settings', element: <BillingSettingsPage /> },
     ],
   },
 ]);

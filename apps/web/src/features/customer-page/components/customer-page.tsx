@@ -6,7 +6,7 @@ import { ApiError } from '@/lib/api-client';
 import { useDecideQuote } from '../api/decide-quote';
 import { usePublicJob } from '../api/get-public-job';
 import { useStartCheckout } from '../api/start-checkout';
-import { DocumentTable } from './document-table';
+import { DocumentTable } from '@/components/ui/document-table';
 
 /** A plain page for a dead link: it says nothing about whether the link ever existed. */
 function LinkNoLongerValid() {
