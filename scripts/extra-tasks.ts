@@ -1,6 +1,7 @@
 // Tasks beyond start/test: fault injection, fuzzing and the benchmarks that need the running stack.
 import { printFuzzReport, runFuzz } from './proof/fuzz';
 import { printApiBench, runApiBench } from './proof/bench-api';
+import { printWebBench, runWebBench } from './proof/bench-web';
 import { FULL, printFaultReport, runFaults, SHORT, type FaultReport } from './proof/faults';
 
 /**
@@ -36,8 +37,15 @@ async function benchApi(args: string[]): Promise<number> {
   return report.writes.failed + report.diagnosis.failed === 0 ? 0 : 1;
 }
 
+async function benchWeb(): Promise<number> {
+  const report = await runWebBench({ points: 1000, seconds: 5 });
+  printWebBench(report);
+  return 0;
+}
+
 export const tasks: Record<string, (args: string[]) => Promise<number>> = {
   faults,
   fuzz,
   'bench:api': benchApi,
+  'bench:web': benchWeb,
 };
