@@ -278,6 +278,22 @@ describe('customer links', () => {
     await setStatus(job.id, 'verified');
     expect((await admin.post(`/api/jobs/${job.id}/invoices`, { quoteId: quote.id })).status).toBe(409);
   });
+
+  it('lets the customer answer only the newest quote once the shop re-quoted', async () => {
+    const email = 'kemal.ostrander@contractor.example.test';
+    const job = await makeJob({ customerName: 'Kemal Ostrander', email });
+    const line = (unitCents: number) => ({ lines: [{ kind: 'part', description: 'Fan-drive transistor', quantity: '1', unitCents }] });
+    const first = (await admin.post(`/api/jobs/${job.id}/quotes`, line(1200))).body as unknown as { id: string; number: string };
+    await admin.post(`/api/quotes/${first.id}/send`);
+    const second = (await admin.post(`/api/jobs/${job.id}/quotes`, line(1500))).body as unknown as { id: string; number: string };
+    await admin.post(`/api/quotes/${second.id}/send`);
+    const token = linkIn(await smtp.waitFor((m) => m.to.some((t) => t.includes(email)) && m.subject.includes(second.number)));
+    const customer = new Client(server.url);
+    const old = await customer.post(`/api/public/links/${token}/quotes/${first.id}/approve`);
+    expect(old.status).toBe(409);
+    expect(old.body).toMatchObject({ detail: `Quote ${first.number} was replaced by quote ${second.number}` });
+    expect((await customer.post(`/api/public/links/${token}/quotes/${second.id}/approve`)).status).toBe(200);
+  });
 });
 
 describe('status e-mails and the outbox', () => {

@@ -156,7 +156,7 @@ const quantityText = z
 export const moneyText = z
   .string()
   .trim()
-  .regex(/^\d{1,9}(\.\d{1,2})?$/, 'An amount like 12.50 (a point, no thousands separators)')
+  .regex(/^\d{1,9}(\.\d{1,2})?$/, 'An amount like 12.50')
   .transform(parseMoney)
   .refine((c) => c <= MAX_CENTS, 'Amount too large');
 

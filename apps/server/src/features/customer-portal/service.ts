@@ -1,6 +1,6 @@
 // What the customer sees and does through a link: one job, nothing else of the shop. Every query below is
 // scoped by the link's shop and job; ids from the URL only ever narrow that scope.
-import { and, eq, inArray, isNull } from 'drizzle-orm';
+import { and, eq, gt, inArray, isNull, ne, sql } from 'drizzle-orm';
 import { jobStatusLabels, jobTransitions, type PublicJob } from '@splitscope/contract';
 import type { Config } from '../../config';
 import type { Db } from '../../db/client';
@@ -68,6 +68,22 @@ export async function decideQuote({
   const [q] = await db.select().from(quotes).where(and(eq(quotes.id, quoteId), eq(quotes.jobId, link.jobId), eq(quotes.shopId, link.shopId)));
   if (!q || q.status === 'draft') throw new AppError('not_found', 'No such quote on this job');
   if (q.customerApproval) throw new AppError('conflict', `This quote was already ${q.customerApproval}`);
+  // A quote sent after this one replaces it: the customer answers only the newest, so an old price cannot
+  // be approved after the shop re-quoted.
+  const [newer] = await db
+    .select({ number: quotes.number })
+    .from(quotes)
+    .where(
+      and(
+        eq(quotes.jobId, link.jobId),
+        ne(quotes.id, q.id),
+        ne(quotes.status, 'draft'),
+        // compared in the database: a JS Date drops the microseconds PostgreSQL keeps
+        gt(quotes.createdAt, sql`(select q2.created_at from ${quotes} q2 where q2.id = ${q.id})`),
+      ),
+    )
+    .limit(1);
+  if (newer) throw new AppError('conflict', `Quote ${q.number} was replaced by quote ${newer.number}`);
   const now = new Date();
   const changed = await db.transaction(async (tx) => {
     const [row] = await tx

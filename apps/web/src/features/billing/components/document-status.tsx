@@ -8,8 +8,9 @@ const quoteTone: Record<Quote['status'], [string, string]> = {
   declined: ['Declined by the customer', 'bg-red-100 text-red-950'],
 };
 
-export function QuoteStatus({ quote }: { quote: Quote }) {
-  const [label, tone] = quoteTone[quote.status];
+/** `replaced`: a newer quote went out, so the customer can no longer answer this one. */
+export function QuoteStatus({ quote, replaced = false }: { quote: Quote; replaced?: boolean }) {
+  const [label, tone] = replaced && quote.status === 'sent' ? ['Replaced by a newer quote', 'bg-stone-200 text-stone-900'] : quoteTone[quote.status];
   return <span className={`inline-block rounded px-2 py-0.5 text-sm font-medium ${tone}`}>{label}</span>;
 }
 

@@ -12,16 +12,16 @@ import { LinesEditor } from './lines-editor';
 import { SendForm } from './send-form';
 
 
-function QuoteCard({ quote, ctx, onEdit, current }: { quote: Quote; ctx: BillingCtx; onEdit: () => void; current: boolean }) {
+function QuoteCard({ quote, ctx, onEdit, current, replaced }: { quote: Quote; ctx: BillingCtx; onEdit: () => void; current: boolean; replaced: boolean }) {
   const send = useSendDocument(ctx.job.id, 'quotes');
-  const open = quote.status === 'draft' || quote.status === 'sent';
+  const open = quote.status === 'draft' || (quote.status === 'sent' && !replaced);
   return (
     <article aria-labelledby={`quote-${quote.id}`} className="space-y-3 rounded-lg border border-stone-300 bg-white p-3">
       <div className="flex flex-wrap items-center gap-2">
         <h3 id={`quote-${quote.id}`} className="text-lg font-semibold">
           Quote {quote.number}
         </h3>
-        <QuoteStatus quote={quote} />
+        <QuoteStatus quote={quote} replaced={replaced} />
       </div>
       <p className="text-sm text-stone-700">
         Made {dateTime(quote.createdAt)}
@@ -57,6 +57,8 @@ export function QuotesSection({ quotes, ctx }: { quotes: Quote[]; ctx: BillingCt
   const [editing, setEditing] = useState<string | null>(quotes.length === 0 && ctx.canEdit ? 'new' : null);
   const draft = editing && editing !== 'new' ? (quotes.find((q) => q.id === editing) ?? null) : null;
   const [latest, ...earlier] = [...quotes].reverse();
+  // the server's rule: once a newer quote went out, the customer answers only that one
+  const replaced = (q: Quote) => quotes.some((o) => o.status !== 'draft' && o.createdAt > q.createdAt);
   return (
     <section aria-labelledby="quotes-h" className="space-y-3">
       <div className="flex flex-wrap items-center justify-between gap-2">
@@ -80,14 +82,14 @@ export function QuotesSection({ quotes, ctx }: { quotes: Quote[]; ctx: BillingCt
         />
       )}
       {quotes.length === 0 && !ctx.canEdit && <p className="text-stone-700">No quote for this job yet.</p>}
-      {latest && <QuoteCard key={latest.id} quote={latest} ctx={ctx} current onEdit={() => setEditing(latest.id)} />}
+      {latest && <QuoteCard key={latest.id} quote={latest} ctx={ctx} current replaced={false} onEdit={() => setEditing(latest.id)} />}
       {earlier.length > 0 && (
         // Older quotes are kept as the record of what the customer saw; only the newest is sent on from here.
         <details className="rounded-lg border border-stone-300 bg-stone-50 p-2">
           <summary className="flex min-h-11 cursor-pointer items-center font-semibold">Earlier quotes ({earlier.length})</summary>
           <div className="mt-2 space-y-3">
             {earlier.map((q) => (
-              <QuoteCard key={q.id} quote={q} ctx={ctx} current={false} onEdit={() => setEditing(q.id)} />
+              <QuoteCard key={q.id} quote={q} ctx={ctx} current={false} replaced={replaced(q)} onEdit={() => setEditing(q.id)} />
             ))}
           </div>
         </details>

@@ -18,7 +18,8 @@ function LinkNoLongerValid() {
   );
 }
 
-function QuoteCard({ token, quote }: { token: string; quote: PublicJob['quotes'][number] }) {
+/** `replacedBy`: a newer quote's number; only the newest quote can be answered (the server holds the same rule). */
+function QuoteCard({ token, quote, replacedBy }: { token: string; quote: PublicJob['quotes'][number]; replacedBy: string | null }) {
   const decide = useDecideQuote(token);
   const [declining, setDeclining] = useState(false);
   const [reason, setReason] = useState('');
@@ -36,7 +37,8 @@ function QuoteCard({ token, quote }: { token: string; quote: PublicJob['quotes']
             You declined this quote{quote.declineReason ? `: “${quote.declineReason}”` : ''}. The shop has been told.
           </p>
         )}
-        {quote.status === 'sent' && !declining && (
+        {quote.status === 'sent' && replacedBy && <p className="font-semibold">Replaced by quote {replacedBy}; nothing to answer here.</p>}
+        {quote.status === 'sent' && !replacedBy && !declining && (
           <div className="flex flex-wrap gap-2">
             <Button disabled={decide.isPending} onClick={() => decide.mutate({ quoteId: quote.id, decision: 'approve' })}>
               Approve the quote
@@ -46,7 +48,7 @@ function QuoteCard({ token, quote }: { token: string; quote: PublicJob['quotes']
             </Button>
           </div>
         )}
-        {quote.status === 'sent' && declining && (
+        {quote.status === 'sent' && !replacedBy && declining && (
           <form
             className="flex flex-col gap-2"
             onSubmit={(e) => {
@@ -148,8 +150,8 @@ export default function CustomerPage() {
         {d.invoices.map((i) => (
           <InvoiceCard key={i.id} token={token} invoice={i} returning={returning} />
         ))}
-        {[...d.quotes].reverse().map((q) => (
-          <QuoteCard key={q.id} token={token} quote={q} />
+        {[...d.quotes].reverse().map((q, i, newestFirst) => (
+          <QuoteCard key={q.id} token={token} quote={q} replacedBy={i > 0 ? newestFirst[0]!.number : null} />
         ))}
         {!d.quotes.length && !d.invoices.length && <p>Nothing to approve or pay yet; we will e-mail you when there is.</p>}
         <p className="text-sm text-stone-700">This page shows only this job. The link works until {new Date(d.expiresAt).toLocaleDateString()}.</p>
