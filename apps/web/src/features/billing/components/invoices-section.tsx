@@ -75,6 +75,7 @@ function IssueInvoice({ ctx, approved }: { ctx: BillingCtx; approved: Quote | un
           currency={ctx.currency}
           defaultValues={formValuesOf(approved ?? null, ctx.defaultRate)}
           submitLabel="Issue the invoice"
+          withNote={false}
           pending={create.isPending}
           error={create.error}
           onSubmit={(input) => create.mutateAsync({ lines: input.lines, taxRate: input.taxRate, send: mailNow }).catch(() => undefined)}

@@ -17,10 +17,12 @@ interface Props {
   error: Error | null;
   onSubmit: (input: CreateQuoteRequest) => Promise<unknown>;
   onCancel?: () => void;
+  /** an invoice has no note field on the server, so its editor does not ask for one */
+  withNote?: boolean;
 }
 
 /** Parts and labour lines, tax rate and note for a quote or an invoice; the server prices what is saved. */
-export function LinesEditor({ title, currency, defaultValues, submitLabel, pending, error, onSubmit, onCancel }: Props) {
+export function LinesEditor({ title, currency, defaultValues, submitLabel, pending, error, onSubmit, onCancel, withNote = true }: Props) {
   const id = useId();
   const form = useForm<LinesFormValues, unknown, CreateQuoteRequest>({ resolver: zodResolver(linesFormSchema), defaultValues });
   const lines = useFieldArray({ control: form.control, name: 'lines' });
@@ -98,11 +100,13 @@ export function LinesEditor({ title, currency, defaultValues, submitLabel, pendi
           <input className={`${field} text-right tabular-nums`} inputMode="decimal" autoComplete="off" {...form.register('taxRate')} aria-invalid={!!errs.taxRate} />
           {errs.taxRate && <span className="text-sm text-high">{errs.taxRate.message}</span>}
         </label>
-        <label>
-          <span className="text-sm font-medium">Note to the customer (optional)</span>
-          <textarea rows={2} className={`${field} py-2`} {...form.register('note')} />
-          {errs.note && <span className="text-sm text-high">{errs.note.message}</span>}
-        </label>
+        {withNote && (
+          <label>
+            <span className="text-sm font-medium">Note to the customer (optional)</span>
+            <textarea rows={2} className={`${field} py-2`} {...form.register('note')} />
+            {errs.note && <span className="text-sm text-high">{errs.note.message}</span>}
+          </label>
+        )}
       </div>
       {error && (
         <p role="alert" className="text-sm text-high">

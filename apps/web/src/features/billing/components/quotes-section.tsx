@@ -54,7 +54,9 @@ function QuoteCard({ quote, ctx, onEdit, current, replaced }: { quote: Quote; ct
 export function QuotesSection({ quotes, ctx }: { quotes: Quote[]; ctx: BillingCtx }) {
   const save = useSaveQuote(ctx.job.id);
   // null: no editor; 'new': a new quote; otherwise the id of the draft being edited
-  const [editing, setEditing] = useState<string | null>(quotes.length === 0 && ctx.canEdit ? 'new' : null);
+  // A job with no quote opens on the editor, unless it is already past verification (then the invoice is next).
+  const quoting = !['verified', 'returned'].includes(ctx.job.status);
+  const [editing, setEditing] = useState<string | null>(quotes.length === 0 && ctx.canEdit && quoting ? 'new' : null);
   const draft = editing && editing !== 'new' ? (quotes.find((q) => q.id === editing) ?? null) : null;
   const [latest, ...earlier] = [...quotes].reverse();
   // the server's rule: once a newer quote went out, the customer answers only that one
@@ -81,7 +83,7 @@ export function QuotesSection({ quotes, ctx }: { quotes: Quote[]; ctx: BillingCt
           onCancel={quotes.length ? () => setEditing(null) : undefined}
         />
       )}
-      {quotes.length === 0 && !ctx.canEdit && <p className="text-stone-700">No quote for this job yet.</p>}
+      {quotes.length === 0 && !editing && <p className="text-stone-700">No quote for this job.</p>}
       {latest && <QuoteCard key={latest.id} quote={latest} ctx={ctx} current replaced={false} onEdit={() => setEditing(latest.id)} />}
       {earlier.length > 0 && (
         // Older quotes are kept as the record of what the customer saw; only the newest is sent on from here.
