@@ -1,11 +1,14 @@
 import type { BoardModel, Diagnosis, FaultCodeList, JobDetail } from '@splitscope/contract';
 import { expect, signIn, test } from './fixtures';
-import { expectedRowFor, findJob, getJson, shot, typed } from './helpers';
+import { findJob, getJson, shot, typed } from './helpers';
+import { faultedBoard } from './simulated-fault';
 
-// Waits on the tech's path through the safety gate: since every point of the demo board is on the hot side,
-// the unpowered steps now ask for the bus check first, which this flow does not do yet.
-test.fixme('tech diagnoses on the map, lead approves, tech repairs and verifies, the report shows it all', async ({ page, context }) => {
-  test.setTimeout(180_000);
+// The demo job's board has a shorted ceramic filter capacitor on the switched fan rail (C9, 0.3 ohm): the
+// lesson of the trade that a shorted capacitor kills a rail while every transistor tests fine.
+const FAULT = { component: 'C9', mode: 'short', value: 0.3 };
+
+test('tech diagnoses on the map, lead approves, tech repairs and verifies, the report shows it all', async ({ page, context }) => {
+  test.setTimeout(300_000);
   await signIn(page, 'tech@demo.test');
   await expect(page.getByRole('heading', { name: 'My open jobs' })).toBeVisible();
   const job = await findJob(page, ['received', 'diagnosing'], '&assignee=me');
@@ -13,30 +16,39 @@ test.fixme('tech diagnoses on the map, lead approves, tech repairs and verifies,
   const codes = await getJson<FaultCodeList>(page, `/fault-codes?boardId=${job.boardId}`);
   const suspect = new Set(codes.items.find((c) => c.code === job.faultCode)?.sections ?? []);
   expect(suspect.size, 'the demo job has a fault code that names suspect sections').toBeGreaterThan(0);
-  const sectionOf = (probe: string) => doc.testPoints.find((t) => t.id === probe || t.net === probe)?.section;
   const partSection = (part: string) => doc.parts.find((p) => p.designator === part || p.element === part)?.section;
+  const board = faultedBoard(job, FAULT);
 
   await page.goto(`/jobs/${job.id}?mode=free`);
-  await expect(page.getByRole('heading', { name: 'Next tests' })).toBeVisible();
+  // The first diagnosis of a board version builds its model: seconds on a busy machine.
+  await expect(page.getByRole('heading', { name: 'Next tests' })).toBeVisible({ timeout: 60_000 });
 
-  // The simulated failure: the suspect section reads dead (0 V, open), everything upstream reads healthy.
+  // Take the engine's first next test each time, typing what the faulted board reads, until one part leads.
   let d = await getJson<Diagnosis>(page, `/jobs/${job.id}/diagnosis`);
-  for (let i = 0; i < 14 && !(d.parts[0] && d.parts[0].probability >= 0.5); i++) {
+  let gates = 0;
+  for (let i = 0; i < 14 && !(d.parts[0] && d.parts[0].probability >= 0.8); i++) {
     const step = d.nextTests[0];
     expect(step, 'the engine proposes a next test').toBeTruthy();
-    const row = expectedRowFor(job, step!);
-    expect(row, 'the next test is in the expected table').toBeTruthy();
-    const dead = suspect.has(sectionOf(step!.red) ?? '');
-    const value = dead ? (step!.mode === 'dcv' ? '0' : 'OL') : typed(row!.expected);
     await page.getByRole('heading', { name: 'Next tests' }).locator('..').getByRole('button').first().click();
-    await page.getByLabel('Measured value').fill(value);
+    if (step!.power === 'off' && (await page.getByRole('heading', { name: /Safety gate/ }).isVisible())) {
+      // Unpowered on the hot side: the gate stands before the value field until the bus is measured safe.
+      await expect(page.getByLabel('Measured value')).toHaveCount(0);
+      await page.getByLabel(/The board is unplugged/).check();
+      await page.getByLabel(/Bus voltage I measured now/).fill('1.4');
+      await page.getByRole('button', { name: 'Bus is safe — continue' }).click();
+      if (gates++ === 0) await shot(page, 'flow-safety-gate');
+    }
+    await page.getByLabel('Measured value').fill(board(step!));
     await page.getByLabel('Measured value').press('Enter');
     await expect(page.getByTestId('verdict')).toBeVisible();
-    await expect.poll(async () => (await getJson<Diagnosis>(page, `/jobs/${job.id}/diagnosis`)).readings.length).toBe(d.readings.length + 1);
+    // A new reading can need new fault simulations on the server: allow for a busy 2-core machine.
+    await expect.poll(async () => (await getJson<Diagnosis>(page, `/jobs/${job.id}/diagnosis`)).readings.length, { timeout: 60_000 }).toBe(d.readings.length + 1);
     d = await getJson<Diagnosis>(page, `/jobs/${job.id}/diagnosis`);
   }
+  expect(gates, 'the flow passed the safety gate before its unpowered steps').toBeGreaterThan(0);
   const top = d.parts[0]!;
-  expect(top.probability).toBeGreaterThanOrEqual(0.5);
+  expect(top.part, 'the ranking names the failed part').toBe(FAULT.component);
+  expect(top.probability).toBeGreaterThanOrEqual(0.8);
   expect(suspect.has(partSection(top.part) ?? ''), `${top.part} sits in a suspect section`).toBe(true);
   await expect(page.getByRole('heading', { name: 'Probable faulty parts' }).locator('..').getByRole('listitem').first()).toContainText(top.part);
   await page.getByRole('heading', { name: 'Probable faulty parts' }).locator('..').getByRole('button').first().click();
@@ -63,7 +75,7 @@ test.fixme('tech diagnoses on the map, lead approves, tech repairs and verifies,
   const repaired = await getJson<JobDetail>(page, `/jobs/${job.id}`);
   const powered = repaired.board.expectedReadings.filter((r) => r.power === 'on' && r.mode === 'dcv' && typeof r.expected === 'number').slice(0, 4);
   for (const r of powered) {
-    const field = page.getByLabel(`Verification reading for ${r.label ?? `${r.red} → ${r.black}`}`);
+    const field = page.getByLabel(`Verification reading for ${r.label ?? `${r.red} → ${r.black}`} (DC volts, board powered)`);
     await field.fill(typed(r.expected));
     await field.press('Enter');
     await expect(field.locator('xpath=ancestor::tr')).toContainText('healthy');

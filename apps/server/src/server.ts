@@ -23,6 +23,10 @@ export async function startServer(config: Config): Promise<RunningServer> {
     const s = app.listen(config.PORT, config.HOST, () => resolve(s));
     s.once('error', reject);
   });
+  // Idle keep-alive sockets outlive the clients' own idle timeouts (browsers, proxies, test runners), so the
+  // server never closes a socket at the moment a client reuses it (seen as ECONNRESET). Node's default is 5 s.
+  server.keepAliveTimeout = 65_000;
+  server.headersTimeout = 66_000;
   const addr = server.address();
   const port = typeof addr === 'object' && addr ? addr.port : config.PORT;
   return {

@@ -32,3 +32,11 @@ export function meterText(value: number | 'OL' | boolean | null | undefined, uni
   const n = value / f;
   return `${Number(n.toPrecision(3))} ${p}${u}`.trim();
 }
+
+/** The meter function as the dial says it. */
+export const METER_LABEL: Record<string, string> = {
+  dcv: 'DC volts',
+  ohm: 'Resistance (Ω)',
+  diode: 'Diode test',
+  continuity: 'Continuity',
+};

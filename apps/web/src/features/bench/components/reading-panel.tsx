@@ -2,13 +2,8 @@ import { useEffect, useRef, useState, type FormEvent } from 'react';
 import { Caution } from '@/components/ui/caution';
 import { MARKER, type MarkerState } from '@/lib/map-geometry';
 import { MarkerGlyph } from '@/components/board-map/marker-glyph';
+import { METER_LABEL } from '@/lib/format';
 
-export const METER_LABEL: Record<string, string> = {
-  dcv: 'DC volts',
-  ohm: 'Resistance (Ω)',
-  diode: 'Diode test',
-  continuity: 'Continuity',
-};
 
 export interface ReadingTarget {
   pointId: string;

@@ -4,7 +4,7 @@
  */
 import { probesTouchBus, type Diagnosis, type ExpectedReadingRow, type StoredReading } from '@splitscope/contract';
 import type { MarkerState } from '@/lib/map-geometry';
-import { meterText } from '@/lib/format';
+import { METER_LABEL, meterText } from '@/lib/format';
 import type { NextTestView, RankedPart } from '../components/ranking-panel';
 import { netOf, type BoardView } from './board-view';
 
@@ -96,7 +96,7 @@ export function nextTests(view: BoardView, d: Diagnosis): (NextTestView & { targ
     return {
       id: `${i}-${t.mode}-${t.red}-${t.black}-${t.power}`,
       label: typeof r.instruction === 'string' ? r.instruction : describeTest(view, target),
-      meter: { dcv: 'DC volts', ohm: 'resistance', diode: 'diode test', continuity: 'continuity' }[t.mode],
+      meter: METER_LABEL[t.mode]!,
       power: t.power,
       red: t.red,
       black: t.black,

@@ -11,7 +11,7 @@ import { StatusBadge } from '@/components/ui/status-badge';
 import { useJob } from '@/lib/api/get-job';
 import { useReadings } from '@/lib/api/get-readings';
 import { useUpdateJob } from '@/lib/api/update-job';
-import { dateTime, meterText } from '@/lib/format';
+import { dateTime, METER_LABEL, meterText } from '@/lib/format';
 import { parseTyped } from '@/lib/parse-reading';
 import { useReadingSender } from '@/lib/use-reading-sender';
 import { useCreateRepair } from '../api/create-repair';
@@ -89,11 +89,12 @@ function VerifyRow({ row, onSave, latest }: { row: ExpectedReadingRow; onSave: (
     if (!err) setText('');
   };
   const label = row.label ?? `${row.red} → ${row.black}`;
+  const test = `${METER_LABEL[row.mode]}, board ${row.power === 'on' ? 'powered' : 'unplugged'}`;
   return (
     <tr className="border-t border-stone-200 align-top">
       <td className="py-1 font-semibold">{label}</td>
       <td>
-        {row.mode} · power {row.power}
+        {test}
       </td>
       <td className="tabular-nums">
         {meterText(row.expected, row.unit)}
@@ -106,7 +107,7 @@ function VerifyRow({ row, onSave, latest }: { row: ExpectedReadingRow; onSave: (
       <td>
         <form onSubmit={submit} className="flex gap-1">
           <input
-            aria-label={`Verification reading for ${label}`}
+            aria-label={`Verification reading for ${label} (${test})`}
             value={text}
             onChange={(e) => setText(e.target.value)}
             inputMode="decimal"
