@@ -138,6 +138,11 @@ export const boardModelSchema = z.object({
   priors: z.record(z.string(), z.record(z.string(), z.number().min(0).max(1))).default({}),
   motor: boardMotorSchema.optional(),
   cautions: z.array(z.string().max(1000)).default([]),
+  /**
+   * The section list and layout the model was composed from (the board library's BoardSpec), kept so the board
+   * editor can change a section and compose again. Absent for a model written as plain SPICE plus metadata.
+   */
+  composition: z.record(z.string(), z.unknown()).optional(),
 });
 export type BoardModel = z.infer<typeof boardModelSchema>;
 export type BoardModelInput = z.input<typeof boardModelSchema>;

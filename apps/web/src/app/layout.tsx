@@ -46,8 +46,10 @@ export function AppLayout() {
           {me.data.role === 'admin' && <NavLink to="/billing/settings" className={link}>Billing</NavLink>}
           {me.data.role === 'admin' && <NavLink to="/dev/mail" className={link}>Mail outbox</NavLink>}
         </nav>
-        <span className="text-sm">
-          {me.data.name} · {roleLabel[me.data.role]} · {me.data.shopName}
+        <span className="text-sm" title={me.data.shopName}>
+          {me.data.name} · {roleLabel[me.data.role]}
+          {/* The shop's name only where there is room: on a tablet the main links come first. */}
+          <span className="hidden 2xl:inline"> · {me.data.shopName}</span>
         </span>
         <button
           type="button"

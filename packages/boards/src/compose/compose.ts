@@ -158,6 +158,8 @@ export function composeBoard(spec: BoardSpec, templates: Record<string, SectionT
     });
   return boardModelSchema.parse({
     schemaVersion: BOARD_MODEL_SCHEMA_VERSION,
+    // A drawn picture is recomposed from the layout; a given svg stays in `picture`, not twice in the document.
+    composition: { ...spec, svg: undefined },
     id: spec.id, slug: spec.slug, name: spec.name, family: spec.family, maker: spec.maker,
     ...(spec.description ? { description: spec.description } : {}),
     picture: { svg, width: spec.width, height: spec.height, units: 'px' },

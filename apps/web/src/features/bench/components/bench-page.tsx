@@ -153,7 +153,12 @@ function Bench({ job }: { job: JobDetail }) {
     red: { label: view.netLabel(active.red) },
     black: { label: view.netLabel(active.black) },
     expected: expectedRow
-      ? { text: meterText(expectedRow.expected, expectedRow.unit), band: `${meterText(expectedRow.low, expectedRow.unit)} – ${meterText(expectedRow.high, expectedRow.unit)}` }
+      ? {
+          text: meterText(expectedRow.expected, expectedRow.unit),
+          band: `${meterText(expectedRow.low, expectedRow.unit)} – ${meterText(expectedRow.high, expectedRow.unit)}`,
+          note: expectedRow.note,
+          source: expectedRow.source,
+        }
       : null,
   };
   const choices = !guided && target?.pointId ? rowsForPoint(view, rows, target.pointId) : [];
@@ -203,6 +208,9 @@ function Bench({ job }: { job: JobDetail }) {
           )}
           <Link className="inline-flex min-h-11 items-center rounded-md border border-stone-400 bg-white px-4 font-semibold" to={`/jobs/${job.id}/report`}>
             Report
+          </Link>
+          <Link className="inline-flex min-h-11 items-center rounded-md border border-stone-400 bg-white px-4 font-semibold" to={`/jobs/${job.id}/billing`}>
+            Quote and invoice
           </Link>
         </div>
       </div>

@@ -1,3 +1,4 @@
+import { useState } from 'react';
 export interface RankedPart {
   part: string;
   mode: string;
@@ -19,6 +20,7 @@ export interface NextTestView {
   pointId?: string;
 }
 
+const SHORT_LIST = 8;
 const pct = (p: number) => `${(p * 100).toFixed(p < 0.1 ? 1 : 0)} %`;
 
 /** The engine's ranking of probable faulty parts and its best next tests. */
@@ -35,6 +37,9 @@ export function RankingPanel({
   onPickPart: (part: string) => void;
   onPickTest?: (t: NextTestView) => void;
 }) {
+  // With no readings every part is equally suspect: a list of a hundred parts helps nobody, so show the leaders.
+  const [all, setAll] = useState(false);
+  const shown = all ? parts : parts.slice(0, SHORT_LIST);
   return (
     <div className="space-y-4">
       <section aria-labelledby="ranking-h">
@@ -45,7 +50,7 @@ export function RankingPanel({
           <p className="text-sm text-stone-700">No part stands out yet: record a reading.</p>
         ) : (
           <ol className="space-y-2">
-            {parts.map((p, i) => (
+            {shown.map((p, i) => (
               <li key={`${p.part}-${p.mode}`}>
                 <button
                   type="button"
@@ -85,6 +90,11 @@ export function RankingPanel({
               </li>
             ))}
           </ol>
+        )}
+        {parts.length > SHORT_LIST && (
+          <button type="button" className="mt-2 min-h-11 rounded-md border border-stone-400 bg-white px-3 text-sm font-semibold" onClick={() => setAll(!all)}>
+            {all ? `Show the first ${SHORT_LIST}` : `Show all ${parts.length} candidates`}
+          </button>
         )}
       </section>
       <section aria-labelledby="next-h">

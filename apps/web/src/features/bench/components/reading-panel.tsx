@@ -13,7 +13,8 @@ export interface ReadingTarget {
   red: { label: string };
   black: { label: string };
   /** What the engine computed for this test on a healthy board. */
-  expected?: { text: string; band: string } | null;
+  /** `note` says why an in-circuit reading differs from a part's own value (parallel paths). */
+  expected?: { text: string; band: string; note?: string; source?: string } | null;
   touchesBus?: boolean;
 }
 
@@ -73,6 +74,18 @@ export function ReadingPanel({
         <dd className="font-semibold">{target.power === 'on' ? 'Board powered (ON)' : 'Unplugged, bus discharged (OFF)'}</dd>
         <dt className="text-stone-700">Expected</dt>
         <dd className="font-semibold">{target.expected ? `${target.expected.text} (${target.expected.band})` : 'not computed for this test'}</dd>
+        {target.expected?.note && (
+          <>
+            <dt className="text-stone-700">In circuit</dt>
+            <dd data-testid="expected-note">{target.expected.note}</dd>
+          </>
+        )}
+        {target.expected?.source && (
+          <>
+            <dt className="text-stone-700">Band from</dt>
+            <dd className="text-sm">{target.expected.source}</dd>
+          </>
+        )}
       </dl>
       {target.power === 'on' && (
         <Caution title="Powered board: mains and ~300 V DC bus present">

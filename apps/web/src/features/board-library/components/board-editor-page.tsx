@@ -4,9 +4,10 @@ import { useParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
 import { QueryState } from '@/components/ui/query-state';
 import { useMe } from '@/features/auth/api/me';
-import { meterText } from '@/lib/format';
+import { METER_LABEL, meterText } from '@/lib/format';
 import { useBoard } from '../api/get-board';
 import { useUpdateBoard } from '../api/update-board';
+import { ComposePanel } from './compose-panel';
 
 const input = 'min-h-11 rounded-md border border-stone-500 bg-white px-2';
 
@@ -20,14 +21,13 @@ function readFile(f: File): Promise<string> {
   });
 }
 
-function Editor({ board }: { board: BoardDetail }) {
+function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof useUpdateBoard> }) {
   const me = useMe();
   const parsed = useMemo(() => boardModelSchema.safeParse(board.document), [board.document]);
   const [doc, setDoc] = useState<BoardModel | null>(parsed.success ? parsed.data : null);
   const [selected, setSelected] = useState<string | null>(null);
   const [placing, setPlacing] = useState<'point' | 'part'>('point');
   const [note, setNote] = useState('');
-  const save = useUpdateBoard(board.id);
   const canEdit = me.data?.role === 'admin' || me.data?.role === 'lead';
   if (!doc) return <p role="alert">This board document does not match the board-model schema: {parsed.error?.issues[0]?.message}</p>;
 
@@ -159,6 +159,7 @@ function Editor({ board }: { board: BoardDetail }) {
           </section>
         </div>
       </div>
+      {doc.composition && <ComposePanel composition={doc.composition} canEdit={canEdit} onComposed={(d) => setDoc({ ...d, id: doc.id })} />}
       <section aria-labelledby="netlist-h" className="space-y-1">
         <h2 id="netlist-h" className="text-lg font-semibold">Netlist (SPICE subset)</h2>
         <p className="text-sm text-stone-700">
@@ -187,17 +188,19 @@ function Editor({ board }: { board: BoardDetail }) {
                 <th>Red → black</th>
                 <th>Expected</th>
                 <th>Band</th>
+                <th>Note</th>
               </tr>
             </thead>
             <tbody>
               {board.expectedReadings.map((r) => (
                 <tr key={r.id} className="border-t border-stone-200">
                   <td className="p-1 font-semibold">{r.label ?? r.id}</td>
-                  <td>{r.mode}</td>
+                  <td>{METER_LABEL[r.mode]}</td>
                   <td>{r.power}</td>
                   <td>{r.red} → {r.black}</td>
                   <td className="tabular-nums">{meterText(r.expected, r.unit)}</td>
                   <td className="tabular-nums">{r.low !== null && r.high !== null ? `${meterText(r.low, r.unit)} – ${meterText(r.high, r.unit)}` : '—'}</td>
+                  <td className="max-w-md text-xs">{[r.note, r.source && `band: ${r.source}`].filter(Boolean).join(' · ')}</td>
                 </tr>
               ))}
             </tbody>
@@ -211,7 +214,9 @@ function Editor({ board }: { board: BoardDetail }) {
 export function BoardEditorPage() {
   const { id = '' } = useParams();
   const board = useBoard(id);
-  return <QueryState query={board} label="the board model">{(b) => <Editor key={`${b.id}-${b.version}`} board={b} />}</QueryState>;
+  // Held here, not in the editor: a saved version remounts the editor, and the "saved" note must survive that.
+  const save = useUpdateBoard(id);
+  return <QueryState query={board} label="the board model">{(b) => <Editor key={`${b.id}-${b.version}`} board={b} save={save} />}</QueryState>;
 }
 
 export default BoardEditorPage;
