@@ -1,41 +1,16 @@
 import type Konva from 'konva';
-import { useEffect, useLayoutEffect, useMemo, useRef, useState, type KeyboardEvent } from 'react';
-import { Circle, Group, Image as KonvaImage, Layer, Line, Rect, Stage, Text } from 'react-konva';
+import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState, type KeyboardEvent } from 'react';
+import { Layer, Shape, Stage } from 'react-konva';
 import { MarkerGlyph } from './marker-glyph';
-import {
-  MARKER,
-  fitView,
-  keyToView,
-  markerPoints,
-  pinchView,
-  zoomAt,
-  type MarkerState,
-  type Size,
-  type Vec,
-  type View,
-} from '@/lib/map-geometry';
+import { connectorObstacles, labelHeights, labelWidths, PROBE, type OverlayScene } from './overlay-draw';
+import { OverlayCache } from './overlay-cache';
+import { nearest } from './pick';
+import type { MapConnector, MapPart, MapPoint } from './types';
+import { useMapView } from './use-map-view';
+import { usePicture } from './use-picture';
+import { MARKER, keyToView, pinchView, zoomAt, type MarkerState, type Size, type Vec, type View } from '@/lib/map-geometry';
 
-export interface MapPoint {
-  id: string;
-  label: string;
-  x: number;
-  y: number;
-  net: string;
-  state: MarkerState;
-}
-export interface MapPart {
-  id: string;
-  x: number;
-  y: number;
-  width: number;
-  height: number;
-}
-export interface MapConnector {
-  id: string;
-  x: number;
-  y: number;
-  pins: { label: string; x: number; y: number; net: string }[];
-}
+export type { MapConnector, MapPart, MapPoint } from './types';
 
 export interface BoardMapProps {
   pictureUrl?: string;
@@ -54,20 +29,6 @@ export interface BoardMapProps {
   onBoardClick?: (x: number, y: number) => void;
 }
 
-function usePicture(url?: string) {
-  const [img, setImg] = useState<HTMLImageElement | null>(null);
-  useEffect(() => {
-    if (!url) return;
-    const i = new window.Image();
-    i.onload = () => setImg(i);
-    i.src = url;
-    return () => {
-      i.onload = null;
-    };
-  }, [url]);
-  return url ? img : null;
-}
-
 function useElementSize<T extends HTMLElement>() {
   const ref = useRef<T>(null);
   const [size, setSize] = useState<Size>({ width: 0, height: 0 });
@@ -83,48 +44,191 @@ function useElementSize<T extends HTMLElement>() {
   return [ref, size] as const;
 }
 
-const PROBE = { red: '#c81e1e', black: '#111827' } as const;
+let measurer: CanvasRenderingContext2D | null = null;
+const widths = new Map<string, number>();
+function measure(text: string, font: string): number {
+  const key = `${font}|${text}`;
+  let w = widths.get(key);
+  if (w === undefined) {
+    measurer ??= document.createElement('canvas').getContext('2d');
+    if (measurer) measurer.font = font;
+    w = Math.ceil(measurer?.measureText(text).width ?? text.length * 8);
+    widths.set(key, w);
+  }
+  return w;
+}
+
+const MARKER_REACH = 22; // screen px: a fingertip, not a pixel
+const PIN_REACH = 10;
+const NO_PROBES: { red?: string; black?: string } = {};
 
 /**
- * The board map: the board picture on its own static layer, markers, parts and connectors on the interactive
- * overlay. Pan by dragging, zoom by wheel or pinch, and by keyboard when focused (+ − arrows, 0 fits).
+ * The board map: the board picture, parts, connectors and markers drawn by one custom shape on a single layer. Pan by dragging, zoom by wheel or pinch, and by keyboard when focused (+ − arrows, 0 fits).
+ * Pointer hits are found by distance, so no canvas hit graph is kept.
  */
 export function BoardMap(props: BoardMapProps) {
-  const { size: board, points, parts, connectors, selectedId, probes, highlightPart, onSelect } = props;
-  const picture = usePicture(props.pictureUrl);
-  const [box, stage] = useElementSize<HTMLDivElement>();
-  const [view, setView] = useState<View | null>(null);
-  const [hoverNet, setHoverNet] = useState<string | null>(null);
+  const { size: board, points, parts, connectors, selectedId = null, probes = NO_PROBES, highlightPart = null, onSelect, onPointMove, onBoardClick } = props;
+  const picture = usePicture(props.pictureUrl, board);
+  const [box, stageSize] = useElementSize<HTMLDivElement>();
+  const { stage, read, apply, dragged } = useMapView(box, board, stageSize);
+  const [hover, setHover] = useState<{ net: string; point: number } | null>(null);
   const pinch = useRef<[Vec, Vec] | null>(null);
-  const ready = stage.width > 0 && stage.height > 0;
+  const drag = useRef<{ i: number; moved: boolean } | null>(null);
+  const swallowClick = useRef(false);
+  const ready = stageSize.width > 0 && stageSize.height > 0;
 
-  // First fit once the stage has a size; later resizes keep the user's view.
-  const current = view ?? (ready ? fitView(board, stage) : { scale: 1, x: 0, y: 0 });
-  const k = 1 / current.scale; // markers keep their size on screen
+  const { red, black } = probes;
+  const pins = useMemo(() => connectors.flatMap((c) => c.pins), [connectors]);
+  const labelInput = useMemo(
+    () => ({
+      xs: Float32Array.from(points, (p) => p.x),
+      ys: Float32Array.from(points, (p) => p.y),
+      widths: labelWidths(points, { red, black }, measure),
+      heights: labelHeights(points, { red, black }),
+      board: { width: board.width, height: board.height },
+      markerHalf: 12,
+      gap: 13,
+      obstacles: connectorObstacles(connectors, measure),
+    }),
+    [points, red, black, connectors, board.width, board.height],
+  );
+
+  const scene = useRef<OverlayScene | null>(null);
+  /** Bumped on every change to what is drawn, so the cached picture of the map is redrawn. */
+  const version = useRef(0);
+  const overlay = useRef<Konva.Layer>(null);
+  useLayoutEffect(() => {
+    const prev = scene.current;
+    scene.current = {
+      board,
+      picture,
+      points,
+      parts,
+      connectors,
+      selectedId,
+      highlightPart,
+      probes,
+      hoverNet: hover?.net ?? null,
+      hoverPoint: hover?.point ?? -1,
+      drag: prev?.drag ?? null,
+      labels: labelInput,
+      layout: prev?.labels === labelInput ? prev.layout : null,
+    };
+    version.current++;
+    overlay.current?.batchDraw();
+  });
+
+  const view = useRef<View>({ scale: 1, x: 0, y: 0 });
+  const cache = useRef(new OverlayCache());
+  const sceneFunc = useCallback((ctx: Konva.Context, shape: Konva.Shape) => {
+    const st = shape.getStage();
+    const s = scene.current;
+    if (!st || !s) return;
+    const pr = shape.getLayer()?.getCanvas().getPixelRatio() ?? 1;
+    ctx._context.setTransform(pr, 0, 0, pr, 0, 0);
+    view.current.scale = st.scaleX();
+    view.current.x = st.x();
+    view.current.y = st.y();
+    cache.current.draw(ctx._context, s, version.current, view.current, st.width(), st.height(), pr);
+  }, []);
 
   useEffect(() => {
     // Bring a part the user picked in the ranking into view.
     if (!highlightPart || !ready) return;
     const p = parts.find((x) => x.id === highlightPart);
     if (!p) return;
-    setView((v) => {
-      const s = Math.max((v ?? fitView(board, stage)).scale, 1);
-      return { scale: s, x: stage.width / 2 - (p.x + p.width / 2) * s, y: stage.height / 2 - (p.y + p.height / 2) * s };
-    });
-  }, [highlightPart, parts, ready, board, stage]);
+    const s = Math.max(read().scale, 1);
+    apply({ scale: s, x: stageSize.width / 2 - (p.x + p.width / 2) * s, y: stageSize.height / 2 - (p.y + p.height / 2) * s });
+  }, [highlightPart, parts, ready, stageSize, read, apply]);
 
   const onKeyDown = (e: KeyboardEvent) => {
-    const next = keyToView(e.key, current, stage, board);
+    const next = keyToView(e.key, read(), stageSize, board);
     if (next) {
       e.preventDefault();
-      setView(next);
+      apply(next);
     }
   };
 
   const onWheel = (e: Konva.KonvaEventObject<WheelEvent>) => {
     e.evt.preventDefault();
-    const p = e.target.getStage()?.getPointerPosition();
-    if (p) setView(zoomAt(current, p, e.evt.deltaY < 0 ? 1.15 : 1 / 1.15));
+    const p = stage.current?.getPointerPosition();
+    if (p) apply(zoomAt(read(), p, e.evt.deltaY < 0 ? 1.15 : 1 / 1.15));
+  };
+
+  /** The point (or else connector pin) under the pointer, by distance in screen pixels. */
+  const pick = () => {
+    const p = stage.current?.getPointerPosition();
+    if (!p) return null;
+    const v = read();
+    const i = nearest(points, v, p.x, p.y, MARKER_REACH);
+    if (i >= 0) return { point: i, net: points[i]!.net };
+    const j = nearest(pins, v, p.x, p.y, PIN_REACH);
+    return j >= 0 ? { point: -1, net: pins[j]!.net } : null;
+  };
+
+  const onPointerMove = () => {
+    const st = stage.current;
+    if (!st || st.isDragging() || pinch.current) return;
+    const d = drag.current;
+    const s = scene.current;
+    if (d && s) {
+      const pos = st.getRelativePointerPosition();
+      if (!pos) return;
+      d.moved = true;
+      s.drag = { i: d.i, x: pos.x, y: pos.y };
+      version.current++;
+      overlay.current?.batchDraw();
+      return;
+    }
+    const h = pick();
+    if (h?.net !== hover?.net || h?.point !== hover?.point) {
+      setHover(h);
+      st.container().style.cursor = h && h.point >= 0 ? 'pointer' : '';
+    }
+  };
+
+  const onPointerDown = () => {
+    const st = stage.current;
+    if (!onPointMove || !st) return;
+    const h = pick();
+    if (!h || h.point < 0) return;
+    // Editing: this press moves the point, not the board.
+    st.draggable(false);
+    drag.current = { i: h.point, moved: false };
+  };
+
+  const endPointDrag = useCallback(() => {
+    const d = drag.current;
+    const s = scene.current;
+    if (!d) return;
+    drag.current = null;
+    stage.current?.draggable(true);
+    const at = s?.drag;
+    if (s) s.drag = null;
+    version.current++;
+    if (d.moved && at) {
+      swallowClick.current = true;
+      onPointMove?.(points[d.i]!.id, Math.round(at.x), Math.round(at.y));
+    }
+    overlay.current?.batchDraw();
+  }, [onPointMove, points, stage]);
+
+  useEffect(() => {
+    // A point drag that ends outside the map still ends.
+    window.addEventListener('pointerup', endPointDrag);
+    return () => window.removeEventListener('pointerup', endPointDrag);
+  }, [endPointDrag]);
+
+  const onClick = () => {
+    if (swallowClick.current) {
+      swallowClick.current = false;
+      return;
+    }
+    const h = pick();
+    if (h && h.point >= 0) return onSelect(points[h.point]!.id);
+    if (h || !onBoardClick) return;
+    const pos = stage.current?.getRelativePointerPosition();
+    if (pos) onBoardClick(Math.round(pos.x), Math.round(pos.y));
   };
 
   const touches = (e: TouchEvent): [Vec, Vec] | null => {
@@ -138,19 +242,12 @@ export function BoardMap(props: BoardMapProps) {
   };
   const onTouchMove = (e: Konva.KonvaEventObject<TouchEvent>) => {
     const t = touches(e.evt);
-    if (!t) return;
+    if (!t) return onPointerMove();
     e.evt.preventDefault();
-    e.target.getStage()?.stopDrag();
-    if (pinch.current) setView(pinchView(current, pinch.current, t));
+    stage.current?.stopDrag();
+    if (pinch.current) apply(pinchView(read(), pinch.current, t));
     pinch.current = t;
   };
-
-  const hoverHandlers = (net: string) => ({
-    onMouseEnter: () => setHoverNet(net),
-    onMouseLeave: () => setHoverNet(null),
-  });
-  const netLit = (net: string) => hoverNet === net || probes?.red === net || probes?.black === net;
-  const probeOf = (net: string) => (probes?.red === net ? 'red' : probes?.black === net ? 'black' : null);
 
   const legend = useMemo(() => (Object.keys(MARKER) as MarkerState[]).map((s) => ({ s, ...MARKER[s] })), []);
 
@@ -163,122 +260,28 @@ export function BoardMap(props: BoardMapProps) {
         aria-label="Board map. Plus and minus zoom, arrow keys pan, 0 fits the board. Use the test-point list to pick a point."
         aria-roledescription="board map"
         data-testid="board-map"
-        data-scale={current.scale.toFixed(3)}
-        data-offset={`${Math.round(current.x)},${Math.round(current.y)}`}
         onKeyDown={onKeyDown}
         className="absolute inset-0 touch-none"
       >
         {ready && (
           <Stage
-            width={stage.width}
-            height={stage.height}
-            scaleX={current.scale}
-            scaleY={current.scale}
-            x={current.x}
-            y={current.y}
+            ref={stage}
+            width={stageSize.width}
+            height={stageSize.height}
             draggable
-            onDragEnd={(e) => {
-              if (e.target === e.target.getStage()) setView({ ...current, x: e.target.x(), y: e.target.y() });
-            }}
+            onDragEnd={dragged}
             onWheel={onWheel}
-            onClick={(e) => {
-              if (!props.onBoardClick || e.target !== e.target.getStage()) return;
-              const pos = e.target.getStage()?.getRelativePointerPosition();
-              if (pos) props.onBoardClick(Math.round(pos.x), Math.round(pos.y));
-            }}
+            onMouseMove={onPointerMove}
+            onMouseDown={onPointerDown}
+            onMouseLeave={() => hover && setHover(null)}
+            onClick={onClick}
+            onTap={onClick}
+            onTouchStart={onPointerDown}
             onTouchMove={onTouchMove}
             onTouchEnd={() => (pinch.current = null)}
           >
-            <Layer listening={false}>
-              <Rect width={board.width} height={board.height} fill="#1f5f4a" cornerRadius={8} />
-              {picture && <KonvaImage image={picture} width={board.width} height={board.height} />}
-            </Layer>
-            <Layer>
-              {parts.map((p) => (
-                <Rect
-                  key={p.id}
-                  x={p.x}
-                  y={p.y}
-                  width={p.width}
-                  height={p.height}
-                  stroke={highlightPart === p.id ? '#f5c542' : 'rgba(255,255,255,0.35)'}
-                  strokeWidth={(highlightPart === p.id ? 4 : 1) * k}
-                  dash={highlightPart === p.id ? undefined : [4 * k, 4 * k]}
-                  listening={false}
-                />
-              ))}
-              {highlightPart &&
-                parts
-                  .filter((p) => p.id === highlightPart)
-                  .map((p) => (
-                    <Text key={p.id} x={p.x} y={p.y - 20 * k} text={p.id} fontSize={16 * k} fontStyle="bold" fill="#f5c542" />
-                  ))}
-              {connectors.map((c) => (
-                <Group key={c.id}>
-                  <Text x={c.x} y={c.y - 18 * k} text={c.id} fontSize={13 * k} fill="#ffffff" fontStyle="bold" />
-                  {c.pins.map((pin) => {
-                    const lit = netLit(pin.net);
-                    const probe = probeOf(pin.net);
-                    return (
-                      <Group key={pin.label} x={pin.x} y={pin.y} {...hoverHandlers(pin.net)}>
-                        <Rect
-                          x={-7 * k}
-                          y={-7 * k}
-                          width={14 * k}
-                          height={14 * k}
-                          fill={probe ? PROBE[probe] : lit ? '#f5c542' : '#d6a756'}
-                          stroke="#111827"
-                          strokeWidth={1 * k}
-                        />
-                        <Text x={9 * k} y={-6 * k} text={pin.label} fontSize={11 * k} fill="#ffffff" />
-                      </Group>
-                    );
-                  })}
-                </Group>
-              ))}
-              {points.map((p) => {
-                const m = MARKER[p.state];
-                const lit = netLit(p.net);
-                const probe = probeOf(p.net);
-                const r = 10 * k;
-                return (
-                  <Group
-                    key={p.id}
-                    x={p.x}
-                    y={p.y}
-                    onClick={() => onSelect(p.id)}
-                    onTap={() => onSelect(p.id)}
-                    draggable={!!props.onPointMove}
-                    onDragEnd={(e) => {
-                      e.cancelBubble = true;
-                      props.onPointMove?.(p.id, Math.round(e.target.x()), Math.round(e.target.y()));
-                    }}
-                    {...hoverHandlers(p.net)}
-                  >
-                    {/* generous invisible hit area: a fingertip, not a pixel */}
-                    <Circle radius={22 * k} fill="rgba(0,0,0,0.001)" />
-                    {(lit || selectedId === p.id) && (
-                      <Circle radius={16 * k} stroke={probe ? PROBE[probe] : '#f5c542'} strokeWidth={4 * k} />
-                    )}
-                    <Circle radius={r} fill="#ffffff" stroke={m.colour} strokeWidth={3 * k} />
-                    {m.shape !== 'ring' && (
-                      <Line
-                        points={markerPoints(m.shape, r * 0.75)}
-                        closed={m.shape !== 'check'}
-                        fill={m.shape !== 'check' ? m.colour : undefined}
-                        stroke={m.colour}
-                        strokeWidth={(m.shape === 'check' ? 3 : 1) * k}
-                        lineCap="round"
-                        lineJoin="round"
-                      />
-                    )}
-                    <Text x={13 * k} y={-7 * k} text={p.label} fontSize={13 * k} fill="#ffffff" fontStyle="bold" />
-                    {probe && (
-                      <Text x={13 * k} y={8 * k} text={probe === 'red' ? 'RED +' : 'BLACK −'} fontSize={11 * k} fill="#ffffff" />
-                    )}
-                  </Group>
-                );
-              })}
+            <Layer ref={overlay} listening={false}>
+              <Shape sceneFunc={sceneFunc} listening={false} perfectDrawEnabled={false} shadowForStrokeEnabled={false} />
             </Layer>
           </Stage>
         )}
@@ -296,10 +299,9 @@ export function BoardMap(props: BoardMapProps) {
           <span className="inline-block h-3 w-3 rounded-full border-2" style={{ borderColor: PROBE.black }} /> black probe
         </li>
       </ul>
-      {hoverNet && (
-        <p className="pointer-events-none absolute top-2 left-2 rounded bg-ink/85 px-2 py-1 text-sm text-white">net {hoverNet}</p>
+      {hover && (
+        <p className="pointer-events-none absolute top-2 left-2 rounded bg-ink/85 px-2 py-1 text-sm text-white">net {hover.net}</p>
       )}
     </div>
   );
 }
-

@@ -1,0 +1,58 @@
+import { describe, expect, it } from 'vitest';
+import { layoutLabels, type LabelInput } from './label-layout';
+
+const base = (xs: number[], ys: number[], w = 60): LabelInput => ({
+  xs,
+  ys,
+  widths: xs.map(() => w),
+  heights: xs.map(() => 15),
+  board: { width: 1200, height: 930 },
+  markerHalf: 12,
+  gap: 13,
+});
+
+type Box = [number, number, number, number];
+function boxes(input: LabelInput, scale: number): (Box | null)[] {
+  const { dx, dy } = layoutLabels(input, scale);
+  return Array.from(dx, (x, i) =>
+    Number.isNaN(x) ? null : ([input.xs[i]! * scale + x, input.ys[i]! * scale + dy[i]!, input.widths[i]!, input.heights[i]!] as Box),
+  );
+}
+const overlap = (a: Box, b: Box) => a[0] < b[0] + b[2] && b[0] < a[0] + a[2] && a[1] < b[1] + b[3] && b[1] < a[1] + a[3];
+
+describe('label layout', () => {
+  it('puts a lone label to the right of its marker', () => {
+    const { dx, dy } = layoutLabels(base([500], [500]), 1);
+    expect([dx[0], dy[0]]).toEqual([13, -7.5]);
+  });
+
+  it('moves a label that would run past the picture edge to the other side', () => {
+    // the demo board's TP12 sits 127 px from the right edge with a long label
+    const input = base([1073], [664], 150);
+    const [b] = boxes(input, 0.8);
+    expect(b).not.toBeNull();
+    expect(b![0] + b![2]).toBeLessThanOrEqual(1200 * 0.8);
+    expect(b![0]).toBeGreaterThanOrEqual(0);
+  });
+
+  it('keeps neighbouring labels apart (TP8 and TP7 of the demo board, 86 px apart on one row)', () => {
+    const input = base([881, 967, 1053], [106, 106, 106], 140);
+    for (const scale of [0.6, 0.8, 1, 1.5]) {
+      const placed = boxes(input, scale).filter((b): b is Box => b !== null);
+      expect(placed.length).toBeGreaterThan(0);
+      for (let i = 0; i < placed.length; i++) for (let j = i + 1; j < placed.length; j++) expect(overlap(placed[i]!, placed[j]!)).toBe(false);
+    }
+  });
+
+  it('never lays a label over another marker, and hides what has no room', () => {
+    const xs = Array.from({ length: 400 }, (_, i) => 24 + (i % 40) * 24);
+    const ys = Array.from({ length: 400 }, (_, i) => 24 + Math.floor(i / 40) * 24);
+    const input = base(xs, ys, 38);
+    const placed = boxes(input, 1);
+    expect(placed.some((b) => b === null)).toBe(true);
+    for (const b of placed) {
+      if (!b) continue;
+      for (let m = 0; m < xs.length; m++) expect(overlap(b, [xs[m]! - 12, ys[m]! - 12, 24, 24])).toBe(false);
+    }
+  });
+});

@@ -1,0 +1,123 @@
+/**
+ * Where each test-point label goes. Labels keep their size on screen while the board zooms, so collisions depend
+ * on the scale: the layout works in screen pixels at one scale and is redone when the scale changes (not on pan).
+ * Each label tries a few places around its marker and takes the first one that stays inside the picture and
+ * touches no marker, no fixed obstacle and no label placed before it; a label with no free place is hidden.
+ */
+
+/** Label box offsets from the marker centre, screen px. Right first: that is where a reader looks. */
+export function candidates(w: number, h: number, gap: number): [number, number][] {
+  return [
+    [gap, -h / 2],
+    [-gap - w, -h / 2],
+    [-w / 2, -gap - h],
+    [-w / 2, gap],
+    [gap * 0.7, -gap * 0.7 - h],
+    [gap * 0.7, gap * 0.7],
+    [-gap * 0.7 - w, -gap * 0.7 - h],
+    [-gap * 0.7 - w, gap * 0.7],
+  ];
+}
+
+export interface LabelInput {
+  /** Board coordinates of the markers. */
+  xs: ArrayLike<number>;
+  ys: ArrayLike<number>;
+  /** Label box sizes, screen px. */
+  widths: ArrayLike<number>;
+  heights: ArrayLike<number>;
+  board: { width: number; height: number };
+  /** Half the side of the square a marker covers, and the marker-to-label gap, screen px. */
+  markerHalf: number;
+  gap: number;
+  /** Fixed boxes in board coordinates plus screen-px offset and size (connector pins and their names). */
+  obstacles?: { x: number; y: number; dx: number; dy: number; w: number; h: number }[];
+}
+
+/** Placed label offsets (screen px, box top-left from the marker centre): NaN where the label is hidden. */
+export interface LabelLayout {
+  scale: number;
+  dx: Float32Array;
+  dy: Float32Array;
+}
+
+const CELL = 64;
+
+/** Boxes bucketed by grid cell, so each test looks at a few neighbours, not at every label. */
+class BoxGrid {
+  private cells = new Map<number, number[]>();
+  private boxes: number[] = [];
+  constructor(private cols: number) {}
+
+  add(x: number, y: number, w: number, h: number) {
+    const id = this.boxes.length;
+    this.boxes.push(x, y, x + w, y + h);
+    this.each(x, y, w, h, (key) => {
+      const list = this.cells.get(key);
+      if (list) list.push(id);
+      else this.cells.set(key, [id]);
+      return false;
+    });
+  }
+
+  hits(x: number, y: number, w: number, h: number): boolean {
+    const b = this.boxes;
+    return this.each(x, y, w, h, (key) => {
+      const list = this.cells.get(key);
+      if (!list) return false;
+      for (const id of list) if (x < b[id + 2]! && x + w > b[id]! && y < b[id + 3]! && y + h > b[id + 1]!) return true;
+      return false;
+    });
+  }
+
+  private each(x: number, y: number, w: number, h: number, f: (key: number) => boolean): boolean {
+    const c0 = Math.max(0, Math.floor(x / CELL));
+    const r0 = Math.max(0, Math.floor(y / CELL));
+    const c1 = Math.min(this.cols - 1, Math.floor((x + w) / CELL));
+    const r1 = Math.floor((y + h) / CELL);
+    for (let r = r0; r <= r1; r++) for (let c = c0; c <= c1; c++) if (f(r * this.cols + c)) return true;
+    return false;
+  }
+}
+
+export function layoutLabels(input: LabelInput, scale: number): LabelLayout {
+  const { xs, ys, widths, heights, board, markerHalf: m, gap } = input;
+  const n = xs.length;
+  const W = board.width * scale;
+  const H = board.height * scale;
+  const grid = new BoxGrid(Math.max(1, Math.ceil(W / CELL) + 1));
+  for (let i = 0; i < n; i++) grid.add(xs[i]! * scale - m, ys[i]! * scale - m, 2 * m, 2 * m);
+  for (const o of input.obstacles ?? []) grid.add(o.x * scale + o.dx, o.y * scale + o.dy, o.w, o.h);
+
+  const dx = new Float32Array(n).fill(NaN);
+  const dy = new Float32Array(n).fill(NaN);
+  for (let i = 0; i < n; i++) {
+    const sx = xs[i]! * scale;
+    const sy = ys[i]! * scale;
+    const w = widths[i]!;
+    const h = heights[i]!;
+    for (const [cx, cy] of candidates(w, h, gap)) {
+      // Clamp inside the picture: a label running past the board edge reads as belonging to nothing.
+      const x = Math.max(0, Math.min(W - w, sx + cx));
+      const y = Math.max(0, Math.min(H - h, sy + cy));
+      if (grid.hits(x, y, w, h)) continue;
+      grid.add(x, y, w, h);
+      dx[i] = x - sx;
+      dy[i] = y - sy;
+      break;
+    }
+  }
+  return { scale, dx, dy };
+}
+
+/** Where a label must go even when the layout hid it (the selected or hovered point): its first place, clamped. */
+export function forcedPlace(input: LabelInput, i: number, scale: number): [number, number] {
+  const w = input.widths[i]!;
+  const h = input.heights[i]!;
+  const [cx, cy] = candidates(w, h, input.gap)[0]!;
+  const sx = input.xs[i]! * scale;
+  const sy = input.ys[i]! * scale;
+  const x = Math.max(0, Math.min(input.board.width * scale - w, sx + cx));
+  const y = Math.max(0, Math.min(input.board.height * scale - h, sy + cy));
+  return [x - sx, y - sy];
+}
