@@ -26,6 +26,10 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
   await page.getByLabel('E-mail').fill(email);
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
+  // Signed in once the app has left the sign-in page (argon2 takes a moment on a busy machine); a test that
+  // navigates straight away would otherwise race the session cookie.
+  // (A test of a refused password stays on the page and checks the message itself.)
+  if (password === DEMO_PASSWORD) await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'), { timeout: 30_000 });
 }
 
 export { expect };
