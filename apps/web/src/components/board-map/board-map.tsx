@@ -1,8 +1,9 @@
-import type Konva from 'konva';
+import Konva from 'konva';
 import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState, type KeyboardEvent } from 'react';
 import { Layer, Shape, Stage } from 'react-konva';
 import { MarkerGlyph } from './marker-glyph';
-import { connectorObstacles, labelHeights, labelWidths, PROBE, type OverlayScene } from './overlay-draw';
+import { connectorObstacles, labelHeights, labelWidths, PROBE, PROBE_TAG, type OverlayScene } from './overlay-draw';
+import { labelSprite } from './sprites';
 import { OverlayCache } from './overlay-cache';
 import { nearest } from './pick';
 import type { MapConnector, MapPart, MapPoint } from './types';
@@ -92,6 +93,24 @@ export function BoardMap(props: BoardMapProps) {
     }),
     [points, red, black, connectors, board.width, board.height],
   );
+
+  useEffect(() => {
+    // Draw the label bitmaps while the page is idle, so the first zoom that shows a label does not pay for it.
+    if (typeof window.requestIdleCallback !== 'function') return;
+    const pr = Konva.pixelRatio || window.devicePixelRatio || 1;
+    let i = 0;
+    let id = 0;
+    const step = (d: IdleDeadline) => {
+      for (; i < points.length && d.timeRemaining() > 2; i++) {
+        const p = points[i]!;
+        const tag = p.net === red ? PROBE_TAG.red : p.net === black ? PROBE_TAG.black : null;
+        labelSprite(p.label, tag, labelInput.widths[i]!, labelInput.heights[i]!, pr);
+      }
+      if (i < points.length) id = window.requestIdleCallback(step);
+    };
+    id = window.requestIdleCallback(step);
+    return () => window.cancelIdleCallback(id);
+  }, [points, red, black, labelInput]);
 
   const scene = useRef<OverlayScene | null>(null);
   /** Bumped on every change to what is drawn, so the cached picture of the map is redrawn. */

@@ -5,19 +5,22 @@
  * touches no marker, no fixed obstacle and no label placed before it; a label with no free place is hidden.
  */
 
-/** Label box offsets from the marker centre, screen px. Right first: that is where a reader looks. */
-export function candidates(w: number, h: number, gap: number): [number, number][] {
-  return [
-    [gap, -h / 2],
-    [-gap - w, -h / 2],
-    [-w / 2, -gap - h],
-    [-w / 2, gap],
-    [gap * 0.7, -gap * 0.7 - h],
-    [gap * 0.7, gap * 0.7],
-    [-gap * 0.7 - w, -gap * 0.7 - h],
-    [-gap * 0.7 - w, gap * 0.7],
-  ];
-}
+/**
+ * Where a label box may go, as its top-left offset from the marker centre: x = a·width + b·gap, y = c·height + d·gap
+ * for each [a, b, c, d]. Right first, where a reader looks, then left, above, below and the four diagonals.
+ */
+const PLACES = [
+  [0, 1, -0.5, 0],
+  [-1, -1, -0.5, 0],
+  [-0.5, 0, -1, -1],
+  [-0.5, 0, 0, 1],
+  [0, 0.7, -1, -0.7],
+  [0, 0.7, 0, 0.7],
+  [-1, -0.7, -1, -0.7],
+  [-1, -0.7, 0, 0.7],
+] as const;
+const placeX = (c: number, w: number, gap: number) => PLACES[c]![0] * w + PLACES[c]![1] * gap;
+const placeY = (c: number, h: number, gap: number) => PLACES[c]![2] * h + PLACES[c]![3] * gap;
 
 export interface LabelInput {
   /** Board coordinates of the markers. */
@@ -96,7 +99,9 @@ export function layoutLabels(input: LabelInput, scale: number): LabelLayout {
     const sy = ys[i]! * scale;
     const w = widths[i]!;
     const h = heights[i]!;
-    for (const [cx, cy] of candidates(w, h, gap)) {
+    for (let c = 0; c < PLACES.length; c++) {
+      const cx = placeX(c, w, gap);
+      const cy = placeY(c, h, gap);
       // Clamp inside the picture: a label running past the board edge reads as belonging to nothing.
       const x = Math.max(0, Math.min(W - w, sx + cx));
       const y = Math.max(0, Math.min(H - h, sy + cy));
@@ -114,7 +119,8 @@ export function layoutLabels(input: LabelInput, scale: number): LabelLayout {
 export function forcedPlace(input: LabelInput, i: number, scale: number): [number, number] {
   const w = input.widths[i]!;
   const h = input.heights[i]!;
-  const [cx, cy] = candidates(w, h, input.gap)[0]!;
+  const cx = placeX(0, w, input.gap);
+  const cy = placeY(0, h, input.gap);
   const sx = input.xs[i]! * scale;
   const sy = input.ys[i]! * scale;
   const x = Math.max(0, Math.min(input.board.width * scale - w, sx + cx));

@@ -13,12 +13,16 @@ export class OverlayCache {
   private canvas: HTMLCanvasElement | null = null;
   private key = { version: -1, scale: 0, pr: 0 };
   private origin: View = { scale: 1, x: MARGIN, y: MARGIN };
+  private lastScale = 0;
 
   draw(ctx: CanvasRenderingContext2D, s: OverlayScene, version: number, v: View, width: number, height: number, pr: number) {
     const w = s.board.width * v.scale + 2 * MARGIN;
     const h = s.board.height * v.scale + 2 * MARGIN;
-    // Much bigger than the stage, most of the bitmap would be drawn for nothing: culled direct drawing wins.
-    if (w * h > 1.5 * width * height) {
+    // Much bigger than the stage, most of the bitmap would be drawn for nothing: culled direct drawing wins. And
+    // while the scale changes frame after frame (a wheel or pinch zoom) a bitmap would be thrown away each time.
+    const zooming = v.scale !== this.lastScale;
+    this.lastScale = v.scale;
+    if (zooming || w * h > 1.5 * width * height) {
       this.canvas = null;
       this.key.version = -1;
       return drawOverlay(ctx, s, v, width, height, pr);
