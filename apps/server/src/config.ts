@@ -6,6 +6,8 @@ const schema = z.object({
   HOST: z.string().default('127.0.0.1'),
   PORT: z.coerce.number().int().min(0).max(65535).default(5180), // 0: any free port (tests)
   DATABASE_URL: z.string().url({ message: 'must be a postgres:// URL' }),
+  /** Connections the server keeps to PostgreSQL; more than the cores, since most of a request waits on the database. */
+  DB_POOL_SIZE: z.coerce.number().int().min(1).max(200).default(20),
   /** Where the built web app lives; served on the same port in production. */
   WEB_DIST: z.string().optional(),
   UPLOAD_DIR: z.string().default('.data/uploads'),

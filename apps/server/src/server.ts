@@ -15,7 +15,7 @@ export interface RunningServer {
 
 /** Starts the HTTP server on the configured host and port (port 0 picks a free one). */
 export async function startServer(config: Config): Promise<RunningServer> {
-  const { db, pool } = createDatabase(config.DATABASE_URL);
+  const { db, pool } = createDatabase(config.DATABASE_URL, config.DB_POOL_SIZE);
   const secureCookies = config.PUBLIC_URL?.startsWith('https://') ?? false;
   const ctx: AppContext = { config, db, pool, auth: createAuth(db, { secureCookies }), storage: new DiskStorage(config.UPLOAD_DIR) };
   const app = createApp(ctx);

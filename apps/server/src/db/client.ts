@@ -10,7 +10,7 @@ export interface Database {
 }
 
 /** One pool per process. A lost connection is not fatal: pg drops the client and the next query reconnects. */
-export function createDatabase(url: string, max = 10): Database {
+export function createDatabase(url: string, max = 20): Database {
   const pool = new pg.Pool({ connectionString: url, max, connectionTimeoutMillis: 3000, idleTimeoutMillis: 30_000 });
   pool.on('error', () => {
     /* an idle client died (database restarted); the pool replaces it on the next checkout */

@@ -104,16 +104,22 @@ const CACHE_LIMIT = 50;
 
 /** The engine for a stored version, built once per process (the diagnoser's prediction cache survives). */
 export function boardEngine(versionId: string, doc: unknown): BoardEngine {
-  const hit = cache.get(versionId);
-  if (hit) {
-    cache.delete(versionId);
-    cache.set(versionId, hit);
-    return hit;
-  }
+  const hit = cachedBoardEngine(versionId);
+  if (hit) return hit;
   const built = buildBoardEngine(versionId, isRecord(doc) ? doc : {});
   cache.set(versionId, built);
   if (cache.size > CACHE_LIMIT) cache.delete(cache.keys().next().value as string);
   return built;
+}
+
+/** The engine for a version already built in this process, so a caller can skip loading its document. */
+export function cachedBoardEngine(versionId: string): BoardEngine | undefined {
+  const hit = cache.get(versionId);
+  if (hit) {
+    cache.delete(versionId);
+    cache.set(versionId, hit);
+  }
+  return hit;
 }
 
 const normNet = (n: string) => {

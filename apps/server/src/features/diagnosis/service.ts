@@ -1,13 +1,15 @@
+import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import { CaseError, type CaseReading } from '@splitscope/diagnosis';
 import type { Diagnosis, DiagnosisSnapshot } from '@splitscope/contract';
 import type { Db } from '../../db/client';
-import { boardModelVersions, diagnosisSnapshots, readings, type jobs } from '../../db/schema';
+import { boardModelVersions, diagnosisSnapshots, jobs, readings } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
-import { boardEngine, unitOf } from '../boards/engine';
+import { boardEngine, cachedBoardEngine, unitOf, type BoardEngine } from '../boards/engine';
+import { diagnosisFor } from './cache';
 
 /** Stored with every snapshot, so an old diagnosis can be told apart from what today's engine would say. */
 export const ENGINE_VERSION = (() => {
@@ -15,16 +17,53 @@ export const ENGINE_VERSION = (() => {
   return `${pkg.name}@${pkg.version}`;
 })();
 
-type ReadingRow = typeof readings.$inferSelect;
+/** The same digest PostgreSQL's md5() gives, so a key computed here matches the one the database computes. */
+const md5 = (text: string) => createHash('md5').update(text).digest('hex');
+const keyOf = (versionId: string, n: number, digest: string | null) => `${versionId}|${n}|${digest ?? ''}`;
 
-/** The readings the diagnosis works from: diagnosis-phase rows that no later row corrects, oldest first. */
-export async function currentDiagnosisReadings(db: Db, jobId: string): Promise<ReadingRow[]> {
-  const corrected = db.select({ id: readings.supersedes }).from(readings).where(and(eq(readings.jobId, jobId), sql`${readings.supersedes} is not null`));
-  return db
-    .select()
-    .from(readings)
-    .where(and(eq(readings.jobId, jobId), eq(readings.phase, 'diagnosis'), sql`${readings.id} not in (${corrected})`))
-    .orderBy(asc(readings.takenAt), asc(readings.createdAt));
+type ReadingRow = typeof readings.$inferSelect;
+type JobRef = Pick<typeof jobs.$inferSelect, 'id' | 'boardVersionId'>;
+
+const jobId = sql.placeholder('jobId');
+// The readings the diagnosis works from: diagnosis-phase rows that no later row of the same job corrects
+// (`readings` in the subquery is its own table, not the outer one).
+const correctedIds = (db: Db) => db.select({ id: readings.supersedes }).from(readings).where(and(eq(readings.jobId, jobId), sql`${readings.supersedes} is not null`));
+const isCurrent = (db: Db) => and(eq(readings.jobId, jobId), eq(readings.phase, 'diagnosis'), sql`${readings.id} not in (${correctedIds(db)})`);
+// The id breaks ties of equal timestamps, so the same readings always reach the engine in the same order.
+const byTime = [asc(readings.takenAt), asc(readings.createdAt), asc(readings.id)];
+
+// Built once per database handle; the statement names let pg parse each once per connection.
+const prepared = new WeakMap<Db, ReturnType<typeof prepare>>();
+function prepare(db: Db) {
+  return {
+    job: db
+      .select({ id: jobs.id, boardVersionId: jobs.boardVersionId })
+      .from(jobs)
+      .where(and(eq(jobs.id, jobId), eq(jobs.shopId, sql.placeholder('shopId'))))
+      .prepare('diagnosis_job'),
+    // What the cache key is made of: how many current readings and a digest of their ids in engine order.
+    key: db
+      .select({ n: sql<number>`count(*)::int`, digest: sql<string | null>`md5(string_agg(${readings.id}, ',' order by ${readings.takenAt}, ${readings.createdAt}, ${readings.id}))` })
+      .from(readings)
+      .where(isCurrent(db))
+      .prepare('diagnosis_readings_key'),
+    rows: db.select().from(readings).where(isCurrent(db)).orderBy(...byTime).prepare('diagnosis_readings'),
+    document: db.select({ document: boardModelVersions.document }).from(boardModelVersions).where(eq(boardModelVersions.id, sql.placeholder('versionId'))).prepare('diagnosis_board_document'),
+  };
+}
+function queries(db: Db) {
+  let q = prepared.get(db);
+  if (!q) prepared.set(db, (q = prepare(db)));
+  return q;
+}
+
+/** The engine of a job's pinned version; its document is loaded only when this process has not built it yet. */
+async function engineOf(db: Db, versionId: string): Promise<BoardEngine> {
+  const hit = cachedBoardEngine(versionId);
+  if (hit) return hit;
+  const [version] = await queries(db).document.execute({ versionId });
+  if (!version) throw new AppError('not_found', `No board model version ${versionId}`);
+  return boardEngine(versionId, version.document);
 }
 
 const caseValue = (r: ReadingRow): CaseReading['value'] => {
@@ -32,12 +71,29 @@ const caseValue = (r: ReadingRow): CaseReading['value'] => {
   return r.overLimit ? 'OL' : r.value!;
 };
 
-/** Runs the diagnosis engine on a job's current readings against its pinned board model version. */
-export async function computeDiagnosis({ db, job }: { db: Db; job: typeof jobs.$inferSelect }): Promise<Diagnosis> {
-  const [version] = await db.select().from(boardModelVersions).where(eq(boardModelVersions.id, job.boardVersionId));
-  if (!version) throw new AppError('not_found', `No board model version ${job.boardVersionId}`);
-  const engine = boardEngine(version.id, version.document);
-  const rows = await currentDiagnosisReadings(db, job.id);
+/** The diagnosis of a job of the shop; another shop's job is a 404. */
+export async function getDiagnosis({ db, shopId, jobId: id }: { db: Db; shopId: string; jobId: string }): Promise<Diagnosis> {
+  const [job] = await queries(db).job.execute({ jobId: id, shopId });
+  if (!job) throw new AppError('not_found', `No job ${id}`);
+  return computeDiagnosis({ db, job });
+}
+
+/**
+ * Runs the diagnosis engine on a job's current readings against its pinned board model version. The answer is
+ * cached per job while its current readings stay the same; the object is frozen and shared, not to be changed.
+ */
+export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Promise<Diagnosis> {
+  const q = queries(db);
+  const [k] = await q.key.execute({ jobId: job.id });
+  return diagnosisFor(job.id, keyOf(job.boardVersionId, k?.n ?? 0, k?.digest ?? null), async () => {
+    const engine = await engineOf(db, job.boardVersionId);
+    const rows = await q.rows.execute({ jobId: job.id });
+    // Kept under the key of the rows it ran on: a reading stored since the key query makes that key differ.
+    return { key: keyOf(job.boardVersionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null), output: runEngine(engine, job, rows) };
+  });
+}
+
+function runEngine(engine: BoardEngine, job: JobRef, rows: ReadingRow[]): Diagnosis {
   const input: CaseReading[] = rows.map((r) => ({ mode: r.mode, red: r.redNet, black: r.blackNet, power: r.power, lifted: r.lifted, value: caseValue(r) }));
   let out;
   try {
@@ -49,7 +105,7 @@ export async function computeDiagnosis({ db, job }: { db: Db; job: typeof jobs.$
   return {
     ...out,
     jobId: job.id,
-    boardVersionId: version.id,
+    boardVersionId: job.boardVersionId,
     engineVersion: ENGINE_VERSION,
     readings: out.readings.map((rep) => {
       const r = rows[rep.index]!;
