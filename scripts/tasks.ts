@@ -98,7 +98,9 @@ async function test(): Promise<number> {
 
   await buildWeb();
   const port = String(await findFreePort(5300));
-  const server = await spawnServer({ DATABASE_URL: url, PORT: port, LOGIN_RATE_LIMIT: '1000' }, { quiet: true });
+  // The local mail capture and payment fakes on free ports too, so `npm test` runs beside a running `npm start`.
+  const fakes = { SMTP_PORT: String(await findFreePort(2600)), PAYMENTS_PORT: String(await findFreePort(12200)) };
+  const server = await spawnServer({ DATABASE_URL: url, PORT: port, LOGIN_RATE_LIMIT: '1000', ...fakes }, { quiet: true });
   const e2eJson = join(reports, 'e2e.json');
   try {
     env.BASE_URL = server.url;
