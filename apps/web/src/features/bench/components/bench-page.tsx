@@ -11,11 +11,10 @@ import { useDiagnosis } from '@/lib/api/get-diagnosis';
 import { useJob } from '@/lib/api/get-job';
 import { useReadings } from '@/lib/api/get-readings';
 import { useUpdateJob } from '@/lib/api/update-job';
-import { meterText } from '@/lib/format';
+import { METER_LABEL, meterText } from '@/lib/format';
 import { useReadingSender } from '@/lib/use-reading-sender';
 import {
   currentReadings,
-  describeTest,
   expectedFor,
   latestFor,
   nextTests,
@@ -272,7 +271,9 @@ function Bench({ job }: { job: JobDetail }) {
                           onClick={() => setTarget({ mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted, pointId: target?.pointId })}
                           className="min-h-11 rounded-md border border-stone-400 bg-white px-2 text-sm aria-pressed:border-copper aria-pressed:bg-amber-50 aria-pressed:font-semibold"
                         >
-                          {r.label ?? describeTest(view, r)}
+                          {/* The point is already chosen: what tells these apart is the meter function and the power state. */}
+                          {METER_LABEL[r.mode]} · {r.power === 'on' ? 'powered' : 'unplugged'}
+                          {r.lifted.length > 0 ? ` · ${r.lifted.join(', ')} lifted` : ''}
                         </button>
                       ))}
                     </fieldset>
