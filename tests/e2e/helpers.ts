@@ -42,9 +42,14 @@ interface Probe {
 }
 
 /** The expected-table row for a probe (test point ids and their nets are the same place). */
-export function expectedRowFor(job: JobDetail, t: Probe) {
+/** The net a probe name stands for on the job's board (a test point id or a net name), lower case. */
+export function probeNet(job: JobDetail, probe: string): string {
   const doc = job.board.document as { testPoints?: { id: string; net: string }[] };
-  const net = (s: string) => (doc.testPoints?.find((p) => p.id.toLowerCase() === s.toLowerCase())?.net ?? s).toLowerCase();
+  return (doc.testPoints?.find((p) => p.id.toLowerCase() === probe.toLowerCase())?.net ?? probe).toLowerCase();
+}
+
+export function expectedRowFor(job: JobDetail, t: Probe) {
+  const net = (s: string) => probeNet(job, s);
   const lifted = (l?: string[]) => [...(l ?? [])].sort().join();
   return job.board.expectedReadings.find(
     (r) => r.mode === t.mode && r.power === t.power && net(r.red) === net(t.red) && net(r.black) === net(t.black) && lifted(r.lifted) === lifted(t.lifted),

@@ -4,7 +4,7 @@
 import type { JobDetail } from '@splitscope/contract';
 // A test may reach into the engine's source; the root package does not depend on the engine packages.
 import { createDiagnoser } from '../../packages/diagnosis/src/index';
-import { typed } from './helpers';
+import { probeNet, typed } from './helpers';
 
 export interface Probe {
   mode: 'dcv' | 'ohm' | 'diode' | 'continuity';
@@ -23,9 +23,9 @@ export interface Fault {
 
 /** What a technician would type for each probe on this job's board with `fault` in it. */
 export function faultedBoard(job: JobDetail, fault: Fault): (t: Probe) => string {
-  const doc = job.board.document as { netlist: string; params?: Record<string, number>; testPoints: { id: string; net: string }[] };
+  const doc = job.board.document as { netlist: string; params?: Record<string, number> };
   const d = createDiagnoser({ netlist: doc.netlist, params: doc.params });
-  const net = (p: string) => (doc.testPoints.find((t) => t.id.toLowerCase() === p.toLowerCase())?.net ?? p).toLowerCase();
+  const net = (p: string) => probeNet(job, p);
   return (t) => {
     const test = { mode: t.mode, red: net(t.red), black: net(t.black), power: t.power, lifted: [...(t.lifted ?? [])].sort() };
     const [p] = d.model.predict([{ component: fault.component, mode: fault.mode, point: 0, value: fault.value }], [test]);

@@ -122,7 +122,8 @@ export function cachedBoardEngine(versionId: string): BoardEngine | undefined {
   return hit;
 }
 
-const normNet = (n: string) => {
+/** A net name as typed → the netlist's spelling: lower case, `gnd` is the reference `0`. */
+export const normNet = (n: string) => {
   const l = n.trim().toLowerCase();
   return l === 'gnd' ? '0' : l;
 };

@@ -6,12 +6,9 @@ import { DEFAULT_SAFE_THRESHOLD } from '@splitscope/boards';
 import type { Db } from '../../db/client';
 import type { jobs } from '../../db/schema';
 import { AppError } from '../../http/errors';
+import { normNet as norm } from '../boards/engine';
 import { computeDiagnosis } from '../diagnosis/service';
 
-const norm = (s: string) => {
-  const l = s.trim().toLowerCase();
-  return l === 'gnd' ? '0' : l;
-};
 const sameSet = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((x) => b.some((y) => norm(x) === norm(y)));
 
 /** The bus-discharge gate, as the server checks it: refused with a message naming what is missing. */
