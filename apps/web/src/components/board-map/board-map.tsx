@@ -61,6 +61,7 @@ function measure(text: string, font: string): number {
 
 const MARKER_REACH = 22; // screen px: a fingertip, not a pixel
 const PIN_REACH = 10;
+const DRAG_SLOP = 3; // screen px a press may wander and still be a click, as for Konva's own drags
 const NO_PROBES: { red?: string; black?: string } = {};
 
 /**
@@ -74,8 +75,11 @@ export function BoardMap(props: BoardMapProps) {
   const { stage, read, apply, dragged } = useMapView(box, board, stageSize);
   const [hover, setHover] = useState<{ net: string; point: number } | null>(null);
   const pinch = useRef<[Vec, Vec] | null>(null);
-  const drag = useRef<{ i: number; moved: boolean } | null>(null);
+  /** A point being dragged: where the press was (screen) and the point's offset from the pointer (board), kept while it moves. */
+  const drag = useRef<{ i: number; from: Vec; dx: number; dy: number; moved: boolean } | null>(null);
   const swallowClick = useRef(false);
+  /** From a second finger landing until a new one-finger touch: the taps Konva reports as those fingers lift end a pinch. */
+  const multiTouch = useRef(false);
   const ready = stageSize.width > 0 && stageSize.height > 0;
 
   const { red, black } = probes;
@@ -192,9 +196,11 @@ export function BoardMap(props: BoardMapProps) {
     const s = scene.current;
     if (d && s) {
       const pos = st.getRelativePointerPosition();
-      if (!pos) return;
+      const at = st.getPointerPosition();
+      if (!pos || !at) return;
+      if (!d.moved && Math.hypot(at.x - d.from.x, at.y - d.from.y) < DRAG_SLOP) return;
       d.moved = true;
-      s.drag = { i: d.i, x: pos.x, y: pos.y };
+      s.drag = { i: d.i, x: pos.x + d.dx, y: pos.y + d.dy };
       version.current++;
       overlay.current?.batchDraw();
       return;
@@ -206,14 +212,31 @@ export function BoardMap(props: BoardMapProps) {
     }
   };
 
-  const onPointerDown = () => {
+  // A pointer event, so it runs before the mousedown / touchstart that would start a pan, and never for the mouse
+  // events a browser sends after a tap.
+  const onPointerDown = (e: Konva.KonvaEventObject<PointerEvent>) => {
     const st = stage.current;
-    if (!onPointMove || !st) return;
+    // A drag released outside the map got no click to swallow; this press is a new one.
+    swallowClick.current = false;
+    if (!onPointMove || !st || !e.evt.isPrimary || e.evt.button > 0) return;
     const h = pick();
-    if (!h || h.point < 0) return;
+    const at = st.getPointerPosition();
+    const pos = st.getRelativePointerPosition();
+    if (!h || h.point < 0 || !at || !pos) return;
     // Editing: this press moves the point, not the board.
     st.draggable(false);
-    drag.current = { i: h.point, moved: false };
+    const p = points[h.point]!;
+    drag.current = { i: h.point, from: at, dx: p.x - pos.x, dy: p.y - pos.y, moved: false };
+  };
+
+  /** A point drag given up (a second finger came): the point stays where it was. */
+  const dropPointDrag = () => {
+    if (!drag.current) return;
+    drag.current = null;
+    stage.current?.draggable(true);
+    if (scene.current) scene.current.drag = null;
+    version.current++;
+    overlay.current?.batchDraw();
   };
 
   const endPointDrag = useCallback(() => {
@@ -259,6 +282,21 @@ export function BoardMap(props: BoardMapProps) {
       { x: b.clientX - r.left, y: b.clientY - r.top },
     ];
   };
+  const onTouchStart = (e: Konva.KonvaEventObject<TouchEvent>) => {
+    const t = touches(e.evt);
+    if (!t) {
+      if (e.evt.touches.length === 1) multiTouch.current = false;
+      return;
+    }
+    // The pinch is measured from the moment the second finger lands, or its first movement is lost.
+    multiTouch.current = true;
+    dropPointDrag();
+    stage.current?.stopDrag();
+    pinch.current = t;
+  };
+  const onTap = () => {
+    if (!multiTouch.current) onClick();
+  };
   const onTouchMove = (e: Konva.KonvaEventObject<TouchEvent>) => {
     const t = touches(e.evt);
     if (!t) return onPointerMove();
@@ -291,13 +329,13 @@ export function BoardMap(props: BoardMapProps) {
             onDragEnd={dragged}
             onWheel={onWheel}
             onMouseMove={onPointerMove}
-            onMouseDown={onPointerDown}
+            onPointerDown={onPointerDown}
             onMouseLeave={() => hover && setHover(null)}
             onClick={onClick}
-            onTap={onClick}
-            onTouchStart={onPointerDown}
+            onTap={onTap}
+            onTouchStart={onTouchStart}
             onTouchMove={onTouchMove}
-            onTouchEnd={() => (pinch.current = null)}
+            onTouchEnd={(e) => e.evt.touches.length < 2 && (pinch.current = null)}
           >
             <Layer ref={overlay} listening={false}>
               <Shape sceneFunc={sceneFunc} listening={false} perfectDrawEnabled={false} shadowForStrokeEnabled={false} />
