@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { RunningServer } from '../src/server';
+import { createUser } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
 
 let server: RunningServer;
@@ -49,6 +50,18 @@ describe('health and sign-in against PostgreSQL', () => {
     expect((await c.post('/api/auth/sign-out')).status).toBe(204);
     c.cookie = old;
     expect((await c.get('/api/me')).status).toBe(401);
+  });
+
+  // Sessions are kept a few seconds per process (`auth/session-cache.ts`); a change made here must not wait.
+  it('a role change applies to the next request of a session already signed in', async () => {
+    const user = await createUser(server.ctx.db, { shopId: 'shop-demo', role: 'tech', password: 'role-change-test' });
+    const c = await new Client(server.url).signIn(user.email, 'role-change-test');
+    expect((await c.get('/api/users/invitations')).status).toBe(403);
+    const admin = await new Client(server.url).signIn('admin@demo.test');
+    expect((await admin.patch(`/api/users/${user.id}`, { role: 'admin' })).status).toBe(200);
+    expect((await c.get('/api/users/invitations')).status).toBe(200);
+    expect((await admin.patch(`/api/users/${user.id}`, { role: 'trainee' })).status).toBe(200);
+    expect((await c.get('/api/users/invitations')).status).toBe(403);
   });
 
   it('refuses a state-changing request from another origin', async () => {

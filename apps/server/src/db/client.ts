@@ -17,3 +17,6 @@ export function createDatabase(url: string, max = 20): Database {
   });
   return { pool, db: drizzle(pool, { schema }) };
 }
+
+/** The pool behind a handle from `createDatabase` (not a transaction's), for the few statements written in SQL. */
+export const poolOf = (db: Db): pg.Pool => (db as Db & { $client: pg.Pool }).$client;

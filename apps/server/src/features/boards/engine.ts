@@ -102,11 +102,16 @@ export function buildBoardEngine(versionId: string, doc: Record<string, unknown>
 const cache = new Map<string, BoardEngine>();
 const CACHE_LIMIT = 50;
 
-/** The engine for a stored version, built once per process (the diagnoser's prediction cache survives). */
-export function boardEngine(versionId: string, doc: unknown): BoardEngine {
+/**
+ * The engine for a stored version, built once per process (the diagnoser's prediction cache survives). The
+ * expected table stored with the version, when given, is the one its verdicts read: it is what the screens show
+ * for that version, and computing it again takes seconds of the server's time.
+ */
+export function boardEngine(versionId: string, doc: unknown, storedTable?: unknown): BoardEngine {
   const hit = cachedBoardEngine(versionId);
   if (hit) return hit;
   const built = buildBoardEngine(versionId, isRecord(doc) ? doc : {});
+  if (Array.isArray(storedTable) && storedTable.length > 0) built.expected = storedTable as ExpectedReadingRow[];
   cache.set(versionId, built);
   if (cache.size > CACHE_LIMIT) cache.delete(cache.keys().next().value as string);
   return built;
@@ -212,8 +217,23 @@ export function expectedTable(engine: BoardEngine): ExpectedReadingRow[] {
   return engine.expected;
 }
 
+const probeKey = (mode: string, power: string, red: string, black: string) => `${mode} ${power} ${red} ${black}`;
+// Every reading write looks its probe up in the table, so the table is indexed by probe once per engine.
+const tableIndex = new WeakMap<BoardEngine, Map<string, ExpectedReadingRow>>();
+
 /** The table row a probe reads, when it is one (no parts lifted). */
 function tableRow(engine: BoardEngine, probe: ProbeState): ExpectedReadingRow | undefined {
   if (probe.lifted.length > 0) return undefined;
-  return expectedTable(engine).find((r) => r.mode === probe.mode && r.power === probe.power && resolveNet(engine, r.red) === probe.red && resolveNet(engine, r.black) === probe.black);
+  let index = tableIndex.get(engine);
+  if (!index) {
+    index = new Map();
+    for (const r of expectedTable(engine)) {
+      const red = resolveNet(engine, r.red);
+      const black = resolveNet(engine, r.black);
+      const key = red && black ? probeKey(r.mode, r.power, red, black) : undefined;
+      if (key && !index.has(key)) index.set(key, r);
+    }
+    tableIndex.set(engine, index);
+  }
+  return index.get(probeKey(probe.mode, probe.power, probe.red, probe.black));
 }

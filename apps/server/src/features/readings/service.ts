@@ -10,8 +10,9 @@ import { newId } from '../../lib/ids';
 import { boardEngine, cachedBoardEngine, powerRefusal, resolveNet, resolveParts, unitOf, verdictFor } from '../boards/engine';
 import { getJobRow } from '../jobs/service';
 import { checkGuidedStep, checkSafetyGate } from './guided';
+import { insertReading, type NewReading, type ReadingRow } from './write-batch';
 
-type Row = typeof readings.$inferSelect;
+type Row = ReadingRow;
 const later = alias(readings, 'later');
 
 function toReading(r: Row, authorName: string, supersededBy: string | null): StoredReading {
@@ -66,11 +67,15 @@ const withVerdict = (r: StoredReading): CreateReadingResponse => ({ ...r, expect
 const p = sql.placeholder;
 const stored = alias(readings, 'stored');
 
-// The write path's statements, built once per database handle and named so pg parses each once per connection:
-// a reading write is a few round trips, not a few query builds and round trips.
+// The write path's statements, built once per database handle and named so pg parses each once per connection.
 const prepared = new WeakMap<Db, ReturnType<typeof prepare>>();
 function prepare(db: Db) {
   return {
+    boardVersion: db
+      .select({ boardVersionId: jobs.boardVersionId })
+      .from(jobs)
+      .where(and(eq(jobs.id, p('jobId')), eq(jobs.shopId, p('shopId'))))
+      .prepare('reading_job_board_version'),
     // The job (of this shop only) and, in the same round trip, the row a retry with this key already stored.
     jobAndReplay: db
       .select({ job: { id: jobs.id, status: jobs.status, assigneeId: jobs.assigneeId, boardVersionId: jobs.boardVersionId }, r: stored, authorName: users.name, supersededBy: later.id })
@@ -80,26 +85,16 @@ function prepare(db: Db) {
       .leftJoin(later, eq(later.supersedes, stored.id))
       .where(and(eq(jobs.id, p('jobId')), eq(jobs.shopId, p('shopId'))))
       .prepare('reading_job_and_replay'),
-    replay: rowsQuery(db).where(and(eq(readings.jobId, p('jobId')), eq(readings.idempotencyKey, p('key')))).prepare('reading_replay'),
-    document: db.select({ document: boardModelVersions.document }).from(boardModelVersions).where(eq(boardModelVersions.id, p('versionId'))).prepare('reading_board_document'),
+    version: db
+      .select({ document: boardModelVersions.document, expectedReadings: boardModelVersions.expectedReadings })
+      .from(boardModelVersions)
+      .where(eq(boardModelVersions.id, p('versionId')))
+      .prepare('reading_board_version'),
     corrects: db
       .select({ mode: readings.mode, redNet: readings.redNet, blackNet: readings.blackNet, power: readings.power, lifted: readings.lifted })
       .from(readings)
       .where(and(eq(readings.id, p('id')), eq(readings.jobId, p('jobId'))))
       .prepare('reading_corrects'),
-    insert: db
-      .insert(readings)
-      .values({
-        id: p('id'), shopId: p('shopId'), jobId: p('jobId'), idempotencyKey: p('idempotencyKey'), mode: p('mode'), red: p('red'), black: p('black'),
-        redNet: p('redNet'), blackNet: p('blackNet'), power: p('power'), lifted: p('lifted'), value: p('value'), overLimit: p('overLimit'),
-        unit: p('unit'), beep: p('beep'), raw: p('raw'), instrument: p('instrument'), phase: p('phase'), supersedes: p('supersedes'),
-        // Raw, not through the jsonb encoder, which would store a missing verdict as JSON null instead of SQL null.
-        verdict: sql`${p('verdict')}`,
-        safetyBusVolts: p('safetyBusVolts'), authorId: p('authorId'), takenAt: p('takenAt'),
-      })
-      .onConflictDoNothing({ target: [readings.jobId, readings.idempotencyKey] })
-      .returning()
-      .prepare('reading_insert'),
   };
 }
 function queries(db: Db) {
@@ -108,38 +103,80 @@ function queries(db: Db) {
   return q;
 }
 
-async function getStored(db: Db, jobId: string, key: string) {
-  const [x] = await queries(db).replay.execute({ jobId, key });
-  return x ? withVerdict(toReading(x.r, x.authorName, x.supersededBy)) : null;
+// A job's shop and board version never change, so which version a job of a shop pins is kept once looked up:
+// a plain reading write then needs no query before the statement that stores it.
+const VERSION_LIMIT = 1000;
+const versions = new Map<string, string>();
+async function boardVersionOf(db: Db, shopId: string, jobId: string): Promise<string | undefined> {
+  const key = `${shopId}\n${jobId}`;
+  const hit = versions.get(key);
+  if (hit) return hit;
+  const [row] = await queries(db).boardVersion.execute({ jobId, shopId });
+  if (!row) return undefined;
+  versions.set(key, row.boardVersionId);
+  if (versions.size > VERSION_LIMIT) versions.delete(versions.keys().next().value as string);
+  return row.boardVersionId;
 }
 
 const invalid = (path: string, message: string) => new AppError('invalid', message, { errors: [{ path, message }] });
 
-/**
- * Stores one reading with its verdict. A retry with the same idempotency key answers the stored row and
- * stores nothing; a correction is a new row naming the one it supersedes.
- */
-export async function createReading({ db, actor, jobId, input }: { db: Db; actor: Actor; jobId: string; input: CreateReadingInput }): Promise<CreateReadingResponse> {
-  const q = queries(db);
-  const [found] = await q.jobAndReplay.execute({ jobId, shopId: actor.shopId, key: input.idempotencyKey });
+const OPEN_FOR: Record<CreateReadingInput['phase'], readonly string[]> = { diagnosis: ['received', 'diagnosing'], verification: ['approved', 'repaired'] };
+function checkOpen(status: string, phase: CreateReadingInput['phase']): void {
+  const allowed = OPEN_FOR[phase];
+  if (!allowed.includes(status)) throw new AppError('conflict', `A ${phase} reading is taken while the job is ${allowed.join(' or ')}; this job is ${status}`);
+}
+
+type JobState = { id: string; status: string; assigneeId: string | null; boardVersionId: string };
+
+/** The job as a checked write sees it first: of this shop, open to this actor, and any row this key stored. */
+async function jobAndReplay(db: Db, actor: Actor, jobId: string, input: CreateReadingInput): Promise<{ job: JobState; replay: CreateReadingResponse | null }> {
+  const [found] = await queries(db).jobAndReplay.execute({ jobId, shopId: actor.shopId, key: input.idempotencyKey });
   if (!found) throw new AppError('not_found', `No job ${jobId}`);
   const { job } = found;
   if (actor.role === 'trainee' && job.assigneeId !== actor.id) throw new AppError('forbidden', 'Trainees record readings only on jobs assigned to them');
   if (actor.role === 'trainee' && input.phase !== 'diagnosis') throw new AppError('forbidden', 'Trainees take diagnosis steps; verification readings after a repair are taken by a technician');
-  if (found.r) return withVerdict(toReading(found.r, found.authorName!, found.supersededBy));
+  return { job, replay: found.r ? withVerdict(toReading(found.r, found.authorName!, found.supersededBy)) : null };
+}
 
-  const allowed = input.phase === 'verification' ? ['approved', 'repaired'] : ['received', 'diagnosing'];
-  if (!allowed.includes(job.status)) {
-    throw new AppError('conflict', `A ${input.phase} reading is taken while the job is ${allowed.join(' or ')}; this job is ${job.status}`);
+/**
+ * Stores one reading with its verdict. A retry with the same idempotency key answers the stored row and
+ * stores nothing; a correction is a new row naming the one it supersedes.
+ *
+ * A trainee's step and a correction are checked against the job before they are stored. A plain reading is
+ * checked by the statement that stores it (the job's shop and status, the key not used yet), and only when that
+ * stores nothing does a second look say why: a replay, a closed job or no such job.
+ */
+export async function createReading({ db, actor, jobId, input }: { db: Db; actor: Actor; jobId: string; input: CreateReadingInput }): Promise<CreateReadingResponse> {
+  const q = queries(db);
+  let versionId: string;
+  let job: JobState | undefined;
+  if (actor.role === 'trainee' || input.supersedes) {
+    const seen = await jobAndReplay(db, actor, jobId, input);
+    if (seen.replay) return seen.replay;
+    checkOpen(seen.job.status, input.phase);
+    job = seen.job;
+    versionId = job.boardVersionId;
+  } else {
+    const v = await boardVersionOf(db, actor.shopId, jobId);
+    if (!v) throw new AppError('not_found', `No job ${jobId}`);
+    versionId = v;
   }
   const why = powerRefusal(input.mode, input.power);
   if (why) throw invalid('power', why);
   if (input.value !== 'OL' && input.mode === 'ohm' && input.value < 0) throw invalid('value', `A resistance cannot be negative (${input.value} ohm)`);
 
-  // A version never changes, so its document is loaded only to build the engine once, or for the safety gate.
-  let document: unknown;
-  const loadDocument = async () => (document ??= (await q.document.execute({ versionId: job.boardVersionId }))[0]!.document);
-  const engine = cachedBoardEngine(job.boardVersionId) ?? boardEngine(job.boardVersionId, await loadDocument());
+  // A version never changes, so it is loaded only to build the engine once (with the expected table stored
+  // beside it, which the verdicts read), or for the safety gate.
+  let version: { document: unknown; expectedReadings: unknown } | undefined;
+  const loadVersion = async () => {
+    version ??= (await q.version.execute({ versionId }))[0]!;
+    return version;
+  };
+  let engine = cachedBoardEngine(versionId);
+  if (!engine) {
+    const v = await loadVersion();
+    engine = boardEngine(versionId, v.document, v.expectedReadings);
+  }
   const redNet = resolveNet(engine, input.red);
   if (!redNet) throw invalid('red', `Unknown net or test point "${input.red}" on this board model`);
   const blackNet = resolveNet(engine, input.black);
@@ -152,14 +189,14 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
     [corrects] = await q.corrects.execute({ id: input.supersedes, jobId });
     if (!corrects) throw invalid('supersedes', `No reading ${input.supersedes} on this job to correct`);
   }
-  if (actor.role === 'trainee') {
+  if (actor.role === 'trainee' && job) {
     await checkGuidedStep({ db, job, input, probe: { redNet, blackNet, lifted: lifted.parts }, corrects });
-    checkSafetyGate(await loadDocument(), input);
+    checkSafetyGate((await loadVersion()).document, input);
   }
 
   const engineValue = input.mode === 'continuity' ? (input.beep ?? input.value !== 'OL') : input.value;
   const verdict = verdictFor(engine, { mode: input.mode, red: redNet, black: blackNet, power: input.power, lifted: lifted.parts }, engineValue);
-  const row = {
+  const row: NewReading = {
     id: newId(),
     shopId: actor.shopId,
     jobId,
@@ -184,22 +221,23 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
     authorId: actor.id,
     takenAt: input.takenAt ? new Date(input.takenAt) : new Date(),
   };
-  let inserted: Row | undefined;
+  let inserted: ReadingRow | null;
   try {
-    if (job.status === 'received') {
-      // The first reading starts the diagnosis, in the same transaction as the row.
-      await db.transaction(async (tx) => {
-        [inserted] = await tx.insert(readings).values(row).onConflictDoNothing({ target: [readings.jobId, readings.idempotencyKey] }).returning();
-        await tx.update(jobs).set({ status: 'diagnosing', updatedAt: new Date() }).where(and(eq(jobs.id, jobId), eq(jobs.status, 'received')));
-      });
-    } else {
-      [inserted] = await q.insert.execute({ ...row, verdict: verdict === null ? null : JSON.stringify(verdict) });
-    }
+    inserted = await insertReading(db, row);
   } catch (err) {
     if ((err as { code?: string }).code === '23505') throw new AppError('conflict', `Reading ${input.supersedes} is already corrected; correct the newer reading instead`);
     throw err;
   }
-  // Nothing inserted: a concurrent retry with the same key stored its row first, and that row is the answer.
-  // Otherwise the answer is the row as stored; the author is the signed-in actor and nothing corrects it yet.
-  return inserted ? withVerdict(toReading(inserted, actor.name, null)) : (await getStored(db, jobId, input.idempotencyKey))!;
+  // The answer is the row as stored; the author is the signed-in actor and nothing corrects it yet.
+  if (inserted) return withVerdict(toReading(inserted, actor.name, null));
+  return whyNotStored(db, actor, jobId, input);
+}
+
+/** Nothing was stored: the row a retry with this key stored first is the answer, or the job says why not. */
+async function whyNotStored(db: Db, actor: Actor, jobId: string, input: CreateReadingInput): Promise<CreateReadingResponse> {
+  const { job, replay } = await jobAndReplay(db, actor, jobId, input);
+  if (replay) return replay;
+  checkOpen(job.status, input.phase);
+  // Open again by now (a review sent it back between the two looks): the client's retry will store it.
+  throw new AppError('conflict', `Job ${jobId} changed while the reading was sent; send it again`);
 }

@@ -4,6 +4,7 @@ import type { AcceptInvitationRequest, CreateInvitationRequest, Invitation, Role
 import type { Actor } from '../../auth/guards';
 import type { Auth } from '../../auth/lucia';
 import { hashPassword } from '../../auth/password';
+import { forgetUserSessions } from '../../auth/session-cache';
 import type { Db } from '../../db/client';
 import { auditLog, invitations, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
@@ -30,7 +31,7 @@ export async function findMembers({ db, shopId }: { db: Db; shopId: string }) {
 }
 
 export async function updateMemberRole({ db, actor, id, role }: { db: Db; actor: Actor; id: string; role: Role }) {
-  return db.transaction(async (tx) => {
+  const updated = await db.transaction(async (tx) => {
     const [target] = await tx.select().from(users).where(and(eq(users.id, id), eq(users.shopId, actor.shopId))).for('update');
     if (!target) throw new AppError('not_found', `No user ${id}`);
     if (target.role === role) return member(target);
@@ -42,6 +43,9 @@ export async function updateMemberRole({ db, actor, id, role }: { db: Db; actor:
     await tx.insert(auditLog).values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: 'role-change', subject: target.email, detail: `${target.role} → ${role}` });
     return member(row!);
   });
+  // After the commit, so a request in between cannot keep the old role from a read of the old row.
+  forgetUserSessions(id);
+  return updated;
 }
 
 export async function findInvitations({ db, shopId }: { db: Db; shopId: string }) {

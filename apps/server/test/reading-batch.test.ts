@@ -1,0 +1,99 @@
+// Readings posted at the same moment are stored by one statement (`write-batch.ts`). These requests are sent
+// together so they land in the same batch, and each must get the answer it would get alone.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { randomUUID } from 'node:crypto';
+import { eq } from 'drizzle-orm';
+import { jobs, readings } from '../src/db/schema';
+import { batchStats } from '../src/features/readings/write-batch';
+import type { RunningServer } from '../src/server';
+import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
+import { Client, startTestServer } from './harness';
+
+let server: RunningServer;
+let tech: Client;
+let other: Client;
+let boardId: string;
+let customerId: string;
+
+beforeAll(async () => {
+  server = await startTestServer();
+  const db = server.ctx.db;
+  customerId = (await createCustomer(db, { shopId: 'shop-demo', name: 'Batch Test Contracting' })).id;
+  boardId = (await createBoardModel(db, { shopId: 'shop-demo', createdBy: 'user-admin' })).id;
+  tech = await new Client(server.url).signIn('tech@demo.test');
+  other = await new Client(server.url).signIn('tech@other.test');
+});
+afterAll(() => server.close());
+
+const newJob = async () => (await createJob(server.ctx.db, { shopId: 'shop-demo', createdBy: 'user-tech', customerId, boardId })).id;
+const reading = (over: Record<string, unknown> = {}) => ({ idempotencyKey: randomUUID(), mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', value: 7.5, raw: '7.5', ...over });
+const rowsOf = (jobId: string) => server.ctx.db.select().from(readings).where(eq(readings.jobId, jobId));
+const statusOf = async (jobId: string) => (await server.ctx.db.select({ s: jobs.status }).from(jobs).where(eq(jobs.id, jobId)))[0]!.s;
+
+describe('readings sent together', () => {
+  it('are all stored, each answered with its own row, and the first moves a received job to diagnosing', async () => {
+    const jobId = await newJob();
+    expect(await statusOf(jobId)).toBe('received');
+    const bodies = Array.from({ length: 40 }, (_, i) => reading({ value: 7 + i / 100, raw: `${7 + i / 100}` }));
+    const before = batchStats.statements;
+    const answers = await Promise.all(bodies.map((b) => tech.post(`/api/jobs/${jobId}/readings`, b)));
+    // Fewer statements than readings: they were stored together, not one by one.
+    expect(batchStats.statements - before).toBeLessThan(40);
+    expect(answers.map((a) => a.status)).toEqual(bodies.map(() => 201));
+    answers.forEach((a, i) => expect(a.body).toMatchObject({ idempotencyKey: bodies[i]!.idempotencyKey, value: bodies[i]!.value, authorName: expect.any(String), verdict: { unit: 'V' } }));
+    const rows = await rowsOf(jobId);
+    expect(rows).toHaveLength(40);
+    expect(new Set(rows.map((r) => r.idempotencyKey))).toEqual(new Set(bodies.map((b) => b.idempotencyKey)));
+    expect(await statusOf(jobId)).toBe('diagnosing');
+  });
+
+  it('a key sent twice in the same batch stores one row, and both answers are that row', async () => {
+    const jobId = await newJob();
+    const body = reading();
+    const [a, b] = await Promise.all([tech.post(`/api/jobs/${jobId}/readings`, body), tech.post(`/api/jobs/${jobId}/readings`, body)]);
+    expect([a.status, b.status]).toEqual([201, 201]);
+    expect(b.body.id).toBe(a.body.id);
+    expect(await rowsOf(jobId)).toHaveLength(1);
+  });
+
+  it('a job closed to readings, another shop and a second correction of one reading are refused; the rest of the batch is stored', async () => {
+    const open = await newJob();
+    const closed = await newJob();
+    await server.ctx.db.update(jobs).set({ status: 'awaiting-review' }).where(eq(jobs.id, closed));
+    const first = await tech.post(`/api/jobs/${open}/readings`, reading({ value: 75, raw: '75' }));
+    const sent = await Promise.all([
+      tech.post(`/api/jobs/${open}/readings`, reading()),
+      tech.post(`/api/jobs/${closed}/readings`, reading()),
+      other.post(`/api/jobs/${open}/readings`, reading()),
+      tech.post(`/api/jobs/${open}/readings`, reading({ supersedes: first.body.id })),
+      tech.post(`/api/jobs/${open}/readings`, reading({ supersedes: first.body.id })),
+      tech.post(`/api/jobs/${open}/readings`, reading({ value: 7.4, raw: '7.4' })),
+    ]);
+    const [plain, toClosed, fromOther, fixA, fixB, plain2] = sent;
+    expect(plain!.status).toBe(201);
+    expect(plain2!.status).toBe(201);
+    expect(toClosed!.status).toBe(409);
+    expect(toClosed!.body.detail).toMatch(/this job is awaiting-review/);
+    expect(fromOther!.status).toBe(404);
+    // One of the two corrections wins; the other is told to correct the newer reading.
+    expect([fixA!.status, fixB!.status].sort()).toEqual([201, 409]);
+    expect(await rowsOf(closed)).toHaveLength(0);
+    const rows = await rowsOf(open);
+    expect(rows).toHaveLength(4);
+    expect(rows.filter((r) => r.supersedes === first.body.id)).toHaveLength(1);
+  });
+
+  it('keeps lifted parts, OL, a continuity beep and the safety-gate voltage as sent', async () => {
+    const jobId = await newJob();
+    const [ohm, cont] = await Promise.all([
+      tech.post(`/api/jobs/${jobId}/readings`, reading({ mode: 'ohm', power: 'off', value: 'OL', raw: 'OL', lifted: ['R2'], safetyCheck: { unplugged: true, busVolts: 1.2 } })),
+      tech.post(`/api/jobs/${jobId}/readings`, reading({ mode: 'continuity', power: 'off', value: 'OL', raw: 'no beep', beep: false })),
+    ]);
+    expect(ohm!.status).toBe(201);
+    expect(ohm!.body).toMatchObject({ value: 'OL', lifted: ['R2'], safetyBusVolts: 1.2 });
+    expect(cont!.status).toBe(201);
+    expect(cont!.body).toMatchObject({ mode: 'continuity', beep: false, value: 'OL' });
+    const stored = await rowsOf(jobId);
+    expect(stored.find((r) => r.id === ohm!.body.id)).toMatchObject({ lifted: ['R2'], overLimit: true, value: null, safetyBusVolts: 1.2 });
+  });
+});
