@@ -42,12 +42,13 @@ export function createApp(ctx: AppContext): Express {
   api.use(healthRoutes(ctx));
   api.use(customerPortalRoutes(ctx));
   api.use(sessionMiddleware(ctx.auth));
+  // First after the session: a reading write is the busiest request, and every router ahead of it is tried in turn.
+  api.use(readingRoutes(ctx));
   api.use(authRoutes(ctx));
   api.use(userRoutes(ctx));
   api.use(customerRoutes(ctx));
   api.use(boardRoutes(ctx));
   api.use(jobRoutes(ctx));
-  api.use(readingRoutes(ctx));
   api.use(diagnosisRoutes(ctx));
   api.use(reviewRoutes(ctx));
   api.use(repairRoutes(ctx));

@@ -15,7 +15,10 @@ export function readingRoutes(ctx: AppContext): Router {
   r.post('/jobs/:id/readings', requireRole(...ROLES.everyone), async (req, res) => {
     const { id } = parse(idParams, req.params);
     const input = parse(createReadingRequest, req.body);
-    res.status(201).json(createReadingResponse.parse(await createReading({ db: ctx.db, actor: actorOf(req), jobId: id, input })));
+    const body = createReadingResponse.parse(await createReading({ db: ctx.db, actor: actorOf(req), jobId: id, input }));
+    // Written out directly: `res.json` would also hash the body for an ETag, which no client of a POST uses and
+    // which is a measurable part of the busiest write.
+    res.status(201).set('Content-Type', 'application/json; charset=utf-8').end(JSON.stringify(body));
   });
   return r;
 }
