@@ -9,6 +9,7 @@
 import type { Element } from './circuit';
 import { REFERENCE } from './circuit';
 import { luProgram, minimumDegreeOrder, type LuProgram, type LuWorkspace } from './lu';
+import type { Repivot } from './repivot';
 import { nodesWithoutDcPath } from './topology';
 
 /** Values and scratch of one solve; allocated once per topology (solving is synchronous, so it is reused). */
@@ -29,6 +30,9 @@ export interface Work {
   /** Dense pivoting fall-back, allocated the first time a sparse pivot is too weak. */
   dense?: { a: Float64Array; ws: LuWorkspace };
   denseFallbacks: number;
+  /** Second sparse pivot order, from the rows the dense fall-back chose (repivot.ts), and how many were built. */
+  repivot?: Repivot;
+  repivots: number;
   /** Diode values (IS·area, N·VT, critical voltage, adjusted BV) and junction state. */
   dIs: Float64Array;
   dVte: Float64Array;
@@ -368,6 +372,7 @@ export function compileTopology(elements: readonly Element[], extraNodes: readon
       scale0: f(n),
       scale: f(n),
       denseFallbacks: 0,
+      repivots: 0,
       dIs: f(nd),
       dVte: f(nd),
       dVcrit: f(nd),

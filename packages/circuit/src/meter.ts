@@ -2,7 +2,7 @@ import type { Circuit, Element } from './circuit';
 import { normNode, REFERENCE } from './circuit';
 import { flatten } from './flatten';
 import type { Netlist } from './netlist';
-import { solveOp, type OpResult, type SolveOptions } from './solver';
+import { solveNodes, type NodeSolution, type SolveOptions } from './solver';
 
 export type MeterMode = 'dcv' | 'ohm' | 'diode' | 'continuity';
 
@@ -136,7 +136,7 @@ export interface MeasureOptions {
 /** A reading with the solved circuit behind it (undefined for a probe on one net, which needs no solve). */
 export interface MeasuredReading {
   reading: Reading;
-  /** Node voltages of the circuit with the meter attached. */
+  /** Node voltages of the circuit with the meter attached (built when first read). */
   nodes?: Record<string, number>;
   /** Solution vector: `options.solve.initialGuess` for the next reading of the same probe on a variant. */
   x?: Float64Array;
@@ -144,25 +144,38 @@ export interface MeasuredReading {
 
 const METER_NODE = 'meter#src';
 
-function driven(
-  circuit: Circuit,
-  red: string,
-  black: string,
-  voc: number,
-  rs: number,
-  solve: MeasureOptions['solve'],
-): { v: number; i: number; op: OpResult } {
-  const elements: Element[] = [
-    ...circuit.elements,
+/** A solved reading; the node record is built only when asked for (the diagnosis reads it once per probe). */
+class Solved implements MeasuredReading {
+  private record?: Record<string, number>;
+  readonly x: Float64Array;
+  constructor(
+    readonly reading: Reading,
+    private readonly solution: NodeSolution,
+  ) {
+    this.x = solution.x;
+  }
+
+  get nodes(): Record<string, number> {
+    return (this.record ??= this.solution.nodes());
+  }
+}
+
+const solved = (reading: Reading, s: NodeSolution): MeasuredReading => new Solved(reading, s);
+
+function withMeter(circuit: Circuit, extra: Element[], red: string, black: string, solve: MeasureOptions['solve'], what: string): NodeSolution {
+  const s = solveNodes({ ...circuit, elements: [...circuit.elements, ...extra] }, { ...solve, extraNodes: [red, black] });
+  if (typeof s === 'string') throw new MeasurementError(`${what} does not solve: ${s}`);
+  return s;
+}
+
+function driven(circuit: Circuit, red: string, black: string, voc: number, rs: number, solve: MeasureOptions['solve']): { v: number; i: number; s: NodeSolution } {
+  const extra: Element[] = [
     { kind: 'V', name: 'meter#v', part: 'meter#', nodes: [METER_NODE, black], value: voc },
     { kind: 'R', name: 'meter#r', part: 'meter#', nodes: [METER_NODE, red], value: rs },
   ];
-  const op = solveOp({ ...circuit, elements }, { ...solve, extraNodes: [red, black] });
-  if (!op.converged) throw new MeasurementError(`the circuit with the meter attached does not solve: ${op.message ?? 'no convergence'}`);
-  const vr = red === REFERENCE ? 0 : (op.nodes[red] ?? 0);
-  const vb = black === REFERENCE ? 0 : (op.nodes[black] ?? 0);
-  const vm = op.nodes[METER_NODE] ?? 0;
-  return { v: vr - vb, i: (vm - vr) / rs, op };
+  const s = withMeter(circuit, extra, red, black, solve, 'the circuit with the meter attached');
+  const vr = s.voltage(red);
+  return { v: vr - s.voltage(black), i: (s.voltage(METER_NODE) - vr) / rs, s };
 }
 
 function resistanceReading(v: number, i: number, overRange: number): number | 'OL' {
@@ -185,36 +198,30 @@ export function measure(circuit: Circuit, probe: Probe, meter: MeterProfile = DE
 export function measureDetailed(circuit: Circuit, probe: Probe, meter: MeterProfile = DEFAULT_METER, options: MeasureOptions = {}): MeasuredReading {
   const red = checkNet(circuit, probe.red, 'red');
   const black = checkNet(circuit, probe.black, 'black');
-  const solved = (reading: Reading, op: OpResult): MeasuredReading => ({ reading, nodes: op.nodes, x: op.x });
   switch (probe.mode) {
     case 'dcv': {
       if (red === black) return { reading: { value: 0, unit: 'V' } };
       const rin = meter.dcv.inputResistance;
-      const elements: Element[] =
-        Number.isFinite(rin) && rin > 0
-          ? [...circuit.elements, { kind: 'R', name: 'meter#rin', part: 'meter#', nodes: [red, black], value: rin }]
-          : circuit.elements;
-      const op = solveOp({ ...circuit, elements }, { ...options.solve, extraNodes: [red, black] });
-      if (!op.converged) throw new MeasurementError(`the circuit does not solve: ${op.message ?? 'no convergence'}`);
-      const v = (red === REFERENCE ? 0 : (op.nodes[red] ?? 0)) - (black === REFERENCE ? 0 : (op.nodes[black] ?? 0));
-      return solved({ value: v, unit: 'V' }, op);
+      const extra: Element[] = Number.isFinite(rin) && rin > 0 ? [{ kind: 'R', name: 'meter#rin', part: 'meter#', nodes: [red, black], value: rin }] : [];
+      const s = withMeter(circuit, extra, red, black, options.solve, 'the circuit');
+      return solved({ value: s.voltage(red) - s.voltage(black), unit: 'V' }, s);
     }
     case 'ohm': {
       if (red === black) return { reading: { value: 0, unit: 'ohm' } };
-      const { v, i, op } = driven(circuit, red, black, meter.ohm.openCircuitVoltage, meter.ohm.sourceResistance, options.solve);
-      return solved({ value: resistanceReading(v, i, meter.ohm.overRange), unit: 'ohm' }, op);
+      const { v, i, s } = driven(circuit, red, black, meter.ohm.openCircuitVoltage, meter.ohm.sourceResistance, options.solve);
+      return solved({ value: resistanceReading(v, i, meter.ohm.overRange), unit: 'ohm' }, s);
     }
     case 'continuity': {
       const c = meter.continuity;
       if (red === black) return { reading: { value: 0, unit: 'ohm', beep: true } };
-      const { v, i, op } = driven(circuit, red, black, c.openCircuitVoltage, c.sourceResistance, options.solve);
+      const { v, i, s } = driven(circuit, red, black, c.openCircuitVoltage, c.sourceResistance, options.solve);
       const value = resistanceReading(v, i, c.overRange);
-      return solved({ value, unit: 'ohm', beep: value !== 'OL' && value < c.threshold }, op);
+      return solved({ value, unit: 'ohm', beep: value !== 'OL' && value < c.threshold }, s);
     }
     case 'diode': {
       if (red === black) return { reading: { value: 0, unit: 'V' } };
-      const { v, op } = driven(circuit, red, black, meter.diode.openCircuitVoltage, meter.diode.sourceResistance, options.solve);
-      return solved({ value: v > meter.diode.overRange ? 'OL' : v, unit: 'V' }, op);
+      const { v, s } = driven(circuit, red, black, meter.diode.openCircuitVoltage, meter.diode.sourceResistance, options.solve);
+      return solved({ value: v > meter.diode.overRange ? 'OL' : v, unit: 'V' }, s);
     }
     default:
       throw new MeasurementError(`unknown meter mode "${String((probe as Probe).mode)}" (dcv, ohm, diode, continuity)`);

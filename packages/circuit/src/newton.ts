@@ -5,6 +5,7 @@
 import type { Topology, Work } from './compile';
 import { stampJunctions } from './devices';
 import { luColumnScale, luFactor, luProgramFactor, luProgramSolve, luProgramToDense, luSolve, luWorkspace } from './lu';
+import { repivot, repivotSolve } from './repivot';
 
 export interface AttemptConfig {
   maxIter: number;
@@ -59,16 +60,31 @@ function columnScale(top: Topology, w: Work): void {
   raise(top.qPos);
 }
 
-/** Solves the assembled system into w.xn: sparse along the program, densely with pivoting when a pivot is weak. */
+/** Second pivot orders built per structure before the dense fall-back is left as it is (values that keep moving the pivots). */
+const MAX_REPIVOTS = 4;
+
+/**
+ * Factors and solves along the compiled order, then the second one; false when both meet a weak pivot. The compiled
+ * order always goes first, so a solve it can do gives the same digits whether or not a second order exists.
+ */
+function sparseSolve(top: Topology, w: Work): boolean {
+  w.fac.set(w.asm);
+  if (luProgramFactor(w.fac, top.lu, w.scale)) {
+    luProgramSolve(w.fac, top.lu, w.b, w.xn);
+    return true;
+  }
+  return w.repivot !== undefined && repivotSolve(w.repivot, w.asm, w.scale, w.b, w.xn);
+}
+
+/**
+ * Solves the assembled system into w.xn: sparse along the compiled program or the structure's second order
+ * (repivot.ts), densely with pivoting when a pivot is weak in both.
+ */
 function linearSolve(top: Topology, w: Work, shunted: boolean): number {
   const { lu } = top;
   if (shunted) luColumnScale(w.asm, lu, w.scale);
   else columnScale(top, w);
-  w.fac.set(w.asm);
-  if (luProgramFactor(w.fac, lu, w.scale)) {
-    luProgramSolve(w.fac, lu, w.b, w.xn);
-    return -1;
-  }
+  if (sparseSolve(top, w)) return -1;
   w.denseFallbacks++;
   const n = top.n;
   if (!w.dense) w.dense = { a: new Float64Array(n * n), ws: luWorkspace(n) };
@@ -77,6 +93,11 @@ function linearSolve(top: Topology, w: Work, shunted: boolean): number {
   const sing = luFactor(a, ws);
   if (sing >= 0) return sing;
   luSolve(a, ws, w.b, w.xn);
+  // the rows chosen here become the structure's second sparse order (a few tries, then dense stays the way)
+  if (w.repivots < MAX_REPIVOTS) {
+    w.repivots++;
+    w.repivot = repivot(lu, ws.perm);
+  }
   return -1;
 }
 

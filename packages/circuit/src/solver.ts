@@ -92,11 +92,15 @@ function compiled(circuit: Circuit, options: SolveOptions): Topology | string {
   }
 }
 
-/**
- * DC operating point: MNA + Newton–Raphson with pnjlim; damped Newton, gmin stepping and source stepping as
- * fall-backs. The structure is compiled once and cached (see compile.ts); each solve stamps the values anew.
- */
-export function solveOp(circuit: Circuit, options: SolveOptions = {}): OpResult {
+/** A converged solve, still in the topology's work arrays (valid until the next solve). */
+interface Solved {
+  top: Topology;
+  w: Work;
+  iterations: number;
+  method: SolveMethod;
+}
+
+function solveIn(circuit: Circuit, options: SolveOptions): Solved | OpResult {
   const top = compiled(circuit, options);
   if (typeof top === 'string') return failed(top);
   const w = stampValues(top, circuit.elements);
@@ -113,7 +117,53 @@ export function solveOp(circuit: Circuit, options: SolveOptions = {}): OpResult 
       r.iterations,
     );
   }
-  return report(top, circuit, w, r.iterations, r.method);
+  return { top, w, iterations: r.iterations, method: r.method };
+}
+
+/**
+ * DC operating point: MNA + Newton–Raphson with pnjlim; damped Newton, gmin stepping and source stepping as
+ * fall-backs. The structure is compiled once and cached (see compile.ts); each solve stamps the values anew.
+ */
+export function solveOp(circuit: Circuit, options: SolveOptions = {}): OpResult {
+  const s = solveIn(circuit, options);
+  if ('converged' in s) return s;
+  return report(s.top, circuit, s.w, s.iterations, s.method);
+}
+
+/**
+ * The solution of solveOp without the per-element report (a class, not closures: it is made once per solve, and
+ * some loaders wrap every closure they create in a naming call).
+ */
+export class NodeSolution {
+  constructor(
+    /** The solution vector, as OpResult.x. */
+    readonly x: Float64Array,
+    private readonly top: Topology,
+  ) {}
+
+  /** Voltage of a node by lower-case name (0 for the reference or a name not in the circuit). */
+  voltage(node: string): number {
+    const i = this.top.nodeIndex.get(node);
+    return i === undefined ? 0 : (this.x[i] as number);
+  }
+
+  /** Every node voltage by name, as OpResult.nodes. */
+  nodes(): Record<string, number> {
+    const { nodeNames, nodeX } = this.top;
+    const out: Record<string, number> = {};
+    for (let i = 0; i < nodeNames.length; i++) out[nodeNames[i] as string] = this.x[nodeX[i] as number] as number;
+    return out;
+  }
+}
+
+/**
+ * solveOp for a caller that reads a few node voltages (the meter): the same solve, without building the node,
+ * source and current records of every element. Returns the failure message instead when it does not converge.
+ */
+export function solveNodes(circuit: Circuit, options: SolveOptions = {}): NodeSolution | string {
+  const s = solveIn(circuit, options);
+  if ('converged' in s) return s.message ?? 'no convergence';
+  return new NodeSolution(s.w.x.slice(0, s.top.n), s.top);
 }
 
 function report(top: Topology, circuit: Circuit, w: Work, iterations: number, method: SolveMethod): OpResult {

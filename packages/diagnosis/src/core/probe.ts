@@ -72,12 +72,26 @@ export function testEntropy<T, P>(
   active: readonly ActiveCandidate[],
   test: T,
 ): { expectedEntropy: number; outcomeEntropy: number } {
+  return entropyOf(model, active, test, (ci, ki) => {
+    const k = (active[ci] as ActiveCandidate).combos[ki] as ActiveCandidate['combos'][number];
+    return cache.getOne(k.faults, test, k.key);
+  });
+}
+
+/** testEntropy with the prediction of the ki-th combination of the ci-th candidate from `predOf`. */
+function entropyOf<T, P>(
+  model: SystemModel<T, unknown, P>,
+  active: readonly ActiveCandidate[],
+  test: T,
+  predOf: (ci: number, ki: number) => P,
+): { expectedEntropy: number; outcomeEntropy: number } {
   // joint[o][c] = P(c) P(o | c)
   const joint = new Map<string, Float64Array>();
-  active.forEach((a, ci) => {
-    for (const k of a.combos) {
-      const pred = cache.getOne(k.faults, test, k.key);
-      for (const [bin, po] of model.outcomes(test, pred)) {
+  for (let ci = 0; ci < active.length; ci++) {
+    const a = active[ci] as ActiveCandidate;
+    for (let ki = 0; ki < a.combos.length; ki++) {
+      const k = a.combos[ki] as ActiveCandidate['combos'][number];
+      for (const [bin, po] of model.outcomes(test, predOf(ci, ki))) {
         if (!(po > 0)) continue;
         let row = joint.get(bin);
         if (!row) {
@@ -87,7 +101,7 @@ export function testEntropy<T, P>(
         row[ci] = (row[ci] as number) + a.p * k.w * po;
       }
     }
-  });
+  }
   let expected = 0;
   const pos: number[] = [];
   for (const row of joint.values()) {
@@ -111,12 +125,12 @@ export function rankTests<T, P>(
   cache: PredictionCache<T, P> = new PredictionCache(model),
 ): TestScore<T>[] {
   const active = activeSet(posterior, options);
-  // Prefetch: one predict call per combination for all tests, so a model can share work across tests in
-  // the same state.
-  for (const a of active) for (const k of a.combos) cache.get(k.faults, tests, k.key);
+  // One predict call per combination for all tests (a model can share work across tests in the same state);
+  // the scoring below reads these arrays instead of looking every prediction up again.
+  const preds = active.map((a) => a.combos.map((k) => cache.get(k.faults, tests, k.key)));
   const h0 = entropyBits(active.map((a) => a.p));
-  const scores = tests.map((test) => {
-    const { expectedEntropy, outcomeEntropy } = testEntropy(model, cache, active, test);
+  const scores = tests.map((test, ti) => {
+    const { expectedEntropy, outcomeEntropy } = entropyOf(model, active, test, (ci, ki) => ((preds[ci] as P[][])[ki] as P[])[ti] as P);
     const c = Math.max(cost(test), 1e-9);
     const gain = Math.max(0, h0 - expectedEntropy);
     return { test, expectedEntropy, outcomeEntropy, gain, cost: c, score: gain / c };
