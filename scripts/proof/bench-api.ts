@@ -3,9 +3,13 @@
 // against. The database is a cluster of this run's own with the shop cluster's durable settings (fsync and
 // synchronous commit on), so a write costs what it costs in a shop.
 import autocannon, { type Result } from 'autocannon';
+import { spawn } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
+import { join } from 'node:path';
 import pg from 'pg';
 import { removeCluster } from '../lib/pg';
+import { findFreePort } from '../lib/proc';
+import { root } from '../lib/stack';
 import { machineSize, percentile, proofClusterSpec, proofDatabase, ServerChild, signIn, sleep } from './env';
 import { readingsPath, readingTarget } from './target';
 
@@ -29,6 +33,8 @@ export interface ApiBenchReport {
   writes: LoadFigures;
   diagnosis: LoadFigures;
   rawInserts: LoadFigures;
+  /** The same POSTs against Express, helmet and the JSON parser alone: the stack's own floor on this machine. */
+  httpFloor: LoadFigures;
   ratio: number;
   ok: boolean;
   machine: string;
@@ -86,6 +92,23 @@ async function rawInsertLoop(url: string, jobId: string, connections: number, se
   }
 }
 
+/** The write run's requests against `apps/server/bench/http-floor.ts`, a child of its own like the real server. */
+async function httpFloor(connections: number, seconds: number, request: object): Promise<LoadFigures> {
+  const port = await findFreePort(6400 + (process.pid % 400));
+  const child = spawn(process.execPath, ['--import', 'tsx', join(root, 'apps', 'server', 'bench', 'http-floor.ts')], { cwd: root, env: { ...process.env, PORT: String(port) }, stdio: ['ignore', 'pipe', 'inherit'] });
+  try {
+    await new Promise<void>((resolve, reject) => {
+      child.stdout!.on('data', (d: Buffer) => d.toString().includes('listening') && resolve());
+      child.once('exit', (code) => reject(new Error(`the HTTP floor server exited (${code})`)));
+    });
+    const url = `http://127.0.0.1:${port}`;
+    await load('warm-up', { url, connections, duration: 2, requests: [request] });
+    return await load('HTTP floor (Express alone)', { url, connections, duration: seconds, requests: [request] });
+  } finally {
+    child.kill('SIGTERM');
+  }
+}
+
 export async function runApiBench(opts: BenchOptions): Promise<ApiBenchReport> {
   const { log, connections, seconds } = opts;
   const spec = proofClusterSpec('pg-bench');
@@ -126,11 +149,13 @@ export async function runApiBench(opts: BenchOptions): Promise<ApiBenchReport> {
     await server.kill('SIGTERM');
     await sleep(200);
     const rawInserts = await rawInsertLoop(db.url, target.jobId, connections, seconds);
+    const floor = await httpFloor(connections, seconds, writeRequest);
     const ratio = writes.perSecond / rawInserts.perSecond;
     return {
       writes,
       diagnosis,
       rawInserts,
+      httpFloor: floor,
       ratio,
       ok: writes.p95 < TARGETS.writeP95Ms && ratio >= TARGETS.ratio && writes.failed === 0 && diagnosis.failed === 0,
       machine: await machineSize(),
@@ -147,9 +172,10 @@ const ms = (v: number) => `${v.toFixed(1)} ms`;
 export function printApiBench(r: ApiBenchReport, log: (line: string) => void = console.log): void {
   log(`bench:api on ${r.machine}`);
   log('  run                          req/s     p50       p95       p99    requests  failed');
-  for (const f of [r.writes, r.diagnosis, r.rawInserts]) {
+  for (const f of [r.writes, r.diagnosis, r.rawInserts, r.httpFloor]) {
     log(`  ${f.name.padEnd(27)} ${f.perSecond.toFixed(0).padStart(6)} ${ms(f.p50).padStart(9)} ${ms(f.p95).padStart(9)} ${ms(f.p99).padStart(9)} ${String(f.requests).padStart(9)} ${String(f.failed).padStart(7)}`);
   }
   log(`  write throughput / raw inserts: ${r.ratio.toFixed(2)} (target ≥ ${TARGETS.ratio}); write p95 ${ms(r.writes.p95)} (target < ${TARGETS.writeP95Ms} ms)`);
+  log(`  write throughput / HTTP floor: ${(r.writes.perSecond / r.httpFloor.perSecond).toFixed(2)}; the floor's own p95 ${ms(r.httpFloor.p95)}`);
   log(r.ok ? 'bench:api: targets met' : 'bench:api: targets MISSED');
 }

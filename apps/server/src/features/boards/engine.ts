@@ -134,15 +134,26 @@ export const normNet = (n: string) => {
 };
 
 /** A probe name as typed (a test point id or a net name) → the net, or undefined when the board has neither. */
+const pointIds = new WeakMap<BoardEngine, Map<string, BoardTestPoint>>();
 export function resolveNet(engine: BoardEngine, name: string): string | undefined {
-  const tp = engine.testPoints.find((t) => t.id.toLowerCase() === name.trim().toLowerCase());
+  let byId = pointIds.get(engine);
+  if (!byId) {
+    byId = new Map();
+    // The first point of an id wins, as a search in order would find it.
+    for (const t of engine.testPoints) if (!byId.has(t.id.toLowerCase())) byId.set(t.id.toLowerCase(), t);
+    pointIds.set(engine, byId);
+  }
+  const tp = byId.get(name.trim().toLowerCase());
   const net = normNet(tp ? tp.net : name);
   return engine.diagnoser.model.nets.has(net) ? net : undefined;
 }
 
 /** Lifted part names as typed → the netlist's names, or the first unknown one. */
+const partNames = new WeakMap<BoardEngine, Map<string, string>>();
 export function resolveParts(engine: BoardEngine, names: readonly string[]): { parts: string[] } | { unknown: string } {
-  const byLower = new Map(engine.diagnoser.model.parts.map((p) => [p.name.toLowerCase(), p.name]));
+  if (names.length === 0) return { parts: [] };
+  let byLower = partNames.get(engine);
+  if (!byLower) partNames.set(engine, (byLower = new Map(engine.diagnoser.model.parts.map((p) => [p.name.toLowerCase(), p.name]))));
   const parts: string[] = [];
   for (const n of names) {
     const name = byLower.get(n.trim().toLowerCase());
