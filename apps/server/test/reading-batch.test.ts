@@ -47,6 +47,18 @@ describe('readings sent together', () => {
     expect(await statusOf(jobId)).toBe('diagnosing');
   });
 
+  // Batches in flight at once may name the same received jobs; each first reading moves its job on.
+  it('first readings of several received jobs, interleaved over concurrent batches, are all stored', async () => {
+    const ids = await Promise.all(Array.from({ length: 6 }, () => newJob()));
+    const sent = Array.from({ length: 150 }, (_, i) => ({ jobId: ids[(i * 7) % ids.length]!, body: reading() }));
+    const answers = await Promise.all(sent.map(({ jobId, body }) => tech.post(`/api/jobs/${jobId}/readings`, body)));
+    expect(answers.filter((a) => a.status !== 201).map((a) => a.body)).toEqual([]);
+    for (const id of ids) {
+      expect(await rowsOf(id)).toHaveLength(25);
+      expect(await statusOf(id)).toBe('diagnosing');
+    }
+  });
+
   it('a key sent twice in the same batch stores one row, and both answers are that row', async () => {
     const jobId = await newJob();
     const body = reading();

@@ -23,17 +23,19 @@ const COLUMNS = [
 const names = COLUMNS.map(([c]) => c).join(', ');
 const picked = COLUMNS.map(([c]) => (c === 'lifted' ? 'ARRAY(SELECT jsonb_array_elements_text(lifted))' : c)).join(', ');
 
-// A row is stored only when its job (of the row's shop) takes readings of its phase at that moment: the job row
-// is share-locked, so a status change committed meanwhile is seen, not raced. A retried idempotency key stores
-// nothing. The first diagnosis reading moves a received job to diagnosing in the same transaction.
-// `clock_timestamp()` keeps rows of one batch in the order they arrived.
+// A row is stored only when its job (of the row's shop) takes readings of its phase at that moment. The job rows
+// are locked, so a status change committed meanwhile is seen, not raced. The lock is exclusive because the first
+// diagnosis reading moves a received job to diagnosing in the same statement (two share locks each upgraded
+// would deadlock), and taken in id order so that two batches naming the same jobs cannot deadlock either.
+// A retried idempotency key stores nothing. `clock_timestamp()` keeps rows of one batch in the order they came.
 const TEXT = `
 WITH v AS (
   SELECT * FROM unnest(${COLUMNS.map(([, t], i) => `$${i + 1}::${t}[]`).join(', ')}) AS v(${names})
+), locked AS (
+  SELECT j.id, j.shop_id, j.status FROM jobs j WHERE (j.id, j.shop_id) IN (SELECT job_id, shop_id FROM v) ORDER BY j.id FOR UPDATE
 ), open AS (
-  SELECT v.* FROM v JOIN jobs j ON j.id = v.job_id AND j.shop_id = v.shop_id
+  SELECT v.* FROM v JOIN locked j ON j.id = v.job_id AND j.shop_id = v.shop_id
   WHERE j.status = ANY (CASE v.phase WHEN 'verification' THEN '{approved,repaired}'::job_status[] ELSE '{received,diagnosing}'::job_status[] END)
-  FOR SHARE OF j
 ), ins AS (
   INSERT INTO readings (${names}, created_at)
   SELECT ${picked}, clock_timestamp() FROM open
