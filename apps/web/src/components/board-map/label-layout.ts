@@ -2,7 +2,8 @@
  * Where each test-point label goes. Labels keep their size on screen while the board zooms, so collisions depend
  * on the scale: the layout works in screen pixels at one scale and is redone when the scale changes (not on pan).
  * Each label tries a few places around its marker and takes the first one that stays inside the picture and
- * touches no marker, no fixed obstacle and no label placed before it; a label with no free place is hidden.
+ * touches no marker, no fixed obstacle and no label placed before it. Labels left without one then try places a
+ * row or more away, joined to their marker by a leader line that crosses nothing either; the rest are hidden.
  */
 
 /**
@@ -21,6 +22,29 @@ const PLACES = [
 ] as const;
 const placeX = (c: number, w: number, gap: number) => PLACES[c]![0] * w + PLACES[c]![1] * gap;
 const placeY = (c: number, h: number, gap: number) => PLACES[c]![2] * h + PLACES[c]![3] * gap;
+
+/**
+ * Places away from the marker, as [a, b, dir]: x = a·width + b·markerHalf, and 1 to FAR_ROWS label rows beyond
+ * the near place above (dir −1) or below (dir 1). Centred over or under the marker first, then slid to either
+ * side of it: the eye follows a short, nearly upright leader line most easily.
+ */
+const FAR_ROWS = 3;
+const ROW = 3; // px between label rows
+const FAR = [
+  [-0.5, 0, -1],
+  [-1, 1, -1],
+  [0, -1, -1],
+  [-0.5, 0, 1],
+  [-1, 1, 1],
+  [0, -1, 1],
+] as const;
+/** Leader lines are checked for what they cross at this spacing, screen px. */
+const STEP = 5;
+/**
+ * Far places are for a few crowded labels. Where more than this many find no near place the board is read zoomed
+ * in, a map strewn with leader lines would be noise, and trying them all would cost a zoom frame its budget.
+ */
+const FAR_MAX = 24;
 
 export interface LabelInput {
   /** Board coordinates of the markers. */
@@ -42,6 +66,8 @@ export interface LabelLayout {
   scale: number;
   dx: Float32Array;
   dy: Float32Array;
+  /** 1 where the label sits away from its marker and a leader line joins them. */
+  led: Uint8Array;
 }
 
 const CELL = 64;
@@ -94,25 +120,80 @@ export function layoutLabels(input: LabelInput, scale: number): LabelLayout {
 
   const dx = new Float32Array(n).fill(NaN);
   const dy = new Float32Array(n).fill(NaN);
+  const led = new Uint8Array(n);
+  const put = (i: number, x: number, y: number, w: number, h: number) => {
+    grid.add(x, y, w, h);
+    dx[i] = x - xs[i]! * scale;
+    dy[i] = y - ys[i]! * scale;
+  };
+  // Clamp inside the picture: a label running past the board edge reads as belonging to nothing.
+  const clampX = (x: number, w: number) => Math.max(0, Math.min(W - w, x));
+  const clampY = (y: number, h: number) => Math.max(0, Math.min(H - h, y));
+
+  // Every label gets the chance of a near place before any takes a far one.
+  let hidden = 0;
   for (let i = 0; i < n; i++) {
     const sx = xs[i]! * scale;
     const sy = ys[i]! * scale;
     const w = widths[i]!;
     const h = heights[i]!;
     for (let c = 0; c < PLACES.length; c++) {
-      const cx = placeX(c, w, gap);
-      const cy = placeY(c, h, gap);
-      // Clamp inside the picture: a label running past the board edge reads as belonging to nothing.
-      const x = Math.max(0, Math.min(W - w, sx + cx));
-      const y = Math.max(0, Math.min(H - h, sy + cy));
+      const x = clampX(sx + placeX(c, w, gap), w);
+      const y = clampY(sy + placeY(c, h, gap), h);
       if (grid.hits(x, y, w, h)) continue;
-      grid.add(x, y, w, h);
-      dx[i] = x - sx;
-      dy[i] = y - sy;
+      put(i, x, y, w, h);
       break;
     }
+    if (Number.isNaN(dx[i]!)) hidden++;
   }
-  return { scale, dx, dy };
+
+  if (hidden > FAR_MAX) return { scale, dx, dy, led };
+  for (let i = 0; i < n && hidden > 0; i++) {
+    if (!Number.isNaN(dx[i]!)) continue;
+    hidden--;
+    const sx = xs[i]! * scale;
+    const sy = ys[i]! * scale;
+    const w = widths[i]!;
+    const h = heights[i]!;
+    far: for (let r = 1; r <= FAR_ROWS; r++) {
+      for (const [a, b, dir] of FAR) {
+        const x = clampX(sx + a * w + b * m, w);
+        const y = clampY(sy + (dir < 0 ? -h - gap : gap) + dir * r * (h + ROW), h);
+        if (grid.hits(x, y, w, h) || !leaderClear(grid, sx, sy, x, y, w, h, m)) continue;
+        put(i, x, y, w, h);
+        markLeader(grid, sx, sy, x, y, w, h, m);
+        led[i] = 1;
+        break far;
+      }
+    }
+  }
+  return { scale, dx, dy, led };
+}
+
+/** Where a leader line from a marker centre meets a label box: the box's nearest point. */
+export function leaderEnd(sx: number, sy: number, x: number, y: number, w: number, h: number): [number, number] {
+  return [Math.max(x, Math.min(x + w, sx)), Math.max(y, Math.min(y + h, sy))];
+}
+
+/** Visits points along the leader line outside the marker's own square, every STEP px; stops when `f` says so. */
+function alongLeader(sx: number, sy: number, x: number, y: number, w: number, h: number, m: number, f: (px: number, py: number) => boolean): boolean {
+  const [ex, ey] = leaderEnd(sx, sy, x, y, w, h);
+  const len = Math.hypot(ex - sx, ey - sy);
+  for (let t = STEP; t < len; t += STEP) {
+    const px = sx + ((ex - sx) * t) / len;
+    const py = sy + ((ey - sy) * t) / len;
+    if (Math.abs(px - sx) <= m + 1 && Math.abs(py - sy) <= m + 1) continue;
+    if (f(px, py)) return true;
+  }
+  return false;
+}
+
+const leaderClear = (grid: BoxGrid, sx: number, sy: number, x: number, y: number, w: number, h: number, m: number) =>
+  !alongLeader(sx, sy, x, y, w, h, m, (px, py) => grid.hits(px - 1, py - 1, 2, 2));
+
+/** A placed leader line is kept clear of later labels too. */
+function markLeader(grid: BoxGrid, sx: number, sy: number, x: number, y: number, w: number, h: number, m: number) {
+  alongLeader(sx, sy, x, y, w, h, m, (px, py) => (grid.add(px - 1, py - 1, 2, 2), false));
 }
 
 /** Where a label must go even when the layout hid it (the selected or hovered point): its first place, clamped. */

@@ -1,5 +1,5 @@
 import type { View } from '@/lib/map-geometry';
-import { LABEL_FONT, LINE, SPRITE, labelSprite, markerSprite } from './sprites';
+import { LABEL_FONT, LINE, R, SPRITE, labelSprite, markerSprite } from './sprites';
 import { forcedPlace, layoutLabels, type LabelInput, type LabelLayout } from './label-layout';
 import type { MapConnector, MapPart, MapPoint } from './types';
 
@@ -114,8 +114,24 @@ export function drawOverlay(ctx: CanvasRenderingContext2D, s: OverlayScene, v: V
 
   // labels where the layout found room; the selected and hovered points' labels always, on a backing
   if (!s.layout || s.layout.scale !== k) s.layout = layoutLabels(s.labels, k);
-  const { dx, dy } = s.layout;
+  const { dx, dy, led } = s.layout;
   const { widths, heights } = s.labels;
+  // leader lines, from the marker's edge to the nearest point of a label a row or more away, under the labels
+  ctx.beginPath();
+  for (let i = 0; i < n; i++) {
+    if (!led[i] || (s.drag !== null && s.drag.i === i)) continue;
+    const x = px(pts[i]!.x);
+    const y = py(pts[i]!.y);
+    if (!on(x, y, 300)) continue;
+    const ex = Math.max(x + dx[i]!, Math.min(x + dx[i]! + widths[i]!, x));
+    const ey = Math.max(y + dy[i]!, Math.min(y + dy[i]! + heights[i]!, y));
+    const len = Math.hypot(ex - x, ey - y) || 1;
+    ctx.moveTo(x + ((ex - x) * R) / len, y + ((ey - y) * R) / len);
+    ctx.lineTo(ex, ey);
+  }
+  ctx.lineWidth = 1.5;
+  ctx.strokeStyle = 'rgba(255,255,255,0.8)';
+  ctx.stroke();
   for (let i = 0; i < n; i++) {
     const p = pts[i]!;
     let ox = dx[i]!;
