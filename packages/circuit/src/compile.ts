@@ -10,7 +10,6 @@ import type { Element } from './circuit';
 import { REFERENCE } from './circuit';
 import { luProgram, minimumDegreeOrder, type LuProgram, type LuWorkspace } from './lu';
 import type { Repivot } from './repivot';
-import { nodesWithoutDcPath } from './topology';
 
 /** Values and scratch of one solve; allocated once per topology (solving is synchronous, so it is reused). */
 export interface Work {
@@ -110,6 +109,7 @@ export function compileTopology(elements: readonly Element[], extraNodes: readon
   };
   for (const e of elements) for (const nd of e.nodes) addNode(nd);
   for (const nd of extraNodes) addNode(nd);
+  const outerNodes = nodeNames.length;
   const internal: number[][] = elements.map((e) => {
     const low = e.name.toLowerCase();
     if (e.kind === 'D') return [e.model.rs > 0 ? addNode(`${low}#int`) : -2];
@@ -169,7 +169,7 @@ export function compileTopology(elements: readonly Element[], extraNodes: readon
   const xOf = new Int32Array(4 * elements.length).fill(-1);
   elements.forEach((e, ei) => {
     slotStart[ei] = code.length;
-    e.nodes.forEach((nd, t) => (xOf[4 * ei + t] = node(nd)));
+    for (let t = 0; t < e.nodes.length; t++) xOf[4 * ei + t] = node(e.nodes[t] as string);
     const p = node(e.nodes[0]);
     const q = node(e.nodes[1]);
     switch (e.kind) {
@@ -319,7 +319,7 @@ export function compileTopology(elements: readonly Element[], extraNodes: readon
     qX[3 * i + 2] = colPos(sb[s0 + 4] as number);
   });
   const shuntPos = slots.slice(shuntSlot, shuntSlot + nodeCount);
-  const islandPos = Int32Array.from(nodesWithoutDcPath(elements, extraNodes), (nd) => shuntPos[nodeIndex.get(nd) as number] as number);
+  const islandPos = Int32Array.from(islands(elements, node, outerNodes, nodeCount), (i) => shuntPos[i] as number);
 
   const solutionIndex = new Map<string, number>();
   for (const [k, v] of nodeIndex) solutionIndex.set(k, inv[v] as number);
@@ -389,4 +389,55 @@ export function compileTopology(elements: readonly Element[], extraNodes: readon
       qVbc: f(nq),
     },
   };
+}
+
+/**
+ * Nodes (of the elements and extra nodes, numbered below `outer`) with no DC path to the reference: the rule of
+ * topology.ts `nodesWithoutDcPath` (R, L, V, D, H and E join their two nodes, Q its three; C, I, F, G join
+ * none), on the node numbers instead of the names, since it runs for every structure compiled.
+ */
+function islands(elements: readonly Element[], node: (name: string) => number, outer: number, nodeCount: number): number[] {
+  // index nodeCount stands for the reference
+  const parent = Int32Array.from({ length: nodeCount + 1 }, (_, i) => i);
+  const find = (x: number): number => {
+    let r = x;
+    while (parent[r] !== r) r = parent[r] as number;
+    while (parent[x] !== r) {
+      const p = parent[x] as number;
+      parent[x] = r;
+      x = p;
+    }
+    return r;
+  };
+  const at = (name: string) => {
+    const i = node(name);
+    return i < 0 ? nodeCount : i;
+  };
+  const union = (a: string, b: string) => {
+    const ra = find(at(a));
+    const rb = find(at(b));
+    if (ra !== rb) parent[ra] = rb;
+  };
+  for (const e of elements) {
+    switch (e.kind) {
+      case 'R':
+      case 'L':
+      case 'V':
+      case 'D':
+      case 'H':
+      case 'E':
+        union(e.nodes[0], e.nodes[1]);
+        break;
+      case 'Q':
+        union(e.nodes[0], e.nodes[1]);
+        union(e.nodes[1], e.nodes[2]);
+        break;
+      default:
+        break;
+    }
+  }
+  const ground = find(nodeCount);
+  const out: number[] = [];
+  for (let i = 0; i < outer; i++) if (find(i) !== ground) out.push(i);
+  return out;
 }

@@ -44,20 +44,22 @@ function assemble(top: Topology, w: Work, cfg: AttemptConfig, first: boolean): b
  * can only cancel part of a linear entry), so the singularity test stays at least as strict.
  */
 function columnScale(top: Topology, w: Work): void {
+  w.scale.set(w.scale0);
+  raiseScale(top, w, top.dPos);
+  raiseScale(top, w, top.qPos);
+}
+
+/** Raises the column scales to the junction entries at positions `pos` (a function, not a closure: it runs per iteration). */
+function raiseScale(top: Topology, w: Work, pos: Int32Array): void {
   const { scale, asm } = w;
   const { posCol, nnz } = top.lu;
-  scale.set(w.scale0);
-  const raise = (pos: Int32Array) => {
-    for (let t = 0; t < pos.length; t++) {
-      const p = pos[t] as number;
-      if (p >= nnz) continue;
-      const c = posCol[p] as number;
-      const a = Math.abs(asm[p] as number);
-      if (a > (scale[c] as number)) scale[c] = a;
-    }
-  };
-  raise(top.dPos);
-  raise(top.qPos);
+  for (let t = 0; t < pos.length; t++) {
+    const p = pos[t] as number;
+    if (p >= nnz) continue;
+    const c = posCol[p] as number;
+    const a = Math.abs(asm[p] as number);
+    if (a > (scale[c] as number)) scale[c] = a;
+  }
 }
 
 /** Second pivot orders built per structure before the dense fall-back is left as it is (values that keep moving the pivots). */

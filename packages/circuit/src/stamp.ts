@@ -12,6 +12,22 @@ function add(a: Float64Array, i: number | undefined, v: number): void {
   a[i as number] = (a[i as number] as number) + v;
 }
 
+/** A conductance g between the nodes of slots s .. s+3 (functions, not closures: stamping runs once per solve). */
+function cond(a: Float64Array, slots: Int32Array, s: number, g: number): void {
+  add(a, slots[s], g);
+  add(a, slots[s + 1], g);
+  add(a, slots[s + 2], -g);
+  add(a, slots[s + 3], -g);
+}
+
+/** The ±1 incidence of a branch current at slots s .. s+3. */
+function branch(a: Float64Array, slots: Int32Array, s: number): void {
+  add(a, slots[s], 1);
+  add(a, slots[s + 1], -1);
+  add(a, slots[s + 2], 1);
+  add(a, slots[s + 3], -1);
+}
+
 /** Writes the circuit's values into the topology's work arrays: linear stamps, sources and device parameters. */
 export function stampValues(top: Topology, elements: readonly Element[]): Work {
   const w = top.work;
@@ -19,18 +35,6 @@ export function stampValues(top: Topology, elements: readonly Element[]): Work {
   const { slots, slotStart } = top;
   a.fill(0);
   b.fill(0);
-  const cond = (s: number, g: number) => {
-    add(a, slots[s], g);
-    add(a, slots[s + 1], g);
-    add(a, slots[s + 2], -g);
-    add(a, slots[s + 3], -g);
-  };
-  const branch = (s: number) => {
-    add(a, slots[s], 1);
-    add(a, slots[s + 1], -1);
-    add(a, slots[s + 2], 1);
-    add(a, slots[s + 3], -1);
-  };
   let di = 0;
   let qi = 0;
   for (let ei = 0; ei < elements.length; ei++) {
@@ -38,7 +42,7 @@ export function stampValues(top: Topology, elements: readonly Element[]): Work {
     const s = slotStart[ei] as number;
     switch (e.kind) {
       case 'R':
-        cond(s, 1 / e.value);
+        cond(a, slots, s, 1 / e.value);
         break;
       case 'C':
         break;
@@ -58,21 +62,21 @@ export function stampValues(top: Topology, elements: readonly Element[]): Work {
         break;
       case 'V':
       case 'L':
-        branch(s);
+        branch(a, slots, s);
         if (e.kind === 'V') add(b, slots[s + 4], e.value);
         break;
       case 'E':
-        branch(s);
+        branch(a, slots, s);
         add(a, slots[s + 4], -e.gain);
         add(a, slots[s + 5], e.gain);
         break;
       case 'H':
-        branch(s);
+        branch(a, slots, s);
         add(a, slots[s + 4], -e.gain);
         break;
       case 'D': {
         const m = e.model;
-        if (m.rs > 0) cond(s, e.area / m.rs);
+        if (m.rs > 0) cond(a, slots, s, e.area / m.rs);
         const is = m.is * e.area;
         const vte = m.n * VT;
         w.dIs[di] = is;
@@ -84,9 +88,9 @@ export function stampValues(top: Topology, elements: readonly Element[]): Work {
       }
       case 'Q': {
         const m = e.model;
-        if (m.rc > 0) cond(s, e.area / m.rc);
-        if (m.rb > 0) cond(s + 4, e.area / m.rb);
-        if (m.re > 0) cond(s + 8, e.area / m.re);
+        if (m.rc > 0) cond(a, slots, s, e.area / m.rc);
+        if (m.rb > 0) cond(a, slots, s + 4, e.area / m.rb);
+        if (m.re > 0) cond(a, slots, s + 8, e.area / m.re);
         const is = m.is * e.area;
         w.qPol[qi] = m.type === 'pnp' ? -1 : 1;
         w.qIs[qi] = is;

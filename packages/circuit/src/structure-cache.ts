@@ -77,7 +77,15 @@ export function topologyOf(circuit: Circuit, extraNodes: readonly string[]): Top
   if (interned.size > 1 << 20) clearTopologyCache();
   const hash = structureCodes(circuit.elements, extraNodes);
   const bucket = buckets.get(hash);
-  const hit = bucket?.find((t) => sameCodes(t.codes));
+  let hit: Topology | undefined;
+  if (bucket) {
+    for (const t of bucket) {
+      if (sameCodes(t.codes)) {
+        hit = t;
+        break;
+      }
+    }
+  }
   if (hit) {
     recency.delete(hit);
     recency.set(hit, hash);
