@@ -8,6 +8,8 @@ const schema = z.object({
   DATABASE_URL: z.string().url({ message: 'must be a postgres:// URL' }),
   /** Connections the server keeps to PostgreSQL; more than the cores, since most of a request waits on the database. */
   DB_POOL_SIZE: z.coerce.number().int().min(1).max(200).default(20),
+  /** Threads that run the diagnosis engine beside the request thread; one leaves a core for requests on two. */
+  DIAGNOSIS_WORKERS: z.coerce.number().int().min(1).max(16).default(1),
   /** Where the built web app lives; served on the same port in production. */
   WEB_DIST: z.string().optional(),
   UPLOAD_DIR: z.string().default('.data/uploads'),

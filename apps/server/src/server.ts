@@ -4,6 +4,7 @@ import { createAuth } from './auth/lucia';
 import type { Config } from './config';
 import { createDatabase } from './db/client';
 import type { AppContext } from './context';
+import { holdDiagnosisPool, releaseDiagnosisPool } from './features/diagnosis/pool';
 import { DiskStorage } from './storage/storage';
 
 export interface RunningServer {
@@ -23,6 +24,8 @@ export async function startServer(config: Config): Promise<RunningServer> {
     const s = app.listen(config.PORT, config.HOST, () => resolve(s));
     s.once('error', reject);
   });
+  // Test servers come and go by the dozen; each starting diagnosis threads it may never use would cost seconds.
+  holdDiagnosisPool(config.DIAGNOSIS_WORKERS, { warm: config.NODE_ENV !== 'test' });
   // Idle keep-alive sockets outlive the clients' own idle timeouts (browsers, proxies, test runners), so the
   // server never closes a socket at the moment a client reuses it (seen as ECONNRESET). Node's default is 5 s.
   server.keepAliveTimeout = 65_000;
@@ -35,6 +38,7 @@ export async function startServer(config: Config): Promise<RunningServer> {
     url: `http://${config.HOST}:${port}`,
     close: async () => {
       await new Promise<void>((r) => server.close(() => r()));
+      await releaseDiagnosisPool();
       await pool.end();
     },
   };

@@ -2,10 +2,8 @@
 // engine again, and anything that changes what the engine reads (a new reading, a correction) changes the answer.
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import { eq } from 'drizzle-orm';
 import type { Diagnosis } from '@splitscope/contract';
-import { jobs } from '../src/db/schema';
-import { cachedBoardEngine } from '../src/features/boards/engine';
+import { diagnosisPool } from '../src/features/diagnosis/pool';
 import type { RunningServer } from '../src/server';
 import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
@@ -14,7 +12,7 @@ let server: RunningServer;
 let tech: Client;
 let other: Client;
 let jobId: string;
-// How many times the engine ran since the last reset: a wrapper around the cached engine's diagnoser.
+// How many times the engine ran since the last reset: a wrapper around the call to the diagnosis thread.
 const runs = { count: 0, restore: () => {} };
 
 const reading = (over: Record<string, unknown> = {}) => ({ idempotencyKey: randomUUID(), mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', value: 7.5, raw: '7.5', ...over });
@@ -35,14 +33,13 @@ beforeAll(async () => {
   other = await new Client(server.url).signIn('tech@other.test');
   expect((await tech.post(`/api/jobs/${jobId}/readings`, reading())).status).toBe(201);
   await diagnosis();
-  const [job] = await db.select({ versionId: jobs.boardVersionId }).from(jobs).where(eq(jobs.id, jobId));
-  const diagnoser = cachedBoardEngine(job!.versionId)!.diagnoser;
-  const original = diagnoser.update;
-  diagnoser.update = function (this: typeof diagnoser, ...args: Parameters<typeof original>) {
+  const pool = diagnosisPool();
+  const original = pool.run;
+  pool.run = function (this: typeof pool, ...args: Parameters<typeof original>) {
     runs.count++;
     return original.apply(this, args);
   };
-  runs.restore = () => void (diagnoser.update = original);
+  runs.restore = () => void (pool.run = original);
 });
 beforeEach(() => void (runs.count = 0));
 afterAll(async () => {

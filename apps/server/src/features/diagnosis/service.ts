@@ -2,14 +2,15 @@ import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
-import { CaseError, type CaseReading } from '@splitscope/diagnosis';
+import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
 import type { Diagnosis, DiagnosisSnapshot } from '@splitscope/contract';
 import type { Db } from '../../db/client';
 import { boardModelVersions, diagnosisSnapshots, jobs, readings } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
-import { boardEngine, cachedBoardEngine, unitOf, type BoardEngine } from '../boards/engine';
+import { unitOf } from '../boards/engine';
 import { diagnosisFor } from './cache';
+import { diagnosisPool } from './pool';
 
 /** Stored with every snapshot, so an old diagnosis can be told apart from what today's engine would say. */
 export const ENGINE_VERSION = (() => {
@@ -57,13 +58,11 @@ function queries(db: Db) {
   return q;
 }
 
-/** The engine of a job's pinned version; its document is loaded only when this process has not built it yet. */
-async function engineOf(db: Db, versionId: string): Promise<BoardEngine> {
-  const hit = cachedBoardEngine(versionId);
-  if (hit) return hit;
+/** The job's pinned version's document, for a diagnosis thread that has not been given it yet. */
+async function documentOf(db: Db, versionId: string): Promise<unknown> {
   const [version] = await queries(db).document.execute({ versionId });
   if (!version) throw new AppError('not_found', `No board model version ${versionId}`);
-  return boardEngine(versionId, version.document);
+  return version.document;
 }
 
 const caseValue = (r: ReadingRow): CaseReading['value'] => {
@@ -86,22 +85,22 @@ export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Pr
   const q = queries(db);
   const [k] = await q.key.execute({ jobId: job.id });
   return diagnosisFor(job.id, keyOf(job.boardVersionId, k?.n ?? 0, k?.digest ?? null), async () => {
-    const engine = await engineOf(db, job.boardVersionId);
-    const rows = await q.rows.execute({ jobId: job.id });
+    const rows = await currentReadings(db, job.id);
+    // A worker thread runs the engine (seconds on a first run), so the server answers other requests meanwhile.
+    const out = await diagnosisPool().run(job.boardVersionId, toCaseReadings(rows), () => documentOf(db, job.boardVersionId));
     // Kept under the key of the rows it ran on: a reading stored since the key query makes that key differ.
-    return { key: keyOf(job.boardVersionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null), output: runEngine(engine, job, rows) };
+    return { key: keyOf(job.boardVersionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null), output: shapeDiagnosis(out, job, rows) };
   });
 }
 
-function runEngine(engine: BoardEngine, job: JobRef, rows: ReadingRow[]): Diagnosis {
-  const input: CaseReading[] = rows.map((r) => ({ mode: r.mode, red: r.redNet, black: r.blackNet, power: r.power, lifted: r.lifted, value: caseValue(r) }));
-  let out;
-  try {
-    out = engine.diagnoser.update(input);
-  } catch (err) {
-    if (err instanceof CaseError) throw new AppError('conflict', `The diagnosis engine cannot use these readings: ${err.message}`);
-    throw err;
-  }
+/** A job's current readings in the order the engine reads them. */
+export const currentReadings = (db: Db, id: string): Promise<ReadingRow[]> => queries(db).rows.execute({ jobId: id });
+
+export const toCaseReadings = (rows: ReadingRow[]): CaseReading[] =>
+  rows.map((r) => ({ mode: r.mode, red: r.redNet, black: r.blackNet, power: r.power, lifted: r.lifted, value: caseValue(r) }));
+
+/** The engine's output as the API tells it: each reading report joined back to its stored row. */
+export function shapeDiagnosis(out: DiagnosisOutput, job: JobRef, rows: ReadingRow[]): Diagnosis {
   return {
     ...out,
     jobId: job.id,
