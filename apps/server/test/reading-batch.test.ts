@@ -3,6 +3,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
+import { createReadingResponse } from '@splitscope/contract';
 import { jobs, readings } from '../src/db/schema';
 import { batchStats } from '../src/features/readings/write-batch';
 import type { RunningServer } from '../src/server';
@@ -40,6 +41,8 @@ describe('readings sent together', () => {
     // Fewer statements than readings: they were stored together, not one by one.
     expect(batchStats.statements - before).toBeLessThan(40);
     expect(answers.map((a) => a.status)).toEqual(bodies.map(() => 201));
+    // The route writes the answer without parsing it again: the contract must still accept every one.
+    for (const a of answers) expect(createReadingResponse.safeParse(a.body).error).toBeUndefined();
     answers.forEach((a, i) => expect(a.body).toMatchObject({ idempotencyKey: bodies[i]!.idempotencyKey, value: bodies[i]!.value, authorName: expect.any(String), verdict: { unit: 'V' } }));
     const rows = await rowsOf(jobId);
     expect(rows).toHaveLength(40);
