@@ -259,7 +259,7 @@ export function luColumnScale(v: Float64Array, lp: LuProgram, out: Float64Array)
  * the column scale of the matrix as assembled (luColumnScale, or an upper bound of it).
  */
 export function luProgramFactor(v: Float64Array, lp: LuProgram, colScale?: Float64Array): boolean {
-  const { n, diag, lStart, lPos, uStart, uPos, target } = lp;
+  const { n, diag, lStart, lPos } = lp;
   const scale = colScale ?? lp.colScale;
   if (!colScale) luColumnScale(v, lp, scale);
   let tp = 0;
@@ -268,29 +268,41 @@ export function luProgramFactor(v: Float64Array, lp: LuProgram, colScale?: Float
     const ap = Math.abs(piv);
     if (!(ap > 1e-14 * (scale[k] as number))) return false;
     const weak = ap / SPARSE_PIVOT_THRESHOLD;
-    const r0 = lStart[k] as number;
-    const r1 = lStart[k + 1] as number;
-    const inv = 1 / piv;
-    const c0 = uStart[k] as number;
-    const nc = (uStart[k + 1] as number) - c0;
-    for (let t = r0; t < r1; t++) {
-      const li = lPos[t] as number;
-      const f = v[li] as number;
-      if (f === 0) {
-        tp += nc;
-        continue;
-      }
-      if (Math.abs(f) > weak) return false;
-      const m = f * inv;
-      v[li] = m;
-      for (let u = 0; u < nc; u++) {
-        const ti = target[tp + u] as number;
-        v[ti] = (v[ti] as number) - m * (v[uPos[c0 + u] as number] as number);
-      }
-      tp += nc;
-    }
+    // The column's entries below the pivot are not changed by its own elimination, so they are checked first.
+    for (let t = lStart[k] as number; t < (lStart[k + 1] as number); t++) if (Math.abs(v[lPos[t] as number] as number) > weak) return false;
+    tp = eliminateColumn(v, lp, k, piv, tp);
   }
   return true;
+}
+
+/**
+ * One step of the compiled elimination: the multipliers of column k (stored in place) and the update of the rows
+ * below it. `tp` is the position in the program's target list where column k's updates start; the next column's is
+ * returned. The sparse factorisation and the second-order replay (`repivot.ts`) both run exactly this arithmetic.
+ */
+export function eliminateColumn(v: Float64Array, lp: LuProgram, k: number, piv: number, tp: number): number {
+  const { lStart, lPos, uStart, uPos, target } = lp;
+  const r0 = lStart[k] as number;
+  const r1 = lStart[k + 1] as number;
+  const inv = 1 / piv;
+  const c0 = uStart[k] as number;
+  const nc = (uStart[k + 1] as number) - c0;
+  for (let t = r0; t < r1; t++) {
+    const li = lPos[t] as number;
+    const f = v[li] as number;
+    if (f === 0) {
+      tp += nc;
+      continue;
+    }
+    const m = f * inv;
+    v[li] = m;
+    for (let u = 0; u < nc; u++) {
+      const ti = target[tp + u] as number;
+      v[ti] = (v[ti] as number) - m * (v[uPos[c0 + u] as number] as number);
+    }
+    tp += nc;
+  }
+  return tp;
 }
 
 /** Solves after luProgramFactor: x = A⁻¹ b for the first n entries (x may not alias b). */

@@ -12,7 +12,7 @@
  * 1e-3 of it) and gives up at the first difference. The arithmetic is then luFactor's own, operation for operation,
  * so a solve gives the same digits as the dense fall-back it replaces.
  */
-import { luProgram, luProgramSolve, type LuProgram } from './lu';
+import { eliminateColumn, luProgram, luProgramSolve, type LuProgram } from './lu';
 
 /** luFactor's threshold pivoting: it keeps the diagonal when |diagonal| ≥ this × the largest entry below it. */
 const KEEP_DIAGONAL = 1e-3;
@@ -52,7 +52,7 @@ export function repivot(lp: LuProgram, perm: Int32Array): Repivot {
  */
 export function repivotSolve(r: Repivot, asm: Float64Array, scale: Float64Array, b: Float64Array, x: Float64Array): boolean {
   const { v, map, perm, lu, order, where } = r;
-  const { n, diag, lStart, lRow, lPos, uStart, uPos, target } = lu;
+  const { n, diag, lStart, lRow, lPos } = lu;
   v.fill(0);
   for (let t = 0; t < map.length; t++) v[map[t] as number] = asm[t] as number;
   for (let i = 0; i < n; i++) {
@@ -95,24 +95,7 @@ export function repivotSolve(r: Repivot, asm: Float64Array, scale: Float64Array,
       order[k] = mine;
       where[mine] = k;
     }
-    const inv = 1 / piv;
-    const c0 = uStart[k] as number;
-    const nc = (uStart[k + 1] as number) - c0;
-    for (let t = r0; t < r1; t++) {
-      const li = lPos[t] as number;
-      const f = v[li] as number;
-      if (f === 0) {
-        tp += nc;
-        continue;
-      }
-      const m = f * inv;
-      v[li] = m;
-      for (let u = 0; u < nc; u++) {
-        const ti = target[tp + u] as number;
-        v[ti] = (v[ti] as number) - m * (v[uPos[c0 + u] as number] as number);
-      }
-      tp += nc;
-    }
+    tp = eliminateColumn(v, lu, k, piv, tp);
   }
   for (let k = 0; k < n; k++) r.b[k] = b[perm[k] as number] as number;
   luProgramSolve(v, lu, r.b, x);
