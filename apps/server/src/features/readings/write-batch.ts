@@ -64,12 +64,15 @@ const keyOf = new Map(Object.entries(columnsOf).map(([key, col]) => [col.name, k
 const missing = [...keyOf.keys()].filter((name) => name !== 'created_at' && !COLUMNS.some(([c]) => c === name));
 if (missing.length) throw new Error(`readings batch insert lacks the column(s) ${missing.join(', ')}`);
 
+// Each column's name beside the row field it is read from, paired once rather than looked up per row.
+const FIELDS = COLUMNS.map(([name]) => [name, keyOf.get(name)!] as const);
+
 /** The batch as the statement's one parameter: an array of rows keyed by column name. */
 function parameter(batch: Pending[]): string {
   return JSON.stringify(
     batch.map(({ row }) => {
       const out: Record<string, unknown> = {};
-      for (const [name] of COLUMNS) out[name] = (row as unknown as Record<string, unknown>)[keyOf.get(name)!] ?? null;
+      for (const [name, key] of FIELDS) out[name] = (row as unknown as Record<string, unknown>)[key] ?? null;
       return out;
     }),
   );
