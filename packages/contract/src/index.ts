@@ -15,3 +15,4 @@ export * from './billing';
 export * from './board-model';
 export * from './safety-gate';
 export * from './policy';
+export * from './report';

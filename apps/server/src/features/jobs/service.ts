@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import { allowedMoves, type CreateJobRequest, type Job, type JobDetail, type JobListQuery, type JobStatus, type UpdateJobRequest } from '@splitscope/contract';
+import { allowedMoves, verificationReadings, type CreateJobRequest, type Job, type JobDetail, type JobListQuery, type JobStatus, type UpdateJobRequest } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
 import { boardModels, boardModelVersions, customers, diagnosisSnapshots, jobs, readings, repairActions, reviews, shops, users } from '../../db/schema';
@@ -158,16 +158,21 @@ export async function createJob({ db, actor, input }: { db: Db; actor: Pick<Acto
   return getJob({ db, shopId: actor.shopId, id });
 }
 
-/** The unhealthy verification readings since the last repair action, or why there are none to judge. */
+/** The unhealthy verification readings (the contract's one definition of them), or why there are none to judge. */
 async function verificationProblems(db: Db, jobId: string): Promise<string | null> {
   const [last] = await db.select({ at: repairActions.createdAt }).from(repairActions).where(eq(repairActions.jobId, jobId)).orderBy(desc(repairActions.createdAt)).limit(1);
   if (!last) return 'no repair action is recorded';
-  const corrected = db.select({ id: readings.supersedes }).from(readings).where(and(eq(readings.jobId, jobId), sql`${readings.supersedes} is not null`));
-  const rows = await db
-    .select()
+  const later = alias(readings, 'later');
+  const taken = await db
+    .select({ r: readings, supersededBy: later.id })
     .from(readings)
-    .where(and(eq(readings.jobId, jobId), eq(readings.phase, 'verification'), sql`${readings.createdAt} > ${last.at}`, sql`${readings.id} not in (${corrected})`))
+    .leftJoin(later, eq(later.supersedes, readings.id))
+    .where(and(eq(readings.jobId, jobId), eq(readings.phase, 'verification')))
     .orderBy(asc(readings.createdAt));
+  const rows = verificationReadings(
+    taken.map(({ r, supersededBy }) => ({ ...r, supersededBy, createdAt: iso(r.createdAt) })),
+    iso(last.at),
+  );
   if (rows.length === 0) return 'no verification readings were taken after the last repair action';
   const bad = rows.filter((r) => (r.verdict as { verdict?: string } | null)?.verdict !== 'ok');
   if (bad.length === 0) return null;
