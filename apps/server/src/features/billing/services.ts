@@ -1,7 +1,7 @@
 import type { AppContext } from '../../context';
 import { startFakePayments, type FakePayments } from '../../fakes/payments';
 import { startSmtpCapture, type SmtpCapture } from '../../fakes/smtp-capture';
-import { localFakesOn } from '../mail/local';
+import { localFakesOn } from '../mail';
 import { startStatusMailer } from './milestones';
 
 export interface BillingServices {

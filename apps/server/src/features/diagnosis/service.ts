@@ -8,7 +8,7 @@ import type { Db } from '../../db/client';
 import { boardModelVersions, diagnosisSnapshots, jobs, readings } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
-import { unitOf } from '../boards/engine';
+import { unitOf } from '../boards';
 import { diagnosisFor } from './cache';
 import { diagnosisPool } from './pool';
 

@@ -1,16 +1,16 @@
 import { and, asc, desc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import { allowedMoves, verificationReadings, type CreateJobRequest, type Job, type JobDetail, type JobListQuery, type JobStatus, type UpdateJobRequest } from '@splitscope/contract';
+import { allowedMoves, verificationReadings, type CreateJobRequest, type Job, type JobDetail, type JobStatus, type UpdateJobRequest } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
 import { boardModels, boardModelVersions, customers, diagnosisSnapshots, jobs, readings, repairActions, reviews, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso, isoOrNull } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { getBoardVersion } from '../boards/service';
-import { toCustomer } from '../customers/service';
-import { computeDiagnosis, toSnapshot } from '../diagnosis/service';
-import { toReview } from '../reviews/view';
+import { getBoardVersion } from '../boards';
+import { toCustomer } from '../customers';
+import { computeDiagnosis, toSnapshot } from '../diagnosis';
+import { toReview } from '../reviews';
 import { checkMove, moveJob, type MoveRequest } from './flow';
 
 export type JobRow = typeof jobs.$inferSelect;
@@ -82,8 +82,6 @@ export async function findJobs({ db, actor, query }: { db: Db; actor: Actor; que
     .orderBy(priorityOrder, asc(jobs.receivedAt));
   return { items: rows.map(toJob) };
 }
-
-export type { JobListQuery };
 
 export async function getJob({ db, shopId, id }: { db: Db; shopId: string; id: string }): Promise<Job> {
   const [row] = await jobQuery(db).where(and(eq(jobs.id, id), eq(jobs.shopId, shopId)));

@@ -114,7 +114,7 @@ function ReadingTable({ rows }: { rows: ReportReading[] }) {
   );
 }
 
-export function ReportPage() {
+function ReportPage() {
   const { id = '' } = useParams();
   const report = useReport(id);
   return (
