@@ -14,3 +14,5 @@ export * from './jobs';
 export * from './billing';
 export * from './board-model';
 export * from './safety-gate';
+export * from './policy';
+export * from './report';

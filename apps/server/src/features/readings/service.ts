@@ -1,6 +1,6 @@
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import type { CreateReadingInput, CreateReadingResponse, ReadingVerdict, StoredReading } from '@splitscope/contract';
+import { acceptsReadings, readingRefusal, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
 import { boardModelVersions, jobs, readings, users } from '../../db/schema';
@@ -120,21 +120,19 @@ async function boardVersionOf(db: Db, shopId: string, jobId: string): Promise<st
 
 const invalid = (path: string, message: string) => new AppError('invalid', message, { errors: [{ path, message }] });
 
-const OPEN_FOR: Record<CreateReadingInput['phase'], readonly string[]> = { diagnosis: ['received', 'diagnosing'], verification: ['approved', 'repaired'] };
-function checkOpen(status: string, phase: CreateReadingInput['phase']): void {
-  const allowed = OPEN_FOR[phase];
-  if (!allowed.includes(status)) throw new AppError('conflict', `A ${phase} reading is taken while the job is ${allowed.join(' or ')}; this job is ${status}`);
+function checkOpen(status: JobStatus, phase: CreateReadingInput['phase']): void {
+  if (!acceptsReadings(status, phase)) throw new AppError('conflict', `A ${phase} reading is taken while the job is ${statusesTakingReadings(phase).join(' or ')}; this job is ${status}`);
 }
 
-type JobState = { id: string; status: string; assigneeId: string | null; boardVersionId: string };
+type JobState = { id: string; status: JobStatus; assigneeId: string | null; boardVersionId: string };
 
 /** The job as a checked write sees it first: of this shop, open to this actor, and any row this key stored. */
 async function jobAndReplay(db: Db, actor: Actor, jobId: string, input: CreateReadingInput): Promise<{ job: JobState; replay: CreateReadingResponse | null }> {
   const [found] = await queries(db).jobAndReplay.execute({ jobId, shopId: actor.shopId, key: input.idempotencyKey });
   if (!found) throw new AppError('not_found', `No job ${jobId}`);
   const { job } = found;
-  if (actor.role === 'trainee' && job.assigneeId !== actor.id) throw new AppError('forbidden', 'Trainees record readings only on jobs assigned to them');
-  if (actor.role === 'trainee' && input.phase !== 'diagnosis') throw new AppError('forbidden', 'Trainees take diagnosis steps; verification readings after a repair are taken by a technician');
+  const refused = readingRefusal(actor.role, input.phase, job.assigneeId === actor.id);
+  if (refused) throw new AppError('forbidden', refused);
   return { job, replay: found.r ? withVerdict(toReading(found.r, found.authorName!, found.supersededBy)) : null };
 }
 
