@@ -15,3 +15,4 @@ export * from './jobs';
 export * from './billing';
 export * from './board-model';
 export * from './safety-gate';
+export * from './policy';

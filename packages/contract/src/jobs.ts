@@ -20,20 +20,6 @@ export const jobStatusLabels: Record<JobStatus, string> = {
   returned: 'Returned',
 };
 
-/**
- * The job status flow. Approval and sending back happen through a review (POST /jobs/:id/reviews);
- * a repaired board whose verification fails goes back to diagnosing.
- */
-export const jobTransitions: Record<JobStatus, readonly JobStatus[]> = {
-  received: ['diagnosing'],
-  diagnosing: ['awaiting-review'],
-  'awaiting-review': ['approved', 'diagnosing'],
-  approved: ['repaired'],
-  repaired: ['verified', 'diagnosing'],
-  verified: ['returned'],
-  returned: [],
-};
-
 export const priorities = ['low', 'normal', 'high'] as const;
 export const prioritySchema = z.enum(priorities);
 export type Priority = z.infer<typeof prioritySchema>;

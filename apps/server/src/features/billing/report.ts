@@ -24,9 +24,6 @@ export interface RepairReport {
   verification: { points: string; mode: string; value: string; verdict: string | null }[];
 }
 
-/** The report is available once the repair is verified. */
-export const reportAvailable = (status: BillingJob['status']) => status === 'verified' || status === 'returned';
-
 function verdictText(v: unknown): string | null {
   if (v && typeof v === 'object') {
     const o = v as Record<string, unknown>;

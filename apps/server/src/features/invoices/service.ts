@@ -1,6 +1,6 @@
 import { and, asc, desc, eq } from 'drizzle-orm';
 import type Stripe from 'stripe';
-import type { BillingLineValues, createInvoiceRequest, Invoice } from '@splitscope/contract';
+import { reportReady, type BillingLineValues, type createInvoiceRequest, type Invoice } from '@splitscope/contract';
 import type { z } from 'zod';
 import type { Actor } from '../../auth/guards';
 import type { Config } from '../../config';
@@ -13,7 +13,7 @@ import { toInvoice } from '../billing/documents';
 import { getBillingJob, jobSummary } from '../billing/jobs';
 import { createCustomerLink, publicBase } from '../billing/links';
 import { paymentsFor } from '../billing/payments';
-import { loadRepairReport, renderReportPdf, reportAvailable } from '../billing/report';
+import { loadRepairReport, renderReportPdf } from '../billing/report';
 import { getSettingsRow } from '../billing/settings';
 import { invoiceMail, paidMail } from '../mail/templates';
 import { sendMail } from '../mail/transport';
@@ -45,7 +45,7 @@ export async function createInvoice({
   input: z.output<typeof createInvoiceRequest>;
 }): Promise<Invoice> {
   const job = await getBillingJob(db, actor.shopId, jobId);
-  if (!reportAvailable(job.status)) {
+  if (!reportReady(job.status)) {
     throw new AppError('conflict', `Job ${job.number} is ${job.status}; the invoice is issued after verification`, { allowed: ['verified', 'returned'] });
   }
   const [open] = await db

@@ -1,4 +1,4 @@
-import type { JobDetail } from '@splitscope/contract';
+import { reportReady, type JobDetail } from '@splitscope/contract';
 import { useParams } from 'react-router-dom';
 import { QueryState } from '@/components/ui/query-state';
 import { useJob } from '@/lib/api/get-job';
@@ -92,7 +92,7 @@ function Report({ job }: { job: JobDetail }) {
       <section>
         <h2 className="text-lg font-semibold">Verification</h2>
         {verification.length === 0 ? <p className="text-sm">No verification reading recorded.</p> : <ReadingTable rows={verification} />}
-        <p className="mt-2 text-sm font-semibold">{job.status === 'verified' || job.status === 'returned' ? 'The board was verified against its expected readings.' : 'The board is not verified yet.'}</p>
+        <p className="mt-2 text-sm font-semibold">{reportReady(job.status) ? 'The board was verified against its expected readings.' : 'The board is not verified yet.'}</p>
       </section>
       <footer className="border-t border-stone-300 pt-2 text-xs text-stone-700">
         Mains and the DC bus on this board are hazardous. Install and test it under your local electrical codes and licensed practice.
