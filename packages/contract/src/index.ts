@@ -2,6 +2,7 @@
 export * from './auth';
 export * from './problem';
 export * from './common';
+export * from './bounds';
 export * from './customers';
 export * from './users';
 export * from './readings';

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { boardDetailSchema } from './boards';
-import { idSchema, isoDateTime, optionalText } from './common';
+import { counterSchema } from './bounds';
+import { idSchema, isoDateTime, isoDateTimeInput, optionalText } from './common';
 import { customerSchema } from './customers';
 import { diagnosisSnapshotSchema } from './diagnosis';
 import { reviewSchema } from './reviews';
@@ -89,13 +90,13 @@ export const createJobRequest = z.object({
   serial: optionalText(100),
   boardId: idSchema,
   /** Defaults to the board model's newest version. */
-  boardVersion: z.number().int().positive().optional(),
+  boardVersion: counterSchema.optional(),
   faultCode: optionalText(20),
   symptom: z.string().trim().min(1).max(2000),
   priority: prioritySchema.default('normal'),
   assigneeId: idSchema.nullable().optional(),
-  receivedAt: isoDateTime.optional(),
-  dueAt: isoDateTime.nullable().optional(),
+  receivedAt: isoDateTimeInput.optional(),
+  dueAt: isoDateTimeInput.nullable().optional(),
 });
 export type CreateJobRequest = z.input<typeof createJobRequest>;
 
@@ -110,7 +111,7 @@ export const updateJobRequest = z
     serial: optionalText(100),
     faultCode: optionalText(20),
     symptom: z.string().trim().min(1).max(2000),
-    dueAt: isoDateTime.nullable(),
+    dueAt: isoDateTimeInput.nullable(),
   })
   .partial()
   .refine((o) => Object.keys(o).length > 0, 'nothing to change');
