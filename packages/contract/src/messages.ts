@@ -9,6 +9,7 @@ export const peopleErrors: z.core.$ZodErrorMap = (iss) => {
   switch (iss.code) {
     case 'invalid_type':
       if (iss.input === undefined || iss.input === null) return 'This is needed.';
+      if (iss.expected === 'number' && typeof iss.input === 'number') return 'Enter a finite number, as the meter shows it.';
       return `Enter ${things[iss.expected] ?? iss.expected} here.`;
     case 'too_small': {
       const n = Number(iss.minimum);

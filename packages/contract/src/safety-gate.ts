@@ -1,19 +1,16 @@
 // The one rule for when a reading needs the bus-discharge gate first, shared by the bench screen (which shows
 // the gate) and the server (which refuses a trainee's unpowered step that skipped it).
 import { z } from 'zod';
+import { voltsSchema } from './bounds';
 
 /** What the technician attests at the gate: unplugged, and the bus voltage measured just now. */
 export const safetyCheckSchema = z.object({
   unplugged: z.literal(true),
   /**
    * DC volts across the bulk capacitor, measured after unplugging, as the meter showed it: a negative value is a
-   * reading with the probes reversed, judged by its magnitude (`judgeBusVolts`).
+   * reading with the probes reversed, judged by its magnitude (`judgeBusVolts`), and refused in words there.
    */
-  busVolts: z
-    .number({ error: 'enter the bus voltage in volts, e.g. 3.2' })
-    .refine(Number.isFinite, 'enter the bus voltage in volts, e.g. 3.2')
-    .min(-1000, 'a bus reading beyond 1000 V is not a bus of this kind of board: check the meter range and measure again')
-    .max(1000, 'a bus reading beyond 1000 V is not a bus of this kind of board: check the meter range and measure again'),
+  busVolts: voltsSchema,
 });
 export type SafetyCheck = z.infer<typeof safetyCheckSchema>;
 
