@@ -11,6 +11,7 @@ import { diagnosisRoutes } from './features/diagnosis/routes';
 import { jobRoutes } from './features/jobs/routes';
 import { readingRoutes } from './features/readings/routes';
 import { repairRoutes } from './features/repairs/routes';
+import { reportRoutes } from './features/reports';
 import { reviewRoutes } from './features/reviews/routes';
 import { uploadRoutes } from './features/uploads/routes';
 import { userRoutes } from './features/users/routes';
@@ -63,6 +64,7 @@ export function createApp(ctx: AppContext): Express {
   api.use(diagnosisRoutes(ctx));
   api.use(reviewRoutes(ctx));
   api.use(repairRoutes(ctx));
+  api.use(reportRoutes(ctx));
   api.use(uploadRoutes(ctx));
   api.use(billingApiRoutes(ctx));
   api.use(notFoundApi);

@@ -10,10 +10,10 @@ import { newId } from '../../lib/ids';
 import { findJobInvoices, findJobQuotes } from '../billing/documents';
 import { getBillingJob, jobSummary } from '../billing/jobs';
 import { resolveCustomerLink } from '../billing/links';
-import { loadRepairReport, renderReportPdf } from '../billing/report';
 import { getSettingsRow } from '../billing/settings';
 import { startCheckout } from '../invoices/service';
 import { moveJob } from '../jobs/flow';
+import { getRepairReport, renderReportPdf } from '../reports';
 import { quoteDecisionMail } from '../mail/templates';
 import { sendMail } from '../mail/transport';
 
@@ -132,7 +132,7 @@ export async function getPublicReport({ db, token }: { db: Db; token: string }) 
   const link = await resolveCustomerLink(db, token);
   const job = await getBillingJob(db, link.shopId, link.jobId);
   if (!reportReady(job.status)) throw new AppError('not_found', 'The repair report is not ready yet');
-  return { filename: `repair-report-job-${job.number}.pdf`, pdf: await renderReportPdf(await loadRepairReport(db, job)) };
+  return { filename: `repair-report-job-${job.number}.pdf`, pdf: await renderReportPdf(await getRepairReport({ db, shopId: link.shopId, jobId: job.id })) };
 }
 
 export async function startPublicCheckout({ db, config, token, invoiceId }: { db: Db; config: Config; token: string; invoiceId: string }) {

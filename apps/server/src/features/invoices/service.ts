@@ -13,7 +13,7 @@ import { toInvoice } from '../billing/documents';
 import { getBillingJob, jobSummary } from '../billing/jobs';
 import { createCustomerLink, publicBase } from '../billing/links';
 import { paymentsFor } from '../billing/payments';
-import { loadRepairReport, renderReportPdf } from '../billing/report';
+import { getRepairReport, renderReportPdf } from '../reports';
 import { getSettingsRow } from '../billing/settings';
 import { invoiceMail, paidMail } from '../mail/templates';
 import { sendMail } from '../mail/transport';
@@ -108,7 +108,7 @@ export async function sendInvoice({ db, config, actor, id, to }: { db: Db; confi
     to,
     render: async (job, link) => ({
       ...invoiceMail(jobSummary(job), toInvoice(inv, lines), link, true),
-      attachments: [{ filename: `repair-report-job-${job.number}.pdf`, content: await renderReportPdf(await loadRepairReport(db, job)), contentType: 'application/pdf' }],
+      attachments: [{ filename: `repair-report-job-${job.number}.pdf`, content: await renderReportPdf(await getRepairReport({ db, shopId: job.shopId, jobId: job.id })), contentType: 'application/pdf' }],
     }),
   });
   await db.update(invoices).set({ sentAt: sent.sentAt }).where(eq(invoices.id, id));
