@@ -54,7 +54,8 @@ describe('job flow and repair report', () => {
     expect(fix.body).toMatchObject({ verdict: { verdict: 'ok' } });
     expect((await tech.patch(`/api/jobs/${jobId}`, { status: 'repaired' })).status).toBe(200);
     // the sign-off judges the correction, not the typo it replaced
-    expect((await lead.patch(`/api/jobs/${jobId}`, { status: 'verified' })).status).toBe(200);
+    const signOff = await lead.patch(`/api/jobs/${jobId}`, { status: 'verified', functionalCheckDone: true });
+    expect(signOff.status, JSON.stringify(signOff.body)).toBe(200);
 
     const res = await tech.get(`/api/jobs/${jobId}/report`);
     expect(res.status).toBe(200);

@@ -2,6 +2,6 @@
 export { auditBilling, linesFromInput, linesFromRows, mailDocument, openDocument, priceLines } from './billing-document';
 export { findJobInvoices, findJobQuotes, toInvoice, toQuote } from './documents';
 export { getBillingJob, jobSummary } from './jobs';
-export { createCustomerLink, publicBase, resolveCustomerLink } from './links';
+export { createCustomerLink, publicBase, resolveCustomerLink, revokeEarlierLinks } from './links';
 export { paymentsFor } from './payments';
 export { getSettingsRow } from './settings';
