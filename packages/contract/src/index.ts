@@ -14,3 +14,4 @@ export * from './jobs';
 export * from './billing';
 export * from './board-model';
 export * from './safety-gate';
+export * from './shop';
