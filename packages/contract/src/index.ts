@@ -2,6 +2,7 @@
 export * from './auth';
 export * from './problem';
 export * from './common';
+export * from './bounds';
 export * from './customers';
 export * from './users';
 export * from './readings';
@@ -15,3 +16,5 @@ export * from './billing';
 export * from './board-model';
 export * from './safety-gate';
 export * from './shop';
+export * from './policy';
+export * from './report';
