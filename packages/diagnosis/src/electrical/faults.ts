@@ -10,7 +10,9 @@
  */
 import type { BjtElement, Circuit, Element, Netlist, RawElement, SubcktDef } from '@splitscope/circuit';
 import type { Component, SubFault } from '../core/types.js';
+import type { Hazards } from './hazard.js';
 import {
+  BULK_MODES,
   DEFAULT_MODES,
   ELECTROLYTIC_THRESHOLD,
   OPTO_LED_FACTOR,
@@ -117,8 +119,11 @@ const PORT_PATTERNS = {
   gnd: /^(gnd|com|common|0|g|adj|ref)$/i,
 };
 
-/** Build the parts of a board from its netlist and flat (healthy, powered) circuit. */
-export function buildParts(netlist: Netlist, circuit: Circuit, overrides: Record<string, PartOverride> = {}): ElectricalPart[] {
+/**
+ * Build the parts of a board from its netlist and flat (healthy, powered) circuit. With `hazards`, the bulk
+ * electrolytic capacitor(s) on the rectified bus get the behavioural BULK_MODES on the bus source.
+ */
+export function buildParts(netlist: Netlist, circuit: Circuit, overrides: Record<string, PartOverride> = {}, hazards?: Hazards): ElectricalPart[] {
   const byPart = new Map<string, Element[]>();
   for (const e of circuit.elements) {
     const k = e.part.toLowerCase();
@@ -146,7 +151,9 @@ export function buildParts(netlist: Netlist, circuit: Circuit, overrides: Record
           for (const key of ['in', 'out', 'gnd'] as const) if (PORT_PATTERNS[key].test(p)) ports[key] = norm(net);
         });
         part.ports = ports;
-        part.modes = part.modes.filter((m) => (m.action === 'out-short' ? ports.out && ports.gnd : m.action === 'in-out-short' ? ports.in && ports.out : true));
+        part.modes = part.modes.filter((m) =>
+          m.action === 'out-short' ? ports.out && ports.gnd : m.action === 'in-out-short' ? ports.in && ports.out : m.action === 'current-limit' ? ports.out : true,
+        );
       } else {
         part.modes = part.modes.filter((m) => m.action === 'dead');
       }
@@ -171,6 +178,9 @@ export function buildParts(netlist: Netlist, circuit: Circuit, overrides: Record
       // A kind whose actions do not fit the element (bjt modes on a resistor) falls back to the element's own.
       const fits = tpl.filter((t) => actionFits(t.action, e));
       part.modes = fits.map((t) => fromTemplate(t, t.name, e.name.toLowerCase()));
+      if (kind === 'electrolytic-capacitor' && hazards?.busSource && nets.some((n) => hazards.bus.has(n))) {
+        for (const t of BULK_MODES) part.modes.push(fromTemplate(t, t.name, hazards.busSource));
+      }
     }
     if (ov?.priors) {
       for (const [mode, p] of Object.entries(ov.priors)) {
@@ -247,6 +257,23 @@ export function applyFaults(circuit: Circuit, faults: readonly SubFault[], parts
       const set = new Set(part.elements);
       for (const e of elements) if (set.has(e.name.toLowerCase())) for (const n of e.nodes) leakNodes.add(n);
       elements = elements.filter((e) => !set.has(e.name.toLowerCase()));
+      continue;
+    }
+    if (mode.action === 'source-scale') {
+      // Behavioural bulk-capacitor mode: the bus source (present only when powered) scaled.
+      const si = elements.findIndex((e) => e.name.toLowerCase() === mode.target && e.kind === 'V');
+      const src = elements[si];
+      if (src && src.kind === 'V') elements[si] = { ...src, value: src.value * v };
+      continue;
+    }
+    if (mode.action === 'current-limit') {
+      // The regulator's output pin moved to an inner node, joined to the board's output net by `v` ohms.
+      const out = part.ports?.out;
+      const set = new Set(part.elements);
+      if (!out || !elements.some((e) => set.has(e.name.toLowerCase()))) continue; // lifted
+      const inner = `${part.name.toLowerCase()}#out`;
+      elements = elements.map((e) => (set.has(e.name.toLowerCase()) && e.nodes.includes(out) ? ({ ...e, nodes: e.nodes.map((n) => (n === out ? inner : n)) } as Element) : e));
+      added.push(res(tag, part.name, inner, out, v));
       continue;
     }
     if (mode.action === 'out-short' || mode.action === 'in-out-short') {
