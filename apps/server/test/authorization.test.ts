@@ -68,6 +68,7 @@ const TABLE: Entry[] = [
   { method: 'POST', path: '/api/jobs/:id/reviews', roles: REVIEWERS, kind: 'job', body: () => ({ decision: 'approve' }) },
   { method: 'GET', path: '/api/jobs/:id/repairs', roles: ALL, kind: 'job' },
   { method: 'POST', path: '/api/jobs/:id/repairs', roles: BENCH, kind: 'job', body: () => ({ part: 'R1', action: 'cleaned' }) },
+  { method: 'GET', path: '/api/jobs/:id/report', roles: ALL, kind: 'job' },
   { method: 'POST', path: '/api/uploads', roles: ALL },
   { method: 'GET', path: '/api/uploads/:id', roles: ALL, kind: 'upload' },
   { method: 'GET', path: '/api/jobs/:id/uploads', roles: ALL, kind: 'job' },

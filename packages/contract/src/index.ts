@@ -2,6 +2,7 @@
 export * from './auth';
 export * from './problem';
 export * from './common';
+export * from './bounds';
 export * from './customers';
 export * from './users';
 export * from './readings';
@@ -14,3 +15,5 @@ export * from './jobs';
 export * from './billing';
 export * from './board-model';
 export * from './safety-gate';
+export * from './policy';
+export * from './report';

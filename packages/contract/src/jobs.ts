@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { boardDetailSchema } from './boards';
-import { idSchema, isoDateTime, optionalText } from './common';
+import { counterSchema } from './bounds';
+import { idSchema, isoDateTime, isoDateTimeInput, optionalText } from './common';
 import { customerSchema } from './customers';
 import { diagnosisSnapshotSchema } from './diagnosis';
 import { reviewSchema } from './reviews';
@@ -17,20 +18,6 @@ export const jobStatusLabels: Record<JobStatus, string> = {
   repaired: 'Repaired',
   verified: 'Verified',
   returned: 'Returned',
-};
-
-/**
- * The job status flow. Approval and sending back happen through a review (POST /jobs/:id/reviews);
- * a repaired board whose verification fails goes back to diagnosing.
- */
-export const jobTransitions: Record<JobStatus, readonly JobStatus[]> = {
-  received: ['diagnosing'],
-  diagnosing: ['awaiting-review'],
-  'awaiting-review': ['approved', 'diagnosing'],
-  approved: ['repaired'],
-  repaired: ['verified', 'diagnosing'],
-  verified: ['returned'],
-  returned: [],
 };
 
 export const priorities = ['low', 'normal', 'high'] as const;
@@ -103,13 +90,13 @@ export const createJobRequest = z.object({
   serial: optionalText(100),
   boardId: idSchema,
   /** Defaults to the board model's newest version. */
-  boardVersion: z.number().int().positive().optional(),
+  boardVersion: counterSchema.optional(),
   faultCode: optionalText(20),
   symptom: z.string().trim().min(1).max(2000),
   priority: prioritySchema.default('normal'),
   assigneeId: idSchema.nullable().optional(),
-  receivedAt: isoDateTime.optional(),
-  dueAt: isoDateTime.nullable().optional(),
+  receivedAt: isoDateTimeInput.optional(),
+  dueAt: isoDateTimeInput.nullable().optional(),
 });
 export type CreateJobRequest = z.input<typeof createJobRequest>;
 
@@ -124,7 +111,7 @@ export const updateJobRequest = z
     serial: optionalText(100),
     faultCode: optionalText(20),
     symptom: z.string().trim().min(1).max(2000),
-    dueAt: isoDateTime.nullable(),
+    dueAt: isoDateTimeInput.nullable(),
   })
   .partial()
   .refine((o) => Object.keys(o).length > 0, 'nothing to change');

@@ -1,12 +1,13 @@
 // The one rule for when a reading needs the bus-discharge gate first, shared by the bench screen (which shows
 // the gate) and the server (which refuses a trainee's unpowered step that skipped it).
 import { z } from 'zod';
+import { voltsSchema } from './bounds';
 
 /** What the technician attests at the gate: unplugged, and the bus voltage measured just now. */
 export const safetyCheckSchema = z.object({
   unplugged: z.literal(true),
   /** DC volts across the bulk capacitor, measured after unplugging. */
-  busVolts: z.number().refine(Number.isFinite, 'must be a finite number of volts').min(0).max(1000),
+  busVolts: voltsSchema.min(0, 'must be at least 0 V'),
 });
 export type SafetyCheck = z.infer<typeof safetyCheckSchema>;
 

@@ -70,6 +70,8 @@ export const readings = pgTable(
       .notNull()
       .references(() => jobs.id),
     idempotencyKey: text('idempotency_key').notNull(),
+    /** sha256 of the request as parsed: a retry with the same key must send the same reading (null on older rows) */
+    requestHash: text('request_hash'),
     mode: meterModeEnum('mode').notNull(),
     red: text('red').notNull(),
     black: text('black').notNull(),

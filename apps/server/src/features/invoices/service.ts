@@ -1,6 +1,6 @@
 import { and, asc, desc, eq } from 'drizzle-orm';
 import type Stripe from 'stripe';
-import type { BillingLineValues, createInvoiceRequest, Invoice } from '@splitscope/contract';
+import { reportReady, type BillingLineValues, type createInvoiceRequest, type Invoice } from '@splitscope/contract';
 import type { z } from 'zod';
 import type { Actor } from '../../auth/guards';
 import type { Config } from '../../config';
@@ -13,7 +13,7 @@ import { toInvoice } from '../billing/documents';
 import { getBillingJob, jobSummary } from '../billing/jobs';
 import { createCustomerLink, publicBase } from '../billing/links';
 import { paymentsFor } from '../billing/payments';
-import { loadRepairReport, renderReportPdf, reportAvailable } from '../billing/report';
+import { getRepairReport, renderReportPdf } from '../reports';
 import { getSettingsRow } from '../billing/settings';
 import { invoiceMail, paidMail } from '../mail/templates';
 import { sendMail } from '../mail/transport';
@@ -45,7 +45,7 @@ export async function createInvoice({
   input: z.output<typeof createInvoiceRequest>;
 }): Promise<Invoice> {
   const job = await getBillingJob(db, actor.shopId, jobId);
-  if (!reportAvailable(job.status)) {
+  if (!reportReady(job.status)) {
     throw new AppError('conflict', `Job ${job.number} is ${job.status}; the invoice is issued after verification`, { allowed: ['verified', 'returned'] });
   }
   const [open] = await db
@@ -108,7 +108,7 @@ export async function sendInvoice({ db, config, actor, id, to }: { db: Db; confi
     to,
     render: async (job, link) => ({
       ...invoiceMail(jobSummary(job), toInvoice(inv, lines), link, true),
-      attachments: [{ filename: `repair-report-job-${job.number}.pdf`, content: await renderReportPdf(await loadRepairReport(db, job)), contentType: 'application/pdf' }],
+      attachments: [{ filename: `repair-report-job-${job.number}.pdf`, content: await renderReportPdf(await getRepairReport({ db, shopId: job.shopId, jobId: job.id })), contentType: 'application/pdf' }],
     }),
   });
   await db.update(invoices).set({ sentAt: sent.sentAt }).where(eq(invoices.id, id));

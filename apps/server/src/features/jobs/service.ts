@@ -1,9 +1,9 @@
 import { and, asc, desc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import type { CreateJobRequest, Job, JobDetail, JobListQuery, JobStatus, UpdateJobRequest } from '@splitscope/contract';
-import { assertRole, type Actor } from '../../auth/guards';
+import { allowedMoves, verificationReadings, type CreateJobRequest, type Job, type JobDetail, type JobListQuery, type JobStatus, type UpdateJobRequest } from '@splitscope/contract';
+import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
-import { auditLog, boardModels, boardModelVersions, customers, diagnosisSnapshots, jobs, readings, repairActions, reviews, shops, users } from '../../db/schema';
+import { boardModels, boardModelVersions, customers, diagnosisSnapshots, jobs, readings, repairActions, reviews, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso, isoOrNull } from '../../lib/dates';
 import { newId } from '../../lib/ids';
@@ -11,7 +11,7 @@ import { getBoardVersion } from '../boards/service';
 import { toCustomer } from '../customers/service';
 import { computeDiagnosis, toSnapshot } from '../diagnosis/service';
 import { toReview } from '../reviews/view';
-import { allowedFor, ruleOf } from './flow';
+import { checkMove, moveJob, type MoveRequest } from './flow';
 
 export type JobRow = typeof jobs.$inferSelect;
 
@@ -106,7 +106,7 @@ export async function getJobDetail({ db, actor, id }: { db: Db; actor: Actor; id
     ...job,
     customer: toCustomer(customer!),
     board,
-    allowedTransitions: allowedFor(job.status, actor.role),
+    allowedTransitions: allowedMoves(job.status, actor.role),
     reviews: reviewRows.map(({ r, name }) => toReview(r, name)),
     latestSnapshot: snap ? toSnapshot(snap) : null,
   };
@@ -158,26 +158,21 @@ export async function createJob({ db, actor, input }: { db: Db; actor: Pick<Acto
   return getJob({ db, shopId: actor.shopId, id });
 }
 
-function refuseTransition(from: JobStatus, to: JobStatus, role: Actor['role']): never {
-  const viaPatch = allowedFor(from, role, 'patch');
-  const list = viaPatch.length ? viaPatch.join(', ') : 'nowhere by an edit';
-  const rule = ruleOf(from, to);
-  if (rule?.via === 'review') {
-    throw new AppError('conflict', `${rule.name[0]!.toUpperCase()}${rule.name.slice(1)} is a review decision: POST /api/jobs/:id/reviews. From ${from} an edit can move the job to: ${list}`, { allowed: viaPatch });
-  }
-  throw new AppError('conflict', `A job cannot move from ${from} to ${to}. From ${from} it can move to: ${list}`, { allowed: viaPatch });
-}
-
-/** The unhealthy verification readings since the last repair action, or why there are none to judge. */
+/** The unhealthy verification readings (the contract's one definition of them), or why there are none to judge. */
 async function verificationProblems(db: Db, jobId: string): Promise<string | null> {
   const [last] = await db.select({ at: repairActions.createdAt }).from(repairActions).where(eq(repairActions.jobId, jobId)).orderBy(desc(repairActions.createdAt)).limit(1);
   if (!last) return 'no repair action is recorded';
-  const corrected = db.select({ id: readings.supersedes }).from(readings).where(and(eq(readings.jobId, jobId), sql`${readings.supersedes} is not null`));
-  const rows = await db
-    .select()
+  const later = alias(readings, 'later');
+  const taken = await db
+    .select({ r: readings, supersededBy: later.id })
     .from(readings)
-    .where(and(eq(readings.jobId, jobId), eq(readings.phase, 'verification'), sql`${readings.createdAt} > ${last.at}`, sql`${readings.id} not in (${corrected})`))
+    .leftJoin(later, eq(later.supersedes, readings.id))
+    .where(and(eq(readings.jobId, jobId), eq(readings.phase, 'verification')))
     .orderBy(asc(readings.createdAt));
+  const rows = verificationReadings(
+    taken.map(({ r, supersededBy }) => ({ ...r, supersededBy, createdAt: iso(r.createdAt) })),
+    iso(last.at),
+  );
   if (rows.length === 0) return 'no verification readings were taken after the last repair action';
   const bad = rows.filter((r) => (r.verdict as { verdict?: string } | null)?.verdict !== 'ok');
   if (bad.length === 0) return null;
@@ -203,12 +198,10 @@ export async function updateJob({ db, actor, id, input }: { db: Db; actor: Actor
   if (fields.proposedPart !== undefined) set.proposedPart = fields.proposedPart;
 
   let snapshot: typeof diagnosisSnapshots.$inferInsert | undefined;
-  let audit: typeof auditLog.$inferInsert | undefined;
+  let move: MoveRequest | undefined;
   if (status && status !== current.status) {
-    const rule = ruleOf(current.status, status);
-    if (!rule || rule.via !== 'patch') refuseTransition(current.status, status, actor.role);
-    assertRole(actor, rule.roles, rule.name[0]!.toUpperCase() + rule.name.slice(1));
-    set.status = status;
+    move = { jobId: id, shopId: actor.shopId, from: current.status, to: status, by: { actor, via: 'patch' }, set };
+    checkMove(move);
     if (status === 'awaiting-review') {
       const part = fields.proposedPart ?? current.proposedPart;
       if (!part) throw new AppError('invalid', 'Name the part you propose (proposedPart) before asking for a review', { errors: [{ path: 'proposedPart', message: 'required to move to awaiting-review' }] });
@@ -223,21 +216,17 @@ export async function updateJob({ db, actor, id, input }: { db: Db; actor: Actor
     if (status === 'verified') {
       const problem = await verificationProblems(db, id);
       if (problem) throw new AppError('conflict', `The repair cannot be signed off: ${problem}`);
-      audit = { id: newId(), shopId: actor.shopId, userId: actor.id, action: 'sign-off', subject: id, detail: `job ${current.number}` };
+      move.audit = { action: 'sign-off', detail: `job ${current.number}` };
     }
-    if (status === 'returned') set.closedAt = new Date();
   }
 
   await db.transaction(async (tx) => {
     // Compare-and-set on the status we read, so two people moving the same job cannot both win.
-    const done = await tx
-      .update(jobs)
-      .set(set)
-      .where(and(eq(jobs.id, id), eq(jobs.status, current.status)))
-      .returning({ id: jobs.id });
-    if (done.length === 0) throw new AppError('conflict', 'The job changed while you were editing it; reload and try again');
+    const done = move
+      ? await moveJob(tx, move)
+      : (await tx.update(jobs).set(set).where(and(eq(jobs.id, id), eq(jobs.status, current.status))).returning({ id: jobs.id })).length > 0;
+    if (!done) throw new AppError('conflict', 'The job changed while you were editing it; reload and try again');
     if (snapshot) await tx.insert(diagnosisSnapshots).values(snapshot);
-    if (audit) await tx.insert(auditLog).values(audit);
   });
   return getJob({ db, shopId: actor.shopId, id });
 }

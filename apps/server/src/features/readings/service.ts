@@ -1,6 +1,7 @@
+import { createHash } from 'node:crypto';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import type { CreateReadingInput, CreateReadingResponse, ReadingVerdict, StoredReading } from '@splitscope/contract';
+import { acceptsReadings, readingRefusal, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
 import { boardModelVersions, jobs, readings, users } from '../../db/schema';
@@ -120,21 +121,31 @@ async function boardVersionOf(db: Db, shopId: string, jobId: string): Promise<st
 
 const invalid = (path: string, message: string) => new AppError('invalid', message, { errors: [{ path, message }] });
 
-const OPEN_FOR: Record<CreateReadingInput['phase'], readonly string[]> = { diagnosis: ['received', 'diagnosing'], verification: ['approved', 'repaired'] };
-function checkOpen(status: string, phase: CreateReadingInput['phase']): void {
-  const allowed = OPEN_FOR[phase];
-  if (!allowed.includes(status)) throw new AppError('conflict', `A ${phase} reading is taken while the job is ${allowed.join(' or ')}; this job is ${status}`);
+function checkOpen(status: JobStatus, phase: CreateReadingInput['phase']): void {
+  if (!acceptsReadings(status, phase)) throw new AppError('conflict', `A ${phase} reading is taken while the job is ${statusesTakingReadings(phase).join(' or ')}; this job is ${status}`);
 }
 
-type JobState = { id: string; status: string; assigneeId: string | null; boardVersionId: string };
+type JobState = { id: string; status: JobStatus; assigneeId: string | null; boardVersionId: string };
+
+/** Object keys in a fixed order at every depth, so two equal requests serialise to the same text. */
+const canonical = (v: unknown): unknown =>
+  Array.isArray(v) ? v.map(canonical) : v && typeof v === 'object' ? Object.fromEntries(Object.keys(v).sort().map((k) => [k, canonical((v as Record<string, unknown>)[k])])) : v;
+
+/** What a retry must repeat: the request as parsed (defaults filled in, text trimmed), hashed. */
+export const requestHashOf = (input: CreateReadingInput) => createHash('sha256').update(JSON.stringify(canonical(input))).digest('base64url');
 
 /** The job as a checked write sees it first: of this shop, open to this actor, and any row this key stored. */
 async function jobAndReplay(db: Db, actor: Actor, jobId: string, input: CreateReadingInput): Promise<{ job: JobState; replay: CreateReadingResponse | null }> {
   const [found] = await queries(db).jobAndReplay.execute({ jobId, shopId: actor.shopId, key: input.idempotencyKey });
   if (!found) throw new AppError('not_found', `No job ${jobId}`);
   const { job } = found;
-  if (actor.role === 'trainee' && job.assigneeId !== actor.id) throw new AppError('forbidden', 'Trainees record readings only on jobs assigned to them');
-  if (actor.role === 'trainee' && input.phase !== 'diagnosis') throw new AppError('forbidden', 'Trainees take diagnosis steps; verification readings after a repair are taken by a technician');
+  const refused = readingRefusal(actor.role, input.phase, job.assigneeId === actor.id);
+  if (refused) throw new AppError('forbidden', refused);
+  // A key names one reading: the same key with another body is a client bug (or two readings sharing a key),
+  // and answering the stored row as if it were this one would lose the new reading without a word.
+  if (found.r?.requestHash && found.r.requestHash !== requestHashOf(input)) {
+    throw new AppError('conflict', `Idempotency key ${input.idempotencyKey} was already used for a different reading (key reused with a different reading); send this reading with a new key`);
+  }
   return { job, replay: found.r ? withVerdict(toReading(found.r, found.authorName!, found.supersededBy)) : null };
 }
 
@@ -201,6 +212,7 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
     shopId: actor.shopId,
     jobId,
     idempotencyKey: input.idempotencyKey,
+    requestHash: requestHashOf(input),
     mode: input.mode,
     red: input.red,
     black: input.black,

@@ -1,4 +1,4 @@
-import type { ExpectedReadingRow, JobDetail, StoredReading } from '@splitscope/contract';
+import { acceptsReadings, type ExpectedReadingRow, type JobDetail, type StoredReading } from '@splitscope/contract';
 import { BUS_CAUTIONS, busSafety, DEFAULT_SAFE_THRESHOLD } from '@splitscope/boards/references';
 import { useEffect, useMemo, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
@@ -102,7 +102,7 @@ function Bench({ job }: { job: JobDetail }) {
   const ranked = useMemo(() => (diagnosisQ.data ? rankedParts(view, diagnosisQ.data) : []), [view, diagnosisQ.data]);
   const step = steps[0];
   const active: (Target & { pointId?: string }) | null = guided ? (step ? { ...step.target, pointId: step.pointId } : null) : target;
-  const canWrite = ['received', 'diagnosing'].includes(job.status);
+  const canWrite = acceptsReadings(job.status, 'diagnosis');
   const needsGate = !!active && active.power === 'off' && touchesBus(view, active) && gateVolts === null;
 
   const points = view.points.map((p) => ({ ...p, ...pointState(view, readings, p.net) }));

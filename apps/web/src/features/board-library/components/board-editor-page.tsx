@@ -1,4 +1,4 @@
-import { boardModelSchema, type BoardDetail, type BoardModel } from '@splitscope/contract';
+import { boardModelSchema, hasRole, ROLES, type BoardDetail, type BoardModel } from '@splitscope/contract';
 import { useMemo, useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
@@ -28,7 +28,7 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
   const [selected, setSelected] = useState<string | null>(null);
   const [placing, setPlacing] = useState<'point' | 'part'>('point');
   const [note, setNote] = useState('');
-  const canEdit = me.data?.role === 'admin' || me.data?.role === 'lead';
+  const canEdit = hasRole(me.data?.role, ROLES.reviewers);
   if (!doc) return <p role="alert">This board document does not match the board-model schema: {parsed.error?.issues[0]?.message}</p>;
 
   const movePoint = (id: string, x: number, y: number) =>
