@@ -59,7 +59,7 @@ describe('repeats are not new evidence', () => {
     }
     const conf = d.update([v15, vfan, beep], { confirm: true, nextTests: 80 });
     expect(conf.nextTests.every((t) => (t.confirmation === true) === [v15, vfan, beep].some((r) => key({ ...r, lifted: [] } as never) === key(t)))).toBe(true);
-  });
+  }, 300_000);
 });
 
 describe('"not explained" is an answer', () => {
@@ -73,7 +73,7 @@ describe('"not explained" is an answer', () => {
     const noFault = out.candidates.find((c) => c.faults.length === 0)!;
     expect(noFault.probability).toBeLessThan(0.8);
     expect(out.minimalDiagnoses).toEqual([]);
-  });
+  }, 300_000);
   it('an explained case carries no such field', () => {
     expect(once.unexplained).toBeUndefined();
     expect(once.unmodelledProbability).toBeLessThan(0.01);

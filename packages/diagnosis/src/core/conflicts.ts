@@ -17,11 +17,16 @@
  * hitting sets.
  *
  * Bound (documented, every number an option):
- * - seeds: the `seeds` (default 6) strongest single candidates by posterior that leave a reading outside its band;
+ * - seeds (at most `seeds`, default 8, each leaving a reading outside its band): for every symptom (a reading
+ *   outside its healthy band) the single with the best evidence for it and up to 2 twins within 0.5 nat (parts the
+ *   readings cannot tell apart: capacitors on one rail), then the strongest singles by posterior;
  * - per seed at most `extensions` (default 32) mode choices, taken from the parts of the residual conflicts in
  *   order of how many residual conflicts the part hits, then by the part's best single posterior;
- * - each pair member keeps its `points` (default 2) likeliest sweep points: ≤ seeds × extensions × points² sweep
- *   combinations (6 × 32 × 4 = 768);
+ * - each pair member keeps its `points` (default 2) likeliest sweep points, except that the seed keeps its whole
+ *   sweep (S points) with its first `fullSweep` (default 8) extensions, and a mode invisible alone (no reading
+ *   moves by SUPPORT_LLR) keeps its whole sweep (T points; it has no "likeliest" points): ≤ seeds × (fullSweep ×
+ *   S × T + (extensions − fullSweep) × points × T) sweep combinations (8 × (8 × 6 × 3 + 24 × 2 × 3) = 2304 for
+ *   S = 6, T = 3; far fewer in practice, most extensions being visible);
  * - triples: the `triples` (default 3) strongest generated pairs that still leave a reading unexplained are
  *   extended the same way by at most `tripleExtensions` (default 12) mode choices, one sweep point per member;
  * - a wall-clock cap `timeMs` (default 10 s) on the whole step; when it cuts the list, `capped` is reported
@@ -37,11 +42,15 @@ export interface ConflictOptions {
   points?: number;
   triples?: number;
   tripleExtensions?: number;
+  fullSweep?: number;
   timeMs?: number;
 }
 
 /** Single-fault evidence (nats) above which a component counts as explaining a reading. */
 export const SUPPORT_LLR = 2;
+/** Singles within this many nats of a symptom's best support are its twins; at most TWINS are seeds per symptom. */
+const TWIN_NATS = 0.5;
+const TWINS = 3;
 
 export interface SingleScore {
   ch: ModeChoice;
@@ -53,6 +62,8 @@ export interface ConflictInput {
   singles: readonly SingleScore[];
   /** The healthy system's per-reading log-likelihoods. */
   healthy: readonly number[];
+  /** Readings outside their band on the healthy system. */
+  symptoms: readonly number[];
   suspects: (reading: number) => readonly string[];
   /** Keys (refsKey) of candidates already scored; extended in place. */
   seen: Set<string>;
@@ -61,11 +72,12 @@ export interface ConflictInput {
 }
 
 export function extendByConflicts(input: ConflictInput, options: ConflictOptions = {}): { scored: Scored[]; pairs: number; triples: number; capped: boolean } {
-  const nSeeds = options.seeds ?? 6;
+  const nSeeds = options.seeds ?? 8;
   const nExt = options.extensions ?? 32;
   const points = options.points ?? 2;
   const nTriples = options.triples ?? 3;
   const nExt3 = options.tripleExtensions ?? 12;
+  const fullSweep = options.fullSweep ?? 8;
   const deadline = performance.now() + (options.timeMs ?? 10_000);
   let capped = false;
 
@@ -119,6 +131,11 @@ export function extendByConflicts(input: ConflictInput, options: ConflictOptions
     return single ? truncatedChoice(ch, single.s.combos.map(comboLogWeight), keep) : ch;
   };
 
+  // A mode that changes no reading alone has no "best" sweep points: it keeps them all.
+  const invisible = (ch: ModeChoice) => {
+    const single = singleOf.get(ch);
+    return !!single && heaviest(single.s).perReading.every((ll, r) => Math.abs(ll - (input.healthy[r] as number)) < SUPPORT_LLR);
+  };
   const scored: Scored[] = [];
   const generated: { members: ModeChoice[]; s: Scored; logPost: number }[] = [];
   const tryScore = (members: ModeChoice[]): Scored | undefined => {
@@ -135,19 +152,56 @@ export function extendByConflicts(input: ConflictInput, options: ConflictOptions
     return s;
   };
 
-  const seeds = [...input.singles]
-    .sort((a, b) => b.logPost - a.logPost)
-    .filter((x) => heaviest(x.s).bad.length > 0)
-    .slice(0, nSeeds);
+  // Seeds: for each reading the healthy system leaves outside its band, the strongest single that explains it
+  // (so every symptom gets its visible fault), then the strongest singles overall; all with a residual.
+  const ranked = [...input.singles].sort((a, b) => b.logPost - a.logPost).filter((x) => heaviest(x.s).bad.length > 0);
+  const seeds: SingleScore[] = [];
+  const addSeed = (x: SingleScore | undefined) => {
+    if (x && !seeds.includes(x) && seeds.length < nSeeds) seeds.push(x);
+  };
+  const support = (x: SingleScore, r: number) => (heaviest(x.s).perReading[r] as number) - (input.healthy[r] as number);
+  for (const r of input.symptoms) {
+    // The best support for r, and its twins (parts the readings cannot tell apart, e.g. capacitors on one rail).
+    const top = ranked.filter((x) => support(x, r) > SUPPORT_LLR).sort((a, b) => support(b, r) - support(a, r));
+    const best = top[0] ? support(top[0], r) : Infinity;
+    for (const x of top.filter((y) => support(y, r) >= best - TWIN_NATS).slice(0, TWINS)) addSeed(x);
+  }
+  for (const x of ranked) addSeed(x);
   let pairs = 0;
   for (const seed of seeds) {
     const residual = heaviest(seed.s).bad;
     const a = trunc(seed.ch, points);
-    for (const ch of extensionsFor(residual, new Set([seed.ch.ref.part]), nExt)) {
-      const s = tryScore([a, trunc(ch, points)]);
+    const exts = extensionsFor(residual, new Set([seed.ch.ref.part]), nExt);
+    for (let i = 0; i < exts.length; i++) {
+      const ch = exts[i] as ModeChoice;
+      // The extensions hitting most residual conflicts pair with the seed's whole sweep: the seed's best points
+      // alone are rarely its best points beside a second fault.
+      const s = tryScore([i < fullSweep ? seed.ch : a, invisible(ch) ? ch : trunc(ch, points)]);
       if (!s) continue;
       pairs++;
       generated.push({ members: [seed.ch, ch], s, logPost: s.logPrior + logMarginal(s) });
+    }
+  }
+
+  // Twins: a generated pair that explains the readings also stands for the pairs with a member swapped for a
+  // single the readings cannot tell from it (same evidence on every reading within TWIN_NATS): score those too,
+  // so indistinguishable parts share the mass instead of one taking it all.
+  const sameEvidence = (a: SingleScore, b: SingleScore) => {
+    const pa = heaviest(a.s).perReading;
+    const pb = heaviest(b.s).perReading;
+    return pa.every((x, r) => Math.abs(x - (pb[r] as number)) < TWIN_NATS);
+  };
+  const strong = generated.filter((g) => heaviest(g.s).bad.length === 0).sort((a, b) => b.logPost - a.logPost).slice(0, nTriples);
+  for (const g of strong) {
+    for (let k = 0; k < g.members.length; k++) {
+      const m = singleOf.get(g.members[k] as ModeChoice);
+      if (!m) continue;
+      const twins = input.singles.filter((x) => x !== m && x.ch.ref.mode === m.ch.ref.mode && !g.members.some((y) => y.ref.part === x.ch.ref.part) && sameEvidence(m, x));
+      for (const t of twins.slice(0, 2 * TWINS)) {
+        const members = g.members.map((y, j) => (j === k ? t.ch : y));
+        const sc = tryScore(members.map((y) => (invisible(y) || y === t.ch ? y : trunc(y, points))));
+        if (sc) pairs++;
+      }
     }
   }
 

@@ -131,6 +131,7 @@ export function diagnose<T, V, P>(
         {
           singles,
           healthy: healthy.perReading,
+          symptoms: healthy.bad,
           suspects: (r) => (suspects ? suspects((observations[r] as Observation<T, V>).test) : []),
           seen,
           score,

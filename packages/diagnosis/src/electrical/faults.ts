@@ -3,8 +3,8 @@
  *
  * A part is a top-level netlist element or subcircuit instance. Its kind comes from the case / board model or
  * is inferred from the element letter: R → resistor, C → ceramic capacitor (electrolytic from 1 µF), L →
- * inductor, D → diode, Q → bjt, X → opto-coupler when its subcircuit holds a diode and a transistor or a
- * current-controlled source, else a generic subcircuit; V/I → source (no modes).
+ * inductor, D → diode, Q → bjt, X → opto-coupler when its subcircuit holds a diode and a current-controlled
+ * source or a transistor sharing no node with the diode, else a generic subcircuit; V/I → source (no modes).
  * A subcircuit instance is one part whose modes are its internal elements' modes, named `element:mode` with
  * the internal element's name lower-cased as written (`dl:open`, `q1:ce-short`).
  */
@@ -76,9 +76,14 @@ export function inferKind(el: Element | undefined, raw: RawElement, netlist: Net
       return 'bjt';
     case 'X': {
       const sub = findSubckt(netlist, raw.model);
-      const letters = new Set((sub?.elements ?? []).map((e) => e.letter));
-      if (letters.has('D') && (letters.has('Q') || letters.has('F') || letters.has('G'))) return 'opto-coupler';
-      return 'subcircuit';
+      // An opto-coupler: an LED and an output isolated from it — a current transfer (F/G), or a transistor that
+      // shares no node with the diode. A zener-referenced regulator (diode on the transistor's base) is not one.
+      const els = sub?.elements ?? [];
+      const diodes = els.filter((e) => e.letter === 'D');
+      if (diodes.length > 0 && els.some((e) => e.letter === 'F' || e.letter === 'G')) return 'opto-coupler';
+      const dNodes = new Set(diodes.flatMap((e) => e.nodes.map((n) => n.toLowerCase())));
+      const isolated = els.some((e) => e.letter === 'Q' && e.nodes.every((n) => !dNodes.has(n.toLowerCase())));
+      return diodes.length > 0 && isolated ? 'opto-coupler' : 'subcircuit';
     }
     default:
       return 'source';
