@@ -62,6 +62,15 @@ const TABLE: Entry[] = [
   { method: 'PATCH', path: '/api/jobs/:id', roles: BENCH, kind: 'job', body: () => ({ priority: 'normal' }) },
   { method: 'GET', path: '/api/jobs/:id/readings', roles: ALL, kind: 'job' },
   { method: 'POST', path: '/api/jobs/:id/readings', roles: ALL, kind: 'job', body: readingBody, own: { trainee: 403 } },
+  // No reading has the id `:readingId`: a role past the guard gets the 404 of the reading, a trainee the 403 of a job not theirs.
+  {
+    method: 'POST',
+    path: '/api/jobs/:id/readings/:readingId/strike',
+    roles: ALL,
+    kind: 'job',
+    body: () => ({ reason: 'matrix strike' }),
+    own: { admin: 404, lead: 404, tech: 404, trainee: 403 },
+  },
   { method: 'GET', path: '/api/jobs/:id/diagnosis', roles: ALL, kind: 'job' },
   { method: 'GET', path: '/api/jobs/:id/diagnosis-snapshots', roles: ALL, kind: 'job' },
   { method: 'GET', path: '/api/jobs/:id/reviews', roles: ALL, kind: 'job' },

@@ -1,4 +1,5 @@
 // The one contract between the server and the web app: request/response schemas and their types.
+export { peopleErrors } from './messages';
 export * from './auth';
 export * from './problem';
 export * from './common';
@@ -15,5 +16,8 @@ export * from './jobs';
 export * from './billing';
 export * from './board-model';
 export * from './safety-gate';
+export * from './policy-bench';
+export * from './board-words';
+export * from './verification';
 export * from './policy';
 export * from './report';

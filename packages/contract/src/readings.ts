@@ -112,6 +112,8 @@ export const readingSchema = z.object({
   verdict: readingVerdictSchema.nullable(),
   /** The bus voltage measured at the safety gate before this unpowered reading; null when no gate was asked. */
   safetyBusVolts: z.number().nullable(),
+  /** Set when the reading was struck out: it stays listed, struck through, and no longer counts. */
+  struck: z.object({ reason: z.string(), authorName: z.string(), at: isoDateTime }).nullable(),
 });
 export type StoredReading = z.infer<typeof readingSchema>;
 
@@ -131,3 +133,9 @@ export const readingListQuery = z.object({
 
 export const readingListResponse = z.object({ items: z.array(readingSchema) });
 export type ReadingList = z.infer<typeof readingListResponse>;
+
+export const strikeReadingRequest = z.object({
+  reason: z.string().trim().min(3, 'say why the reading is struck out (at least a few words)').max(500),
+});
+export type StrikeReadingRequest = z.input<typeof strikeReadingRequest>;
+export const readingParams = z.object({ id: idSchema, readingId: idSchema });

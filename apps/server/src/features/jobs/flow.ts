@@ -57,7 +57,8 @@ export async function moveJob(db: Db | Tx, req: MoveRequest): Promise<boolean> {
   checkMove(req);
   const now = new Date();
   const set: Partial<typeof jobs.$inferInsert> = { ...req.set, status: req.to, updatedAt: now };
-  if (req.to === 'returned') set.closedAt = now;
+  // A returned board keeps the day it left, when the request names one.
+  if (req.to === 'returned') set.closedAt ??= now;
   const moved = await db
     .update(jobs)
     .set(set)

@@ -1,9 +1,25 @@
 import { and, asc, desc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import { allowedMoves, verificationReadings, type CreateJobRequest, type Job, type JobDetail, type JobListQuery, type JobStatus, type UpdateJobRequest } from '@splitscope/contract';
-import type { Actor } from '../../auth/guards';
+import {
+  allowedMoves,
+  boardModelSchema,
+  boardWords,
+  guidedLiftRoles,
+  guidedOrderBinds,
+  METER_WORDS,
+  unprovenRows,
+  verificationChecklist,
+  verificationReadings,
+  type CreateJobRequest,
+  type Job,
+  type JobDetail,
+  type JobListQuery,
+  type JobStatus,
+  type UpdateJobRequest,
+} from '@splitscope/contract';
+import { assertRole, type Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
-import { boardModels, boardModelVersions, customers, diagnosisSnapshots, jobs, readings, repairActions, reviews, shops, users } from '../../db/schema';
+import { boardModels, boardModelVersions, customers, diagnosisSnapshots, jobs, readingStrikes, readings, repairActions, reviews, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso, isoOrNull } from '../../lib/dates';
 import { newId } from '../../lib/ids';
@@ -54,12 +70,15 @@ const toJob = ({ j, customerName, assigneeName, boardName, boardVersion }: JobQu
   status: j.status,
   sentBack: j.sentBack,
   proposedPart: j.proposedPart,
+  proposalNote: j.proposalNote,
   assigneeId: j.assigneeId,
   assigneeName,
   priority: j.priority,
   receivedAt: iso(j.receivedAt),
   dueAt: isoOrNull(j.dueAt),
   closedAt: isoOrNull(j.closedAt),
+  returnedVia: j.returnedVia === 'courier' || j.returnedVia === 'collected' ? j.returnedVia : null,
+  guidedLifted: j.guidedLiftedBy !== null,
   createdBy: j.createdBy,
   createdAt: iso(j.createdAt),
   updatedAt: iso(j.updatedAt),
@@ -107,6 +126,7 @@ export async function getJobDetail({ db, actor, id }: { db: Db; actor: Actor; id
     customer: toCustomer(customer!),
     board,
     allowedTransitions: allowedMoves(job.status, actor.role),
+    guidedOrderRequired: guidedOrderBinds(actor.role, job.guidedLifted ? 'lifted' : null),
     reviews: reviewRows.map(({ r, name }) => toReview(r, name)),
     latestSnapshot: snap ? toSnapshot(snap) : null,
   };
@@ -158,29 +178,38 @@ export async function createJob({ db, actor, input }: { db: Db; actor: Pick<Acto
   return getJob({ db, shopId: actor.shopId, id });
 }
 
-/** The unhealthy verification readings (the contract's one definition of them), or why there are none to judge. */
-async function verificationProblems(db: Db, jobId: string): Promise<string | null> {
-  const [last] = await db.select({ at: repairActions.createdAt }).from(repairActions).where(eq(repairActions.jobId, jobId)).orderBy(desc(repairActions.createdAt)).limit(1);
+/**
+ * What stands between a repaired job and its sign-off: the checklist rows (contract: verificationChecklist) that
+ * no healthy verification reading (contract: verificationReadings, less the struck ones) proves, or no repair.
+ */
+async function verificationProblems(db: Db, actor: Actor, job: JobRow): Promise<string | null> {
+  const [last] = await db.select({ at: repairActions.createdAt }).from(repairActions).where(eq(repairActions.jobId, job.id)).orderBy(desc(repairActions.createdAt)).limit(1);
   if (!last) return 'no repair action is recorded';
   const later = alias(readings, 'later');
   const taken = await db
-    .select({ r: readings, supersededBy: later.id })
+    .select({ r: readings, supersededBy: later.id, struck: readingStrikes.id })
     .from(readings)
     .leftJoin(later, eq(later.supersedes, readings.id))
-    .where(and(eq(readings.jobId, jobId), eq(readings.phase, 'verification')))
+    .leftJoin(readingStrikes, eq(readingStrikes.readingId, readings.id))
+    .where(and(eq(readings.jobId, job.id), eq(readings.phase, 'verification')))
     .orderBy(asc(readings.createdAt));
   const rows = verificationReadings(
-    taken.map(({ r, supersededBy }) => ({ ...r, supersededBy, createdAt: iso(r.createdAt) })),
+    taken.filter((x) => x.struck === null).map(({ r, supersededBy }) => ({ ...r, supersededBy, createdAt: iso(r.createdAt), verdict: r.verdict as { verdict: string } | null })),
     iso(last.at),
   );
-  if (rows.length === 0) return 'no verification readings were taken after the last repair action';
-  const bad = rows.filter((r) => (r.verdict as { verdict?: string } | null)?.verdict !== 'ok');
-  if (bad.length === 0) return null;
-  const describe = (r: (typeof rows)[number]) => {
-    const v = r.verdict as { verdict: string; expected: unknown } | null;
-    return `${r.mode} ${r.red}–${r.black} read ${r.raw}${v ? ` (${v.verdict}, expected ${String(v.expected)})` : ' (no expected value)'}`;
-  };
-  return `these verification readings are not healthy: ${bad.map(describe).join('; ')}`;
+  const board = await getBoardVersion({ db, shopId: actor.shopId, versionId: job.boardVersionId });
+  const parsed = boardModelSchema.safeParse(board.document);
+  const m = parsed.success ? parsed.data : null;
+  const { rows: checklist } = verificationChecklist(m, board.expectedReadings, job.proposedPart);
+  if (checklist.length === 0) return rows.length === 0 ? 'no verification readings were taken after the last repair action' : null;
+  const netOf = (p: string) => m?.testPoints.find((t) => t.id.toLowerCase() === p.toLowerCase())?.net ?? p;
+  const open = unprovenRows(checklist, rows, netOf);
+  if (open.length === 0) return null;
+  const words = boardWords(m);
+  const state = (v: string | undefined) => (v === 'ok' ? 'healthy' : (v ?? 'no expected value'));
+  const describe = ({ row, latest }: (typeof open)[number]) =>
+    `${words.probe(row.red)} ${METER_WORDS[row.mode]} ${row.power === 'on' ? 'powered' : 'unplugged'} (${latest ? `read ${latest.raw}, ${state(latest.verdict?.verdict)}` : 'not measured'})`;
+  return `${open.length} of ${checklist.length} checklist readings are not healthy yet: ${open.map(describe).join('; ')}`;
 }
 
 export async function updateJob({ db, actor, id, input }: { db: Db; actor: Actor; id: string; input: UpdateJobRequest }): Promise<Job> {
@@ -196,6 +225,11 @@ export async function updateJob({ db, actor, id, input }: { db: Db; actor: Actor
   if (fields.symptom) set.symptom = fields.symptom;
   if (fields.dueAt !== undefined) set.dueAt = fields.dueAt ? new Date(fields.dueAt) : null;
   if (fields.proposedPart !== undefined) set.proposedPart = fields.proposedPart;
+  if (fields.proposalNote !== undefined) set.proposalNote = fields.proposalNote;
+  if (fields.guidedLifted !== undefined) {
+    assertRole(actor, guidedLiftRoles, 'Lifting guided order');
+    set.guidedLiftedBy = fields.guidedLifted ? actor.id : null;
+  }
 
   let snapshot: typeof diagnosisSnapshots.$inferInsert | undefined;
   let move: MoveRequest | undefined;
@@ -214,9 +248,18 @@ export async function updateJob({ db, actor, id, input }: { db: Db; actor: Actor
       if (!any) throw new AppError('conflict', 'Record the repair action first (POST /api/jobs/:id/repairs)');
     }
     if (status === 'verified') {
-      const problem = await verificationProblems(db, id);
+      const problem = await verificationProblems(db, actor, current);
       if (problem) throw new AppError('conflict', `The repair cannot be signed off: ${problem}`);
+      if (fields.functionalCheckDone !== true) {
+        const message = 'Confirm the functional check (the board works powered and the fault does not return) before signing off';
+        throw new AppError('invalid', message, { errors: [{ path: 'functionalCheckDone', message }] });
+      }
       move.audit = { action: 'sign-off', detail: `job ${current.number}` };
+    }
+    if (status === 'returned') {
+      if (!fields.returnedVia) throw new AppError('invalid', 'Say how the board left: sent by courier or collected by the customer', { errors: [{ path: 'returnedVia', message: 'choose courier or collected' }] });
+      set.returnedVia = fields.returnedVia;
+      set.closedAt = fields.returnedAt ? new Date(fields.returnedAt) : new Date();
     }
   }
 
