@@ -29,7 +29,8 @@
  *   S = 6, T = 3; far fewer in practice, most extensions being visible);
  * - triples: the `triples` (default 3) strongest generated pairs that still leave a reading unexplained are
  *   extended the same way by at most `tripleExtensions` (default 12) mode choices, one sweep point per member;
- * - a wall-clock cap `timeMs` (default 10 s) on the whole step; when it cuts the list, `capped` is reported
+ * - a wall-clock cap `timeMs` (default 60 s: a safety net, the step takes a few seconds cold on the demo board)
+ *   on the whole step; when it cuts the list, `capped` is reported
  *   (the count caps above always apply and are not reported).
  */
 import { choiceSet, truncatedChoice, type ModeChoice } from './choices.js';
@@ -78,7 +79,7 @@ export function extendByConflicts(input: ConflictInput, options: ConflictOptions
   const nTriples = options.triples ?? 3;
   const nExt3 = options.tripleExtensions ?? 12;
   const fullSweep = options.fullSweep ?? 8;
-  const deadline = performance.now() + (options.timeMs ?? 10_000);
+  const deadline = performance.now() + (options.timeMs ?? 60_000);
   let capped = false;
 
   // supporters(r) and the best single posterior per part.

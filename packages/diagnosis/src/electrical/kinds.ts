@@ -155,13 +155,14 @@ export const TRANSFER_MODES: readonly ModeTemplate[] = [
 /**
  * Behavioural modes of the bulk electrolytic capacitor on a rectified bus (hazard.ts finds the bus and its
  * source). Open: the bus is the unsmoothed full-wave rectified sine, whose DC mean is 2/π of the peak
- * (2√2/π·Vrms; any circuits textbook): 230 V rms → 207 V instead of ~325 V. Dried out (capacitance lost): the
+ * (2√2/π·Vrms; any circuits textbook): 230 V rms → 207 V instead of ~325 V; swept ±5 % about 2/π because the
+ * shop's mains differs from the model's nominal. Dried out (capacitance lost): the
  * mean sits between, lower by about half the ripple ΔV ≈ I/(2fC) (see the references file, [computed]), so a
  * sweep of the peak fraction; the points are from memory. Electrolytics lose capacitance far more often than they
  * short (common practice), hence the priors.
  */
 export const BULK_MODES: readonly ModeTemplate[] = [
-  { name: 'open', action: 'source-scale', prior: 0.002, source: 'common practice', sweep: [2 / Math.PI] },
+  { name: 'open', action: 'source-scale', prior: 0.002, source: 'common practice', sweep: [0.95, 1, 1.05].map((k) => (2 / Math.PI) * k) },
   { name: 'dried-out', action: 'source-scale', prior: 0.003, source: 'common practice', sweep: [0.75, 0.85, 0.93] },
 ];
 
