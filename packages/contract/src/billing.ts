@@ -239,6 +239,8 @@ export const quoteSchema = z.object({
   customerApproval: z.enum(['approved', 'declined']).nullable(),
   decidedAt: isoDateTime.nullable(),
   declineReason: z.string().nullable(),
+  /** the address the customer link that carried the answer was mailed to (the shop's record of who answered) */
+  decidedByEmail: z.string().nullable(),
   sentAt: isoDateTime.nullable(),
   sentTo: z.string().nullable(),
   createdAt: isoDateTime,
@@ -353,7 +355,7 @@ export const publicJobSchema = z.object({
   statusLabel: z.string(),
   reportAvailable: z.boolean(),
   expiresAt: isoDateTime,
-  quotes: z.array(quoteSchema.omit({ sentTo: true })),
+  quotes: z.array(quoteSchema.omit({ sentTo: true, decidedByEmail: true })),
   invoices: z.array(invoiceSchema),
 });
 export type PublicJob = z.infer<typeof publicJobSchema>;
