@@ -7,8 +7,8 @@
  *   simulator-internal name in any sentence (issue 18's patterns).
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { DEFAULT_METER } from '@splitscope/circuit';
-import { createDiagnoser, groupLogLikelihood, readingLogLikelihood, type CaseReading, type DiagnosisOutput, type Diagnoser } from '../src/index.js';
+import { DEFAULT_METER, MeasurementError, meterProfile } from '@splitscope/circuit';
+import { createDiagnoser, groupLogLikelihood, isSolveFailure, readingLogLikelihood, type CaseReading, type DiagnosisOutput, type Diagnoser } from '../src/index.js';
 import { FAN_DRIVE_NETLIST, FAN_DRIVE_TEST_POINTS } from '../fixtures/fan-drive.js';
 
 const v15: CaseReading = { mode: 'dcv', red: 'v15', black: '0', power: 'on', value: 14.98 };
@@ -99,4 +99,26 @@ describe("the bench's words", () => {
     expect(once.readings[1]?.function).toBe('DC V');
     expect(once.readings[1]?.probes.red.label).toBe('TP5');
   });
+});
+
+describe('failed solves and meter profiles', () => {
+  it('a solve failure is recognised by name (SolveError) or, from older circuit packages, by its message', () => {
+    const solveError = Object.assign(new Error('the model could not be solved in this state'), { name: 'SolveError' });
+    expect(isSolveFailure(solveError)).toBe(true);
+    expect(isSolveFailure(new MeasurementError('the circuit does not solve: no convergence'))).toBe(true);
+    expect(isSolveFailure(new MeasurementError('unknown net "x" for red'))).toBe(false);
+    expect(isSolveFailure(new Error('does not solve'))).toBe(false);
+  });
+
+  it('expected values follow the meter profile of the update (a 1 kΩ-input voltmeter loads the 5 kΩ bus-sense divider)', () => {
+    const sense: CaseReading = { mode: 'dcv', red: 'bsense', black: '0', power: 'on', value: 1.5 };
+    const loading = meterProfile({ dcv: { inputResistance: 1e3 } });
+    const a = d.update([sense], { meter: loading, nextTests: 1 });
+    const b = d.update([sense], { nextTests: 1 });
+    // 310 V × 5.1k/(1M + 5.1k) = 1.573 V; with 1 kΩ across the 5.1 kΩ leg: 310 × 836/(1M + 836) = 0.259 V.
+    expect(b.readings[0]!.expected as number).toBeCloseTo(1.573, 2);
+    expect(a.readings[0]!.expected as number).toBeCloseTo(0.259, 2);
+    // A net without a test point is named by the nearest part pin, never by its net name.
+    expect(b.readings[0]!.probes.red.label).toMatch(/^(C2|R3|R4|R34) /);
+  }, 300_000);
 });
