@@ -17,6 +17,7 @@ export * from './jobs';
 export * from './billing';
 export * from './board-model';
 export * from './safety-gate';
+export * from './shop';
 export * from './policy-bench';
 export * from './board-words';
 export * from './verification';
