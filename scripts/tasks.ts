@@ -91,6 +91,8 @@ async function test(): Promise<number> {
 
   await step('typecheck', bin('tsx'), [join(root, 'scripts', 'typecheck.ts')]);
   await step('lint', bin('eslint'), ['.', '--max-warnings=0']);
+  // Dead exports, unused files and dependencies nobody imports (knip.json says where each workspace starts).
+  await step('lint: dead code (knip)', bin('knip'), ['--no-progress']);
   const unitJson = join(reports, 'unit.json');
   await step('unit tests', bin('vitest'), ['run', '--project', 'unit', '--reporter=default', '--reporter=json', `--outputFile.json=${unitJson}`], () => vitestCounts(unitJson));
   const intJson = join(reports, 'integration.json');

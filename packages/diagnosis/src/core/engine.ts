@@ -55,8 +55,6 @@ export interface DiagnoseOptions {
   unmodelledShare?: number;
 }
 
-export const LN2 = Math.log(2);
-
 /** |ln LR| below this (nats, a factor of about 1.05) is reported as neutral evidence. */
 export const NEUTRAL_LLR = 0.05;
 
