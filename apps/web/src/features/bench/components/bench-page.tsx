@@ -243,7 +243,7 @@ function Bench({ job }: { job: JobDetail }) {
           </div>
           <div className="min-h-0 flex-1 overflow-auto">
             {tab === 'map' && (
-              <div className="h-[55vh] min-h-72 lg:h-full">
+              <div className="h-[55vh] min-h-72 lg:h-full lg:min-h-0">
                 <BoardMap
                   pictureUrl={view.pictureUrl}
                   size={view.size}
@@ -278,11 +278,26 @@ function Bench({ job }: { job: JobDetail }) {
               </QueryState>
             )}
           </div>
+          {/* Under the map from 1024 px: the engine's next tests and ranking, each scrolling on its own. */}
+          <div className="min-h-0 lg:h-[40%] lg:overflow-y-auto" data-testid="ranking-area">
+            <QueryState query={diagnosisQ} label="the ranking">
+              {() => (
+                <RankingPanel
+                  parts={ranked}
+                  nextTests={guided ? [] : steps.slice(0, 3)}
+                  selectedPart={selectedPart}
+                  before={before}
+                  onPickPart={(p) => setSelectedPart((s) => (s === p ? null : p))}
+                  onPickTest={guided ? undefined : (t) => setTarget({ ...(t as (typeof steps)[number]).target, pointId: t.pointId })}
+                />
+              )}
+            </QueryState>
+          </div>
         </div>
         <div className="order-1 min-h-0 space-y-3 lg:order-2 lg:overflow-y-auto lg:pr-1" data-testid="bench-side">
           {readingsQ.isError && <p role="alert" className="text-high">Readings could not be loaded: {readingsQ.error.message}</p>}
           {guided ? (
-            <GuidedOrder view={view} step={step} done={readings}>
+            <GuidedOrder view={view} step={step} done={readings} pending={diagnosisQ.isPending}>
               {diagnosisQ.isPending && <p role="status">Asking the engine for the next step…</p>}
               {gateShown && active && safetyGate}
               {entry}
@@ -313,18 +328,6 @@ function Bench({ job }: { job: JobDetail }) {
               {!canWrite && <p className="rounded-md bg-board-light p-2 text-sm">This job is {jobStatusLabels[job.status].toLowerCase()}: diagnosis readings are closed.</p>}
             </>
           )}
-          <QueryState query={diagnosisQ} label="the ranking">
-            {() => (
-              <RankingPanel
-                parts={ranked}
-                nextTests={guided ? [] : steps.slice(0, 3)}
-                selectedPart={selectedPart}
-                before={before}
-                onPickPart={(p) => setSelectedPart((s) => (s === p ? null : p))}
-                onPickTest={guided ? undefined : (t) => setTarget({ ...(t as (typeof steps)[number]).target, pointId: t.pointId })}
-              />
-            )}
-          </QueryState>
           {proposed && readings.length > 0 && canPropose(job.status, me.data?.role) && (
             <section aria-labelledby="propose-h" className="space-y-2 rounded-lg border border-stone-300 bg-white p-3">
               <h2 id="propose-h" className="text-base font-semibold">

@@ -11,8 +11,11 @@ export function GuidedOrder({
   view,
   step,
   done,
+  pending,
   children,
 }: {
+  /** The engine is still working out the first step. */
+  pending?: boolean;
   view: BoardView;
   step: (NextTestView & { target: Target }) | undefined;
   done: StoredReading[];
@@ -33,7 +36,7 @@ export function GuidedOrder({
             </Caution>
           )}
         </div>
-      ) : (
+      ) : pending ? null : (
         <p className="rounded-md bg-board-light p-3">The engine has no further test to suggest: ask your lead to look at the ranking.</p>
       )}
       {children}

@@ -20,10 +20,10 @@ export function LiftedParts({
   const label = (id: string) => parts.find((p) => p.id === id)?.label ?? id;
   return (
     <section aria-labelledby="lifted-h" className="rounded-lg border border-stone-300 bg-white p-2">
-      <h2 id="lifted-h" className="text-sm font-semibold">
-        Parts lifted: {lifted.length === 0 ? <span className="font-normal">none (board as built)</span> : null}
+      <h2 id="lifted-h" className="sr-only">
+        Parts lifted
       </h2>
-      <ul className="flex flex-wrap gap-1">
+      {lifted.length > 0 && <ul className="mb-1 flex flex-wrap gap-1">
         {lifted.map((p) => (
           <li key={p} className="flex items-center gap-1 rounded-md bg-amber-100 px-2 text-sm">
             <strong>{label(p)}</strong> lifted
@@ -37,9 +37,9 @@ export function LiftedParts({
             </button>
           </li>
         ))}
-      </ul>
+      </ul>}
       <form
-        className="mt-1 flex gap-1"
+        className="flex gap-1"
         onSubmit={(e) => {
           e.preventDefault();
           if (pick && !lifted.includes(pick)) onChange([...lifted, pick].sort());
@@ -50,7 +50,7 @@ export function LiftedParts({
           Part to lift
         </label>
         <select id="lift-pick" value={pick} onChange={(e) => setPick(e.target.value)} className="min-h-11 flex-1 rounded-md border border-stone-500 bg-white px-2 text-sm">
-          <option value="">Lift a part…</option>
+          <option value="">{lifted.length ? 'Lift another part…' : 'Parts lifted: none. Lift a part…'}</option>
           {parts
             .filter((p) => !lifted.includes(p.id))
             .map((p) => (

@@ -46,9 +46,33 @@ export function RankingPanel({
   const [all, setAll] = useState(false);
   const shown = all ? parts : parts.slice(0, SHORT_LIST);
   return (
-    <div className="space-y-4">
+    <div className="grid gap-3 sm:grid-cols-2">
+      <section aria-labelledby="next-h">
+        <h2 id="next-h" className="mb-1 text-base font-semibold">
+          Next tests
+        </h2>
+        {nextTests.length === 0 ? (
+          <p className="text-sm text-stone-700">No further test would change the ranking.</p>
+        ) : (
+          <ol className="space-y-1">
+            {nextTests.map((t) => (
+              <li key={t.id}>
+                <button
+                  type="button"
+                  disabled={!onPickTest}
+                  onClick={() => onPickTest?.(t)}
+                  className="flex min-h-11 w-full flex-wrap items-center justify-between gap-2 rounded-md border border-stone-300 bg-white px-2 text-left text-sm hover:bg-stone-50"
+                >
+                  <span className="font-semibold">{t.label}</span>
+                  {t.gainBits !== undefined && <span className="tabular-nums text-stone-700">{t.gainBits.toFixed(2)} bit</span>}
+                </button>
+              </li>
+            ))}
+          </ol>
+        )}
+      </section>
       <section aria-labelledby="ranking-h">
-        <h2 id="ranking-h" className="mb-2 text-lg font-semibold">
+        <h2 id="ranking-h" className="mb-1 text-base font-semibold">
           Probable faulty parts
         </h2>
         {before ? (
@@ -115,30 +139,6 @@ export function RankingPanel({
           <button type="button" className="mt-2 min-h-11 rounded-md border border-stone-400 bg-white px-3 text-sm font-semibold" onClick={() => setAll(!all)}>
             {all ? `Show the first ${SHORT_LIST}` : `Show all ${parts.length} candidates`}
           </button>
-        )}
-      </section>
-      <section aria-labelledby="next-h">
-        <h2 id="next-h" className="mb-2 text-lg font-semibold">
-          Next tests
-        </h2>
-        {nextTests.length === 0 ? (
-          <p className="text-sm text-stone-700">No further test would change the ranking.</p>
-        ) : (
-          <ol className="space-y-1">
-            {nextTests.map((t) => (
-              <li key={t.id}>
-                <button
-                  type="button"
-                  disabled={!onPickTest}
-                  onClick={() => onPickTest?.(t)}
-                  className="flex min-h-11 w-full flex-wrap items-center justify-between gap-2 rounded-md border border-stone-300 bg-white px-2 text-left text-sm hover:bg-stone-50"
-                >
-                  <span className="font-semibold">{t.label}</span>
-                  {t.gainBits !== undefined && <span className="tabular-nums text-stone-700">{t.gainBits.toFixed(2)} bit</span>}
-                </button>
-              </li>
-            ))}
-          </ol>
         )}
       </section>
     </div>

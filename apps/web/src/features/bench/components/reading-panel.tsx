@@ -140,13 +140,13 @@ export function ReadingPanel({
         {target.expected?.source && (
           <>
             <dt className="text-stone-700">Band from</dt>
-            <dd className="text-xs">{target.expected.source}</dd>
+            <dd className="line-clamp-2 text-xs" title={target.expected.source}>{target.expected.source}</dd>
           </>
         )}
       </dl>
       {target.power === 'on' && (
         <Caution title="Powered board: mains and ~300 V DC bus present">
-          <p>One hand, insulated probes, a meter rated for the bus. Follow your shop’s procedures and local codes.</p>
+          <p className="text-sm">One hand, insulated probes, a meter rated for the bus; your shop’s procedures and local codes.</p>
         </Caution>
       )}
     </section>
