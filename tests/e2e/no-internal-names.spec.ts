@@ -28,6 +28,9 @@ function check(text: string, where: string) {
   }
 }
 
+// Pages a role may not use answer 403 (and say so on the page); the browser logs those.
+test.use({ expectedConsoleErrors: [/status of 403/] });
+
 for (const email of ['admin@demo.test', 'lead@demo.test', 'tech@demo.test', 'trainee@demo.test']) {
   test(`no simulator-internal name on any page as ${email.split('@')[0]}`, async ({ page }) => {
     test.setTimeout(240_000);

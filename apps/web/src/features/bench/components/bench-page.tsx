@@ -173,7 +173,8 @@ function Bench({ job }: { job: JobDetail }) {
   const propose = async () => {
     if (!proposed) return;
     if (job.status === 'received') await update.mutateAsync({ status: 'diagnosing' });
-    await update.mutateAsync({ status: 'awaiting-review', proposedPart: proposed.part, proposalNote: note });
+    // The lead, the repair and the report name the part as printed on the board.
+    await update.mutateAsync({ status: 'awaiting-review', proposedPart: proposed.designator, proposalNote: note });
   };
   const checkBus = async (t: string): Promise<{ ok: true; volts: number } | { ok: false; message: string }> => {
     const r = await parseTyped(t, 'dcv');
@@ -342,7 +343,7 @@ function Bench({ job }: { job: JobDetail }) {
                 <textarea rows={2} value={note} onChange={(e) => setNote(e.target.value)} className="mt-1 block w-full rounded-md border border-stone-500 p-2 text-sm" placeholder="What you saw, what you lifted, why this part" />
               </label>
               <Button onClick={() => void propose()} disabled={update.isPending}>
-                Propose {proposed.label.split(' — ')[0]} for review
+                Propose {proposed.designator} for review
               </Button>
               {update.error && <p role="alert" className="text-sm text-high">{update.error.message}</p>}
             </section>

@@ -3,6 +3,8 @@ export interface RankedPart {
   part: string;
   /** The fault in the bench's words ("U1 opto — LED open"). */
   label: string;
+  /** The designator printed on the board: what is proposed, repaired and reported. */
+  designator: string;
   mode: string;
   probability: number;
   description?: string;

@@ -84,6 +84,7 @@ export function rankedParts(view: BoardView, d: Diagnosis): RankedPart[] {
     return {
       part: p.part,
       label: p.label ?? p.part,
+      designator: p.designator ?? p.part,
       mode: p.mode,
       probability: p.probability,
       description: typeof partRec.description === 'string' ? partRec.description : undefined,
