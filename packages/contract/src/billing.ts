@@ -239,6 +239,8 @@ export const quoteSchema = z.object({
   customerApproval: z.enum(['approved', 'declined']).nullable(),
   decidedAt: isoDateTime.nullable(),
   declineReason: z.string().nullable(),
+  /** the address the customer link that carried the answer was mailed to (the shop's record of who answered) */
+  decidedByEmail: z.string().nullable(),
   sentAt: isoDateTime.nullable(),
   sentTo: z.string().nullable(),
   createdAt: isoDateTime,
@@ -261,8 +263,6 @@ export type CreateQuoteRequest = z.input<typeof createQuoteRequest>;
 
 export const updateQuoteRequest = createQuoteRequest.partial();
 export type UpdateQuoteRequest = z.input<typeof updateQuoteRequest>;
-
-export const quoteListResponse = z.object({ items: z.array(quoteSchema) });
 
 export const invoiceStatuses = ['issued', 'paid', 'void'] as const;
 export const invoiceStatusSchema = z.enum(invoiceStatuses);
@@ -288,8 +288,6 @@ export const createInvoiceRequest = z.object({
   send: z.boolean().default(true),
 });
 export type CreateInvoiceRequest = z.input<typeof createInvoiceRequest>;
-
-export const invoiceListResponse = z.object({ items: z.array(invoiceSchema) });
 
 export const jobBillingResponse = z.object({
   jobId: idSchema,
@@ -340,8 +338,6 @@ export type SendRequest = z.input<typeof sendRequest>;
 export const sentResponse = z.object({ mailId: idSchema, to: z.string(), sentAt: isoDateTime });
 export type Sent = z.infer<typeof sentResponse>;
 
-export const notifyRequest = z.object({ milestone: mailMilestoneSchema });
-
 // --- the customer page (no sign-in; everything scoped to the job of the link) --------------------------
 
 export const publicJobSchema = z.object({
@@ -353,7 +349,7 @@ export const publicJobSchema = z.object({
   statusLabel: z.string(),
   reportAvailable: z.boolean(),
   expiresAt: isoDateTime,
-  quotes: z.array(quoteSchema.omit({ sentTo: true })),
+  quotes: z.array(quoteSchema.omit({ sentTo: true, decidedByEmail: true })),
   invoices: z.array(invoiceSchema),
 });
 export type PublicJob = z.infer<typeof publicJobSchema>;

@@ -1,7 +1,7 @@
 import { Suspense } from 'react';
 import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
 import { hasRole, ROLES } from '@splitscope/contract';
-import { useMe } from '@/features/auth/api/me';
+import { useMe } from '@/lib/api/me';
 import { useSignOut } from '@/features/auth/api/sign-in';
 
 const roleLabel = { admin: 'Shop admin', lead: 'Lead', tech: 'Technician', trainee: 'Trainee' } as const;
@@ -57,7 +57,7 @@ export function AppLayout() {
         <button
           type="button"
           className="min-h-11 whitespace-nowrap rounded-md px-2 hover:bg-white/10"
-          onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}
+          onClick={() => signOut.mutate(undefined, { onSuccess: () => void navigate('/sign-in') })}
         >
           Sign out
         </button>

@@ -1,21 +1,17 @@
 // What the customer sees and does through a link: one job, nothing else of the shop. Every query below is
 // scoped by the link's shop and job; ids from the URL only ever narrow that scope.
-import { and, eq, gt, inArray, isNull, ne, sql } from 'drizzle-orm';
+import { and, eq, inArray, isNotNull, isNull, ne, sql } from 'drizzle-orm';
 import { jobStatusLabels, moveOnEvent, reportReady, ROLES, type PublicJob } from '@splitscope/contract';
 import type { Config } from '../../config';
 import type { Db } from '../../db/client';
 import { auditLog, quotes, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
-import { findJobInvoices, findJobQuotes } from '../billing/documents';
-import { getBillingJob, jobSummary } from '../billing/jobs';
-import { resolveCustomerLink } from '../billing/links';
-import { getSettingsRow } from '../billing/settings';
-import { startCheckout } from '../invoices/service';
-import { moveJob } from '../jobs/flow';
+import { findJobInvoices, findJobQuotes, getBillingJob, getSettingsRow, jobSummary, resolveCustomerLink } from '../billing';
+import { startCheckout } from '../invoices';
+import { moveJob } from '../jobs';
 import { getRepairReport, renderReportPdf } from '../reports';
-import { quoteDecisionMail } from '../mail/templates';
-import { sendMail } from '../mail/transport';
+import { quoteDecisionMail, sendMail } from '../mail';
 
 export async function getPublicJob({ db, token }: { db: Db; token: string }): Promise<PublicJob> {
   const link = await resolveCustomerLink(db, token);
@@ -30,7 +26,7 @@ export async function getPublicJob({ db, token }: { db: Db; token: string }): Pr
     statusLabel: jobStatusLabels[job.status],
     reportAvailable: reportReady(job.status),
     expiresAt: link.expiresAt.toISOString(),
-    quotes: quotesOfJob.map(({ sentTo: _sentTo, ...q }) => q),
+    quotes: quotesOfJob.map(({ sentTo: _sentTo, decidedByEmail: _by, ...q }) => q),
     invoices: await findJobInvoices(db, job.id),
   };
 }
@@ -69,8 +65,9 @@ export async function decideQuote({
   const [q] = await db.select().from(quotes).where(and(eq(quotes.id, quoteId), eq(quotes.jobId, link.jobId), eq(quotes.shopId, link.shopId)));
   if (!q || q.status === 'draft') throw new AppError('not_found', 'No such quote on this job');
   if (q.customerApproval) throw new AppError('conflict', `This quote was already ${q.customerApproval}`);
-  // A quote sent after this one replaces it: the customer answers only the newest, so an old price cannot
-  // be approved after the shop re-quoted.
+  // A quote sent after this one replaces it: the customer answers only the one they were sent last, so an old
+  // price cannot be approved after the shop re-quoted. Send time, not creation time: a quote written first
+  // and sent last is the shop's latest word. Compared in the database: a JS Date drops PostgreSQL's microseconds.
   const [newer] = await db
     .select({ number: quotes.number })
     .from(quotes)
@@ -78,9 +75,8 @@ export async function decideQuote({
       and(
         eq(quotes.jobId, link.jobId),
         ne(quotes.id, q.id),
-        ne(quotes.status, 'draft'),
-        // compared in the database: a JS Date drops the microseconds PostgreSQL keeps
-        gt(quotes.createdAt, sql`(select q2.created_at from ${quotes} q2 where q2.id = ${q.id})`),
+        isNotNull(quotes.sentAt),
+        sql`${quotes.sentAt} > coalesce((select q2.sent_at from ${quotes} q2 where q2.id = ${q.id}), '-infinity'::timestamptz)`,
       ),
     )
     .limit(1);
@@ -89,11 +85,22 @@ export async function decideQuote({
   const changed = await db.transaction(async (tx) => {
     const [row] = await tx
       .update(quotes)
-      .set({ status: decision, customerApproval: decision, decidedAt: now, declineReason: decision === 'declined' ? reason : null, updatedAt: now })
+      .set({
+        status: decision,
+        customerApproval: decision,
+        decidedAt: now,
+        declineReason: decision === 'declined' ? reason : null,
+        // whose answer this is: the person and address the link was mailed to
+        decidedViaLinkId: link.id,
+        decidedByEmail: link.recipientEmail,
+        updatedAt: now,
+      })
       .where(and(eq(quotes.id, q.id), eq(quotes.status, 'sent'), isNull(quotes.customerApproval)))
       .returning({ id: quotes.id });
     if (!row) return false;
-    await tx.insert(auditLog).values({ id: newId(), shopId: link.shopId, action: `quote.customer-${decision}`, subject: q.id, detail: reason });
+    const via = link.recipientEmail ? `${link.recipientName ?? 'the customer'} <${link.recipientEmail}>` : 'an unaddressed link';
+    const detail = `through link ${link.id} mailed to ${via}${reason ? `; reason: ${reason}` : ''}`;
+    await tx.insert(auditLog).values({ id: newId(), shopId: link.shopId, action: `quote.customer-${decision}`, subject: q.id, detail });
     if (decision === 'approved') {
       // Only a job still at the move's start moves; one the shop already took further stays where it is.
       const { from, to } = moveOnEvent('quote-approval');

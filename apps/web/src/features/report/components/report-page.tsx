@@ -4,7 +4,6 @@ import { QueryState } from '@/components/ui/query-state';
 import { bandText, dateTime, METER_LABEL, readingText, verdictWord } from '@/lib/format';
 import { useReport } from '../api/get-report';
 
-
 /** The report as the server composes it (the same model the customer's PDF is drawn from). */
 function Report({ report: r }: { report: RepairReport }) {
   return (
@@ -111,7 +110,7 @@ function ReadingTable({ rows }: { rows: ReportReading[] }) {
   );
 }
 
-export function ReportPage() {
+function ReportPage() {
   const { id = '' } = useParams();
   const report = useReport(id);
   return (
