@@ -1,7 +1,7 @@
 // The repair report's one model. The web's report page, the customer's PDF and the invoice e-mail that carries
 // the PDF all render what this returns; none of them reads the job's rows on its own.
 import { and, desc, eq } from 'drizzle-orm';
-import { boardModelSchema, boardWords, reportReady, verificationReadings, type BoardWords, type RepairReport, type ReportReading, type StoredReading } from '@splitscope/contract';
+import { boardWords, wordsModelOf, reportReady, verificationReadings, type BoardWords, type RepairReport, type ReportReading, type StoredReading } from '@splitscope/contract';
 import type { Db } from '../../db/client';
 import { boardModels, boardModelVersions, customers, jobs, reviews, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
@@ -39,8 +39,7 @@ export async function getRepairReport({ db, shopId, jobId }: { db: Db; shopId: s
   const { items: repairs } = await findRepairs({ db, shopId, jobId });
   const { items: current } = await findReadings({ db, shopId, jobId, view: 'current' });
   const lastRepairAt = repairs.at(-1)?.createdAt ?? null;
-  const parsed = boardModelSchema.safeParse(row.document);
-  const words = boardWords(parsed.success ? parsed.data : null);
+  const words = boardWords(wordsModelOf(row.document));
   const counting = current.filter((r) => r.struck === null);
   return {
     jobId,

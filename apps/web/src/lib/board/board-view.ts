@@ -2,7 +2,7 @@
  * What the bench draws, read out of a board-model document (schema in the contract): positions, nets, labels and
  * sections. Connector pins have no positions of their own in the model, so they are laid out in a row here.
  */
-import { boardModelSchema, boardWords, type BoardModel } from '@splitscope/contract';
+import { boardModelSchema, boardWords, wordsModelOf, type BoardModel } from '@splitscope/contract';
 import type { MapConnector, MapPart } from '@/components/board-map/board-map';
 
 export interface BoardPoint {
@@ -80,7 +80,7 @@ export function boardView(document: unknown): BoardView {
   for (const p of points) if (!byNet.has(norm(p.net))) byNet.set(norm(p.net), p);
   const pointOf = (s: string) => byId.get(norm(s)) ?? byNet.get(norm(s));
   // Probe positions in the bench's words: the contract's one function (test point, connector pin, part pin).
-  const netLabel = boardWords(m).probe;
+  const netLabel = boardWords(m ?? wordsModelOf(document)).probe;
 
   return {
     model: m,
