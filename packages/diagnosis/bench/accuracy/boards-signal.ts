@@ -2,21 +2,19 @@
 // isolated: its ground GC reaches bus negative only through 1 GΩ), thermistor input and relay driver.
 import { OPTO_SUBCKT, tp, type BenchBoard } from './board';
 
-export const B04_FAN_SWITCH: BenchBoard = {
-  id: 'B04',
-  title: 'opto-driven PNP high-side switch for the fan motor supply',
-  defaults: { FANON: 1 },
-  kindOverrides: { XU401: 'opto-coupler' },
-  netlist: (p) => `* B04 fan motor control supply switched by an opto-driven PNP (invented)
-.model QSW PNP(is=2e-14 bf=80)
-.model DSF D(is=2.5e-9 n=1.75)
-${OPTO_SUBCKT}
-V15 s15 0 DC 15
+// Sections written once and used by B04–B06 alone and by B12 together. The controller side: its own 5 V on GC.
+export const COLD_SIDE = `VCC vcc gc DC 5
+RISO gc 0 1g`;
+export const SWITCHED_SUPPLY = `V15 s15 0 DC 15
 RF401 s15 v15 4.7
-C400 v15 0 47u
-VCC vcc gc DC 5
-RISO gc 0 1g
-VPIN pin gc DC ${5 * (p.FANON ?? 1)}
+C400 v15 0 47u`;
+export const SIGNAL_MODELS = `.model QSW PNP(is=2e-14 bf=80)
+.model DSF D(is=2.5e-9 n=1.75)
+.model QNF NPN(is=1e-14 bf=150)
+.model DSG D(is=2e-9 n=1.9)
+${OPTO_SUBCKT}`;
+
+export const fanSwitch = (on: number) => `VPIN pin gc DC ${5 * on}
 R401 pin la 390
 XU401 la gc oc 0 OPTOC
 R402 oc b4 2.2k
@@ -26,7 +24,41 @@ D401 0 vf DSF
 C401 vf 0 22u
 C402 vf 0 100n
 R404 vf 0 10k
-RMOT401 vf 0 1.2k
+RMOT401 vf 0 1.2k`;
+
+// The controller's PWM pin is written as its average (duty × 5 V): the DC model a meter's reading follows.
+export const speedCommand = (duty: number, led: string) => `VPWM pwm gc DC ${5 * duty}
+R501 pwm ${led} 680
+XU501 ${led} gc pc 0 OPTOC
+R502 v15 pc 4.7k
+R503 pc f1 10k
+C501 f1 0 1u
+Q501 v15 f1 e5 QNF
+R504 e5 vsp 1k
+R505 vsp 0 10k
+C502 vsp 0 1u`;
+
+// RFG601 stands for the motor's open-collector speed output in its low state (off-board).
+export const feedback = (supply: string) => `R601 ${supply} fa 3.3k
+XU601 fa fg fo gc OPTOC
+RFG601 fg 0 220
+R602 vcc fo 10k
+R603 fo fin 1k
+C601 fin gc 1n
+R604 fin gc 100k
+D601 fin vcc DSG
+D602 gc fin DSG`;
+
+export const B04_FAN_SWITCH: BenchBoard = {
+  id: 'B04',
+  title: 'opto-driven PNP high-side switch for the fan motor supply',
+  defaults: { FANON: 1 },
+  kindOverrides: { XU401: 'opto-coupler' },
+  netlist: (p) => `* B04 fan motor control supply switched by an opto-driven PNP (invented)
+${SIGNAL_MODELS}
+${SWITCHED_SUPPLY}
+${COLD_SIDE}
+${fanSwitch(p.FANON ?? 1)}
 .end`,
   testPoints: [tp('TP1', 'v15'), tp('TP2', 'vf'), tp('TP3', 'b4'), tp('TP4', 'oc'), tp('TP5', 'la', 'gc'), tp('TP6', 'vcc', 'gc'), tp('CN4-1', 's15')],
 };
@@ -36,23 +68,11 @@ export const B05_SPEED_CMD: BenchBoard = {
   title: 'opto-isolated speed command, PWM averaged to DC',
   defaults: { DUTY: 0.5 },
   kindOverrides: { XU501: 'opto-coupler' },
-  // The controller's PWM pin is written as its average (duty × 5 V): the DC model a meter's reading follows.
   netlist: (p) => `* B05 opto-isolated speed command, PWM averaged to a DC level (invented)
-.model QNF NPN(is=1e-14 bf=150)
-${OPTO_SUBCKT}
+${SIGNAL_MODELS}
 V15 v15 0 DC 15
-VCC vcc gc DC 5
-RISO gc 0 1g
-VPWM pwm gc DC ${5 * (p.DUTY ?? 0.5)}
-R501 pwm la 680
-XU501 la gc pc 0 OPTOC
-R502 v15 pc 4.7k
-R503 pc f1 10k
-C501 f1 0 1u
-Q501 v15 f1 e5 QNF
-R504 e5 vsp 1k
-R505 vsp 0 10k
-C502 vsp 0 1u
+${COLD_SIDE}
+${speedCommand(p.DUTY ?? 0.5, 'la')}
 .end`,
   testPoints: [tp('TP1', 'v15'), tp('TP2', 'pc'), tp('TP3', 'f1'), tp('TP4', 'vsp'), tp('TP5', 'la', 'gc'), tp('TP6', 'e5')],
 };
@@ -62,22 +82,11 @@ export const B06_FEEDBACK: BenchBoard = {
   title: 'motor speed feedback through an opto-coupler',
   defaults: {},
   kindOverrides: { XU601: 'opto-coupler' },
-  // RFG601 stands for the motor's open-collector speed output in its low state (off-board).
   netlist: () => `* B06 motor speed feedback through an opto-coupler (invented)
-.model DSG D(is=2e-9 n=1.9)
-${OPTO_SUBCKT}
+${SIGNAL_MODELS}
 V15 v15 0 DC 15
-R601 v15 fa 3.3k
-XU601 fa fg fo gc OPTOC
-RFG601 fg 0 220
-VCC vcc gc DC 5
-RISO gc 0 1g
-R602 vcc fo 10k
-R603 fo fin 1k
-C601 fin gc 1n
-R604 fin gc 100k
-D601 fin vcc DSG
-D602 gc fin DSG
+${COLD_SIDE}
+${feedback('v15')}
 .end`,
   testPoints: [tp('TP1', 'v15'), tp('TP2', 'fa'), tp('TP3', 'fg'), tp('TP4', 'fo', 'gc'), tp('TP5', 'fin', 'gc'), tp('TP6', 'vcc', 'gc')],
 };

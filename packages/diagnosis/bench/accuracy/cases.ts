@@ -3,6 +3,7 @@
 // the injected fault (matched as a regular expression on the mode, the part must be the same).
 import type { BenchBoard } from './board';
 import { B01_BUS, B02_REG15, B03_REG5, B09_ZENER, B10_SHUNT, B11_BOOTSTRAP } from './boards-power';
+import { B12_FAN_DRIVE } from './boards-fan';
 import { B04_FAN_SWITCH, B05_SPEED_CMD, B06_FEEDBACK, B07_THERMISTOR, B08_RELAY } from './boards-signal';
 import type { FaultSpec, Injection } from './deck';
 import type { Probe } from './meter';
@@ -94,4 +95,18 @@ export const CASES: BenchCase[] = [
   { id: 'B10-filter-r-open', board: B10_SHUNT, symptom: 'overcurrent trip at every start', start: [dcv('cs')], faults: [open('R1001')] },
   { id: 'B11-bootstrap-open', board: B11_BOOTSTRAP, symptom: 'one motor phase never switches', start: [dcv('vbu')], faults: [open('DBS1')] },
   { id: 'B11-choke-open', board: B11_BOOTSTRAP, symptom: 'gate drive dead, all phases', start: [dcv('vdd')], faults: [open('L1101')] },
+  { id: 'B12-feedback-led-open', board: B12_FAN_DRIVE, symptom: 'F7 no speed feedback', start: [dcv('fo', 'gc')], faults: [ledOpen('XU601')] },
+  { id: 'B12-switch-be-open', board: B12_FAN_DRIVE, symptom: 'F7 fan never starts', start: [dcv('vf'), dcv('fo', 'gc')], faults: [beOpen('Q401')] },
+  { id: 'B12-speed-pullup-open', board: B12_FAN_DRIVE, symptom: 'fan never starts (speed command 0)', start: [dcv('vsp')], faults: [open('R502')] },
+  {
+    id: 'B12-cap+ce-short', board: B12_FAN_DRIVE, symptom: 'F7 fan never starts, 15 V rail low', start: [dcv('vf'), dcv('v15')],
+    faults: [short('C401', 0.2), ceShort('Q401')], note: 'masked pair on a board of over 40 parts',
+  },
+  {
+    id: 'B01-bridge-open', board: B01_BUS, symptom: 'bus sags and hums under load', start: [{ mode: 'diode', red: 'l', black: 'bus', power: 'off' }],
+    faults: [open('D101')], note: 'starts with a diode test from the mains pin through the bridge',
+  },
+  // Boards with nothing wrong on them (the fault was in the motor or the wiring): the right answer is "no fault".
+  { id: 'B04-healthy', board: B04_FAN_SWITCH, symptom: 'outdoor fan never starts (motor at fault)', start: [dcv('vf')], faults: [] },
+  { id: 'B07-healthy', board: B07_THERMISTOR, symptom: 'F9 once, not repeatable', start: [dcv('th')], faults: [] },
 ];

@@ -52,6 +52,19 @@ export const METER = {
   continuityThreshold: 30,
 };
 
+/**
+ * The Thevenin test sources the engine is told the meter has (engine-meter.ts). `--meter thevenin` puts exactly
+ * these in the deck instead of the constant-current meter, so that a failure left in that run is not a
+ * disagreement between the two meter models.
+ */
+export const THEVENIN = {
+  ohm: { voc: 0.5, rs: 10e3 },
+  continuity: { voc: 1.5, rs: 3e3 },
+  diode: { voc: 3.5, rs: 2.9e3 },
+};
+
+export type MeterStyle = 'constant-current' | 'thevenin';
+
 // Compliance clamps: a junction with a tiny saturation current stays far below a test current until the probe
 // voltage nears its knee (ngspice gives ≈1.49 V at 0.5–1 mA); the diode test's clamp sits on a 2 V source so an
 // open circuit reads ≈3.5 V, above the 2.999 V display (OL).
@@ -78,6 +91,7 @@ export async function readMeter(
   faults: readonly FaultSpec[],
   probe: Probe,
   rng: Noise,
+  style: MeterStyle = 'constant-current',
 ): Promise<TrueReading> {
   let net = boardState(injectFaults(board.netlist(params), faults), { power: probe.power, lifted: probe.lifted });
   const { red, black } = probe;
@@ -95,6 +109,7 @@ export async function readMeter(
     }
     return display(v, METER.dcv, rng, 'dcv');
   }
+  if (style === 'thevenin') return readThevenin(net, probe, rng);
   if (probe.mode === 'diode') {
     const els = [CLAMP_MODEL, `IMTR ${black} ${red} DC ${METER.diode.current}`, `DMTR1 ${red} mtr_k DMTRCLAMP`, `VMTRCL mtr_k ${black} DC 2`];
     const r = await simulate(withMeter(net, els, ['op', 'print all']));
@@ -118,8 +133,24 @@ export async function readMeter(
   return { ideal: at(ohms, k), value: shown > at(ranges, k).full ? 'OL' : shown, range: k };
 }
 
+async function readThevenin(net: string, probe: Probe, rng: Noise): Promise<TrueReading> {
+  if (probe.mode === 'dcv') throw new Error('DC V has no test source');
+  const src = THEVENIN[probe.mode];
+  const els = [`VMTR mtr_s ${probe.black} DC ${src.voc}`, `RMTRS mtr_s ${probe.red} ${src.rs}`];
+  const r = await simulate(withMeter(net, els, ['op', 'print all']));
+  const v = node(at(r.ops, 0), probe.red) - node(at(r.ops, 0), probe.black);
+  if (probe.mode === 'diode') return display(v, [METER.diode], rng, 'diode');
+  const ohms = v / ((src.voc - v) / src.rs);
+  if (probe.mode === 'continuity') {
+    const lowest = at(METER.ohm, 0);
+    return { ideal: ohms > lowest.full ? 'OL' : ohms, value: noisy(ohms, lowest, rng, 'ohm0') < METER.continuityThreshold, range: 0 };
+  }
+  return display(ohms, METER.ohm, rng, 'ohm');
+}
+
 function display(v: number, ranges: readonly Range[], rng: Noise, fn: string): TrueReading {
-  if (!Number.isFinite(v)) throw new Error('no value for a probe node (check the net names)');
+  // An open circuit under a Thevenin ohmmeter gives Infinity: that is OL; NaN is a probe node the deck lacks.
+  if (Number.isNaN(v)) throw new Error('no value for a probe node (check the net names)');
   const k = ranges.findIndex((rg) => Math.abs(v) <= rg.full);
   if (k < 0) return { ideal: 'OL', value: 'OL', range: ranges.length - 1 };
   const shown = noisy(v, at(ranges, k), rng, `${fn}${k}`);

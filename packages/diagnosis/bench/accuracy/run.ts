@@ -1,7 +1,8 @@
 /**
  * Accuracy bench of the diagnosis engine on board sections written apart from it (`pnpm bench:accuracy`).
  * Ground truth: ngspice on the faulted netlist through the bench's meter model (meter.ts), cached under .data/.
- * Options: `--case <substring>` to run some cases, `--seed <text>` for another draw of meter noise.
+ * Options: `--case <substring>` to run some cases, `--seed <text>` for another draw of meter noise,
+ * `--meter thevenin` for a bench meter whose test sources are the ones the engine is told (meter.ts).
  * Prints one row per case and the totals; exits 0 whatever the score (it is a benchmark).
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
@@ -23,6 +24,7 @@ if (!ngspiceAvailable()) {
 
 const filter = arg('case');
 const seed = arg('seed') ?? 'bench-1';
+const meter = arg('meter') === 'thevenin' ? 'thevenin' : 'constant-current';
 const cases = CASES.filter((c) => !filter || c.id.includes(filter));
 const t0 = performance.now();
 // Two cases at a time: one waits on ngspice while the other runs the engine.
@@ -31,7 +33,7 @@ let next = 0;
 await Promise.all(
   [0, 1].map(async () => {
     for (let i = next++; i < cases.length; i = next++) {
-      const r = await runCase(at(cases, i), seed);
+      const r = await runCase(at(cases, i), seed, meter);
       results[i] = r;
       process.stderr.write(`  ${r.id} done in ${r.seconds.toFixed(1)} s\n`);
     }
@@ -49,7 +51,7 @@ const rows = results.map((r) => [
 const width = cols.map((c, i) => Math.min(48, Math.max(c.length, ...rows.map((r) => at(r, i).length))));
 const line = (cells: string[]) =>
   cells.map((c, i) => (c.length > at(width, i) ? `${c.slice(0, at(width, i) - 1)}…` : c.padEnd(at(width, i)))).join('  ');
-console.log(`\nSplitscope accuracy bench — seed ${seed}, ${cases.length} cases, confident at ≥ ${CONFIDENT}`);
+console.log(`\nSplitscope accuracy bench — seed ${seed}, ${meter} meter, ${cases.length} cases, confident at ≥ ${CONFIDENT}`);
 console.log(line(cols));
 console.log(width.map((w) => '-'.repeat(w)).join('  '));
 for (const r of rows) console.log(line(r));
@@ -67,7 +69,7 @@ for (const r of results.filter((x) => x.engineErrors.length || x.groundTruthErro
 }
 
 // The readings of every case, for reading a failure afterwards (not part of the repository).
-const out = join(import.meta.dirname, '..', '..', '..', '..', '.data', 'accuracy-report.json');
+const out = join(import.meta.dirname, '..', '..', '..', '..', '.data', `accuracy-report-${meter}.json`);
 mkdirSync(join(out, '..'), { recursive: true });
-writeFileSync(out, JSON.stringify({ seed, results }, null, 1));
-console.log(`\nreadings of every case: .data/accuracy-report.json`);
+writeFileSync(out, JSON.stringify({ seed, meter, results }, null, 1));
+console.log(`\nreadings of every case: .data/accuracy-report-${meter}.json`);

@@ -6,7 +6,7 @@ import { partKinds } from './board';
 import type { BenchCase, TrueFault } from './cases';
 import { engineMeter } from './engine-meter';
 import { GroundTruthError } from './ngspice';
-import { Noise, readMeter, type Probe } from './meter';
+import { Noise, readMeter, type MeterStyle, type Probe } from './meter';
 
 export const CONFIDENT = 0.9;
 export const MAX_ROUNDS = 10;
@@ -54,17 +54,17 @@ function diagnoserFor(c: BenchCase, params: Record<string, number>): Diagnoser {
   return d;
 }
 
-export async function runCase(c: BenchCase, seed = 'bench-1'): Promise<CaseResult> {
+export async function runCase(c: BenchCase, seed = 'bench-1', meter: MeterStyle = 'constant-current'): Promise<CaseResult> {
   const t0 = performance.now();
   const params = { ...c.board.defaults, ...c.params };
   const noise = new Noise(`${seed}/${c.id}`);
   const result: CaseResult = {
-    id: c.id, truth: c.faults.map((f) => f.words).join(' + '), top: '-', topProbability: 0, rank: 0, partRank: 0, rounds: 0,
+    id: c.id, truth: c.faults.length ? c.faults.map((f) => f.words).join(' + ') : 'no fault', top: '-', topProbability: 0, rank: 0, partRank: 0, rounds: 0,
     repeats: 0, engineErrors: [], end: 'error', readings: [], seconds: 0, outOfBand: 0, minimalDiagnoses: 0, verdicts: [],
   };
   const taken = new Set<string>();
   const take = async (p: Probe) => {
-    const r = await readMeter(c.board, params, c.faults, p, noise);
+    const r = await readMeter(c.board, params, c.faults, p, noise, meter);
     result.readings.push({ mode: p.mode, red: p.red, black: p.black, power: p.power, ...(p.lifted?.length ? { lifted: [...p.lifted] } : {}), value: r.value, ideal: r.ideal });
     taken.add(key(p));
   };
@@ -110,8 +110,8 @@ export async function runCase(c: BenchCase, seed = 'bench-1'): Promise<CaseResul
       result.rounds += 1;
     }
   } catch (e) {
-    if (!(e instanceof GroundTruthError)) throw e;
-    result.groundTruthError = e.message;
+    // Counted in the table as a ground-truth failure, so one broken deck does not stop the bench.
+    result.groundTruthError = e instanceof GroundTruthError ? e.message : `bench: ${(e as Error).message}`;
   }
   return finish(result, t0);
 }
@@ -125,7 +125,14 @@ function score(r: CaseResult, out: DiagnosisOutput, truth: readonly TrueFault[])
   const top = out.candidates[0];
   r.top = top ? names(top.faults) : '-';
   r.topProbability = top?.probability ?? 0;
-  if (!out.candidates.every((x) => Number.isFinite(x.probability))) r.engineErrors.push('a candidate probability is not a number');
+  const error = (m: string) => r.engineErrors.includes(m) || r.engineErrors.push(m);
+  if (!out.candidates.every((x) => Number.isFinite(x.probability))) error('a candidate probability is not a number');
+  // No board here carries more than ~330 V, well inside the meter's 1000 V range: a DC V expectation of OL is a
+  // prediction the engine could not compute, shown as a value.
+  for (const x of out.readings) {
+    const reading = r.readings[x.index];
+    if (reading?.mode === 'dcv' && x.expected === 'OL') error(`expects OL for DC V ${reading.red}–${reading.black}: an unsolved prediction shown as a value`);
+  }
   r.rank = out.candidates.findIndex((x) => matches(x.faults, truth)) + 1;
   r.partRank = out.candidates.findIndex((x) => truth.every((t) => x.faults.some((f) => f.part === t.part))) + 1;
   r.outOfBand = out.readings.filter((x) => x.verdict !== 'ok').length;
