@@ -5,9 +5,12 @@ import type { Config } from './config';
 import { createDatabase } from './db/client';
 import type { AppContext } from './context';
 import { holdDiagnosisPool, releaseDiagnosisPool } from './features/diagnosis/pool';
+import { upgradeBoardDocuments, type UpgradeOutcome } from './features/boards/upgrade';
 import { DiskStorage } from './storage/storage';
 
 export interface RunningServer {
+  /** What the start-time board-document upgrade did (main.ts prints it). */
+  upgrade: UpgradeOutcome;
   ctx: AppContext;
   server: Server;
   url: string;
@@ -19,6 +22,8 @@ export async function startServer(config: Config): Promise<RunningServer> {
   const { db, pool } = createDatabase(config.DATABASE_URL, config.DB_POOL_SIZE);
   const secureCookies = config.PUBLIC_URL?.startsWith('https://') ?? false;
   const ctx: AppContext = { config, db, pool, auth: createAuth(db, { secureCookies }), storage: new DiskStorage(config.UPLOAD_DIR) };
+  // Stored board documents of an older schema version are rewritten before the first request reads one.
+  const upgrade = await upgradeBoardDocuments(ctx);
   const app = createApp(ctx);
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.PORT, config.HOST, () => resolve(s));
@@ -33,6 +38,7 @@ export async function startServer(config: Config): Promise<RunningServer> {
   const addr = server.address();
   const port = typeof addr === 'object' && addr ? addr.port : config.PORT;
   return {
+    upgrade,
     ctx,
     server,
     url: `http://${config.HOST}:${port}`,

@@ -85,7 +85,7 @@ function Bench({ job }: { job: JobDetail }) {
   const [params, setParams] = useSearchParams();
   const guided = params.get('mode') === 'guided' || (params.get('mode') === null && me.data?.role === 'trainee');
   const tab = params.get('tab') === 'chain' ? 'chain' : 'map';
-  const view = useMemo(() => boardView(job.board.document), [job.board.document]);
+  const view = useMemo(() => boardView(job.board.document, job.board.pictureUrl), [job.board.document, job.board.pictureUrl]);
   const rows = job.board.expectedReadings;
   const readingsQ = useReadings(job.id);
   const diagnosisQ = useDiagnosis(job.id);
