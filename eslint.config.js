@@ -19,6 +19,18 @@ const enginePurity = {
   },
 };
 
+// The local fakes (mail capture, test payments) are development code under apps/server/dev: the server loads
+// them with a dynamic import() only when LOCAL_FAKES is on, so no static import may pull them in.
+const serverWithoutFakes = {
+  files: ['apps/server/src/**/*.ts'],
+  rules: {
+    '@typescript-eslint/no-restricted-imports': [
+      'error',
+      { patterns: [{ group: ['**/dev/**'], message: 'Development fakes load only through import() when LOCAL_FAKES is on.', allowTypeImports: true }] },
+    ],
+  },
+};
+
 export default tseslint.config(
   { ignores: ['**/node_modules/**', '**/dist/**', '.tools/**', '.data/**', 'drizzle/**', 'test-results/**', 'playwright-report/**', 'tests/artifacts/**'] },
   js.configs.recommended,
@@ -30,6 +42,7 @@ export default tseslint.config(
     },
   },
   enginePurity,
+  serverWithoutFakes,
   {
     files: ['apps/web/src/**/*.{ts,tsx}'],
     plugins: { 'react-hooks': reactHooks },

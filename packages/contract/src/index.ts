@@ -1,7 +1,9 @@
 // The one contract between the server and the web app: request/response schemas and their types.
+export { peopleErrors } from './messages';
 export * from './auth';
 export * from './problem';
 export * from './common';
+export * from './bounds';
 export * from './customers';
 export * from './users';
 export * from './readings';
@@ -14,3 +16,8 @@ export * from './jobs';
 export * from './billing';
 export * from './board-model';
 export * from './safety-gate';
+export * from './policy-bench';
+export * from './board-words';
+export * from './verification';
+export * from './policy';
+export * from './report';

@@ -1,5 +1,6 @@
 import { Suspense } from 'react';
 import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
+import { hasRole, ROLES } from '@splitscope/contract';
 import { useMe } from '@/features/auth/api/me';
 import { useSignOut } from '@/features/auth/api/sign-in';
 
@@ -30,12 +31,12 @@ export function AppLayout() {
           <NavLink to="/jobs" end className={link}>
             Jobs
           </NavLink>
-          {(me.data.role === 'lead' || me.data.role === 'admin') && (
+          {hasRole(me.data.role, ROLES.reviewers) && (
             <NavLink to="/review" className={link}>
               Review
             </NavLink>
           )}
-          {(me.data.role === 'lead' || me.data.role === 'admin') && (
+          {hasRole(me.data.role, ROLES.reviewers) && (
             <NavLink to="/boards" className={link}>
               Board library
             </NavLink>
@@ -43,8 +44,8 @@ export function AppLayout() {
           <NavLink to="/references" className={link}>
             Bench references
           </NavLink>
-          {me.data.role === 'admin' && <NavLink to="/billing/settings" className={link}>Billing</NavLink>}
-          {me.data.role === 'admin' && <NavLink to="/dev/mail" className={link}>Mail outbox</NavLink>}
+          {hasRole(me.data.role, ROLES.admins) && <NavLink to="/billing/settings" className={link}>Billing</NavLink>}
+          {hasRole(me.data.role, ROLES.admins) && <NavLink to="/dev/mail" className={link}>Mail outbox</NavLink>}
         </nav>
         <span className="text-sm" title={me.data.shopName}>
           {me.data.name} · {roleLabel[me.data.role]}

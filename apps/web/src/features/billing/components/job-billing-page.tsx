@@ -1,4 +1,4 @@
-import type { BillingSettings, JobBilling, JobDetail, Role } from '@splitscope/contract';
+import { canBill, type BillingSettings, type JobBilling, type JobDetail, type Role } from '@splitscope/contract';
 import { Link, useParams } from 'react-router-dom';
 import { QueryState } from '@/components/ui/query-state';
 import { StatusBadge } from '@/components/ui/status-badge';
@@ -10,11 +10,8 @@ import { InvoicesSection } from './invoices-section';
 import { QuotesSection } from './quotes-section';
 import { StatusMailSection } from './status-mail-section';
 
-// The same rule as the server's guards: trainees read billing, the rest of the bench quotes and invoices.
-const mayBill = (role: Role | undefined) => role === 'admin' || role === 'lead' || role === 'tech';
-
 function Billing({ job, billing, settings, role }: { job: JobDetail; billing: JobBilling; settings: BillingSettings; role: Role | undefined }) {
-  const ctx = { job, currency: settings.currency, defaultRate: settings.taxRate, canEdit: mayBill(role) };
+  const ctx = { job, currency: settings.currency, defaultRate: settings.taxRate, canEdit: canBill(role) };
   return (
     <div className="mx-auto max-w-5xl space-y-6">
       <div className="flex flex-wrap items-center justify-between gap-2">

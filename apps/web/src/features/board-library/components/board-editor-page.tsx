@@ -1,4 +1,4 @@
-import type { BoardDetail, BoardModel } from '@splitscope/contract';
+import { hasRole, ROLES, type BoardDetail, type BoardModel } from '@splitscope/contract';
 import { useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
@@ -20,7 +20,7 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
   const [selected, setSelected] = useState<string | null>(null);
   const [placing, setPlacing] = useState<'point' | 'part'>('point');
   const [note, setNote] = useState('');
-  const canEdit = me.data?.role === 'admin' || me.data?.role === 'lead';
+  const canEdit = hasRole(me.data?.role, ROLES.reviewers);
 
   const movePoint = (id: string, x: number, y: number) =>
     setDoc({ ...doc, testPoints: doc.testPoints.map((t) => (t.id === id ? { ...t, x, y } : t)) });

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { createReviewRequest, type JobDetail } from '@splitscope/contract';
+import { canApprove, createReviewRequest, type JobDetail } from '@splitscope/contract';
 import { useForm } from 'react-hook-form';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import type { z } from 'zod';
@@ -54,7 +54,7 @@ function Review({ job }: { job: JobDetail }) {
   const me = useMe();
   const readings = useReadings(job.id);
   const snap = job.latestSnapshot?.output;
-  const canDecide = (me.data?.role === 'lead' || me.data?.role === 'admin') && job.status === 'awaiting-review';
+  const canDecide = canApprove(job.status, me.data?.role);
   return (
     <div className="space-y-4">
       <div className="flex flex-wrap items-center justify-between gap-2">
