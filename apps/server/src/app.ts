@@ -19,6 +19,7 @@ import { billingApiRoutes } from './features/billing/api';
 import { paymentWebhookRoutes } from './features/billing/webhook';
 import { customerPortalRoutes } from './features/customer-portal/routes';
 import { healthRoutes } from './features/health/routes';
+import { shopRoutes } from './features/shops/routes';
 import { errorHandler, notFoundApi } from './http/errors';
 import { hostAllowList } from './http/host';
 import { originCheck } from './http/origin';
@@ -51,12 +52,18 @@ export function createApp(ctx: AppContext): Express {
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
   api.use(originCheck(ctx.config.PUBLIC_URL));
+  // API answers are for the person who asked, at that moment: no browser or proxy keeps them (uploads set their own).
+  api.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
   api.use(healthRoutes(ctx));
   api.use(customerPortalRoutes(ctx));
   api.use(sessionMiddleware(ctx.auth));
   // First after the session: a reading write is the busiest request, and every router ahead of it is tried in turn.
   api.use(readingRoutes(ctx));
   api.use(authRoutes(ctx));
+  api.use(shopRoutes(ctx));
   api.use(userRoutes(ctx));
   api.use(customerRoutes(ctx));
   api.use(boardRoutes(ctx));

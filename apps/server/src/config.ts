@@ -5,6 +5,8 @@ import { localFakesOn } from './features/mail/local';
 // Every variable the server reads, parsed once at start-up. `.env.example` documents each one.
 const schema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  /** `demo`: the invented demo shop (seeded by `npm start`); `shop`: a real shop, set up on the first-run page. */
+  SPLITSCOPE_MODE: z.enum(['demo', 'shop']).default('demo'),
   HOST: z.string().default('127.0.0.1'),
   PORT: z.coerce.number().int().min(0).max(65535).default(5180), // 0: any free port (tests)
   DATABASE_URL: z.string().url({ message: 'must be a postgres:// URL' }),

@@ -11,7 +11,7 @@ try {
   for (const f of upgrade.failed) console.error(`splitscope: board model version ${f.versionId} could not be upgraded (${f.message}); jobs on it will refuse to load its board`);
   // The status e-mail sweep, and with LOCAL_FAKES the SMTP capture server and the fake payment API.
   const billing = await startBillingServices(running.ctx, running.url);
-  const stop = () => billing.stop().then(() => running.close()).then(() => process.exit(0));
+  const stop = () => void billing.stop().then(() => running.close()).then(() => process.exit(0));
   process.on('SIGTERM', stop);
   process.on('SIGINT', stop);
 } catch (err) {

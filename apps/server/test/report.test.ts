@@ -44,7 +44,7 @@ describe('job flow and repair report', () => {
     expect(await statusOf()).toBe('awaiting-review');
     expect((await lead.post(`/api/jobs/${jobId}/reviews`, { decision: 'approve', comment: 'R2 open' })).status).toBe(201);
     expect(await statusOf()).toBe('approved');
-  });
+  }, 120_000); // proposing runs the first diagnosis of this board: seconds of engine work on a busy machine
 
   it('leaves a corrected verification reading out of the sign-off, the report and the PDF', async () => {
     expect((await tech.post(`/api/jobs/${jobId}/repairs`, { part: 'R2', action: 'replaced', replacementValue: '10k' })).status).toBe(201);
@@ -54,7 +54,8 @@ describe('job flow and repair report', () => {
     expect(fix.body).toMatchObject({ verdict: { verdict: 'ok' } });
     expect((await tech.patch(`/api/jobs/${jobId}`, { status: 'repaired' })).status).toBe(200);
     // the sign-off judges the correction, not the typo it replaced
-    expect((await lead.patch(`/api/jobs/${jobId}`, { status: 'verified' })).status).toBe(200);
+    const signOff = await lead.patch(`/api/jobs/${jobId}`, { status: 'verified', functionalCheckDone: true });
+    expect(signOff.status, JSON.stringify(signOff.body)).toBe(200);
 
     const res = await tech.get(`/api/jobs/${jobId}/report`);
     expect(res.status).toBe(200);

@@ -264,8 +264,6 @@ export type CreateQuoteRequest = z.input<typeof createQuoteRequest>;
 export const updateQuoteRequest = createQuoteRequest.partial();
 export type UpdateQuoteRequest = z.input<typeof updateQuoteRequest>;
 
-export const quoteListResponse = z.object({ items: z.array(quoteSchema) });
-
 export const invoiceStatuses = ['issued', 'paid', 'void'] as const;
 export const invoiceStatusSchema = z.enum(invoiceStatuses);
 export type InvoiceStatus = z.infer<typeof invoiceStatusSchema>;
@@ -290,8 +288,6 @@ export const createInvoiceRequest = z.object({
   send: z.boolean().default(true),
 });
 export type CreateInvoiceRequest = z.input<typeof createInvoiceRequest>;
-
-export const invoiceListResponse = z.object({ items: z.array(invoiceSchema) });
 
 export const jobBillingResponse = z.object({
   jobId: idSchema,
@@ -341,8 +337,6 @@ export type SendRequest = z.input<typeof sendRequest>;
 
 export const sentResponse = z.object({ mailId: idSchema, to: z.string(), sentAt: isoDateTime });
 export type Sent = z.infer<typeof sentResponse>;
-
-export const notifyRequest = z.object({ milestone: mailMilestoneSchema });
 
 // --- the customer page (no sign-in; everything scoped to the job of the link) --------------------------
 

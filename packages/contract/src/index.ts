@@ -1,5 +1,6 @@
 // The one contract between the server and the web app: request/response schemas and their types.
-export { peopleErrors } from './messages';
+// First: installs the validation messages (a zod error map) before any schema below is used.
+import './messages';
 export * from './auth';
 export * from './problem';
 export * from './common';
@@ -16,6 +17,7 @@ export * from './jobs';
 export * from './billing';
 export * from './board-model';
 export * from './safety-gate';
+export * from './shop';
 export * from './policy-bench';
 export * from './board-words';
 export * from './verification';

@@ -5,7 +5,7 @@ import { z } from 'zod';
 const things: Record<string, string> = { string: 'text', number: 'a number', boolean: 'yes or no', array: 'a list', object: 'the details', date: 'a date' };
 
 /** A zod issue in plain words; undefined leaves zod's own message (for issues a schema words itself). */
-export const peopleErrors: z.core.$ZodErrorMap = (iss) => {
+const peopleErrors: z.core.$ZodErrorMap = (iss) => {
   switch (iss.code) {
     case 'invalid_type':
       if (iss.input === undefined || iss.input === null) return 'This is needed.';

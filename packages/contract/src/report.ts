@@ -39,11 +39,12 @@ export type RepairReport = z.infer<typeof repairReportSchema>;
 
 /**
  * The one definition of a job's verification readings: verification-phase readings that no later reading
- * corrects, taken after the last repair action (earlier ones checked a repair that was redone). The sign-off
- * check and the report both use it, so the customer never sees a reading the shop struck out.
+ * corrects and nobody struck out, taken after the last repair action (earlier ones checked a repair that was
+ * redone). The sign-off check and the report both use it, so the customer never sees a reading the shop struck
+ * out or corrected.
  */
-export function verificationReadings<R extends { phase: ReadingPhase; supersededBy: string | null; createdAt: string }>(readings: readonly R[], lastRepairAt: string | null): R[] {
+export function verificationReadings<R extends { phase: ReadingPhase; supersededBy: string | null; struck: unknown; createdAt: string }>(readings: readonly R[], lastRepairAt: string | null): R[] {
   if (!lastRepairAt) return [];
   const after = Date.parse(lastRepairAt);
-  return readings.filter((r) => r.phase === 'verification' && r.supersededBy === null && Date.parse(r.createdAt) > after);
+  return readings.filter((r) => r.phase === 'verification' && r.supersededBy === null && r.struck == null && Date.parse(r.createdAt) > after);
 }

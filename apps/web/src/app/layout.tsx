@@ -1,7 +1,7 @@
 import { Suspense } from 'react';
 import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
 import { hasRole, ROLES } from '@splitscope/contract';
-import { useMe } from '@/features/auth/api/me';
+import { useMe } from '@/lib/api/me';
 import { useSignOut } from '@/features/auth/api/sign-in';
 
 const roleLabel = { admin: 'Shop admin', lead: 'Lead', tech: 'Technician', trainee: 'Trainee' } as const;
@@ -55,7 +55,7 @@ export function AppLayout() {
         <button
           type="button"
           className="min-h-11 rounded-md px-3 hover:bg-white/10"
-          onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}
+          onClick={() => signOut.mutate(undefined, { onSuccess: () => void navigate('/sign-in') })}
         >
           Sign out
         </button>

@@ -125,7 +125,14 @@ function score(r: CaseResult, out: DiagnosisOutput, truth: readonly TrueFault[])
   const top = out.candidates[0];
   r.top = top ? names(top.faults) : '-';
   r.topProbability = top?.probability ?? 0;
-  if (!out.candidates.every((x) => Number.isFinite(x.probability))) r.engineErrors.push('a candidate probability is not a number');
+  const error = (m: string) => r.engineErrors.includes(m) || r.engineErrors.push(m);
+  if (!out.candidates.every((x) => Number.isFinite(x.probability))) error('a candidate probability is not a number');
+  // No board here carries more than ~330 V, well inside the meter's 1000 V range: a DC V expectation of OL is a
+  // prediction the engine could not compute, shown as a value.
+  for (const x of out.readings) {
+    const reading = r.readings[x.index];
+    if (reading?.mode === 'dcv' && x.expected === 'OL') error(`expects OL for DC V ${reading.red}–${reading.black}: an unsolved prediction shown as a value`);
+  }
   r.rank = out.candidates.findIndex((x) => matches(x.faults, truth)) + 1;
   r.partRank = out.candidates.findIndex((x) => truth.every((t) => x.faults.some((f) => f.part === t.part))) + 1;
   r.outOfBand = out.readings.filter((x) => x.verdict !== 'ok').length;

@@ -7,7 +7,7 @@ import type { Config } from '../../config';
 import type { Db } from '../../db/client';
 import { auditLog } from '../../db/schema';
 import { newId } from '../../lib/ids';
-import { sendMail, type OutgoingMail } from '../mail/transport';
+import { type OutgoingMail, sendMail } from '../mail';
 import type { LineRow } from './documents';
 import { getBillingJob, recipientFor, recipientOf, type BillingJob } from './jobs';
 import { createCustomerLink } from './links';

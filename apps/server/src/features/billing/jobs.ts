@@ -4,7 +4,7 @@ import { and, eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { boardModels, customers, jobs, shops } from '../../db/schema';
 import { AppError } from '../../http/errors';
-import type { JobSummary } from '../mail/templates';
+import type { JobSummary } from '../mail';
 
 export interface BillingJob {
   id: string;

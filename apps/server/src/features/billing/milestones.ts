@@ -7,8 +7,7 @@ import type { JobStatus } from '@splitscope/contract';
 import type { Config } from '../../config';
 import type { Db } from '../../db/client';
 import { billingSettings, customers, jobs, mailLog } from '../../db/schema';
-import { statusMail } from '../mail/templates';
-import { sendMail } from '../mail/transport';
+import { sendMail, statusMail } from '../mail';
 import { getBillingJob, jobSummary, recipientFor, recipientOf } from './jobs';
 import { createCustomerLink } from './links';
 

@@ -2,7 +2,7 @@ import type { AppContext } from '../../context';
 // Types only: the fakes are development code (apps/server/dev), loaded below only when LOCAL_FAKES is on.
 import type { FakePayments } from '../../../dev/fakes/payments';
 import type { SmtpCapture } from '../../../dev/fakes/smtp-capture';
-import { localFakesOn } from '../mail/local';
+import { localFakesOn } from '../mail';
 import { startStatusMailer } from './milestones';
 
 export interface BillingServices {

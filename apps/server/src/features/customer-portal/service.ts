@@ -7,15 +7,11 @@ import type { Db } from '../../db/client';
 import { auditLog, quotes, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
-import { findJobInvoices, findJobQuotes } from '../billing/documents';
-import { getBillingJob, jobSummary } from '../billing/jobs';
-import { resolveCustomerLink } from '../billing/links';
-import { getSettingsRow } from '../billing/settings';
-import { startCheckout } from '../invoices/service';
-import { moveJob } from '../jobs/flow';
+import { findJobInvoices, findJobQuotes, getBillingJob, getSettingsRow, jobSummary, resolveCustomerLink } from '../billing';
+import { startCheckout } from '../invoices';
+import { moveJob } from '../jobs';
 import { getRepairReport, renderReportPdf } from '../reports';
-import { quoteDecisionMail } from '../mail/templates';
-import { sendMail } from '../mail/transport';
+import { quoteDecisionMail, sendMail } from '../mail';
 
 export async function getPublicJob({ db, token }: { db: Db; token: string }): Promise<PublicJob> {
   const link = await resolveCustomerLink(db, token);

@@ -8,7 +8,7 @@ import type { Db } from '../../db/client';
 import { boardModelVersions, diagnosisSnapshots, jobs, readingStrikes, readings } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
-import { unitOf } from '../boards/engine';
+import { unitOf } from '../boards';
 import { diagnosisFor } from './cache';
 import { diagnosisPool } from './pool';
 import { wordDiagnosis, wordsOf } from './words';

@@ -8,15 +8,9 @@ import type { Db } from '../../db/client';
 import { invoiceLines, invoices, paymentEvents, payments, quoteLines, quotes } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
-import { auditBilling, linesFromInput, linesFromRows, mailDocument, openDocument } from '../billing/billing-document';
-import { toInvoice } from '../billing/documents';
-import { getBillingJob, jobSummary } from '../billing/jobs';
-import { createCustomerLink, publicBase } from '../billing/links';
-import { paymentsFor } from '../billing/payments';
+import { auditBilling, createCustomerLink, getBillingJob, getSettingsRow, jobSummary, linesFromInput, linesFromRows, mailDocument, openDocument, paymentsFor, publicBase, toInvoice } from '../billing';
 import { getRepairReport, renderReportPdf } from '../reports';
-import { getSettingsRow } from '../billing/settings';
-import { invoiceMail, paidMail } from '../mail/templates';
-import { sendMail } from '../mail/transport';
+import { invoiceMail, paidMail, sendMail } from '../mail';
 
 async function loadInvoice(db: Db, shopId: string, id: string) {
   const [inv] = await db.select().from(invoices).where(and(eq(invoices.id, id), eq(invoices.shopId, shopId)));

@@ -13,7 +13,6 @@ import {
   type CreateJobRequest,
   type Job,
   type JobDetail,
-  type JobListQuery,
   type JobStatus,
   type UpdateJobRequest,
 } from '@splitscope/contract';
@@ -23,10 +22,10 @@ import { boardModels, boardModelVersions, customers, diagnosisSnapshots, jobs, r
 import { AppError } from '../../http/errors';
 import { iso, isoOrNull } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { getBoardVersion } from '../boards/service';
-import { toCustomer } from '../customers/service';
-import { computeDiagnosis, toSnapshot } from '../diagnosis/service';
-import { toReview } from '../reviews/view';
+import { getBoardVersion } from '../boards';
+import { toCustomer } from '../customers';
+import { computeDiagnosis, toSnapshot } from '../diagnosis';
+import { toReview } from '../reviews';
 import { checkMove, moveJob, type MoveRequest } from './flow';
 
 export type JobRow = typeof jobs.$inferSelect;
@@ -101,8 +100,6 @@ export async function findJobs({ db, actor, query }: { db: Db; actor: Actor; que
     .orderBy(priorityOrder, asc(jobs.receivedAt));
   return { items: rows.map(toJob) };
 }
-
-export type { JobListQuery };
 
 export async function getJob({ db, shopId, id }: { db: Db; shopId: string; id: string }): Promise<Job> {
   const [row] = await jobQuery(db).where(and(eq(jobs.id, id), eq(jobs.shopId, shopId)));
@@ -180,7 +177,7 @@ export async function createJob({ db, actor, input }: { db: Db; actor: Pick<Acto
 
 /**
  * What stands between a repaired job and its sign-off: the checklist rows (contract: verificationChecklist) that
- * no healthy verification reading (contract: verificationReadings, less the struck ones) proves, or no repair.
+ * no healthy verification reading (contract: verificationReadings) proves, or no repair.
  */
 async function verificationProblems(db: Db, actor: Actor, job: JobRow): Promise<string | null> {
   const [last] = await db.select({ at: repairActions.createdAt }).from(repairActions).where(eq(repairActions.jobId, job.id)).orderBy(desc(repairActions.createdAt)).limit(1);
@@ -194,7 +191,7 @@ async function verificationProblems(db: Db, actor: Actor, job: JobRow): Promise<
     .where(and(eq(readings.jobId, job.id), eq(readings.phase, 'verification')))
     .orderBy(asc(readings.createdAt));
   const rows = verificationReadings(
-    taken.filter((x) => x.struck === null).map(({ r, supersededBy }) => ({ ...r, supersededBy, createdAt: iso(r.createdAt), verdict: r.verdict as { verdict: string } | null })),
+    taken.map(({ r, supersededBy, struck }) => ({ ...r, supersededBy, struck, createdAt: iso(r.createdAt), verdict: r.verdict as { verdict: string } | null })),
     iso(last.at),
   );
   const board = await getBoardVersion({ db, shopId: actor.shopId, versionId: job.boardVersionId });

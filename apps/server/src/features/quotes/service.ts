@@ -7,12 +7,8 @@ import type { Db } from '../../db/client';
 import { quoteLines, quotes } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
-import { auditBilling, linesFromInput, linesFromRows, mailDocument, openDocument, priceLines } from '../billing/billing-document';
-import { toQuote } from '../billing/documents';
-import { getBillingJob, jobSummary } from '../billing/jobs';
-import { revokeEarlierLinks } from '../billing/links';
-import { getSettingsRow } from '../billing/settings';
-import { quoteMail } from '../mail/templates';
+import { auditBilling, getBillingJob, getSettingsRow, jobSummary, linesFromInput, linesFromRows, mailDocument, openDocument, priceLines, revokeEarlierLinks, toQuote } from '../billing';
+import { quoteMail } from '../mail';
 
 async function loadQuote(db: Db, shopId: string, id: string) {
   const [q] = await db.select().from(quotes).where(and(eq(quotes.id, id), eq(quotes.shopId, shopId)));

@@ -7,8 +7,8 @@ import { DEFAULT_SAFE_THRESHOLD } from '@splitscope/boards';
 import type { Db } from '../../db/client';
 import type { jobs } from '../../db/schema';
 import { AppError } from '../../http/errors';
-import { normNet as norm } from '../boards/engine';
-import { computeDiagnosis } from '../diagnosis/service';
+import { normNet as norm } from '../boards';
+import { computeDiagnosis } from '../diagnosis';
 
 const sameSet = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((x) => b.some((y) => norm(x) === norm(y)));
 

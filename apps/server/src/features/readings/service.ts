@@ -8,8 +8,8 @@ import { boardModelVersions, jobs, readingStrikes, readings, users } from '../..
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { boardEngine, cachedBoardEngine, powerRefusal, resolveNet, resolveParts, unitOf, verdictFor } from '../boards/engine';
-import { getJobRow } from '../jobs/service';
+import { boardEngine, cachedBoardEngine, powerRefusal, resolveNet, resolveParts, unitOf, verdictFor } from '../boards';
+import { getJobRow } from '../jobs';
 import { checkGuidedStep, checkSafetyGate } from './guided';
 import { insertReading, type NewReading, type ReadingRow } from './write-batch';
 

@@ -6,8 +6,8 @@ import type { Db } from '../../db/client';
 import { boardModels, boardModelVersions, customers, jobs, reviews, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso, isoOrNull } from '../../lib/dates';
-import { findReadings } from '../readings/service';
-import { findRepairs } from '../repairs/service';
+import { findReadings } from '../readings';
+import { findRepairs } from '../repairs';
 
 const asReportReading = ({ id, red, black, mode, power, value, unit, raw, verdict, takenAt }: StoredReading) => ({ id, red, black, mode, power, value, unit, raw, verdict, takenAt });
 

@@ -5,8 +5,7 @@ import type { Db } from '../../db/client';
 import { diagnosisSnapshots, reviews, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
-import { checkMove, moveJob, type MoveRequest } from '../jobs/flow';
-import { getJobRow } from '../jobs/service';
+import { checkMove, getJobRow, moveJob, type MoveRequest } from '../jobs';
 import { toReview } from './view';
 
 /** Approve → approved; send back → diagnosing, marked sent back. Only from awaiting review. */

@@ -5,7 +5,7 @@ import { BoardMap } from '@/components/board-map/board-map';
 import { Button } from '@/components/ui/button';
 import { QueryState } from '@/components/ui/query-state';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { useMe } from '@/features/auth/api/me';
+import { useMe } from '@/lib/api/me';
 import { useDiagnosis } from '@/lib/api/get-diagnosis';
 import { useJob } from '@/lib/api/get-job';
 import { useReadings } from '@/lib/api/get-readings';
@@ -303,7 +303,7 @@ function UnsentBlock({ sender }: { sender: ReturnType<typeof useReadingSender> }
   return <UnsentList unsent={sender.unsent} rejected={sender.rejected} onRetry={() => void sender.flush()} onDismiss={sender.dismissRejected} />;
 }
 
-export function BenchPage() {
+function BenchPage() {
   const { id = '' } = useParams();
   const job = useJob(id);
   useEffect(() => void preloadReadingParser(), []);

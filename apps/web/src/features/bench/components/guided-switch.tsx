@@ -1,6 +1,6 @@
 import { canLiftGuidedOrder, type JobDetail } from '@splitscope/contract';
 import { Button } from '@/components/ui/button';
-import { useMe } from '@/features/auth/api/me';
+import { useMe } from '@/lib/api/me';
 import { useUpdateJob } from '@/lib/api/update-job';
 
 /**

@@ -2,7 +2,7 @@ import { canBill, type BillingSettings, type JobBilling, type JobDetail, type Ro
 import { Link, useParams } from 'react-router-dom';
 import { QueryState } from '@/components/ui/query-state';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { useMe } from '@/features/auth/api/me';
+import { useMe } from '@/lib/api/me';
 import { useJob } from '@/lib/api/get-job';
 import { useBillingSettings } from '../api/get-billing-settings';
 import { useJobBilling } from '../api/get-job-billing';

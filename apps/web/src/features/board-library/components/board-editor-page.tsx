@@ -3,7 +3,7 @@ import { useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
 import { QueryState } from '@/components/ui/query-state';
-import { useMe } from '@/features/auth/api/me';
+import { useMe } from '@/lib/api/me';
 import { METER_LABEL, meterText } from '@/lib/format';
 import { useBoard } from '../api/get-board';
 import { useUpdateBoard } from '../api/update-board';
@@ -220,7 +220,7 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
   );
 }
 
-export function BoardEditorPage() {
+function BoardEditorPage() {
   const { id = '' } = useParams();
   const board = useBoard(id);
   // Held here, not in the editor: a saved version remounts the editor, and the "saved" note must survive that.

@@ -162,7 +162,7 @@ function MarkingDecoder() {
   );
 }
 
-export function ReferencesPage() {
+function ReferencesPage() {
   return (
     <div className="space-y-4">
       <PageHeader title="Bench references" />

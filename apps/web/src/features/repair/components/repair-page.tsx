@@ -122,7 +122,7 @@ function Repair({ job }: { job: JobDetail }) {
   );
 }
 
-export function RepairPage() {
+function RepairPage() {
   const { id = '' } = useParams();
   const job = useJob(id);
   return <QueryState query={job} label="the job">{(j) => <Repair job={j} />}</QueryState>;

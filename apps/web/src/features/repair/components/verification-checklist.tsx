@@ -1,4 +1,4 @@
-import { boardWords, unprovenRows, verificationChecklist, type ExpectedReadingRow, type JobDetail, type StoredReading } from '@splitscope/contract';
+import { boardWords, unprovenRows, verificationChecklist, verificationReadings, type ExpectedReadingRow, type JobDetail, type StoredReading } from '@splitscope/contract';
 import { useMemo, useState, type FormEvent } from 'react';
 import { MarkerGlyph } from '@/components/board-map/marker-glyph';
 import { SafetyGate } from '@/components/safety-gate';
@@ -8,6 +8,7 @@ import { gateFigures } from '@/lib/board/gate-figures';
 import { bandText, METER_LABEL, readingText } from '@/lib/format';
 import { parseTyped } from '@/lib/parse-reading';
 import { useReadingSender } from '@/lib/use-reading-sender';
+import { useRepairs } from '@/lib/api/get-repairs';
 import { useUpdateJob } from '@/lib/api/update-job';
 
 const stateOf = (v: string | null | undefined) => (v === 'ok' ? 'healthy' : v === 'low' ? 'low' : v === 'high' ? 'high' : 'unmeasured') as 'healthy' | 'low' | 'high' | 'unmeasured';
@@ -82,7 +83,9 @@ export function VerificationChecklist({ job, readings, canSignOff }: { job: JobD
   const [gateVolts, setGateVolts] = useState<number | null>(null);
   const [gateRefusal, setGateRefusal] = useState<string | null>(null);
   const [functionalDone, setFunctionalDone] = useState(false);
-  const current = readings.filter((r) => r.phase === 'verification' && !r.supersededBy && !r.struck);
+  const repairs = useRepairs(job.id);
+  // The same readings the sign-off judges (contract: verificationReadings).
+  const current = verificationReadings(readings, repairs.data?.items.at(-1)?.createdAt ?? null);
   const netOf = (p: string) => view.pointOf(p)?.net ?? p;
   const open = unprovenRows(rows, current, netOf);
 

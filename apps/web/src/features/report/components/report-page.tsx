@@ -1,10 +1,8 @@
 import type { RepairReport, ReportReading } from '@splitscope/contract';
 import { useParams } from 'react-router-dom';
 import { QueryState } from '@/components/ui/query-state';
-import { dateTime, meterText } from '@/lib/format';
+import { dateTime, meterText, verdictWord } from '@/lib/format';
 import { useReport } from '../api/get-report';
-
-const verdictWord = (v: 'ok' | 'low' | 'high' | undefined) => (v === 'ok' ? 'healthy' : v ?? '—');
 
 /** The report as the server composes it (the same model the customer's PDF is drawn from). */
 function Report({ report: r }: { report: RepairReport }) {
@@ -114,7 +112,7 @@ function ReadingTable({ rows }: { rows: ReportReading[] }) {
   );
 }
 
-export function ReportPage() {
+function ReportPage() {
   const { id = '' } = useParams();
   const report = useReport(id);
   return (

@@ -5,7 +5,7 @@ import { Link, useNavigate, useParams } from 'react-router-dom';
 import type { z } from 'zod';
 import { QueryState } from '@/components/ui/query-state';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { useMe } from '@/features/auth/api/me';
+import { useMe } from '@/lib/api/me';
 import { useJob } from '@/lib/api/get-job';
 import { useReadings } from '@/lib/api/get-readings';
 import { dateTime, meterText } from '@/lib/format';
@@ -22,7 +22,7 @@ function Decision({ job }: { job: JobDetail }) {
     form.setValue('decision', decision);
     void form.handleSubmit(async (v) => {
       await review.mutateAsync(v);
-      navigate('/review');
+      void navigate('/review');
     })();
   };
   return (
@@ -153,7 +153,7 @@ function Review({ job }: { job: JobDetail }) {
   );
 }
 
-export function ReviewJobPage() {
+function ReviewJobPage() {
   const { id = '' } = useParams();
   const job = useJob(id);
   return <QueryState query={job} label="the job">{(j) => <Review job={j} />}</QueryState>;
