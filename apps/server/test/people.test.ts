@@ -7,7 +7,7 @@ import { join } from 'node:path';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { passwordResets } from '../src/db/schema';
-import { startSmtpCapture, type CapturedMessage, type SmtpCapture } from '../src/fakes/smtp-capture';
+import { startSmtpCapture, type CapturedMessage, type SmtpCapture } from '../dev/fakes/smtp-capture';
 import type { RunningServer } from '../src/server';
 import { createUser } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
