@@ -7,6 +7,7 @@ import { refusal } from '@splitscope/circuit';
 import { bandOf, CaseError, createDiagnoser, verdictOf, type CasePart, type Diagnoser, type ReadingValue, type TestPoint } from '@splitscope/diagnosis';
 import { boardModelSchema, type BoardModel, type BoardPartKind, type ExpectedReadingRow, type MeterModeName, type PowerState, type ReadingVerdict } from '@splitscope/contract';
 import { AppError } from '../../http/errors';
+import { LRUCache } from 'lru-cache';
 
 export interface BoardTestPoint extends TestPoint {
   id: string;
@@ -90,8 +91,17 @@ export function buildBoardEngine(versionId: string, model: BoardModel): BoardEng
   }
 }
 
-const cache = new Map<string, BoardEngine>();
-const CACHE_LIMIT = 50;
+// Versions whose engine was dropped for room since the last look, so a diagnosis thread can tell the server which
+// documents it no longer holds (the server's pool asks this instead of keeping a copy of the limit).
+let dropped: string[] = [];
+const cache = new LRUCache<string, BoardEngine>({ max: 50, dispose: (_engine, versionId, reason) => void (reason === 'evict' && dropped.push(versionId)) });
+
+/** The versions whose engine this thread dropped since the last call. */
+export function takeDroppedEngines(): string[] {
+  const out = dropped;
+  dropped = [];
+  return out;
+}
 
 /**
  * The engine for a stored version, built once per process (the diagnoser's prediction cache survives). The
@@ -104,18 +114,12 @@ export function boardEngine(versionId: string, doc: unknown, storedTable?: unkno
   const built = buildBoardEngine(versionId, readBoardModel(doc));
   if (Array.isArray(storedTable) && storedTable.length > 0) built.expected = storedTable as ExpectedReadingRow[];
   cache.set(versionId, built);
-  if (cache.size > CACHE_LIMIT) cache.delete(cache.keys().next().value as string);
   return built;
 }
 
 /** The engine for a version already built in this process, so a caller can skip loading its document. */
 export function cachedBoardEngine(versionId: string): BoardEngine | undefined {
-  const hit = cache.get(versionId);
-  if (hit) {
-    cache.delete(versionId);
-    cache.set(versionId, hit);
-  }
-  return hit;
+  return cache.get(versionId);
 }
 
 /** A net name as typed → the netlist's spelling: lower case, `gnd` is the reference `0`. */
