@@ -8,7 +8,7 @@ import { BOARD_MODEL_SCHEMA_VERSION, boardModelSchema } from '@splitscope/contra
 import type { Db } from '../../db/client';
 import { boardModels, boardModelVersions } from '../../db/schema';
 import type { Storage } from '../../storage/storage';
-import { storeUpload } from '../uploads/service';
+import { storeUpload } from '../uploads';
 
 type Json = Record<string, unknown>;
 const isRecord = (x: unknown): x is Json => typeof x === 'object' && x !== null && !Array.isArray(x);
