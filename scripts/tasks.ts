@@ -4,20 +4,29 @@ import { join } from 'node:path';
 import { loadDotEnv } from './lib/env';
 import { stopCluster } from './lib/pg';
 import { aptInstall, findFreePort, runInherit, SetupError, which } from './lib/proc';
-import { buildWeb, clusterSpec, prepareDatabase, root, spawnServer } from './lib/stack';
+import { buildWeb, clusterSpec, modeFromEnv, prepareDatabase, root, spawnServer } from './lib/stack';
 
 const bin = (name: string) => join(root, 'node_modules', '.bin', name);
 const reports = join(root, '.data', 'reports');
 
 async function start(): Promise<number> {
-  const url = await prepareDatabase('main');
+  const mode = modeFromEnv();
+  const url = await prepareDatabase('main', mode);
   await buildWeb();
   const port = process.env.PORT ?? '5180';
-  const server = await spawnServer({ DATABASE_URL: url, PORT: port });
-  console.log(`
-Splitscope is running at ${server.url}
+  const server = await spawnServer({ DATABASE_URL: url, PORT: port, SPLITSCOPE_MODE: mode });
+  console.log(
+    mode === 'shop'
+      ? `
+Splitscope is running at ${server.url} for your shop (database ${url.replace(/^.*\//, '')}).
+First time: open ${server.url}/first-run to enter the shop's details and create its admin.
+Stop with Ctrl-C; stop the database with "npm run db:stop".`
+      : `
+Splitscope is running at ${server.url} with the DEMO shop (invented data).
 Demo sign-ins (password splitscope-demo): admin@demo.test, lead@demo.test, tech@demo.test, trainee@demo.test;
-a second shop: tech@other.test.  Stop with Ctrl-C; stop the database with "npm run db:stop".`);
+a second shop: tech@other.test.  For a real shop: "npm run start:shop".
+Stop with Ctrl-C; stop the database with "npm run db:stop".`,
+  );
   const stop = () => void server.stop().then(() => process.exit(0));
   process.on('SIGINT', stop);
   process.on('SIGTERM', stop);
@@ -26,7 +35,7 @@ a second shop: tech@other.test.  Stop with Ctrl-C; stop the database with "npm r
 }
 
 async function dev(): Promise<number> {
-  const url = await prepareDatabase('main');
+  const url = await prepareDatabase('main', modeFromEnv());
   const env = { ...process.env, DATABASE_URL: url, NODE_ENV: 'development' };
   const api = runInherit(bin('tsx'), ['watch', join(root, 'apps', 'server', 'src', 'main.ts')], env);
   const web = runInherit(join(root, 'apps', 'web', 'node_modules', '.bin', 'vite'), [], env, join(root, 'apps', 'web'));
@@ -82,6 +91,8 @@ async function test(): Promise<number> {
 
   await step('typecheck', bin('tsx'), [join(root, 'scripts', 'typecheck.ts')]);
   await step('lint', bin('eslint'), ['.', '--max-warnings=0']);
+  // Dead exports, unused files and dependencies nobody imports (knip.json says where each workspace starts).
+  await step('lint: dead code (knip)', bin('knip'), ['--no-progress']);
   const unitJson = join(reports, 'unit.json');
   await step('unit tests', bin('vitest'), ['run', '--project', 'unit', '--reporter=default', '--reporter=json', `--outputFile.json=${unitJson}`], () => vitestCounts(unitJson));
   const intJson = join(reports, 'integration.json');
@@ -97,16 +108,26 @@ async function test(): Promise<number> {
   results.push({ name: 'fault injection (short)', ok: faults.ok, passed: faults.ok ? 1 : 0, failed: faults.ok ? 0 : 1 });
 
   await buildWeb();
-  const port = String(await findFreePort(5300));
-  // The local mail capture and payment fakes on free ports too, so `npm test` runs beside a running `npm start`.
-  const fakes = { SMTP_PORT: String(await findFreePort(2600)), PAYMENTS_PORT: String(await findFreePort(12200)) };
-  const server = await spawnServer({ DATABASE_URL: url, PORT: port, LOGIN_RATE_LIMIT: '1000', ...fakes }, { quiet: true });
+  // Two servers: the demo one for most browser tests, and one in shop mode with its own empty database for the
+  // first-run spec. The local mail capture and payment fakes on free ports too, so `npm test` runs beside a
+  // running `npm start`.
+  // Separate ranges: a server's fakes start just after it answers, so a second search could find their ports free.
+  const free = async (o: number) => ({ PORT: String(await findFreePort(5300 + o)), SMTP_PORT: String(await findFreePort(2600 + o)), PAYMENTS_PORT: String(await findFreePort(12200 + o)) });
+  const server = await spawnServer({ DATABASE_URL: url, LOGIN_RATE_LIMIT: '1000', ...(await free(0)) }, { quiet: true });
+  let shopServer: Awaited<ReturnType<typeof spawnServer>> | undefined;
   const e2eJson = join(reports, 'e2e.json');
   try {
+    const shopUrl = await prepareDatabase('test', 'shop');
+    shopServer = await spawnServer(
+      { DATABASE_URL: shopUrl, SPLITSCOPE_MODE: 'shop', LOGIN_RATE_LIMIT: '1000', MAIL_CAPTURE_DIR: join(root, '.data', 'mail-shop-test'), ...(await free(100)) },
+      { quiet: true },
+    );
     env.BASE_URL = server.url;
+    env.SHOP_BASE_URL = shopServer.url;
     env.PLAYWRIGHT_JSON_OUTPUT_NAME = e2eJson;
     await step('browser tests (Chromium)', bin('playwright'), ['test'], () => playwrightCounts(e2eJson));
   } finally {
+    await shopServer?.stop();
     await server.stop();
   }
 
@@ -136,7 +157,7 @@ async function main(): Promise<number> {
     case 'test':
       return test();
     case 'setup':
-      await prepareDatabase('main');
+      await prepareDatabase('main', modeFromEnv());
       return 0;
     case 'db:stop': {
       const a = stopCluster(clusterSpec('main'));

@@ -199,7 +199,8 @@ export async function dropStaleTestDatabases(cluster: Cluster, prefix: string): 
   try {
     const { rows } = await client.query<{ datname: string }>('SELECT datname FROM pg_database WHERE datname LIKE $1', [`${prefix}%`]);
     for (const { datname } of rows) {
-      const pid = Number(datname.slice(prefix.length));
+      // "<pid>" or "<pid>_shop": the run that made it owns both.
+      const pid = Number.parseInt(datname.slice(prefix.length), 10);
       let alive = false;
       try {
         process.kill(pid, 0);

@@ -26,19 +26,31 @@ export function clusterSpec(kind: 'main' | 'test'): ClusterSpec {
   };
 }
 
-/** Cluster up, database there (recreated for tests), migrations applied, demo seeded. Returns DATABASE_URL. */
-export async function prepareDatabase(kind: 'main' | 'test'): Promise<string> {
+export type AppMode = 'demo' | 'shop';
+
+/** The mode `npm start` runs in: SPLITSCOPE_MODE=shop for a real shop, the demo otherwise. */
+export const modeFromEnv = (): AppMode => (process.env.SPLITSCOPE_MODE === 'shop' ? 'shop' : 'demo');
+
+/**
+ * Cluster up, database there (recreated for tests), migrations applied, demo seeded in demo mode. A real shop
+ * has its own database (`splitscope_shop` unless SPLITSCOPE_DB_NAME says otherwise), so demo rows never meet it.
+ * Returns DATABASE_URL.
+ */
+export async function prepareDatabase(kind: 'main' | 'test', mode: AppMode = 'demo'): Promise<string> {
   const t0 = Date.now();
   const cluster = await ensureCluster(clusterSpec(kind));
-  if (kind === 'test') await dropStaleTestDatabases(cluster, TEST_DB_PREFIX);
-  const name = kind === 'main' ? (process.env.SPLITSCOPE_DB_NAME ?? 'splitscope') : `${TEST_DB_PREFIX}${process.pid}`;
+  if (kind === 'test' && mode === 'demo') await dropStaleTestDatabases(cluster, TEST_DB_PREFIX);
+  const name =
+    kind === 'main'
+      ? (process.env.SPLITSCOPE_DB_NAME ?? (mode === 'shop' ? 'splitscope_shop' : 'splitscope'))
+      : `${TEST_DB_PREFIX}${process.pid}${mode === 'shop' ? '_shop' : ''}`;
   const url = await ensureDatabase(cluster, name, { recreate: kind === 'test' });
-  const { created } = await migrateAndSeed(url);
+  const { created, seeded } = await migrateAndSeed(url, mode);
   // Lets a developer run one integration test file by hand against the same database.
-  if (kind === 'test') writeFileSync(join(root, '.data', 'test-url'), url + '\n');
+  if (kind === 'test' && mode === 'demo') writeFileSync(join(root, '.data', 'test-url'), url + '\n');
   console.log(
     `splitscope: PostgreSQL on 127.0.0.1:${cluster.port} (${cluster.dir}), database ${name} migrated` +
-      (created ? `, demo seeded (${created} users)` : ', demo already seeded') +
+      (!seeded ? ' (shop mode: no demo seed)' : created ? `, demo seeded (${created} users)` : ', demo already seeded') +
       ` in ${Date.now() - t0} ms`,
   );
   return url;

@@ -11,6 +11,7 @@ import { diagnosisRoutes } from './features/diagnosis/routes';
 import { jobRoutes } from './features/jobs/routes';
 import { readingRoutes } from './features/readings/routes';
 import { repairRoutes } from './features/repairs/routes';
+import { reportRoutes } from './features/reports';
 import { reviewRoutes } from './features/reviews/routes';
 import { uploadRoutes } from './features/uploads/routes';
 import { userRoutes } from './features/users/routes';
@@ -18,7 +19,9 @@ import { billingApiRoutes } from './features/billing/api';
 import { paymentWebhookRoutes } from './features/billing/webhook';
 import { customerPortalRoutes } from './features/customer-portal/routes';
 import { healthRoutes } from './features/health/routes';
+import { shopRoutes } from './features/shops/routes';
 import { errorHandler, notFoundApi } from './http/errors';
+import { hostAllowList } from './http/host';
 import { originCheck } from './http/origin';
 
 /** Builds the Express app; `main.ts` listens, the integration tests call it in-process. */
@@ -26,11 +29,21 @@ export function createApp(ctx: AppContext): Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  app.use(hostAllowList({ publicUrl: ctx.config.PUBLIC_URL, host: ctx.config.HOST }));
+  // Over plain HTTP (a shop's LAN address) `upgrade-insecure-requests` would send every script to an https port
+  // nobody serves, and HSTS would lock the name to https: both only when the public address is https.
+  const https = ctx.config.PUBLIC_URL?.startsWith('https://') ?? false;
   app.use(
     helmet({
       contentSecurityPolicy: {
-        directives: { 'img-src': ["'self'", 'data:', 'blob:'], 'script-src': ["'self'"], 'style-src': ["'self'", "'unsafe-inline'"] },
+        directives: {
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'script-src': ["'self'"],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'upgrade-insecure-requests': https ? [] : null,
+        },
       },
+      strictTransportSecurity: https,
     }),
   );
 
@@ -39,12 +52,18 @@ export function createApp(ctx: AppContext): Express {
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
   api.use(originCheck(ctx.config.PUBLIC_URL));
+  // API answers are for the person who asked, at that moment: no browser or proxy keeps them (uploads set their own).
+  api.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
   api.use(healthRoutes(ctx));
   api.use(customerPortalRoutes(ctx));
   api.use(sessionMiddleware(ctx.auth));
   // First after the session: a reading write is the busiest request, and every router ahead of it is tried in turn.
   api.use(readingRoutes(ctx));
   api.use(authRoutes(ctx));
+  api.use(shopRoutes(ctx));
   api.use(userRoutes(ctx));
   api.use(customerRoutes(ctx));
   api.use(boardRoutes(ctx));
@@ -52,6 +71,7 @@ export function createApp(ctx: AppContext): Express {
   api.use(diagnosisRoutes(ctx));
   api.use(reviewRoutes(ctx));
   api.use(repairRoutes(ctx));
+  api.use(reportRoutes(ctx));
   api.use(uploadRoutes(ctx));
   api.use(billingApiRoutes(ctx));
   api.use(notFoundApi);

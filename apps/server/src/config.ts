@@ -1,8 +1,12 @@
+import { randomBytes } from 'node:crypto';
 import { z } from 'zod';
+import { localFakesOn } from './features/mail/local';
 
 // Every variable the server reads, parsed once at start-up. `.env.example` documents each one.
 const schema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  /** `demo`: the invented demo shop (seeded by `npm start`); `shop`: a real shop, set up on the first-run page. */
+  SPLITSCOPE_MODE: z.enum(['demo', 'shop']).default('demo'),
   HOST: z.string().default('127.0.0.1'),
   PORT: z.coerce.number().int().min(0).max(65535).default(5180), // 0: any free port (tests)
   DATABASE_URL: z.string().url({ message: 'must be a postgres:// URL' }),
@@ -35,14 +39,21 @@ const schema = z.object({
   PAYMENTS_PORT: z.coerce.number().int().min(1).max(65535).default(12111),
   PAYMENTS_PROTOCOL: z.enum(['http', 'https']).default('http'),
   PAYMENTS_SECRET_KEY: z.string().default('sk_test_local_fake'),
-  PAYMENTS_WEBHOOK_SECRET: z.string().default('whsec_local_fake'),
+  /**
+   * The payment service's webhook signing secret. Required outside the local fakes; with them, a random one is
+   * made for each run and shared with the fake payment service in the same process.
+   */
+  PAYMENTS_WEBHOOK_SECRET: z.string().trim().min(1).optional(),
   LOG_REQUESTS: z
     .enum(['0', '1'])
     .default('0')
     .transform((v) => v === '1'),
 });
 
-export type Config = z.infer<typeof schema>;
+export type Config = Omit<z.infer<typeof schema>, 'PAYMENTS_WEBHOOK_SECRET'> & { PAYMENTS_WEBHOOK_SECRET: string };
+
+// Values printed in the repository and its history: anyone can sign or call with them, so they count as none.
+const PUBLISHED = new Set(['whsec_local_fake', 'sk_test_local_fake']);
 
 export class ConfigError extends Error {}
 
@@ -53,5 +64,13 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
     throw new ConfigError(`invalid configuration:\n${lines.join('\n')}`);
   }
-  return parsed.data;
+  const c = parsed.data;
+  if (localFakesOn(c)) return { ...c, PAYMENTS_WEBHOOK_SECRET: c.PAYMENTS_WEBHOOK_SECRET ?? `whsec_${randomBytes(32).toString('base64url')}` };
+  // Against the hosted payment service a forged `checkout.session.completed` would mark invoices paid: the
+  // server does not start on a secret anyone could know.
+  const missing: string[] = [];
+  if (!c.PAYMENTS_WEBHOOK_SECRET || PUBLISHED.has(c.PAYMENTS_WEBHOOK_SECRET)) missing.push('  PAYMENTS_WEBHOOK_SECRET: the signing secret of the payment webhook (required without LOCAL_FAKES=1)');
+  if (PUBLISHED.has(c.PAYMENTS_SECRET_KEY)) missing.push('  PAYMENTS_SECRET_KEY: the payment service key (required without LOCAL_FAKES=1)');
+  if (missing.length) throw new ConfigError(`invalid configuration:\n${missing.join('\n')}`);
+  return { ...c, PAYMENTS_WEBHOOK_SECRET: c.PAYMENTS_WEBHOOK_SECRET! };
 }

@@ -8,7 +8,7 @@ try {
   console.log(`splitscope: server listening on ${running.url}`);
   // The status e-mail sweep, and with LOCAL_FAKES the SMTP capture server and the fake payment API.
   const billing = await startBillingServices(running.ctx, running.url);
-  const stop = () => billing.stop().then(() => running.close()).then(() => process.exit(0));
+  const stop = () => void billing.stop().then(() => running.close()).then(() => process.exit(0));
   process.on('SIGTERM', stop);
   process.on('SIGINT', stop);
 } catch (err) {

@@ -1,7 +1,9 @@
 import type { Server } from 'node:http';
 import { createApp } from './app';
 import { createAuth } from './auth/lucia';
-import type { Config } from './config';
+import { inArray } from 'drizzle-orm';
+import { ConfigError, type Config } from './config';
+import { shops } from './db/schema';
 import { createDatabase } from './db/client';
 import type { AppContext } from './context';
 import { holdDiagnosisPool, releaseDiagnosisPool } from './features/diagnosis/pool';
@@ -17,6 +19,14 @@ export interface RunningServer {
 /** Starts the HTTP server on the configured host and port (port 0 picks a free one). */
 export async function startServer(config: Config): Promise<RunningServer> {
   const { db, pool } = createDatabase(config.DATABASE_URL, config.DB_POOL_SIZE);
+  if (config.SPLITSCOPE_MODE === 'shop') {
+    // The demo's people sign in with a published password: a real shop never runs on a database that has them.
+    const demo = await db.select({ id: shops.id }).from(shops).where(inArray(shops.id, ['shop-demo', 'shop-other']));
+    if (demo.length) {
+      await pool.end();
+      throw new ConfigError('SPLITSCOPE_MODE=shop, but this database holds the demo shop; give the real shop its own database (DATABASE_URL or SPLITSCOPE_DB_NAME)');
+    }
+  }
   const secureCookies = config.PUBLIC_URL?.startsWith('https://') ?? false;
   const ctx: AppContext = { config, db, pool, auth: createAuth(db, { secureCookies }), storage: new DiskStorage(config.UPLOAD_DIR) };
   const app = createApp(ctx);

@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '@splitscope/contract';
 import { eq } from 'drizzle-orm';
 import { createApp } from '../src/app';
-import { jobs } from '../src/db/schema';
+import { invitations, jobs } from '../src/db/schema';
 import type { RunningServer } from '../src/server';
 import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
@@ -16,7 +16,7 @@ const REVIEWERS: Role[] = ['admin', 'lead'];
 const ADMIN: Role[] = ['admin'];
 
 /** `kind` names which row an `:id` stands for; `public` routes answer without a session. */
-type Kind = 'job' | 'customer' | 'board' | 'user' | 'upload' | 'quote' | 'invoice';
+type Kind = 'job' | 'customer' | 'board' | 'user' | 'upload' | 'quote' | 'invoice' | 'invitation';
 interface Entry {
   method: string;
   path: string;
@@ -27,6 +27,8 @@ interface Entry {
   billing?: boolean;
   /** A body that passes validation, so the shop scoping (404) is reached; default {}. */
   body?: () => unknown;
+  /** The call ends the caller's sessions: the role's client signs in again after it. */
+  endsSession?: boolean;
   /** Own-shop answers that differ from "allowed": a trainee records readings only on jobs assigned to them. */
   own?: Partial<Record<Role, number>>;
 }
@@ -40,15 +42,27 @@ const TABLE: Entry[] = [
   { method: 'POST', path: '/api/auth/sign-out', public: true },
   { method: 'GET', path: '/api/auth/session', public: true },
   { method: 'POST', path: '/api/auth/accept-invitation', public: true },
+  { method: 'GET', path: '/api/setup', public: true },
+  { method: 'POST', path: '/api/setup', public: true },
+  { method: 'POST', path: '/api/auth/password-reset', public: true },
+  { method: 'POST', path: '/api/auth/password-reset/confirm', public: true },
   { method: 'GET', path: '/api/me', roles: ALL },
+  { method: 'POST', path: '/api/me/password', roles: ALL },
+  { method: 'POST', path: '/api/auth/sign-out-everywhere', roles: ALL, endsSession: true },
+  { method: 'GET', path: '/api/shop', roles: ALL },
+  { method: 'PATCH', path: '/api/shop', roles: ADMIN, body: () => ({ sessionIdleHours: 12 }) },
   { method: 'GET', path: '/api/users', roles: ALL },
   { method: 'GET', path: '/api/users/invitations', roles: ADMIN },
   { method: 'POST', path: '/api/users/invitations', roles: ADMIN },
   { method: 'PATCH', path: '/api/users/:id', roles: ADMIN, kind: 'user', body: () => ({ role: 'trainee' }) },
+  // Without a mail server here the admin's resend answers 503: past the guard and the shop check.
+  { method: 'POST', path: '/api/users/invitations/:id/resend', roles: ADMIN, kind: 'invitation' },
   { method: 'GET', path: '/api/customers', roles: ALL },
   { method: 'POST', path: '/api/customers', roles: BENCH },
   { method: 'GET', path: '/api/customers/:id', roles: ALL, kind: 'customer' },
   { method: 'PATCH', path: '/api/customers/:id', roles: REVIEWERS, kind: 'customer', body: () => ({ notes: 'matrix' }) },
+  // Merging a customer into itself: 422 in the own shop (after the shop check), 404 for another shop's customer.
+  { method: 'POST', path: '/api/customers/:id/merge', roles: REVIEWERS, kind: 'customer', body: () => ({ duplicateId: ids.own.customer }) },
   { method: 'GET', path: '/api/boards', roles: ALL },
   { method: 'POST', path: '/api/boards', roles: ADMIN },
   { method: 'GET', path: '/api/boards/:id', roles: ALL, kind: 'board' },
@@ -62,12 +76,22 @@ const TABLE: Entry[] = [
   { method: 'PATCH', path: '/api/jobs/:id', roles: BENCH, kind: 'job', body: () => ({ priority: 'normal' }) },
   { method: 'GET', path: '/api/jobs/:id/readings', roles: ALL, kind: 'job' },
   { method: 'POST', path: '/api/jobs/:id/readings', roles: ALL, kind: 'job', body: readingBody, own: { trainee: 403 } },
+  // No reading has the id `:readingId`: a role past the guard gets the 404 of the reading, a trainee the 403 of a job not theirs.
+  {
+    method: 'POST',
+    path: '/api/jobs/:id/readings/:readingId/strike',
+    roles: ALL,
+    kind: 'job',
+    body: () => ({ reason: 'matrix strike' }),
+    own: { admin: 404, lead: 404, tech: 404, trainee: 403 },
+  },
   { method: 'GET', path: '/api/jobs/:id/diagnosis', roles: ALL, kind: 'job' },
   { method: 'GET', path: '/api/jobs/:id/diagnosis-snapshots', roles: ALL, kind: 'job' },
   { method: 'GET', path: '/api/jobs/:id/reviews', roles: ALL, kind: 'job' },
   { method: 'POST', path: '/api/jobs/:id/reviews', roles: REVIEWERS, kind: 'job', body: () => ({ decision: 'approve' }) },
   { method: 'GET', path: '/api/jobs/:id/repairs', roles: ALL, kind: 'job' },
   { method: 'POST', path: '/api/jobs/:id/repairs', roles: BENCH, kind: 'job', body: () => ({ part: 'R1', action: 'cleaned' }) },
+  { method: 'GET', path: '/api/jobs/:id/report', roles: ALL, kind: 'job' },
   { method: 'POST', path: '/api/uploads', roles: ALL },
   { method: 'GET', path: '/api/uploads/:id', roles: ALL, kind: 'upload' },
   { method: 'GET', path: '/api/jobs/:id/uploads', roles: ALL, kind: 'job' },
@@ -119,7 +143,12 @@ beforeAll(async () => {
     await db.update(jobs).set({ status: 'verified' }).where(eq(jobs.id, verified.id));
     const invoice = await c.post(`/api/jobs/${verified.id}/invoices`, { ...quoteBody(), send: false });
     expect([quote.status, invoice.status]).toEqual([201, 201]);
+    const [inv] = await db
+      .insert(invitations)
+      .values({ id: crypto.randomUUID(), shopId, email: `matrix-${side}-${crypto.randomUUID()}@matrix.test`, name: 'Matrix Invitee', role: 'tech', tokenHash: crypto.randomUUID(), invitedBy: side === 'own' ? 'user-admin' : author, expiresAt: new Date(Date.now() + 86_400_000) })
+      .returning();
     ids[side] = {
+      invitation: inv!.id,
       job: job.id,
       customer: customer.id,
       board: board.id,
@@ -157,6 +186,7 @@ describe('authorization matrix', () => {
       if (!e.roles) return;
       for (const role of ALL) {
         const own = await call(clients[role], e, 'own');
+        if (e.endsSession) clients[role] = await new Client(server.url).signIn(`${role}@demo.test`);
         const special = e.own?.[role];
         if (special) expect(own.status, `${role} own shop`).toBe(special);
         else if (e.roles.includes(role)) expect([401, 403, 404], `${role} own shop`).not.toContain(own.status);

@@ -1,76 +1,26 @@
 // The customer flow end to end against PostgreSQL, the real SMTP capture server and the fake payment API,
 // all on loopback: quote e-mailed → link → approve → invoice → hosted checkout → signed webhook → paid.
 import { eq } from 'drizzle-orm';
-import { mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
-import { tmpdir } from 'node:os';
-import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { FakePayments } from '../dev/fakes/payments';
+import type { SmtpCapture } from '../dev/fakes/smtp-capture';
 import type { Db } from '../src/db/client';
-import { boardModels, boardModelVersions, customerLinks, customers, jobs, paymentEvents, payments } from '../src/db/schema';
-import { startFakePayments, type FakePayments } from '../src/fakes/payments';
-import { startSmtpCapture, type CapturedMessage, type SmtpCapture } from '../src/fakes/smtp-capture';
+import { boardModels, customerLinks, jobs, paymentEvents, payments } from '../src/db/schema';
 import { sendDueStatusMail } from '../src/features/billing/milestones';
 import { createCustomerLink, hashToken } from '../src/features/billing/links';
 import { newId } from '../src/lib/ids';
 import type { RunningServer } from '../src/server';
-import { Client, startTestServer } from './harness';
+import { linkIn, SHOP, startBillingRig, type BillingRig } from './billing-fixture';
+import { Client } from './harness';
 
-const SHOP = 'shop-demo';
+let rig: BillingRig;
 let server: RunningServer;
 let smtp: SmtpCapture;
 let pay: FakePayments;
 let db: Db;
-let dir: string;
 let admin: Client;
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const s = createServer();
-    s.once('error', reject);
-    s.listen(0, '127.0.0.1', () => {
-      const port = (s.address() as { port: number }).port;
-      s.close(() => resolve(port));
-    });
-  });
-}
-
-let jobCounter = 0;
-/** A job of the demo shop with its own customer and board (billing reads them; it never writes jobs' own data). */
-async function makeJob(opts: { status?: (typeof jobs.$inferInsert)['status']; customerName: string; email: string | null }) {
-  const tag = newId().slice(0, 8);
-  const boardId = newId();
-  const versionId = newId();
-  await db.insert(boardModels).values({ id: boardId, shopId: SHOP, key: `billing-test-${tag}`, name: `Outdoor fan board ${tag.toUpperCase()}`, currentVersion: 1 });
-  await db.insert(boardModelVersions).values({ id: versionId, boardId, version: 1, document: {}, expectedReadings: [] });
-  const customerId = newId();
-  await db.insert(customers).values({ id: customerId, shopId: SHOP, name: opts.customerName, company: 'Tidewater Mechanical (invented)', email: opts.email, kind: 'contractor' });
-  const id = newId();
-  const number = 900_000 + Math.floor(Math.random() * 90_000) + ++jobCounter;
-  await db.insert(jobs).values({
-    id,
-    shopId: SHOP,
-    number,
-    customerId,
-    unitDescription: 'Wall split outdoor unit, 3.5 kW',
-    serial: `SN-${tag}`,
-    boardId,
-    boardVersionId: versionId,
-    faultCode: 'E7',
-    symptom: 'outdoor fan never starts',
-    status: opts.status ?? 'received',
-    createdBy: 'user-lead',
-  });
-  return { id, number, customerId };
-}
-
-const setStatus = (id: string, status: (typeof jobs.$inferInsert)['status']) => db.update(jobs).set({ status, updatedAt: new Date() }).where(eq(jobs.id, id));
-
-const linkIn = (m: CapturedMessage) => {
-  const match = /\/c\/([A-Za-z0-9_-]{43})\b/.exec(m.text ?? '');
-  if (!match) throw new Error(`no customer link in: ${m.text}`);
-  return match[1]!;
-};
+const makeJob: BillingRig['makeJob'] = (opts) => rig.makeJob(opts);
+const setStatus: BillingRig['setStatus'] = (id, status) => rig.setStatus(id, status);
 
 const QUOTE_LINES = [
   { kind: 'part', description: 'Opto-coupler, fan drive', quantity: '1', unitCents: 450 },
@@ -79,33 +29,11 @@ const QUOTE_LINES = [
 ];
 
 beforeAll(async () => {
-  dir = mkdtempSync(join(tmpdir(), 'splitscope-mail-'));
-  smtp = await startSmtpCapture({ port: 0, dir });
-  pay = await startFakePayments({ port: 0, secretKey: 'sk_test_local_fake', webhookSecret: 'whsec_local_fake' });
-  const port = await freePort();
-  server = await startTestServer({
-    PORT: String(port),
-    PUBLIC_URL: `http://127.0.0.1:${port}`,
-    SMTP_PORT: String(smtp.port),
-    PAYMENTS_PORT: String(pay.port),
-    PAYMENTS_SECRET_KEY: 'sk_test_local_fake',
-    PAYMENTS_WEBHOOK_SECRET: 'whsec_local_fake',
-    MAIL_CAPTURE_DIR: dir,
-    LOCAL_FAKES: '1',
-  });
-  pay.setWebhookUrl(`${server.url}/api/webhooks/payments`);
-  db = server.ctx.db;
-  admin = await new Client(server.url).signIn('admin@demo.test');
-  const s = await admin.patch('/api/billing/settings', { taxRate: '8.25', currency: 'usd', notifyOn: [] });
-  expect(s.status).toBe(200);
+  rig = await startBillingRig();
+  ({ server, smtp, pay, db, admin } = rig);
 });
 
-afterAll(async () => {
-  await server?.close();
-  await smtp?.close();
-  await pay?.close();
-  rmSync(dir, { recursive: true, force: true });
-});
+afterAll(() => rig?.close());
 
 describe('quote → customer page → invoice → payment', () => {
   it('runs the whole flow, pays once on a replayed webhook and refuses a bad signature', async () => {

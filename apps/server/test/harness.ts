@@ -44,3 +44,27 @@ export class Client {
     return this;
   }
 }
+
+/** A new, migrated, empty database beside the test database (for shop mode); dropped again by `drop`. */
+export async function createEmptyDatabase(name: string): Promise<{ url: string; drop(): Promise<void> }> {
+  const { default: pg } = await import('pg');
+  const { createDatabase } = await import('../src/db/client');
+  const { runMigrations } = await import('../src/db/migrate');
+  const base = process.env.DATABASE_URL!;
+  const admin = new pg.Client({ connectionString: base });
+  await admin.connect();
+  const quoted = `"${name.replace(/"/g, '""')}"`;
+  await admin.query(`DROP DATABASE IF EXISTS ${quoted} WITH (FORCE)`);
+  await admin.query(`CREATE DATABASE ${quoted}`);
+  const url = base.replace(/\/[^/?]+(\?|$)/, `/${name}$1`);
+  const { db, pool } = createDatabase(url, 2);
+  await runMigrations(db);
+  await pool.end();
+  return {
+    url,
+    drop: async () => {
+      await admin.query(`DROP DATABASE IF EXISTS ${quoted} WITH (FORCE)`);
+      await admin.end();
+    },
+  };
+}

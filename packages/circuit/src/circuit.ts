@@ -223,8 +223,3 @@ export function withoutParts(c: Circuit, parts: readonly string[]): Circuit {
   const set = new Set(parts.map((p) => p.toLowerCase()));
   return { ...c, elements: c.elements.filter((e) => !set.has(e.part.toLowerCase())) };
 }
-
-/** Nodes touched by an element (for F/H the controlling source is not a node). */
-export function elementNodes(e: Element): readonly string[] {
-  return e.nodes;
-}

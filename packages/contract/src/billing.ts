@@ -160,12 +160,14 @@ export const moneyText = z
   .transform(parseMoney)
   .refine((c) => c <= MAX_CENTS, 'Amount too large');
 
+// The range is checked before the text is turned into a number: `parseTaxRate` throws above 100 %, and a throw
+// inside a transform is a server error, not the client's 422.
 const taxRateText = z
   .string()
   .trim()
   .regex(taxRatePattern, 'tax rate must look like 8.25')
-  .transform(parseTaxRate)
-  .refine((v) => v <= MAX_TAX_RATE_MILLI_PERCENT, 'tax rate must be at most 100 %');
+  .refine((t) => Number(t) <= MAX_TAX_RATE_MILLI_PERCENT / 1000, 'tax rate must be at most 100 %')
+  .transform(parseTaxRate);
 
 export const billingLineInput = z.object({
   kind: lineKindSchema,
@@ -177,8 +179,23 @@ export const billingLineInput = z.object({
 });
 export type BillingLineInput = z.input<typeof billingLineInput>;
 
+/**
+ * The largest subtotal a document may have: with tax at the highest rate (100 %) the total still fits
+ * MAX_CENTS, so no tax rate chosen later can price a stored document out of range.
+ */
+export const MAX_SUBTOTAL_CENTS = MAX_CENTS / 2;
+
 /** The lines of a quote or an invoice: one schema for both documents. */
-export const billingLinesInput = z.array(billingLineInput).min(1).max(100);
+export const billingLinesInput = z
+  .array(billingLineInput)
+  .min(1)
+  .max(100)
+  .refine(
+    // In BigInt: a quantity of 999,999.99 at the largest unit price is past 2^53 and would lose digits. The
+    // margin of one unit covers each line's rounding to the cent (at most half a cent a line, 100 lines).
+    (lines) => lines.reduce((s, l) => s + BigInt(l.quantity) * BigInt(l.unitCents), 0n) <= BigInt(MAX_SUBTOTAL_CENTS - 100) * 100n,
+    `the lines add up to more than ${formatMoney(MAX_SUBTOTAL_CENTS - 100, '').trim()} in the shop's currency`,
+  );
 export type BillingLinesInput = z.output<typeof billingLinesInput>;
 
 /** A line as stored and priced (quantity in hundredths); what `computeTotals` takes. */
@@ -222,6 +239,8 @@ export const quoteSchema = z.object({
   customerApproval: z.enum(['approved', 'declined']).nullable(),
   decidedAt: isoDateTime.nullable(),
   declineReason: z.string().nullable(),
+  /** the address the customer link that carried the answer was mailed to (the shop's record of who answered) */
+  decidedByEmail: z.string().nullable(),
   sentAt: isoDateTime.nullable(),
   sentTo: z.string().nullable(),
   createdAt: isoDateTime,
@@ -244,8 +263,6 @@ export type CreateQuoteRequest = z.input<typeof createQuoteRequest>;
 
 export const updateQuoteRequest = createQuoteRequest.partial();
 export type UpdateQuoteRequest = z.input<typeof updateQuoteRequest>;
-
-export const quoteListResponse = z.object({ items: z.array(quoteSchema) });
 
 export const invoiceStatuses = ['issued', 'paid', 'void'] as const;
 export const invoiceStatusSchema = z.enum(invoiceStatuses);
@@ -271,8 +288,6 @@ export const createInvoiceRequest = z.object({
   send: z.boolean().default(true),
 });
 export type CreateInvoiceRequest = z.input<typeof createInvoiceRequest>;
-
-export const invoiceListResponse = z.object({ items: z.array(invoiceSchema) });
 
 export const jobBillingResponse = z.object({
   jobId: idSchema,
@@ -323,8 +338,6 @@ export type SendRequest = z.input<typeof sendRequest>;
 export const sentResponse = z.object({ mailId: idSchema, to: z.string(), sentAt: isoDateTime });
 export type Sent = z.infer<typeof sentResponse>;
 
-export const notifyRequest = z.object({ milestone: mailMilestoneSchema });
-
 // --- the customer page (no sign-in; everything scoped to the job of the link) --------------------------
 
 export const publicJobSchema = z.object({
@@ -336,7 +349,7 @@ export const publicJobSchema = z.object({
   statusLabel: z.string(),
   reportAvailable: z.boolean(),
   expiresAt: isoDateTime,
-  quotes: z.array(quoteSchema.omit({ sentTo: true })),
+  quotes: z.array(quoteSchema.omit({ sentTo: true, decidedByEmail: true })),
   invoices: z.array(invoiceSchema),
 });
 export type PublicJob = z.infer<typeof publicJobSchema>;

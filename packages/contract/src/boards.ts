@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { counterSchema } from './bounds';
 import { idSchema, isoDateTime, optionalText } from './common';
 import { meterModeSchema, powerStateSchema, readingUnitSchema } from './readings';
 
@@ -61,7 +62,7 @@ export type BoardDetail = z.infer<typeof boardDetailSchema>;
 export const boardListResponse = z.object({ items: z.array(boardSummarySchema) });
 export type BoardList = z.infer<typeof boardListResponse>;
 
-export const boardDetailQuery = z.object({ version: z.coerce.number().int().positive().optional() });
+export const boardDetailQuery = z.object({ version: z.coerce.number().pipe(counterSchema).optional() });
 
 export const createBoardRequest = z.object({ document: boardDocumentSchema, note: optionalText(500) });
 export type CreateBoardRequest = z.infer<typeof createBoardRequest>;

@@ -44,3 +44,13 @@ export type CustomerListQuery = z.infer<typeof customerListQuery>;
 
 export const customerListResponse = z.object({ items: z.array(customerSchema) });
 export type CustomerList = z.infer<typeof customerListResponse>;
+
+/** Merge a duplicate into this customer: its jobs, quotes and invoices move here, then it is removed. */
+export const mergeCustomerRequest = z.object({ duplicateId: idSchema });
+export type MergeCustomerRequest = z.infer<typeof mergeCustomerRequest>;
+
+export const mergeCustomerResponse = z.object({
+  customer: customerSchema,
+  moved: z.object({ jobs: z.number().int(), quotes: z.number().int(), invoices: z.number().int() }),
+});
+export type MergeCustomerResult = z.infer<typeof mergeCustomerResponse>;

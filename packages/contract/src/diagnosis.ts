@@ -29,7 +29,15 @@ export const diagnosisCandidateSchema = z.object({
   evidence: z.array(diagnosisEvidenceSchema),
 });
 
-export const diagnosisPartSchema = z.object({ part: z.string(), mode: z.string(), probability: z.number() });
+export const diagnosisPartSchema = z.object({
+  part: z.string(),
+  mode: z.string(),
+  probability: z.number(),
+  /** The designator printed on the board ("U1" for the element XU1). */
+  designator: z.string().optional(),
+  /** The fault in the bench's words: "U1 opto — LED open". */
+  label: z.string().optional(),
+});
 
 /** A proposed next measurement, how much it is expected to tell and what it costs at the bench. */
 export const nextTestSchema = z.object({
@@ -43,6 +51,11 @@ export const nextTestSchema = z.object({
   cost: z.number(),
   /** The sentence the bench screen shows ("Unplug, discharge the bus, then ..."). */
   instruction: z.string(),
+  /** Where the probes go in the bench's words: a test point, a connector pin or the nearest part pin. */
+  redLabel: z.string().optional(),
+  blackLabel: z.string().optional(),
+  /** The lifted parts by their designators. */
+  liftedLabels: z.array(z.string()).optional(),
 });
 
 /** The output of `circuit diagnose` for a job's current readings, plus where it came from. */

@@ -1,7 +1,10 @@
 // The one contract between the server and the web app: request/response schemas and their types.
+// First: installs the validation messages (a zod error map) before any schema below is used.
+import './messages';
 export * from './auth';
 export * from './problem';
 export * from './common';
+export * from './bounds';
 export * from './customers';
 export * from './users';
 export * from './readings';
@@ -14,3 +17,9 @@ export * from './jobs';
 export * from './billing';
 export * from './board-model';
 export * from './safety-gate';
+export * from './shop';
+export * from './policy-bench';
+export * from './board-words';
+export * from './verification';
+export * from './policy';
+export * from './report';

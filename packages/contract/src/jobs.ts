@@ -1,8 +1,10 @@
 import { z } from 'zod';
 import { boardDetailSchema } from './boards';
-import { idSchema, isoDateTime, optionalText } from './common';
+import { counterSchema } from './bounds';
+import { idSchema, isoDateTime, isoDateTimeInput, optionalText } from './common';
 import { customerSchema } from './customers';
 import { diagnosisSnapshotSchema } from './diagnosis';
+import { returnMethods } from './policy-bench';
 import { reviewSchema } from './reviews';
 
 export const jobStatuses = ['received', 'diagnosing', 'awaiting-review', 'approved', 'repaired', 'verified', 'returned'] as const;
@@ -17,20 +19,6 @@ export const jobStatusLabels: Record<JobStatus, string> = {
   repaired: 'Repaired',
   verified: 'Verified',
   returned: 'Returned',
-};
-
-/**
- * The job status flow. Approval and sending back happen through a review (POST /jobs/:id/reviews);
- * a repaired board whose verification fails goes back to diagnosing.
- */
-export const jobTransitions: Record<JobStatus, readonly JobStatus[]> = {
-  received: ['diagnosing'],
-  diagnosing: ['awaiting-review'],
-  'awaiting-review': ['approved', 'diagnosing'],
-  approved: ['repaired'],
-  repaired: ['verified', 'diagnosing'],
-  verified: ['returned'],
-  returned: [],
 };
 
 export const priorities = ['low', 'normal', 'high'] as const;
@@ -56,12 +44,19 @@ export const jobSchema = z.object({
   /** True after a reviewer sent the diagnosis back, until it is proposed again. */
   sentBack: z.boolean(),
   proposedPart: z.string().nullable(),
+  /** The technician's note with the proposal, for the reviewing lead. */
+  proposalNote: z.string().nullable(),
   assigneeId: idSchema.nullable(),
   assigneeName: z.string().nullable(),
   priority: prioritySchema,
   receivedAt: isoDateTime,
   dueAt: isoDateTime.nullable(),
+  /** When the board left the shop (returned to the customer). */
   closedAt: isoDateTime.nullable(),
+  /** How it left: sent by courier or collected. */
+  returnedVia: z.enum(returnMethods).nullable(),
+  /** True when a lead lifted guided order for this job's trainee. */
+  guidedLifted: z.boolean(),
   createdBy: idSchema,
   createdAt: isoDateTime,
   updatedAt: isoDateTime,
@@ -74,6 +69,8 @@ export const jobDetailSchema = jobSchema.extend({
   board: boardDetailSchema,
   /** Status changes the signed-in user may make now (through PATCH, or a review for approve/send back). */
   allowedTransitions: z.array(jobStatusSchema),
+  /** Whether the signed-in user takes readings on this job in guided order only (policy: guidedOrderBinds). */
+  guidedOrderRequired: z.boolean(),
   reviews: z.array(reviewSchema),
   latestSnapshot: diagnosisSnapshotSchema.nullable(),
 });
@@ -103,13 +100,13 @@ export const createJobRequest = z.object({
   serial: optionalText(100),
   boardId: idSchema,
   /** Defaults to the board model's newest version. */
-  boardVersion: z.number().int().positive().optional(),
+  boardVersion: counterSchema.optional(),
   faultCode: optionalText(20),
   symptom: z.string().trim().min(1).max(2000),
   priority: prioritySchema.default('normal'),
   assigneeId: idSchema.nullable().optional(),
-  receivedAt: isoDateTime.optional(),
-  dueAt: isoDateTime.nullable().optional(),
+  receivedAt: isoDateTimeInput.optional(),
+  dueAt: isoDateTimeInput.nullable().optional(),
 });
 export type CreateJobRequest = z.input<typeof createJobRequest>;
 
@@ -118,13 +115,22 @@ export const updateJobRequest = z
     status: jobStatusSchema,
     /** Required (here or already on the job) to move to awaiting review. */
     proposedPart: optionalText(50),
+    /** A note for the reviewing lead, sent with the proposal. */
+    proposalNote: optionalText(2000),
+    /** Moving to returned: how the board left and when (defaults to now). */
+    returnedVia: z.enum(returnMethods),
+    returnedAt: isoDateTime,
+    /** Signing off (to verified): the lead confirms the checklist's functional check was done. */
+    functionalCheckDone: z.literal(true, { error: 'confirm the functional check' }),
+    /** A lead lifts (true) or restores (false) guided order for this job's trainee. */
+    guidedLifted: z.boolean(),
     assigneeId: idSchema.nullable(),
     priority: prioritySchema,
     unitDescription: z.string().trim().min(1).max(300),
     serial: optionalText(100),
     faultCode: optionalText(20),
     symptom: z.string().trim().min(1).max(2000),
-    dueAt: isoDateTime.nullable(),
+    dueAt: isoDateTimeInput.nullable(),
   })
   .partial()
   .refine((o) => Object.keys(o).length > 0, 'nothing to change');

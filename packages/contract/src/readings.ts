@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { idSchema, isoDateTime, optionalText } from './common';
+import { BOUNDS, ohmsSchema, voltsSchema } from './bounds';
+import { idSchema, isoDateTime, isoDateTimeInput, optionalText } from './common';
 import { safetyCheckSchema } from './safety-gate';
 
 export const meterModes = ['dcv', 'ohm', 'diode', 'continuity'] as const;
@@ -23,10 +24,16 @@ export type Verdict = z.infer<typeof verdictSchema>;
 export const readingUnitSchema = z.enum(['V', 'ohm']);
 export type ReadingUnit = z.infer<typeof readingUnitSchema>;
 
-/** A meter value in SI units, or "OL" (over range / open). Only finite numbers: NaN, Infinity, 1e400 are refused. */
-export const meterValueSchema = z.union([z.literal('OL'), z.number().refine(Number.isFinite)], {
-  error: 'must be a finite number in SI units (V or ohm) or "OL"',
+/**
+ * A meter value in SI units, or "OL" (over range / open). Only finite numbers within what a meter can show in
+ * some mode; the request narrows it to the mode's own range (volts or ohms, `BOUNDS`).
+ */
+export const meterValueSchema = z.union([z.literal('OL'), z.number().refine(Number.isFinite).min(BOUNDS.volts.min).max(BOUNDS.ohms.max)], {
+  error: `must be a number in SI units (V from ${BOUNDS.volts.min} to ${BOUNDS.volts.max}, ohm up to ${BOUNDS.ohms.max}) or "OL"`,
 });
+
+/** The range of the mode's unit: volts for DC V and diode, ohms for Ω and continuity. */
+const valueForMode = (mode: MeterModeName) => (mode === 'dcv' || mode === 'diode' ? voltsSchema : ohmsSchema);
 export type MeterValue = z.infer<typeof meterValueSchema>;
 
 const netName = z.string().trim().min(1).max(100);
@@ -51,9 +58,13 @@ export const createReadingRequest = z.object({
   /** The id of a reading this one corrects; the corrected one stays in the history, marked superseded. */
   supersedes: idSchema.optional(),
   /** When it was read at the bench, if queued offline; defaults to the time the server stored it. */
-  takenAt: isoDateTime.optional(),
+  takenAt: isoDateTimeInput.optional(),
   /** The bus-discharge gate passed before an unpowered reading on a section that touches the bus. */
   safetyCheck: safetyCheckSchema.optional(),
+}).superRefine((r, ctx) => {
+  if (r.value === 'OL') return;
+  const checked = valueForMode(r.mode).safeParse(r.value);
+  if (!checked.success) ctx.addIssue({ code: 'custom', path: ['value'], message: checked.error.issues[0]!.message });
 });
 export type CreateReadingRequest = z.input<typeof createReadingRequest>;
 export type CreateReadingInput = z.output<typeof createReadingRequest>;
@@ -101,6 +112,8 @@ export const readingSchema = z.object({
   verdict: readingVerdictSchema.nullable(),
   /** The bus voltage measured at the safety gate before this unpowered reading; null when no gate was asked. */
   safetyBusVolts: z.number().nullable(),
+  /** Set when the reading was struck out: it stays listed, struck through, and no longer counts. */
+  struck: z.object({ reason: z.string(), authorName: z.string(), at: isoDateTime }).nullable(),
 });
 export type StoredReading = z.infer<typeof readingSchema>;
 
@@ -120,3 +133,9 @@ export const readingListQuery = z.object({
 
 export const readingListResponse = z.object({ items: z.array(readingSchema) });
 export type ReadingList = z.infer<typeof readingListResponse>;
+
+export const strikeReadingRequest = z.object({
+  reason: z.string().trim().min(3, 'say why the reading is struck out (at least a few words)').max(500),
+});
+export type StrikeReadingRequest = z.input<typeof strikeReadingRequest>;
+export const readingParams = z.object({ id: idSchema, readingId: idSchema });

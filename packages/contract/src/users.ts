@@ -8,6 +8,8 @@ export const shopMemberSchema = z.object({
   email: z.string(),
   name: z.string(),
   role: roleSchema,
+  /** Set when an admin deactivated the person: they cannot sign in. */
+  deactivatedAt: isoDateTime.nullable(),
   createdAt: isoDateTime,
 });
 export type ShopMember = z.infer<typeof shopMemberSchema>;
@@ -15,11 +17,13 @@ export type ShopMember = z.infer<typeof shopMemberSchema>;
 export const userListResponse = z.object({ items: z.array(shopMemberSchema) });
 export type UserList = z.infer<typeof userListResponse>;
 
-/** Admin only: change a member's role (recorded in the audit log). */
-export const updateUserRequest = z.object({ role: roleSchema });
+/** Admin only: change a member's role, or deactivate / reactivate them (recorded in the audit log). */
+export const updateUserRequest = z
+  .object({ role: roleSchema.optional(), active: z.boolean().optional() })
+  .refine((o) => o.role !== undefined || o.active !== undefined, 'nothing to change');
 export type UpdateUserRequest = z.infer<typeof updateUserRequest>;
 
-/** Admin only: invite someone to the shop; the answer carries a one-time link to hand over. */
+/** Admin only: invite someone to the shop; the link goes to them by e-mail and is also in the answer, once. */
 export const createInvitationRequest = z.object({
   email: z.string().trim().toLowerCase().email().max(254),
   name: z.string().trim().min(1).max(200),
@@ -50,4 +54,5 @@ export const acceptInvitationRequest = z.object({
   token: z.string().min(10).max(200),
   password: z.string().min(10, 'use at least 10 characters').max(200),
 });
+// (the server also refuses commonly used passwords)
 export type AcceptInvitationRequest = z.infer<typeof acceptInvitationRequest>;

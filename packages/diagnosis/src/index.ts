@@ -3,17 +3,27 @@
  * Generic core (model-agnostic) + the electrical adapter on @splitscope/circuit.
  */
 export * from './core/index.js';
-export { DEFAULT_MODES, TRANSFER_MODES, PART_KINDS, OPTO_LED_FACTOR, ELECTROLYTIC_THRESHOLD } from './electrical/kinds.js';
+export { DEFAULT_MODES, TRANSFER_MODES, BULK_MODES, PART_KINDS, OPTO_LED_FACTOR, ELECTROLYTIC_THRESHOLD } from './electrical/kinds.js';
 export type { PartKind, ModeTemplate, FaultAction } from './electrical/kinds.js';
 export { buildParts, applyFaults, inferKind, toComponents } from './electrical/faults.js';
 export type { ElectricalPart, ElectricalMode, PartOverride } from './electrical/faults.js';
 export { ElectricalModel, testKey, stateKey } from './electrical/model.js';
 export type { ElectricalTest, BoardModelInput } from './electrical/model.js';
-export { logLikelihood as readingLogLikelihood, consistent as readingConsistent, bandOf, verdictOf, outcomeBins } from './electrical/noise.js';
+export { logLikelihood as readingLogLikelihood, consistent as readingConsistent, bandOf, verdictOf, outcomeBins, isPredicted } from './electrical/noise.js';
+export { groupLogLikelihood, broadLogLikelihood, isRepeated } from './electrical/repeats.js';
+export type { RepeatedReading, ObservedValue } from './electrical/repeats.js';
+export { isSolveFailure } from './electrical/meter.js';
+export { findHazards, HAZARD_VOLTS } from './electrical/hazard.js';
+export type { Hazards } from './electrical/hazard.js';
+export { KIND_WORDS, METER_FUNCTION, modeWords, defaultDesignator, probePoint } from './electrical/words.js';
+export type { ProbePoint, ConnectorInput } from './electrical/words.js';
+export { UNEXPLAINED_P } from './electrical/report.js';
+export type { FaultWords, Unexplained } from './electrical/report.js';
 export type { Prediction, ReadingValue, MeterMode, Verdict, Band } from './electrical/noise.js';
-export { candidateTests, testCost, instruction, COST } from './electrical/nexttests.js';
-export type { BenchState } from './electrical/nexttests.js';
-export { CaseError, Diagnoser, createDiagnoser, diagnoseCase, validateCase, validateCaseShape } from './electrical/case.js';
+export { candidateTests, testCost, instruction, COST, HAZARD_CAUTION } from './electrical/nexttests.js';
+export type { BenchState, Hazard } from './electrical/nexttests.js';
+export { CaseError, validateCaseShape } from './electrical/case.js';
+export { Diagnoser, createDiagnoser, diagnoseCase, validateCase } from './electrical/diagnoser.js';
 export type {
   DiagnosisCase,
   CaseReading,

@@ -60,7 +60,7 @@ describe('parts and modes', () => {
     expect(names).toContain('q1:ce-short');
     expect(names).toContain('f1:open');
     expect(names.some((n) => n.startsWith('rbe:'))).toBe(false);
-    expect(by('XVREG').modes.map((m) => m.name)).toEqual(['dead', 'out-short', 'in-out-short']);
+    expect(by('XVREG').modes.map((m) => m.name)).toEqual(['dead', 'out-short', 'in-out-short', 'current-limit']);
   });
   it('applies prior overrides per part', () => {
     expect(by('R9').modes.find((m) => m.name === 'open')?.prior).toBe(0.02);

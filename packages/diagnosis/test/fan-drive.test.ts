@@ -52,13 +52,15 @@ describe('fan-drive case: dead VFAN with a healthy regulator', () => {
 
   it('probabilities are a distribution and parts are marginals', () => {
     for (const o of [out0, out1, out2]) {
-      const s = o.candidates.reduce((a, c) => a + c.probability, 0) + o.restProbability;
+      const s = o.candidates.reduce((a, c) => a + c.probability, 0) + o.restProbability + o.unmodelledProbability;
       expect(s).toBeCloseTo(1, 9);
       for (let i = 1; i < o.candidates.length; i++) expect(o.candidates[i - 1]!.probability).toBeGreaterThanOrEqual(o.candidates[i]!.probability);
     }
     const c9 = out0.parts.find((p) => p.part === 'C9' && p.mode === 'short')!;
     const sum = out0.candidates.filter((c) => c.faults.some((f) => f.part === 'C9' && f.mode === 'short')).reduce((a, c) => a + c.probability, 0);
-    expect(c9.probability).toBeCloseTo(sum + 0, 6);
+    // Marginals run over every scored candidate; the listed ones miss at most the rest's mass.
+    expect(c9.probability).toBeGreaterThanOrEqual(sum - 1e-12);
+    expect(c9.probability - sum).toBeLessThanOrEqual(out0.restProbability + 1e-12);
   });
 
   it('evidence: the dead-rail reading supports a capacitor short and speaks for it against no fault', () => {
@@ -72,7 +74,7 @@ describe('fan-drive case: dead VFAN with a healthy regulator', () => {
     expect(idx).toBeGreaterThanOrEqual(0);
     expect(idx).toBeLessThan(10);
     const t = out0.nextTests[idx]!;
-    expect(t.instruction).toMatch(/^Unplug the board and confirm the bus is discharged, then put the red probe on VFAN \(TP5\) and the black on GND/);
+    expect(t.instruction).toMatch(/^Unplug the board and confirm the bus is discharged, then put the red probe on TP5 and the black on C1 −/);
     expect(t.cost).toBeGreaterThan(1);
   });
 

@@ -52,10 +52,5 @@ export function assertRole(actor: Actor, allowed: readonly Role[], what: string)
   }
 }
 
-/** Roles by what they may do; routes and services name these instead of listing roles again. */
-export const ROLES = {
-  everyone: ['admin', 'lead', 'tech', 'trainee'],
-  bench: ['admin', 'lead', 'tech'],
-  reviewers: ['admin', 'lead'],
-  admins: ['admin'],
-} as const satisfies Record<string, readonly Role[]>;
+/** Roles by what they may do live in the contract's policy, where the web reads them too. */
+export { ROLES } from '@splitscope/contract';

@@ -2,12 +2,16 @@ import { createDatabase } from './client';
 import { runMigrations } from './migrate';
 import { seedDemo } from './seed';
 
-/** Migrations, then the idempotent demo seed: what `npm start` and `npm test` run before the server. */
-export async function migrateAndSeed(url: string): Promise<{ created: number }> {
+/**
+ * Migrations, then in demo mode the idempotent demo seed: what `npm start` and `npm test` run before the server.
+ * A real shop (`shop` mode) gets no seed: it starts empty and is set up on the first-run page.
+ */
+export async function migrateAndSeed(url: string, mode: 'demo' | 'shop' = 'demo'): Promise<{ created: number; seeded: boolean }> {
   const { db, pool } = createDatabase(url, 2);
   try {
     await runMigrations(db);
-    return await seedDemo(db);
+    if (mode === 'shop') return { created: 0, seeded: false };
+    return { ...(await seedDemo(db)), seeded: true };
   } finally {
     await pool.end();
   }

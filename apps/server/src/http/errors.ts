@@ -1,5 +1,5 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
-import type { Problem } from '@splitscope/contract';
+import { nulPath, type Problem } from '@splitscope/contract';
 import { z } from 'zod';
 
 const statusOf = {
@@ -46,6 +46,8 @@ const titles: Record<ErrorCode, string> = {
 
 /** Validates input against a contract schema; failures become one 422 that lists the failing fields. */
 export function parse<S extends z.ZodType>(schema: S, value: unknown): z.infer<S> {
+  const nul = nulPath(value);
+  if (nul) throw new AppError('invalid', `Invalid input: ${nul}: must not contain the NUL character`, { errors: [{ path: nul, message: 'must not contain the NUL character' }] });
   const r = schema.safeParse(value);
   if (r.success) return r.data;
   const errors = r.error.issues.map((i) => ({ path: i.path.map(String).join('.') || '(body)', message: i.message }));
@@ -68,6 +70,19 @@ export function sendProblem(res: Parameters<RequestHandler>[1], err: AppError): 
   res.status(err.status).type('application/problem+json').json(problem(err));
 }
 
+// Data errors PostgreSQL raises for a value it cannot store (a NUL in text, a number or date out of its range,
+// a malformed value). Every such input should already be refused by the contract; this is the last line, so
+// a gap there is still the client's 422 and not a 500.
+const DATA_ERRORS: Record<string, string> = {
+  '22P05': 'text contains a character that cannot be stored (NUL)',
+  '22021': 'text contains a character that cannot be stored',
+  '22003': 'a number is out of range',
+  '22008': 'a date or time is out of range',
+  '22007': 'a date or time is not valid',
+  '22P02': 'a value is not in a form that can be stored',
+  '22001': 'a text is too long',
+};
+
 const DB_DOWN = new Set(['ECONNREFUSED', 'ECONNRESET', '57P01', '57P02', '57P03', '08006', '08001', '08003', 'ETIMEDOUT']);
 
 function isDbDown(err: unknown): boolean {
@@ -86,6 +101,11 @@ export const errorHandler: ErrorRequestHandler = (err, _req, res, _next) => {
   if (e?.type === 'entity.parse.failed') return sendProblem(res, new AppError('bad_request', 'The request body is not valid JSON'));
   if (e?.type === 'encoding.unsupported' || e?.type === 'charset.unsupported')
     return sendProblem(res, new AppError('unsupported_media_type', 'Unsupported body encoding'));
+  const pgCode = (err as { code?: unknown; cause?: { code?: unknown } })?.code ?? (err as { cause?: { code?: unknown } })?.cause?.code;
+  if (typeof pgCode === 'string' && DATA_ERRORS[pgCode]) {
+    console.error(`refused input the contract let through (${pgCode}):`, (err as Error).message);
+    return sendProblem(res, new AppError('invalid', `Invalid input: ${DATA_ERRORS[pgCode]}`));
+  }
   if (isDbDown(err)) return sendProblem(res, new AppError('unavailable', 'The database is not reachable right now; try again shortly'));
   const status = e?.status ?? e?.statusCode;
   if (typeof status === 'number' && status >= 400 && status < 500) {

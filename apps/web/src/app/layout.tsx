@@ -1,6 +1,7 @@
 import { Suspense } from 'react';
 import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
-import { useMe } from '@/features/auth/api/me';
+import { hasRole, ROLES } from '@splitscope/contract';
+import { useMe } from '@/lib/api/me';
 import { useSignOut } from '@/features/auth/api/sign-in';
 
 const roleLabel = { admin: 'Shop admin', lead: 'Lead', tech: 'Technician', trainee: 'Trainee' } as const;
@@ -30,12 +31,12 @@ export function AppLayout() {
           <NavLink to="/jobs" end className={link}>
             Jobs
           </NavLink>
-          {(me.data.role === 'lead' || me.data.role === 'admin') && (
+          {hasRole(me.data.role, ROLES.reviewers) && (
             <NavLink to="/review" className={link}>
               Review
             </NavLink>
           )}
-          {(me.data.role === 'lead' || me.data.role === 'admin') && (
+          {hasRole(me.data.role, ROLES.reviewers) && (
             <NavLink to="/boards" className={link}>
               Board library
             </NavLink>
@@ -43,8 +44,8 @@ export function AppLayout() {
           <NavLink to="/references" className={link}>
             Bench references
           </NavLink>
-          {me.data.role === 'admin' && <NavLink to="/billing/settings" className={link}>Billing</NavLink>}
-          {me.data.role === 'admin' && <NavLink to="/dev/mail" className={link}>Mail outbox</NavLink>}
+          {hasRole(me.data.role, ROLES.admins) && <NavLink to="/billing/settings" className={link}>Billing</NavLink>}
+          {hasRole(me.data.role, ROLES.admins) && <NavLink to="/dev/mail" className={link}>Mail outbox</NavLink>}
         </nav>
         <span className="text-sm" title={me.data.shopName}>
           {me.data.name} · {roleLabel[me.data.role]}
@@ -54,7 +55,7 @@ export function AppLayout() {
         <button
           type="button"
           className="min-h-11 rounded-md px-3 hover:bg-white/10"
-          onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}
+          onClick={() => signOut.mutate(undefined, { onSuccess: () => void navigate('/sign-in') })}
         >
           Sign out
         </button>

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { age, meterText } from './format';
+import { age, bandText, boardStateText, meterText, readingText } from './format';
 
 describe('display formatting', () => {
   it('writes meter values the way a technician reads them', () => {
@@ -15,5 +15,12 @@ describe('display formatting', () => {
     expect(age('2026-01-03T11:30:00Z', now)).toBe('30 min');
     expect(age('2026-01-03T02:00:00Z', now)).toBe('10 h');
     expect(age('2025-12-30T12:00:00Z', now)).toBe('4 d');
+  });
+  it('shows continuity as beep / no beep and the board state with the parts lifted', () => {
+    expect(readingText({ mode: 'continuity', value: 0, unit: 'ohm', beep: true })).toBe('beep');
+    expect(readingText({ mode: 'continuity', value: 'OL', unit: 'ohm', beep: null })).toBe('no beep');
+    expect(readingText({ mode: 'ohm', value: 1300, unit: 'ohm' })).toBe('1.3 kΩ');
+    expect(boardStateText({ power: 'off', lifted: ['C10'] })).toBe('unplugged, C10 lifted');
+    expect(bandText({ expected: false, low: null, high: null, unit: 'ohm' }, 'continuity')).toBe('no beep');
   });
 });

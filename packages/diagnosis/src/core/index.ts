@@ -12,4 +12,5 @@ export {
   refsKey,
   type DiagnoseOptions,
 } from './engine.js';
+export { extendByConflicts, SUPPORT_LLR, type ConflictOptions } from './conflicts.js';
 export { rankTests, testEntropy, activeSet, type ProbeOptions, type TestScore, type ActiveCandidate } from './probe.js';

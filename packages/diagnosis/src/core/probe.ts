@@ -87,11 +87,21 @@ function entropyOf<T, P>(
 ): { expectedEntropy: number; outcomeEntropy: number } {
   // joint[o][c] = P(c) P(o | c)
   const joint = new Map<string, Float64Array>();
+  const predicted = model.predicted?.bind(model);
+  // Mass of sweep combinations whose prediction could not be computed: such a combination tells nothing, so
+  // its mass follows the outcome distribution of the rest (never a distinct "unknown" outcome).
+  let lost: Float64Array | undefined;
   for (let ci = 0; ci < active.length; ci++) {
     const a = active[ci] as ActiveCandidate;
     for (let ki = 0; ki < a.combos.length; ki++) {
       const k = a.combos[ki] as ActiveCandidate['combos'][number];
-      for (const [bin, po] of model.outcomes(test, predOf(ci, ki))) {
+      const pred = predOf(ci, ki);
+      if (predicted && !predicted(pred)) {
+        lost ??= new Float64Array(active.length);
+        lost[ci] = (lost[ci] as number) + a.p * k.w;
+        continue;
+      }
+      for (const [bin, po] of model.outcomes(test, pred)) {
         if (!(po > 0)) continue;
         let row = joint.get(bin);
         if (!row) {
@@ -102,6 +112,7 @@ function entropyOf<T, P>(
       }
     }
   }
+  if (lost) spreadLost(joint, lost);
   let expected = 0;
   const pos: number[] = [];
   for (const row of joint.values()) {
@@ -114,6 +125,27 @@ function entropyOf<T, P>(
     expected += po * h;
   }
   return { expectedEntropy: expected, outcomeEntropy: entropyBits(pos) };
+}
+
+/** Adds each candidate's unpredicted mass to the outcomes in proportion to the predicted outcome marginal. */
+function spreadLost(joint: Map<string, Float64Array>, lost: Float64Array): void {
+  const marg = new Map<string, number>();
+  let total = 0;
+  for (const [bin, row] of joint) {
+    let po = 0;
+    for (const x of row) po += x;
+    marg.set(bin, po);
+    total += po;
+  }
+  if (!(total > 0)) {
+    // Nothing predicted: one uninformative outcome.
+    joint.set('unpredicted', Float64Array.from(lost));
+    return;
+  }
+  for (const [bin, row] of joint) {
+    const share = (marg.get(bin) as number) / total;
+    for (let ci = 0; ci < row.length; ci++) row[ci] = (row[ci] as number) + (lost[ci] as number) * share;
+  }
 }
 
 export function rankTests<T, P>(

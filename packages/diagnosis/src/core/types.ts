@@ -69,6 +69,22 @@ export interface SystemModel<T, V, P> {
   consistent(test: T, value: V, prediction: P): boolean;
   /** Discretised outcome distribution of the test if the system behaves as predicted. */
   outcomes(test: T, prediction: P): OutcomeDistribution;
+  /**
+   * Whether the prediction could be computed (default: always). A prediction that could not be computed (a
+   * model that does not solve in that state) is left out: the reading counts for that candidate as it counts
+   * for the healthy system (neutral), and in probing it tells nothing about that candidate.
+   */
+  predicted?(prediction: P): boolean;
+  /**
+   * ln density of the reading under a broad alternative ("something the model does not hold"), used for the
+   * unmodelled-fault hypothesis. Absent: no such hypothesis is scored.
+   */
+  logLikelihoodBroad?(test: T, value: V): number;
+  /**
+   * Components a reading's prediction depends on most directly (its structural neighbourhood), used to build
+   * the conflict of a reading a candidate leaves unexplained. Absent: conflicts come from the evidence alone.
+   */
+  suspects?(test: T): readonly string[];
 }
 
 export interface Combo {
@@ -101,6 +117,10 @@ export interface ScoredCandidate {
   consistent: boolean;
   combos: Combo[];
   evidence: CandidateEvidence[];
+  /** Readings (indices) outside their band under the candidate's heaviest sweep combination. */
+  disagree: number[];
+  /** Readings (indices) whose prediction could not be computed under some sweep combination of the candidate. */
+  unpredicted: number[];
 }
 
 export interface PartMarginal {
@@ -115,6 +135,15 @@ export interface Posterior {
   minimalDiagnoses: string[][];
   /** Shannon entropy (bits) of the candidate posterior. */
   entropy: number;
-  /** How pairs were chosen: 'all' or 'top-k'. */
+  /** How pairs were chosen: 'all' or 'top-k' (plus the conflict-driven extensions counted in `generated`). */
   pairRule: 'all' | 'top-k' | 'none';
+  /** Multiple-fault candidates added from the conflicts of unexplained readings (see conflicts.ts). */
+  generated: { pairs: number; triples: number; capped: boolean };
+  /**
+   * The unmodelled-fault hypothesis (a fault the model does not hold): its posterior probability, counted in the
+   * normalisation of `candidates` (which then sum to 1 - probability). Absent when the model has no broad density.
+   */
+  unmodelled?: { probability: number; logLikelihood: number };
+  /** Readings (indices) left out of scoring because the healthy system's prediction could not be computed. */
+  excluded: number[];
 }

@@ -1,14 +1,13 @@
 /**
- * Diagnosis cases: validation, a reusable diagnoser per board, and the `circuit diagnose` output shape.
+ * Diagnosis cases: their shape and validation, and the output shape of a diagnosis (`circuit diagnose`, the
+ * server's diagnosis). The diagnoser itself is in diagnoser.ts.
  */
-import { NetlistError, parseNetlist, type MeterProfile, type Netlist } from '@splitscope/circuit';
-import { diagnose, PredictionCache } from '../core/engine.js';
-import { rankTests } from '../core/probe.js';
-import type { Observation } from '../core/types.js';
+import type { MeterProfile, Netlist } from '@splitscope/circuit';
 import { PART_KINDS, type PartKind } from './kinds.js';
-import { ElectricalModel, type ElectricalTest } from './model.js';
-import { candidateTests, instruction, testCost, type BenchState, type TestPoint } from './nexttests.js';
-import { bandOf, verdictOf, type MeterMode, type Prediction, type ReadingValue, type Verdict } from './noise.js';
+import type { Hazard, TestPoint } from './nexttests.js';
+import type { MeterMode, Verdict } from './noise.js';
+import type { FaultWords, Unexplained } from './report.js';
+import type { ConnectorInput, ProbePoint } from './words.js';
 
 export type { TestPoint } from './nexttests.js';
 
@@ -26,6 +25,8 @@ export interface CaseReading {
 export interface CasePart {
   kind?: PartKind;
   priors?: Record<string, number>;
+  /** As printed on the board (U201 for the netlist's XU201); default: the name without a leading X. */
+  designator?: string;
 }
 
 export interface DiagnosisCase {
@@ -34,6 +35,9 @@ export interface DiagnosisCase {
   parts?: Record<string, CasePart>;
   /** Test points offered for next tests; default: the nets of the likeliest parts and the nets probed. */
   testPoints?: TestPoint[];
+  connectors?: ConnectorInput[];
+  /** The meter the readings were taken with (default: the engine's default profile). */
+  meter?: MeterProfile;
   readings: CaseReading[];
 }
 
@@ -47,10 +51,21 @@ export class CaseError extends Error {
 
 export interface ReadingReport {
   index: number;
-  expected: number | 'OL' | boolean;
+  /** What the healthy board reads; null when it could not be computed (see `note`), never a stand-in "OL". */
+  expected: number | 'OL' | boolean | null;
   low?: number;
   high?: number;
   verdict: Verdict;
+  /** Plain words when the reading is not scored or counts as a repeat. */
+  note?: string;
+  /** The first reading of the same quantity when this one repeats it (repeats refine, they do not add up). */
+  repeatOf?: number;
+  /** The meter function in the bench's words (DC V, Ω, diode, continuity). */
+  function: string;
+  /** The probe points as the bench names them. */
+  probes: { red: ProbePoint; black: ProbePoint };
+  /** Powered probe on a hazardous net. */
+  hazard?: Hazard;
 }
 
 export interface EvidenceReport {
@@ -64,10 +79,15 @@ export interface CandidateReport {
   faults: { part: string; mode: string }[];
   probability: number;
   evidence: EvidenceReport[];
+  /** The candidate in words: "U1 opto — LED open" (several faults joined by " + "). */
+  words: { text: string; faults: FaultWords[] };
+  /** Readings whose expected value could not be computed under this candidate (left out of its score). */
+  unpredicted?: number[];
 }
 
 export interface NextTestReport {
   mode: MeterMode;
+  /** Nets (kept for compatibility; screens use `probes`). */
   red: string;
   black: string;
   power: 'on' | 'off';
@@ -75,17 +95,32 @@ export interface NextTestReport {
   expectedEntropy: number;
   cost: number;
   instruction: string;
+  function: string;
+  probes: { red: ProbePoint; black: ProbePoint };
+  /** Lifted parts by designator. */
+  liftedParts: string[];
+  /** A powered probe on mains or the bus: show `caution`. */
+  hazard?: Hazard;
+  caution?: string;
+  /** The test repeats one already taken (only when confirmations are asked for). */
+  confirmation?: boolean;
 }
 
 export interface DiagnosisOutput {
   readings: ReadingReport[];
   candidates: CandidateReport[];
-  parts: { part: string; mode: string; probability: number }[];
+  parts: { part: string; mode: string; probability: number; words: FaultWords }[];
   restProbability: number;
   minimalDiagnoses: string[][];
   nextTests: NextTestReport[];
   /** Entropy (bits) of the candidate posterior. */
   entropy: number;
+  /** Probability of a fault the model does not hold (counted in the normalisation of `candidates`). */
+  unmodelledProbability: number;
+  /** Present when the readings are not explained by any modelled fault (rule in report.ts). */
+  unexplained?: Unexplained;
+  /** How many multiple-fault candidates came from conflicts, and whether a bound cut the list. */
+  generated: { pairs: number; triples: number; capped: boolean };
 }
 
 export interface UpdateOptions {
@@ -97,6 +132,10 @@ export interface UpdateOptions {
   pairTopK?: number;
   /** Probing considers at most this many candidates (default 30; each with its 3 heaviest sweep points). */
   probeCandidates?: number;
+  /** The meter the readings were taken with (expected values and bands are computed with it). */
+  meter?: MeterProfile;
+  /** Offer tests already taken again, as confirmations (default false). */
+  confirm?: boolean;
 }
 
 export interface BoardInput {
@@ -105,6 +144,10 @@ export interface BoardInput {
   parts?: Record<string, CasePart>;
   testPoints?: TestPoint[];
   meter?: MeterProfile;
+  /** Connectors: a net without a test point is named by a connector pin on it. */
+  connectors?: ConnectorInput[];
+  /** Nets the board names as AC mains (besides those found from its sources). */
+  acMains?: string[];
 }
 
 const MODES: readonly MeterMode[] = ['dcv', 'ohm', 'diode', 'continuity'];
@@ -140,12 +183,16 @@ export function validateCaseShape(input: unknown): DiagnosisCase {
       if (!isRecord(tp) || typeof tp.net !== 'string') throw new CaseError(`testPoints ${i}: needs a net`);
     });
   }
+  if (input.meter !== undefined) {
+    const m = input.meter;
+    if (!isRecord(m) || !MODES.every((k) => isRecord(m[k]))) throw new CaseError('meter: must be a meter profile (dcv, ohm, diode and continuity settings)');
+  }
   if (!Array.isArray(input.readings)) throw new CaseError('readings: must be a list');
   input.readings.forEach((r, i) => checkReadingShape(r, i));
   return input as unknown as DiagnosisCase;
 }
 
-function checkReadingShape(r: unknown, i: number): asserts r is CaseReading {
+export function checkReadingShape(r: unknown, i: number): asserts r is CaseReading {
   const at = `reading ${i}`;
   if (!isRecord(r)) throw new CaseError(`${at}: must be an object`);
   if (!MODES.includes(r.mode as MeterMode)) throw new CaseError(`${at}: unknown mode ${show(r.mode)} (${MODES.join(', ')})`);
@@ -168,143 +215,7 @@ function checkReadingShape(r: unknown, i: number): asserts r is CaseReading {
   }
 }
 
-const normNet = (n: string) => {
+export const normNet = (n: string) => {
   const l = n.trim().toLowerCase();
   return l === 'gnd' ? '0' : l;
 };
-
-/** A reusable diagnoser for one board (netlist, params, parts). Predictions are cached across updates. */
-export class Diagnoser {
-  readonly model: ElectricalModel;
-  readonly cache: PredictionCache<ElectricalTest, Prediction>;
-  private readonly testPoints?: TestPoint[];
-  private readonly partByLower: Map<string, string>;
-
-  constructor(board: BoardInput) {
-    let netlist: Netlist;
-    if (typeof board.netlist === 'string') {
-      try {
-        netlist = parseNetlist(board.netlist);
-      } catch (err) {
-        if (err instanceof NetlistError) throw new CaseError(`netlist: ${err.message}`);
-        throw err;
-      }
-    } else netlist = board.netlist;
-    try {
-      this.model = new ElectricalModel({ netlist, params: board.params, parts: board.parts, meter: board.meter });
-    } catch (err) {
-      const msg = (err as Error).message.split('\n')[0] ?? '';
-      throw new CaseError(err instanceof NetlistError ? `netlist: ${msg}` : msg);
-    }
-    this.cache = new PredictionCache(this.model);
-    this.partByLower = new Map(this.model.parts.map((p) => [p.name.toLowerCase(), p.name]));
-    if (board.testPoints) {
-      board.testPoints.forEach((tp, i) => {
-        for (const n of [tp.net, tp.ref ?? '0']) if (!this.model.nets.has(normNet(n))) throw new CaseError(`testPoints ${i}: unknown net ${n}`);
-      });
-      this.testPoints = board.testPoints.map((tp) => ({ ...tp, net: normNet(tp.net), ref: normNet(tp.ref ?? '0') }));
-    }
-  }
-
-  /** Check readings against the board (nets, parts) and turn them into observations. Throws CaseError. */
-  observations(readings: readonly unknown[]): Observation<ElectricalTest, ReadingValue>[] {
-    return readings.map((r, i) => {
-      checkReadingShape(r, i);
-      const red = normNet(r.red);
-      const black = normNet(r.black);
-      if (!this.model.nets.has(red)) throw new CaseError(`reading ${i}: unknown net ${r.red}`);
-      if (!this.model.nets.has(black)) throw new CaseError(`reading ${i}: unknown net ${r.black}`);
-      const lifted = (r.lifted ?? []).map((p) => {
-        const name = this.partByLower.get(p.trim().toLowerCase());
-        if (!name) throw new CaseError(`reading ${i}: unknown part ${p} in lifted`);
-        return name;
-      });
-      return { test: { mode: r.mode, red, black, power: r.power, lifted: [...new Set(lifted)].sort() }, value: r.value };
-    });
-  }
-
-  update(readings: readonly unknown[], options: UpdateOptions = {}): DiagnosisOutput {
-    const obs = this.observations(readings);
-    const top = options.top ?? 100;
-    const post = diagnose(this.model, obs, { pairTopK: options.pairTopK ?? 12 }, this.cache);
-
-    const readingReports: ReadingReport[] = obs.map((o, index) => {
-      const healthy = this.model.healthyPrediction(o.test);
-      const band = bandOf(o.test.mode, healthy, this.model.meter);
-      const rep: ReadingReport = { index, expected: typeof band.expected === 'number' ? sig(band.expected) : band.expected, verdict: verdictOf(o.test.mode, o.value, band) };
-      if (band.low !== undefined) rep.low = sig(band.low);
-      if (band.high !== undefined) rep.high = sig(band.high);
-      return rep;
-    });
-
-    const listed = post.candidates.slice(0, top);
-    const rest = post.candidates.slice(top).reduce((a, c) => a + c.probability, 0);
-
-    // Next tests: from the bench's current state (that of the last reading).
-    const last = obs[obs.length - 1]?.test;
-    const cur: BenchState = last ? { power: last.power, lifted: last.lifted } : { power: 'off', lifted: [] };
-    const likelyParts: string[] = [];
-    for (const pm of post.parts) {
-      if (!likelyParts.includes(pm.part)) likelyParts.push(pm.part);
-      if (likelyParts.length >= 8) break;
-    }
-    const partNets = (name: string) => ({ name, nets: this.model.partsByName.get(name)?.nets ?? [] });
-    let points = this.testPoints;
-    if (!points) {
-      const nets = new Set<string>();
-      for (const p of likelyParts) for (const n of partNets(p).nets) if (n !== '0') nets.add(n);
-      for (const o of obs) for (const n of [o.test.red, o.test.black]) if (n !== '0') nets.add(n);
-      points = [...nets].map((net) => ({ net, ref: '0' }));
-    }
-    const tests = candidateTests({ points, cur, liftParts: likelyParts.slice(0, 3).map(partNets) });
-    const ranked = rankTests(this.model, post, tests, (t) => testCost(t, cur), { maxCandidates: options.probeCandidates ?? 30, comboCutoff: 0.02, maxCombos: 3 }, this.cache);
-    const labels = this.testPoints ?? [];
-    const nextTests: NextTestReport[] = ranked.slice(0, options.nextTests ?? 10).map((r) => ({
-      mode: r.test.mode,
-      red: r.test.red,
-      black: r.test.black,
-      power: r.test.power,
-      lifted: r.test.lifted,
-      expectedEntropy: sig(r.expectedEntropy),
-      cost: r.cost,
-      instruction: instruction(r.test, cur, labels),
-    }));
-
-    return {
-      readings: readingReports,
-      candidates: listed.map((c) => ({
-        faults: c.faults.map((f) => ({ part: f.part, mode: f.mode })),
-        probability: c.probability,
-        evidence: c.evidence.map((e) => ({ reading: e.index, llr: Math.round(e.llr * 1000) / 1000, effect: e.sign })),
-      })),
-      parts: post.parts.map((p) => ({ part: p.part, mode: p.mode, probability: p.probability })),
-      restProbability: rest,
-      minimalDiagnoses: post.minimalDiagnoses,
-      nextTests,
-      entropy: post.entropy,
-    };
-  }
-}
-
-function sig(x: number): number {
-  if (x === 0 || !Number.isFinite(x)) return x;
-  return Number(x.toPrecision(4));
-}
-
-export function createDiagnoser(board: BoardInput): Diagnoser {
-  return new Diagnoser(board);
-}
-
-/** Validate a case and diagnose it in one call. Throws CaseError on a bad case. */
-export function diagnoseCase(caseInput: unknown, options: UpdateOptions & { meter?: MeterProfile } = {}): DiagnosisOutput {
-  const c = validateCaseShape(caseInput);
-  const d = new Diagnoser({ netlist: c.netlist, params: c.params, parts: c.parts, testPoints: c.testPoints, meter: options.meter });
-  return d.update(c.readings, options);
-}
-
-/** Full validation of a case against its netlist (shape, nets, parts). Returns the typed case. */
-export function validateCase(caseInput: unknown): DiagnosisCase {
-  const c = validateCaseShape(caseInput);
-  new Diagnoser({ netlist: c.netlist, params: c.params, parts: c.parts, testPoints: c.testPoints }).observations(c.readings);
-  return c;
-}

@@ -3,14 +3,16 @@
  *
  * A part is a top-level netlist element or subcircuit instance. Its kind comes from the case / board model or
  * is inferred from the element letter: R → resistor, C → ceramic capacitor (electrolytic from 1 µF), L →
- * inductor, D → diode, Q → bjt, X → opto-coupler when its subcircuit holds a diode and a transistor or a
- * current-controlled source, else a generic subcircuit; V/I → source (no modes).
+ * inductor, D → diode, Q → bjt, X → opto-coupler when its subcircuit holds a diode and a current-controlled
+ * source or a transistor sharing no node with the diode, else a generic subcircuit; V/I → source (no modes).
  * A subcircuit instance is one part whose modes are its internal elements' modes, named `element:mode` with
  * the internal element's name lower-cased as written (`dl:open`, `q1:ce-short`).
  */
 import type { BjtElement, Circuit, Element, Netlist, RawElement, SubcktDef } from '@splitscope/circuit';
 import type { Component, SubFault } from '../core/types.js';
+import type { Hazards } from './hazard.js';
 import {
+  BULK_MODES,
   DEFAULT_MODES,
   ELECTROLYTIC_THRESHOLD,
   OPTO_LED_FACTOR,
@@ -74,9 +76,14 @@ export function inferKind(el: Element | undefined, raw: RawElement, netlist: Net
       return 'bjt';
     case 'X': {
       const sub = findSubckt(netlist, raw.model);
-      const letters = new Set((sub?.elements ?? []).map((e) => e.letter));
-      if (letters.has('D') && (letters.has('Q') || letters.has('F') || letters.has('G'))) return 'opto-coupler';
-      return 'subcircuit';
+      // An opto-coupler: an LED and an output isolated from it — a current transfer (F/G), or a transistor that
+      // shares no node with the diode. A zener-referenced regulator (diode on the transistor's base) is not one.
+      const els = sub?.elements ?? [];
+      const diodes = els.filter((e) => e.letter === 'D');
+      if (diodes.length > 0 && els.some((e) => e.letter === 'F' || e.letter === 'G')) return 'opto-coupler';
+      const dNodes = new Set(diodes.flatMap((e) => e.nodes.map((n) => n.toLowerCase())));
+      const isolated = els.some((e) => e.letter === 'Q' && e.nodes.every((n) => !dNodes.has(n.toLowerCase())));
+      return diodes.length > 0 && isolated ? 'opto-coupler' : 'subcircuit';
     }
     default:
       return 'source';
@@ -117,8 +124,11 @@ const PORT_PATTERNS = {
   gnd: /^(gnd|com|common|0|g|adj|ref)$/i,
 };
 
-/** Build the parts of a board from its netlist and flat (healthy, powered) circuit. */
-export function buildParts(netlist: Netlist, circuit: Circuit, overrides: Record<string, PartOverride> = {}): ElectricalPart[] {
+/**
+ * Build the parts of a board from its netlist and flat (healthy, powered) circuit. With `hazards`, the bulk
+ * electrolytic capacitor(s) on the rectified bus get the behavioural BULK_MODES on the bus source.
+ */
+export function buildParts(netlist: Netlist, circuit: Circuit, overrides: Record<string, PartOverride> = {}, hazards?: Hazards): ElectricalPart[] {
   const byPart = new Map<string, Element[]>();
   for (const e of circuit.elements) {
     const k = e.part.toLowerCase();
@@ -146,7 +156,9 @@ export function buildParts(netlist: Netlist, circuit: Circuit, overrides: Record
           for (const key of ['in', 'out', 'gnd'] as const) if (PORT_PATTERNS[key].test(p)) ports[key] = norm(net);
         });
         part.ports = ports;
-        part.modes = part.modes.filter((m) => (m.action === 'out-short' ? ports.out && ports.gnd : m.action === 'in-out-short' ? ports.in && ports.out : true));
+        part.modes = part.modes.filter((m) =>
+          m.action === 'out-short' ? ports.out && ports.gnd : m.action === 'in-out-short' ? ports.in && ports.out : m.action === 'current-limit' ? ports.out : true,
+        );
       } else {
         part.modes = part.modes.filter((m) => m.action === 'dead');
       }
@@ -171,6 +183,9 @@ export function buildParts(netlist: Netlist, circuit: Circuit, overrides: Record
       // A kind whose actions do not fit the element (bjt modes on a resistor) falls back to the element's own.
       const fits = tpl.filter((t) => actionFits(t.action, e));
       part.modes = fits.map((t) => fromTemplate(t, t.name, e.name.toLowerCase()));
+      if (kind === 'electrolytic-capacitor' && hazards?.busSource && nets.some((n) => hazards.bus.has(n))) {
+        for (const t of BULK_MODES) part.modes.push(fromTemplate(t, t.name, hazards.busSource));
+      }
     }
     if (ov?.priors) {
       for (const [mode, p] of Object.entries(ov.priors)) {
@@ -247,6 +262,23 @@ export function applyFaults(circuit: Circuit, faults: readonly SubFault[], parts
       const set = new Set(part.elements);
       for (const e of elements) if (set.has(e.name.toLowerCase())) for (const n of e.nodes) leakNodes.add(n);
       elements = elements.filter((e) => !set.has(e.name.toLowerCase()));
+      continue;
+    }
+    if (mode.action === 'source-scale') {
+      // Behavioural bulk-capacitor mode: the bus source (present only when powered) scaled.
+      const si = elements.findIndex((e) => e.name.toLowerCase() === mode.target && e.kind === 'V');
+      const src = elements[si];
+      if (src && src.kind === 'V') elements[si] = { ...src, value: src.value * v };
+      continue;
+    }
+    if (mode.action === 'current-limit') {
+      // The regulator's output pin moved to an inner node, joined to the board's output net by `v` ohms.
+      const out = part.ports?.out;
+      const set = new Set(part.elements);
+      if (!out || !elements.some((e) => set.has(e.name.toLowerCase()))) continue; // lifted
+      const inner = `${part.name.toLowerCase()}#out`;
+      elements = elements.map((e) => (set.has(e.name.toLowerCase()) && e.nodes.includes(out) ? ({ ...e, nodes: e.nodes.map((n) => (n === out ? inner : n)) } as Element) : e));
+      added.push(res(tag, part.name, inner, out, v));
       continue;
     }
     if (mode.action === 'out-short' || mode.action === 'in-out-short') {

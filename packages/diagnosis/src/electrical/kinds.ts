@@ -16,7 +16,8 @@
  * - `leaky`: a capacitor with a parallel resistance of hundreds of ohms to tens of kilohms.
  *
  * An open capacitor is invisible to DC meter readings (it is already open at DC), so it has no mode here:
- * it would only duplicate the no-fault candidate.
+ * it would only duplicate the no-fault candidate — except the bulk capacitor of a rectified bus, where a DC
+ * voltmeter still sees the symptom (BULK_MODES, behavioural).
  */
 
 export type PartKind =
@@ -55,6 +56,10 @@ export const PART_KINDS: readonly PartKind[] = [
  * - `ce-short` / `be-short`: a resistor of `value` ohms across collector–emitter / base–emitter.
  * - `be-open` / `bc-open`: the transistor is replaced by its other junction alone (a diode).
  * - `dead` / `out-short` / `in-out-short`: regulator modes on the instance's ports.
+ * - `current-limit`: a resistor of `value` ohms in series with the regulator's output (behavioural: a regulator
+ *   in current limit or foldback lets its output sag with the load).
+ * - `source-scale`: the board's rectified-bus source is multiplied by `value` (behavioural: bulk capacitor open
+ *   or dried out, see BULK_MODES).
  */
 export type FaultAction =
   | 'short'
@@ -67,7 +72,9 @@ export type FaultAction =
   | 'bc-open'
   | 'dead'
   | 'out-short'
-  | 'in-out-short';
+  | 'in-out-short'
+  | 'current-limit'
+  | 'source-scale';
 
 export interface ModeTemplate {
   name: string;
@@ -127,15 +134,36 @@ export const DEFAULT_MODES: Readonly<Record<PartKind, readonly ModeTemplate[]>> 
     { name: 'dead', action: 'dead', prior: 0.004, source: 'from memory' },
     { name: 'out-short', action: 'out-short', prior: 0.001, source: 'from memory', sweep: [1, 10] },
     { name: 'in-out-short', action: 'in-out-short', prior: 0.001, source: 'from memory', sweep: [1, 10] },
+    // Behavioural: output sags under load (current limit / foldback at a fraction of its rating).
+    { name: 'current-limit', action: 'current-limit', prior: 0.001, source: 'from memory', sweep: [100, 1e3, 1e4] },
   ],
   // Independent sources stand for the supply and the controller's outputs: not repairable parts.
   source: [],
 };
 
-/** Internal current-controlled sources (an opto's current transfer): output gone or CTR degraded. */
+/**
+ * Internal current-controlled sources (an opto's current transfer): output gone or CTR degraded. The CTR sweep
+ * multiplies the model's transfer: PC817 (Sharp datasheet [read]) guarantees CTR 50–600 % at 5 mA (rank A
+ * 80–160 %), so ×0.3 takes a mid-rank part to the datasheet minimum and ×0.1, ×0.02 well below it — what an aged
+ * LED (the usual wear-out, common practice) gives.
+ */
 export const TRANSFER_MODES: readonly ModeTemplate[] = [
   { name: 'open', action: 'scale', prior: 0.001, source: 'from memory', sweep: [0] },
   { name: 'drift', action: 'scale', prior: 0.002, source: 'from memory', sweep: [0.3, 0.1, 0.02] },
+];
+
+/**
+ * Behavioural modes of the bulk electrolytic capacitor on a rectified bus (hazard.ts finds the bus and its
+ * source). Open: the bus is the unsmoothed full-wave rectified sine, whose DC mean is 2/π of the peak
+ * (2√2/π·Vrms; any circuits textbook): 230 V rms → 207 V instead of ~325 V; swept ±5 % about 2/π because the
+ * shop's mains differs from the model's nominal. Dried out (capacitance lost): the
+ * mean sits between, lower by about half the ripple ΔV ≈ I/(2fC) (see the references file, [computed]), so a
+ * sweep of the peak fraction; the points are from memory. Electrolytics lose capacitance far more often than they
+ * short (common practice), hence the priors.
+ */
+export const BULK_MODES: readonly ModeTemplate[] = [
+  { name: 'open', action: 'source-scale', prior: 0.002, source: 'common practice', sweep: [0.95, 1, 1.05].map((k) => (2 / Math.PI) * k) },
+  { name: 'dried-out', action: 'source-scale', prior: 0.003, source: 'common practice', sweep: [0.75, 0.85, 0.93] },
 ];
 
 /** LED degradation dominates opto-coupler failures (common practice): internal diode priors × this. */

@@ -4,7 +4,7 @@
  * since a fault changes the structure and so the solution vector's layout), which cuts Newton iterations
  * several-fold when a fault is re-simulated.
  */
-import { measureDetailed, MeasurementError, type Circuit, type MeasuredReading, type MeterProfile } from '@splitscope/circuit';
+import { measureDetailed, type Circuit, type MeasuredReading, type MeterProfile } from '@splitscope/circuit';
 import type { MeterMode, Prediction } from './noise.js';
 
 export interface MeterResult {
@@ -25,6 +25,16 @@ class Read implements MeterResult {
   }
 }
 
+/**
+ * Whether an error from the circuit package means "this circuit could not be solved": a `SolveError` (thrown once
+ * every continuation strategy has failed) or, from packages that predate it, a MeasurementError whose message
+ * says "does not solve". Anything else (an unknown net, a bad netlist) is a real error.
+ */
+export function isSolveFailure(err: unknown): boolean {
+  if (!(err instanceof Error)) return false;
+  return err.name === 'SolveError' || (err.name === 'MeasurementError' && /does not solve/.test(err.message));
+}
+
 export function meterReading(
   circuit: Circuit,
   probe: { mode: MeterMode; red: string; black: string },
@@ -35,8 +45,8 @@ export function meterReading(
   try {
     m = measureDetailed(circuit, probe, meter, { solve: { initialGuess: guess } });
   } catch (err) {
-    // a circuit that does not solve with the meter attached predicts nothing
-    if (err instanceof MeasurementError) return { prediction: { value: 'unknown' } };
+    // A circuit that does not solve with the meter attached predicts nothing (never a reading value).
+    if (isSolveFailure(err)) return { prediction: { value: 'unknown', reason: 'no-solve' } };
     throw err;
   }
   const { value, beep } = m.reading;

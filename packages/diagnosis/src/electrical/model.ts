@@ -9,8 +9,10 @@
 import { DEFAULT_METER, flatten, stateOf, type Circuit, type MeterProfile, type Netlist } from '@splitscope/circuit';
 import type { Component, SubFault, SystemModel } from '../core/types.js';
 import { applyFaults, buildParts, toComponents, type ElectricalPart, type PartOverride } from './faults.js';
+import { findHazards, type Hazards } from './hazard.js';
 import { meterReading } from './meter.js';
-import { consistent, logLikelihood, outcomeBins, type MeterMode, type Prediction, type ReadingValue } from './noise.js';
+import { isPredicted, outcomeBins, type MeterMode, type Prediction } from './noise.js';
+import { broadLogLikelihood, groupConsistent, groupLogLikelihood, type ObservedValue } from './repeats.js';
 
 export interface ElectricalTest {
   mode: MeterMode;
@@ -35,9 +37,11 @@ export interface BoardModelInput {
   params?: Record<string, number>;
   parts?: Record<string, PartOverride>;
   meter?: MeterProfile;
+  /** Nets the board names as AC mains (added to those found from the sources, hazard.ts). */
+  acMains?: string[];
 }
 
-export class ElectricalModel implements SystemModel<ElectricalTest, ReadingValue, Prediction> {
+export class ElectricalModel implements SystemModel<ElectricalTest, ObservedValue, Prediction> {
   readonly components: Component[];
   readonly parts: ElectricalPart[];
   readonly partsByName: Map<string, ElectricalPart>;
@@ -45,6 +49,10 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ReadingValue
   readonly meter: MeterProfile;
   /** Every net of the board (lower-case). */
   readonly nets: Set<string>;
+  /** Mains and bus nets of the powered board (hazard.ts). */
+  readonly hazards: Hazards;
+  /** Parts with a pin on each net. */
+  private readonly partsOnNet = new Map<string, string[]>();
   private readonly states = new Map<string, Circuit>();
   private readonly healthy = new Map<string, Prediction>();
   private readonly guesses = new Map<string, Record<string, number>>();
@@ -52,13 +60,58 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ReadingValue
   /** Number of meter solves done (for the benchmark). */
   solves = 0;
 
-  constructor(input: BoardModelInput) {
-    this.circuit = flatten(input.netlist, input.params);
+  constructor(input: BoardModelInput, base?: ElectricalModel) {
     this.meter = input.meter ?? DEFAULT_METER;
-    this.parts = buildParts(input.netlist, this.circuit, input.parts);
+    if (base) {
+      // The same board under another meter profile: parts, circuit and hazards are shared; predictions are not.
+      this.circuit = base.circuit;
+      this.hazards = base.hazards;
+      this.parts = base.parts;
+      this.partsOnNet = base.partsOnNet;
+    } else {
+      this.circuit = flatten(input.netlist, input.params);
+      this.hazards = findHazards(this.circuit, this.poweredVoltages(), input.acMains);
+      this.parts = buildParts(input.netlist, this.circuit, input.parts, this.hazards);
+      for (const p of this.parts) {
+        for (const n of p.nets) {
+          const list = this.partsOnNet.get(n);
+          if (list) list.push(p.name);
+          else this.partsOnNet.set(n, [p.name]);
+        }
+      }
+    }
     this.partsByName = new Map(this.parts.map((p) => [p.name, p]));
     this.components = toComponents(this.parts);
     this.nets = new Set(['0', ...this.circuit.nets]);
+  }
+
+  /** The same board read with another meter profile (shares everything but predictions). */
+  withMeter(meter: MeterProfile): ElectricalModel {
+    return new ElectricalModel({ netlist: undefined as unknown as Netlist, meter }, this);
+  }
+
+  /** Node voltages of the healthy powered board (an ideal voltmeter on the first net), for the hazard rules. */
+  private poweredVoltages(): Record<string, number> | undefined {
+    const net = this.circuit.nets.find((n) => n !== '0');
+    if (!net) return undefined;
+    try {
+      const ideal = { ...DEFAULT_METER, dcv: { inputResistance: Infinity } };
+      return meterReading(stateOf(this.circuit, { power: 'on', lifted: [] }), { mode: 'dcv', red: net, black: '0' }, ideal).nodes;
+    } catch {
+      return undefined;
+    }
+  }
+
+  /** Parts with a pin on a probed net (the reference excluded): a reading's structural neighbourhood. */
+  suspects(t: ElectricalTest): string[] {
+    const out = new Set<string>();
+    for (const n of [t.red, t.black]) if (n !== '0') for (const p of this.partsOnNet.get(n) ?? []) out.add(p);
+    return [...out];
+  }
+
+  /** Names of parts with a pin on a net. */
+  partsOn(net: string): readonly string[] {
+    return this.partsOnNet.get(net) ?? [];
   }
 
   stateCircuit(t: Pick<ElectricalTest, 'power' | 'lifted'>): Circuit {
@@ -96,13 +149,15 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ReadingValue
   }
 
   private measureOn(c: Circuit, t: ElectricalTest, guess?: Record<string, number>): Prediction {
+    // A DC voltmeter on an AC mains net reads nothing the DC model can predict (hazard.ts).
+    if (t.mode === 'dcv' && (this.hazards.ac.has(t.red) || this.hazards.ac.has(t.black))) return AC_MAINS;
     this.solves++;
     try {
       const r = meterReading(c, t, this.meter, guess);
       if (!guess && r.nodes) this.guesses.set(testKey(t), r.nodes);
       return r.prediction;
     } catch {
-      return { value: 'unknown' };
+      return { value: 'unknown', reason: 'no-solve' };
     }
   }
 
@@ -117,12 +172,20 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ReadingValue
     return p;
   }
 
-  logLikelihood(t: ElectricalTest, v: ReadingValue, p: Prediction): number {
-    return logLikelihood(t.mode, v, p, this.meter);
+  logLikelihood(t: ElectricalTest, v: ObservedValue, p: Prediction): number {
+    return groupLogLikelihood(t.mode, v, p, this.meter);
   }
 
-  consistent(t: ElectricalTest, v: ReadingValue, p: Prediction): boolean {
-    return consistent(t.mode, v, p, this.meter);
+  consistent(t: ElectricalTest, v: ObservedValue, p: Prediction): boolean {
+    return groupConsistent(t.mode, v, p, this.meter);
+  }
+
+  predicted(p: Prediction): boolean {
+    return isPredicted(p);
+  }
+
+  logLikelihoodBroad(t: ElectricalTest, v: ObservedValue): number {
+    return broadLogLikelihood(t.mode, v, this.meter, this.hazards.maxVolts);
   }
 
   outcomes(t: ElectricalTest, p: Prediction): Array<[string, number]> {
@@ -135,3 +198,5 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ReadingValue
     return o;
   }
 }
+
+const AC_MAINS: Prediction = Object.freeze({ value: 'unknown', reason: 'ac-mains' }) as Prediction;

@@ -8,27 +8,49 @@
  *
  * Cost (relative units, common practice for the order, the numbers are from memory): moving a probe 1;
  * powering up 3; unplugging and waiting for / checking the bus discharge 4; lifting a part with the iron 6 per
- * part; refitting a lifted part 4 per part.
+ * part; refitting a lifted part 4 per part; a powered probe on a hazardous net (mains or the bus, hazard.ts) 3
+ * more, so a safer test that tells as much wins.
+ * A test already taken (same quantity: mode, nets, power, lifted parts) is never offered again unless the
+ * caller asks for confirmations; a DC volts probe on an AC mains net is never offered (the DC model cannot
+ * predict it).
  */
 import type { ElectricalTest } from './model.js';
 import type { MeterMode } from './noise.js';
+import { probePoint, type ProbePoint } from './words.js';
 
 export interface TestPoint {
   net: string;
+  /** The test point's label. With `id`, a description ("Fan control supply"); without, its printed name. */
   label?: string;
   /** Reference net (default "0"). */
   ref?: string;
+  /** The name printed on the board (TP5). */
+  id?: string;
+  description?: string;
+  /** Connector and pin when the test point is a connector pin. */
+  connector?: string;
+  pin?: string;
 }
+
+export type Hazard = 'mains' | 'bus';
+
+/** The caution shown with a powered probe on a hazardous net (the product defers to local codes). */
+export const HAZARD_CAUTION: Readonly<Record<Hazard, string>> = {
+  mains:
+    'Mains: this point carries the AC line when the board is plugged in. Use a meter and leads rated for mains (CAT II or better), one hand, no earthed instrument on the hot side; follow local codes and licensed practice.',
+  bus: 'DC bus: this point carries the rectified mains bus (hundreds of volts) when powered and for a while after unplugging. Keep one hand away, use rated leads; follow local codes and licensed practice.',
+};
 
 export interface BenchState {
   power: 'on' | 'off';
   lifted: string[];
 }
 
-export const COST = { probe: 1, powerOn: 3, powerOff: 4, lift: 6, refit: 4 } as const;
+export const COST = { probe: 1, powerOn: 3, powerOff: 4, lift: 6, refit: 4, hazard: 3 } as const;
 
-export function testCost(t: ElectricalTest, cur: BenchState): number {
+export function testCost(t: ElectricalTest, cur: BenchState, hazard?: Hazard): number {
   let c = COST.probe;
+  if (hazard && t.power === 'on') c += COST.hazard;
   if (t.power !== cur.power) c += t.power === 'on' ? COST.powerOn : COST.powerOff;
   const curSet = new Set(cur.lifted.map((p) => p.toLowerCase()));
   const newSet = new Set(t.lifted.map((p) => p.toLowerCase()));
@@ -37,11 +59,15 @@ export function testCost(t: ElectricalTest, cur: BenchState): number {
   return c;
 }
 
-export function netLabel(net: string, points: readonly TestPoint[]): string {
-  if (net === '0') return 'GND';
-  const tp = points.find((p) => p.net.toLowerCase() === net);
-  return tp?.label ? `${net.toUpperCase()} (${tp.label})` : net.toUpperCase();
+/** Names a net for a sentence: from a namer (words.ts) or, given test points only, their labels. */
+export type NetNamer = (net: string) => ProbePoint;
+
+function namerOf(points: readonly TestPoint[] | NetNamer): NetNamer {
+  if (typeof points === 'function') return points;
+  return (net) => probePoint(net, points.map((p) => ({ ...p, net: p.net.toLowerCase() })), [], []);
 }
+
+const said = (p: ProbePoint) => (p.description ? `${p.label} (${p.description})` : p.label);
 
 const READ: Record<MeterMode, string> = {
   dcv: 'read DC volts',
@@ -50,7 +76,8 @@ const READ: Record<MeterMode, string> = {
   continuity: 'listen for the continuity beep',
 };
 
-export function instruction(t: ElectricalTest, cur: BenchState, points: readonly TestPoint[]): string {
+export function instruction(t: ElectricalTest, cur: BenchState, points: readonly TestPoint[] | NetNamer, hazard?: Hazard): string {
+  const name = namerOf(points);
   const steps: string[] = [];
   const curSet = new Set(cur.lifted.map((p) => p.toLowerCase()));
   const newSet = new Set(t.lifted.map((p) => p.toLowerCase()));
@@ -63,9 +90,9 @@ export function instruction(t: ElectricalTest, cur: BenchState, points: readonly
   if (t.power === 'on' && (cur.power === 'off' || needOff)) {
     steps.push(t.lifted.length > 0 ? `power the board with ${t.lifted.join(', ')} still lifted` : 'power the board');
   }
-  const probe = `put the red probe on ${netLabel(t.red, points)} and the black on ${netLabel(t.black, points)} and ${READ[t.mode]}`;
+  const probe = `put the red probe on ${said(name(t.red))} and the black on ${name(t.black).label} and ${READ[t.mode]}`;
   const s = steps.length > 0 ? `${steps.join(', ')}, then ${probe}` : probe;
-  const warn = t.power === 'on' ? ' (board live: keep one hand away from the bus)' : '';
+  const warn = t.power !== 'on' ? '' : hazard ? ` (${hazard === 'mains' ? 'mains' : 'DC bus'} live: see the caution)` : ' (board live: keep one hand away from the bus)';
   return s.charAt(0).toUpperCase() + s.slice(1) + warn;
 }
 

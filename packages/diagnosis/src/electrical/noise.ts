@@ -2,14 +2,16 @@
  * Noise model of a bench reading given a predicted reading.
  *
  * Each meter mode is scored in the scale in which its errors are roughly Gaussian:
- * - dcv: volts, σ² = (meter accuracy)² + (component tolerance)², meter accuracy ±(0.5 % of reading + 20 mV)
- *   (a handheld DMM's basic DC accuracy and the offset/pickup of probing a live board; from memory), component
- *   tolerance 1.5 % of the value (rails are set by references and dividers of 1–2 % parts; from memory).
+ * - dcv: volts, σ² = σ_meter² + σ_tol², meter (repeatability) ±(0.5 % of reading + 20 mV) (a handheld DMM's
+ *   basic DC accuracy and the offset/pickup of probing a live board; from memory), part tolerance 1.5 % of the
+ *   value (rails are set by references and dividers of 1–2 % parts; from memory).
  * - ohm: log space, s = ln(R + r0) with r0 = 0.3 Ω (lead and contact resistance; from memory), so an error is
- *   relative for large values and absolute for a short. σ = √(1 %² + 8 %²): meter 1 %, and 8 % for part
- *   tolerance plus the spread of junction paths at the meter's test voltage (from memory).
- * - diode: volts, σ = √(15 mV² + (3 % of the drop)²) (junction spread with temperature and test current;
- *   from memory).
+ *   relative for large values and absolute for a short. σ_meter = 1 %, σ_tol = 8 % for part tolerance plus the
+ *   spread of junction paths at the meter's test voltage (from memory).
+ * - diode: volts, σ_tol = √(15 mV² + (3 % of the drop)²) (junction spread with temperature and test current;
+ *   from memory), σ_meter = 2 mV + 0.5 % (a handheld's diode-test accuracy; from memory).
+ * The two terms are kept apart because they behave differently on repeats (repeats.ts): the part tolerance is
+ * one error shared by every reading of the same quantity on one board, the meter term is fresh per reading.
  * The Gaussian core is mixed with a heavy tail: likelihood = (1 - ε)·N(s; μ, σ) + ε·Cauchy(s; μ, γ), ε = 0.02,
  * γ = 5σ + a floor. Reason: a probe slipping onto the wrong pad, a part whose real value sits outside the
  * modelled sweep, or a model simplification must cost a candidate a bounded factor (about ln(ε) plus a log of
@@ -31,7 +33,12 @@ export type ReadingValue = number | 'OL' | boolean;
 export interface Prediction {
   value: number | 'OL' | 'unknown';
   beep?: boolean;
+  /** Why a prediction is unknown: the model does not solve in that state, or a DC reading on an AC mains net. */
+  reason?: 'no-solve' | 'ac-mains';
 }
+
+/** The prediction could be computed (not 'unknown'). */
+export const isPredicted = (p: Prediction) => p.value !== 'unknown';
 
 export const EPS_TAIL = 0.02;
 export const DELTA_CONFUSION = 0.01;
@@ -56,8 +63,12 @@ const clampP = (p: number) => Math.min(1 - DELTA_CONFUSION, Math.max(DELTA_CONFU
 export interface Scale {
   /** Map a number reading to the scale. */
   s: (x: number) => number;
-  /** σ in the scale for a prediction of value μ (raw units). */
+  /** σ in the scale for a prediction of value μ (raw units): √(σ_meter² + σ_tol²). */
   sigma: (mu: number) => number;
+  /** The meter's repeatability part of σ (fresh per reading). */
+  sigmaMeter: (mu: number) => number;
+  /** The part-tolerance part of σ (shared by repeats of one quantity). */
+  sigmaTol: (mu: number) => number;
   /** Cauchy scale floor. */
   gammaFloor: number;
   /** Full scale in raw units (OL above). */
@@ -81,23 +92,56 @@ export function scaleOf(mode: MeterMode, meter: MeterProfile): Scale {
 }
 
 const LN_R0 = Math.log(R0);
-const SIG_OHM = Math.hypot(0.01, 0.08);
+const SIG_OHM_METER = 0.01;
+const SIG_OHM_TOL = 0.08;
 
 function makeScale(mode: MeterMode, meter: MeterProfile): Scale {
+  const split = (sigmaMeter: (mu: number) => number, sigmaTol: (mu: number) => number) => ({
+    sigmaMeter,
+    sigmaTol,
+    sigma: (mu: number) => Math.hypot(sigmaMeter(mu), sigmaTol(mu)),
+  });
   switch (mode) {
     case 'dcv':
       return {
         s: (x) => x,
-        sigma: (mu) => Math.hypot(0.005 * Math.abs(mu) + 0.02, 0.015 * mu),
+        ...split(
+          (mu) => 0.005 * Math.abs(mu) + 0.02,
+          (mu) => 0.015 * Math.abs(mu),
+        ),
         gammaFloor: 0.2,
         overRange: Infinity,
       };
     case 'diode':
-      return { s: (x) => x, sigma: (mu) => Math.hypot(0.015, 0.03 * mu), gammaFloor: 0.1, overRange: meter.diode.overRange };
+      return {
+        s: (x) => x,
+        ...split(
+          (mu) => 0.002 + 0.005 * Math.abs(mu),
+          (mu) => Math.hypot(0.015, 0.03 * mu),
+        ),
+        gammaFloor: 0.1,
+        overRange: meter.diode.overRange,
+      };
     case 'ohm':
-      return { s: (x) => (x > 0 ? Math.log(x + R0) : LN_R0), sigma: () => SIG_OHM, gammaFloor: 0.5, overRange: meter.ohm.overRange };
+      return {
+        s: (x) => (x > 0 ? Math.log(x + R0) : LN_R0),
+        ...split(
+          () => SIG_OHM_METER,
+          () => SIG_OHM_TOL,
+        ),
+        gammaFloor: 0.5,
+        overRange: meter.ohm.overRange,
+      };
     case 'continuity':
-      return { s: (x) => Math.log(Math.max(x, 0) + R0), sigma: () => SIG_CONT, gammaFloor: 0.5, overRange: meter.continuity.overRange };
+      return {
+        s: (x) => Math.log(Math.max(x, 0) + R0),
+        ...split(
+          () => 0,
+          () => SIG_CONT,
+        ),
+        gammaFloor: 0.5,
+        overRange: meter.continuity.overRange,
+      };
   }
 }
 
@@ -117,7 +161,7 @@ export function pBeep(pred: Prediction, meter: MeterProfile): number {
   return clampP(phi((Math.log(meter.continuity.threshold) - Math.log(Math.max(pred.value, 0) + R0)) / SIG_CONT));
 }
 
-function logDensity(z: number, mu: number, sigma: number, gamma: number): number {
+export function logDensity(z: number, mu: number, sigma: number, gamma: number): number {
   const d = z - mu;
   const g = -0.5 * (d / sigma) ** 2 - Math.log(sigma) - LN_SQRT_2PI;
   const c = -Math.log(Math.PI * gamma * (1 + (d / gamma) ** 2));
@@ -128,7 +172,7 @@ function logDensity(z: number, mu: number, sigma: number, gamma: number): number
 }
 
 /** The location a prediction gives in the scale (an OL prediction sits at full scale). */
-function location(pred: Prediction, sc: Scale): { mu: number; raw: number } | undefined {
+export function location(pred: Prediction, sc: Scale): { mu: number; raw: number } | undefined {
   if (pred.value === 'unknown') return undefined;
   const raw = pred.value === 'OL' ? sc.overRange : pred.value;
   return { mu: sc.s(raw), raw };

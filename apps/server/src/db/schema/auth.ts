@@ -7,6 +7,16 @@ export const shops = pgTable('shops', {
   name: text('name').notNull(),
   /** The shop's running job number: the next job takes this one. */
   nextJobNumber: integer('next_job_number').notNull().default(1001),
+  /** What customers see on reports, e-mails and the customer page. */
+  address: text('address'),
+  phone: text('phone'),
+  email: text('email'),
+  taxNumber: text('tax_number'),
+  /** An upload of this shop (its id); the logo on reports and the customer page. */
+  logoUploadId: text('logo_upload_id'),
+  /** Session lifetime the shop sets: signed out after this long without a request, and after this long at most. */
+  sessionIdleHours: integer('session_idle_hours').notNull().default(12),
+  sessionMaxDays: integer('session_max_days').notNull().default(30),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
@@ -21,6 +31,8 @@ export const users = pgTable(
     name: text('name').notNull(),
     role: roleEnum('role').notNull(),
     passwordHash: text('password_hash').notNull(),
+    /** Set when an admin deactivates the person: no sign-in, no session, kept for the history they wrote. */
+    deactivatedAt: timestamp('deactivated_at', { withTimezone: true }),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [uniqueIndex('users_email_unique').on(t.email), index('users_shop_idx').on(t.shopId)],
@@ -32,8 +44,10 @@ export const sessions = pgTable('sessions', {
   userId: text('user_id')
     .notNull()
     .references(() => users.id, { onDelete: 'cascade' }),
+  /** Idle expiry: moved forward while the session is used, never past created_at + the shop's longest lifetime. */
   expiresAt: timestamp('expires_at', { withTimezone: true, mode: 'date' }).notNull(),
-});
+  createdAt: timestamp('created_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+}, (t) => [index('sessions_user_idx').on(t.userId)]);
 
 export const auditLog = pgTable(
   'audit_log',
@@ -69,4 +83,20 @@ export const invitations = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [uniqueIndex('invitations_token_unique').on(t.tokenHash), index('invitations_shop_idx').on(t.shopId)],
+);
+
+/** A password reset by e-mail link: single use, short-lived, only a hash of the token is kept. */
+export const passwordResets = pgTable(
+  'password_resets',
+  {
+    id: text('id').primaryKey(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    tokenHash: text('token_hash').notNull(),
+    expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+    usedAt: timestamp('used_at', { withTimezone: true }),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('password_resets_token_unique').on(t.tokenHash), index('password_resets_user_idx').on(t.userId)],
 );

@@ -54,6 +54,9 @@ export const quotes = pgTable(
     customerApproval: customerApprovalEnum('customer_approval'),
     decidedAt: timestamp('decided_at', { withTimezone: true }),
     declineReason: text('decline_reason'),
+    /** the customer link the answer came through, and the address that link was mailed to */
+    decidedViaLinkId: text('decided_via_link_id'),
+    decidedByEmail: text('decided_by_email'),
     sentAt: timestamp('sent_at', { withTimezone: true }),
     sentTo: text('sent_to'),
     createdBy: text('created_by')
@@ -105,7 +108,7 @@ export const invoices = pgTable(
     taxCents: cents('tax_cents'),
     totalCents: cents('total_cents'),
     paidCents: bigint('paid_cents', { mode: 'number' }).notNull().default(0),
-    /** the latest hosted checkout opened for it */
+    /** the hosted checkout opened for it: reused while it is open, so an invoice has one open checkout at a time */
     checkoutSessionId: text('checkout_session_id'),
     issuedAt: timestamp('issued_at', { withTimezone: true }).notNull().defaultNow(),
     sentAt: timestamp('sent_at', { withTimezone: true }),
@@ -165,6 +168,8 @@ export const payments = pgTable(
     amountCents: cents('amount_cents'),
     currency: text('currency').notNull(),
     paidAt: timestamp('paid_at', { withTimezone: true }).notNull().defaultNow(),
+    /** a payment of an invoice already paid (a second checkout completed): the money is owed back */
+    refundDue: boolean('refund_due').notNull().default(false),
   },
   (t) => [
     uniqueIndex('payments_event_unique').on(t.eventId),
@@ -186,6 +191,9 @@ export const customerLinks = pgTable(
       .notNull()
       .references(() => jobs.id),
     tokenHash: text('token_hash').notNull(),
+    /** who the link was mailed to (the customer's name and address on file at the time); null for older links */
+    recipientName: text('recipient_name'),
+    recipientEmail: text('recipient_email'),
     expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
     revokedAt: timestamp('revoked_at', { withTimezone: true }),
     lastUsedAt: timestamp('last_used_at', { withTimezone: true }),

@@ -3,3 +3,4 @@ export * from './customers';
 export * from './boards';
 export * from './jobs';
 export * from './billing';
+export * from './rules';

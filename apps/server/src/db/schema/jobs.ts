@@ -42,6 +42,12 @@ export const jobs = pgTable(
     receivedAt: timestamp('received_at', { withTimezone: true }).notNull().defaultNow(),
     dueAt: timestamp('due_at', { withTimezone: true }),
     closedAt: timestamp('closed_at', { withTimezone: true }),
+    /** How a returned board left the shop ('courier', 'collected'); set with `closedAt`. */
+    returnedVia: text('returned_via'),
+    /** The technician's note with the proposed part, for the lead who reviews it. */
+    proposalNote: text('proposal_note'),
+    /** The lead who let the assigned trainee leave guided order on this job; null while guided order binds. */
+    guidedLiftedBy: text('guided_lifted_by').references(() => users.id),
     createdBy: text('created_by')
       .notNull()
       .references(() => users.id),
@@ -70,6 +76,8 @@ export const readings = pgTable(
       .notNull()
       .references(() => jobs.id),
     idempotencyKey: text('idempotency_key').notNull(),
+    /** sha256 of the request as parsed: a retry with the same key must send the same reading (null on older rows) */
+    requestHash: text('request_hash'),
     mode: meterModeEnum('mode').notNull(),
     red: text('red').notNull(),
     black: text('black').notNull(),
@@ -103,6 +111,32 @@ export const readings = pgTable(
       .where(sql`${t.supersedes} is not null`),
     index('readings_job_idx').on(t.jobId, t.createdAt),
   ],
+);
+
+/**
+ * A reading struck out, with the reason: the reading stays stored and listed (struck through), and the diagnosis
+ * and the sign-off no longer count it. Append-only like the readings: a strike is never undone by an update.
+ */
+export const readingStrikes = pgTable(
+  'reading_strikes',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id),
+    jobId: text('job_id')
+      .notNull()
+      .references(() => jobs.id),
+    readingId: text('reading_id')
+      .notNull()
+      .references(() => readings.id),
+    reason: text('reason').notNull(),
+    authorId: text('author_id')
+      .notNull()
+      .references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('reading_strikes_reading_unique').on(t.readingId), index('reading_strikes_job_idx').on(t.jobId)],
 );
 
 export const diagnosisSnapshots = pgTable(

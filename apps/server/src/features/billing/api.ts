@@ -1,8 +1,8 @@
 import { Router } from 'express';
 import type { AppContext } from '../../context';
-import { invoiceRoutes } from '../invoices/routes';
-import { mailOutboxRoutes } from '../mail/routes';
-import { quoteRoutes } from '../quotes/routes';
+import { invoiceRoutes } from '../invoices';
+import { mailOutboxRoutes } from '../mail';
+import { quoteRoutes } from '../quotes';
 import { billingRoutes } from './routes';
 
 /** The signed-in billing API: settings, quotes, invoices, status e-mails and the development outbox. */

@@ -7,9 +7,9 @@ import type { Config } from '../../config';
 import type { Db } from '../../db/client';
 import { auditLog } from '../../db/schema';
 import { newId } from '../../lib/ids';
-import { sendMail, type OutgoingMail } from '../mail/transport';
+import { type OutgoingMail, sendMail } from '../mail';
 import type { LineRow } from './documents';
-import { getBillingJob, recipientOf, type BillingJob } from './jobs';
+import { getBillingJob, recipientFor, recipientOf, type BillingJob } from './jobs';
 import { createCustomerLink } from './links';
 import { getSettingsRow, takeNumber, type Tx } from './settings';
 
@@ -41,8 +41,8 @@ export const auditBilling = (tx: Db | Tx, shopId: string, actor: Actor | null, a
   tx.insert(auditLog).values({ id: newId(), shopId, userId: actor?.id ?? null, action, subject, detail });
 
 /**
- * E-mails a document to the customer of its job with a fresh customer link: to the address asked for, else
- * the one on file. `render` builds the message from the job and the link; the mail is logged by sendMail.
+ * E-mails a document to the customer of its job with a fresh customer link, to the address on file (an
+ * address asked for must be that one). `render` builds the message from the job and the link; the mail is logged by sendMail.
  */
 export async function mailDocument({
   db,
@@ -64,8 +64,16 @@ export async function mailDocument({
   const job = await getBillingJob(db, actor.shopId, jobId);
   const address = recipientOf(job, to);
   const settings = await getSettingsRow(db, actor.shopId);
-  const link = await createCustomerLink({ db, config, shopId: actor.shopId, jobId: job.id, validDays: settings.linkValidDays, createdBy: actor.id });
+  const link = await createCustomerLink({
+    db,
+    config,
+    shopId: actor.shopId,
+    jobId: job.id,
+    validDays: settings.linkValidDays,
+    createdBy: actor.id,
+    recipient: recipientFor(job, address),
+  });
   const content = await render(job, link);
   const sent = await sendMail({ config, db, mail: { shopId: actor.shopId, jobId: job.id, kind, to: address, replyTo: settings.replyTo, ...content } });
-  return { ...sent, to: address };
+  return { ...sent, to: address, linkId: link.id };
 }

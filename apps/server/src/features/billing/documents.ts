@@ -42,6 +42,7 @@ export const toQuote = (q: typeof quotes.$inferSelect, lines: LineRow[]): Quote 
   customerApproval: q.customerApproval,
   decidedAt: isoOrNull(q.decidedAt),
   declineReason: q.declineReason,
+  decidedByEmail: q.decidedByEmail,
   sentAt: isoOrNull(q.sentAt),
   sentTo: q.sentTo,
   createdAt: iso(q.createdAt),

@@ -4,7 +4,7 @@ import { and, eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
 import { boardModels, customers, jobs, shops } from '../../db/schema';
 import { AppError } from '../../http/errors';
-import type { JobSummary } from '../mail/templates';
+import type { JobSummary } from '../mail';
 
 export interface BillingJob {
   id: string;
@@ -60,9 +60,21 @@ export const jobSummary = (j: BillingJob): JobSummary => ({
   boardName: j.boardName,
 });
 
-/** Where a mail to the customer goes: the address asked for, else the one on file. */
+/**
+ * Where a mail to the customer goes: the customer's address on file, and only there. A customer link opens
+ * the job and answers its quotes as the customer, so it is never mailed to an address typed when sending; an
+ * address asked for must be the one on file (to send elsewhere, change the customer's e-mail first).
+ */
 export function recipientOf(j: BillingJob, to: string | undefined): string {
-  const address = to ?? j.customer.email;
-  if (!address) throw new AppError('invalid', `${j.customer.name} has no e-mail address on file; give one to send to`);
+  const address = j.customer.email;
+  if (!address) throw new AppError('invalid', `${j.customer.name} has no e-mail address on file; add one to the customer first`);
+  if (to !== undefined && to.trim().toLowerCase() !== address.trim().toLowerCase()) {
+    throw new AppError('invalid', `Customer links go only to the customer's address on file (${address}); change the customer's e-mail to send elsewhere`, {
+      errors: [{ path: 'to', message: "must be the customer's address on file" }],
+    });
+  }
   return address;
 }
+
+/** Who a link is mailed to, recorded with it (and with an answer given through it). */
+export const recipientFor = (j: BillingJob, address: string) => ({ name: j.customer.name, email: address });

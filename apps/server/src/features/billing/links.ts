@@ -1,6 +1,6 @@
 // Customer links: a random 256-bit token in the e-mail, only its sha256 in the database, an expiry, and the
 // scope of one job. Changing one character of the token gives a hash that matches nothing.
-import { and, eq, gt, isNull } from 'drizzle-orm';
+import { and, eq, gt, isNull, ne } from 'drizzle-orm';
 import { createHash } from 'node:crypto';
 import type { Config } from '../../config';
 import type { Db } from '../../db/client';
@@ -25,6 +25,7 @@ export async function createCustomerLink({
   jobId,
   validDays,
   createdBy,
+  recipient = null,
 }: {
   db: Db;
   config: Config;
@@ -32,11 +33,26 @@ export async function createCustomerLink({
   jobId: string;
   validDays: number;
   createdBy: string | null;
-}): Promise<{ token: string; url: string; expiresAt: Date }> {
+  /** who the link is mailed to; an answer given through the link is recorded as theirs */
+  recipient?: { name: string; email: string } | null;
+}): Promise<{ id: string; token: string; url: string; expiresAt: Date }> {
   const token = newToken();
+  const id = newId();
   const expiresAt = new Date(Date.now() + validDays * 24 * 3600 * 1000);
-  await db.insert(customerLinks).values({ id: newId(), shopId, jobId, tokenHash: hashToken(token), expiresAt, createdBy });
-  return { token, url: `${publicBase(config)}/c/${token}`, expiresAt };
+  await db
+    .insert(customerLinks)
+    .values({ id, shopId, jobId, tokenHash: hashToken(token), expiresAt, createdBy, recipientName: recipient?.name ?? null, recipientEmail: recipient?.email ?? null });
+  return { id, token, url: `${publicBase(config)}/c/${token}`, expiresAt };
+}
+
+/** Revokes every live link of a job but `keep`: a quote sent now replaces what earlier links offered. */
+export async function revokeEarlierLinks(db: Db, jobId: string, keep: string): Promise<number> {
+  const rows = await db
+    .update(customerLinks)
+    .set({ revokedAt: new Date() })
+    .where(and(eq(customerLinks.jobId, jobId), isNull(customerLinks.revokedAt), ne(customerLinks.id, keep)))
+    .returning({ id: customerLinks.id });
+  return rows.length;
 }
 
 export interface ResolvedLink {
@@ -44,6 +60,8 @@ export interface ResolvedLink {
   shopId: string;
   jobId: string;
   expiresAt: Date;
+  recipientName: string | null;
+  recipientEmail: string | null;
 }
 
 /** The link a token names, if it is intact, not expired and not revoked; otherwise one and the same 404. */
@@ -54,7 +72,14 @@ export async function resolveCustomerLink(db: Db, token: string): Promise<Resolv
     .update(customerLinks)
     .set({ lastUsedAt: now })
     .where(and(eq(customerLinks.tokenHash, hashToken(token)), gt(customerLinks.expiresAt, now), isNull(customerLinks.revokedAt)))
-    .returning({ id: customerLinks.id, shopId: customerLinks.shopId, jobId: customerLinks.jobId, expiresAt: customerLinks.expiresAt });
+    .returning({
+      id: customerLinks.id,
+      shopId: customerLinks.shopId,
+      jobId: customerLinks.jobId,
+      expiresAt: customerLinks.expiresAt,
+      recipientName: customerLinks.recipientName,
+      recipientEmail: customerLinks.recipientEmail,
+    });
   if (!row) throw new AppError('not_found', LINK_INVALID);
   return row;
 }

@@ -7,9 +7,8 @@ import type { JobStatus } from '@splitscope/contract';
 import type { Config } from '../../config';
 import type { Db } from '../../db/client';
 import { billingSettings, customers, jobs, mailLog } from '../../db/schema';
-import { statusMail } from '../mail/templates';
-import { sendMail } from '../mail/transport';
-import { getBillingJob, jobSummary, recipientOf } from './jobs';
+import { sendMail, statusMail } from '../mail';
+import { getBillingJob, jobSummary, recipientFor, recipientOf } from './jobs';
 import { createCustomerLink } from './links';
 
 export async function sendDueStatusMail({ db, config, shopId }: { db: Db; config: Config; shopId?: string }): Promise<number> {
@@ -61,7 +60,7 @@ export async function sendStatusMail({
 }) {
   const job = await getBillingJob(db, shopId, jobId);
   const address = recipientOf(job, to);
-  const link = await createCustomerLink({ db, config, shopId, jobId, validDays, createdBy });
+  const link = await createCustomerLink({ db, config, shopId, jobId, validDays, createdBy, recipient: recipientFor(job, address) });
   const content = statusMail(jobSummary(job), status, link);
   return sendMail({ config, db, mail: { shopId, jobId, kind: `status:${status}`, to: address, replyTo, ...content } });
 }

@@ -1,7 +1,8 @@
 import type { AppContext } from '../../context';
-import { startFakePayments, type FakePayments } from '../../fakes/payments';
-import { startSmtpCapture, type SmtpCapture } from '../../fakes/smtp-capture';
-import { localFakesOn } from '../mail/local';
+// Types only: the fakes are development code (apps/server/dev), loaded below only when LOCAL_FAKES is on.
+import type { FakePayments } from '../../../dev/fakes/payments';
+import type { SmtpCapture } from '../../../dev/fakes/smtp-capture';
+import { localFakesOn } from '../mail';
 import { startStatusMailer } from './milestones';
 
 export interface BillingServices {
@@ -20,6 +21,8 @@ export async function startBillingServices(ctx: AppContext, serverUrl: string): 
   let smtp: SmtpCapture | null = null;
   let payments: FakePayments | null = null;
   if (localFakesOn(config)) {
+    const { startSmtpCapture } = await import('../../../dev/fakes/smtp-capture');
+    const { startFakePayments } = await import('../../../dev/fakes/payments');
     try {
       smtp = await startSmtpCapture({ host: config.SMTP_HOST, port: config.SMTP_PORT, dir: config.MAIL_CAPTURE_DIR });
       console.log(`splitscope: local mail capture on smtp://${smtp.host}:${smtp.port} (messages in ${config.MAIL_CAPTURE_DIR})`);

@@ -2,7 +2,7 @@ import express, { Router } from 'express';
 import type Stripe from 'stripe';
 import type { AppContext } from '../../context';
 import { AppError } from '../../http/errors';
-import { applyPaymentEvent } from '../invoices/service';
+import { applyPaymentEvent } from '../invoices';
 import { paymentsFor } from './payments';
 
 /**

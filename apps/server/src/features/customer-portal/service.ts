@@ -1,20 +1,17 @@
 // What the customer sees and does through a link: one job, nothing else of the shop. Every query below is
 // scoped by the link's shop and job; ids from the URL only ever narrow that scope.
-import { and, eq, gt, inArray, isNull, ne, sql } from 'drizzle-orm';
-import { jobStatusLabels, jobTransitions, type PublicJob } from '@splitscope/contract';
+import { and, eq, inArray, isNotNull, isNull, ne, sql } from 'drizzle-orm';
+import { jobStatusLabels, moveOnEvent, reportReady, ROLES, type PublicJob } from '@splitscope/contract';
 import type { Config } from '../../config';
 import type { Db } from '../../db/client';
-import { auditLog, jobs, quotes, users } from '../../db/schema';
+import { auditLog, quotes, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
-import { findJobInvoices, findJobQuotes } from '../billing/documents';
-import { getBillingJob, jobSummary } from '../billing/jobs';
-import { resolveCustomerLink } from '../billing/links';
-import { loadRepairReport, renderReportPdf, reportAvailable } from '../billing/report';
-import { getSettingsRow } from '../billing/settings';
-import { startCheckout } from '../invoices/service';
-import { quoteDecisionMail } from '../mail/templates';
-import { sendMail } from '../mail/transport';
+import { findJobInvoices, findJobQuotes, getBillingJob, getSettingsRow, jobSummary, resolveCustomerLink } from '../billing';
+import { startCheckout } from '../invoices';
+import { moveJob } from '../jobs';
+import { getRepairReport, renderReportPdf } from '../reports';
+import { quoteDecisionMail, sendMail } from '../mail';
 
 export async function getPublicJob({ db, token }: { db: Db; token: string }): Promise<PublicJob> {
   const link = await resolveCustomerLink(db, token);
@@ -27,9 +24,9 @@ export async function getPublicJob({ db, token }: { db: Db; token: string }): Pr
     board: job.boardName ? `${job.boardName} (${job.unitDescription})` : job.unitDescription,
     status: job.status,
     statusLabel: jobStatusLabels[job.status],
-    reportAvailable: reportAvailable(job.status),
+    reportAvailable: reportReady(job.status),
     expiresAt: link.expiresAt.toISOString(),
-    quotes: quotesOfJob.map(({ sentTo: _sentTo, ...q }) => q),
+    quotes: quotesOfJob.map(({ sentTo: _sentTo, decidedByEmail: _by, ...q }) => q),
     invoices: await findJobInvoices(db, job.id),
   };
 }
@@ -40,7 +37,7 @@ async function shopRecipients(db: Db, shopId: string, replyTo: string | null): P
   const rows = await db
     .select({ email: users.email })
     .from(users)
-    .where(and(eq(users.shopId, shopId), inArray(users.role, ['admin', 'lead'])));
+    .where(and(eq(users.shopId, shopId), inArray(users.role, [...ROLES.reviewers])));
   return rows.map((r) => r.email);
 }
 
@@ -68,8 +65,9 @@ export async function decideQuote({
   const [q] = await db.select().from(quotes).where(and(eq(quotes.id, quoteId), eq(quotes.jobId, link.jobId), eq(quotes.shopId, link.shopId)));
   if (!q || q.status === 'draft') throw new AppError('not_found', 'No such quote on this job');
   if (q.customerApproval) throw new AppError('conflict', `This quote was already ${q.customerApproval}`);
-  // A quote sent after this one replaces it: the customer answers only the newest, so an old price cannot
-  // be approved after the shop re-quoted.
+  // A quote sent after this one replaces it: the customer answers only the one they were sent last, so an old
+  // price cannot be approved after the shop re-quoted. Send time, not creation time: a quote written first
+  // and sent last is the shop's latest word. Compared in the database: a JS Date drops PostgreSQL's microseconds.
   const [newer] = await db
     .select({ number: quotes.number })
     .from(quotes)
@@ -77,9 +75,8 @@ export async function decideQuote({
       and(
         eq(quotes.jobId, link.jobId),
         ne(quotes.id, q.id),
-        ne(quotes.status, 'draft'),
-        // compared in the database: a JS Date drops the microseconds PostgreSQL keeps
-        gt(quotes.createdAt, sql`(select q2.created_at from ${quotes} q2 where q2.id = ${q.id})`),
+        isNotNull(quotes.sentAt),
+        sql`${quotes.sentAt} > coalesce((select q2.sent_at from ${quotes} q2 where q2.id = ${q.id}), '-infinity'::timestamptz)`,
       ),
     )
     .limit(1);
@@ -88,18 +85,27 @@ export async function decideQuote({
   const changed = await db.transaction(async (tx) => {
     const [row] = await tx
       .update(quotes)
-      .set({ status: decision, customerApproval: decision, decidedAt: now, declineReason: decision === 'declined' ? reason : null, updatedAt: now })
+      .set({
+        status: decision,
+        customerApproval: decision,
+        decidedAt: now,
+        declineReason: decision === 'declined' ? reason : null,
+        // whose answer this is: the person and address the link was mailed to
+        decidedViaLinkId: link.id,
+        decidedByEmail: link.recipientEmail,
+        updatedAt: now,
+      })
       .where(and(eq(quotes.id, q.id), eq(quotes.status, 'sent'), isNull(quotes.customerApproval)))
       .returning({ id: quotes.id });
     if (!row) return false;
-    await tx.insert(auditLog).values({ id: newId(), shopId: link.shopId, action: `quote.customer-${decision}`, subject: q.id, detail: reason });
-    if (decision === 'approved' && jobTransitions.received.includes('diagnosing')) {
-      const [moved] = await tx
-        .update(jobs)
-        .set({ status: 'diagnosing', updatedAt: now })
-        .where(and(eq(jobs.id, link.jobId), eq(jobs.status, 'received')))
-        .returning({ id: jobs.id });
-      if (moved) await tx.insert(auditLog).values({ id: newId(), shopId: link.shopId, action: 'job.status', subject: link.jobId, detail: 'received → diagnosing (quote approved by the customer)' });
+    const via = link.recipientEmail ? `${link.recipientName ?? 'the customer'} <${link.recipientEmail}>` : 'an unaddressed link';
+    const detail = `through link ${link.id} mailed to ${via}${reason ? `; reason: ${reason}` : ''}`;
+    await tx.insert(auditLog).values({ id: newId(), shopId: link.shopId, action: `quote.customer-${decision}`, subject: q.id, detail });
+    if (decision === 'approved') {
+      // Only a job still at the move's start moves; one the shop already took further stays where it is.
+      const { from, to } = moveOnEvent('quote-approval');
+      const audit = { action: 'job.status', detail: `${from} → ${to} (quote approved by the customer)` };
+      await moveJob(tx, { jobId: link.jobId, shopId: link.shopId, from, to, by: { event: 'quote-approval' }, audit });
     }
     return true;
   });
@@ -121,8 +127,8 @@ export async function decideQuote({
 export async function getPublicReport({ db, token }: { db: Db; token: string }) {
   const link = await resolveCustomerLink(db, token);
   const job = await getBillingJob(db, link.shopId, link.jobId);
-  if (!reportAvailable(job.status)) throw new AppError('not_found', 'The repair report is not ready yet');
-  return { filename: `repair-report-job-${job.number}.pdf`, pdf: await renderReportPdf(await loadRepairReport(db, job)) };
+  if (!reportReady(job.status)) throw new AppError('not_found', 'The repair report is not ready yet');
+  return { filename: `repair-report-job-${job.number}.pdf`, pdf: await renderReportPdf(await getRepairReport({ db, shopId: link.shopId, jobId: job.id })) };
 }
 
 export async function startPublicCheckout({ db, config, token, invoiceId }: { db: Db; config: Config; token: string; invoiceId: string }) {

@@ -1,9 +1,9 @@
 import { Router } from 'express';
-import { createCustomerRequest, customerListQuery, customerListResponse, customerSchema, idParams, updateCustomerRequest } from '@splitscope/contract';
+import { createCustomerRequest, customerListQuery, customerListResponse, customerSchema, idParams, mergeCustomerRequest, mergeCustomerResponse, updateCustomerRequest } from '@splitscope/contract';
 import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';
-import { createCustomer, findCustomers, getCustomer, updateCustomer } from './service';
+import { createCustomer, findCustomers, getCustomer, mergeCustomers, updateCustomer } from './service';
 
 export function customerRoutes(ctx: AppContext): Router {
   const r = Router();
@@ -24,6 +24,11 @@ export function customerRoutes(ctx: AppContext): Router {
     const { id } = parse(idParams, req.params);
     const input = parse(updateCustomerRequest, req.body);
     res.json(customerSchema.parse(await updateCustomer({ db: ctx.db, shopId: actorOf(req).shopId, id, input })));
+  });
+  r.post('/customers/:id/merge', requireRole(...ROLES.reviewers), async (req, res) => {
+    const { id } = parse(idParams, req.params);
+    const { duplicateId } = parse(mergeCustomerRequest, req.body);
+    res.json(mergeCustomerResponse.parse(await mergeCustomers({ db: ctx.db, actor: actorOf(req), keepId: id, duplicateId })));
   });
   return r;
 }

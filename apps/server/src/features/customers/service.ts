@@ -1,7 +1,8 @@
 import { and, asc, eq, ilike, or, type SQL } from 'drizzle-orm';
 import type { CreateCustomerRequest, Customer, CustomerListQuery, UpdateCustomerRequest } from '@splitscope/contract';
 import type { Db } from '../../db/client';
-import { customers } from '../../db/schema';
+import type { Actor } from '../../auth/guards';
+import { auditLog, customers, invoices, jobs, quotes } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
@@ -55,4 +56,45 @@ export async function updateCustomer({ db, shopId, id, input }: { db: Db; shopId
     .returning();
   if (!row) throw new AppError('not_found', `No customer ${id}`);
   return toCustomer(row);
+}
+
+/**
+ * Two rows for one customer (typed twice at the counter): the duplicate's jobs, quotes and invoices move to the
+ * kept row, the kept row's empty fields take the duplicate's values, and the duplicate is deleted. One transaction.
+ */
+export async function mergeCustomers({ db, actor, keepId, duplicateId }: { db: Db; actor: Actor; keepId: string; duplicateId: string }) {
+  return db.transaction(async (tx) => {
+    const rows = await tx
+      .select()
+      .from(customers)
+      .where(and(eq(customers.shopId, actor.shopId), or(eq(customers.id, keepId), eq(customers.id, duplicateId))))
+      .orderBy(asc(customers.id))
+      .for('update');
+    const keep = rows.find((r) => r.id === keepId);
+    const dup = rows.find((r) => r.id === duplicateId);
+    if (!keep) throw new AppError('not_found', `No customer ${keepId}`);
+    if (keepId === duplicateId) throw new AppError('invalid', 'Choose another customer to merge into this one', { errors: [{ path: 'duplicateId', message: 'the same customer' }] });
+    if (!dup) throw new AppError('not_found', `No customer ${duplicateId}`);
+    const moved = {
+      jobs: (await tx.update(jobs).set({ customerId: keepId }).where(eq(jobs.customerId, duplicateId)).returning({ id: jobs.id })).length,
+      quotes: (await tx.update(quotes).set({ customerId: keepId }).where(eq(quotes.customerId, duplicateId)).returning({ id: quotes.id })).length,
+      invoices: (await tx.update(invoices).set({ customerId: keepId }).where(eq(invoices.customerId, duplicateId)).returning({ id: invoices.id })).length,
+    };
+    const notes = [keep.notes, dup.notes].filter(Boolean).join('\n');
+    const [row] = await tx
+      .update(customers)
+      .set({ company: keep.company ?? dup.company, email: keep.email ?? dup.email, phone: keep.phone ?? dup.phone, notes: notes || null })
+      .where(eq(customers.id, keepId))
+      .returning();
+    await tx.delete(customers).where(eq(customers.id, duplicateId));
+    await tx.insert(auditLog).values({
+      id: newId(),
+      shopId: actor.shopId,
+      userId: actor.id,
+      action: 'customer-merge',
+      subject: keepId,
+      detail: `${dup.name} (${duplicateId}) merged into ${keep.name}: ${moved.jobs} jobs, ${moved.quotes} quotes, ${moved.invoices} invoices`,
+    });
+    return { customer: toCustomer(row!), moved };
+  });
 }

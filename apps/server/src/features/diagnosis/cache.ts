@@ -52,11 +52,6 @@ function keep(jobId: string, { key, output }: Computed): Diagnosis {
   return frozen;
 }
 
-/** For tests: an empty cache, as after a restart. */
-export function clearDiagnosisCache(): void {
-  entries.clear();
-}
-
 function deepFreeze<T>(x: T): T {
   if (typeof x === 'object' && x !== null && !Object.isFrozen(x)) {
     Object.freeze(x);

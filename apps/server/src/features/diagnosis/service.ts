@@ -5,12 +5,13 @@ import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
 import type { Diagnosis, DiagnosisSnapshot } from '@splitscope/contract';
 import type { Db } from '../../db/client';
-import { boardModelVersions, diagnosisSnapshots, jobs, readings } from '../../db/schema';
+import { boardModelVersions, diagnosisSnapshots, jobs, readingStrikes, readings } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
-import { unitOf } from '../boards/engine';
+import { unitOf } from '../boards';
 import { diagnosisFor } from './cache';
 import { diagnosisPool } from './pool';
+import { wordDiagnosis, wordsOf } from './words';
 
 /** Stored with every snapshot, so an old diagnosis can be told apart from what today's engine would say. */
 export const ENGINE_VERSION = (() => {
@@ -29,7 +30,9 @@ const jobId = sql.placeholder('jobId');
 // The readings the diagnosis works from: diagnosis-phase rows that no later row of the same job corrects
 // (`readings` in the subquery is its own table, not the outer one).
 const correctedIds = (db: Db) => db.select({ id: readings.supersedes }).from(readings).where(and(eq(readings.jobId, jobId), sql`${readings.supersedes} is not null`));
-const isCurrent = (db: Db) => and(eq(readings.jobId, jobId), eq(readings.phase, 'diagnosis'), sql`${readings.id} not in (${correctedIds(db)})`);
+const struckIds = (db: Db) => db.select({ id: readingStrikes.readingId }).from(readingStrikes).where(eq(readingStrikes.jobId, jobId));
+const isCurrent = (db: Db) =>
+  and(eq(readings.jobId, jobId), eq(readings.phase, 'diagnosis'), sql`${readings.id} not in (${correctedIds(db)})`, sql`${readings.id} not in (${struckIds(db)})`);
 // The id breaks ties of equal timestamps, so the same readings always reach the engine in the same order.
 const byTime = [asc(readings.takenAt), asc(readings.createdAt), asc(readings.id)];
 
@@ -89,7 +92,8 @@ export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Pr
     // A worker thread runs the engine (seconds on a first run), so the server answers other requests meanwhile.
     const out = await diagnosisPool().run(job.boardVersionId, toCaseReadings(rows), () => documentOf(db, job.boardVersionId));
     // Kept under the key of the rows it ran on: a reading stored since the key query makes that key differ.
-    return { key: keyOf(job.boardVersionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null), output: shapeDiagnosis(out, job, rows) };
+    const words = await wordsOf(job.boardVersionId, () => documentOf(db, job.boardVersionId));
+    return { key: keyOf(job.boardVersionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null), output: wordDiagnosis(shapeDiagnosis(out, job, rows), words) };
   });
 }
 

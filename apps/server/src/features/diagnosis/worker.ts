@@ -5,6 +5,8 @@
 import { parentPort } from 'node:worker_threads';
 import { CaseError } from '@splitscope/diagnosis';
 import { AppError } from '../../http/errors';
+// The worker thread loads the board engine alone, not the boards feature's database service behind its index.
+// eslint-disable-next-line import-x/no-restricted-paths
 import { boardEngine, cachedBoardEngine } from '../boards/engine';
 import type { WorkerFailure, WorkerReply, WorkerRequest } from './protocol';
 

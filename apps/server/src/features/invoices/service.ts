@@ -1,6 +1,6 @@
 import { and, asc, desc, eq } from 'drizzle-orm';
 import type Stripe from 'stripe';
-import type { BillingLineValues, createInvoiceRequest, Invoice } from '@splitscope/contract';
+import { reportReady, type BillingLineValues, type createInvoiceRequest, type Invoice } from '@splitscope/contract';
 import type { z } from 'zod';
 import type { Actor } from '../../auth/guards';
 import type { Config } from '../../config';
@@ -8,15 +8,9 @@ import type { Db } from '../../db/client';
 import { invoiceLines, invoices, paymentEvents, payments, quoteLines, quotes } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
-import { auditBilling, linesFromInput, linesFromRows, mailDocument, openDocument } from '../billing/billing-document';
-import { toInvoice } from '../billing/documents';
-import { getBillingJob, jobSummary } from '../billing/jobs';
-import { createCustomerLink, publicBase } from '../billing/links';
-import { paymentsFor } from '../billing/payments';
-import { loadRepairReport, renderReportPdf, reportAvailable } from '../billing/report';
-import { getSettingsRow } from '../billing/settings';
-import { invoiceMail, paidMail } from '../mail/templates';
-import { sendMail } from '../mail/transport';
+import { auditBilling, createCustomerLink, getBillingJob, getSettingsRow, jobSummary, linesFromInput, linesFromRows, mailDocument, openDocument, paymentsFor, publicBase, toInvoice } from '../billing';
+import { getRepairReport, renderReportPdf } from '../reports';
+import { invoiceMail, paidMail, sendMail } from '../mail';
 
 async function loadInvoice(db: Db, shopId: string, id: string) {
   const [inv] = await db.select().from(invoices).where(and(eq(invoices.id, id), eq(invoices.shopId, shopId)));
@@ -45,7 +39,7 @@ export async function createInvoice({
   input: z.output<typeof createInvoiceRequest>;
 }): Promise<Invoice> {
   const job = await getBillingJob(db, actor.shopId, jobId);
-  if (!reportAvailable(job.status)) {
+  if (!reportReady(job.status)) {
     throw new AppError('conflict', `Job ${job.number} is ${job.status}; the invoice is issued after verification`, { allowed: ['verified', 'returned'] });
   }
   const [open] = await db
@@ -108,46 +102,69 @@ export async function sendInvoice({ db, config, actor, id, to }: { db: Db; confi
     to,
     render: async (job, link) => ({
       ...invoiceMail(jobSummary(job), toInvoice(inv, lines), link, true),
-      attachments: [{ filename: `repair-report-job-${job.number}.pdf`, content: await renderReportPdf(await loadRepairReport(db, job)), contentType: 'application/pdf' }],
+      attachments: [{ filename: `repair-report-job-${job.number}.pdf`, content: await renderReportPdf(await getRepairReport({ db, shopId: job.shopId, jobId: job.id })), contentType: 'application/pdf' }],
     }),
   });
   await db.update(invoices).set({ sentAt: sent.sentAt }).where(eq(invoices.id, id));
   return { mailId: sent.mailId, to: sent.to, sentAt: sent.sentAt.toISOString() };
 }
 
-/** Opens a hosted checkout for an unpaid invoice of the link's job; the customer is sent to its URL. */
+/** The invoice's checkout if the payment service still has it open (a 404 there: none; no answer: a 503). */
+async function openCheckout(config: Config, sessionId: string): Promise<{ url: string } | null> {
+  try {
+    const s = await paymentsFor(config).checkout.sessions.retrieve(sessionId);
+    return s.status === 'open' && s.url ? { url: s.url } : null;
+  } catch (err) {
+    if ((err as { statusCode?: number }).statusCode === 404) return null;
+    console.error('payments: checkout session not retrieved:', (err as Error).message);
+    throw new AppError('unavailable', 'The payment service is not answering; try again shortly.');
+  }
+}
+
+/**
+ * Opens a hosted checkout for an unpaid invoice of the link's job; the customer is sent to its URL. One open
+ * checkout per invoice: while the last one is open its address is given again, so two tabs (or two people with
+ * the link) cannot both pay. The invoice row stays locked meanwhile, so two requests at once open one checkout.
+ */
 export async function startCheckout({ db, config, shopId, jobId, invoiceId, token }: { db: Db; config: Config; shopId: string; jobId: string; invoiceId: string; token: string }) {
   const { inv } = await loadInvoice(db, shopId, invoiceId);
   if (inv.jobId !== jobId) throw new AppError('not_found', `No invoice ${invoiceId}`);
-  if (inv.status !== 'issued') throw new AppError('conflict', `Invoice ${inv.number} is ${inv.status}`);
   const job = await getBillingJob(db, shopId, jobId);
   const page = `${publicBase(config)}/c/${token}`;
-  let session: Stripe.Checkout.Session;
-  try {
-    session = await paymentsFor(config).checkout.sessions.create({
-      mode: 'payment',
-      line_items: [
-        {
-          quantity: 1,
-          price_data: { currency: inv.currency, unit_amount: inv.totalCents, product_data: { name: `Invoice ${inv.number}, job ${job.number}` } },
-        },
-      ],
-      client_reference_id: inv.id,
-      customer_email: job.customer.email ?? undefined,
-      metadata: { invoiceId: inv.id, shopId },
-      success_url: `${page}?paid={CHECKOUT_SESSION_ID}`,
-      cancel_url: page,
-    });
-  } catch (err) {
-    console.error('payments: checkout session refused:', (err as Error).message);
-    throw new AppError('unavailable', 'The payment service is not answering; try again shortly.');
-  }
-  if (!session.url) throw new AppError('unavailable', 'The payment service gave no checkout address');
-  await db.update(invoices).set({ checkoutSessionId: session.id }).where(eq(invoices.id, inv.id));
-  return { url: session.url };
+  return db.transaction(async (tx) => {
+    const [locked] = await tx.select({ status: invoices.status, checkoutSessionId: invoices.checkoutSessionId }).from(invoices).where(eq(invoices.id, inv.id)).for('update');
+    if (locked!.status !== 'issued') throw new AppError('conflict', `Invoice ${inv.number} is ${locked!.status}`);
+    if (locked!.checkoutSessionId) {
+      const open = await openCheckout(config, locked!.checkoutSessionId);
+      if (open) return open;
+    }
+    let session: Stripe.Checkout.Session;
+    try {
+      session = await paymentsFor(config).checkout.sessions.create({
+        mode: 'payment',
+        line_items: [
+          {
+            quantity: 1,
+            price_data: { currency: inv.currency, unit_amount: inv.totalCents, product_data: { name: `Invoice ${inv.number}, job ${job.number}` } },
+          },
+        ],
+        client_reference_id: inv.id,
+        customer_email: job.customer.email ?? undefined,
+        metadata: { invoiceId: inv.id, shopId },
+        success_url: `${page}?paid={CHECKOUT_SESSION_ID}`,
+        cancel_url: page,
+      });
+    } catch (err) {
+      console.error('payments: checkout session refused:', (err as Error).message);
+      throw new AppError('unavailable', 'The payment service is not answering; try again shortly.');
+    }
+    if (!session.url) throw new AppError('unavailable', 'The payment service gave no checkout address');
+    await tx.update(invoices).set({ checkoutSessionId: session.id }).where(eq(invoices.id, inv.id));
+    return { url: session.url };
+  });
 }
 
-export type PaymentOutcome = 'paid' | 'duplicate' | 'ignored' | 'unknown-invoice' | 'amount-mismatch' | 'already-paid';
+export type PaymentOutcome = 'paid' | 'duplicate' | 'ignored' | 'unknown-invoice' | 'amount-mismatch' | 'already-paid' | 'refund-due';
 
 /**
  * Applies one verified payment event. The event id is the primary key of payment_events: a redelivered
@@ -164,7 +181,9 @@ export async function applyPaymentEvent({ db, config, event }: { db: Db; config:
     const [inv] = await tx.select().from(invoices).where(eq(invoices.id, invoiceId)).for('update');
     let outcome: PaymentOutcome;
     if (!inv) outcome = 'unknown-invoice';
-    else if (inv.status === 'paid') outcome = 'already-paid';
+    // Money taken for an invoice that is already paid (a second checkout completed) or void: it is recorded,
+    // not dropped, and owed back to the customer.
+    else if (inv.status !== 'issued') outcome = session.payment_status === 'paid' ? 'refund-due' : 'already-paid';
     else if (session.payment_status !== 'paid' || session.amount_total !== inv.totalCents || session.currency !== inv.currency) outcome = 'amount-mismatch';
     else outcome = 'paid';
     const [row] = await tx
@@ -173,8 +192,25 @@ export async function applyPaymentEvent({ db, config, event }: { db: Db; config:
       .onConflictDoNothing()
       .returning();
     if (!row) return { outcome: 'duplicate' as const };
-    if (outcome !== 'paid' || !inv) return { outcome };
     const paidAt = new Date(event.created * 1000);
+    if (outcome === 'refund-due' && inv) {
+      const paymentId = newId();
+      await tx.insert(payments).values({
+        id: paymentId,
+        shopId: inv.shopId,
+        invoiceId: inv.id,
+        eventId: event.id,
+        checkoutSessionId: session.id,
+        amountCents: session.amount_total ?? 0,
+        currency: session.currency ?? inv.currency,
+        paidAt,
+        refundDue: true,
+      });
+      const detail = `payment ${paymentId} of ${session.amount_total ?? 0} ${session.currency ?? ''} through checkout ${session.id} (event ${event.id}) on an invoice already ${inv.status}: refund it`;
+      await auditBilling(tx, inv.shopId, null, 'invoice.refund-due', inv.id, detail);
+      return { outcome, inv, detail };
+    }
+    if (outcome !== 'paid' || !inv) return { outcome };
     await tx.insert(payments).values({
       id: newId(),
       shopId: inv.shopId,
@@ -190,6 +226,7 @@ export async function applyPaymentEvent({ db, config, event }: { db: Db; config:
     return { outcome, inv };
   });
   if (result.outcome === 'amount-mismatch') console.error(`payments: event ${event.id} does not match its invoice; not marked paid`);
+  if (result.outcome === 'refund-due' && 'detail' in result) console.error(`payments: invoice ${result.inv!.number} was paid twice; ${result.detail}`);
   if (result.outcome === 'paid' && 'inv' in result && result.inv) await mailReceipt(db, config, result.inv.shopId, result.inv.id);
   return result.outcome;
 }

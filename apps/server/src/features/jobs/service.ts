@@ -1,17 +1,32 @@
 import { and, asc, desc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import type { CreateJobRequest, Job, JobDetail, JobListQuery, JobStatus, UpdateJobRequest } from '@splitscope/contract';
+import {
+  allowedMoves,
+  boardModelSchema,
+  boardWords,
+  guidedLiftRoles,
+  guidedOrderBinds,
+  METER_WORDS,
+  unprovenRows,
+  verificationChecklist,
+  verificationReadings,
+  type CreateJobRequest,
+  type Job,
+  type JobDetail,
+  type JobStatus,
+  type UpdateJobRequest,
+} from '@splitscope/contract';
 import { assertRole, type Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
-import { auditLog, boardModels, boardModelVersions, customers, diagnosisSnapshots, jobs, readings, repairActions, reviews, shops, users } from '../../db/schema';
+import { boardModels, boardModelVersions, customers, diagnosisSnapshots, jobs, readingStrikes, readings, repairActions, reviews, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso, isoOrNull } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { getBoardVersion } from '../boards/service';
-import { toCustomer } from '../customers/service';
-import { computeDiagnosis, toSnapshot } from '../diagnosis/service';
-import { toReview } from '../reviews/view';
-import { allowedFor, ruleOf } from './flow';
+import { getBoardVersion } from '../boards';
+import { toCustomer } from '../customers';
+import { computeDiagnosis, toSnapshot } from '../diagnosis';
+import { toReview } from '../reviews';
+import { checkMove, moveJob, type MoveRequest } from './flow';
 
 export type JobRow = typeof jobs.$inferSelect;
 
@@ -54,12 +69,15 @@ const toJob = ({ j, customerName, assigneeName, boardName, boardVersion }: JobQu
   status: j.status,
   sentBack: j.sentBack,
   proposedPart: j.proposedPart,
+  proposalNote: j.proposalNote,
   assigneeId: j.assigneeId,
   assigneeName,
   priority: j.priority,
   receivedAt: iso(j.receivedAt),
   dueAt: isoOrNull(j.dueAt),
   closedAt: isoOrNull(j.closedAt),
+  returnedVia: j.returnedVia === 'courier' || j.returnedVia === 'collected' ? j.returnedVia : null,
+  guidedLifted: j.guidedLiftedBy !== null,
   createdBy: j.createdBy,
   createdAt: iso(j.createdAt),
   updatedAt: iso(j.updatedAt),
@@ -83,8 +101,6 @@ export async function findJobs({ db, actor, query }: { db: Db; actor: Actor; que
   return { items: rows.map(toJob) };
 }
 
-export type { JobListQuery };
-
 export async function getJob({ db, shopId, id }: { db: Db; shopId: string; id: string }): Promise<Job> {
   const [row] = await jobQuery(db).where(and(eq(jobs.id, id), eq(jobs.shopId, shopId)));
   if (!row) throw new AppError('not_found', `No job ${id}`);
@@ -106,7 +122,8 @@ export async function getJobDetail({ db, actor, id }: { db: Db; actor: Actor; id
     ...job,
     customer: toCustomer(customer!),
     board,
-    allowedTransitions: allowedFor(job.status, actor.role),
+    allowedTransitions: allowedMoves(job.status, actor.role),
+    guidedOrderRequired: guidedOrderBinds(actor.role, job.guidedLifted ? 'lifted' : null),
     reviews: reviewRows.map(({ r, name }) => toReview(r, name)),
     latestSnapshot: snap ? toSnapshot(snap) : null,
   };
@@ -158,34 +175,38 @@ export async function createJob({ db, actor, input }: { db: Db; actor: Pick<Acto
   return getJob({ db, shopId: actor.shopId, id });
 }
 
-function refuseTransition(from: JobStatus, to: JobStatus, role: Actor['role']): never {
-  const viaPatch = allowedFor(from, role, 'patch');
-  const list = viaPatch.length ? viaPatch.join(', ') : 'nowhere by an edit';
-  const rule = ruleOf(from, to);
-  if (rule?.via === 'review') {
-    throw new AppError('conflict', `${rule.name[0]!.toUpperCase()}${rule.name.slice(1)} is a review decision: POST /api/jobs/:id/reviews. From ${from} an edit can move the job to: ${list}`, { allowed: viaPatch });
-  }
-  throw new AppError('conflict', `A job cannot move from ${from} to ${to}. From ${from} it can move to: ${list}`, { allowed: viaPatch });
-}
-
-/** The unhealthy verification readings since the last repair action, or why there are none to judge. */
-async function verificationProblems(db: Db, jobId: string): Promise<string | null> {
-  const [last] = await db.select({ at: repairActions.createdAt }).from(repairActions).where(eq(repairActions.jobId, jobId)).orderBy(desc(repairActions.createdAt)).limit(1);
+/**
+ * What stands between a repaired job and its sign-off: the checklist rows (contract: verificationChecklist) that
+ * no healthy verification reading (contract: verificationReadings) proves, or no repair.
+ */
+async function verificationProblems(db: Db, actor: Actor, job: JobRow): Promise<string | null> {
+  const [last] = await db.select({ at: repairActions.createdAt }).from(repairActions).where(eq(repairActions.jobId, job.id)).orderBy(desc(repairActions.createdAt)).limit(1);
   if (!last) return 'no repair action is recorded';
-  const corrected = db.select({ id: readings.supersedes }).from(readings).where(and(eq(readings.jobId, jobId), sql`${readings.supersedes} is not null`));
-  const rows = await db
-    .select()
+  const later = alias(readings, 'later');
+  const taken = await db
+    .select({ r: readings, supersededBy: later.id, struck: readingStrikes.id })
     .from(readings)
-    .where(and(eq(readings.jobId, jobId), eq(readings.phase, 'verification'), sql`${readings.createdAt} > ${last.at}`, sql`${readings.id} not in (${corrected})`))
+    .leftJoin(later, eq(later.supersedes, readings.id))
+    .leftJoin(readingStrikes, eq(readingStrikes.readingId, readings.id))
+    .where(and(eq(readings.jobId, job.id), eq(readings.phase, 'verification')))
     .orderBy(asc(readings.createdAt));
-  if (rows.length === 0) return 'no verification readings were taken after the last repair action';
-  const bad = rows.filter((r) => (r.verdict as { verdict?: string } | null)?.verdict !== 'ok');
-  if (bad.length === 0) return null;
-  const describe = (r: (typeof rows)[number]) => {
-    const v = r.verdict as { verdict: string; expected: unknown } | null;
-    return `${r.mode} ${r.red}–${r.black} read ${r.raw}${v ? ` (${v.verdict}, expected ${String(v.expected)})` : ' (no expected value)'}`;
-  };
-  return `these verification readings are not healthy: ${bad.map(describe).join('; ')}`;
+  const rows = verificationReadings(
+    taken.map(({ r, supersededBy, struck }) => ({ ...r, supersededBy, struck, createdAt: iso(r.createdAt), verdict: r.verdict as { verdict: string } | null })),
+    iso(last.at),
+  );
+  const board = await getBoardVersion({ db, shopId: actor.shopId, versionId: job.boardVersionId });
+  const parsed = boardModelSchema.safeParse(board.document);
+  const m = parsed.success ? parsed.data : null;
+  const { rows: checklist } = verificationChecklist(m, board.expectedReadings, job.proposedPart);
+  if (checklist.length === 0) return rows.length === 0 ? 'no verification readings were taken after the last repair action' : null;
+  const netOf = (p: string) => m?.testPoints.find((t) => t.id.toLowerCase() === p.toLowerCase())?.net ?? p;
+  const open = unprovenRows(checklist, rows, netOf);
+  if (open.length === 0) return null;
+  const words = boardWords(m);
+  const state = (v: string | undefined) => (v === 'ok' ? 'healthy' : (v ?? 'no expected value'));
+  const describe = ({ row, latest }: (typeof open)[number]) =>
+    `${words.probe(row.red)} ${METER_WORDS[row.mode]} ${row.power === 'on' ? 'powered' : 'unplugged'} (${latest ? `read ${latest.raw}, ${state(latest.verdict?.verdict)}` : 'not measured'})`;
+  return `${open.length} of ${checklist.length} checklist readings are not healthy yet: ${open.map(describe).join('; ')}`;
 }
 
 export async function updateJob({ db, actor, id, input }: { db: Db; actor: Actor; id: string; input: UpdateJobRequest }): Promise<Job> {
@@ -201,14 +222,17 @@ export async function updateJob({ db, actor, id, input }: { db: Db; actor: Actor
   if (fields.symptom) set.symptom = fields.symptom;
   if (fields.dueAt !== undefined) set.dueAt = fields.dueAt ? new Date(fields.dueAt) : null;
   if (fields.proposedPart !== undefined) set.proposedPart = fields.proposedPart;
+  if (fields.proposalNote !== undefined) set.proposalNote = fields.proposalNote;
+  if (fields.guidedLifted !== undefined) {
+    assertRole(actor, guidedLiftRoles, 'Lifting guided order');
+    set.guidedLiftedBy = fields.guidedLifted ? actor.id : null;
+  }
 
   let snapshot: typeof diagnosisSnapshots.$inferInsert | undefined;
-  let audit: typeof auditLog.$inferInsert | undefined;
+  let move: MoveRequest | undefined;
   if (status && status !== current.status) {
-    const rule = ruleOf(current.status, status);
-    if (!rule || rule.via !== 'patch') refuseTransition(current.status, status, actor.role);
-    assertRole(actor, rule.roles, rule.name[0]!.toUpperCase() + rule.name.slice(1));
-    set.status = status;
+    move = { jobId: id, shopId: actor.shopId, from: current.status, to: status, by: { actor, via: 'patch' }, set };
+    checkMove(move);
     if (status === 'awaiting-review') {
       const part = fields.proposedPart ?? current.proposedPart;
       if (!part) throw new AppError('invalid', 'Name the part you propose (proposedPart) before asking for a review', { errors: [{ path: 'proposedPart', message: 'required to move to awaiting-review' }] });
@@ -221,23 +245,28 @@ export async function updateJob({ db, actor, id, input }: { db: Db; actor: Actor
       if (!any) throw new AppError('conflict', 'Record the repair action first (POST /api/jobs/:id/repairs)');
     }
     if (status === 'verified') {
-      const problem = await verificationProblems(db, id);
+      const problem = await verificationProblems(db, actor, current);
       if (problem) throw new AppError('conflict', `The repair cannot be signed off: ${problem}`);
-      audit = { id: newId(), shopId: actor.shopId, userId: actor.id, action: 'sign-off', subject: id, detail: `job ${current.number}` };
+      if (fields.functionalCheckDone !== true) {
+        const message = 'Confirm the functional check (the board works powered and the fault does not return) before signing off';
+        throw new AppError('invalid', message, { errors: [{ path: 'functionalCheckDone', message }] });
+      }
+      move.audit = { action: 'sign-off', detail: `job ${current.number}` };
     }
-    if (status === 'returned') set.closedAt = new Date();
+    if (status === 'returned') {
+      if (!fields.returnedVia) throw new AppError('invalid', 'Say how the board left: sent by courier or collected by the customer', { errors: [{ path: 'returnedVia', message: 'choose courier or collected' }] });
+      set.returnedVia = fields.returnedVia;
+      set.closedAt = fields.returnedAt ? new Date(fields.returnedAt) : new Date();
+    }
   }
 
   await db.transaction(async (tx) => {
     // Compare-and-set on the status we read, so two people moving the same job cannot both win.
-    const done = await tx
-      .update(jobs)
-      .set(set)
-      .where(and(eq(jobs.id, id), eq(jobs.status, current.status)))
-      .returning({ id: jobs.id });
-    if (done.length === 0) throw new AppError('conflict', 'The job changed while you were editing it; reload and try again');
+    const done = move
+      ? await moveJob(tx, move)
+      : (await tx.update(jobs).set(set).where(and(eq(jobs.id, id), eq(jobs.status, current.status))).returning({ id: jobs.id })).length > 0;
+    if (!done) throw new AppError('conflict', 'The job changed while you were editing it; reload and try again');
     if (snapshot) await tx.insert(diagnosisSnapshots).values(snapshot);
-    if (audit) await tx.insert(auditLog).values(audit);
   });
   return getJob({ db, shopId: actor.shopId, id });
 }

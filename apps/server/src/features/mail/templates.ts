@@ -167,3 +167,31 @@ export function quoteDecisionMail(job: JobSummary, quote: { number: string }, de
     closing: 'Splitscope',
   });
 }
+
+/** To a person the admin invited: the link to choose a password. */
+export function invitationMail(shopName: string, invited: { name: string; role: string }, link: { url: string; expiresAt: Date }): MailContent {
+  return render({
+    shopName,
+    subject: `You are invited to ${shopName} on Splitscope`,
+    greeting: `Hello ${invited.name},`,
+    paragraphs: [
+      `${shopName} has invited you to its Splitscope bench as ${invited.role}.`,
+      `Choose your password with the link below. It works once, until ${link.expiresAt.toISOString().slice(0, 16).replace('T', ' ')} UTC.`,
+    ],
+    action: { label: 'Choose a password', url: link.url },
+  });
+}
+
+/** To a person who asked to reset their password. */
+export function passwordResetMail(shopName: string, name: string, link: { url: string; minutes: number }): MailContent {
+  return render({
+    shopName,
+    subject: `Reset your Splitscope password (${shopName})`,
+    greeting: `Hello ${name},`,
+    paragraphs: [
+      `Someone asked to reset the password of your account at ${shopName}. If it was you, choose a new password with the link below; it works once, for ${link.minutes} minutes.`,
+      'If it was not you, ignore this message: your password stays as it is.',
+    ],
+    action: { label: 'Choose a new password', url: link.url },
+  });
+}

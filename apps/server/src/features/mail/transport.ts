@@ -1,7 +1,8 @@
 import nodemailer, { type Transporter } from 'nodemailer';
 import type { Config } from '../../config';
 import type { Db } from '../../db/client';
-import { mailLog } from '../../db/schema';
+import { eq } from 'drizzle-orm';
+import { mailLog, shops } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
 import { localFakesOn } from './local';
@@ -43,13 +44,20 @@ export interface OutgoingMail {
   attachments?: { filename: string; content: Buffer; contentType: string }[];
 }
 
+/** MAIL_FROM's address under the shop's own name, so every message comes from the shop that sends it. */
+export function fromForShop(mailFrom: string, shopName: string | undefined): string | { name: string; address: string } {
+  const address = /<([^>]+)>/.exec(mailFrom)?.[1] ?? mailFrom.trim();
+  return shopName ? { name: shopName, address } : mailFrom;
+}
+
 /** Sends one message and logs it (sent or failed) in mail_log; a refusal by the relay becomes a 503. */
 export async function sendMail({ config, db, mail }: { config: Config; db: Db; mail: OutgoingMail }): Promise<{ mailId: string; sentAt: Date }> {
   const mailId = newId();
+  const [shop] = await db.select({ name: shops.name }).from(shops).where(eq(shops.id, mail.shopId));
   const base = { id: mailId, shopId: mail.shopId, jobId: mail.jobId, kind: mail.kind, to: mail.to, subject: mail.subject };
   try {
     const info = await mailerFor(config).sendMail({
-      from: config.MAIL_FROM,
+      from: fromForShop(config.MAIL_FROM, shop?.name),
       to: mail.to,
       replyTo: mail.replyTo ?? undefined,
       subject: mail.subject,

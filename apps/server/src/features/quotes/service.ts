@@ -7,11 +7,8 @@ import type { Db } from '../../db/client';
 import { quoteLines, quotes } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
-import { auditBilling, linesFromInput, linesFromRows, mailDocument, openDocument, priceLines } from '../billing/billing-document';
-import { toQuote } from '../billing/documents';
-import { getBillingJob, jobSummary } from '../billing/jobs';
-import { getSettingsRow } from '../billing/settings';
-import { quoteMail } from '../mail/templates';
+import { auditBilling, getBillingJob, getSettingsRow, jobSummary, linesFromInput, linesFromRows, mailDocument, openDocument, priceLines, revokeEarlierLinks, toQuote } from '../billing';
+import { quoteMail } from '../mail';
 
 async function loadQuote(db: Db, shopId: string, id: string) {
   const [q] = await db.select().from(quotes).where(and(eq(quotes.id, id), eq(quotes.shopId, shopId)));
@@ -93,6 +90,8 @@ export async function sendQuote({ db, config, actor, id, to }: { db: Db; config:
     .update(quotes)
     .set({ status: 'sent', sentAt: sent.sentAt, sentTo: address, updatedAt: new Date() })
     .where(eq(quotes.id, id));
-  await auditBilling(db, actor.shopId, actor, 'quote.send', id, address);
+  // The links mailed before this quote offered what it replaces: only the link in this mail stays open.
+  const revoked = await revokeEarlierLinks(db, q.jobId, sent.linkId);
+  await auditBilling(db, actor.shopId, actor, 'quote.send', id, `${address}${revoked ? `; ${revoked} earlier link(s) revoked` : ''}`);
   return { mailId: sent.mailId, to: address, sentAt: sent.sentAt.toISOString() };
 }

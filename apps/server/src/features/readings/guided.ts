@@ -1,33 +1,39 @@
-// Trainees record readings in guided order only: the reading must be one of the steps the diagnosis engine
-// gives next, and an unpowered step on a section that touches the bus needs the discharge gate passed first.
-// The bench screen enforces the same; this is the server's half, so a hand-made request cannot skip a step.
-import { boardModelSchema, probesTouchBus, type CreateReadingInput } from '@splitscope/contract';
+// Trainees record readings in guided order (unless a lead lifted it): the reading must be one of the steps the
+// diagnosis engine gives next. Every unpowered reading on a section that touches the bus needs the discharge gate
+// passed first, whoever takes it. The bench screen enforces the same; this is the server's half, so a hand-made
+// request cannot skip a step or the gate.
+import { boardModelSchema, dischargeGateRefusal, type CreateReadingInput, type GateModel } from '@splitscope/contract';
 import { DEFAULT_SAFE_THRESHOLD } from '@splitscope/boards';
 import type { Db } from '../../db/client';
 import type { jobs } from '../../db/schema';
 import { AppError } from '../../http/errors';
-import { normNet as norm } from '../boards/engine';
-import { computeDiagnosis } from '../diagnosis/service';
+import { normNet as norm } from '../boards';
+import { computeDiagnosis } from '../diagnosis';
 
 const sameSet = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((x) => b.some((y) => norm(x) === norm(y)));
 
-/** The bus-discharge gate, as the server checks it: refused with a message naming what is missing. */
-export function checkSafetyGate(document: unknown, input: CreateReadingInput): void {
-  if (input.power !== 'off') return;
-  const model = boardModelSchema.safeParse(document);
-  // A model the schema cannot read says nothing about where the bus is: gate everything.
-  const touches = model.success ? probesTouchBus(model.data, input.red, input.black) : true;
-  if (!touches) return;
-  const limit = DEFAULT_SAFE_THRESHOLD.volts;
-  const path = [{ path: 'safetyCheck', message: '' }];
-  if (!input.safetyCheck) {
-    const message = `This unpowered step is on a section that touches the DC bus: confirm the board is unplugged and enter the bus voltage measured now (below ${limit} V, ${DEFAULT_SAFE_THRESHOLD.standard}) first`;
-    throw new AppError('invalid', message, { errors: [{ ...path[0]!, message }] });
-  }
-  if (input.safetyCheck.busVolts >= limit) {
-    const message = `The bus still reads ${input.safetyCheck.busVolts} V, not below ${limit} V: wait for it to bleed down or discharge it through a rated resistor, then measure again`;
-    throw new AppError('invalid', message, { errors: [{ ...path[0]!, message }] });
-  }
+// The gate model (test points and sections) of a version, parsed once: a version never changes. Null when the
+// document cannot be read, which gates every unpowered reading.
+const gateModels = new Map<string, GateModel | null>();
+async function gateModelOf(versionId: string, loadDocument: () => Promise<unknown>): Promise<GateModel | null> {
+  if (gateModels.has(versionId)) return gateModels.get(versionId)!;
+  const parsed = boardModelSchema.safeParse(await loadDocument());
+  const model = parsed.success ? { testPoints: parsed.data.testPoints, sections: parsed.data.sections } : null;
+  gateModels.set(versionId, model);
+  if (gateModels.size > 200) gateModels.delete(gateModels.keys().next().value as string);
+  return model;
+}
+
+const gateApplies = (input: Pick<CreateReadingInput, 'power'>) => input.power === 'off';
+
+/**
+ * The bus-discharge gate, as the server checks it for every role and phase: the contract's rule, refused with
+ * the words that say what to do.
+ */
+export async function checkSafetyGate(versionId: string, loadDocument: () => Promise<unknown>, input: CreateReadingInput): Promise<void> {
+  if (!gateApplies(input)) return;
+  const why = dischargeGateRefusal(await gateModelOf(versionId, loadDocument), input, DEFAULT_SAFE_THRESHOLD);
+  if (why) throw new AppError('invalid', why, { errors: [{ path: 'safetyCheck', message: why }] });
 }
 
 interface Probe {

@@ -1,9 +1,9 @@
 import { Router } from 'express';
-import { createReadingRequest, idParams, readingListQuery, readingListResponse, type CreateReadingResponse } from '@splitscope/contract';
+import { createReadingRequest, idParams, readingListQuery, readingListResponse, readingParams, readingSchema, strikeReadingRequest, type CreateReadingResponse } from '@splitscope/contract';
 import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';
-import { createReading, findReadings } from './service';
+import { createReading, findReadings, strikeReading } from './service';
 
 export function readingRoutes(ctx: AppContext): Router {
   const r = Router();
@@ -20,6 +20,11 @@ export function readingRoutes(ctx: AppContext): Router {
     // Both were measurable parts of the busiest request (`npm run bench:api`).
     const body: CreateReadingResponse = await createReading({ db: ctx.db, actor: actorOf(req), jobId: id, input });
     res.status(201).set('Content-Type', 'application/json; charset=utf-8').end(JSON.stringify(body));
+  });
+  r.post('/jobs/:id/readings/:readingId/strike', requireRole(...ROLES.everyone), async (req, res) => {
+    const { id, readingId } = parse(readingParams, req.params);
+    const { reason } = parse(strikeReadingRequest, req.body);
+    res.status(201).json(readingSchema.parse(await strikeReading({ db: ctx.db, actor: actorOf(req), jobId: id, readingId, reason })));
   });
   return r;
 }

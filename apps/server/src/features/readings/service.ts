@@ -1,21 +1,24 @@
+import { createHash } from 'node:crypto';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import type { CreateReadingInput, CreateReadingResponse, ReadingVerdict, StoredReading } from '@splitscope/contract';
+import { acceptsReadings, guidedOrderBinds, readingRefusal, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
-import { boardModelVersions, jobs, readings, users } from '../../db/schema';
+import { boardModelVersions, jobs, readingStrikes, readings, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { boardEngine, cachedBoardEngine, powerRefusal, resolveNet, resolveParts, unitOf, verdictFor } from '../boards/engine';
-import { getJobRow } from '../jobs/service';
+import { boardEngine, cachedBoardEngine, powerRefusal, resolveNet, resolveParts, unitOf, verdictFor } from '../boards';
+import { getJobRow } from '../jobs';
 import { checkGuidedStep, checkSafetyGate } from './guided';
 import { insertReading, type NewReading, type ReadingRow } from './write-batch';
 
 type Row = ReadingRow;
 const later = alias(readings, 'later');
 
-function toReading(r: Row, authorName: string, supersededBy: string | null): StoredReading {
+type Struck = StoredReading['struck'];
+
+function toReading(r: Row, authorName: string, supersededBy: string | null, struck: Struck = null): StoredReading {
   return {
     id: r.id,
     jobId: r.jobId,
@@ -41,15 +44,20 @@ function toReading(r: Row, authorName: string, supersededBy: string | null): Sto
     createdAt: iso(r.createdAt),
     verdict: (r.verdict as ReadingVerdict | null) ?? null,
     safetyBusVolts: r.safetyBusVolts,
+    struck,
   };
 }
 
+const striker = alias(users, 'striker');
+
 function rowsQuery(db: Db) {
   return db
-    .select({ r: readings, authorName: users.name, supersededBy: later.id })
+    .select({ r: readings, authorName: users.name, supersededBy: later.id, strike: readingStrikes, strikerName: striker.name })
     .from(readings)
     .innerJoin(users, eq(users.id, readings.authorId))
-    .leftJoin(later, eq(later.supersedes, readings.id));
+    .leftJoin(later, eq(later.supersedes, readings.id))
+    .leftJoin(readingStrikes, eq(readingStrikes.readingId, readings.id))
+    .leftJoin(striker, eq(striker.id, readingStrikes.authorId));
 }
 
 /** The full history (or only current rows), oldest first. */
@@ -57,9 +65,33 @@ export async function findReadings({ db, shopId, jobId, view, phase }: { db: Db;
   await getJobRow(db, shopId, jobId);
   const where = [eq(readings.jobId, jobId)];
   if (phase) where.push(eq(readings.phase, phase));
-  if (view === 'current') where.push(sql`${later.id} is null`);
+  if (view === 'current') where.push(sql`${later.id} is null and ${readingStrikes.id} is null`);
   const rows = await rowsQuery(db).where(and(...where)).orderBy(asc(readings.takenAt), asc(readings.createdAt));
-  return { items: rows.map((x) => toReading(x.r, x.authorName, x.supersededBy)) };
+  return {
+    items: rows.map((x) => toReading(x.r, x.authorName, x.supersededBy, x.strike ? { reason: x.strike.reason, authorName: x.strikerName ?? '', at: iso(x.strike.createdAt) } : null)),
+  };
+}
+
+/**
+ * Strikes a reading out with a reason. Nothing is updated or deleted: the strike is a row of its own, and the
+ * diagnosis and the sign-off leave struck readings out. A trainee strikes only on a job assigned to them.
+ */
+export async function strikeReading({ db, actor, jobId, readingId, reason }: { db: Db; actor: Actor; jobId: string; readingId: string; reason: string }): Promise<StoredReading> {
+  const job = await getJobRow(db, actor.shopId, jobId);
+  if (actor.role === 'trainee' && job.assigneeId !== actor.id) throw new AppError('forbidden', 'Trainees strike readings only on jobs assigned to them');
+  const [row] = await rowsQuery(db).where(and(eq(readings.id, readingId), eq(readings.jobId, jobId)));
+  if (!row) throw new AppError('not_found', `No reading ${readingId} on this job`);
+  checkOpen(job.status, row.r.phase);
+  if (row.supersededBy) throw new AppError('conflict', 'This reading was already corrected; strike the correction instead');
+  if (row.strike) throw new AppError('conflict', `This reading was already struck out by ${row.strikerName ?? 'someone'}: “${row.strike.reason}”`);
+  try {
+    await db.insert(readingStrikes).values({ id: newId(), shopId: actor.shopId, jobId, readingId, reason, authorId: actor.id });
+  } catch (err) {
+    if ((err as { code?: string }).code === '23505') throw new AppError('conflict', 'This reading was struck out meanwhile');
+    throw err;
+  }
+  const [after] = await rowsQuery(db).where(eq(readings.id, readingId));
+  return toReading(after!.r, after!.authorName, after!.supersededBy, { reason, authorName: after!.strikerName ?? actor.name, at: iso(after!.strike!.createdAt) });
 }
 
 const withVerdict = (r: StoredReading): CreateReadingResponse => ({ ...r, expected: r.verdict?.expected ?? null, low: r.verdict?.low ?? null, high: r.verdict?.high ?? null });
@@ -78,7 +110,12 @@ function prepare(db: Db) {
       .prepare('reading_job_board_version'),
     // The job (of this shop only) and, in the same round trip, the row a retry with this key already stored.
     jobAndReplay: db
-      .select({ job: { id: jobs.id, status: jobs.status, assigneeId: jobs.assigneeId, boardVersionId: jobs.boardVersionId }, r: stored, authorName: users.name, supersededBy: later.id })
+      .select({
+        job: { id: jobs.id, status: jobs.status, assigneeId: jobs.assigneeId, boardVersionId: jobs.boardVersionId, guidedLiftedBy: jobs.guidedLiftedBy },
+        r: stored,
+        authorName: users.name,
+        supersededBy: later.id,
+      })
       .from(jobs)
       .leftJoin(stored, and(eq(stored.jobId, jobs.id), eq(stored.idempotencyKey, p('key'))))
       .leftJoin(users, eq(users.id, stored.authorId))
@@ -120,21 +157,31 @@ async function boardVersionOf(db: Db, shopId: string, jobId: string): Promise<st
 
 const invalid = (path: string, message: string) => new AppError('invalid', message, { errors: [{ path, message }] });
 
-const OPEN_FOR: Record<CreateReadingInput['phase'], readonly string[]> = { diagnosis: ['received', 'diagnosing'], verification: ['approved', 'repaired'] };
-function checkOpen(status: string, phase: CreateReadingInput['phase']): void {
-  const allowed = OPEN_FOR[phase];
-  if (!allowed.includes(status)) throw new AppError('conflict', `A ${phase} reading is taken while the job is ${allowed.join(' or ')}; this job is ${status}`);
+function checkOpen(status: JobStatus, phase: CreateReadingInput['phase']): void {
+  if (!acceptsReadings(status, phase)) throw new AppError('conflict', `A ${phase} reading is taken while the job is ${statusesTakingReadings(phase).join(' or ')}; this job is ${status}`);
 }
 
-type JobState = { id: string; status: string; assigneeId: string | null; boardVersionId: string };
+type JobState = { id: string; status: JobStatus; assigneeId: string | null; boardVersionId: string; guidedLiftedBy: string | null };
+
+/** Object keys in a fixed order at every depth, so two equal requests serialise to the same text. */
+const canonical = (v: unknown): unknown =>
+  Array.isArray(v) ? v.map(canonical) : v && typeof v === 'object' ? Object.fromEntries(Object.keys(v).sort().map((k) => [k, canonical((v as Record<string, unknown>)[k])])) : v;
+
+/** What a retry must repeat: the request as parsed (defaults filled in, text trimmed), hashed. */
+export const requestHashOf = (input: CreateReadingInput) => createHash('sha256').update(JSON.stringify(canonical(input))).digest('base64url');
 
 /** The job as a checked write sees it first: of this shop, open to this actor, and any row this key stored. */
 async function jobAndReplay(db: Db, actor: Actor, jobId: string, input: CreateReadingInput): Promise<{ job: JobState; replay: CreateReadingResponse | null }> {
   const [found] = await queries(db).jobAndReplay.execute({ jobId, shopId: actor.shopId, key: input.idempotencyKey });
   if (!found) throw new AppError('not_found', `No job ${jobId}`);
   const { job } = found;
-  if (actor.role === 'trainee' && job.assigneeId !== actor.id) throw new AppError('forbidden', 'Trainees record readings only on jobs assigned to them');
-  if (actor.role === 'trainee' && input.phase !== 'diagnosis') throw new AppError('forbidden', 'Trainees take diagnosis steps; verification readings after a repair are taken by a technician');
+  const refused = readingRefusal(actor.role, input.phase, job.assigneeId === actor.id);
+  if (refused) throw new AppError('forbidden', refused);
+  // A key names one reading: the same key with another body is a client bug (or two readings sharing a key),
+  // and answering the stored row as if it were this one would lose the new reading without a word.
+  if (found.r?.requestHash && found.r.requestHash !== requestHashOf(input)) {
+    throw new AppError('conflict', `Idempotency key ${input.idempotencyKey} was already used for a different reading (key reused with a different reading); send this reading with a new key`);
+  }
   return { job, replay: found.r ? withVerdict(toReading(found.r, found.authorName!, found.supersededBy)) : null };
 }
 
@@ -189,10 +236,9 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
     [corrects] = await q.corrects.execute({ id: input.supersedes, jobId });
     if (!corrects) throw invalid('supersedes', `No reading ${input.supersedes} on this job to correct`);
   }
-  if (actor.role === 'trainee' && job) {
-    await checkGuidedStep({ db, job, input, probe: { redNet, blackNet, lifted: lifted.parts }, corrects });
-    checkSafetyGate((await loadVersion()).document, input);
-  }
+  if (job && guidedOrderBinds(actor.role, job.guidedLiftedBy)) await checkGuidedStep({ db, job, input, probe: { redNet, blackNet, lifted: lifted.parts }, corrects });
+  // Every role, every phase: an unpowered reading on the bus waits for the discharge gate.
+  await checkSafetyGate(versionId, async () => (await loadVersion()).document, input);
 
   const engineValue = input.mode === 'continuity' ? (input.beep ?? input.value !== 'OL') : input.value;
   const verdict = verdictFor(engine, { mode: input.mode, red: redNet, black: blackNet, power: input.power, lifted: lifted.parts }, engineValue);
@@ -201,6 +247,7 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
     shopId: actor.shopId,
     jobId,
     idempotencyKey: input.idempotencyKey,
+    requestHash: requestHashOf(input),
     mode: input.mode,
     red: input.red,
     black: input.black,

@@ -4,6 +4,7 @@
 // this is what keeps a write within a few milliseconds; a lone write waits one turn of the event loop.
 import { getTableColumns } from 'drizzle-orm';
 import type pg from 'pg';
+import { moveOnEvent, readingPhases, statusesTakingReadings } from '@splitscope/contract';
 import { poolOf, type Db } from '../../db/client';
 import { readings } from '../../db/schema';
 
@@ -15,7 +16,7 @@ export type NewReading = Omit<ReadingRow, 'createdAt'>;
 // into rows), so the statement text and its plan are the same for a batch of one or of hundreds and pg prepares
 // it once; and one JSON.stringify costs the busy event loop less than pg's escaping of one array per column.
 const COLUMNS = [
-  ['id', 'text'], ['shop_id', 'text'], ['job_id', 'text'], ['idempotency_key', 'text'], ['mode', 'meter_mode'], ['red', 'text'],
+  ['id', 'text'], ['shop_id', 'text'], ['job_id', 'text'], ['idempotency_key', 'text'], ['request_hash', 'text'], ['mode', 'meter_mode'], ['red', 'text'],
   ['black', 'text'], ['red_net', 'text'], ['black_net', 'text'], ['power', 'power_state'], ['lifted', 'jsonb'], ['value', 'float8'],
   ['over_limit', 'boolean'], ['unit', 'text'], ['beep', 'boolean'], ['raw', 'text'], ['instrument', 'text'], ['phase', 'reading_phase'],
   ['supersedes', 'text'], ['verdict', 'jsonb'], ['safety_bus_volts', 'float8'], ['author_id', 'text'], ['taken_at', 'timestamptz'],
@@ -23,6 +24,12 @@ const COLUMNS = [
 
 const names = COLUMNS.map(([c]) => c).join(', ');
 const picked = COLUMNS.map(([c]) => (c === 'lifted' ? 'ARRAY(SELECT jsonb_array_elements_text(lifted))' : c)).join(', ');
+
+// Which statuses take readings of each phase, and the move the first diagnosis reading makes, are the contract's
+// policy: the statement is written from it (constants of the contract's enums, no input), not a copy of it.
+const pgStatuses = (statuses: readonly string[]) => `'{${statuses.join(',')}}'::job_status[]`;
+const OPEN_STATUSES = `CASE v.phase ${readingPhases.map((p) => `WHEN '${p}' THEN ${pgStatuses(statusesTakingReadings(p))}`).join(' ')} END`;
+const START = moveOnEvent('diagnosis-reading');
 
 // A row is stored only when its job (of the row's shop) takes readings of its phase at that moment. The job rows
 // are locked, so a status change committed meanwhile is seen, not raced. The lock is exclusive because the first
@@ -37,14 +44,14 @@ WITH v AS (
   SELECT j.id, j.shop_id, j.status FROM jobs j WHERE (j.id, j.shop_id) IN (SELECT job_id, shop_id FROM v) ORDER BY j.id FOR UPDATE
 ), open AS (
   SELECT v.* FROM v JOIN locked j ON j.id = v.job_id AND j.shop_id = v.shop_id
-  WHERE j.status = ANY (CASE v.phase WHEN 'verification' THEN '{approved,repaired}'::job_status[] ELSE '{received,diagnosing}'::job_status[] END)
+  WHERE j.status = ANY (${OPEN_STATUSES})
 ), ins AS (
   INSERT INTO readings (${names}, created_at)
   SELECT ${picked}, clock_timestamp() FROM open
   ON CONFLICT (job_id, idempotency_key) DO NOTHING
   RETURNING id, phase, job_id, created_at
 ), started AS (
-  UPDATE jobs SET status = 'diagnosing', updated_at = now() WHERE status = 'received' AND id IN (SELECT job_id FROM ins WHERE phase = 'diagnosis')
+  UPDATE jobs SET status = '${START.to}', updated_at = now() WHERE status = '${START.from}' AND id IN (SELECT job_id FROM ins WHERE phase = 'diagnosis')
 )
 SELECT id, created_at FROM ins`;
 

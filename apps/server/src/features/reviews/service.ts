@@ -1,30 +1,32 @@
-import { and, asc, desc, eq } from 'drizzle-orm';
+import { asc, desc, eq } from 'drizzle-orm';
 import type { Review } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
-import { auditLog, diagnosisSnapshots, jobs, reviews, users } from '../../db/schema';
+import { diagnosisSnapshots, reviews, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
-import { getJobRow } from '../jobs/service';
+import { checkMove, getJobRow, moveJob, type MoveRequest } from '../jobs';
 import { toReview } from './view';
 
 /** Approve → approved; send back → diagnosing, marked sent back. Only from awaiting review. */
 export async function createReview({ db, actor, jobId, input }: { db: Db; actor: Actor; jobId: string; input: { decision: 'approve' | 'send-back'; comment: string; proposedPart?: string | null } }): Promise<Review> {
   const job = await getJobRow(db, actor.shopId, jobId);
   if (job.status !== 'awaiting-review') throw new AppError('conflict', `Only a job awaiting review can be reviewed; this job is ${job.status}`, { allowed: [] });
-  const [snap] = await db.select({ id: diagnosisSnapshots.id }).from(diagnosisSnapshots).where(eq(diagnosisSnapshots.jobId, jobId)).orderBy(desc(diagnosisSnapshots.createdAt)).limit(1);
   const part = input.proposedPart ?? job.proposedPart;
+  const move: MoveRequest = {
+    jobId,
+    shopId: actor.shopId,
+    from: job.status,
+    ...(input.decision === 'approve' ? { to: 'approved', set: { proposedPart: part } } : { to: 'diagnosing', set: { sentBack: true } }),
+    by: { actor, via: 'review' },
+    audit: { action: input.decision === 'approve' ? 'approval' : 'sent-back', detail: `job ${job.number}: ${part ?? 'no part'}` },
+  };
+  checkMove(move);
+  const [snap] = await db.select({ id: diagnosisSnapshots.id }).from(diagnosisSnapshots).where(eq(diagnosisSnapshots.jobId, jobId)).orderBy(desc(diagnosisSnapshots.createdAt)).limit(1);
   const id = newId();
   await db.transaction(async (tx) => {
-    const next = input.decision === 'approve' ? { status: 'approved' as const, proposedPart: part } : { status: 'diagnosing' as const, sentBack: true };
-    const done = await tx
-      .update(jobs)
-      .set({ ...next, updatedAt: new Date() })
-      .where(and(eq(jobs.id, jobId), eq(jobs.status, 'awaiting-review')))
-      .returning({ id: jobs.id });
-    if (done.length === 0) throw new AppError('conflict', 'Someone reviewed this job a moment ago; reload it');
+    if (!(await moveJob(tx, move))) throw new AppError('conflict', 'Someone reviewed this job a moment ago; reload it');
     await tx.insert(reviews).values({ id, shopId: actor.shopId, jobId, reviewerId: actor.id, decision: input.decision, comment: input.comment, proposedPart: part, snapshotId: snap?.id ?? null });
-    await tx.insert(auditLog).values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: input.decision === 'approve' ? 'approval' : 'sent-back', subject: jobId, detail: `job ${job.number}: ${part ?? 'no part'}` });
   });
   const [row] = await db.select({ r: reviews, name: users.name }).from(reviews).innerJoin(users, eq(users.id, reviews.reviewerId)).where(eq(reviews.id, id));
   return toReview(row!.r, row!.name);

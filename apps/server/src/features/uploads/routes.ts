@@ -17,7 +17,8 @@ export function uploadRoutes(ctx: AppContext): Router {
   r.get('/uploads/:id', requireRole(...ROLES.everyone), async (req, res) => {
     const { id } = parse(idParams, req.params);
     const { contentType, bytes } = await getUploadBytes({ db: ctx.db, storage: ctx.storage, shopId: actorOf(req).shopId, id });
-    res.setHeader('Cache-Control', 'private, max-age=3600');
+    // Kept by the browser but checked with the server (ETag) on every use, so a signed-out browser gets a 401.
+    res.setHeader('Cache-Control', 'private, no-cache');
     res.setHeader('Content-Disposition', 'inline');
     res.type(contentType).send(bytes);
   });

@@ -1,5 +1,4 @@
 import { Router } from 'express';
-import rateLimit from 'express-rate-limit';
 import {
   acceptInvitationRequest,
   createInvitationRequest,
@@ -12,8 +11,9 @@ import {
 } from '@splitscope/contract';
 import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
-import { AppError, parse } from '../../http/errors';
-import { acceptInvitation, createInvitation, findInvitations, findMembers, updateMemberRole } from './service';
+import { parse } from '../../http/errors';
+import { addressLimit } from '../../http/rate-limit';
+import { acceptInvitation, createInvitation, findInvitations, findMembers, resendInvitation, updateMember } from './service';
 
 export function userRoutes(ctx: AppContext): Router {
   const r = Router();
@@ -25,24 +25,20 @@ export function userRoutes(ctx: AppContext): Router {
   });
   r.post('/users/invitations', requireRole(...ROLES.admins), async (req, res) => {
     const input = parse(createInvitationRequest, req.body);
-    res.status(201).json(createInvitationResponse.parse(await createInvitation({ db: ctx.db, actor: actorOf(req), input })));
+    res.status(201).json(createInvitationResponse.parse(await createInvitation({ db: ctx.db, config: ctx.config, actor: actorOf(req), input })));
+  });
+  r.post('/users/invitations/:id/resend', requireRole(...ROLES.admins), async (req, res) => {
+    const { id } = parse(idParams, req.params);
+    res.json(createInvitationResponse.parse(await resendInvitation({ db: ctx.db, config: ctx.config, actor: actorOf(req), id })));
   });
   r.patch('/users/:id', requireRole(...ROLES.admins), async (req, res) => {
     const { id } = parse(idParams, req.params);
-    const { role } = parse(updateUserRequest, req.body);
-    res.json(shopMemberSchema.parse(await updateMemberRole({ db: ctx.db, actor: actorOf(req), id, role })));
+    const { role, active } = parse(updateUserRequest, req.body);
+    res.json(shopMemberSchema.parse(await updateMember({ db: ctx.db, auth: ctx.auth, actor: actorOf(req), id, role, active })));
   });
 
   // Public (the invited person has no account yet), so rate-limited like sign-in.
-  const limit = rateLimit({
-    windowMs: 15 * 60_000,
-    limit: ctx.config.LOGIN_RATE_LIMIT * 5,
-    standardHeaders: 'draft-7',
-    legacyHeaders: false,
-    handler: () => {
-      throw new AppError('rate_limited', 'Too many attempts from this address; wait a few minutes and try again');
-    },
-  });
+  const limit = addressLimit(ctx.config.LOGIN_RATE_LIMIT * 5);
   r.post('/auth/accept-invitation', limit, async (req, res) => {
     const input = parse(acceptInvitationRequest, req.body);
     const { cookie } = await acceptInvitation({ db: ctx.db, auth: ctx.auth, input });

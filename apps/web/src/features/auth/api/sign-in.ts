@@ -1,7 +1,7 @@
 import type { SignInRequest } from '@splitscope/contract';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
-import { meQueryOptions } from './me';
+import { meQueryOptions } from '@/lib/api/me';
 
 export const useSignIn = () => {
   const qc = useQueryClient();

@@ -2,7 +2,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { signInRequest, type SignInRequest } from '@splitscope/contract';
 import { useForm } from 'react-hook-form';
 import { Navigate, useLocation } from 'react-router-dom';
-import { useMe } from '../api/me';
+import { useMe } from '@/lib/api/me';
 import { useSignIn } from '../api/sign-in';
 
 export function SignInPage() {

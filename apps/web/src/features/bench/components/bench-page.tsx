@@ -1,12 +1,11 @@
-import type { ExpectedReadingRow, JobDetail, StoredReading } from '@splitscope/contract';
-import { BUS_CAUTIONS, busSafety, DEFAULT_SAFE_THRESHOLD } from '@splitscope/boards/references';
+import { acceptsReadings, type ExpectedReadingRow, type JobDetail, type StoredReading } from '@splitscope/contract';
 import { useEffect, useMemo, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
 import { Button } from '@/components/ui/button';
 import { QueryState } from '@/components/ui/query-state';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { useMe } from '@/features/auth/api/me';
+import { useMe } from '@/lib/api/me';
 import { useDiagnosis } from '@/lib/api/get-diagnosis';
 import { useJob } from '@/lib/api/get-job';
 import { useReadings } from '@/lib/api/get-readings';
@@ -23,41 +22,20 @@ import {
   rowsForPoint,
   sameTarget,
   stateOf,
-  touchesBus,
   type Target,
 } from '../lib/bench-model';
-import { boardView, type BoardView } from '../lib/board-view';
-import { busFigures } from '../lib/bus-figures';
+import { boardView, type BoardView } from '@/lib/board/board-view';
+import { gateFigures } from '@/lib/board/gate-figures';
+import { gateRefusalFor, touchesBus } from '@/lib/board/gate';
 import { parseTyped, preloadReadingParser } from '@/lib/parse-reading';
 import { GuidedOrder } from './guided-order';
+import { GuidedSwitch } from './guided-switch';
 import { PointList } from './point-list';
 import { RankingPanel } from './ranking-panel';
 import { ReadingPanel, type LatestReading } from './reading-panel';
-import { SafetyGate, type GateFigures } from './safety-gate';
+import { SafetyGate } from '@/components/safety-gate';
 import { SignalChain, type ChainLink } from './signal-chain';
 import { UnsentList } from './unsent-list';
-
-const seconds = (s: number) => (s < 120 ? `${s.toPrecision(3)} s` : `${(s / 60).toPrecision(3)} min`);
-
-function gateFigures(view: BoardView, rows: ExpectedReadingRow[]): GateFigures {
-  const bus = busFigures(view, rows);
-  if (!bus)
-    return {
-      thresholdVolts: DEFAULT_SAFE_THRESHOLD.volts,
-      thresholdSource: DEFAULT_SAFE_THRESHOLD.standard,
-      bleedTime: null,
-      summary: 'This board model does not name its bulk capacitor, so no bleed time can be computed: discharge the bus through a rated resistor.',
-      cautions: BUS_CAUTIONS,
-    };
-  const s = busSafety({ capacitanceF: bus.capacitanceF, bleederOhms: bus.bleederOhms, busVolts: bus.busVolts });
-  return {
-    thresholdVolts: s.threshold.volts,
-    thresholdSource: s.threshold.standard,
-    bleedTime: s.bleedTimeS === null ? null : seconds(s.bleedTimeS),
-    summary: `${bus.capacitor}${bus.bleeder ? ` with bleeder ${bus.bleeder}` : ''}: ${s.summary}`,
-    cautions: s.cautions,
-  };
-}
 
 function chainLinks(view: BoardView, rows: ExpectedReadingRow[], readings: StoredReading[]): ChainLink[] {
   // The chain is the powered DC-volt rows in board order (the board model lists them bus first).
@@ -83,7 +61,8 @@ function chainLinks(view: BoardView, rows: ExpectedReadingRow[], readings: Store
 function Bench({ job }: { job: JobDetail }) {
   const me = useMe();
   const [params, setParams] = useSearchParams();
-  const guided = params.get('mode') === 'guided' || (params.get('mode') === null && me.data?.role === 'trainee');
+  // Guided order binds a trainee (the server refuses anything else) until a lead lifts it for the job.
+  const guided = job.guidedOrderRequired || params.get('mode') === 'guided' || (params.get('mode') === null && me.data?.role === 'trainee');
   const tab = params.get('tab') === 'chain' ? 'chain' : 'map';
   const view = useMemo(() => boardView(job.board.document), [job.board.document]);
   const rows = job.board.expectedReadings;
@@ -96,13 +75,14 @@ function Bench({ job }: { job: JobDetail }) {
   const [entryError, setEntryError] = useState<string | null>(null);
   // The bus voltage typed at the safety gate; null until the gate is passed for this unplugged spell.
   const [gateVolts, setGateVolts] = useState<number | null>(null);
+  const [gateRefusal, setGateRefusal] = useState<string | null>(null);
 
   const readings = useMemo(() => currentReadings(readingsQ.data?.items ?? []), [readingsQ.data]);
   const steps = useMemo(() => (diagnosisQ.data ? nextTests(view, diagnosisQ.data) : []), [view, diagnosisQ.data]);
   const ranked = useMemo(() => (diagnosisQ.data ? rankedParts(view, diagnosisQ.data) : []), [view, diagnosisQ.data]);
   const step = steps[0];
   const active: (Target & { pointId?: string }) | null = guided ? (step ? { ...step.target, pointId: step.pointId } : null) : target;
-  const canWrite = ['received', 'diagnosing'].includes(job.status);
+  const canWrite = acceptsReadings(job.status, 'diagnosis');
   const needsGate = !!active && active.power === 'off' && touchesBus(view, active) && gateVolts === null;
 
   const points = view.points.map((p) => ({ ...p, ...pointState(view, readings, p.net) }));
@@ -126,7 +106,15 @@ function Bench({ job }: { job: JobDetail }) {
     const { pointId: _p, ...probe } = active;
     if (active.power === 'on') setGateVolts(null); // the board was powered again: the next unpowered step gates again
     const safetyCheck = active.power === 'off' && gateVolts !== null ? { safetyCheck: { unplugged: true as const, busVolts: gateVolts } } : {};
-    await sender.save({ ...probe, value: parsed.value, raw: text.trim(), phase: 'diagnosis', ...safetyCheck });
+    // The contract's gate rule, the one the server applies: refused here, the gate opens again with the reason
+    // and the typed value stays in the field.
+    const refusal = gateRefusalFor(view, { ...probe, ...safetyCheck });
+    if (refusal) {
+      setGateVolts(null);
+      setGateRefusal(refusal);
+      return false;
+    }
+    await sender.save({ ...probe, value: parsed.value, ...(parsed.beep !== undefined ? { beep: parsed.beep } : {}), raw: text.trim(), phase: 'diagnosis', ...safetyCheck });
     return true;
   };
 
@@ -173,7 +161,11 @@ function Bench({ job }: { job: JobDetail }) {
     if (r.value === 'OL') return { ok: false, message: 'OL is not a bus voltage: set the meter to DC volts and measure again.' };
     return { ok: true, volts: r.value };
   };
-  const safetyGate = <SafetyGate figures={gateFigures(view, rows)} check={checkBus} onPass={setGateVolts} />;
+  const passGate = (v: number) => {
+    setGateRefusal(null);
+    setGateVolts(v);
+  };
+  const safetyGate = <SafetyGate figures={gateFigures(view, rows)} check={checkBus} onPass={passGate} refusal={gateRefusal} />;
 
   const probeNets = active ? { red: view.pointOf(active.red)?.net ?? active.red, black: view.pointOf(active.black)?.net ?? active.black } : undefined;
 
@@ -190,13 +182,7 @@ function Bench({ job }: { job: JobDetail }) {
           </p>
         </div>
         <div className="flex flex-wrap gap-2">
-          <Button
-            variant="secondary"
-            aria-pressed={guided}
-            onClick={() => setParams((p) => (p.set('mode', guided ? 'free' : 'guided'), p))}
-          >
-            Guided order: {guided ? 'on' : 'off'}
-          </Button>
+          <GuidedSwitch job={job} guided={guided} onToggle={() => setParams((p) => (p.set('mode', guided ? 'free' : 'guided'), p))} />
           <Button variant="secondary" onClick={() => setParams((p) => (p.set('tab', tab === 'map' ? 'chain' : 'map'), p))}>
             {tab === 'map' ? 'Signal chain' : 'Board map'}
           </Button>
@@ -317,7 +303,7 @@ function UnsentBlock({ sender }: { sender: ReturnType<typeof useReadingSender> }
   return <UnsentList unsent={sender.unsent} rejected={sender.rejected} onRetry={() => void sender.flush()} onDismiss={sender.dismissRejected} />;
 }
 
-export function BenchPage() {
+function BenchPage() {
   const { id = '' } = useParams();
   const job = useJob(id);
   useEffect(() => void preloadReadingParser(), []);

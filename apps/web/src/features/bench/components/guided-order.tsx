@@ -2,7 +2,7 @@ import type { StoredReading } from '@splitscope/contract';
 import { Caution } from '@/components/ui/caution';
 import { MarkerGlyph } from '@/components/board-map/marker-glyph';
 import { meterText } from '@/lib/format';
-import type { BoardView } from '../lib/board-view';
+import type { BoardView } from '@/lib/board/board-view';
 import { describeTest, stateOf, type Target } from '../lib/bench-model';
 import type { NextTestView } from './ranking-panel';
 

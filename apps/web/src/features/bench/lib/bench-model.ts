@@ -2,11 +2,11 @@
  * Joins what the server sent (expected-readings table, readings with their verdicts, the engine's diagnosis) to the
  * drawable board. Only lookups and labels: verdicts, bands, probabilities and next tests are the engine's.
  */
-import { probesTouchBus, type Diagnosis, type ExpectedReadingRow, type StoredReading } from '@splitscope/contract';
+import { type Diagnosis, type ExpectedReadingRow, type StoredReading } from '@splitscope/contract';
 import type { MarkerState } from '@/lib/map-geometry';
 import { METER_LABEL, meterText } from '@/lib/format';
 import type { NextTestView, RankedPart } from '../components/ranking-panel';
-import { netOf, type BoardView } from './board-view';
+import { netOf, type BoardView } from '@/lib/board/board-view';
 
 export interface Target {
   mode: ExpectedReadingRow['mode'];
@@ -105,9 +105,4 @@ export function nextTests(view: BoardView, d: Diagnosis): (NextTestView & { targ
       target,
     };
   });
-}
-
-/** Whether a test is on a section that touches the bus: the contract's rule, which the server enforces too. */
-export function touchesBus(view: BoardView, t: Target): boolean {
-  return probesTouchBus({ testPoints: view.points, sections: view.sections }, t.red, t.black);
 }

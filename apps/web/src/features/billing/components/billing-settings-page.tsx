@@ -4,7 +4,7 @@ import { useForm } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
 import { PageHeader } from '@/components/ui/page-header';
 import { QueryState } from '@/components/ui/query-state';
-import { useMe } from '@/features/auth/api/me';
+import { useMe } from '@/lib/api/me';
 import { useBillingSettings } from '../api/get-billing-settings';
 import { useUpdateBillingSettings } from '../api/update-billing-settings';
 import { milestoneOptions, settingsFormSchema, settingsFormValues, type SettingsFormValues } from '../lib/settings-form';

@@ -1,5 +1,5 @@
 import type { Invoice, Quote } from '@splitscope/contract';
-import { formatMoney } from '@splitscope/contract';
+import { formatMoney, reportReady } from '@splitscope/contract';
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { DocumentTable } from '@/components/ui/document-table';
@@ -88,7 +88,7 @@ function IssueInvoice({ ctx, approved }: { ctx: BillingCtx; approved: Quote | un
 
 /** Invoices of the job; issuing one waits for verification, as the server requires. */
 export function InvoicesSection({ invoices, quotes, ctx }: { invoices: Invoice[]; quotes: Quote[]; ctx: BillingCtx }) {
-  const verified = ctx.job.status === 'verified' || ctx.job.status === 'returned';
+  const verified = reportReady(ctx.job.status);
   const open = invoices.some((i) => i.status === 'issued');
   const approved = [...quotes].reverse().find((q) => q.status === 'approved');
   return (

@@ -1,8 +1,8 @@
-import type { BillingSettings, JobBilling, JobDetail, Role } from '@splitscope/contract';
+import { canBill, type BillingSettings, type JobBilling, type JobDetail, type Role } from '@splitscope/contract';
 import { Link, useParams } from 'react-router-dom';
 import { QueryState } from '@/components/ui/query-state';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { useMe } from '@/features/auth/api/me';
+import { useMe } from '@/lib/api/me';
 import { useJob } from '@/lib/api/get-job';
 import { useBillingSettings } from '../api/get-billing-settings';
 import { useJobBilling } from '../api/get-job-billing';
@@ -10,11 +10,8 @@ import { InvoicesSection } from './invoices-section';
 import { QuotesSection } from './quotes-section';
 import { StatusMailSection } from './status-mail-section';
 
-// The same rule as the server's guards: trainees read billing, the rest of the bench quotes and invoices.
-const mayBill = (role: Role | undefined) => role === 'admin' || role === 'lead' || role === 'tech';
-
 function Billing({ job, billing, settings, role }: { job: JobDetail; billing: JobBilling; settings: BillingSettings; role: Role | undefined }) {
-  const ctx = { job, currency: settings.currency, defaultRate: settings.taxRate, canEdit: mayBill(role) };
+  const ctx = { job, currency: settings.currency, defaultRate: settings.taxRate, canEdit: canBill(role) };
   return (
     <div className="mx-auto max-w-5xl space-y-6">
       <div className="flex flex-wrap items-center justify-between gap-2">

@@ -1,5 +1,5 @@
 import type { Sent } from '@splitscope/contract';
-import { useId, useState, type FormEvent } from 'react';
+import { useId, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { dateTime } from '@/lib/format';
 
@@ -12,13 +12,16 @@ interface Props {
   onSend: (to: string | undefined) => void;
 }
 
-/** An address (the customer's on file unless changed) and a send button; says where the mail went. */
+/**
+ * The customer's address on file and a send button; says where the mail went. The mail carries a link that
+ * answers quotes as the customer, so it goes to the address on file only (the server refuses any other).
+ */
 export function SendForm({ label, defaultTo, pending, error, sent, onSend }: Props) {
   const id = useId();
-  const [to, setTo] = useState(defaultTo ?? '');
+  const to = defaultTo ?? '';
   const submit = (e: FormEvent) => {
     e.preventDefault();
-    onSend(to.trim() && to.trim() !== defaultTo ? to.trim() : undefined);
+    onSend(undefined);
   };
   return (
     <form onSubmit={submit} className="flex flex-wrap items-end gap-2">
@@ -27,12 +30,15 @@ export function SendForm({ label, defaultTo, pending, error, sent, onSend }: Pro
         <input
           id={`${id}-to`}
           type="email"
-          autoComplete="off"
+          readOnly
+          aria-describedby={`${id}-hint`}
           value={to}
-          onChange={(e) => setTo(e.target.value)}
-          placeholder="name@example.com"
-          className="block min-h-11 w-full rounded-md border border-stone-500 bg-white px-3"
+          placeholder="none on file"
+          className="block min-h-11 w-full rounded-md border border-stone-500 bg-stone-100 px-3"
         />
+        <span id={`${id}-hint`} className="text-sm text-stone-700">
+          {to ? 'Sent to the address on file only; change it on the customer.' : 'No e-mail on file: add one on the customer first.'}
+        </span>
       </label>
       <Button type="submit" disabled={pending || !to.trim()}>
         {pending ? 'Sending…' : label}

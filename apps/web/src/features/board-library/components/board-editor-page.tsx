@@ -1,9 +1,9 @@
-import { boardModelSchema, type BoardDetail, type BoardModel } from '@splitscope/contract';
+import { boardModelSchema, hasRole, ROLES, type BoardDetail, type BoardModel } from '@splitscope/contract';
 import { useMemo, useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
 import { QueryState } from '@/components/ui/query-state';
-import { useMe } from '@/features/auth/api/me';
+import { useMe } from '@/lib/api/me';
 import { METER_LABEL, meterText } from '@/lib/format';
 import { useBoard } from '../api/get-board';
 import { useUpdateBoard } from '../api/update-board';
@@ -28,7 +28,7 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
   const [selected, setSelected] = useState<string | null>(null);
   const [placing, setPlacing] = useState<'point' | 'part'>('point');
   const [note, setNote] = useState('');
-  const canEdit = me.data?.role === 'admin' || me.data?.role === 'lead';
+  const canEdit = hasRole(me.data?.role, ROLES.reviewers);
   if (!doc) return <p role="alert">This board document does not match the board-model schema: {parsed.error?.issues[0]?.message}</p>;
 
   const movePoint = (id: string, x: number, y: number) =>
@@ -211,7 +211,7 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
   );
 }
 
-export function BoardEditorPage() {
+function BoardEditorPage() {
   const { id = '' } = useParams();
   const board = useBoard(id);
   // Held here, not in the editor: a saved version remounts the editor, and the "saved" note must survive that.

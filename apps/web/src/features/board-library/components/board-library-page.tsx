@@ -4,7 +4,7 @@ import { QueryState } from '@/components/ui/query-state';
 import { dateTime } from '@/lib/format';
 import { useBoards } from '@/lib/api/get-boards';
 
-export function BoardLibraryPage() {
+function BoardLibraryPage() {
   const boards = useBoards();
   return (
     <section>

@@ -2,7 +2,7 @@ import { jobStatusLabels, jobStatuses, type Job, type Me } from '@splitscope/con
 import { Link } from 'react-router-dom';
 import { QueryState } from '@/components/ui/query-state';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { useMe } from '@/features/auth/api/me';
+import { useMe } from '@/lib/api/me';
 import { useJobs } from '@/lib/api/get-jobs';
 import { age } from '@/lib/format';
 

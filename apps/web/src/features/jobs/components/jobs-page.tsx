@@ -153,7 +153,7 @@ export function JobsTable({ jobs }: { jobs: Job[] }) {
   );
 }
 
-export function JobsPage() {
+function JobsPage() {
   const jobs = useJobs();
   return (
     <section>

@@ -22,7 +22,7 @@ function Err({ msg }: { msg?: string }) {
 }
 
 /** Intake: who sent the board, which unit and board model, and what the unit showed. */
-export function NewJobPage() {
+function NewJobPage() {
   const customers = useCustomers();
   const boards = useBoards();
   const users = useUsers();
@@ -49,7 +49,7 @@ export function NewJobPage() {
       setPhotoError(`The job is open, but a photo was not stored: ${(err as Error).message}`);
       return;
     }
-    navigate(`/jobs/${job.id}`);
+    void navigate(`/jobs/${job.id}`);
   });
 
   return (

@@ -7,11 +7,24 @@ import { meterText } from '@/lib/format';
 
 const field = 'mt-1 block min-h-11 w-full rounded-md border border-stone-500 bg-white px-3 font-mono';
 
-function parse(text: string, unit: 'V' | 'ohm' | 'F'): { value?: number; error?: string } {
-  if (!text.trim()) return {};
+const FIELD_WORDS = { V: 'The bus voltage', ohm: 'The bleeder resistance', F: 'The bulk capacitance' } as const;
+const EXAMPLE = { V: '340', ohm: '220k', F: '680u' } as const;
+
+/** One field of the calculator: a positive value with its unit, or a sentence saying what to type instead. */
+function parse(text: string, unit: 'V' | 'ohm' | 'F', required: boolean): { value?: number; error?: string } {
+  const what = FIELD_WORDS[unit];
+  if (!text.trim()) return required ? { error: `${what} is needed, e.g. ${EXAMPLE[unit]}.` } : {};
   const r = parseReadingInput(text, unit);
-  if (!r.ok) return { error: r.error };
-  if (r.value === 'OL') return { error: 'OL is not a value here' };
+  if (!r.ok) return { error: `${what}: “${text.trim()}” is not a number. Type a number with an optional prefix, e.g. ${EXAMPLE[unit]}.` };
+  if (r.value === 'OL') return { error: `${what}: OL is a meter overload, not a value. Type a number, e.g. ${EXAMPLE[unit]}.` };
+  if (r.value < 0)
+    return {
+      error:
+        unit === 'V'
+          ? `The bus voltage is entered as a magnitude: a meter reading of ${text.trim()} means the probes were reversed. Type ${String(-r.value)} to work out the bleed time.`
+          : `${what} cannot be negative.`,
+    };
+  if (r.value === 0) return { error: `${what} must be more than zero.` };
   return { value: r.value };
 }
 
@@ -20,11 +33,14 @@ function BusCalculator() {
   const [r, setR] = useState('220k');
   const [v, setV] = useState('340');
   const [t, setT] = useState<SafeThresholdId>('selv-60vdc');
-  const cap = parse(c, 'F');
-  const bleeder = parse(r, 'ohm');
-  const volts = parse(v, 'V');
+  const cap = parse(c, 'F', true);
+  const bleeder = parse(r, 'ohm', false);
+  const volts = parse(v, 'V', true);
   let result: ReturnType<typeof busSafety> | null = null;
   let error = cap.error ?? bleeder.error ?? volts.error ?? null;
+  const threshold = SAFE_THRESHOLDS[t];
+  // Below the threshold there is nothing to wait for: say so instead of a bleed time of "0.00 ms".
+  const alreadySafe = volts.value !== undefined && volts.value < threshold.volts;
   if (!error && cap.value && volts.value) {
     try {
       result = busSafety({ capacitanceF: cap.value, bleederOhms: bleeder.value, busVolts: volts.value, threshold: SAFE_THRESHOLDS[t] });
@@ -76,10 +92,18 @@ function BusCalculator() {
               <dd className="font-semibold tabular-nums">{result.tauS === null ? 'no bleed path' : `${result.tauS.toPrecision(3)} s`}</dd>
               <dt>Bleed time to {result.threshold.volts} V</dt>
               <dd className="font-semibold tabular-nums" data-testid="calc-bleed">
-                {result.bleedTimeS === null ? 'never by itself — discharge it' : `${result.bleedTimeS.toPrecision(3)} s`}
+                {alreadySafe
+                  ? 'no wait: already below the threshold'
+                  : result.bleedTimeS === null
+                    ? 'never by itself — discharge it'
+                    : `${result.bleedTimeS.toPrecision(3)} s`}
               </dd>
             </dl>
-            <p className="text-sm">{result.summary}</p>
+            <p className="text-sm" data-testid="calc-summary">
+              {alreadySafe
+                ? `${volts.value} V is already below the ${threshold.volts} V threshold (${threshold.standard}), so there is no bleed time to wait. The capacitor still holds ${result.energyJ.toPrecision(3)} J: measure the bus across the bulk capacitor before touching, as the voltage you typed may not be what the board holds now.`
+                : result.summary}
+            </p>
             <p className="text-xs text-stone-700">
               Threshold: {result.threshold.clause}. {result.threshold.note}
             </p>
@@ -138,7 +162,7 @@ function MarkingDecoder() {
   );
 }
 
-export function ReferencesPage() {
+function ReferencesPage() {
   return (
     <div className="space-y-4">
       <PageHeader title="Bench references" />

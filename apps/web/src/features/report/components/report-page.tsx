@@ -1,27 +1,19 @@
-import type { JobDetail } from '@splitscope/contract';
+import type { RepairReport, ReportReading } from '@splitscope/contract';
 import { useParams } from 'react-router-dom';
 import { QueryState } from '@/components/ui/query-state';
-import { useJob } from '@/lib/api/get-job';
-import { useReadings } from '@/lib/api/get-readings';
-import { useRepairs } from '@/lib/api/get-repairs';
-import { dateTime, meterText } from '@/lib/format';
-import type { StoredReading } from '@splitscope/contract';
+import { dateTime, meterText, verdictWord } from '@/lib/format';
+import { useReport } from '../api/get-report';
 
-const verdictWord = (v: 'ok' | 'low' | 'high' | undefined) => (v === 'ok' ? 'healthy' : v ?? '—');
-
-function Report({ job }: { job: JobDetail }) {
-  const readings = useReadings(job.id);
-  const repairs = useRepairs(job.id);
-  const items = (readings.data?.items ?? []).filter((r) => !r.supersededBy);
-  const found = items.filter((r) => r.phase === 'diagnosis' && r.verdict && r.verdict.verdict !== 'ok');
-  const verification = items.filter((r) => r.phase === 'verification');
-  const approval = [...job.reviews].reverse().find((r) => r.decision === 'approve');
+/** The report as the server composes it (the same model the customer's PDF is drawn from). */
+function Report({ report: r }: { report: RepairReport }) {
   return (
     <article className="report mx-auto max-w-3xl space-y-4 bg-white p-6 print:p-0">
       <header className="flex flex-wrap items-start justify-between gap-2 border-b border-stone-300 pb-3">
         <div>
-          <h1 className="text-2xl font-semibold">Repair report · job #{job.number}</h1>
-          <p>{job.board.name} (board model version {job.boardVersion})</p>
+          <h1 className="text-2xl font-semibold">Repair report · job #{r.jobNumber}</h1>
+          <p>
+            {r.board} (board model version {r.boardVersion})
+          </p>
         </div>
         <button type="button" onClick={() => window.print()} className="no-print min-h-11 rounded-md bg-board px-4 font-semibold text-white">
           Print or save as PDF
@@ -32,111 +24,102 @@ function Report({ job }: { job: JobDetail }) {
         <dl className="grid grid-cols-[10rem_1fr] gap-y-1 text-sm">
           <dt>Customer</dt>
           <dd>
-            {job.customer.name}
-            {job.customer.company ? `, ${job.customer.company}` : ''}
+            {r.customer.name}
+            {r.customer.company ? `, ${r.customer.company}` : ''}
           </dd>
           <dt>Unit</dt>
           <dd>
-            {job.unitDescription}
-            {job.serial ? ` · serial ${job.serial}` : ''}
+            {r.unit}
+            {r.serial ? ` · serial ${r.serial}` : ''}
           </dd>
           <dt>Received</dt>
-          <dd>{dateTime(job.receivedAt)}</dd>
+          <dd>{dateTime(r.receivedAt)}</dd>
           <dt>Reported fault</dt>
           <dd>
-            {job.faultCode ? `code ${job.faultCode} · ` : ''}
-            {job.symptom}
+            {r.faultCode ? `code ${r.faultCode} · ` : ''}
+            {r.symptom}
           </dd>
           <dt>Faulty part</dt>
           <dd className="font-semibold" data-testid="report-part">
-            {job.proposedPart ?? 'not determined'}
-            {approval ? ` (approved by ${approval.reviewerName}, ${dateTime(approval.createdAt)})` : ''}
+            {r.finding.part ?? 'not determined'}
+            {r.finding.reviewedBy && r.finding.reviewedAt ? ` (approved by ${r.finding.reviewedBy}, ${dateTime(r.finding.reviewedAt)})` : ''}
           </dd>
           <dt>Status</dt>
-          <dd>{job.status}</dd>
+          <dd>{r.status}</dd>
         </dl>
       </section>
       <section>
         <h2 className="text-lg font-semibold">Readings that found it</h2>
-        <QueryState query={readings} label="readings">
-          {() =>
-            found.length === 0 ? (
-              <p className="text-sm">No out-of-band reading recorded.</p>
-            ) : (
-              <ReadingTable rows={found} />
-            )
-          }
-        </QueryState>
+        {r.foundBy.length === 0 ? <p className="text-sm">No out-of-band reading recorded.</p> : <ReadingTable rows={r.foundBy} />}
       </section>
       <section>
         <h2 className="text-lg font-semibold">Repair</h2>
-        <QueryState query={repairs} label="repairs">
-          {(d) =>
-            d.items.length === 0 ? (
-              <p className="text-sm">No repair recorded.</p>
-            ) : (
-              <ul className="text-sm" data-testid="report-repairs">
-                {d.items.map((r) => (
-                  <li key={r.id}>
-                    <strong>{r.part}</strong> {r.action}
-                    {r.replacementValue ? ` with ${r.replacementValue}` : ''}
-                    {r.marking ? ` (marked ${r.marking})` : ''} by {r.authorName}, {dateTime(r.createdAt)}
-                    {r.notes ? ` — ${r.notes}` : ''}
-                  </li>
-                ))}
-              </ul>
-            )
-          }
-        </QueryState>
+        {r.repairs.length === 0 ? (
+          <p className="text-sm">No repair recorded.</p>
+        ) : (
+          <ul className="text-sm" data-testid="report-repairs">
+            {r.repairs.map((a) => (
+              <li key={a.id}>
+                <strong>{a.part}</strong> {a.action}
+                {a.replacementValue ? ` with ${a.replacementValue}` : ''}
+                {a.marking ? ` (marked ${a.marking})` : ''} by {a.authorName}, {dateTime(a.createdAt)}
+                {a.notes ? ` — ${a.notes}` : ''}
+              </li>
+            ))}
+          </ul>
+        )}
       </section>
       <section>
         <h2 className="text-lg font-semibold">Verification</h2>
-        {verification.length === 0 ? <p className="text-sm">No verification reading recorded.</p> : <ReadingTable rows={verification} />}
-        <p className="mt-2 text-sm font-semibold">{job.status === 'verified' || job.status === 'returned' ? 'The board was verified against its expected readings.' : 'The board is not verified yet.'}</p>
+        {r.verification.length === 0 ? <p className="text-sm">No verification reading recorded.</p> : <ReadingTable rows={r.verification} />}
+        <p className="mt-2 text-sm font-semibold">{r.verified ? 'The board was verified against its expected readings.' : 'The board is not verified yet.'}</p>
       </section>
       <footer className="border-t border-stone-300 pt-2 text-xs text-stone-700">
         Mains and the DC bus on this board are hazardous. Install and test it under your local electrical codes and licensed practice.
       </footer>
     </article>
   );
-
 }
 
-function ReadingTable({ rows }: { rows: StoredReading[] }) {
-    return (
-      <table className="w-full text-left text-sm">
-        <thead>
-          <tr className="border-b border-stone-300">
-            <th>Red → black</th>
-            <th>Meter</th>
-            <th>Power</th>
-            <th>Measured</th>
-            <th>Expected band</th>
-            <th>Verdict</th>
+function ReadingTable({ rows }: { rows: ReportReading[] }) {
+  return (
+    <table className="w-full text-left text-sm">
+      <thead>
+        <tr className="border-b border-stone-300">
+          <th>Red → black</th>
+          <th>Meter</th>
+          <th>Power</th>
+          <th>Measured</th>
+          <th>Expected band</th>
+          <th>Verdict</th>
+        </tr>
+      </thead>
+      <tbody>
+        {rows.map((r) => (
+          <tr key={r.id} className="border-b border-stone-200">
+            <td className="py-0.5">
+              {r.red} → {r.black}
+            </td>
+            <td>{r.mode}</td>
+            <td>{r.power}</td>
+            <td className="font-mono">{meterText(r.value, r.unit)}</td>
+            <td>{r.verdict ? `${meterText(r.verdict.low, r.unit)} – ${meterText(r.verdict.high, r.unit)}` : '—'}</td>
+            <td className="font-semibold">{verdictWord(r.verdict?.verdict)}</td>
           </tr>
-        </thead>
-        <tbody>
-          {rows.map((r) => (
-            <tr key={r.id} className="border-b border-stone-200">
-              <td className="py-0.5">
-                {r.red} → {r.black}
-              </td>
-              <td>{r.mode}</td>
-              <td>{r.power}</td>
-              <td className="font-mono">{meterText(r.value, r.unit)}</td>
-              <td>{r.verdict ? `${meterText(r.verdict.low, r.unit)} – ${meterText(r.verdict.high, r.unit)}` : '—'}</td>
-              <td className="font-semibold">{verdictWord(r.verdict?.verdict)}</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    );
-  }
+        ))}
+      </tbody>
+    </table>
+  );
+}
 
-export function ReportPage() {
+function ReportPage() {
   const { id = '' } = useParams();
-  const job = useJob(id);
-  return <QueryState query={job} label="the job">{(j) => <Report job={j} />}</QueryState>;
+  const report = useReport(id);
+  return (
+    <QueryState query={report} label="the report">
+      {(r) => <Report report={r} />}
+    </QueryState>
+  );
 }
 
 export default ReportPage;

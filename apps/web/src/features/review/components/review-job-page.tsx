@@ -1,11 +1,11 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { createReviewRequest, type JobDetail } from '@splitscope/contract';
+import { canApprove, createReviewRequest, type JobDetail } from '@splitscope/contract';
 import { useForm } from 'react-hook-form';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import type { z } from 'zod';
 import { QueryState } from '@/components/ui/query-state';
 import { StatusBadge } from '@/components/ui/status-badge';
-import { useMe } from '@/features/auth/api/me';
+import { useMe } from '@/lib/api/me';
 import { useJob } from '@/lib/api/get-job';
 import { useReadings } from '@/lib/api/get-readings';
 import { dateTime, meterText } from '@/lib/format';
@@ -22,7 +22,7 @@ function Decision({ job }: { job: JobDetail }) {
     form.setValue('decision', decision);
     void form.handleSubmit(async (v) => {
       await review.mutateAsync(v);
-      navigate('/review');
+      void navigate('/review');
     })();
   };
   return (
@@ -54,7 +54,7 @@ function Review({ job }: { job: JobDetail }) {
   const me = useMe();
   const readings = useReadings(job.id);
   const snap = job.latestSnapshot?.output;
-  const canDecide = (me.data?.role === 'lead' || me.data?.role === 'admin') && job.status === 'awaiting-review';
+  const canDecide = canApprove(job.status, me.data?.role);
   return (
     <div className="space-y-4">
       <div className="flex flex-wrap items-center justify-between gap-2">
@@ -153,7 +153,7 @@ function Review({ job }: { job: JobDetail }) {
   );
 }
 
-export function ReviewJobPage() {
+function ReviewJobPage() {
   const { id = '' } = useParams();
   const job = useJob(id);
   return <QueryState query={job} label="the job">{(j) => <Review job={j} />}</QueryState>;

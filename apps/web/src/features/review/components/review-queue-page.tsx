@@ -4,7 +4,7 @@ import { QueryState } from '@/components/ui/query-state';
 import { useJobs } from '@/lib/api/get-jobs';
 import { age } from '@/lib/format';
 
-export function ReviewQueuePage() {
+function ReviewQueuePage() {
   const jobs = useJobs({ status: 'awaiting-review' });
   return (
     <section>

@@ -1,3 +1,4 @@
+import { judgeBusVolts } from '@splitscope/contract';
 import { useId, useState, type FormEvent } from 'react';
 import { Caution } from '@/components/ui/caution';
 
@@ -19,14 +20,17 @@ export function SafetyGate({
   figures,
   check,
   onPass,
+  refusal,
 }: {
   figures: GateFigures;
   check: (text: string) => Promise<{ ok: true; volts: number } | { ok: false; message: string }>;
   onPass: (busVolts: number) => void;
+  /** Why the server refused the last reading at the gate, so the technician knows to measure again. */
+  refusal?: string | null;
 }) {
   const [unplugged, setUnplugged] = useState(false);
   const [text, setText] = useState('');
-  const [message, setMessage] = useState<string | null>(null);
+  const [message, setMessage] = useState<string | null>(refusal ?? null);
   const id = useId();
 
   const submit = async (e: FormEvent) => {
@@ -34,10 +38,9 @@ export function SafetyGate({
     if (!unplugged) return setMessage('Confirm the board is unplugged first.');
     const r = await check(text);
     if (!r.ok) return setMessage(r.message);
-    if (r.volts >= figures.thresholdVolts)
-      return setMessage(
-        `${r.volts} V is not below ${figures.thresholdVolts} V. Wait longer or discharge through a rated resistor, then measure again.`,
-      );
+    // The contract's rule, the same the server applies: the magnitude counts, a reversed reading is named.
+    const judged = judgeBusVolts(r.volts, figures.thresholdVolts);
+    if (!judged.ok) return setMessage(judged.message);
     setMessage(null);
     onPass(r.volts);
   };

@@ -1,0 +1,3 @@
+// What other features may use of invoices: they import it from here, never from the files inside.
+export { invoiceRoutes } from './routes';
+export { applyPaymentEvent, startCheckout } from './service';

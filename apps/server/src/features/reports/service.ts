@@ -1,0 +1,54 @@
+// The repair report's one model. The web's report page, the customer's PDF and the invoice e-mail that carries
+// the PDF all render what this returns; none of them reads the job's rows on its own.
+import { and, desc, eq } from 'drizzle-orm';
+import { reportReady, verificationReadings, type RepairReport, type StoredReading } from '@splitscope/contract';
+import type { Db } from '../../db/client';
+import { boardModels, boardModelVersions, customers, jobs, reviews, shops, users } from '../../db/schema';
+import { AppError } from '../../http/errors';
+import { iso, isoOrNull } from '../../lib/dates';
+import { findReadings } from '../readings';
+import { findRepairs } from '../repairs';
+
+const asReportReading = ({ id, red, black, mode, power, value, unit, raw, verdict, takenAt }: StoredReading) => ({ id, red, black, mode, power, value, unit, raw, verdict, takenAt });
+
+export async function getRepairReport({ db, shopId, jobId }: { db: Db; shopId: string; jobId: string }): Promise<RepairReport> {
+  const [row] = await db
+    .select({ job: jobs, customer: customers, shopName: shops.name, board: boardModels.name, boardVersion: boardModelVersions.version })
+    .from(jobs)
+    .innerJoin(customers, eq(customers.id, jobs.customerId))
+    .innerJoin(shops, eq(shops.id, jobs.shopId))
+    .innerJoin(boardModels, eq(boardModels.id, jobs.boardId))
+    .innerJoin(boardModelVersions, eq(boardModelVersions.id, jobs.boardVersionId))
+    .where(and(eq(jobs.id, jobId), eq(jobs.shopId, shopId)));
+  if (!row) throw new AppError('not_found', `No job ${jobId}`);
+  const { job } = row;
+  const [approval] = await db
+    .select({ name: users.name, part: reviews.proposedPart, at: reviews.createdAt })
+    .from(reviews)
+    .innerJoin(users, eq(users.id, reviews.reviewerId))
+    .where(and(eq(reviews.jobId, jobId), eq(reviews.decision, 'approve')))
+    .orderBy(desc(reviews.createdAt))
+    .limit(1);
+  const { items: repairs } = await findRepairs({ db, shopId, jobId });
+  const { items: current } = await findReadings({ db, shopId, jobId, view: 'current' });
+  const lastRepairAt = repairs.at(-1)?.createdAt ?? null;
+  return {
+    jobId,
+    jobNumber: job.number,
+    shopName: row.shopName,
+    customer: { name: row.customer.name, company: row.customer.company },
+    unit: job.unitDescription,
+    serial: job.serial,
+    board: row.board,
+    boardVersion: row.boardVersion,
+    faultCode: job.faultCode,
+    symptom: job.symptom,
+    status: job.status,
+    receivedAt: iso(job.receivedAt),
+    finding: { part: approval?.part ?? job.proposedPart, reviewedBy: approval?.name ?? null, reviewedAt: isoOrNull(approval?.at) },
+    foundBy: current.filter((r) => r.phase === 'diagnosis' && r.verdict && r.verdict.verdict !== 'ok').map(asReportReading),
+    repairs: repairs.map(({ id, part, action, replacementValue, marking, notes, authorName, createdAt }) => ({ id, part, action, replacementValue, marking, notes, authorName, createdAt })),
+    verification: verificationReadings(current, lastRepairAt).map(asReportReading),
+    verified: reportReady(job.status),
+  };
+}

@@ -1,0 +1,87 @@
+/**
+ * Prediction cache of the diagnosis core: predictions per (sub-fault set, test). Predictions never depend on
+ * readings, so a cache built for one set of readings serves every later update on the same model.
+ */
+import type { SubFault, SystemModel } from './types.js';
+
+export function subFaultKey(faults: readonly SubFault[]): string {
+  if (faults.length === 0) return '∅';
+  return faults
+    .map((f) => `${f.component}:${f.mode}#${f.point}`)
+    .sort()
+    .join('|');
+}
+
+/**
+ * Caches predictions per (sub-fault set, test). Predictions never depend on readings, so a cache built for
+ * one set of readings serves every later update on the same model.
+ */
+export class PredictionCache<T, P> {
+  private readonly map = new Map<string, Map<string, P>>();
+  private readonly testKeys = new WeakMap<object, string>();
+  hits = 0;
+  misses = 0;
+  constructor(private readonly model: SystemModel<T, unknown, P>) {}
+
+  private keyOf(t: T): string {
+    if (typeof t !== 'object' || t === null) return this.model.testKey(t);
+    let k = this.testKeys.get(t);
+    if (k === undefined) {
+      k = this.model.testKey(t);
+      this.testKeys.set(t, k);
+    }
+    return k;
+  }
+
+  /** One prediction (a cached lookup; predicts on a miss). */
+  getOne(faults: readonly SubFault[], test: T, key?: string): P {
+    const fk = key ?? subFaultKey(faults);
+    const inner = this.map.get(fk);
+    const p = inner?.get(this.keyOf(test));
+    if (p !== undefined) {
+      this.hits++;
+      return p;
+    }
+    return this.get(faults, [test], fk)[0] as P;
+  }
+
+  get(faults: readonly SubFault[], tests: readonly T[], key?: string): P[] {
+    const fk = key ?? subFaultKey(faults);
+    let inner = this.map.get(fk);
+    if (!inner) {
+      inner = new Map();
+      this.map.set(fk, inner);
+    }
+    const out: (P | undefined)[] = new Array(tests.length);
+    let missing: T[] | undefined;
+    let missingIdx: number[] | undefined;
+    for (let i = 0; i < tests.length; i++) {
+      const t = tests[i] as T;
+      const k = this.keyOf(t);
+      const p = inner.get(k);
+      if (p === undefined) {
+        (missing ??= []).push(t);
+        (missingIdx ??= []).push(i);
+      } else {
+        out[i] = p;
+        this.hits++;
+      }
+    }
+    if (missing && missingIdx) {
+      this.misses += missing.length;
+      const preds = this.model.predict(faults, missing);
+      for (let j = 0; j < missing.length; j++) {
+        const p = preds[j] as P;
+        inner.set(this.keyOf(missing[j] as T), p);
+        out[missingIdx[j] as number] = p;
+      }
+    }
+    return out as P[];
+  }
+
+  get size(): number {
+    let n = 0;
+    for (const m of this.map.values()) n += m.size;
+    return n;
+  }
+}
