@@ -145,14 +145,13 @@ export async function runFuzz({ total, seed, log }: { total: number; seed?: numb
     await server.start();
     await client.connect();
     // every role of the demo shop, a technician of the other shop, and nobody
-    const sessions: (Session | null)[] = [
-      await signIn(server.url, 'admin@demo.test'),
-      await signIn(server.url, 'lead@demo.test'),
-      await signIn(server.url, 'tech@demo.test'),
-      await signIn(server.url, 'trainee@demo.test'),
-      await signIn(server.url, 'tech@other.test'),
-      null,
-    ];
+    const people = ['admin@demo.test', 'lead@demo.test', 'tech@demo.test', 'trainee@demo.test', 'tech@other.test', null];
+    const sessions: (Session | null)[] = await Promise.all(people.map((e) => (e ? signIn(server.url, e) : null)));
+    // A fuzzed "sign out everywhere" or a role change ends a session the run still uses: sign in again.
+    const renew = async (k: number) => {
+      const email = people[k];
+      if (email) sessions[k] = await signIn(server.url, email).catch(() => null);
+    };
     await loadRealIds(client);
     const perRoute = Math.max(50, Math.ceil(total / Math.max(1, routes.length)));
     const schemas = contract as unknown as Record<string, ZodSchema | undefined>;
@@ -168,9 +167,11 @@ export async function runFuzz({ total, seed, log }: { total: number; seed?: numb
       const paths = [await fillParams(route.path, client), route.path.replace(/:\w+/g, 'no-such-id')];
       for (const [i, p] of samples.entries()) {
         // Signing out would end the session the rest of the run uses: that route gets none.
-        const session = route.path.endsWith('/auth/sign-out') ? null : sessions[i % sessions.length]!;
+        const k = i % sessions.length;
+        const session = route.path.endsWith('/auth/sign-out') ? null : sessions[k]!;
         const url = server.url + paths[i % 7 === 6 ? 1 : 0];
         const status = await send(route.method, url, p, session, route.path.includes('/webhooks/'));
+        if (status === 401 && session) await renew(k);
         report.tried++;
         report.statuses[status] = (report.statuses[status] ?? 0) + 1;
         if (status >= 500 || status === 0) {
