@@ -12,6 +12,8 @@ export interface BenchBoard extends BenchBoardLike {
   /** Kinds that the designator letter does not tell (LEDs, opto-couplers, regulators). */
   kindOverrides?: Record<string, PartKind>;
   testPoints: TestPoint[];
+  /** Nets the board names as its AC mains input (the engine is told, as a board model would tell it). */
+  acMains?: string[];
 }
 
 /** Common practice: aluminium electrolytics from about 1 µF up, ceramics below. */

@@ -8,6 +8,7 @@ export const B01_BUS: BenchBoard = {
   title: 'mains bridge, bulk capacitor, bleeder, bus sense',
   defaults: {},
   mains: { source: 'VAC', sin: 'DC 0 SIN(0 325 50)' },
+  acMains: ['l', 'n'],
   netlist: () => `* B01 mains input, bridge rectifier, bulk capacitor, bleeder and bus sense (invented)
 .model DBR D(is=5e-10 n=1.9 rs=0.03 cjo=40p)
 VAC l n DC 325

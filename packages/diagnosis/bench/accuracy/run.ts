@@ -43,10 +43,10 @@ await Promise.all(
 const passed = (r: CaseResult) => r.rank === 1 && !confidentWrong(r) && r.repeats === 0 && r.engineErrors.length === 0 && !r.groundTruthError;
 const confidentWrong = (r: CaseResult) => r.topProbability >= CONFIDENT && r.rank !== 1;
 
-const cols = ['case', 'true fault', 'engine top answer', 'p', 'rank', 'part rank', 'rounds', 'repeats', 'errors', 'end', 'ok'];
+const cols = ['case', 'true fault', 'engine top answer', 'p', 'rank', 'part rank', 'rounds', 'repeats', 'errors', 'end', 'unexpl.', 'ok'];
 const rows = results.map((r) => [
   r.id, r.truth, r.top, r.topProbability.toFixed(2), r.rank ? String(r.rank) : '—', r.partRank ? String(r.partRank) : '—',
-  String(r.rounds), String(r.repeats), String(r.engineErrors.length + (r.groundTruthError ? 1 : 0)), r.end, passed(r) ? 'yes' : 'NO',
+  String(r.rounds), String(r.repeats), String(r.engineErrors.length + (r.groundTruthError ? 1 : 0)), r.end, r.unexplained ? 'yes' : '', passed(r) ? 'yes' : 'NO',
 ]);
 const width = cols.map((c, i) => Math.min(48, Math.max(c.length, ...rows.map((r) => at(r, i).length))));
 const line = (cells: string[]) =>
@@ -62,7 +62,8 @@ console.log(
   `\nTOTAL ${count(passed)}/${n} pass · true fault first ${count((r) => r.rank === 1)}/${n} · confident and wrong ${count(confidentWrong)} · ` +
     `cases with a repeated test ${count((r) => r.repeats > 0)} (${results.reduce((s, r) => s + r.repeats, 0)} repeats) · ` +
     `engine errors ${results.reduce((s, r) => s + r.engineErrors.length, 0)} · ground-truth failures ${count((r) => !!r.groundTruthError)} · ` +
-    `${((performance.now() - t0) / 1000).toFixed(0)} s, ngspice runs ${stats.runs} (cached ${stats.cached})`,
+    `ended "not explained" ${count((r) => !!r.unexplained)} · ${((performance.now() - t0) / 1000).toFixed(0)} s ` +
+    `(engine ${results.reduce((t, r) => t + r.engineSeconds, 0).toFixed(0)} s summed over cases), ngspice runs ${stats.runs} (cached ${stats.cached})`,
 );
 for (const r of results.filter((x) => x.engineErrors.length || x.groundTruthError)) {
   console.log(`  ${r.id}: ${[...r.engineErrors, ...(r.groundTruthError ? [r.groundTruthError] : [])].join('; ')}`);

@@ -27,11 +27,17 @@ export interface CaseResult {
   end: 'confident' | 'no test' | 'rounds' | 'error';
   readings: (CaseReading & { ideal: number | 'OL' })[];
   seconds: number;
+  /** Time spent in the engine's updates (the rest is ngspice and the harness). */
+  engineSeconds: number;
   /** Readings the engine itself calls low/high against its no-fault expectation at the end. */
   outOfBand: number;
   minimalDiagnoses: number;
   /** The engine's last verdict on each reading (expected value and band for a healthy board). */
   verdicts: DiagnosisOutput['readings'];
+  /** The engine's five best candidates at the end, with their probabilities. */
+  leaders: string[];
+  /** The engine's own "not explained by any modelled fault" at the end, in its words. */
+  unexplained?: string;
 }
 
 const key = (p: Probe) => [p.mode, p.red, p.black, p.power, [...(p.lifted ?? [])].sort().join('+')].join('|');
@@ -48,7 +54,13 @@ function diagnoserFor(c: BenchCase, params: Record<string, number>): Diagnoser {
   const id = `${c.board.id}:${JSON.stringify(params)}`;
   let d = diagnosers.get(id);
   if (!d) {
-    d = createDiagnoser({ netlist: c.board.netlist(params), parts: partKinds(c.board, params), testPoints: c.board.testPoints, meter: engineMeter() });
+    d = createDiagnoser({
+      netlist: c.board.netlist(params),
+      parts: partKinds(c.board, params),
+      testPoints: c.board.testPoints,
+      meter: engineMeter(),
+      ...(c.board.acMains ? { acMains: c.board.acMains } : {}),
+    });
     diagnosers.set(id, d);
   }
   return d;
@@ -60,7 +72,7 @@ export async function runCase(c: BenchCase, seed = 'bench-1', meter: MeterStyle 
   const noise = new Noise(`${seed}/${c.id}`);
   const result: CaseResult = {
     id: c.id, truth: c.faults.length ? c.faults.map((f) => f.words).join(' + ') : 'no fault', top: '-', topProbability: 0, rank: 0, partRank: 0, rounds: 0,
-    repeats: 0, engineErrors: [], end: 'error', readings: [], seconds: 0, outOfBand: 0, minimalDiagnoses: 0, verdicts: [],
+    repeats: 0, engineErrors: [], end: 'error', readings: [], seconds: 0, engineSeconds: 0, outOfBand: 0, minimalDiagnoses: 0, verdicts: [], leaders: [],
   };
   const taken = new Set<string>();
   const take = async (p: Probe) => {
@@ -79,13 +91,16 @@ export async function runCase(c: BenchCase, seed = 'bench-1', meter: MeterStyle 
     }
     for (;;) {
       let out: DiagnosisOutput;
+      const t = performance.now();
       try {
         out = diagnoser.update(result.readings.map(({ ideal: _ideal, ...r }) => r));
       } catch (e) {
         result.engineErrors.push(`update: ${(e as Error).message.split('\n')[0]}`);
         break;
+      } finally {
+        result.engineSeconds += (performance.now() - t) / 1000;
       }
-      score(result, out, c.faults);
+      score(result, out, c);
       if (result.topProbability >= CONFIDENT) {
         result.end = 'confident';
         break;
@@ -121,9 +136,10 @@ function finish(r: CaseResult, t0: number): CaseResult {
   return r;
 }
 
-function score(r: CaseResult, out: DiagnosisOutput, truth: readonly TrueFault[]) {
+function score(r: CaseResult, out: DiagnosisOutput, c: BenchCase) {
+  const truth = c.faults;
   const top = out.candidates[0];
-  r.top = top ? names(top.faults) : '-';
+  r.top = top ? (top.words?.text ?? names(top.faults)) : '-';
   r.topProbability = top?.probability ?? 0;
   const error = (m: string) => r.engineErrors.includes(m) || r.engineErrors.push(m);
   if (!out.candidates.every((x) => Number.isFinite(x.probability))) error('a candidate probability is not a number');
@@ -132,12 +148,18 @@ function score(r: CaseResult, out: DiagnosisOutput, truth: readonly TrueFault[])
   for (const x of out.readings) {
     const reading = r.readings[x.index];
     if (reading?.mode === 'dcv' && x.expected === 'OL') error(`expects OL for DC V ${reading.red}–${reading.black}: an unsolved prediction shown as a value`);
+    // ngspice solved every deck of this bench: a healthy reading the engine cannot compute is a solver failure
+    // (DC V on the mains input excepted: the engine leaves it unscored on purpose).
+    const mains = reading?.mode === 'dcv' && c.board.acMains?.some((n) => n === reading.red || n === reading.black);
+    if (reading && x.expected === null && !mains) error(`could not compute the healthy ${reading.mode} ${reading.red}–${reading.black} (${reading.power}) that ngspice solves`);
   }
+  r.unexplained = out.unexplained?.message;
   r.rank = out.candidates.findIndex((x) => matches(x.faults, truth)) + 1;
   r.partRank = out.candidates.findIndex((x) => truth.every((t) => x.faults.some((f) => f.part === t.part))) + 1;
   r.outOfBand = out.readings.filter((x) => x.verdict !== 'ok').length;
   r.minimalDiagnoses = out.minimalDiagnoses.length;
   r.verdicts = out.readings;
+  r.leaders = out.candidates.slice(0, 5).map((x) => `${names(x.faults)} ${x.probability.toFixed(3)}`);
 }
 
 /** The engine names probe points by net; a test point label is accepted too. */
