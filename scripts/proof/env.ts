@@ -1,5 +1,6 @@
 // The pieces the proof runs share: their own databases, a server child they may SIGKILL, a signed-in client.
 import { spawn, type ChildProcess } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
 import { createWriteStream, mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import pg from 'pg';
@@ -71,7 +72,10 @@ export class ServerChild {
   static async create(databaseUrl: string, logName: string, extra: Record<string, string> = {}): Promise<ServerChild> {
     mkdirSync(reportsDir, { recursive: true });
     const port = await findFreePort(5400 + (process.pid % 400));
-    const env = { DATABASE_URL: databaseUrl, PORT: String(port), LOGIN_RATE_LIMIT: '1000', NODE_ENV: 'production', WEB_DIST, ...extra };
+    // Without the local fakes the server refuses published payment secrets; these runs make no payment, so a
+    // random pair per run satisfies the check without weakening it.
+    const secrets = { PAYMENTS_SECRET_KEY: `sk_test_${randomBytes(12).toString('hex')}`, PAYMENTS_WEBHOOK_SECRET: `whsec_${randomBytes(16).toString('hex')}` };
+    const env = { DATABASE_URL: databaseUrl, PORT: String(port), LOGIN_RATE_LIMIT: '1000', NODE_ENV: 'production', WEB_DIST, ...secrets, ...extra };
     return new ServerChild(port, env, join(reportsDir, logName));
   }
 
