@@ -95,6 +95,8 @@ export const jobListResponse = z.object({ items: z.array(jobSchema) });
 export type JobList = z.infer<typeof jobListResponse>;
 
 export const createJobRequest = z.object({
+  /** One key per intake form: sending it again (a double click, a retry) answers the job it already made. */
+  idempotencyKey: z.string().trim().min(8).max(100).optional(),
   customerId: idSchema,
   unitDescription: z.string().trim().min(1).max(300),
   serial: optionalText(100),

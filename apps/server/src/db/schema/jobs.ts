@@ -51,11 +51,17 @@ export const jobs = pgTable(
     createdBy: text('created_by')
       .notNull()
       .references(() => users.id),
+    /** The intake request's key, so a repeated create answers the job it made. */
+    idempotencyKey: text('idempotency_key'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [
     uniqueIndex('jobs_shop_number_unique').on(t.shopId, t.number),
+    // One job per intake request: a repeated create (double click, retry after a lost answer) finds this row.
+    uniqueIndex('jobs_shop_idempotency_unique')
+      .on(t.shopId, t.idempotencyKey)
+      .where(sql`${t.idempotencyKey} is not null`),
     index('jobs_shop_status_idx').on(t.shopId, t.status),
     index('jobs_assignee_idx').on(t.assigneeId),
   ],

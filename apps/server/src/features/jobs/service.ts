@@ -137,6 +137,25 @@ async function checkAssignee(db: Db, shopId: string, assigneeId: string | null |
 }
 
 export async function createJob({ db, actor, input }: { db: Db; actor: Pick<Actor, 'id' | 'shopId'>; input: CreateJobRequest & { id?: string } }): Promise<Job> {
+  const key = input.idempotencyKey;
+  const made = async () => {
+    if (!key) return undefined;
+    const [row] = await db.select({ id: jobs.id }).from(jobs).where(and(eq(jobs.shopId, actor.shopId), eq(jobs.idempotencyKey, key)));
+    return row ? getJob({ db, shopId: actor.shopId, id: row.id }) : undefined;
+  };
+  const earlier = await made();
+  if (earlier) return earlier;
+  try {
+    return await insertJob({ db, actor, input });
+  } catch (err) {
+    // Two sends of one form at the same moment: the unique key lets one insert win; the other answers its job.
+    const winner = await made();
+    if (winner) return winner;
+    throw err;
+  }
+}
+
+async function insertJob({ db, actor, input }: { db: Db; actor: Pick<Actor, 'id' | 'shopId'>; input: CreateJobRequest & { id?: string } }): Promise<Job> {
   const [customer] = await db.select({ id: customers.id }).from(customers).where(and(eq(customers.id, input.customerId), eq(customers.shopId, actor.shopId)));
   if (!customer) throw new AppError('invalid', `No customer ${input.customerId}`, { errors: [{ path: 'customerId', message: 'unknown customer' }] });
   const [board] = await db.select().from(boardModels).where(and(eq(boardModels.id, input.boardId), eq(boardModels.shopId, actor.shopId)));
@@ -171,6 +190,7 @@ export async function createJob({ db, actor, input }: { db: Db; actor: Pick<Acto
       receivedAt: input.receivedAt ? new Date(input.receivedAt) : new Date(),
       dueAt: input.dueAt ? new Date(input.dueAt) : null,
       createdBy: actor.id,
+      idempotencyKey: input.idempotencyKey ?? null,
     });
   });
   return getJob({ db, shopId: actor.shopId, id });

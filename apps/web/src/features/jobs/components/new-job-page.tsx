@@ -32,7 +32,7 @@ function NewJobPage() {
   const [photoError, setPhotoError] = useState<string | null>(null);
   const form = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(createJobRequest),
-    defaultValues: { customerId: '', unitDescription: '', serial: '', boardId: '', faultCode: '', symptom: '', priority: 'normal', assigneeId: null },
+    defaultValues: { idempotencyKey: crypto.randomUUID(), customerId: '', unitDescription: '', serial: '', boardId: '', faultCode: '', symptom: '', priority: 'normal', assigneeId: null },
   });
   const boardId = useWatch({ control: form.control, name: 'boardId' });
   const faultCode = useWatch({ control: form.control, name: 'faultCode' });

@@ -1,0 +1,2 @@
+ALTER TABLE "jobs" ADD COLUMN "idempotency_key" text;--> statement-breakpoint
+CREATE UNIQUE INDEX "jobs_shop_idempotency_unique" ON "jobs" USING btree ("shop_id","idempotency_key") WHERE "jobs"."idempotency_key" is not null;
