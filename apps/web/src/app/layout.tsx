@@ -44,14 +44,16 @@ export function AppLayout() {
           <NavLink to="/references" className={link}>
             Bench references
           </NavLink>
+          {hasRole(me.data.role, ROLES.admins) && <NavLink to="/people" className={link}>People</NavLink>}
+          {hasRole(me.data.role, ROLES.admins) && <NavLink to="/shop" className={link}>Shop</NavLink>}
           {hasRole(me.data.role, ROLES.admins) && <NavLink to="/billing/settings" className={link}>Billing</NavLink>}
           {hasRole(me.data.role, ROLES.admins) && <NavLink to="/dev/mail" className={link}>Mail outbox</NavLink>}
         </nav>
-        <span className="text-sm" title={me.data.shopName}>
+        <NavLink to="/account" className="min-h-11 content-center rounded-md px-2 text-sm hover:bg-white/10" title={`${me.data.shopName}: your account`}>
           {me.data.name} · {roleLabel[me.data.role]}
           {/* The shop's name only where there is room: on a tablet the main links come first. */}
           <span className="hidden 2xl:inline"> · {me.data.shopName}</span>
-        </span>
+        </NavLink>
         <button
           type="button"
           className="min-h-11 rounded-md px-3 hover:bg-white/10"
