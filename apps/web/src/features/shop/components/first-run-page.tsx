@@ -22,7 +22,8 @@ export default function FirstRunPage() {
   const [errors, setErrors] = useState<Record<string, string>>({});
   const [logoError, setLogoError] = useState<string | null>(null);
   if (status.isPending) return <p className="p-6">Loading…</p>;
-  if (!status.data?.needsSetup) return <Navigate to="/sign-in" replace />;
+  // Once this form has created the shop the status says so too; stay until the form has finished.
+  if (!status.data?.needsSetup && firstRun.isIdle) return <Navigate to="/sign-in" replace />;
 
   const bind = (k: keyof Fields) => ({ value: f[k], onChange: (e: { target: { value: string } }) => setF({ ...f, [k]: e.target.value }) });
   const submit = async (e: FormEvent) => {
