@@ -11,7 +11,12 @@ test.describe('trainee', () => {
     await shot(page, 'trainee-home');
     const job = await findJob(page, ['received', 'diagnosing'], '&assignee=me');
     await page.goto(`/jobs/${job.id}`);
-    await expect(page.getByRole('button', { name: 'Guided order: on' })).toBeVisible();
+    // Guided order is the trainee's only mode: no switch to turn it off, and asking for the free bench changes nothing.
+    await expect(page.getByTestId('guided-locked')).toContainText('Guided order: on');
+    await expect(page.getByRole('button', { name: /Guided order/ })).toHaveCount(0);
+    await page.goto(`/jobs/${job.id}?mode=free`);
+    await expect(page.getByTestId('guided-step')).toBeVisible();
+    await expect(page.getByRole('button', { name: /Lift a part|Guided order: off/ })).toHaveCount(0);
 
     // Powered steps first: answer each with the healthy value until the engine asks for an unpowered one.
     let gated = false;
@@ -31,7 +36,7 @@ test.describe('trainee', () => {
       await page.getByLabel('Measured value').fill(typed(row!.expected));
       await page.getByLabel('Measured value').press('Enter');
       await expect.poll(async () => (await getJson<Diagnosis>(page, `/jobs/${job.id}/diagnosis`)).readings.length).toBeGreaterThan(count);
-      await expect(page.getByRole('heading', { name: 'Steps done' }).locator('..').getByRole('listitem')).toHaveCount(count + 1);
+      await expect(page.getByText(`Steps done (${count + 1})`)).toBeVisible();
     }
     expect(gated, 'the guided order reaches an unpowered step').toBe(true);
 
@@ -45,7 +50,12 @@ test.describe('trainee', () => {
     await page.getByLabel(/The board is unplugged/).check();
     await page.getByLabel(/Bus voltage I measured now/).fill('150');
     await page.getByRole('button', { name: 'Bus is safe — continue' }).click();
-    await expect(page.getByRole('alert')).toContainText('is not below');
+    await expect(page.getByRole('alert')).toContainText('not below 60 V');
+    // Probes the wrong way round: the magnitude counts, and the screen says what happened.
+    await page.getByLabel(/Bus voltage I measured now/).fill('-120');
+    await page.getByRole('button', { name: 'Bus is safe — continue' }).click();
+    await expect(page.getByRole('alert')).toContainText('Probes reversed? The bus reads −120 V');
+    await expect(page.getByLabel('Measured value')).toHaveCount(0);
     await expect(page.getByLabel('Measured value')).toHaveCount(0);
     await page.getByLabel(/Bus voltage I measured now/).fill('2.1');
     await page.getByRole('button', { name: 'Bus is safe — continue' }).click();

@@ -17,6 +17,7 @@ import { uploadRoutes } from './features/uploads/routes';
 import { userRoutes } from './features/users/routes';
 import { billingApiRoutes } from './features/billing/api';
 import { paymentWebhookRoutes } from './features/billing/webhook';
+import { dutyRoutes } from './features/duties/routes';
 import { customerPortalRoutes } from './features/customer-portal/routes';
 import { healthRoutes } from './features/health/routes';
 import { shopRoutes } from './features/shops/routes';
@@ -74,6 +75,7 @@ export function createApp(ctx: AppContext): Express {
   api.use(reportRoutes(ctx));
   api.use(uploadRoutes(ctx));
   api.use(billingApiRoutes(ctx));
+  api.use(dutyRoutes(ctx));
   api.use(notFoundApi);
   app.use('/api', api);
 

@@ -106,6 +106,8 @@ const TABLE: Entry[] = [
   // changes the shop's billing settings or reads the development outbox.
   { method: 'GET', path: '/api/billing/settings', roles: ALL, billing: true },
   { method: 'PATCH', path: '/api/billing/settings', roles: ADMIN, billing: true },
+  { method: 'GET', path: '/api/shop/duties', roles: ALL },
+  { method: 'PATCH', path: '/api/shop/duties', roles: ADMIN, body: () => ({ selfApproval: false }) },
   { method: 'GET', path: '/api/jobs/:jobId/billing', roles: ALL, kind: 'job', billing: true },
   { method: 'POST', path: '/api/jobs/:jobId/notify', roles: BENCH, kind: 'job', billing: true },
   { method: 'POST', path: '/api/jobs/:jobId/quotes', roles: BENCH, kind: 'job', billing: true, body: quoteBody },

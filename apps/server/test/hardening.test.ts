@@ -4,6 +4,8 @@ import { request } from 'node:http';
 import Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ConfigError, loadConfig } from '../src/config';
+import { eq } from 'drizzle-orm';
+import { diagnosisSnapshots, readings } from '../src/db/schema';
 import { createCustomer, createJob } from '../src/testing/factories';
 import type { RunningServer } from '../src/server';
 import { Client, startTestServer } from './harness';
@@ -145,6 +147,30 @@ describe('numbers within physical ranges (hole 3)', () => {
       expect(JSON.stringify(r.body)).toMatch(/value/);
     }
     expect((await tech.post(`/api/jobs/${jobId}/readings`, reading({ value: -999.5 }))).status).toBe(201);
+  });
+});
+
+describe('stored numbers out of range (hole 3)', () => {
+  it('keeps every page of a job readable with a 1e308 reading and a snapshot holding nulls for numbers', async () => {
+    const db = server.ctx.db;
+    const customer = await createCustomer(db, { shopId: 'shop-demo', name: 'Stored Range Customer', kind: 'contractor' });
+    const job = (await createJob(db, { shopId: 'shop-demo', createdBy: 'user-tech', boardId: 'board-demo-ofd-220', customerId: customer.id, unitDescription: 'Outdoor unit', symptom: 'Fan never starts', assigneeId: 'user-tech' })).id;
+    expect((await tech.post(`/api/jobs/${job}/readings`, reading())).status).toBe(201);
+    // as stored before the bounds: a reading of 1e308 V, and a snapshot the engine wrote from it
+    const [good] = await db.select().from(readings).where(eq(readings.jobId, job));
+    await db.insert(readings).values({ ...good!, id: crypto.randomUUID(), idempotencyKey: crypto.randomUUID(), requestHash: null, value: 1e308, raw: '1e308' });
+    const output = { jobId: job, boardVersionId: good!.jobId, engineVersion: 'old', readings: [], candidates: [{ faults: [{ part: 'Q1', mode: 'open' }], probability: null, evidence: [] }], parts: [{ part: 'Q1', mode: 'open', probability: 0.5 }], restProbability: null, minimalDiagnoses: [['Q1']], nextTests: [], entropy: null };
+    await db.insert(diagnosisSnapshots).values({ id: crypto.randomUUID(), shopId: 'shop-demo', jobId: job, engineVersion: 'old', proposedPart: 'Q1', output, createdBy: 'user-tech' });
+
+    const diagnosis = await tech.get(`/api/jobs/${job}/diagnosis`);
+    expect(diagnosis.status).toBe(200);
+    expect((diagnosis.body as unknown as { readings: unknown[] }).readings).toHaveLength(1);
+    const snaps = await tech.get(`/api/jobs/${job}/diagnosis-snapshots`);
+    expect(snaps.status).toBe(200);
+    const [snap] = (snaps.body as unknown as { items: { unreadable?: string[]; output: { parts: unknown[]; candidates: unknown[] } }[] }).items;
+    expect(snap!.unreadable).toEqual(['1 of 1 candidates', 'restProbability', 'entropy']);
+    expect(snap!.output.parts).toHaveLength(1);
+    for (const path of [`/api/jobs/${job}`, `/api/jobs/${job}/readings`, '/api/jobs']) expect((await tech.get(path)).status, path).toBe(200);
   });
 });
 

@@ -65,7 +65,8 @@ describe('job flow and repair report', () => {
     expect(report.foundBy.map((r) => r.raw)).toEqual(['2.1']);
 
     const drawn = reportLines(report).map((l) => l.text);
-    expect(drawn).toContain('• TP2 to gnd (dcv, on): 7.5 (healthy)');
+    // Probe positions, meter function and board state in the bench's words, not net names or mode ids.
+    expect(drawn.find((l) => l.startsWith('• TP2'))).toMatch(/^• TP2 .* to bus negative.* \(DC V, powered\): 7\.5 \(healthy\)$/);
     expect(drawn.join('\n')).not.toMatch(/\b75\b/);
     const pdf = await renderReportPdf(report);
     expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');

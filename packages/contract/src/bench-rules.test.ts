@@ -5,6 +5,8 @@ import { guidedOrderBinds, canLiftGuidedOrder } from './policy-bench';
 import { createReadingRequest } from './readings';
 import { dischargeGateRefusal, judgeBusVolts, needsDischargeGate } from './safety-gate';
 import { strikeReadingRequest } from './readings';
+import { unprovenRows, verificationChecklist } from './verification';
+import type { ExpectedReadingRow } from './boards';
 
 // The demo board's gate model: the DC bus section touches the bus, the 15 V regulator does not.
 const model = { testPoints: OUTDOOR_FAN_BOARD.testPoints, sections: OUTDOOR_FAN_BOARD.sections };
@@ -75,5 +77,24 @@ describe('validation messages for people', () => {
     expect(r.error!.issues[0]!.message).toBe('say why the reading is struck out (at least a few words)');
     const missing = createReadingRequest.safeParse({});
     expect(missing.error!.issues.map((i) => i.message).join(' ')).not.toMatch(/expected|Too small|>=/);
+  });
+});
+
+describe('the verification checklist', () => {
+  const row = (id: string, red: string, mode: 'dcv' | 'ohm', power: 'on' | 'off', lifted: string[] = []) =>
+    ({ id, red, black: '0', mode, power, lifted, expected: 1, low: 0.9, high: 1.1, unit: mode === 'dcv' ? 'V' : 'ohm' }) as ExpectedReadingRow;
+  const table = [row('a', 'TP5', 'dcv', 'on'), row('b', 'TP5', 'ohm', 'off'), row('c', 'TP5', 'ohm', 'off', ['C10']), row('d', 'TP1', 'dcv', 'on'), row('e', 'TP11', 'dcv', 'on')];
+  it('takes the repaired section’s points and the rails with a sourced band, and a functional check', () => {
+    const c = verificationChecklist(OUTDOOR_FAN_BOARD, table, 'C10');
+    expect(c.rows.map((r) => r.id)).toEqual(['a', 'b', 'd']);
+    expect(c.functionalCheck).toMatch(/CN3.*commanded speed/);
+    // Proposed by the printed designator of a subcircuit part, too.
+    expect(verificationChecklist(OUTDOOR_FAN_BOARD, table, 'U1').rows.map((r) => r.id)).toEqual(['a', 'b', 'd']);
+  });
+  it('counts a row proven only by its newest healthy reading', () => {
+    const read = (verdict: string) => ({ mode: 'dcv', red: 'TP5', black: '0', redNet: 'vfan', blackNet: '0', power: 'on', lifted: [], verdict: { verdict } });
+    const netOf = (p: string) => OUTDOOR_FAN_BOARD.testPoints.find((t) => t.id === p)?.net ?? p;
+    expect(unprovenRows([table[0]!], [read('low'), read('ok')], netOf)).toEqual([]);
+    expect(unprovenRows([table[0]!], [read('ok'), read('low')], netOf)).toHaveLength(1);
   });
 });

@@ -137,3 +137,27 @@ export function boardWords(model: WordsModel | null): BoardWords {
     probe,
   };
 }
+
+const arr = (x: unknown): Record<string, unknown>[] => (Array.isArray(x) ? x.filter((v): v is Record<string, unknown> => typeof v === 'object' && v !== null) : []);
+const text = (x: unknown) => (typeof x === 'string' ? x : '');
+
+/**
+ * The words' part of a board document read leniently: a document that does not pass the full board-model schema
+ * (an older or hand-written one) still names its test points, connectors and parts, never its nets.
+ */
+export function wordsModelOf(document: unknown): WordsModel | null {
+  if (typeof document !== 'object' || document === null) return null;
+  const d = document as Record<string, unknown>;
+  return {
+    parts: arr(d.parts).map((p) => ({
+      ...(p as object),
+      designator: text(p.designator) || text(p.ref) || text(p.name),
+      element: text(p.element) || undefined,
+      kind: text(p.kind) as BoardModel['parts'][number]['kind'],
+      pins: arr(p.pins).map((x) => ({ pin: text(x.pin), net: text(x.net) })),
+    })) as BoardModel['parts'],
+    testPoints: arr(d.testPoints).map((t) => ({ ...(t as object), id: text(t.id) || text(t.net), label: text(t.label), net: text(t.net) })) as BoardModel['testPoints'],
+    connectors: arr(d.connectors).map((c) => ({ ...(c as object), name: text(c.name), pins: arr(c.pins).map((x) => ({ pin: text(x.pin), net: text(x.net), function: text(x.function) })) })) as BoardModel['connectors'],
+    nets: arr(d.nets).map((n) => ({ ...(n as object), name: text(n.name), label: text(n.label) })) as BoardModel['nets'],
+  };
+}

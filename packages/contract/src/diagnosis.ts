@@ -83,6 +83,48 @@ export const diagnosisSnapshotSchema = z.object({
   createdBy: idSchema,
   createdAt: isoDateTime,
   output: diagnosisResponse,
+  /** What of the stored output could not be read back (numbers a past engine wrote out of range), and was left out. */
+  unreadable: z.array(z.string()).optional(),
 });
 export type DiagnosisSnapshot = z.infer<typeof diagnosisSnapshotSchema>;
+
+/**
+ * A stored diagnosis as it can be read back, whatever numbers it holds. A snapshot is history and is never
+ * rewritten; one written from a reading like 1e308 holds nulls where the engine had Infinity or NaN (JSON has
+ * neither). Each list keeps the entries that read; a number that does not read is 0 with its name listed, so
+ * the page shows the rest and says what is missing instead of failing.
+ */
+export function readableDiagnosis(stored: unknown): { output: Diagnosis; unreadable: string[] } {
+  const whole = diagnosisResponse.safeParse(stored);
+  if (whole.success) return { output: whole.data, unreadable: [] };
+  const o = (stored && typeof stored === 'object' ? stored : {}) as Record<string, unknown>;
+  const unreadable: string[] = [];
+  const list = <T>(key: string, schema: z.ZodType<T>): T[] => {
+    const items = Array.isArray(o[key]) ? (o[key] as unknown[]) : [];
+    const kept = items.flatMap((x) => {
+      const r = schema.safeParse(x);
+      return r.success ? [r.data] : [];
+    });
+    if (kept.length < items.length) unreadable.push(`${items.length - kept.length} of ${items.length} ${key}`);
+    return kept;
+  };
+  const one = <T>(key: string, schema: z.ZodType<T>, fallback: T): T => {
+    const r = schema.safeParse(o[key]);
+    if (!r.success) unreadable.push(key);
+    return r.success ? r.data : fallback;
+  };
+  const output: Diagnosis = {
+    jobId: one('jobId', idSchema, 'unknown'),
+    boardVersionId: one('boardVersionId', idSchema, 'unknown'),
+    engineVersion: one('engineVersion', z.string(), 'unknown'),
+    readings: list('readings', diagnosisReadingSchema),
+    candidates: list('candidates', diagnosisCandidateSchema),
+    parts: list('parts', diagnosisPartSchema),
+    restProbability: one('restProbability', z.number(), 0),
+    minimalDiagnoses: list('minimalDiagnoses', z.array(z.string())),
+    nextTests: list('nextTests', nextTestSchema),
+    entropy: one('entropy', z.number(), 0),
+  };
+  return { output, unreadable };
+}
 export const diagnosisSnapshotListResponse = z.object({ items: z.array(diagnosisSnapshotSchema) });

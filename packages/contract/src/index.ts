@@ -22,4 +22,5 @@ export * from './policy-bench';
 export * from './board-words';
 export * from './verification';
 export * from './policy';
+export * from './duties';
 export * from './report';

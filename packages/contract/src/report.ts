@@ -5,7 +5,14 @@ import { readingSchema, type ReadingPhase } from './readings';
 import { repairSchema } from './repairs';
 
 /** A reading as the report shows it: where the probes were, the meter function, what it read against the band. */
-export const reportReadingSchema = readingSchema.pick({ id: true, red: true, black: true, mode: true, power: true, value: true, unit: true, raw: true, verdict: true, takenAt: true });
+export const reportReadingSchema = readingSchema
+  .pick({ id: true, red: true, black: true, mode: true, power: true, lifted: true, beep: true, value: true, unit: true, raw: true, verdict: true, takenAt: true })
+  .extend({
+    /** Where the probes were, in the bench's words ("TP5 Fan control supply to bus negative"). */
+    probes: z.string(),
+    /** The board's state for the reading: "powered", "unplugged, C10 lifted". */
+    boardState: z.string(),
+  });
 export type ReportReading = z.infer<typeof reportReadingSchema>;
 
 /**
@@ -27,7 +34,7 @@ export const repairReportSchema = z.object({
   receivedAt: isoDateTime,
   /** The part found faulty, and who approved the diagnosis. */
   finding: z.object({ part: z.string().nullable(), reviewedBy: z.string().nullable(), reviewedAt: isoDateTime.nullable() }),
-  /** Current diagnosis readings outside their healthy band: what found the fault. */
+  /** Current diagnosis readings outside their healthy band, and those taken with a part lifted to isolate it: what found the fault. */
   foundBy: z.array(reportReadingSchema),
   repairs: z.array(repairSchema.pick({ id: true, part: true, action: true, replacementValue: true, marking: true, notes: true, authorName: true, createdAt: true })),
   /** See `verificationReadings`. */

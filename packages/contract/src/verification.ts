@@ -2,6 +2,7 @@
 // the repaired part's section, and the main rails that feed it) and one functional check. The sign-off on the
 // server and the verification screen both use this list, so a lead signs off exactly what the bench was shown.
 import type { BoardModel } from './board-model';
+import { boardWords } from './board-words';
 import type { ExpectedReadingRow } from './boards';
 
 type ChecklistModel = Pick<BoardModel, 'parts' | 'testPoints' | 'motor' | 'connectors'>;
@@ -22,7 +23,9 @@ const lower = (s: string) => s.trim().toLowerCase();
  * rails (test points with a sourced band), up to eight rows. A part the model does not place gives the rails only.
  */
 export function verificationChecklist(model: ChecklistModel | null, table: readonly ExpectedReadingRow[], part: string | null): VerificationChecklist {
-  const p = part ? model?.parts.find((x) => lower(x.designator) === lower(part) || (x.element !== undefined && lower(x.element) === lower(part))) : undefined;
+  // Proposed by designator as printed ("U1") or by netlist element ("XU1"): either finds the part.
+  const named = (x: ChecklistModel['parts'][number]) => [x.designator, x.element ?? '', boardWords({ parts: [x], testPoints: [], connectors: [], nets: [] }).designator(x.designator)].map(lower);
+  const p = part ? model?.parts.find((x) => named(x).includes(lower(part))) : undefined;
   const points = model?.testPoints ?? [];
   const inSection = new Set(points.filter((t) => p && t.section === p.section).map((t) => lower(t.id)));
   const rails = new Set(points.filter((t) => t.band !== undefined).map((t) => lower(t.id)));

@@ -17,14 +17,15 @@ export function AppLayout() {
   if (!me.data) return <Navigate to="/sign-in" replace state={{ from: location.pathname }} />;
 
   const link = ({ isActive }: { isActive: boolean }) =>
-    `flex min-h-11 items-center rounded-md px-3 ${isActive ? 'bg-white/15 font-semibold' : 'hover:bg-white/10'}`;
+    `flex min-h-11 items-center whitespace-nowrap rounded-md px-2 xl:px-3 ${isActive ? 'bg-white/15 font-semibold' : 'hover:bg-white/10'}`;
   return (
     <div className="flex min-h-full flex-col">
-      <header className="no-print flex flex-wrap items-center gap-2 bg-board px-4 py-1 text-white">
-        <NavLink to="/" className="mr-4 flex items-center gap-2 font-semibold">
+      <header className="no-print flex flex-wrap items-center gap-x-2 bg-board px-3 py-1 text-white lg:flex-nowrap">
+        <NavLink to="/" className="mr-2 flex items-center gap-2 font-semibold">
           <img src="/favicon.svg" alt="" className="h-7 w-7" /> Splitscope
         </NavLink>
-        <nav aria-label="Main" className="flex flex-1 flex-wrap gap-1">
+        {/* One row from 1024 px (the admin has the most links); on a phone the links wrap under the name. */}
+        <nav aria-label="Main" className="order-last flex w-full flex-wrap gap-1 lg:order-none lg:w-auto lg:flex-1 lg:flex-nowrap">
           <NavLink to="/" end className={link}>
             Home
           </NavLink>
@@ -49,14 +50,15 @@ export function AppLayout() {
           {hasRole(me.data.role, ROLES.admins) && <NavLink to="/billing/settings" className={link}>Billing</NavLink>}
           {hasRole(me.data.role, ROLES.admins) && <NavLink to="/dev/mail" className={link}>Mail outbox</NavLink>}
         </nav>
-        <NavLink to="/account" className="min-h-11 content-center rounded-md px-2 text-sm hover:bg-white/10" title={`${me.data.shopName}: your account`}>
-          {me.data.name} · {roleLabel[me.data.role]}
+        <NavLink to="/account" className="ml-auto flex min-h-11 items-center whitespace-nowrap rounded-md px-2 text-sm hover:bg-white/10" title={`${me.data.name} · ${me.data.shopName}: your account`}>
+          <span className="hidden xl:inline">{me.data.name} · </span>
+          {roleLabel[me.data.role]}
           {/* The shop's name only where there is room: on a tablet the main links come first. */}
           <span className="hidden 2xl:inline"> · {me.data.shopName}</span>
         </NavLink>
         <button
           type="button"
-          className="min-h-11 rounded-md px-3 hover:bg-white/10"
+          className="min-h-11 whitespace-nowrap rounded-md px-2 hover:bg-white/10"
           onClick={() => signOut.mutate(undefined, { onSuccess: () => void navigate('/sign-in') })}
         >
           Sign out

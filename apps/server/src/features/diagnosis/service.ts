@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
-import type { Diagnosis, DiagnosisSnapshot } from '@splitscope/contract';
+import { BOUNDS, readableDiagnosis, type Diagnosis, type DiagnosisSnapshot } from '@splitscope/contract';
 import type { Db } from '../../db/client';
 import { boardModelVersions, diagnosisSnapshots, jobs, readingStrikes, readings } from '../../db/schema';
 import { AppError } from '../../http/errors';
@@ -31,8 +31,13 @@ const jobId = sql.placeholder('jobId');
 // (`readings` in the subquery is its own table, not the outer one).
 const correctedIds = (db: Db) => db.select({ id: readings.supersedes }).from(readings).where(and(eq(readings.jobId, jobId), sql`${readings.supersedes} is not null`));
 const struckIds = (db: Db) => db.select({ id: readingStrikes.readingId }).from(readingStrikes).where(eq(readingStrikes.jobId, jobId));
+// A value outside the contract's physical bounds (stored before they were enforced, such as 1e308) is not one
+// the engine is asked to reason about: it stays in the history for a correction, and out of the diagnosis.
+const inBounds = sql`(${readings.value} is null or case when ${readings.mode} in ('dcv', 'diode')
+  then ${readings.value} between ${sql.raw(String(BOUNDS.volts.min))} and ${sql.raw(String(BOUNDS.volts.max))}
+  else ${readings.value} between ${sql.raw(String(BOUNDS.ohms.min))} and ${sql.raw(String(BOUNDS.ohms.max))} end)`;
 const isCurrent = (db: Db) =>
-  and(eq(readings.jobId, jobId), eq(readings.phase, 'diagnosis'), sql`${readings.id} not in (${correctedIds(db)})`, sql`${readings.id} not in (${struckIds(db)})`);
+  and(eq(readings.jobId, jobId), eq(readings.phase, 'diagnosis'), sql`${readings.id} not in (${correctedIds(db)})`, sql`${readings.id} not in (${struckIds(db)})`, inBounds);
 // The id breaks ties of equal timestamps, so the same readings always reach the engine in the same order.
 const byTime = [asc(readings.takenAt), asc(readings.createdAt), asc(readings.id)];
 
@@ -130,15 +135,19 @@ export function shapeDiagnosis(out: DiagnosisOutput, job: JobRef, rows: ReadingR
   };
 }
 
-export const toSnapshot = (s: typeof diagnosisSnapshots.$inferSelect): DiagnosisSnapshot => ({
-  id: s.id,
-  jobId: s.jobId,
-  engineVersion: s.engineVersion,
-  proposedPart: s.proposedPart,
-  createdBy: s.createdBy,
-  createdAt: iso(s.createdAt),
-  output: s.output as Diagnosis,
-});
+export function toSnapshot(s: typeof diagnosisSnapshots.$inferSelect): DiagnosisSnapshot {
+  const { output, unreadable } = readableDiagnosis(s.output);
+  return {
+    id: s.id,
+    jobId: s.jobId,
+    engineVersion: s.engineVersion,
+    proposedPart: s.proposedPart,
+    createdBy: s.createdBy,
+    createdAt: iso(s.createdAt),
+    output,
+    ...(unreadable.length ? { unreadable } : {}),
+  };
+}
 
 export async function findSnapshots({ db, jobId }: { db: Db; jobId: string }) {
   const rows = await db.select().from(diagnosisSnapshots).where(eq(diagnosisSnapshots.jobId, jobId)).orderBy(desc(diagnosisSnapshots.createdAt));

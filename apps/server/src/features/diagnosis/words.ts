@@ -1,15 +1,14 @@
 // The diagnosis in the bench's words: parts by their printed designators, faults and probe positions in words
 // (the contract's boardWords over the pinned board model). The engine's own ids stay in the answer for the
 // program; the screens show only these.
-import { boardModelSchema, boardWords, METER_WORDS, type BoardWords, type Diagnosis } from '@splitscope/contract';
+import { boardWords, METER_WORDS, wordsModelOf, type BoardWords, type Diagnosis } from '@splitscope/contract';
 
 // A version never changes, so its words are built once.
 const cache = new Map<string, BoardWords>();
 export async function wordsOf(versionId: string, loadDocument: () => Promise<unknown>): Promise<BoardWords> {
   const hit = cache.get(versionId);
   if (hit) return hit;
-  const parsed = boardModelSchema.safeParse(await loadDocument());
-  const words = boardWords(parsed.success ? parsed.data : null);
+  const words = boardWords(wordsModelOf(await loadDocument()));
   cache.set(versionId, words);
   if (cache.size > 100) cache.delete(cache.keys().next().value as string);
   return words;

@@ -4,6 +4,7 @@ import {
   allowedMoves,
   boardModelSchema,
   boardWords,
+  wordsModelOf,
   guidedLiftRoles,
   guidedOrderBinds,
   METER_WORDS,
@@ -202,7 +203,7 @@ async function verificationProblems(db: Db, actor: Actor, job: JobRow): Promise<
   const netOf = (p: string) => m?.testPoints.find((t) => t.id.toLowerCase() === p.toLowerCase())?.net ?? p;
   const open = unprovenRows(checklist, rows, netOf);
   if (open.length === 0) return null;
-  const words = boardWords(m);
+  const words = boardWords(wordsModelOf(board.document));
   const state = (v: string | undefined) => (v === 'ok' ? 'healthy' : (v ?? 'no expected value'));
   const describe = ({ row, latest }: (typeof open)[number]) =>
     `${words.probe(row.red)} ${METER_WORDS[row.mode]} ${row.power === 'on' ? 'powered' : 'unplugged'} (${latest ? `read ${latest.raw}, ${state(latest.verdict?.verdict)}` : 'not measured'})`;

@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
-import { acceptsReadings, guidedOrderBinds, readingRefusal, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading } from '@splitscope/contract';
+import { acceptsReadings, correctionRefusal, guidedOrderBinds, readingRefusal, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
 import { boardModelVersions, jobs, readingStrikes, readings, users } from '../../db/schema';
@@ -9,6 +9,7 @@ import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
 import { boardEngine, cachedBoardEngine, powerRefusal, resolveNet, resolveParts, unitOf, verdictFor } from '../boards';
+import { getDutyRules } from '../duties';
 import { getJobRow } from '../jobs';
 import { checkGuidedStep, checkSafetyGate } from './guided';
 import { insertReading, type NewReading, type ReadingRow } from './write-batch';
@@ -128,7 +129,7 @@ function prepare(db: Db) {
       .where(eq(boardModelVersions.id, p('versionId')))
       .prepare('reading_board_version'),
     corrects: db
-      .select({ mode: readings.mode, redNet: readings.redNet, blackNet: readings.blackNet, power: readings.power, lifted: readings.lifted })
+      .select({ mode: readings.mode, redNet: readings.redNet, blackNet: readings.blackNet, power: readings.power, lifted: readings.lifted, authorId: readings.authorId })
       .from(readings)
       .where(and(eq(readings.id, p('id')), eq(readings.jobId, p('jobId'))))
       .prepare('reading_corrects'),
@@ -231,10 +232,15 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
   const lifted = resolveParts(engine, input.lifted);
   if ('unknown' in lifted) throw invalid('lifted', `Unknown part "${lifted.unknown}" on this board model`);
 
-  let corrects: { mode: string; redNet: string; blackNet: string; power: string; lifted: string[] } | undefined;
+  let corrects: { mode: string; redNet: string; blackNet: string; power: string; lifted: string[]; authorId: string } | undefined;
   if (input.supersedes) {
     [corrects] = await q.corrects.execute({ id: input.supersedes, jobId });
     if (!corrects) throw invalid('supersedes', `No reading ${input.supersedes} on this job to correct`);
+    // Separation of duties: someone else's reading is corrected only by the role the shop names (a lead by default).
+    if (corrects.authorId !== actor.id) {
+      const refused = correctionRefusal(await getDutyRules(db, actor.shopId), actor, corrects.authorId);
+      if (refused) throw new AppError('forbidden', refused);
+    }
   }
   if (job && guidedOrderBinds(actor.role, job.guidedLiftedBy)) await checkGuidedStep({ db, job, input, probe: { redNet, blackNet, lifted: lifted.parts }, corrects });
   // Every role, every phase: an unpowered reading on the bus waits for the discharge gate.

@@ -1,7 +1,7 @@
 // The repair report as a PDF for the customer (pdfkit), drawn from the one report model (service.ts). The lines
 // are composed first and drawn second, so what the PDF says can be checked without parsing a PDF.
 import PDFDocument from 'pdfkit';
-import { jobStatusLabels, type RepairReport, type ReportReading } from '@splitscope/contract';
+import { jobStatusLabels, METER_WORDS, type RepairReport, type ReportReading } from '@splitscope/contract';
 
 type Line = { style: 'title' | 'subtitle' | 'heading' | 'field' | 'text' | 'caution'; text: string; label?: string; gapAfter?: number };
 
@@ -9,7 +9,7 @@ const VERDICT_WORDS = { ok: 'healthy', low: 'low', high: 'high' } as const;
 
 const readingLine = (r: ReportReading): Line => ({
   style: 'text',
-  text: `• ${r.red} to ${r.black} (${r.mode}, ${r.power}): ${r.value === 'OL' ? 'OL' : r.raw}${r.verdict ? ` (${VERDICT_WORDS[r.verdict.verdict]})` : ''}`,
+  text: `• ${r.probes} (${METER_WORDS[r.mode]}, ${r.boardState}): ${r.mode === 'continuity' ? ((r.beep ?? r.value !== 'OL') ? 'beep' : 'no beep') : r.value === 'OL' ? 'OL' : r.raw}${r.verdict ? ` (${VERDICT_WORDS[r.verdict.verdict]})` : ''}`,
 });
 
 /** What the PDF says, line by line. */

@@ -1,7 +1,7 @@
 // The repair report's one model. The web's report page, the customer's PDF and the invoice e-mail that carries
 // the PDF all render what this returns; none of them reads the job's rows on its own.
 import { and, desc, eq } from 'drizzle-orm';
-import { reportReady, verificationReadings, type RepairReport, type StoredReading } from '@splitscope/contract';
+import { boardWords, wordsModelOf, reportReady, verificationReadings, type BoardWords, type RepairReport, type ReportReading, type StoredReading } from '@splitscope/contract';
 import type { Db } from '../../db/client';
 import { boardModels, boardModelVersions, customers, jobs, reviews, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
@@ -9,11 +9,18 @@ import { iso, isoOrNull } from '../../lib/dates';
 import { findReadings } from '../readings';
 import { findRepairs } from '../repairs';
 
-const asReportReading = ({ id, red, black, mode, power, value, unit, raw, verdict, takenAt }: StoredReading) => ({ id, red, black, mode, power, value, unit, raw, verdict, takenAt });
+// Probe positions and parts in the bench's words (contract: boardWords), never the netlist's names.
+const asReportReading =
+  (w: BoardWords) =>
+  ({ id, red, black, mode, power, lifted, beep, value, unit, raw, verdict, takenAt }: StoredReading): ReportReading => ({
+    id, red, black, mode, power, lifted, beep, value, unit, raw, verdict, takenAt,
+    probes: `${w.probe(red)} to ${w.probe(black)}`,
+    boardState: `${power === 'on' ? 'powered' : 'unplugged'}${lifted.length ? `, ${lifted.map(w.designator).join(', ')} lifted` : ''}`,
+  });
 
 export async function getRepairReport({ db, shopId, jobId }: { db: Db; shopId: string; jobId: string }): Promise<RepairReport> {
   const [row] = await db
-    .select({ job: jobs, customer: customers, shopName: shops.name, board: boardModels.name, boardVersion: boardModelVersions.version })
+    .select({ job: jobs, customer: customers, shopName: shops.name, board: boardModels.name, boardVersion: boardModelVersions.version, document: boardModelVersions.document })
     .from(jobs)
     .innerJoin(customers, eq(customers.id, jobs.customerId))
     .innerJoin(shops, eq(shops.id, jobs.shopId))
@@ -32,6 +39,8 @@ export async function getRepairReport({ db, shopId, jobId }: { db: Db; shopId: s
   const { items: repairs } = await findRepairs({ db, shopId, jobId });
   const { items: current } = await findReadings({ db, shopId, jobId, view: 'current' });
   const lastRepairAt = repairs.at(-1)?.createdAt ?? null;
+  const words = boardWords(wordsModelOf(row.document));
+  const counting = current.filter((r) => r.struck === null);
   return {
     jobId,
     jobNumber: job.number,
@@ -45,10 +54,10 @@ export async function getRepairReport({ db, shopId, jobId }: { db: Db; shopId: s
     symptom: job.symptom,
     status: job.status,
     receivedAt: iso(job.receivedAt),
-    finding: { part: approval?.part ?? job.proposedPart, reviewedBy: approval?.name ?? null, reviewedAt: isoOrNull(approval?.at) },
-    foundBy: current.filter((r) => r.phase === 'diagnosis' && r.verdict && r.verdict.verdict !== 'ok').map(asReportReading),
+    finding: { part: (approval?.part ?? job.proposedPart) === null ? null : words.designator((approval?.part ?? job.proposedPart)!), reviewedBy: approval?.name ?? null, reviewedAt: isoOrNull(approval?.at) },
+    foundBy: counting.filter((r) => r.phase === 'diagnosis' && ((r.verdict && r.verdict.verdict !== 'ok') || r.lifted.length > 0)).map(asReportReading(words)),
     repairs: repairs.map(({ id, part, action, replacementValue, marking, notes, authorName, createdAt }) => ({ id, part, action, replacementValue, marking, notes, authorName, createdAt })),
-    verification: verificationReadings(current, lastRepairAt).map(asReportReading),
+    verification: verificationReadings(counting, lastRepairAt).map(asReportReading(words)),
     verified: reportReady(job.status),
   };
 }

@@ -1,10 +1,11 @@
 import { asc, desc, eq } from 'drizzle-orm';
-import type { Review } from '@splitscope/contract';
+import { approvalRefusal, type Review } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
 import { diagnosisSnapshots, reviews, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
+import { getDutyRules } from '../duties';
 import { checkMove, getJobRow, moveJob, type MoveRequest } from '../jobs';
 import { toReview } from './view';
 
@@ -22,7 +23,17 @@ export async function createReview({ db, actor, jobId, input }: { db: Db; actor:
     audit: { action: input.decision === 'approve' ? 'approval' : 'sent-back', detail: `job ${job.number}: ${part ?? 'no part'}` },
   };
   checkMove(move);
-  const [snap] = await db.select({ id: diagnosisSnapshots.id }).from(diagnosisSnapshots).where(eq(diagnosisSnapshots.jobId, jobId)).orderBy(desc(diagnosisSnapshots.createdAt)).limit(1);
+  // The latest snapshot is the proposal under review; who stored it proposed it.
+  const [snap] = await db
+    .select({ id: diagnosisSnapshots.id, proposer: diagnosisSnapshots.createdBy })
+    .from(diagnosisSnapshots)
+    .where(eq(diagnosisSnapshots.jobId, jobId))
+    .orderBy(desc(diagnosisSnapshots.createdAt))
+    .limit(1);
+  if (input.decision === 'approve') {
+    const refused = approvalRefusal(await getDutyRules(db, actor.shopId), actor.id, snap?.proposer ?? null);
+    if (refused) throw new AppError('forbidden', refused);
+  }
   const id = newId();
   await db.transaction(async (tx) => {
     if (!(await moveJob(tx, move))) throw new AppError('conflict', 'Someone reviewed this job a moment ago; reload it');

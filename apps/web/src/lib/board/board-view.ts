@@ -2,7 +2,7 @@
  * What the bench draws, read out of a board-model document (schema in the contract): positions, nets, labels and
  * sections. Connector pins have no positions of their own in the model, so they are laid out in a row here.
  */
-import { boardModelSchema, type BoardModel } from '@splitscope/contract';
+import { boardModelSchema, boardWords, wordsModelOf, type BoardModel } from '@splitscope/contract';
 import type { MapConnector, MapPart } from '@/components/board-map/board-map';
 
 export interface BoardPoint {
@@ -56,13 +56,14 @@ export function boardView(document: unknown): BoardView {
     section: t.section,
     touchesBus: t.touchesBus,
   }));
+  const words = boardWords(m);
   const parts = (m?.parts ?? []).map((p) => ({
     id: p.designator,
     x: p.x - unit,
     y: p.y - unit * 0.6,
     width: unit * 2,
     height: unit * 1.2,
-    label: `${p.designator} ${p.value}`,
+    label: `${words.designator(p.designator)} ${p.value}`,
     section: p.section,
   }));
   const connectors: MapConnector[] = (m?.connectors ?? []).map((c) => ({
@@ -77,17 +78,9 @@ export function boardView(document: unknown): BoardView {
   const byId = new Map(points.map((p) => [norm(p.id), p]));
   const byNet = new Map<string, BoardPoint>();
   for (const p of points) if (!byNet.has(norm(p.net))) byNet.set(norm(p.net), p);
-  const nets = new Map((m?.nets ?? []).map((n) => [norm(n.name), n.label]));
   const pointOf = (s: string) => byId.get(norm(s)) ?? byNet.get(norm(s));
-  const netLabel = (s: string) => {
-    const p = byId.get(norm(s));
-    if (p) return p.label;
-    const label = nets.get(norm(s));
-    if (label) return `${label} (${s})`;
-    if (norm(s) === '0') return 'bus negative (0)';
-    const q = byNet.get(norm(s));
-    return q ? q.label : `net ${s}`;
-  };
+  // Probe positions in the bench's words: the contract's one function (test point, connector pin, part pin).
+  const netLabel = boardWords(m ?? wordsModelOf(document)).probe;
 
   return {
     model: m,

@@ -1,4 +1,4 @@
-import { acceptsReadings, type ExpectedReadingRow, type JobDetail, type StoredReading } from '@splitscope/contract';
+import { acceptsReadings, canPropose, jobStatusLabels, type ExpectedReadingRow, type JobDetail, type StoredReading } from '@splitscope/contract';
 import { useEffect, useMemo, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
@@ -10,7 +10,8 @@ import { useDiagnosis } from '@/lib/api/get-diagnosis';
 import { useJob } from '@/lib/api/get-job';
 import { useReadings } from '@/lib/api/get-readings';
 import { useUpdateJob } from '@/lib/api/update-job';
-import { METER_LABEL, meterText } from '@/lib/format';
+import { ReadingsTable } from '@/components/readings/readings-table';
+import { bandText, METER_LABEL, readingText } from '@/lib/format';
 import { useReadingSender } from '@/lib/use-reading-sender';
 import {
   currentReadings,
@@ -30,6 +31,8 @@ import { gateRefusalFor, touchesBus } from '@/lib/board/gate';
 import { parseTyped, preloadReadingParser } from '@/lib/parse-reading';
 import { GuidedOrder } from './guided-order';
 import { GuidedSwitch } from './guided-switch';
+import { LiftedParts } from './lifted-parts';
+import { ReadingActions } from './reading-actions';
 import { PointList } from './point-list';
 import { RankingPanel } from './ranking-panel';
 import { ReadingPanel, type LatestReading } from './reading-panel';
@@ -58,12 +61,21 @@ function chainLinks(view: BoardView, rows: ExpectedReadingRow[], readings: Store
     });
 }
 
+type Tab = 'map' | 'chain' | 'points' | 'readings';
+const TABS: { id: Tab; label: string }[] = [
+  { id: 'map', label: 'Board map' },
+  { id: 'chain', label: 'Signal chain' },
+  { id: 'points', label: 'Test points' },
+  { id: 'readings', label: 'Readings' },
+];
+const linkClass = 'inline-flex min-h-11 items-center rounded-md border border-stone-400 bg-white px-3 text-sm font-semibold';
+
 function Bench({ job }: { job: JobDetail }) {
   const me = useMe();
   const [params, setParams] = useSearchParams();
   // Guided order binds a trainee (the server refuses anything else) until a lead lifts it for the job.
   const guided = job.guidedOrderRequired || params.get('mode') === 'guided' || (params.get('mode') === null && me.data?.role === 'trainee');
-  const tab = params.get('tab') === 'chain' ? 'chain' : 'map';
+  const tab = (TABS.find((t) => t.id === params.get('tab'))?.id ?? 'map') as Tab;
   const view = useMemo(() => boardView(job.board.document), [job.board.document]);
   const rows = job.board.expectedReadings;
   const readingsQ = useReadings(job.id);
@@ -72,12 +84,15 @@ function Bench({ job }: { job: JobDetail }) {
   const update = useUpdateJob(job.id);
   const [target, setTarget] = useState<(Target & { pointId?: string }) | null>(null);
   const [selectedPart, setSelectedPart] = useState<string | null>(null);
+  const [note, setNote] = useState('');
+  const [lifted, setLifted] = useState<string[]>([]);
   const [entryError, setEntryError] = useState<string | null>(null);
   // The bus voltage typed at the safety gate; null until the gate is passed for this unplugged spell.
   const [gateVolts, setGateVolts] = useState<number | null>(null);
   const [gateRefusal, setGateRefusal] = useState<string | null>(null);
 
-  const readings = useMemo(() => currentReadings(readingsQ.data?.items ?? []), [readingsQ.data]);
+  const all = readingsQ.data?.items ?? [];
+  const readings = useMemo(() => currentReadings(readingsQ.data?.items ?? []).filter((r) => !r.struck), [readingsQ.data]);
   const steps = useMemo(() => (diagnosisQ.data ? nextTests(view, diagnosisQ.data) : []), [view, diagnosisQ.data]);
   const ranked = useMemo(() => (diagnosisQ.data ? rankedParts(view, diagnosisQ.data) : []), [view, diagnosisQ.data]);
   const step = steps[0];
@@ -85,38 +100,53 @@ function Bench({ job }: { job: JobDetail }) {
   const canWrite = acceptsReadings(job.status, 'diagnosis');
   const needsGate = !!active && active.power === 'off' && touchesBus(view, active) && gateVolts === null;
 
-  const points = view.points.map((p) => ({ ...p, ...pointState(view, readings, p.net) }));
+  const points = view.points.map((p) => ({ ...p, ...pointState(view, readings, p.net, guided ? [] : lifted) }));
+  const liftable = (view.model?.parts ?? []).filter((p) => p.element).map((p) => ({ id: p.element!, label: view.parts.find((x) => x.id === p.designator)?.label ?? p.designator, pins: p.pins.length, nets: p.pins.map((x) => x.net) }));
   const selectPoint = (id: string) => {
     if (guided) return;
     const choices = rowsForPoint(view, rows, id);
     const p = view.pointOf(id)!;
     const row = choices.find((r) => r.power === 'on') ?? choices[0];
-    setTarget(row ? { mode: row.mode, red: row.red, black: row.black, power: row.power, lifted: row.lifted, pointId: id } : { mode: 'dcv', red: p.id, black: '0', power: 'on', lifted: [], pointId: id });
+    // With parts lifted the board is not as built: the test keeps the point's probes and takes the lifted set.
+    const base = row ? { mode: row.mode, red: row.red, black: row.black, power: row.power } : { mode: 'dcv' as const, red: p.id, black: '0', power: 'on' as const };
+    setTarget(lifted.length ? { ...base, mode: base.mode === 'dcv' ? 'ohm' : base.mode, power: 'off', lifted, pointId: id } : { ...base, lifted: row?.lifted ?? [], pointId: id });
     setEntryError(null);
   };
+  const measurePads = (part: string) => {
+    const p = liftable.find((x) => x.id === part);
+    if (!p || p.nets.length !== 2) return;
+    setTarget({ mode: 'ohm', red: p.nets[0]!, black: p.nets[1]!, power: 'off', lifted });
+  };
+  const changeLifted = (next: string[]) => {
+    setLifted(next);
+    if (target) setTarget({ ...target, lifted: next, ...(next.length ? { power: 'off' as const, mode: target.mode === 'dcv' ? ('ohm' as const) : target.mode } : {}) });
+  };
 
-  const save = async (text: string) => {
-    if (!active) return false;
-    const parsed = await parseTyped(text, active.mode);
-    if (!parsed.ok) {
-      setEntryError(parsed.error);
-      return false;
-    }
-    setEntryError(null);
-    const { pointId: _p, ...probe } = active;
-    if (active.power === 'on') setGateVolts(null); // the board was powered again: the next unpowered step gates again
-    const safetyCheck = active.power === 'off' && gateVolts !== null ? { safetyCheck: { unplugged: true as const, busVolts: gateVolts } } : {};
-    // The contract's gate rule, the one the server applies: refused here, the gate opens again with the reason
-    // and the typed value stays in the field.
+  /** Sends a reading (or a correction) through the gate rule the server applies. */
+  const send = async (probe: Target, text: string, extra: { supersedes?: string; gate?: number | null } = {}): Promise<string | null> => {
+    const parsed = await parseTyped(text, probe.mode);
+    if (!parsed.ok) return parsed.error;
+    const volts = extra.gate ?? gateVolts;
+    if (probe.power === 'on') setGateVolts(null); // the board was powered again: the next unpowered step gates again
+    const safetyCheck = probe.power === 'off' && volts !== null ? { safetyCheck: { unplugged: true as const, busVolts: volts } } : {};
     const refusal = gateRefusalFor(view, { ...probe, ...safetyCheck });
     if (refusal) {
       setGateVolts(null);
       setGateRefusal(refusal);
-      return false;
+      return 'Pass the discharge gate first: this reading is unpowered on the DC bus.';
     }
-    await sender.save({ ...probe, value: parsed.value, ...(parsed.beep !== undefined ? { beep: parsed.beep } : {}), raw: text.trim(), phase: 'diagnosis', ...safetyCheck });
-    return true;
+    const { mode, red, black, power } = probe;
+    await sender.save({ mode, red, black, power, lifted: probe.lifted, value: parsed.value, ...(parsed.beep !== undefined ? { beep: parsed.beep } : {}), raw: text.trim(), phase: 'diagnosis', ...safetyCheck, ...(extra.supersedes ? { supersedes: extra.supersedes } : {}) });
+    return null;
   };
+  const save = async (text: string) => {
+    if (!active) return false;
+    const err = await send(active, text);
+    setEntryError(err);
+    return err === null;
+  };
+  // A correction re-enters the value of a measurement already taken, under the gate that reading passed.
+  const correct = (r: StoredReading, text: string) => send({ mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted }, text, { supersedes: r.id, gate: r.safetyBusVolts });
 
   const latest: LatestReading | null = (() => {
     if (!active) return null;
@@ -124,78 +154,68 @@ function Bench({ job }: { job: JobDetail }) {
     if (unsent) return { text: unsent.body.raw, state: 'unsent' };
     const r = latestFor(view, readings, active);
     if (!r) return null;
-    return {
-      text: meterText(r.value, r.unit),
-      state: stateOf(r.verdict?.verdict),
-      detail: r.verdict ? `expected ${meterText(r.verdict.low, r.verdict.unit)} – ${meterText(r.verdict.high, r.verdict.unit)}` : 'no expected value for this test',
-    };
+    return { text: readingText(r), state: stateOf(r.verdict?.verdict), detail: r.verdict ? `expected ${bandText(r.verdict, r.mode)}` : 'no expected value for this test' };
   })();
 
   const expectedRow = active ? expectedFor(view, rows, active) : undefined;
   const panelTarget = active && {
-    pointId: `${active.red}|${active.black}|${active.mode}|${active.power}`,
+    pointId: `${active.red}|${active.black}|${active.mode}|${active.power}|${active.lifted.join()}`,
     pointLabel: view.netLabel(active.red),
     meter: active.mode,
     power: active.power,
+    lifted: active.lifted.map((p) => liftable.find((x) => x.id === p)?.label.split(' ')[0] ?? p),
     red: { label: view.netLabel(active.red) },
     black: { label: view.netLabel(active.black) },
-    expected: expectedRow
-      ? {
-          text: meterText(expectedRow.expected, expectedRow.unit),
-          band: `${meterText(expectedRow.low, expectedRow.unit)} – ${meterText(expectedRow.high, expectedRow.unit)}`,
-          note: expectedRow.note,
-          source: expectedRow.source,
-        }
-      : null,
+    expected: expectedRow ? { text: bandText({ ...expectedRow, low: null, high: null }, expectedRow.mode), band: bandText(expectedRow, expectedRow.mode), note: expectedRow.note, source: expectedRow.source } : null,
   };
-  const choices = !guided && target?.pointId ? rowsForPoint(view, rows, target.pointId) : [];
-  const top = ranked[0];
-  const propose = async (part: string) => {
+  const choices = !guided && target?.pointId && lifted.length === 0 ? rowsForPoint(view, rows, target.pointId) : [];
+  const proposed = ranked.find((p) => p.part === selectedPart) ?? ranked[0];
+  const propose = async () => {
+    if (!proposed) return;
     if (job.status === 'received') await update.mutateAsync({ status: 'diagnosing' });
-    await update.mutateAsync({ status: 'awaiting-review', proposedPart: part });
+    // The lead, the repair and the report name the part as printed on the board.
+    await update.mutateAsync({ status: 'awaiting-review', proposedPart: proposed.designator, proposalNote: note });
   };
-
   const checkBus = async (t: string): Promise<{ ok: true; volts: number } | { ok: false; message: string }> => {
     const r = await parseTyped(t, 'dcv');
     if (!r.ok) return { ok: false, message: r.error };
-    if (r.value === 'OL') return { ok: false, message: 'OL is not a bus voltage: set the meter to DC volts and measure again.' };
+    if (r.value === 'OL') return { ok: false, message: 'OL is not a bus voltage: set the meter to DC V and measure again.' };
     return { ok: true, volts: r.value };
   };
   const passGate = (v: number) => {
     setGateRefusal(null);
     setGateVolts(v);
   };
-  const safetyGate = <SafetyGate figures={gateFigures(view, rows)} check={checkBus} onPass={passGate} refusal={gateRefusal} />;
-
+  const gateShown = (needsGate || gateRefusal !== null) && gateVolts === null;
+  const safetyGate = <SafetyGate key={gateRefusal ?? 'gate'} figures={gateFigures(view, rows)} check={checkBus} onPass={passGate} refusal={gateRefusal} />;
   const probeNets = active ? { red: view.pointOf(active.red)?.net ?? active.red, black: view.pointOf(active.black)?.net ?? active.black } : undefined;
+  const faultCode = job.faultCode ? job.board.faultCodes.find((f) => f.code.toLowerCase() === job.faultCode!.toLowerCase()) : undefined;
+  const before = readings.length === 0 ? { code: job.faultCode, meaning: faultCode?.title ?? null, sections: (faultCode?.sections ?? []).map((id) => view.sections.find((x) => x.id === id)?.name ?? id) } : null;
+  const entry = panelTarget && canWrite && !gateShown && <ReadingPanel target={panelTarget} latest={latest} onSave={save} error={entryError} />;
 
   return (
-    <div className="space-y-3">
-      <div className="flex flex-wrap items-center justify-between gap-2">
-        <div>
-          <h1 className="text-2xl font-semibold">
-            Job #{job.number} · {job.boardName}
-          </h1>
-          <p className="text-sm text-stone-700">
-            {job.customerName} · {job.unitDescription} · {job.faultCode ? `code ${job.faultCode} · ` : ''}
-            {job.symptom} · <StatusBadge status={job.status} sentBack={job.sentBack} />
-          </p>
-        </div>
-        <div className="flex flex-wrap gap-2">
+    <div className="flex flex-col gap-2 lg:h-[calc(100dvh-5.25rem)]">
+      <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
+        <h1 className="text-xl font-semibold">
+          Job #{job.number} · {job.boardName}
+        </h1>
+        <StatusBadge status={job.status} sentBack={job.sentBack} />
+        <p className="min-w-0 flex-1 truncate text-sm text-stone-700" title={`${job.customerName} · ${job.unitDescription} · ${job.symptom}`}>
+          {job.faultCode ? `code ${job.faultCode} · ` : ''}
+          {job.symptom} · {job.customerName}
+        </p>
+        <div className="flex flex-wrap gap-1">
           <GuidedSwitch job={job} guided={guided} onToggle={() => setParams((p) => (p.set('mode', guided ? 'free' : 'guided'), p))} />
-          <Button variant="secondary" onClick={() => setParams((p) => (p.set('tab', tab === 'map' ? 'chain' : 'map'), p))}>
-            {tab === 'map' ? 'Signal chain' : 'Board map'}
-          </Button>
           {['approved', 'repaired', 'verified', 'returned'].includes(job.status) && (
-            <Link className="inline-flex min-h-11 items-center rounded-md border border-stone-400 bg-white px-4 font-semibold" to={`/jobs/${job.id}/repair`}>
+            <Link className={linkClass} to={`/jobs/${job.id}/repair`}>
               Repair and verification
             </Link>
           )}
-          <Link className="inline-flex min-h-11 items-center rounded-md border border-stone-400 bg-white px-4 font-semibold" to={`/jobs/${job.id}/report`}>
+          <Link className={linkClass} to={`/jobs/${job.id}/report`}>
             Report
           </Link>
-          <Link className="inline-flex min-h-11 items-center rounded-md border border-stone-400 bg-white px-4 font-semibold" to={`/jobs/${job.id}/billing`}>
-            Quote and invoice
+          <Link className={linkClass} to={`/jobs/${job.id}/billing`}>
+            Quote
           </Link>
         </div>
       </div>
@@ -205,94 +225,130 @@ function Bench({ job }: { job: JobDetail }) {
         </p>
       )}
       <UnsentBlock sender={sender} />
-      <div className="grid gap-3 lg:grid-cols-[minmax(0,1fr)_24rem]">
-        <div className="space-y-3">
-          {tab === 'map' ? (
-            <div className="h-[52vh] min-h-80">
-              <BoardMap
-                pictureUrl={view.pictureUrl}
-                size={view.size}
-                points={points}
-                parts={view.parts}
-                connectors={view.connectors}
-                selectedId={active?.pointId ?? null}
-                probes={probeNets}
-                highlightPart={selectedPart}
+      <div className="grid gap-3 lg:min-h-0 lg:flex-1 lg:grid-cols-[minmax(0,1fr)_26rem]">
+        <div className="order-2 flex min-h-0 flex-col gap-2 lg:order-1">
+          <div role="tablist" aria-label="Bench views" className="flex flex-wrap gap-1">
+            {TABS.map((t) => (
+              <button
+                key={t.id}
+                type="button"
+                role="tab"
+                aria-selected={tab === t.id}
+                onClick={() => setParams((p) => (p.set('tab', t.id), p))}
+                className="min-h-11 rounded-md border border-stone-400 bg-white px-3 text-sm aria-selected:border-board aria-selected:bg-board aria-selected:font-semibold aria-selected:text-white"
+              >
+                {t.label}
+                {t.id === 'readings' ? ` (${all.length})` : ''}
+              </button>
+            ))}
+          </div>
+          <div className="min-h-0 flex-1 overflow-auto">
+            {tab === 'map' && (
+              <div className="h-[55vh] min-h-72 lg:h-full lg:min-h-0">
+                <BoardMap
+                  pictureUrl={view.pictureUrl}
+                  size={view.size}
+                  points={points}
+                  parts={view.parts}
+                  connectors={view.connectors}
+                  selectedId={active?.pointId ?? null}
+                  probes={probeNets}
+                  highlightPart={selectedPart}
+                  onSelect={selectPoint}
+                />
+              </div>
+            )}
+            {tab === 'chain' && <SignalChain links={chainLinks(view, rows, readings)} />}
+            {tab === 'points' && (
+              <PointList
+                items={points.map((p) => ({ id: p.id, label: p.label, section: view.sections.find((s) => s.id === p.section)?.name ?? p.section, state: p.state, reading: p.reading ? readingText(p.reading) : undefined }))}
+                selectedId={target?.pointId}
                 onSelect={selectPoint}
               />
-            </div>
-          ) : (
-            <SignalChain links={chainLinks(view, rows, readings)} />
-          )}
-          {!guided && (
-            <PointList
-              items={points.map((p) => ({ id: p.id, label: p.label, section: view.sections.find((s) => s.id === p.section)?.name ?? p.section, state: p.state, reading: p.reading ? meterText(p.reading.value, p.reading.unit) : undefined }))}
-              selectedId={target?.pointId}
-              onSelect={selectPoint}
-            />
-          )}
-        </div>
-        <div className="space-y-3">
-          {readingsQ.isError && <p role="alert" className="text-high">Readings could not be loaded: {readingsQ.error.message}</p>}
-          {guided ? (
-            <GuidedOrder view={view} step={step} done={readings}>
-              {diagnosisQ.isPending && <p role="status">Asking the engine for the next step…</p>}
-              {needsGate && safetyGate}
-              {!needsGate && panelTarget && canWrite && (
-                <ReadingPanel target={panelTarget} latest={latest} onSave={save} error={entryError} />
-              )}
-            </GuidedOrder>
-          ) : (
-            <>
-              {panelTarget ? (
-                <>
-                  {choices.length > 1 && (
-                    <fieldset className="flex flex-wrap gap-1">
-                      <legend className="text-sm font-medium">Test at this point</legend>
-                      {choices.map((r) => (
-                        <button
-                          key={r.id}
-                          type="button"
-                          aria-pressed={!!target && sameTarget(view, r, target)}
-                          onClick={() => setTarget({ mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted, pointId: target?.pointId })}
-                          className="min-h-11 rounded-md border border-stone-400 bg-white px-2 text-sm aria-pressed:border-copper aria-pressed:bg-amber-50 aria-pressed:font-semibold"
-                        >
-                          {/* The point is already chosen: what tells these apart is the meter function and the power state. */}
-                          {METER_LABEL[r.mode]} · {r.power === 'on' ? 'powered' : 'unplugged'}
-                          {r.lifted.length > 0 ? ` · ${r.lifted.join(', ')} lifted` : ''}
-                        </button>
-                      ))}
-                    </fieldset>
-                  )}
-                  {needsGate && safetyGate}
-                  {canWrite && !needsGate && <ReadingPanel target={panelTarget} latest={latest} onSave={save} error={entryError} />}
-                  {!canWrite && <p className="rounded-md bg-board-light p-2 text-sm">This job is {job.status}: diagnosis readings are closed.</p>}
-                </>
-              ) : (
-                <p className="rounded-md bg-board-light p-3 text-sm">Pick a test point on the map or in the list, or a next test below.</p>
-              )}
-              <QueryState query={diagnosisQ} label="the ranking">
-                {() => (
-                  <RankingPanel
-                    parts={ranked}
-                    nextTests={steps}
-                    selectedPart={selectedPart}
-                    onPickPart={(p) => setSelectedPart((s) => (s === p ? null : p))}
-                    onPickTest={(t) => setTarget({ ...(t as (typeof steps)[number]).target, pointId: t.pointId })}
+            )}
+            {tab === 'readings' && (
+              <QueryState query={readingsQ} label="the readings">
+                {(d) => (
+                  <ReadingsTable
+                    readings={d.items.filter((r) => r.phase === 'diagnosis')}
+                    model={view.model}
+                    caption="Readings with the board state each was taken in"
+                    actions={canWrite ? (r) => <ReadingActions reading={r} jobId={job.id} onCorrect={correct} /> : undefined}
                   />
                 )}
               </QueryState>
-              {top && (job.allowedTransitions.includes('awaiting-review') || (job.status === 'received' && job.allowedTransitions.includes('diagnosing'))) && (
-                <div className="rounded-lg border border-stone-300 bg-white p-3">
-                  <Button onClick={() => void propose(selectedPart ?? top.part)} disabled={update.isPending}>
-                    Propose {selectedPart ?? top.part} for review
-                  </Button>
-                  {update.error && <p role="alert" className="mt-1 text-sm text-high">{update.error.message}</p>}
-                </div>
+            )}
+          </div>
+          {/* Under the map from 1024 px: the engine's next tests and ranking, each scrolling on its own. */}
+          <div className="min-h-0 lg:h-[40%] lg:overflow-y-auto" data-testid="ranking-area">
+            <QueryState query={diagnosisQ} label="the ranking">
+              {() => (
+                <RankingPanel
+                  parts={ranked}
+                  nextTests={guided ? [] : steps.slice(0, 3)}
+                  selectedPart={selectedPart}
+                  before={before}
+                  onPickPart={(p) => setSelectedPart((s) => (s === p ? null : p))}
+                  onPickTest={guided ? undefined : (t) => setTarget({ ...(t as (typeof steps)[number]).target, pointId: t.pointId })}
+                />
               )}
-              {job.status === 'awaiting-review' && <p className="rounded-md bg-amber-50 p-2 text-sm">Proposed {job.proposedPart}: waiting for a lead’s review.</p>}
+            </QueryState>
+          </div>
+        </div>
+        <div className="order-1 min-h-0 space-y-3 lg:order-2 lg:overflow-y-auto lg:pr-1" data-testid="bench-side">
+          {readingsQ.isError && <p role="alert" className="text-high">Readings could not be loaded: {readingsQ.error.message}</p>}
+          {guided ? (
+            <GuidedOrder view={view} step={step} done={readings} pending={diagnosisQ.isPending}>
+              {diagnosisQ.isPending && <p role="status">Asking the engine for the next step…</p>}
+              {gateShown && active && safetyGate}
+              {entry}
+            </GuidedOrder>
+          ) : (
+            <>
+              {canWrite && <LiftedParts parts={liftable} lifted={lifted} onChange={changeLifted} onMeasurePads={measurePads} />}
+              {choices.length > 1 && (
+                <fieldset className="flex flex-wrap gap-1">
+                  <legend className="text-sm font-medium">Test at this point</legend>
+                  {choices.map((r) => (
+                    <button
+                      key={r.id}
+                      type="button"
+                      aria-pressed={!!target && sameTarget(view, r, target)}
+                      onClick={() => setTarget({ mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted, pointId: target?.pointId })}
+                      className="min-h-11 rounded-md border border-stone-400 bg-white px-2 text-sm aria-pressed:border-copper aria-pressed:bg-amber-50 aria-pressed:font-semibold"
+                    >
+                      {/* The point is already chosen: what tells these apart is the meter function and the power state. */}
+                      {METER_LABEL[r.mode]} · {r.power === 'on' ? 'powered' : 'unplugged'}
+                    </button>
+                  ))}
+                </fieldset>
+              )}
+              {gateShown && active && safetyGate}
+              {entry}
+              {!active && <p className="rounded-md bg-board-light p-3 text-sm">Pick a test point on the map, or a next test below.</p>}
+              {!canWrite && <p className="rounded-md bg-board-light p-2 text-sm">This job is {jobStatusLabels[job.status].toLowerCase()}: diagnosis readings are closed.</p>}
             </>
           )}
+          {proposed && readings.length > 0 && canPropose(job.status, me.data?.role) && (
+            <section aria-labelledby="propose-h" className="space-y-2 rounded-lg border border-stone-300 bg-white p-3">
+              <h2 id="propose-h" className="text-base font-semibold">
+                Propose for review
+              </h2>
+              <p className="text-sm">
+                <strong>{proposed.label}</strong>
+                {!selectedPart && <span className="text-stone-700"> (the top candidate; pick another in the list above)</span>}
+              </p>
+              <label className="block">
+                <span className="text-sm font-medium">Note for the lead</span>
+                <textarea rows={2} value={note} onChange={(e) => setNote(e.target.value)} className="mt-1 block w-full rounded-md border border-stone-500 p-2 text-sm" placeholder="What you saw, what you lifted, why this part" />
+              </label>
+              <Button onClick={() => void propose()} disabled={update.isPending}>
+                Propose {proposed.designator} for review
+              </Button>
+              {update.error && <p role="alert" className="text-sm text-high">{update.error.message}</p>}
+            </section>
+          )}
+          {job.status === 'awaiting-review' && <p className="rounded-md bg-amber-50 p-2 text-sm">Proposed {job.proposedPart}: waiting for a lead’s review.</p>}
         </div>
       </div>
     </div>

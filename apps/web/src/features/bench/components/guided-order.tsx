@@ -1,7 +1,7 @@
 import type { StoredReading } from '@splitscope/contract';
 import { Caution } from '@/components/ui/caution';
 import { MarkerGlyph } from '@/components/board-map/marker-glyph';
-import { meterText } from '@/lib/format';
+import { readingText } from '@/lib/format';
 import type { BoardView } from '@/lib/board/board-view';
 import { describeTest, stateOf, type Target } from '../lib/bench-model';
 import type { NextTestView } from './ranking-panel';
@@ -11,8 +11,11 @@ export function GuidedOrder({
   view,
   step,
   done,
+  pending,
   children,
 }: {
+  /** The engine is still working out the first step. */
+  pending?: boolean;
   view: BoardView;
   step: (NextTestView & { target: Target }) | undefined;
   done: StoredReading[];
@@ -27,24 +30,20 @@ export function GuidedOrder({
       {step ? (
         <div className="space-y-2 rounded-lg border-2 border-board bg-white p-3" data-testid="guided-step">
           <p className="text-base font-semibold">{step.label}</p>
-          <p className="text-sm">
-            Meter: <strong>{step.meter}</strong> · red probe on <strong>{view.netLabel(step.red)}</strong> · black probe on{' '}
-            <strong>{view.netLabel(step.black)}</strong> · board <strong>{step.power === 'on' ? 'POWERED' : 'UNPLUGGED'}</strong>
-          </p>
           {step.power === 'on' && (
             <Caution title="High voltage: this step is taken with the board powered">
               <p>Mains and the ~300 V DC bus are live. Keep one hand away, use insulated probes and follow your shop’s procedures.</p>
             </Caution>
           )}
         </div>
-      ) : (
+      ) : pending ? null : (
         <p className="rounded-md bg-board-light p-3">The engine has no further test to suggest: ask your lead to look at the ranking.</p>
       )}
       {children}
-      <section aria-labelledby="done-h">
-        <h3 id="done-h" className="text-base font-semibold">
-          Steps done
-        </h3>
+      <details aria-labelledby="done-h">
+        <summary id="done-h" className="min-h-11 cursor-pointer text-base font-semibold">
+          Steps done ({done.length})
+        </summary>
         {done.length === 0 ? (
           <p className="text-sm text-stone-700">None yet.</p>
         ) : (
@@ -53,14 +52,14 @@ export function GuidedOrder({
               <li key={r.id}>
                 <span className="inline-flex items-center gap-1">
                   <MarkerGlyph state={stateOf(r.verdict?.verdict)} />
-                  {describeTest(view, { ...r, red: r.red, black: r.black })}: <span className="font-mono font-semibold">{meterText(r.value, r.unit)}</span>
+                  {describeTest(view, { ...r, red: r.red, black: r.black })}: <span className="font-mono font-semibold">{readingText(r)}</span>
                   {r.verdict && <span>({r.verdict.verdict === 'ok' ? 'healthy' : r.verdict.verdict})</span>}
                 </span>
               </li>
             ))}
           </ol>
         )}
-      </section>
+      </details>
     </section>
   );
 }

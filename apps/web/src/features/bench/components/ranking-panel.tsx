@@ -1,6 +1,10 @@
 import { useState } from 'react';
 export interface RankedPart {
   part: string;
+  /** The fault in the bench's words ("U1 opto — LED open"). */
+  label: string;
+  /** The designator printed on the board: what is proposed, repaired and reported. */
+  designator: string;
   mode: string;
   probability: number;
   description?: string;
@@ -30,23 +34,65 @@ export function RankingPanel({
   selectedPart,
   onPickPart,
   onPickTest,
+  before,
 }: {
   parts: RankedPart[];
   nextTests: NextTestView[];
   selectedPart?: string | null;
   onPickPart: (part: string) => void;
   onPickTest?: (t: NextTestView) => void;
+  /** Before the first reading: what the fault code points at, instead of every part of the board at equal odds. */
+  before?: { code: string | null; meaning: string | null; sections: string[] } | null;
 }) {
   // With no readings every part is equally suspect: a list of a hundred parts helps nobody, so show the leaders.
   const [all, setAll] = useState(false);
   const shown = all ? parts : parts.slice(0, SHORT_LIST);
   return (
-    <div className="space-y-4">
+    <div className="grid gap-3 sm:grid-cols-2">
+      <section aria-labelledby="next-h">
+        <h2 id="next-h" className="mb-1 text-base font-semibold">
+          Next tests
+        </h2>
+        {nextTests.length === 0 ? (
+          <p className="text-sm text-stone-700">No further test would change the ranking.</p>
+        ) : (
+          <ol className="space-y-1">
+            {nextTests.map((t) => (
+              <li key={t.id}>
+                <button
+                  type="button"
+                  disabled={!onPickTest}
+                  onClick={() => onPickTest?.(t)}
+                  className="flex min-h-11 w-full flex-wrap items-center justify-between gap-2 rounded-md border border-stone-300 bg-white px-2 text-left text-sm hover:bg-stone-50"
+                >
+                  <span className="font-semibold">{t.label}</span>
+                  {t.gainBits !== undefined && <span className="tabular-nums text-stone-700">{t.gainBits.toFixed(2)} bit</span>}
+                </button>
+              </li>
+            ))}
+          </ol>
+        )}
+      </section>
       <section aria-labelledby="ranking-h">
-        <h2 id="ranking-h" className="mb-2 text-lg font-semibold">
+        <h2 id="ranking-h" className="mb-1 text-base font-semibold">
           Probable faulty parts
         </h2>
-        {parts.length === 0 ? (
+        {before ? (
+          <div className="rounded-md bg-board-light p-2 text-sm" data-testid="before-first-reading">
+            <p>
+              No reading yet: every part is equally likely.{' '}
+              {before.code ? (
+                <>
+                  Fault code <strong>{before.code}</strong>
+                  {before.meaning ? ` (${before.meaning})` : ''} points at: <strong>{before.sections.join(', ') || 'no section in particular'}</strong>.
+                </>
+              ) : (
+                'No fault code was logged.'
+              )}{' '}
+              Take the first test below.
+            </p>
+          </div>
+        ) : parts.length === 0 ? (
           <p className="text-sm text-stone-700">No part stands out yet: record a reading.</p>
         ) : (
           <ol className="space-y-2">
@@ -60,7 +106,7 @@ export function RankingPanel({
                 >
                   <span className="flex items-baseline justify-between gap-2">
                     <span className="font-semibold">
-                      {i + 1}. {p.part} <span className="font-normal text-stone-700">{p.mode}</span>
+                      {i + 1}. {p.label}
                     </span>
                     <span className="tabular-nums font-semibold">{pct(p.probability)}</span>
                   </span>
@@ -91,36 +137,10 @@ export function RankingPanel({
             ))}
           </ol>
         )}
-        {parts.length > SHORT_LIST && (
+        {!before && parts.length > SHORT_LIST && (
           <button type="button" className="mt-2 min-h-11 rounded-md border border-stone-400 bg-white px-3 text-sm font-semibold" onClick={() => setAll(!all)}>
             {all ? `Show the first ${SHORT_LIST}` : `Show all ${parts.length} candidates`}
           </button>
-        )}
-      </section>
-      <section aria-labelledby="next-h">
-        <h2 id="next-h" className="mb-2 text-lg font-semibold">
-          Next tests
-        </h2>
-        {nextTests.length === 0 ? (
-          <p className="text-sm text-stone-700">No further test would change the ranking.</p>
-        ) : (
-          <ol className="space-y-1">
-            {nextTests.map((t) => (
-              <li key={t.id}>
-                <button
-                  type="button"
-                  disabled={!onPickTest}
-                  onClick={() => onPickTest?.(t)}
-                  className="flex min-h-11 w-full flex-wrap items-center justify-between gap-2 rounded-md border border-stone-300 bg-white px-2 text-left text-sm hover:bg-stone-50"
-                >
-                  <span>
-                    <span className="font-semibold">{t.label}</span> · {t.meter} · power {t.power === 'on' ? 'ON' : 'OFF'}
-                  </span>
-                  {t.gainBits !== undefined && <span className="tabular-nums text-stone-700">{t.gainBits.toFixed(2)} bit</span>}
-                </button>
-              </li>
-            ))}
-          </ol>
         )}
       </section>
     </div>

@@ -16,6 +16,8 @@ export interface ReadingTarget {
   /** `note` says why an in-circuit reading differs from a part's own value (parallel paths). */
   expected?: { text: string; band: string; note?: string; source?: string } | null;
   touchesBus?: boolean;
+  /** Parts lifted for this reading, by designator. */
+  lifted?: string[];
 }
 
 export interface LatestReading {
@@ -54,55 +56,38 @@ export function ReadingPanel({
     if (await onSave(text)) setText('');
   };
 
+  const continuity = target.meter === 'continuity';
+  // Continuity is a beep or none: b and n answer it from the keyboard, the buttons from a glove.
+  const quick = async (answer: 'beep' | 'no beep') => {
+    if (await onSave(answer)) setText('');
+  };
   return (
-    <section aria-labelledby="reading-h" className="space-y-3 rounded-lg border border-stone-300 bg-white p-3">
-      <h2 id="reading-h" className="text-lg font-semibold">
-        Reading at {target.pointLabel}
+    <section aria-labelledby="reading-h" className="space-y-2 rounded-lg border border-stone-300 bg-white p-3">
+      <h2 id="reading-h" className="text-base font-semibold">
+        {METER_LABEL[target.meter] ?? target.meter} at {target.pointLabel}
       </h2>
-      <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-1 text-sm">
-        <dt className="text-stone-700">Meter</dt>
-        <dd className="font-semibold">{METER_LABEL[target.meter] ?? target.meter}</dd>
-        <dt className="text-stone-700">Red probe</dt>
-        <dd className="font-semibold">
-          <span className="mr-1 inline-block h-3 w-3 rounded-full bg-[#c81e1e] align-middle" aria-hidden /> {target.red.label}
-        </dd>
-        <dt className="text-stone-700">Black probe</dt>
-        <dd className="font-semibold">
-          <span className="mr-1 inline-block h-3 w-3 rounded-full bg-[#111827] align-middle" aria-hidden /> {target.black.label}
-        </dd>
-        <dt className="text-stone-700">Power</dt>
-        <dd className="font-semibold">{target.power === 'on' ? 'Board powered (ON)' : 'Unplugged, bus discharged (OFF)'}</dd>
-        <dt className="text-stone-700">Expected</dt>
-        <dd className="font-semibold">{target.expected ? `${target.expected.text} (${target.expected.band})` : 'not computed for this test'}</dd>
-        {target.expected?.note && (
+      <p className="text-sm" data-testid="probe-line">
+        <span className="mr-1 inline-block h-3 w-3 rounded-full bg-[#c81e1e] align-middle" aria-hidden /> red on <strong>{target.red.label}</strong> ·{' '}
+        <span className="mr-1 inline-block h-3 w-3 rounded-full bg-[#111827] align-middle" aria-hidden /> black on <strong>{target.black.label}</strong> · board{' '}
+        <strong>{target.power === 'on' ? 'POWERED' : 'UNPLUGGED, bus discharged'}</strong>
+        {target.lifted && target.lifted.length > 0 && (
           <>
-            <dt className="text-stone-700">In circuit</dt>
-            <dd data-testid="expected-note">{target.expected.note}</dd>
+            {' '}
+            · <strong data-testid="lifted-line">{target.lifted.join(', ')} lifted</strong>
           </>
         )}
-        {target.expected?.source && (
-          <>
-            <dt className="text-stone-700">Band from</dt>
-            <dd className="text-sm">{target.expected.source}</dd>
-          </>
-        )}
-      </dl>
-      {target.power === 'on' && (
-        <Caution title="Powered board: mains and ~300 V DC bus present">
-          <p>One hand, insulated probes, a meter rated for the bus. Follow your shop’s procedures and local codes.</p>
-        </Caution>
-      )}
+      </p>
       <form onSubmit={submit} className="flex flex-wrap items-end gap-2">
-        <label className="flex-1">
+        <label className="min-w-0 flex-1">
           <span className="block text-sm font-medium">Measured value</span>
           <input
             ref={field}
             value={text}
             onChange={(e) => setText(e.target.value)}
-            inputMode="decimal"
+            inputMode={continuity ? 'text' : 'decimal'}
             autoComplete="off"
             spellCheck={false}
-            placeholder='e.g. 14.9, 2.2k, OL'
+            placeholder={continuity ? 'b = beep, n = no beep' : 'e.g. 14.9, 2.2k, OL'}
             aria-describedby="reading-hint"
             className="mt-1 block min-h-11 w-full rounded-md border border-stone-500 px-3 font-mono text-lg"
           />
@@ -110,8 +95,18 @@ export function ReadingPanel({
         <button type="submit" disabled={busy} className="min-h-11 rounded-md bg-board px-4 font-semibold text-white disabled:opacity-60">
           Save
         </button>
+        {continuity && (
+          <span className="flex gap-2">
+            <button type="button" onClick={() => void quick('beep')} className="min-h-11 rounded-md border-2 border-board bg-white px-3 font-semibold">
+              Beep
+            </button>
+            <button type="button" onClick={() => void quick('no beep')} className="min-h-11 rounded-md border-2 border-board bg-white px-3 font-semibold">
+              No beep
+            </button>
+          </span>
+        )}
         <p id="reading-hint" className="w-full text-xs text-stone-700">
-          Enter saves. Prefixes k, M, m, u, n and codes like 4k7 work; OL for overload.
+          {continuity ? 'Type b or n and press Enter, or tap Beep / No beep.' : 'Enter saves. Prefixes k, M, m, u and codes like 4k7 work; OL for overload.'}
         </p>
       </form>
       {error && (
@@ -119,9 +114,9 @@ export function ReadingPanel({
           {error}
         </p>
       )}
-      <div aria-live="polite" className="min-h-8">
+      <div aria-live="polite" className="min-h-7">
         {latest && (
-          <p className="flex items-center gap-2 text-base" data-testid="verdict">
+          <p className="flex flex-wrap items-center gap-2 text-base" data-testid="verdict">
             {latest.state === 'unsent' ? (
               <span className="rounded bg-amber-100 px-2 py-0.5 text-sm font-semibold text-amber-950">UNSENT</span>
             ) : (
@@ -133,6 +128,27 @@ export function ReadingPanel({
           </p>
         )}
       </div>
+      <dl className="grid grid-cols-[auto_1fr] gap-x-3 text-sm">
+        <dt className="text-stone-700">Expected</dt>
+        <dd className="font-semibold">{target.expected ? target.expected.band : 'computed by the engine when the reading is saved'}</dd>
+        {target.expected?.note && (
+          <>
+            <dt className="text-stone-700">In circuit</dt>
+            <dd data-testid="expected-note">{target.expected.note}</dd>
+          </>
+        )}
+        {target.expected?.source && (
+          <>
+            <dt className="text-stone-700">Band from</dt>
+            <dd className="line-clamp-2 text-xs" title={target.expected.source}>{target.expected.source}</dd>
+          </>
+        )}
+      </dl>
+      {target.power === 'on' && (
+        <Caution title="Powered board: mains and ~300 V DC bus present">
+          <p className="text-sm">One hand, insulated probes, a meter rated for the bus; your shop’s procedures and local codes.</p>
+        </Caution>
+      )}
     </section>
   );
 }

@@ -4,7 +4,7 @@
  */
 import { type Diagnosis, type ExpectedReadingRow, type StoredReading } from '@splitscope/contract';
 import type { MarkerState } from '@/lib/map-geometry';
-import { METER_LABEL, meterText } from '@/lib/format';
+import { METER_LABEL, meterText, readingText, verdictWord } from '@/lib/format';
 import type { NextTestView, RankedPart } from '../components/ranking-panel';
 import { netOf, type BoardView } from '@/lib/board/board-view';
 
@@ -40,9 +40,13 @@ export function latestFor(view: BoardView, readings: StoredReading[], t: Target)
   return [...readings].reverse().find((r) => sameTarget(view, { ...r, red: r.redNet, black: r.blackNet }, t));
 }
 
-/** A point's marker: the verdict of the newest reading with the red probe on its net. */
-export function pointState(view: BoardView, readings: StoredReading[], pointNet: string): { state: MarkerState; reading?: StoredReading } {
-  const r = [...readings].reverse().find((x) => norm(x.redNet) === norm(pointNet));
+/**
+ * A point's marker: the verdict of the newest reading with the red probe on its net, taken in the board's
+ * present state (the same parts lifted): a value read with C10 lifted says nothing about the board as built.
+ */
+export function pointState(view: BoardView, readings: StoredReading[], pointNet: string, lifted: readonly string[] = []): { state: MarkerState; reading?: StoredReading } {
+  const same = [...lifted].sort().join();
+  const r = [...readings].reverse().find((x) => norm(x.redNet) === norm(pointNet) && [...x.lifted].sort().join() === same);
   return { state: r ? stateOf(r.verdict?.verdict) : 'unmeasured', reading: r };
 }
 
@@ -58,18 +62,18 @@ export function expectedFor(view: BoardView, rows: ExpectedReadingRow[], t: Targ
 }
 
 export function describeTest(view: BoardView, t: Target & { value?: number | 'OL'; unit?: string }) {
-  const m = { dcv: 'DC V', ohm: 'Ω', diode: 'diode', continuity: 'continuity' }[t.mode];
-  return `${view.netLabel(t.red)} to ${view.netLabel(t.black)}, ${m}, power ${t.power}${t.lifted.length ? `, ${t.lifted.join(', ')} lifted` : ''}`;
+  return `${view.netLabel(t.red)} to ${view.netLabel(t.black)}, ${METER_LABEL[t.mode]}, ${t.power === 'on' ? 'powered' : 'unplugged'}${t.lifted.length ? `, ${t.lifted.join(', ')} lifted` : ''}`;
 }
 
 const rec = (v: unknown): Record<string, unknown> => (typeof v === 'object' && v !== null ? (v as Record<string, unknown>) : {});
 
 /** Parts ranked by the engine, each with the readings that speak for and against it. */
 export function rankedParts(view: BoardView, d: Diagnosis): RankedPart[] {
-  const readingText = (i: number) => {
+  const evidenceText = (i: number): string => {
     const r = d.readings[i];
     if (!r) return `reading ${i + 1}`;
-    return `${view.pointOf(r.red)?.label ?? r.red} ${meterText(r.value, r.unit)}${r.verdict ? ` (${r.verdict})` : ''}`;
+    const lifted = r.lifted.length ? `, ${r.lifted.join(', ')} lifted` : '';
+    return `${view.netLabel(r.red)} ${r.mode === 'continuity' ? readingText({ ...r, beep: null }) : meterText(r.value, r.unit)}${lifted}${r.verdict ? ` (${verdictWord(r.verdict)})` : ''}`;
   };
   return d.parts.map((p) => {
     const single = d.candidates.find((c) => c.faults.length === 1 && c.faults[0]!.part === p.part && c.faults[0]!.mode === p.mode);
@@ -79,11 +83,13 @@ export function rankedParts(view: BoardView, d: Diagnosis): RankedPart[] {
     const partRec = rec(p);
     return {
       part: p.part,
+      label: p.label ?? p.part,
+      designator: p.designator ?? p.part,
       mode: p.mode,
       probability: p.probability,
       description: typeof partRec.description === 'string' ? partRec.description : undefined,
-      evidenceFor: ev.filter((e) => sign(e) === 'supports').map((e) => readingText(idx(e))),
-      evidenceAgainst: ev.filter((e) => sign(e) === 'against').map((e) => readingText(idx(e))),
+      evidenceFor: ev.filter((e) => sign(e) === 'supports').map((e) => evidenceText(idx(e))),
+      evidenceAgainst: ev.filter((e) => sign(e) === 'against').map((e) => evidenceText(idx(e))),
     };
   });
 }
@@ -95,7 +101,7 @@ export function nextTests(view: BoardView, d: Diagnosis): (NextTestView & { targ
     const gain = typeof r.expectedGain === 'number' ? r.expectedGain : undefined;
     return {
       id: `${i}-${t.mode}-${t.red}-${t.black}-${t.power}`,
-      label: typeof r.instruction === 'string' ? r.instruction : describeTest(view, target),
+      label: t.instruction,
       meter: METER_LABEL[t.mode]!,
       power: t.power,
       red: t.red,

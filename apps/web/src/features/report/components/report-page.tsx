@@ -1,7 +1,7 @@
-import type { RepairReport, ReportReading } from '@splitscope/contract';
+import { jobStatusLabels, type RepairReport, type ReportReading } from '@splitscope/contract';
 import { useParams } from 'react-router-dom';
 import { QueryState } from '@/components/ui/query-state';
-import { dateTime, meterText, verdictWord } from '@/lib/format';
+import { bandText, dateTime, METER_LABEL, readingText, verdictWord } from '@/lib/format';
 import { useReport } from '../api/get-report';
 
 /** The report as the server composes it (the same model the customer's PDF is drawn from). */
@@ -45,7 +45,7 @@ function Report({ report: r }: { report: RepairReport }) {
             {r.finding.reviewedBy && r.finding.reviewedAt ? ` (approved by ${r.finding.reviewedBy}, ${dateTime(r.finding.reviewedAt)})` : ''}
           </dd>
           <dt>Status</dt>
-          <dd>{r.status}</dd>
+          <dd>{jobStatusLabels[r.status]}</dd>
         </dl>
       </section>
       <section>
@@ -86,9 +86,9 @@ function ReadingTable({ rows }: { rows: ReportReading[] }) {
     <table className="w-full text-left text-sm">
       <thead>
         <tr className="border-b border-stone-300">
-          <th>Red → black</th>
+          <th>Probes</th>
           <th>Meter</th>
-          <th>Power</th>
+          <th>Board</th>
           <th>Measured</th>
           <th>Expected band</th>
           <th>Verdict</th>
@@ -97,13 +97,11 @@ function ReadingTable({ rows }: { rows: ReportReading[] }) {
       <tbody>
         {rows.map((r) => (
           <tr key={r.id} className="border-b border-stone-200">
-            <td className="py-0.5">
-              {r.red} → {r.black}
-            </td>
-            <td>{r.mode}</td>
-            <td>{r.power}</td>
-            <td className="font-mono">{meterText(r.value, r.unit)}</td>
-            <td>{r.verdict ? `${meterText(r.verdict.low, r.unit)} – ${meterText(r.verdict.high, r.unit)}` : '—'}</td>
+            <td className="py-0.5">{r.probes}</td>
+            <td>{METER_LABEL[r.mode]}</td>
+            <td data-testid="board-state">{r.boardState}</td>
+            <td className="font-mono">{readingText(r)}</td>
+            <td>{r.verdict ? bandText(r.verdict, r.mode) : '—'}</td>
             <td className="font-semibold">{verdictWord(r.verdict?.verdict)}</td>
           </tr>
         ))}

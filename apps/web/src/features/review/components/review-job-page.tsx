@@ -1,5 +1,6 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { canApprove, createReviewRequest, type JobDetail } from '@splitscope/contract';
+import { boardWords, canApprove, createReviewRequest, type BoardWords, type JobDetail } from '@splitscope/contract';
+import { useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import type { z } from 'zod';
@@ -8,17 +9,24 @@ import { StatusBadge } from '@/components/ui/status-badge';
 import { useMe } from '@/lib/api/me';
 import { useJob } from '@/lib/api/get-job';
 import { useReadings } from '@/lib/api/get-readings';
-import { dateTime, meterText } from '@/lib/format';
+import { ReadingsTable } from '@/components/readings/readings-table';
+import { boardView } from '@/lib/board/board-view';
+import { dateTime } from '@/lib/format';
 import { useCreateReview } from '../api/create-review';
 
 type In = z.input<typeof createReviewRequest>;
 type Out = z.output<typeof createReviewRequest>;
 
-function Decision({ job }: { job: JobDetail }) {
+function Decision({ job, words }: { job: JobDetail; words: BoardWords }) {
   const review = useCreateReview(job.id);
   const navigate = useNavigate();
   const form = useForm<In, unknown, Out>({ resolver: zodResolver(createReviewRequest), defaultValues: { decision: 'approve', comment: '' } });
+  const [confirming, setConfirming] = useState(false);
+  const part = words.designator(job.proposedPart ?? '');
   const send = (decision: 'approve' | 'send-back') => {
+    // Approving sends the iron to the board: the lead says yes twice, the second time naming the part.
+    if (decision === 'approve' && !confirming) return setConfirming(true);
+    setConfirming(false);
     form.setValue('decision', decision);
     void form.handleSubmit(async (v) => {
       await review.mutateAsync(v);
@@ -38,10 +46,20 @@ function Decision({ job }: { job: JobDetail }) {
           {review.error.message}
         </p>
       )}
+      {confirming && (
+        <p role="alert" className="rounded-md border border-amber-600 bg-amber-50 p-2 text-sm">
+          Approve {part} as the faulty part? The technician will desolder and replace it. Check the evidence and the readings with their board state first.
+        </p>
+      )}
       <div className="flex flex-wrap gap-2">
         <button type="button" onClick={() => send('approve')} disabled={review.isPending} className="min-h-11 rounded-md bg-ok px-4 font-semibold text-white">
-          Approve {job.proposedPart}
+          {confirming ? `Yes, approve: replace ${part}` : `Approve ${part}`}
         </button>
+        {confirming && (
+          <button type="button" onClick={() => setConfirming(false)} className="min-h-11 rounded-md border border-stone-400 bg-white px-4 font-semibold">
+            Cancel
+          </button>
+        )}
         <button type="button" onClick={() => send('send-back')} disabled={review.isPending} className="min-h-11 rounded-md border-2 border-high bg-white px-4 font-semibold text-high">
           Send back
         </button>
@@ -53,6 +71,8 @@ function Decision({ job }: { job: JobDetail }) {
 function Review({ job }: { job: JobDetail }) {
   const me = useMe();
   const readings = useReadings(job.id);
+  const model = useMemo(() => boardView(job.board.document).model, [job.board.document]);
+  const words = useMemo(() => boardWords(model), [model]);
   const snap = job.latestSnapshot?.output;
   const canDecide = canApprove(job.status, me.data?.role);
   return (
@@ -68,8 +88,13 @@ function Review({ job }: { job: JobDetail }) {
         {job.symptom}
       </p>
       <p className="text-lg">
-        Proposed part: <strong data-testid="proposed-part">{job.proposedPart ?? '—'}</strong> by {job.assigneeName ?? 'the technician'}
+        Proposed part: <strong data-testid="proposed-part">{job.proposedPart ? words.designator(job.proposedPart) : '—'}</strong> by {job.assigneeName ?? 'the technician'}
       </p>
+      {job.proposalNote && (
+        <blockquote className="rounded-md border-l-4 border-copper bg-white p-2" data-testid="proposal-note">
+          <span className="block text-sm font-semibold">The technician’s note</span>“{job.proposalNote}”
+        </blockquote>
+      )}
       <div className="grid gap-4 lg:grid-cols-2">
         <section aria-labelledby="snap-h" className="rounded-lg border border-stone-300 bg-white p-3">
           <h2 id="snap-h" className="mb-2 text-lg font-semibold">
@@ -83,7 +108,7 @@ function Review({ job }: { job: JobDetail }) {
                 <li key={`${p.part}-${p.mode}`}>
                   <div className="flex justify-between text-sm">
                     <span className="font-semibold">
-                      {p.part} <span className="font-normal">{p.mode}</span>
+                      {p.label ?? words.fault(p.part, p.mode)}
                     </span>
                     <span className="tabular-nums">{(p.probability * 100).toFixed(1)} %</span>
                   </div>
@@ -100,34 +125,7 @@ function Review({ job }: { job: JobDetail }) {
             Readings history
           </h2>
           <QueryState query={readings} label="the readings">
-            {(d) => (
-              <table className="w-full text-left text-sm">
-                <thead>
-                  <tr>
-                    <th>Probes</th>
-                    <th>Meter</th>
-                    <th>Power</th>
-                    <th>Value</th>
-                    <th>Expected</th>
-                    <th>Verdict</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {d.items.map((r) => (
-                    <tr key={r.id} className={`border-t border-stone-200 ${r.supersededBy ? 'text-stone-600 line-through' : ''}`}>
-                      <td className="py-1">
-                        {r.red} → {r.black}
-                      </td>
-                      <td>{r.mode}</td>
-                      <td>{r.power}</td>
-                      <td className="font-mono">{meterText(r.value, r.unit)}</td>
-                      <td className="tabular-nums">{r.verdict ? `${meterText(r.verdict.low, r.unit)} – ${meterText(r.verdict.high, r.unit)}` : '—'}</td>
-                      <td className="font-semibold">{r.verdict ? (r.verdict.verdict === 'ok' ? 'healthy' : r.verdict.verdict) : '—'}</td>
-                    </tr>
-                  ))}
-                </tbody>
-              </table>
-            )}
+            {(d) => <ReadingsTable readings={d.items} model={model} caption="Readings with the board state each was taken in" />}
           </QueryState>
         </section>
       </div>
@@ -145,7 +143,7 @@ function Review({ job }: { job: JobDetail }) {
           </ul>
         </section>
       )}
-      {canDecide ? <Decision job={job} /> : <p className="text-sm text-stone-700">Only a lead decides a review.</p>}
+      {canDecide ? <Decision job={job} words={words} /> : <p className="text-sm text-stone-700">Only a lead decides a review.</p>}
       <Link to={`/jobs/${job.id}?mode=free`} className="inline-flex min-h-11 items-center font-semibold text-board underline">
         Open the bench for this job
       </Link>
