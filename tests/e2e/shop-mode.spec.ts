@@ -60,7 +60,7 @@ test('first run, invitation by e-mail, sign-in, deactivation', async ({ page, br
   const path = await invitationLink(page, TECH.email);
   const tech = await newPage(browser);
   await tech.goto(path);
-  await tech.getByLabel('New password', { exact: true }).fill(TECH.password);
+  await tech.getByLabel('New password').fill(TECH.password);
   await tech.getByLabel('The same password again').fill(TECH.password);
   await tech.getByRole('button', { name: 'Set my password and sign in' }).click();
   await expect(tech.getByRole('link', { name: /Technician/ })).toBeVisible({ timeout: 15_000 });

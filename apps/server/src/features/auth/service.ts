@@ -8,10 +8,9 @@ import type { Db } from '../../db/client';
 import { auditLog, passwordResets, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId, newToken } from '../../lib/ids';
-import { publicBase } from '../billing/links';
-import { passwordResetMail } from '../mail/templates';
-import { sendMail } from '../mail/transport';
-import { tokenHash } from '../users/service';
+import { publicBase } from '../billing';
+import { passwordResetMail, sendMail } from '../mail';
+import { tokenHash } from '../users';
 
 const RESET_MINUTES = 30;
 

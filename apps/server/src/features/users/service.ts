@@ -12,9 +12,8 @@ import { auditLog, invitations, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso, isoOrNull } from '../../lib/dates';
 import { newId, newToken } from '../../lib/ids';
-import { publicBase } from '../billing/links';
-import { invitationMail } from '../mail/templates';
-import { sendMail } from '../mail/transport';
+import { publicBase } from '../billing';
+import { invitationMail, sendMail } from '../mail';
 
 const INVITATION_DAYS = 7;
 export const tokenHash = (token: string) => createHash('sha256').update(token).digest('hex');

@@ -17,7 +17,7 @@ export function SignInPage() {
   if (status.data?.needsSetup) return <Navigate to="/first-run" replace />;
 
   return (
-    <main className="flex min-h-full items-center justify-center bg-board p-4">
+    <main className="flex min-h-full flex-1 items-center justify-center bg-board p-4">
       <div className="w-full max-w-sm rounded-xl bg-white p-8 shadow-xl">
         <div className="mb-6 flex items-center gap-3">
           <img src="/favicon.svg" alt="" className="h-10 w-10" />
