@@ -11,6 +11,9 @@ interface Def {
 const defOf = (s: Any) => (s as unknown as { _zod: { def: Def; optin?: string } })._zod.def;
 const isOptional = (s: Any) => (s as unknown as { _zod: { optin?: string } })._zod.optin === 'optional';
 
+/** Ids of real rows by the field name that carries them (customerId, boardId, ...): set before generating. */
+export const realIds: Record<string, string[]> = {};
+
 const safeChars = fc.constantFrom(...'abcdefghijklmnopqrstuvwxyz0123456789-'.split(''));
 
 /** Values the schema's shape accepts (constraints beyond the shape, such as refinements, may still refuse them). */
@@ -24,7 +27,12 @@ export function validArb(schema: Any, depth = 0): fc.Arbitrary<unknown> {
       if (format === 'email') return fc.emailAddress();
       if (format === 'uuid') return fc.uuid();
       if (format === 'url') return fc.webUrl();
-      if (format === 'regex') return fc.nat(999).map((n) => `TP${n}`);
+      // The schema's own pattern: values a `^\d{1,3}(\.\d{1,3})?$` tax rate or a quantity accepts, not a made-up shape.
+      if (format === 'regex') {
+        const check = ((s._zod as { def: { checks?: { _zod: { def: { pattern?: RegExp } } }[] } }).def.checks ?? []).find((c) => c._zod.def.pattern);
+        const pattern = check?._zod.def.pattern;
+        return pattern ? fc.stringMatching(pattern).filter((v) => v.trim() === v) : fc.nat(999).map((n) => `TP${n}`);
+      }
       const min = Math.max(1, Number(s.minLength ?? 1));
       const max = Math.max(min, Math.min(Number(s.maxLength ?? 40), 40));
       return fc.string({ unit: safeChars, minLength: Math.min(min, max), maxLength: max });
@@ -49,7 +57,8 @@ export function validArb(schema: Any, depth = 0): fc.Arbitrary<unknown> {
       const model: Record<string, fc.Arbitrary<unknown>> = {};
       const required: string[] = [];
       for (const [k, v] of Object.entries(shape)) {
-        model[k] = validArb(v, depth + 1);
+        const ids = realIds[k];
+        model[k] = ids?.length ? fc.oneof({ weight: 4, arbitrary: fc.constantFrom(...ids) }, { weight: 1, arbitrary: validArb(v, depth + 1) }) : validArb(v, depth + 1);
         if (!isOptional(v)) required.push(k);
       }
       return fc.record(model, { requiredKeys: required as never[] });
@@ -175,7 +184,8 @@ export function payloadArb(schema: Any): fc.Arbitrary<FuzzPayload> {
   });
   const body = fc.oneof(
     { weight: 5, arbitrary: mutated },
-    { weight: 1, arbitrary: valid.map((value) => ({ value, label: 'well-formed' })) },
+    // well-formed bodies reach the routes' own rules and state changes, not only the contract's refusals
+    { weight: 8, arbitrary: valid.map((value) => ({ value, label: 'well-formed' })) },
     { weight: 2, arbitrary: nastyValue.map((value) => ({ value, label: 'whole body' })) },
     {
       weight: 2,
@@ -183,7 +193,8 @@ export function payloadArb(schema: Any): fc.Arbitrary<FuzzPayload> {
     },
     { weight: 1, arbitrary: fc.constantFrom('{', '{"a":', '[1,2', 'nul', '\u0000', '{"a":1}{"b":2}', '"\\ud800"').map((t) => ({ value: { __text: t }, label: 'broken JSON' })) },
   );
-  return fc.tuple(body, contentTypes).map(([b, ct]) => {
+  return fc.tuple(body, contentTypes).map(([b, given]) => {
+    const ct = b.label === 'well-formed' ? { type: 'application/json' } : given;
     let text: string;
     const raw = b.value as { __raw?: string; __text?: string; v?: unknown } | null;
     if (raw && typeof raw === 'object' && typeof raw.__text === 'string') text = raw.__text;

@@ -7,8 +7,9 @@ test('an admin composes a board again from its section templates and the expecte
   test.setTimeout(180_000);
   await signIn(page, 'admin@demo.test');
   await page.goto('/boards/board-demo-idf-310');
-  await expect(page.getByRole('heading', { name: 'Compose from section templates' })).toBeVisible();
-  const busRow = page.getByRole('row', { name: /DC bus \+.*DC volts.*on/ }).first();
+  // The editor's first load draws the map and the drawing of the composition: slow on a busy machine.
+  await expect(page.getByRole('heading', { name: 'Compose from section templates' })).toBeVisible({ timeout: 30_000 });
+  const busRow = page.getByRole('row', { name: /DC bus \+.*DC V.*on/ }).first();
   const before = await busRow.textContent();
   await page.getByLabel('mainsRms').fill('120');
   await page.getByLabel('mainsRms').blur();

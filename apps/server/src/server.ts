@@ -7,9 +7,12 @@ import { shops } from './db/schema';
 import { createDatabase } from './db/client';
 import type { AppContext } from './context';
 import { holdDiagnosisPool, releaseDiagnosisPool } from './features/diagnosis/pool';
+import { upgradeBoardDocuments, type UpgradeOutcome } from './features/boards/upgrade';
 import { DiskStorage } from './storage/storage';
 
 export interface RunningServer {
+  /** What the start-time board-document upgrade did (main.ts prints it). */
+  upgrade: UpgradeOutcome;
   ctx: AppContext;
   server: Server;
   url: string;
@@ -29,6 +32,8 @@ export async function startServer(config: Config): Promise<RunningServer> {
   }
   const secureCookies = config.PUBLIC_URL?.startsWith('https://') ?? false;
   const ctx: AppContext = { config, db, pool, auth: createAuth(db, { secureCookies }), storage: new DiskStorage(config.UPLOAD_DIR) };
+  // Stored board documents of an older schema version are rewritten before the first request reads one.
+  const upgrade = await upgradeBoardDocuments(ctx);
   const app = createApp(ctx);
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.PORT, config.HOST, () => resolve(s));
@@ -43,6 +48,7 @@ export async function startServer(config: Config): Promise<RunningServer> {
   const addr = server.address();
   const port = typeof addr === 'object' && addr ? addr.port : config.PORT;
   return {
+    upgrade,
     ctx,
     server,
     url: `http://${config.HOST}:${port}`,

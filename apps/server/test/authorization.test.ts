@@ -4,9 +4,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Role } from '@splitscope/contract';
 import { eq } from 'drizzle-orm';
 import { createApp } from '../src/app';
-import { invitations, jobs } from '../src/db/schema';
+import { boardModelVersions, invitations, jobs } from '../src/db/schema';
 import type { RunningServer } from '../src/server';
-import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
+import { createBoardModel, createCustomer, createJob, DIVIDER_BOARD } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
 import { apiRoutes } from './routes';
 
@@ -16,7 +16,7 @@ const REVIEWERS: Role[] = ['admin', 'lead'];
 const ADMIN: Role[] = ['admin'];
 
 /** `kind` names which row an `:id` stands for; `public` routes answer without a session. */
-type Kind = 'job' | 'customer' | 'board' | 'user' | 'upload' | 'quote' | 'invoice' | 'invitation';
+type Kind = 'job' | 'customer' | 'board' | 'drawnVersion' | 'user' | 'upload' | 'quote' | 'invoice' | 'invitation';
 interface Entry {
   method: string;
   path: string;
@@ -66,7 +66,8 @@ const TABLE: Entry[] = [
   { method: 'GET', path: '/api/boards', roles: ALL },
   { method: 'POST', path: '/api/boards', roles: ADMIN },
   { method: 'GET', path: '/api/boards/:id', roles: ALL, kind: 'board' },
-  { method: 'PATCH', path: '/api/boards/:id', roles: REVIEWERS, kind: 'board', body: () => ({ document: { name: 'Matrix edit' } }) },
+  { method: 'PATCH', path: '/api/boards/:id', roles: REVIEWERS, kind: 'board', body: () => ({ document: DIVIDER_BOARD }) },
+  { method: 'GET', path: '/api/boards/versions/:id/picture', roles: ALL, kind: 'drawnVersion' },
   { method: 'GET', path: '/api/boards/:id/versions', roles: ALL, kind: 'board' },
   { method: 'GET', path: '/api/fault-codes', roles: ALL },
   { method: 'POST', path: '/api/fault-codes', roles: ADMIN },
@@ -154,6 +155,8 @@ beforeAll(async () => {
       job: job.id,
       customer: customer.id,
       board: board.id,
+      // A composed demo board's version: its drawing is served.
+      drawnVersion: (await db.select({ id: boardModelVersions.id }).from(boardModelVersions).where(eq(boardModelVersions.boardId, side === 'own' ? 'board-demo-ofd-220' : 'board-other-ofd-220')))[0]!.id,
       upload,
       user: side === 'own' ? 'user-trainee' : 'user-other-tech',
       quote: String(quote.body.id),

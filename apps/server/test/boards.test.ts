@@ -36,7 +36,11 @@ describe('demo board library', () => {
     const r = await tech.get('/api/boards/board-demo-idf-310');
     expect(r.status).toBe(200);
     const b = r.body as unknown as BoardDetail;
-    expect(String(b.document.picture && (b.document.picture as { svg: string }).svg)).toContain('>R405<');
+    // The drawn picture is served from the composition, not carried in the document.
+    expect(JSON.stringify(b.document)).not.toContain('<svg');
+    const picture = await tech.get(b.pictureUrl!);
+    expect(picture.headers.get('content-type')).toMatch(/^image\/svg\+xml/);
+    expect(String(picture.body)).toContain('>R405<');
     expect(b.faultCodes.map((f) => f.code)).toEqual(expect.arrayContaining(['E1', 'E2', 'E3']));
     // 15 V rail: the MC7815C output band (onsemi MC7800 series datasheet), its source on the row.
     const v15 = rowOf(b.expectedReadings, 'v15', 'dcv');

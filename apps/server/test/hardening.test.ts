@@ -69,6 +69,15 @@ describe('the webhook with the published secret (hole 1)', () => {
     const r = await fetch(`${server.url}/api/webhooks/payments`, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': signature }, body: payload });
     expect(r.status).toBe(400);
   });
+
+  it('answers a correctly signed body that is not an event with 400, storing nothing', async () => {
+    const signer = new Stripe('sk_test_local_fake');
+    for (const payload of ['{}', '{"id":"evt_x","type":"checkout.session.completed","created":1}', '{"type":"x","created":1,"data":{"object":{}}}']) {
+      const signature = signer.webhooks.generateTestHeaderString({ payload, secret: server.ctx.config.PAYMENTS_WEBHOOK_SECRET });
+      const r = await fetch(`${server.url}/api/webhooks/payments`, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': signature }, body: payload });
+      expect(r.status, payload).toBe(400);
+    }
+  });
 });
 
 describe('headers and host names (hole 8)', () => {

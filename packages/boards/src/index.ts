@@ -8,7 +8,7 @@ export * from './sections/templates';
 export * from './sections/bands';
 export { ntcResistance } from './sections/sensing';
 export { MODELS, SUBCKTS, OPTO_SUBCKT, OPTO_CTR, OPTO_LED_IS, regulatorSubckt } from './sections/library';
-export { composeBoard, ComposeError } from './compose/compose';
+export { composeBoard, drawBoard, ComposeError } from './compose/compose';
 export type * from './compose/types';
 export { renderBoardSvg, pinPosition, connectorPinPosition } from './compose/render';
 export { spiceParts, spiceValue } from './compose/spice-section';

@@ -1,7 +1,7 @@
 /** Deterministic random netlists for the benchmark: the same netlists on every run. */
 
 /** Deterministic PRNG (mulberry32). */
-function rng(seed: number): () => number {
+export function rng(seed: number): () => number {
   let a = seed >>> 0;
   return () => {
     a = (a + 0x6d2b79f5) >>> 0;

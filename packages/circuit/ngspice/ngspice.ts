@@ -62,7 +62,7 @@ export function ngspiceOp(deck: string): SpiceOp {
     const file = join(dir, 'deck.cir');
     writeFileSync(file, withOpControl(deck));
     const r = spawnSync('ngspice', ['-b', file], { encoding: 'utf8' });
-    if (r.status !== 0) throw new Error(`ngspice failed: ${r.stderr}`);
+    if (r.status !== 0 && !/No\. of Data Rows/.test(r.stdout)) throw new Error(`ngspice failed: ${r.stderr}`);
     return parsePrintAll(r.stdout);
   } finally {
     rmSync(dir, { recursive: true, force: true });

@@ -14,7 +14,11 @@ export interface DiodeModel {
   ibv: number;
 }
 
-/** BJT model parameters: Ebers–Moll transport model (Gummel–Poon at its defaults). */
+/**
+ * BJT model parameters: the DC part of the Gummel–Poon model as ngspice implements it (ngspice manual, "BJT
+ * models"; source src/spicelib/devices/bjt/bjtload.c; Massobrio & Antognetti, "Semiconductor Device Modeling with
+ * SPICE", 2nd ed., ch. 2).
+ */
 export interface BjtModel {
   type: 'npn' | 'pnp';
   is: number;
@@ -26,6 +30,25 @@ export interface BjtModel {
   rb: number;
   rc: number;
   re: number;
+  /** Forward / reverse Early voltages, V (Infinity = none). */
+  vaf: number;
+  var: number;
+  /** Forward / reverse high-injection knee currents, A (Infinity = none). */
+  ikf: number;
+  ikr: number;
+  /** Exponent of the high-injection roll-off (ngspice NKF, default 0.5). */
+  nkf: number;
+  /** B–E leakage saturation current and emission coefficient (default 0, 1.5). */
+  ise: number;
+  ne: number;
+  /** B–C leakage saturation current and emission coefficient (default 0, 2). */
+  isc: number;
+  nc: number;
+  /** Minimum base resistance at high current, ohm (NaN = RB, the default) and the current where RB falls halfway, A (Infinity = none). */
+  rbm: number;
+  irb: number;
+  /** Substrate connection (ngspice SUBS): 1 vertical, from the collector (NPN default); −1 lateral, from the base (PNP default). */
+  subs: 1 | -1;
 }
 
 interface Base {
@@ -72,6 +95,8 @@ export interface BjtElement extends Base {
   kind: 'Q';
   /** [collector, base, emitter] */
   nodes: [string, string, string];
+  /** Substrate node (default the reference): only a GMIN reaches it at DC (ngspice's substrate junction, ISS = 0). */
+  substrate?: string;
   model: BjtModel;
   area: number;
 }
@@ -165,7 +190,28 @@ export function isource(name: string, from: string, to: string, amps: number, pa
 }
 
 export const DEFAULT_DIODE: DiodeModel = { is: 1e-14, n: 1, rs: 0, bv: Infinity, ibv: 1e-3 };
-export const DEFAULT_BJT: Omit<BjtModel, 'type'> = { is: 1e-16, bf: 100, br: 1, nf: 1, nr: 1, rb: 0, rc: 0, re: 0 };
+export const DEFAULT_BJT: Omit<BjtModel, 'type'> = {
+  is: 1e-16,
+  bf: 100,
+  br: 1,
+  nf: 1,
+  nr: 1,
+  rb: 0,
+  rc: 0,
+  re: 0,
+  vaf: Infinity,
+  var: Infinity,
+  ikf: Infinity,
+  ikr: Infinity,
+  nkf: 0.5,
+  ise: 0,
+  ne: 1.5,
+  isc: 0,
+  nc: 2,
+  rbm: NaN,
+  irb: Infinity,
+  subs: 1,
+};
 
 /** Builds a flat diode with the given model parameters (SPICE defaults for the rest). */
 export function diode(name: string, anode: string, cathode: string, model: Partial<DiodeModel> = {}, part = name.split('.')[0] ?? name): DiodeElement {

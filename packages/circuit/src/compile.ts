@@ -29,6 +29,12 @@ export interface Work {
   /** Dense pivoting fall-back, allocated the first time a sparse pivot is too weak. */
   dense?: { a: Float64Array; ws: LuWorkspace };
   denseFallbacks: number;
+  /** Scratch of iterative refinement (newton.ts), allocated when first needed. */
+  res?: Float64Array;
+  dx?: Float64Array;
+  /** Per unknown: |correction| of the last refinement, an estimate of the solve's rounding error; set when refined. */
+  floor?: Float64Array;
+  refined?: boolean;
   /** Second sparse pivot order, from the rows the dense fall-back chose (repivot.ts), and how many were built. */
   repivot?: Repivot;
   repivots: number;
@@ -48,6 +54,22 @@ export interface Work {
   qVcrit: Float64Array;
   qVbe: Float64Array;
   qVbc: Float64Array;
+  /** Gummel–Poon values (devices.ts gummelPoon): leakage IS·area and N·VT, 1/VAF, 1/VAR, area/IKF, area/IKR, NKF. */
+  qIse: Float64Array;
+  qVte: Float64Array;
+  qIsc: Float64Array;
+  qVtc: Float64Array;
+  qInvVaf: Float64Array;
+  qInvVar: Float64Array;
+  qOik: Float64Array;
+  qOikr: Float64Array;
+  qNkf: Float64Array;
+  /** Base resistance: RBM/area, (RB − RBM)/area, IRB·area; the slot of a modulated RB (−1: linear) and its 1/RB part. */
+  qRbpr: Float64Array;
+  qRbpi: Float64Array;
+  qXjrb: Float64Array;
+  qGxSlot: Int32Array;
+  qGx0: Float64Array;
 }
 
 export interface Topology {
@@ -77,6 +99,9 @@ export interface Topology {
   /** Diagonal positions of island nodes (GISLAND) and of every node (gmin stepping's shunt). */
   islandPos: Int32Array;
   shuntPos: Int32Array;
+  /** Per node (as shuntPos): the row of its KCL and its solution index (pseudo-transient companion sources). */
+  shuntRow: Int32Array;
+  shuntX: Int32Array;
   /** Diodes: element index, 4 positions (aa, kk, ak, ka), 2 rows (a, k), 2 solution indices (a, k). */
   dEl: Int32Array;
   dPos: Int32Array;
@@ -249,6 +274,8 @@ export function compileTopology(elements: readonly Element[], extraNodes: readon
         row(c);
         row(b);
         row(em);
+        // GMIN across the substrate junction (ngspice bjtload.c), from the collector (vertical) or the base (lateral)
+        cond(e.model.subs === -1 ? b : c, node(e.substrate ?? REFERENCE));
         break;
       }
     }
@@ -319,6 +346,8 @@ export function compileTopology(elements: readonly Element[], extraNodes: readon
     qX[3 * i + 2] = colPos(sb[s0 + 4] as number);
   });
   const shuntPos = slots.slice(shuntSlot, shuntSlot + nodeCount);
+  const shuntRow = Int32Array.from({ length: nodeCount }, (_, i) => rowPos(i));
+  const shuntX = Int32Array.from({ length: nodeCount }, (_, i) => colPos(i));
   const islandPos = Int32Array.from(islands(elements, node, outerNodes, nodeCount), (i) => shuntPos[i] as number);
 
   const solutionIndex = new Map<string, number>();
@@ -353,6 +382,8 @@ export function compileTopology(elements: readonly Element[], extraNodes: readon
     xOf,
     islandPos,
     shuntPos,
+    shuntRow,
+    shuntX,
     dEl: Int32Array.from(dEl),
     dPos,
     dRow,
@@ -387,6 +418,20 @@ export function compileTopology(elements: readonly Element[], extraNodes: readon
       qVcrit: f(nq),
       qVbe: f(nq),
       qVbc: f(nq),
+      qIse: f(nq),
+      qVte: f(nq),
+      qIsc: f(nq),
+      qVtc: f(nq),
+      qInvVaf: f(nq),
+      qInvVar: f(nq),
+      qOik: f(nq),
+      qOikr: f(nq),
+      qNkf: f(nq),
+      qRbpr: f(nq),
+      qRbpi: f(nq),
+      qXjrb: f(nq),
+      qGxSlot: new Int32Array(nq),
+      qGx0: f(nq),
     },
   };
 }

@@ -77,6 +77,96 @@ export function junction(v: number, is: number, vte: number, xbv: number): void 
   }
 }
 
+/** Result of `gummelPoon`: terminal currents, their derivatives and the base conductance (module scratch). */
+export const bq = { ic: 0, ib: 0, g11: 0, g12: 0, g21: 0, g22: 0, gx: 0 };
+
+/**
+ * DC Gummel–Poon model of BJT i at junction voltages vbe, vbc (polarity applied), as ngspice bjtload.c computes it
+ * (ngspice manual ch. 8; Massobrio & Antognetti, "Semiconductor Device Modeling with SPICE", 2nd ed., §2.4):
+ *   ideal currents cbe = IS(e^{vbe/NF·Vt} − 1), cbc = IS(e^{vbc/NR·Vt} − 1); leakage cben = ISE(e^{vbe/NE·Vt} − 1),
+ *   cbcn = ISC(e^{vbc/NC·Vt} − 1), each with GMIN in parallel;
+ *   base charge qb = q1 (1 + (1 + 4 q2)^NKF) / 2, q1 = 1 / (1 − vbc/VAF − vbe/VAR), q2 = cbe/IKF + cbc/IKR;
+ *   ic = (cbe − cbc)/qb − cbc/BR − cbcn;  ib = cbe/BF + cben + cbc/BR + cbcn;
+ *   base resistance RBM + (RB − RBM)/qb, or with IRB the tan(z) form of the manual.
+ * Writes bq: ic, ib and g11 = ∂ic/∂vbe, g12 = ∂ic/∂vbc, g21 = ∂ib/∂vbe, g22 = ∂ib/∂vbc, gx = 1/rb (0 without RB).
+ */
+export function gummelPoon(w: Work, i: number, vbe: number, vbc: number): void {
+  junction(vbe, w.qIs[i] as number, w.qVtf[i] as number, Infinity);
+  const cbe = jv.i;
+  const gbe = jv.g;
+  junction(vbc, w.qIs[i] as number, w.qVtr[i] as number, Infinity);
+  const cbc = jv.i;
+  const gbc = jv.g;
+  let cben = GMIN * vbe;
+  let gben = GMIN;
+  const ise = w.qIse[i] as number;
+  if (ise > 0) {
+    junction(vbe, ise, w.qVte[i] as number, Infinity);
+    cben += jv.i;
+    gben += jv.g;
+  }
+  let cbcn = GMIN * vbc;
+  let gbcn = GMIN;
+  const isc = w.qIsc[i] as number;
+  if (isc > 0) {
+    junction(vbc, isc, w.qVtc[i] as number, Infinity);
+    cbcn += jv.i;
+    gbcn += jv.g;
+  }
+  const invVaf = w.qInvVaf[i] as number;
+  const invVar = w.qInvVar[i] as number;
+  const oik = w.qOik[i] as number;
+  const oikr = w.qOikr[i] as number;
+  const q1 = 1 / (1 - invVaf * vbc - invVar * vbe);
+  let qb: number;
+  let dqbdve: number;
+  let dqbdvc: number;
+  if (oik === 0 && oikr === 0) {
+    qb = q1;
+    dqbdve = q1 * qb * invVar;
+    dqbdvc = q1 * qb * invVaf;
+  } else {
+    const nkf = w.qNkf[i] as number;
+    const q2 = oik * cbe + oikr * cbc;
+    const arg = Math.max(0, 1 + 4 * q2);
+    let sqarg = 1;
+    if (arg !== 0) sqarg = nkf === 0.5 ? Math.sqrt(arg) : Math.pow(arg, nkf);
+    qb = (q1 * (1 + sqarg)) / 2;
+    if (nkf === 0.5) {
+      dqbdve = q1 * (qb * invVar + (oik * gbe) / sqarg);
+      dqbdvc = q1 * (qb * invVaf + (oikr * gbc) / sqarg);
+    } else {
+      dqbdve = q1 * (qb * invVar + (oik * gbe * 2 * sqarg * nkf) / arg);
+      dqbdvc = q1 * (qb * invVaf + (oikr * gbc * 2 * sqarg * nkf) / arg);
+    }
+  }
+  const br = w.qBr[i] as number;
+  const bf = w.qBf[i] as number;
+  const cc = (cbe - cbc) / qb - cbc / br - cbcn;
+  const cb = cbe / bf + cben + cbc / br + cbcn;
+  const go = (gbc + ((cbe - cbc) * dqbdvc) / qb) / qb;
+  const gm = (gbe - ((cbe - cbc) * dqbdve) / qb) / qb - go;
+  const gpi = gbe / bf + gben;
+  const gmu = gbc / br + gbcn;
+  bq.ic = cc;
+  bq.ib = cb;
+  bq.g11 = gm + go;
+  bq.g12 = -(go + gmu);
+  bq.g21 = gpi;
+  bq.g22 = gmu;
+  const rbpr = w.qRbpr[i] as number;
+  const rbpi = w.qRbpi[i] as number;
+  let rx = rbpr + rbpi / qb;
+  const xjrb = w.qXjrb[i] as number;
+  if (xjrb !== 0) {
+    let arg1 = Math.max(cb / xjrb, 1e-9);
+    const arg2 = (-1 + Math.sqrt(1 + 14.59025 * arg1)) / 2.4317 / Math.sqrt(arg1);
+    arg1 = Math.tan(arg2);
+    rx = rbpr + (3 * rbpi * (arg1 - arg2)) / arg2 / arg1 / arg1;
+  }
+  bq.gx = rx !== 0 ? 1 / rx : 0;
+}
+
 /**
  * Adds the companion model of every junction to w.asm / w.b, at the junction voltages of the iterate w.x after
  * pnjlim (at the stored start voltages on the first iteration). Kept in this module with the functions it calls in
@@ -124,21 +214,8 @@ export function stampJunctions(top: Topology, w: Work, first: boolean): boolean 
     }
     w.qVbe[i] = vbe;
     w.qVbc[i] = vbc;
-    const is = w.qIs[i] as number;
-    const br = w.qBr[i] as number;
-    const bf = w.qBf[i] as number;
-    junction(vbe, is, w.qVtf[i] as number, Infinity);
-    const cbe = jv.i;
-    const gbe = jv.g;
-    junction(vbc, is, w.qVtr[i] as number, Infinity);
-    const cbc = jv.i;
-    const gbc = jv.g;
-    const ic = cbe - cbc - cbc / br - GMIN * vbc;
-    const ib = cbe / bf + GMIN * vbe + cbc / br + GMIN * vbc;
-    const g11 = gbe;
-    const g12 = -(gbc + gbc / br + GMIN);
-    const g21 = gbe / bf + GMIN;
-    const g22 = gbc / br + GMIN;
+    gummelPoon(w, i, vbe, vbc);
+    const { ic, ib, g11, g12, g21, g22 } = bq;
     const ceq = pol * (ic - g11 * vbe - g12 * vbc);
     const beq = pol * (ib - g21 * vbe - g22 * vbc);
     const p = 9 * i;
@@ -154,6 +231,17 @@ export function stampJunctions(top: Topology, w: Work, first: boolean): boolean 
     add(b, qRow[3 * i], -ceq);
     add(b, qRow[3 * i + 1], -beq);
     add(b, qRow[3 * i + 2], ceq + beq);
+    // base resistance modulated by the base charge or the base current: the part above 1/RB, stamped at the value
+    // of this iterate without its derivative (as ngspice bjtload.c does)
+    const gs = w.qGxSlot[i] as number;
+    if (gs >= 0) {
+      const dg = bq.gx - (w.qGx0[i] as number);
+      const slots = top.slots;
+      add(a, slots[gs], dg);
+      add(a, slots[gs + 1], dg);
+      add(a, slots[gs + 2], -dg);
+      add(a, slots[gs + 3], -dg);
+    }
   }
   return limit.hit;
 }

@@ -1,6 +1,7 @@
 import { create, all, type EvalFunction } from 'mathjs';
-import type { BjtModel, Circuit, DiodeModel, Element } from './circuit';
-import { DEFAULT_BJT, DEFAULT_DIODE, normNode, REFERENCE } from './circuit';
+import type { Circuit, Element } from './circuit';
+import { normNode, REFERENCE } from './circuit';
+import { bjtModel, diodeModel } from './models';
 import { NetlistError, type ModelDef, type Netlist, type ParamDef, type RawElement, type RawValue, type SubcktDef } from './netlist';
 import { nodesWithoutDcPath } from './topology';
 import { rewriteSuffixedNumbers } from './values';
@@ -95,29 +96,25 @@ function lookupSubckt(scope: Scope, name: string): SubcktDef | undefined {
   return undefined;
 }
 
-function diodeModel(m: ModelDef, params: Map<string, number>): DiodeModel {
-  const out: DiodeModel = { ...DEFAULT_DIODE };
-  for (const [k, v] of Object.entries(m.params)) {
-    const x = value(v, params, m.line, `.model ${m.name} ${k}`);
-    if (k === 'is' || k === 'n' || k === 'rs' || k === 'bv' || k === 'ibv') out[k] = x;
-  }
-  if (!(out.is > 0)) throw new NetlistError(m.line, `.model ${m.name}: IS must be > 0`);
-  if (!(out.n > 0)) throw new NetlistError(m.line, `.model ${m.name}: N must be > 0`);
-  if (out.rs < 0) throw new NetlistError(m.line, `.model ${m.name}: RS must be >= 0`);
-  if (!(out.bv > 0)) throw new NetlistError(m.line, `.model ${m.name}: BV must be > 0`);
-  return out;
+/** A model card's parameters evaluated in the instance's scope. */
+function modelEval(m: ModelDef, params: Map<string, number>): (key: string) => number {
+  return (k) => value(m.params[k] as RawValue, params, m.line, `.model ${m.name} ${k}`);
 }
 
-function bjtModel(m: ModelDef, params: Map<string, number>): BjtModel {
-  const out: BjtModel = { type: m.type === 'pnp' ? 'pnp' : 'npn', ...DEFAULT_BJT };
-  for (const [k, v] of Object.entries(m.params)) {
-    const x = value(v, params, m.line, `.model ${m.name} ${k}`);
-    if (k === 'is' || k === 'bf' || k === 'br' || k === 'nf' || k === 'nr' || k === 'rb' || k === 'rc' || k === 're') out[k] = x;
-  }
-  for (const k of ['is', 'bf', 'br', 'nf', 'nr'] as const) {
-    if (!(out[k] > 0)) throw new NetlistError(m.line, `.model ${m.name}: ${k.toUpperCase()} must be > 0`);
-  }
-  return out;
+/**
+ * Value at time 0 of a source's time function (ngspice vsrcload.c, the .op value when no DC value is given):
+ * SIN(VO VA FREQ TD THETA PHASE) → VO + VA·sin(PHASE°); PULSE(V1 …), EXP(V1 …) → V1; PWL(T1 V1 …) → V1;
+ * SFFM(VO VA …) → VO.
+ */
+function waveAtZero(w: NonNullable<RawElement['wave']>, p: Map<string, number>, raw: RawElement): number {
+  const arg = (i: number) => {
+    const a = w.args[i];
+    return a === undefined ? 0 : value(a, p, raw.line, `${raw.name} ${w.fn.toUpperCase()}`);
+  };
+  if (w.args.length === 0) throw new NetlistError(raw.line, `${raw.name}: ${w.fn.toUpperCase()} needs its arguments`);
+  if (w.fn === 'sin') return arg(0) + arg(1) * Math.sin((arg(5) * Math.PI) / 180);
+  if (w.fn === 'pwl') return arg(1);
+  return arg(0);
 }
 
 export interface FlattenOptions {
@@ -171,7 +168,7 @@ export function flatten(netlist: Netlist, params?: Record<string, number>, optio
           break;
         case 'V':
         case 'I':
-          elements.push({ kind: raw.letter, name, part, nodes: [n[0] as string, n[1] as string], value: val() });
+          elements.push({ kind: raw.letter, name, part, nodes: [n[0] as string, n[1] as string], value: raw.wave ? waveAtZero(raw.wave, p, raw) : val() });
           if (raw.letter === 'V') vNames.add(name.toLowerCase());
           break;
         case 'E':
@@ -191,19 +188,21 @@ export function flatten(netlist: Netlist, params?: Record<string, number>, optio
           if (!m) throw new NetlistError(raw.line, `${raw.name}: model "${raw.model}" is not defined`);
           if (m.type !== 'd') throw new NetlistError(raw.line, `${raw.name}: model "${raw.model}" is ${m.type.toUpperCase()}, a diode needs a D model`);
           const area = val(`${raw.name} area`);
-          elements.push({ kind: 'D', name, part, nodes: [n[0] as string, n[1] as string], model: diodeModel(m, p), area });
+          elements.push({ kind: 'D', name, part, nodes: [n[0] as string, n[1] as string], model: diodeModel(m, modelEval(m, p)), area });
           break;
         }
         case 'Q': {
           const words = (raw.model as string).split(' ');
           let modelName: string;
           let areaTok: string | undefined;
+          let substrate: string | undefined;
           if (words.length === 1) modelName = words[0] as string;
           else if (lookupModel(scope, words[0] as string)) {
             modelName = words[0] as string;
             areaTok = words[1];
           } else {
-            modelName = words[1] as string; // words[0] is the substrate node (no effect at DC)
+            modelName = words[1] as string;
+            substrate = node(words[0] as string); // only a GMIN reaches it at DC
             areaTok = words[2];
           }
           const m = lookupModel(scope, modelName);
@@ -215,7 +214,9 @@ export function flatten(netlist: Netlist, params?: Record<string, number>, optio
             if (!(a > 0)) throw new NetlistError(raw.line, `${raw.name}: bad area "${areaTok}"`);
             area = a;
           }
-          elements.push({ kind: 'Q', name, part, nodes: [n[0], n[1], n[2]] as [string, string, string], model: bjtModel(m, p), area });
+          const q: Element = { kind: 'Q', name, part, nodes: [n[0], n[1], n[2]] as [string, string, string], model: bjtModel(m, modelEval(m, p)), area };
+          if (substrate !== undefined && substrate !== REFERENCE) q.substrate = substrate;
+          elements.push(q);
           break;
         }
         case 'X': {

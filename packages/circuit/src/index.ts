@@ -36,7 +36,7 @@ export type {
   DiodeModel,
   BjtModel,
 } from './circuit';
-export { solveOp, solveNodes, NodeSolution, VT, GMIN, GISLAND } from './solver';
+export { solveOp, solveNodes, NodeSolution, SolveError, VT, GMIN, GISLAND } from './solver';
 export type { OpResult, SolveOptions, SolveMethod } from './solver';
 export { measure, measureDetailed, read, applyState, stateOf, refusal, meterProfile, DEFAULT_METER, MeasurementError } from './meter';
 export type { Probe, BoardState, Reading, MeterProfile, MeterMode, MeasureOptions, MeasuredReading } from './meter';

@@ -162,10 +162,9 @@ class Solved implements MeasuredReading {
 
 const solved = (reading: Reading, s: NodeSolution): MeasuredReading => new Solved(reading, s);
 
-function withMeter(circuit: Circuit, extra: Element[], red: string, black: string, solve: MeasureOptions['solve'], what: string): NodeSolution {
-  const s = solveNodes({ ...circuit, elements: [...circuit.elements, ...extra] }, { ...solve, extraNodes: [red, black] });
-  if (typeof s === 'string') throw new MeasurementError(`${what} does not solve: ${s}`);
-  return s;
+/** Solves the circuit with the meter's elements attached; SolveError (never a reading) when it cannot be solved. */
+function withMeter(circuit: Circuit, extra: Element[], red: string, black: string, solve: MeasureOptions['solve']): NodeSolution {
+  return solveNodes({ ...circuit, elements: [...circuit.elements, ...extra] }, { ...solve, extraNodes: [red, black] });
 }
 
 function driven(circuit: Circuit, red: string, black: string, voc: number, rs: number, solve: MeasureOptions['solve']): { v: number; i: number; s: NodeSolution } {
@@ -173,7 +172,7 @@ function driven(circuit: Circuit, red: string, black: string, voc: number, rs: n
     { kind: 'V', name: 'meter#v', part: 'meter#', nodes: [METER_NODE, black], value: voc },
     { kind: 'R', name: 'meter#r', part: 'meter#', nodes: [METER_NODE, red], value: rs },
   ];
-  const s = withMeter(circuit, extra, red, black, solve, 'the circuit with the meter attached');
+  const s = withMeter(circuit, extra, red, black, solve);
   const vr = s.voltage(red);
   return { v: vr - s.voltage(black), i: (s.voltage(METER_NODE) - vr) / rs, s };
 }
@@ -203,7 +202,7 @@ export function measureDetailed(circuit: Circuit, probe: Probe, meter: MeterProf
       if (red === black) return { reading: { value: 0, unit: 'V' } };
       const rin = meter.dcv.inputResistance;
       const extra: Element[] = Number.isFinite(rin) && rin > 0 ? [{ kind: 'R', name: 'meter#rin', part: 'meter#', nodes: [red, black], value: rin }] : [];
-      const s = withMeter(circuit, extra, red, black, options.solve, 'the circuit');
+      const s = withMeter(circuit, extra, red, black, options.solve);
       return solved({ value: s.voltage(red) - s.voltage(black), unit: 'V' }, s);
     }
     case 'ohm': {

@@ -127,9 +127,9 @@ describe('netlist errors name the line and say what is wrong', () => {
   it('undefined parameter in an expression', () => {
     expect(err('t\nV1 a 0 1\nR1 a 0 {RX*2}').message).toMatch(/^line 3: R1: cannot evaluate \{RX\*2\}/);
   });
-  it('unsupported command and transient sources', () => {
-    expect(err('t\nV1 a 0 1\n.tran 1u 1m').message).toMatch(/^line 3: unsupported command ".tran"/);
-    expect(err('t\nV1 a 0 PULSE 0 1 0').message).toMatch(/^line 2: V1: only DC sources are supported/);
+  it('unsupported command and source function', () => {
+    expect(err('t\nV1 a 0 1\n.include other.lib').message).toMatch(/^line 3: unsupported command ".include"/);
+    expect(err('t\nV1 a 0 AM 1 0 1k 10k').message).toMatch(/^line 2: V1: source function "AM" is not supported/);
   });
   it('subcircuit problems', () => {
     expect(err('t\nV1 a 0 1\nX1 a 0 nosub').message).toBe('line 3: X1: subcircuit "nosub" is not defined');

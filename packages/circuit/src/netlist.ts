@@ -29,6 +29,12 @@ export interface RawElement {
   control?: string;
   /** X instance parameters (lower-case names). */
   params?: Record<string, RawValue>;
+  /**
+   * V and I with a time function (SIN, PULSE, PWL, EXP, SFFM) and no DC value: its name and arguments. The
+   * operating point takes the function's value at time 0, as ngspice's .op does (vsrcload.c / isrcload.c: the DC
+   * value when given, else the transient function at time 0).
+   */
+  wave?: { fn: string; args: RawValue[] };
   line: number;
 }
 
@@ -197,6 +203,9 @@ function splitAssignment(tok: string, line: number, what: string): [string, RawV
   return [key, rawValue(val, line, `${what} ${key}`)];
 }
 
+/** Time functions of independent sources whose value at time 0 is the operating-point value (ngspice manual 4.1). */
+const WAVES = new Set(['sin', 'pulse', 'pwl', 'exp', 'sffm']);
+
 const USAGE: Record<ElementLetter, string> = {
   R: 'needs 2 nodes and a value',
   C: 'needs 2 nodes and a value',
@@ -254,6 +263,7 @@ function parseElement(card: Card): RawElement {
       const nodes = nodesOf(2);
       const args = rest.slice(2);
       let value: RawValue = { kind: 'number', value: 0 };
+      let wave: RawElement['wave'];
       let i = 0;
       let seen = false;
       while (i < args.length) {
@@ -268,18 +278,28 @@ function parseElement(card: Card): RawElement {
           // AC magnitude/phase do not affect the DC operating point; skip up to two numbers.
           i++;
           for (let k = 0; k < 2 && i < args.length && parseSpiceNumber(args[i] as string) !== undefined; k++) i++;
+        } else if (WAVES.has(t)) {
+          i++;
+          const fargs: RawValue[] = [];
+          for (; i < args.length; i++) {
+            const a = args[i] as string;
+            if (a.includes('=')) continue; // PWL r= / td= options: the value at time 0 is the first point's either way
+            if (parseSpiceNumber(a) === undefined && !a.startsWith('{')) break;
+            fargs.push(rawValue(a, line, `${name} ${t.toUpperCase()}`));
+          }
+          wave = { fn: t, args: fargs };
         } else if (!seen && (parseSpiceNumber(t) !== undefined || t.startsWith('{') || /^[a-z_]\w*$/.test(t))) {
-          if (/^(pulse|sin|exp|pwl|sffm|am)$/.test(t)) {
-            throw new NetlistError(line, `${name}: only DC sources are supported (found "${args[i]}")`);
+          if (/^[a-z_]\w*$/.test(t) && parseSpiceNumber(t) === undefined && /^(am|trnoise|trrandom|external|distof[12])$/.test(t)) {
+            throw new NetlistError(line, `${name}: source function "${args[i]}" is not supported (DC, SIN, PULSE, PWL, EXP, SFFM)`);
           }
           value = rawValue(args[i] as string, line, name);
           seen = true;
           i++;
         } else {
-          throw new NetlistError(line, `${name}: only DC sources are supported (found "${args[i]}")`);
+          throw new NetlistError(line, `${name}: unexpected "${args[i]}" (DC value, AC, SIN, PULSE, PWL, EXP or SFFM expected)`);
         }
       }
-      return { name, letter, nodes, value, line };
+      return seen || !wave ? { name, letter, nodes, value, line } : { name, letter, nodes, value, wave, line };
     }
     case 'D': {
       const nodes = nodesOf(2);
@@ -368,7 +388,57 @@ function parseParams(tokens: string[], line: number, what: string): ParamDef[] {
   return out;
 }
 
-const IGNORED_DOT = new Set(['.op', '.options', '.option', '.opt', '.title', '.temp']);
+/**
+ * Commands accepted and ignored: analyses and outputs do not change the circuit, and every analysis starts from the
+ * DC operating point this package computes (ngspice manual ch. 15, "Analyses": .ac, .tf, .noise, .tran start from
+ * the .op). `.options` and `.temp` are checked (checkOptions). Anything else is refused naming the command.
+ */
+const IGNORED_DOT = new Set([
+  '.op',
+  '.title',
+  '.tran',
+  '.ac',
+  '.dc',
+  '.tf',
+  '.noise',
+  '.disto',
+  '.sens',
+  '.pz',
+  '.four',
+  '.print',
+  '.plot',
+  '.save',
+  '.probe',
+  '.width',
+  '.meas',
+  '.measure',
+]);
+
+/** Nominal temperature, °C: the only one the models are evaluated at (ngspice default TEMP = TNOM = 27 °C). */
+export const NOMINAL_TEMP = 27;
+
+/**
+ * `.options` / `.temp`: options that change the operating point (TEMP, TNOM other than 27 °C, GMIN other than 1e-12,
+ * RSHUNT/GSHUNT) are refused; tolerances, iteration limits and output options only steer or print and are ignored.
+ */
+function checkOptions(card: Card, first: string): void {
+  const refuse = (what: string) => {
+    throw new NetlistError(card.line, `${card.tokens[0]}: ${what} is not supported (the DC models are evaluated at 27 °C with GMIN 1e-12 S)`);
+  };
+  if (first === '.temp') {
+    const t = parseSpiceNumber(card.tokens[1] ?? '');
+    if (t !== NOMINAL_TEMP) refuse(`temperature ${card.tokens[1] ?? '(none)'}`);
+    return;
+  }
+  for (const tok of card.tokens.slice(1)) {
+    const eq = tok.indexOf('=');
+    const key = (eq < 0 ? tok : tok.slice(0, eq)).toLowerCase();
+    const v = eq < 0 ? undefined : parseSpiceNumber(tok.slice(eq + 1));
+    if ((key === 'temp' || key === 'tnom') && v !== NOMINAL_TEMP) refuse(`${key.toUpperCase()}=${tok.slice(eq + 1)}`);
+    if (key === 'gmin' && v !== 1e-12) refuse(`GMIN=${tok.slice(eq + 1)}`);
+    if (key === 'rshunt' || key === 'gshunt') refuse(key.toUpperCase());
+  }
+}
 
 export interface ParseOptions {
   /**
@@ -393,6 +463,10 @@ export function parseNetlist(text: string, options: ParseOptions = {}): Netlist 
     if (first.startsWith('.')) {
       if (first === '.end') break;
       if (IGNORED_DOT.has(first)) continue;
+      if (first === '.options' || first === '.option' || first === '.opt' || first === '.temp') {
+        checkOptions(card, first);
+        continue;
+      }
       if (first === '.model') {
         const m = parseModel(card);
         scope.models[m.name] = m;
@@ -419,7 +493,7 @@ export function parseNetlist(text: string, options: ParseOptions = {}): Netlist 
         const n = card.tokens[1]?.toLowerCase();
         if (n !== undefined && n !== def.name) throw new NetlistError(card.line, `.ends ${card.tokens[1]} does not match .subckt ${def.name}`);
       } else {
-        throw new NetlistError(card.line, `unsupported command "${card.tokens[0]}" (DC operating point subset only)`);
+        throw new NetlistError(card.line, `unsupported command "${card.tokens[0]}" (DC operating point subset: .model .subckt .ends .param .options .temp .end; analyses and outputs are ignored)`);
       }
       continue;
     }

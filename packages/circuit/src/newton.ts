@@ -17,6 +17,11 @@ export interface AttemptConfig {
   abstol: number;
   /** First iteration sets junctions to their critical voltages (SPICE MODEINITJCT) instead of from x. */
   initJunctions: boolean;
+  /**
+   * Pseudo-transient continuation: with gshunt > 0, the shunt of every node is a backward-Euler capacitor whose
+   * companion source holds the node at this previous solution (index = solution index), instead of pulling it to 0.
+   */
+  ptcRef?: Float64Array;
   /** Called with the assembled compressed Jacobian and right-hand side before each factorisation (benchmark use). */
   capture?: (a: Float64Array, b: Float64Array) => void;
 }
@@ -34,7 +39,12 @@ function assemble(top: Topology, w: Work, cfg: AttemptConfig, first: boolean): b
   a.set(w.base);
   const scale = cfg.srcScale;
   for (let i = 0; i < b.length; i++) b[i] = scale * (rhs0[i] as number);
-  if (cfg.gshunt > 0) for (let i = 0; i < top.shuntPos.length; i++) a[top.shuntPos[i] as number] = (a[top.shuntPos[i] as number] as number) + cfg.gshunt;
+  if (cfg.gshunt > 0) {
+    const g = cfg.gshunt;
+    for (let i = 0; i < top.shuntPos.length; i++) a[top.shuntPos[i] as number] = (a[top.shuntPos[i] as number] as number) + g;
+    const ref = cfg.ptcRef;
+    if (ref) for (let i = 0; i < top.shuntRow.length; i++) b[top.shuntRow[i] as number] = (b[top.shuntRow[i] as number] as number) + g * (ref[top.shuntX[i] as number] as number);
+  }
   return stampJunctions(top, w, first);
 }
 
@@ -62,6 +72,32 @@ function raiseScale(top: Topology, w: Work, pos: Int32Array): void {
   }
 }
 
+/**
+ * One step of iterative refinement (Golub & Van Loan, "Matrix Computations", 4th ed., §3.5.3; Wilkinson 1963):
+ * residual r = b − A·x with the assembled matrix, correction A·d = r with the same factors, x += d. Used near
+ * convergence only. |d| estimates the rounding error of the solve (w.floor): a node tied to the rest of the circuit
+ * by gigaohms keeps a rounding noise larger than SPICE's VNTOL, and a Newton step within that noise is converged.
+ */
+function refineSolution(top: Topology, w: Work, solve: (r: Float64Array, d: Float64Array) => boolean | void): void {
+  const { n, lu } = top;
+  const { posRow, posCol, nnz } = lu;
+  const r = (w.res ??= new Float64Array(n + 1));
+  const d = (w.dx ??= new Float64Array(n + 1));
+  r.set(w.b);
+  const { asm, xn } = w;
+  for (let p = 0; p < nnz; p++) {
+    const i = posRow[p] as number;
+    r[i] = (r[i] as number) - (asm[p] as number) * (xn[posCol[p] as number] as number);
+  }
+  if (solve(r, d) === false) return;
+  const floor = (w.floor ??= new Float64Array(n));
+  for (let i = 0; i < n; i++) {
+    xn[i] = (xn[i] as number) + (d[i] as number);
+    floor[i] = Math.abs(d[i] as number);
+  }
+  w.refined = true;
+}
+
 /** Second pivot orders built per structure before the dense fall-back is left as it is (values that keep moving the pivots). */
 const MAX_REPIVOTS = 4;
 
@@ -69,24 +105,33 @@ const MAX_REPIVOTS = 4;
  * Factors and solves along the compiled order, then the second one; false when both meet a weak pivot. The compiled
  * order always goes first, so a solve it can do gives the same digits whether or not a second order exists.
  */
-function sparseSolve(top: Topology, w: Work): boolean {
+function sparseSolve(top: Topology, w: Work): 0 | 1 | 2 {
   w.fac.set(w.asm);
   if (luProgramFactor(w.fac, top.lu, w.scale)) {
     luProgramSolve(w.fac, top.lu, w.b, w.xn);
-    return true;
+    return 1;
   }
-  return w.repivot !== undefined && repivotSolve(w.repivot, w.asm, w.scale, w.b, w.xn);
+  return w.repivot !== undefined && repivotSolve(w.repivot, w.asm, w.scale, w.b, w.xn) ? 2 : 0;
 }
 
 /**
  * Solves the assembled system into w.xn: sparse along the compiled program or the structure's second order
  * (repivot.ts), densely with pivoting when a pivot is weak in both.
  */
-function linearSolve(top: Topology, w: Work, shunted: boolean): number {
+function linearSolve(top: Topology, w: Work, shunted: boolean, refine: boolean): number {
   const { lu } = top;
   if (shunted) luColumnScale(w.asm, lu, w.scale);
   else columnScale(top, w);
-  if (sparseSolve(top, w)) return -1;
+  const sparse = sparseSolve(top, w);
+  if (sparse > 0) {
+    // w.fac holds the factors of the compiled order; the second order factors again (near convergence only)
+    if (refine && sparse === 1) refineSolution(top, w, (r, d) => luProgramSolve(w.fac, lu, r, d));
+    else if (refine && w.repivot) {
+      const rp = w.repivot;
+      refineSolution(top, w, (r, d) => repivotSolve(rp, w.asm, w.scale, r, d));
+    }
+    return -1;
+  }
   w.denseFallbacks++;
   const n = top.n;
   if (!w.dense) w.dense = { a: new Float64Array(n * n), ws: luWorkspace(n) };
@@ -95,6 +140,7 @@ function linearSolve(top: Topology, w: Work, shunted: boolean): number {
   const sing = luFactor(a, ws);
   if (sing >= 0) return sing;
   luSolve(a, ws, w.b, w.xn);
+  if (refine) refineSolution(top, w, (r, d) => luSolve(a, ws, r, d));
   // the rows chosen here become the structure's second sparse order (a few tries, then dense stays the way)
   if (w.repivots < MAX_REPIVOTS) {
     w.repivots++;
@@ -102,6 +148,12 @@ function linearSolve(top: Topology, w: Work, shunted: boolean): number {
   }
   return -1;
 }
+
+/** SPICE's default voltage tolerances (ngspice manual, .options RELTOL, VNTOL; Nagel 1975 ch. 4): near enough to refine. */
+const LOOSE_RELTOL = 1e-3;
+const LOOSE_VNTOL = 1e-6;
+/** A Newton step within this many times the estimated rounding error of the solve is noise, not progress. */
+const NOISE_FACTOR = 4;
 
 /** Runs Newton–Raphson from w.x (w.x[n] is the reference and stays 0). */
 export function newton(top: Topology, w: Work, cfg: AttemptConfig): AttemptResult {
@@ -120,11 +172,12 @@ export function newton(top: Topology, w: Work, cfg: AttemptConfig): AttemptResul
     w.qVbe[i] = cfg.initJunctions ? (w.qVcrit[i] as number) : pol * (xb - (x[top.qX[3 * i + 2] as number] as number));
     w.qVbc[i] = cfg.initJunctions ? 0 : pol * (xb - (x[top.qX[3 * i] as number] as number));
   }
+  let refine = false;
   for (let iter = 1; iter <= cfg.maxIter; iter++) {
     const first = iter === 1;
     let limited = assemble(top, w, cfg, first);
     if (cfg.capture) cfg.capture(w.asm, w.b);
-    const sing = linearSolve(top, w, cfg.gshunt > 0);
+    const sing = linearSolve(top, w, cfg.gshunt > 0, refine);
     if (sing >= 0) return { ok: false, iterations: iter, singular: sing };
     if (!nonlinear) {
       x.set(xn.subarray(0, n));
@@ -140,18 +193,29 @@ export function newton(top: Topology, w: Work, cfg: AttemptConfig): AttemptResul
         limited = true;
       }
     }
+    // converged: every step within the tolerance (tight by default), widened by NOISE_FACTOR × the rounding error
+    // the refinement estimated, when it ran (a node tied to the rest by gigaohms keeps a rounding noise above the
+    // tolerance, and Newton never settles below it)
     let conv = !limited && !first;
+    let loose = conv;
+    const floor = w.refined ? w.floor : undefined;
+    w.refined = false;
     for (let i = 0; i < n; i++) {
       const xo = x[i] as number;
       const xv = xn[i] as number;
       if (!Number.isFinite(xv)) return { ok: false, iterations: iter };
-      if (conv) {
-        const tol = cfg.reltol * Math.max(Math.abs(xo), Math.abs(xv)) + (isNode[i] ? cfg.vntol : cfg.abstol);
-        if (Math.abs(xv - xo) > tol) conv = false;
+      if (loose) {
+        const d = Math.abs(xv - xo);
+        const big = Math.max(Math.abs(xo), Math.abs(xv));
+        const noise = floor ? NOISE_FACTOR * (floor[i] as number) : 0;
+        if (conv && d > cfg.reltol * big + (isNode[i] ? cfg.vntol : cfg.abstol) + noise) conv = false;
+        if (isNode[i] && d > LOOSE_RELTOL * big + LOOSE_VNTOL) loose = conv = false;
       }
       x[i] = xv;
     }
     if (conv) return { ok: true, iterations: iter };
+    // within SPICE's own tolerance: refine the next solve, which also estimates its rounding error
+    refine = loose;
   }
   return { ok: false, iterations: cfg.maxIter };
 }

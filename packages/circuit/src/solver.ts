@@ -2,7 +2,7 @@ import type { Circuit } from './circuit';
 import type { Topology, Work } from './compile';
 import { stampValues } from './stamp';
 import { topologyOf } from './structure-cache';
-import { GMIN, junction, jv } from './devices';
+import { bq, GMIN, gummelPoon, junction, jv } from './devices';
 import { luProgramToDense, type LuProgram } from './lu';
 import { newton, type AttemptConfig } from './newton';
 import { solveChain, type SolveMethod } from './stepping';
@@ -45,9 +45,41 @@ export interface OpResult {
   x?: Float64Array;
 }
 
-function failed(message: string, iterations = 0): OpResult {
-  return { converged: false, nodes: {}, sources: {}, currents: {}, iterations, message };
+/**
+ * The circuit could not be solved in this state: every strategy of the chain failed (or the matrix is singular).
+ * Thrown by solveNodes and the meter functions (measure, measureDetailed, read) instead of any reading value; not a
+ * MeasurementError, so a caller can tell "this reading has no prediction" from "this reading must not be taken".
+ */
+export class SolveError extends Error {
+  constructor(
+    message: string,
+    /** Newton iterations spent over all strategies. */
+    readonly iterations: number,
+    /** The strategies tried, in order ('newton', 'damped', 'gmin', 'source', 'ptc'). */
+    readonly strategies: readonly SolveMethod[],
+  ) {
+    super(`the model could not be solved in this state: ${message}`);
+    this.name = 'SolveError';
+  }
 }
+
+interface Failed extends OpResult {
+  converged: false;
+  tried: SolveMethod[];
+}
+
+function failed(message: string, iterations = 0, tried: SolveMethod[] = []): Failed {
+  return { converged: false, nodes: {}, sources: {}, currents: {}, iterations, message, tried };
+}
+
+const STRATEGY: Record<SolveMethod, string> = {
+  linear: 'linear solve',
+  newton: 'Newton',
+  damped: 'damped Newton',
+  gmin: 'gmin stepping',
+  source: 'source stepping',
+  ptc: 'pseudo-transient continuation',
+};
 
 function baseConfig(options: SolveOptions, warm: boolean): AttemptConfig {
   return {
@@ -100,7 +132,7 @@ interface Solved {
   method: SolveMethod;
 }
 
-function solveIn(circuit: Circuit, options: SolveOptions): Solved | OpResult {
+function solveIn(circuit: Circuit, options: SolveOptions): Solved | Failed {
   const top = compiled(circuit, options);
   if (typeof top === 'string') return failed(top);
   const w = stampValues(top, circuit.elements);
@@ -109,24 +141,23 @@ function solveIn(circuit: Circuit, options: SolveOptions): Solved | OpResult {
   if (r.singular !== undefined) {
     const what = top.describe[r.singular] as string;
     const hint = what.startsWith('node') ? '(floating node or no DC path?)' : '(a loop of voltage sources or inductors?)';
-    return failed(`singular matrix at ${what} ${hint}`, r.iterations);
+    return failed(`singular matrix at ${what} ${hint}`, r.iterations, r.tried);
   }
   if (!r.ok) {
-    return failed(
-      `no convergence after ${r.iterations} Newton iterations (plain, damped, gmin stepping and source stepping all failed)`,
-      r.iterations,
-    );
+    return failed(`no convergence after ${r.iterations} Newton iterations (${r.tried.map((m) => STRATEGY[m]).join(', ')} all failed)`, r.iterations, r.tried);
   }
   return { top, w, iterations: r.iterations, method: r.method };
 }
 
 /**
- * DC operating point: MNA + Newton–Raphson with pnjlim; damped Newton, gmin stepping and source stepping as
- * fall-backs. The structure is compiled once and cached (see compile.ts); each solve stamps the values anew.
+ * DC operating point: MNA + Newton–Raphson with pnjlim; damped Newton, gmin stepping, source stepping and
+ * pseudo-transient continuation as fall-backs (stepping.ts). A failure is `converged: false` with a message. The structure is compiled once and cached (see compile.ts); each solve stamps the values anew.
  */
 export function solveOp(circuit: Circuit, options: SolveOptions = {}): OpResult {
   const s = solveIn(circuit, options);
-  if ('converged' in s) return s;
+  if ('converged' in s) {
+    return { converged: false, nodes: {}, sources: {}, currents: {}, iterations: s.iterations, message: s.message };
+  }
   return report(s.top, circuit, s.w, s.iterations, s.method);
 }
 
@@ -158,11 +189,11 @@ export class NodeSolution {
 
 /**
  * solveOp for a caller that reads a few node voltages (the meter): the same solve, without building the node,
- * source and current records of every element. Returns the failure message instead when it does not converge.
+ * source and current records of every element. Throws SolveError when it cannot be solved.
  */
-export function solveNodes(circuit: Circuit, options: SolveOptions = {}): NodeSolution | string {
+export function solveNodes(circuit: Circuit, options: SolveOptions = {}): NodeSolution {
   const s = solveIn(circuit, options);
-  if ('converged' in s) return s.message ?? 'no convergence';
+  if ('converged' in s) throw new SolveError(s.message ?? 'no convergence', s.iterations, s.tried);
   return new NodeSolution(s.w.x.slice(0, s.top.n), s.top);
 }
 
@@ -213,14 +244,9 @@ function report(top: Topology, circuit: Circuit, w: Work, iterations: number, me
         const xb = x[top.qX[3 * qi + 1] as number] as number;
         const vbe = pol * (xb - (x[top.qX[3 * qi + 2] as number] as number));
         const vbc = pol * (xb - (x[top.qX[3 * qi] as number] as number));
-        const is = w.qIs[qi] as number;
-        const br = w.qBr[qi] as number;
-        junction(vbe, is, w.qVtf[qi] as number, Infinity);
-        const cbe = jv.i;
-        junction(vbc, is, w.qVtr[qi] as number, Infinity);
-        const cbc = jv.i;
-        const ic = pol * (cbe - cbc - cbc / br - GMIN * vbc);
-        const ib = pol * (cbe / (w.qBf[qi] as number) + GMIN * vbe + cbc / br + GMIN * vbc);
+        gummelPoon(w, qi, vbe, vbc);
+        const ic = pol * bq.ic;
+        const ib = pol * bq.ib;
         currents[e.name] = ic;
         currents[`${e.name}:b`] = ib;
         currents[`${e.name}:e`] = -(ic + ib);

@@ -1,7 +1,7 @@
 /** Per-solve values: the linear stamps, sources and device parameters written into a compiled topology. */
 import type { Element } from './circuit';
 import type { Topology, Work } from './compile';
-import { breakdownVoltage, criticalVoltage, GISLAND, VT } from './devices';
+import { breakdownVoltage, criticalVoltage, GISLAND, GMIN, VT } from './devices';
 import { luColumnScale } from './lu';
 
 /**
@@ -88,10 +88,11 @@ export function stampValues(top: Topology, elements: readonly Element[]): Work {
       }
       case 'Q': {
         const m = e.model;
-        if (m.rc > 0) cond(a, slots, s, e.area / m.rc);
-        if (m.rb > 0) cond(a, slots, s + 4, e.area / m.rb);
-        if (m.re > 0) cond(a, slots, s + 8, e.area / m.re);
-        const is = m.is * e.area;
+        const ar = e.area;
+        if (m.rc > 0) cond(a, slots, s, ar / m.rc);
+        if (m.rb > 0) cond(a, slots, s + 4, ar / m.rb);
+        if (m.re > 0) cond(a, slots, s + 8, ar / m.re);
+        const is = m.is * ar;
         w.qPol[qi] = m.type === 'pnp' ? -1 : 1;
         w.qIs[qi] = is;
         w.qBf[qi] = m.bf;
@@ -99,6 +100,24 @@ export function stampValues(top: Topology, elements: readonly Element[]): Work {
         w.qVtf[qi] = m.nf * VT;
         w.qVtr[qi] = m.nr * VT;
         w.qVcrit[qi] = criticalVoltage(VT, is);
+        // Gummel–Poon terms, area-scaled as ngspice bjtload.c / bjttemp.c
+        w.qIse[qi] = m.ise * ar;
+        w.qVte[qi] = m.ne * VT;
+        w.qIsc[qi] = m.isc * ar;
+        w.qVtc[qi] = m.nc * VT;
+        w.qInvVaf[qi] = 1 / m.vaf;
+        w.qInvVar[qi] = 1 / m.var;
+        w.qOik[qi] = 1 / m.ikf / ar;
+        w.qOikr[qi] = 1 / m.ikr / ar;
+        w.qNkf[qi] = m.nkf;
+        const rbm = Number.isNaN(m.rbm) ? m.rb : m.rbm; // NaN: RBM defaults to RB
+        const modulated = m.rb > 0 && (rbm !== m.rb || Number.isFinite(m.irb));
+        w.qRbpr[qi] = rbm / ar;
+        w.qRbpi[qi] = (m.rb - rbm) / ar;
+        w.qXjrb[qi] = Number.isFinite(m.irb) && m.rb > 0 ? m.irb * ar : 0;
+        w.qGxSlot[qi] = modulated ? s + 4 : -1;
+        w.qGx0[qi] = m.rb > 0 ? ar / m.rb : 0;
+        cond(a, slots, s + 24, GMIN); // substrate junction's GMIN (compile.ts)
         qi++;
         break;
       }

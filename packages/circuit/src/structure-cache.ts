@@ -41,9 +41,10 @@ function structureCodes(elements: readonly Element[], extraNodes: readonly strin
   for (const e of elements) {
     let kind = KINDS.indexOf(e.kind) + 16 * e.nodes.length;
     if (e.kind === 'D' && e.model.rs > 0) kind += 256;
-    if (e.kind === 'Q') kind += 256 * ((e.model.rc > 0 ? 1 : 0) + (e.model.rb > 0 ? 2 : 0) + (e.model.re > 0 ? 4 : 0));
+    if (e.kind === 'Q') kind += 256 * ((e.model.rc > 0 ? 1 : 0) + (e.model.rb > 0 ? 2 : 0) + (e.model.re > 0 ? 4 : 0) + (e.model.subs === -1 ? 8 : 0));
     push(kind);
     for (const nd of e.nodes) push(intern(nd));
+    if (e.kind === 'Q') push(intern(e.substrate ?? '0'));
     if (e.kind === 'V' || e.kind === 'L' || e.kind === 'E' || e.kind === 'H' || kind >= 256) push(intern(e.name));
     if (e.kind === 'F' || e.kind === 'H') push(intern(e.control));
   }

@@ -5,7 +5,7 @@ import { z } from 'zod';
  * `schemaVersion` migrations), read by the web app, computed on by @splitscope/boards and @splitscope/diagnosis.
  * Hot side = referenced to bus negative (SPICE node "0"); cold side = microcontroller ground (e.g. "gnd_c").
  */
-export const BOARD_MODEL_SCHEMA_VERSION = 1;
+export const BOARD_MODEL_SCHEMA_VERSION = 2;
 
 export const boardSideSchema = z.enum(['hot', 'cold']);
 export type BoardSide = z.infer<typeof boardSideSchema>;
@@ -23,15 +23,21 @@ export type BoardPartKind = z.infer<typeof boardPartKindSchema>;
 const id = z.string().min(1).max(64);
 const coord = z.number().finite();
 
-export const boardPictureSchema = z
-  .object({
-    svg: z.string().max(2_000_000).optional(),
-    url: z.string().max(2000).optional(),
-    width: z.number().positive(),
-    height: z.number().positive(),
-    units: z.enum(['mm', 'px']),
-  })
-  .refine((p) => p.svg !== undefined || p.url !== undefined, { message: 'picture needs svg or url' });
+/**
+ * The board's picture. A photo is an upload (PNG or JPEG, stored beside the document and referenced by id, never
+ * inlined); a board composed from templates without a photo is drawn from its composition by the server. Either
+ * way the document stays small: no picture bytes travel inside it.
+ */
+export const boardPictureSchema = z.object({
+  uploadId: id.optional(),
+  width: z.number().positive(),
+  height: z.number().positive(),
+  units: z.enum(['mm', 'px']),
+});
+export type BoardPicture = z.infer<typeof boardPictureSchema>;
+
+/** Fault mode → prior probability, overriding the diagnosis engine's default for the part's kind. */
+export const boardPriorsSchema = z.record(z.string().max(64), z.number().min(0).max(1));
 
 export const boardSectionRefSchema = z.object({
   id,
@@ -64,6 +70,8 @@ export const boardPartSchema = z.object({
   pins: z.array(boardPartPinSchema).default([]),
   /** Extra part parameters, e.g. an opto-coupler's CTR or a motor's pulses per revolution. */
   params: z.record(z.string(), z.union([z.number(), z.string()])).optional(),
+  /** This part's own fault-mode priors, where the shop knows better than the kind's defaults. */
+  priors: boardPriorsSchema.optional(),
 });
 export type BoardPart = z.infer<typeof boardPartSchema>;
 
@@ -134,8 +142,6 @@ export const boardModelSchema = z.object({
   connectors: z.array(boardConnectorSchema).default([]),
   testPoints: z.array(boardTestPointSchema),
   faultCodes: z.array(boardFaultCodeSchema).default([]),
-  /** Per-part prior overrides: designator → fault mode → prior probability. */
-  priors: z.record(z.string(), z.record(z.string(), z.number().min(0).max(1))).default({}),
   motor: boardMotorSchema.optional(),
   cautions: z.array(z.string().max(1000)).default([]),
   /**

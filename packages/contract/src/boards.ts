@@ -1,13 +1,14 @@
 import { z } from 'zod';
+import { boardModelSchema } from './board-model';
 import { counterSchema } from './bounds';
 import { idSchema, isoDateTime, optionalText } from './common';
 import { meterModeSchema, powerStateSchema, readingUnitSchema } from './readings';
 
 /**
- * A board model document (netlist, parts, test points, sections, fault codes). Its full schema is
- * `boardModelSchema` in `board-model.ts`; the server validates documents with it on create and edit.
+ * A board model document (netlist, parts, test points, sections, fault codes): `boardModelSchema` in
+ * `board-model.ts`. Requests are checked against it, and the server's engine adapter takes the parsed model.
  */
-export const boardDocumentSchema = z.record(z.string(), z.unknown());
+export const boardDocumentSchema = boardModelSchema;
 export type BoardDocument = z.infer<typeof boardDocumentSchema>;
 
 /** One row of the expected-readings table computed from the board model's netlist. */
@@ -54,6 +55,8 @@ export type BoardSummary = z.infer<typeof boardSummarySchema>;
 
 export const boardDetailSchema = boardSummarySchema.extend({
   document: boardDocumentSchema,
+  /** Where to GET the board's picture: its photo upload, or the drawing of its composition; null when it has neither. */
+  pictureUrl: z.string().nullable(),
   expectedReadings: z.array(expectedReadingSchema),
   faultCodes: z.array(faultCodeSchema),
 });

@@ -105,7 +105,7 @@ describe('fan-drive case: dead VFAN with a healthy regulator', () => {
     const out = d.update([dead[0]!, { ...dead[1]!, value: 0.35 }, beep[2]!]);
     const top3 = out.candidates.slice(0, 3).map(name).sort();
     expect(top3).toEqual(['C10:short', 'C8:short', 'C9:short']);
-  });
+  }, 300_000);
 
   it('one odd reading does not wipe out the right candidate', () => {
     // A slipped probe: V15 read as 9 V although the regulator is fine.
@@ -113,5 +113,5 @@ describe('fan-drive case: dead VFAN with a healthy regulator', () => {
     const out = d.update(odd);
     const c9 = out.parts.find((p) => p.part === 'C9' && p.mode === 'short');
     expect(c9?.probability ?? 0).toBeGreaterThan(0.5);
-  });
+  }, 300_000);
 });

@@ -114,3 +114,11 @@ describe('indoor board: mains is AC, the bus is hazardous, bulk capacitor open r
     }
   }, 400_000);
 });
+
+describe('lifting the bulk capacitor', () => {
+  it('powered with C1 lifted, the healthy board reads the unsmoothed bus (2/π of the peak), not the peak', () => {
+    const bus = (lifted: string[]) => fan.model.healthyPrediction({ mode: 'dcv', red: 'bus', black: '0', power: 'on', lifted }).value as number;
+    expect(bus([])).toBeGreaterThan(300);
+    expect(bus(['C1'])).toBeCloseTo(bus([]) * (2 / Math.PI), 0);
+  }, 120_000);
+});

@@ -2,6 +2,7 @@
 // write. A row is kept here for a few seconds: sign-out, expiry extension and role changes made by this process
 // update the kept row at once, so only a change made outside it (a second server, psql) waits up to TTL_MS.
 import type { DatabaseSession, DatabaseUser } from 'lucia';
+import { LRUCache } from 'lru-cache';
 
 export const TTL_MS = 5000;
 const LIMIT = 10_000;
@@ -12,7 +13,9 @@ interface Entry {
   at: number;
 }
 
-const entries = new Map<string, Entry>();
+// Least recently used dropped first past LIMIT. The age is checked against `at` here rather than by lru-cache's
+// ttl, so the tests can give the clock.
+const entries = new LRUCache<string, Entry>({ max: LIMIT });
 
 export function cachedSession(id: string, now = Date.now()): [DatabaseSession, DatabaseUser] | undefined {
   const e = entries.get(id);
@@ -26,9 +29,7 @@ export function cachedSession(id: string, now = Date.now()): [DatabaseSession, D
 }
 
 export function keepSession(session: DatabaseSession, user: DatabaseUser, now = Date.now()): void {
-  entries.delete(session.id);
   entries.set(session.id, { session: { ...session }, user: { ...user, attributes: { ...user.attributes } }, at: now });
-  if (entries.size > LIMIT) entries.delete(entries.keys().next().value as string);
 }
 
 export function extendCachedSession(id: string, expiresAt: Date): void {
@@ -42,7 +43,8 @@ export function forgetSession(id: string): void {
 
 /** After a change to the user (role) or all of their sessions, so the next request reads the database. */
 export function forgetUserSessions(userId: string): void {
-  for (const [id, e] of entries) if (e.user.id === userId) entries.delete(id);
+  const ids = [...entries.entries()].filter(([, e]) => e.user.id === userId).map(([id]) => id);
+  for (const id of ids) entries.delete(id);
 }
 
 export function clearSessionCache(): void {

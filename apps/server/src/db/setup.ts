@@ -1,3 +1,6 @@
+import { loadConfig } from '../config';
+import { upgradeBoardDocuments } from '../features/boards/upgrade';
+import { DiskStorage } from '../storage/storage';
 import { createDatabase } from './client';
 import { runMigrations } from './migrate';
 import { seedDemo } from './seed';
@@ -10,6 +13,8 @@ export async function migrateAndSeed(url: string, mode: 'demo' | 'shop' = 'demo'
   const { db, pool } = createDatabase(url, 2);
   try {
     await runMigrations(db);
+    // Stored board documents are brought to the current schema before the seed reads any (see boards/upgrade.ts).
+    await upgradeBoardDocuments({ db, storage: new DiskStorage(loadConfig({ ...process.env, DATABASE_URL: url }).UPLOAD_DIR) });
     if (mode === 'shop') return { created: 0, seeded: false };
     return { ...(await seedDemo(db)), seeded: true };
   } finally {

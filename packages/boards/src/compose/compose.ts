@@ -101,7 +101,20 @@ function composeNetlist(spec: BoardSpec, secs: Resolved[], params: Record<string
 }
 
 /** Composes a board model document and validates it against the contract's board-model schema. */
+/** The board-model document of a spec. Its picture holds only the size: the drawing is `drawBoard(spec)`. */
 export function composeBoard(spec: BoardSpec, templates: Record<string, SectionTemplate> = TEMPLATES): BoardModel {
+  return composeWithDrawing(spec, templates).model;
+}
+
+/**
+ * The picture of a composed board (SVG) drawn from its layout, or the spec's own svg. Kept out of the document so
+ * the document stays small; the server draws it from the stored composition when a picture is asked for.
+ */
+export function drawBoard(spec: BoardSpec, templates: Record<string, SectionTemplate> = TEMPLATES): string {
+  return composeWithDrawing(spec, templates).svg;
+}
+
+function composeWithDrawing(spec: BoardSpec, templates: Record<string, SectionTemplate>): { model: BoardModel; svg: string } {
   const secs = spec.sections.map((s) => resolve(s, templates));
   const ids = new Set<string>();
   for (const s of secs) {
@@ -128,7 +141,8 @@ export function composeBoard(spec: BoardSpec, templates: Record<string, SectionT
       dup.add(p.designator);
       const sides = p.pins.map((pin) => sideOfNet(pin.net, s.side));
       const side: BoardSide = sides.length > 0 && sides.every((x) => x === 'cold') ? 'cold' : s.side;
-      parts.push({ ...p, ...pos.get(p.designator)!, section: s.id, side });
+      const priors = spec.priors?.[p.designator];
+      parts.push({ ...p, ...pos.get(p.designator)!, section: s.id, side, ...(priors ? { priors } : {}) });
     }
   }
   for (const c of spec.testPoints ?? []) {
@@ -156,22 +170,22 @@ export function composeBoard(spec: BoardSpec, templates: Record<string, SectionT
       sections: secs.map((s) => ({ id: s.id, title: s.title, side: s.side, touchesBus: s.touchesBus, region: s.region })),
       parts, connectors: spec.connectors ?? [], testPoints, grounds: ['0', coldGround],
     });
-  return boardModelSchema.parse({
+  const model = boardModelSchema.parse({
     schemaVersion: BOARD_MODEL_SCHEMA_VERSION,
-    // A drawn picture is recomposed from the layout; a given svg stays in `picture`, not twice in the document.
+    // The drawing is made again from the layout when asked for; a given svg is not kept in the document.
     composition: { ...spec, svg: undefined },
     id: spec.id, slug: spec.slug, name: spec.name, family: spec.family, maker: spec.maker,
     ...(spec.description ? { description: spec.description } : {}),
-    picture: { svg, width: spec.width, height: spec.height, units: 'px' },
+    picture: { width: spec.width, height: spec.height, units: 'px' },
     sections, netlist, params, parts,
     nets: [...netInfo.values()],
     connectors: spec.connectors ?? [],
     testPoints,
     faultCodes: spec.faultCodes ?? [],
-    priors: spec.priors ?? {},
     ...(spec.motor ? { motor: spec.motor } : {}),
     cautions: spec.cautions ?? [],
   });
+  return { model, svg };
 }
 
 function chooseTestPoints(

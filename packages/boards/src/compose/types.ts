@@ -89,7 +89,8 @@ export interface BoardSpec {
   faultCodes?: BoardModel['faultCodes'];
   motor?: BoardModel['motor'];
   cautions?: string[];
-  priors?: BoardModel['priors'];
+  /** Fault-mode priors per designator, copied onto the parts. */
+  priors?: Record<string, NonNullable<BoardModel['parts'][number]['priors']>>;
   /** .param overrides for powered readings (FAN_ON, DUTY …). */
   params?: Record<string, number>;
 }

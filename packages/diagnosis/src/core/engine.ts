@@ -31,7 +31,7 @@ import { comboLogWeight, heaviest, logMarginal, logSumExp, scoreCandidate, type 
 import type { CandidateEvidence, Combo, FaultRef, Observation, PartMarginal, Posterior, ScoredCandidate, SystemModel } from './types.js';
 
 export { subFaultKey, PredictionCache } from './cache.js';
-export { modeChoices, okPrior, type ModeChoice } from './choices.js';
+export { modeChoices, okPrior } from './choices.js';
 export { logSumExp } from './scoring.js';
 
 export interface DiagnoseOptions {

@@ -265,7 +265,10 @@ export function applyFaults(circuit: Circuit, faults: readonly SubFault[], parts
       continue;
     }
     if (mode.action === 'source-scale') {
-      // Behavioural bulk-capacitor mode: the bus source (present only when powered) scaled.
+      // Behavioural bulk-capacitor mode: the bus source (present only when powered) scaled. A lifted capacitor's
+      // state already has the unsmoothed bus (model.ts), so its fault changes nothing more.
+      const own = new Set(part.elements);
+      if (!elements.some((e) => own.has(e.name.toLowerCase()))) continue;
       const si = elements.findIndex((e) => e.name.toLowerCase() === mode.target && e.kind === 'V');
       const src = elements[si];
       if (src && src.kind === 'V') elements[si] = { ...src, value: src.value * v };

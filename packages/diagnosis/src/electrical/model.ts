@@ -118,10 +118,23 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ObservedValu
     const k = stateKey(t);
     let c = this.states.get(k);
     if (!c) {
-      c = stateOf(this.circuit, { power: t.power, lifted: t.lifted });
+      c = this.unsmoothed(stateOf(this.circuit, { power: t.power, lifted: t.lifted }), t);
       this.states.set(k, c);
     }
     return c;
+  }
+
+  /**
+   * Powered with every bulk capacitor of the bus lifted, the bus is the unsmoothed rectified sine: its source at
+   * 2/π of the peak, as the bulk capacitor's open mode (kinds.ts BULK_MODES). The DC model alone would keep the
+   * bus at its peak, since a capacitor is open at DC anyway.
+   */
+  private unsmoothed(c: Circuit, t: Pick<ElectricalTest, 'power' | 'lifted'>): Circuit {
+    const src = this.hazards.busSource;
+    if (t.power !== 'on' || !src || t.lifted.length === 0) return c;
+    const bulk = this.parts.filter((p) => p.modes.some((m) => m.action === 'source-scale'));
+    if (bulk.length === 0 || !bulk.every((p) => t.lifted.some((l) => l.toLowerCase() === p.name.toLowerCase()))) return c;
+    return { ...c, elements: c.elements.map((e) => (e.kind === 'V' && e.name.toLowerCase() === src ? { ...e, value: (e.value * 2) / Math.PI } : e)) };
   }
 
   testKey(t: ElectricalTest): string {

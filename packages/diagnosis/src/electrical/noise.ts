@@ -4,7 +4,8 @@
  * Each meter mode is scored in the scale in which its errors are roughly Gaussian:
  * - dcv: volts, σ² = σ_meter² + σ_tol², meter (repeatability) ±(0.5 % of reading + 20 mV) (a handheld DMM's
  *   basic DC accuracy and the offset/pickup of probing a live board; from memory), part tolerance 1.5 % of the
- *   value (rails are set by references and dividers of 1–2 % parts; from memory).
+ *   value (rails are set by references and dividers of 1–2 % parts; from memory); from 60 V up the mains
+ *   tolerance ±10 % as 3σ (MAINS_TOL).
  * - ohm: log space, s = ln(R + r0) with r0 = 0.3 Ω (lead and contact resistance; from memory), so an error is
  *   relative for large values and absolute for a short. σ_meter = 1 %, σ_tol = 8 % for part tolerance plus the
  *   spread of junction paths at the meter's test voltage (from memory).
@@ -93,6 +94,12 @@ export function scaleOf(mode: MeterMode, meter: MeterProfile): Scale {
 
 const LN_R0 = Math.log(R0);
 const SIG_OHM_METER = 0.01;
+/**
+ * From 60 V up (the hazard level, hazard.ts) a DC voltage comes from the mains: its tolerance is the mains'
+ * (230 V ±10 % → 293–358 V on the bus, see the references file [computed]), taken as 3σ.
+ */
+const MAINS_LEVEL = 60;
+const MAINS_TOL = 0.1 / 3;
 const SIG_OHM_TOL = 0.08;
 
 function makeScale(mode: MeterMode, meter: MeterProfile): Scale {
@@ -107,7 +114,7 @@ function makeScale(mode: MeterMode, meter: MeterProfile): Scale {
         s: (x) => x,
         ...split(
           (mu) => 0.005 * Math.abs(mu) + 0.02,
-          (mu) => 0.015 * Math.abs(mu),
+          (mu) => (Math.abs(mu) >= MAINS_LEVEL ? MAINS_TOL : 0.015) * Math.abs(mu),
         ),
         gammaFloor: 0.2,
         overRange: Infinity,

@@ -75,13 +75,6 @@ export function groupConsistent(mode: MeterMode, value: ObservedValue, pred: Pre
   return Math.abs(sc.s(mean.raw) - loc.mu) <= BAND_K * sigma;
 }
 
-/** The value a group stands for in reports: the numeric mean (raw units) or the latest discrete value. */
-export function representative(mode: MeterMode, value: ObservedValue, meter: MeterProfile): ReadingValue {
-  if (!isRepeated(value)) return value;
-  const mean = numericMean(mode, value.repeats, meter);
-  return mean ? mean.raw : (value.repeats[value.repeats.length - 1] as ReadingValue);
-}
-
 const P_OL_BROAD = 0.3;
 
 /** ln density of one reading under the broad alternative (see the header). `vmax`: largest source, volts. */

@@ -5,8 +5,9 @@
 import { expectedReadings, type BandFn, type ExpectedReadingsInput, type ExpectedReadingsTestPoint } from '@splitscope/boards/readings';
 import { refusal } from '@splitscope/circuit';
 import { bandOf, CaseError, createDiagnoser, verdictOf, type CasePart, type Diagnoser, type ReadingValue, type TestPoint } from '@splitscope/diagnosis';
-import type { ExpectedReadingRow, MeterModeName, PowerState, ReadingVerdict } from '@splitscope/contract';
+import { boardModelSchema, type BoardModel, type BoardPartKind, type ExpectedReadingRow, type MeterModeName, type PowerState, type ReadingVerdict } from '@splitscope/contract';
 import { AppError } from '../../http/errors';
+import { LRUCache } from 'lru-cache';
 
 export interface BoardTestPoint extends TestPoint {
   id: string;
@@ -25,71 +26,62 @@ export interface BoardEngine {
   expected?: ExpectedReadingRow[];
 }
 
-const isRecord = (x: unknown): x is Record<string, unknown> => typeof x === 'object' && x !== null && !Array.isArray(x);
-const str = (x: unknown) => (typeof x === 'string' && x.trim() !== '' ? x : undefined);
+/**
+ * Board part kinds → the diagnosis engine's kinds, where the engine has the same kind. The others are left for the
+ * engine to infer from the netlist element: a zener or thermistor is modelled by a diode or resistor element and
+ * fails like one; a film capacitor, a connector, a fuse or an IC has no DC fault model of its own there.
+ */
+const ENGINE_KIND: Partial<Record<BoardPartKind, CasePart['kind']>> = {
+  resistor: 'resistor',
+  'ceramic-capacitor': 'ceramic-capacitor',
+  'electrolytic-capacitor': 'electrolytic-capacitor',
+  diode: 'diode',
+  zener: 'diode',
+  led: 'led',
+  bjt: 'bjt',
+  'opto-coupler': 'opto-coupler',
+  regulator: 'regulator',
+  thermistor: 'resistor',
+};
 
-/** The netlist text of a board model document. */
-export function netlistOf(doc: Record<string, unknown>): string | undefined {
-  return str(doc.netlist) ?? (isRecord(doc.circuit) ? str(doc.circuit.netlist) : undefined);
-}
-
-function partsOf(doc: Record<string, unknown>): Record<string, CasePart> {
+/** The engine's part table: keyed by the netlist element that models each part, with its kind and priors. */
+export function partsOf(model: BoardModel): Record<string, CasePart> {
   const out: Record<string, CasePart> = {};
-  const add = (name: unknown, p: unknown) => {
-    if (typeof name !== 'string' || !isRecord(p)) return;
-    const part: CasePart = {};
-    if (typeof p.kind === 'string') part.kind = p.kind as CasePart['kind'];
-    if (isRecord(p.priors)) part.priors = p.priors as Record<string, number>;
-    if (part.kind || part.priors) out[name] = part;
-  };
-  if (Array.isArray(doc.parts)) {
-    for (const p of doc.parts) if (isRecord(p)) add(p.ref ?? p.name ?? p.id, p);
-  } else if (isRecord(doc.parts)) {
-    for (const [k, p] of Object.entries(doc.parts)) add(k, p);
+  for (const p of model.parts) {
+    if (!p.element) continue;
+    const kind = ENGINE_KIND[p.kind];
+    const part: CasePart = { ...(kind ? { kind } : {}), ...(p.priors ? { priors: p.priors } : {}) };
+    if (part.kind || part.priors) out[p.element] = part;
   }
   return out;
 }
 
-const MODES = new Set<string>(['dcv', 'ohm', 'diode', 'continuity']);
-const POWER = new Set<string>(['on', 'off']);
-const listOf = <T extends string>(x: unknown, allowed: Set<string>): T[] | undefined =>
-  Array.isArray(x) ? (x.filter((v) => typeof v === 'string' && allowed.has(v)) as T[]) : undefined;
-
-function bandOfDoc(x: unknown): ExpectedReadingsTestPoint['band'] {
-  if (!isRecord(x) || typeof x.low !== 'number' || typeof x.high !== 'number' || typeof x.source !== 'string') return undefined;
-  return { low: x.low, high: x.high, source: x.source };
-}
-
-function testPointsOf(doc: Record<string, unknown>): BoardTestPoint[] {
-  if (!Array.isArray(doc.testPoints)) return [];
-  return doc.testPoints.flatMap((tp) => {
-    if (!isRecord(tp) || typeof tp.net !== 'string') return [];
-    const id = str(tp.id) ?? tp.net;
-    const label = str(tp.label) ?? id;
-    // Board-model documents name the black probe's net `reference`; older documents say `ref`.
-    const ref = str(tp.reference) ?? str(tp.ref);
-    const powerStates = listOf<'on' | 'off'>(tp.powerStates, POWER);
-    const modes = listOf<ExpectedReadingsTestPoint['modes'] & string>(tp.modes, MODES) as ExpectedReadingsTestPoint['modes'];
-    const band = bandOfDoc(tp.band);
+function testPointsOf(model: BoardModel): BoardTestPoint[] {
+  return model.testPoints.map((tp) => {
     const table: ExpectedReadingsTestPoint = {
-      id, label, net: tp.net, ...(ref ? { reference: ref } : {}), ...(powerStates?.length ? { powerStates } : {}),
-      ...(modes?.length ? { modes } : {}), ...(band ? { band } : {}),
+      id: tp.id, label: tp.label, net: tp.net, reference: tp.reference, powerStates: tp.powerStates, modes: tp.modes, ...(tp.band ? { band: tp.band } : {}),
     };
-    return [{ id, net: tp.net, label, ...(ref ? { ref } : {}), table }];
+    return { id: tp.id, net: tp.net, label: tp.label, ref: tp.reference, table };
   });
 }
 
-function paramsOf(doc: Record<string, unknown>): Record<string, number> | undefined {
-  return isRecord(doc.params) ? (doc.params as Record<string, number>) : undefined;
+/**
+ * A stored or sent document as the board model it must be: the one place a document is read. A document that does
+ * not match the schema is a 422 naming the first field at fault.
+ */
+export function readBoardModel(doc: unknown): BoardModel {
+  const parsed = boardModelSchema.safeParse(doc);
+  if (parsed.success) return parsed.data;
+  const issue = parsed.error.issues[0]!;
+  const path = ['document', ...issue.path.map(String)].join('.');
+  throw new AppError('invalid', `The board model does not match the board-model schema: ${path}: ${issue.message}`, { errors: [{ path, message: issue.message }] });
 }
 
-/** Builds the engine view of a document; a document the engines cannot use is a 422 naming why. */
-export function buildBoardEngine(versionId: string, doc: Record<string, unknown>): BoardEngine {
-  const netlist = netlistOf(doc);
-  if (!netlist) throw new AppError('invalid', 'The board model has no netlist', { errors: [{ path: 'document.netlist', message: 'required' }] });
-  const parts = partsOf(doc);
-  const testPoints = testPointsOf(doc);
-  const params = paramsOf(doc);
+/** Builds the engine view of a board model; a model the engines cannot use is a 422 naming why. */
+export function buildBoardEngine(versionId: string, model: BoardModel): BoardEngine {
+  const { netlist, params } = model;
+  const parts = partsOf(model);
+  const testPoints = testPointsOf(model);
   try {
     const diagnoser = createDiagnoser({ netlist, params, parts, testPoints: testPoints.map(({ net, label, ref }) => ({ net, label, ref })) });
     return { versionId, netlist, params, parts, testPoints, diagnoser };
@@ -99,8 +91,17 @@ export function buildBoardEngine(versionId: string, doc: Record<string, unknown>
   }
 }
 
-const cache = new Map<string, BoardEngine>();
-const CACHE_LIMIT = 50;
+// Versions whose engine was dropped for room since the last look, so a diagnosis thread can tell the server which
+// documents it no longer holds (the server's pool asks this instead of keeping a copy of the limit).
+let dropped: string[] = [];
+const cache = new LRUCache<string, BoardEngine>({ max: 50, dispose: (_engine, versionId, reason) => void (reason === 'evict' && dropped.push(versionId)) });
+
+/** The versions whose engine this thread dropped since the last call. */
+export function takeDroppedEngines(): string[] {
+  const out = dropped;
+  dropped = [];
+  return out;
+}
 
 /**
  * The engine for a stored version, built once per process (the diagnoser's prediction cache survives). The
@@ -110,21 +111,15 @@ const CACHE_LIMIT = 50;
 export function boardEngine(versionId: string, doc: unknown, storedTable?: unknown): BoardEngine {
   const hit = cachedBoardEngine(versionId);
   if (hit) return hit;
-  const built = buildBoardEngine(versionId, isRecord(doc) ? doc : {});
+  const built = buildBoardEngine(versionId, readBoardModel(doc));
   if (Array.isArray(storedTable) && storedTable.length > 0) built.expected = storedTable as ExpectedReadingRow[];
   cache.set(versionId, built);
-  if (cache.size > CACHE_LIMIT) cache.delete(cache.keys().next().value as string);
   return built;
 }
 
 /** The engine for a version already built in this process, so a caller can skip loading its document. */
 export function cachedBoardEngine(versionId: string): BoardEngine | undefined {
-  const hit = cache.get(versionId);
-  if (hit) {
-    cache.delete(versionId);
-    cache.set(versionId, hit);
-  }
-  return hit;
+  return cache.get(versionId);
 }
 
 /** A net name as typed → the netlist's spelling: lower case, `gnd` is the reference `0`. */

@@ -15,7 +15,7 @@ import {
 import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';
-import { createBoard, createFaultCode, findBoards, findBoardVersions, findFaultCodes, getBoard, updateBoard } from './service';
+import { createBoard, createFaultCode, findBoards, findBoardVersions, findFaultCodes, getBoard, getBoardDrawing, updateBoard } from './service';
 
 export function boardRoutes(ctx: AppContext): Router {
   const r = Router();
@@ -40,6 +40,14 @@ export function boardRoutes(ctx: AppContext): Router {
   r.get('/boards/:id/versions', requireRole(...ROLES.everyone), async (req, res) => {
     const { id } = parse(idParams, req.params);
     res.json(boardVersionListResponse.parse(await findBoardVersions({ db: ctx.db, shopId: actorOf(req).shopId, id })));
+  });
+  // The drawing is made by the board library from the stored composition; no client-sent SVG is ever served.
+  r.get('/boards/versions/:id/picture', requireRole(...ROLES.everyone), async (req, res) => {
+    const { id } = parse(idParams, req.params);
+    const svg = await getBoardDrawing({ db: ctx.db, shopId: actorOf(req).shopId, versionId: id });
+    res.setHeader('Cache-Control', 'private, max-age=86400, immutable');
+    res.setHeader('Content-Security-Policy', "default-src 'none'; style-src 'unsafe-inline'; sandbox");
+    res.type('image/svg+xml').send(svg);
   });
   r.get('/fault-codes', requireRole(...ROLES.everyone), async (req, res) => {
     const { boardId } = parse(faultCodeListQuery, req.query);

@@ -1,12 +1,13 @@
 import { and, asc, desc, eq, isNull, or } from 'drizzle-orm';
 import type { BoardDetail, BoardDocument, BoardSummary, CreateFaultCodeRequest, ExpectedReadingRow, FaultCode } from '@splitscope/contract';
+import { ComposeError, drawBoard, type BoardSpec } from '@splitscope/boards';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
-import { boardModels, boardModelVersions, faultCodes, users } from '../../db/schema';
+import { boardModels, boardModelVersions, faultCodes, uploads, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { buildBoardEngine, expectedTable } from './engine';
+import { buildBoardEngine, expectedTable, readBoardModel } from './engine';
 
 type BoardRow = typeof boardModels.$inferSelect;
 type VersionRow = typeof boardModelVersions.$inferSelect;
@@ -22,40 +23,19 @@ const summary = (b: BoardRow, v: Pick<VersionRow, 'id' | 'version'>): BoardSumma
 
 const faultCode = (f: typeof faultCodes.$inferSelect): FaultCode => ({ id: f.id, boardId: f.boardId, code: f.code, title: f.title, description: f.description, sections: f.sections });
 
-const slug = (s: string) =>
-  s
-    .toLowerCase()
-    .replace(/[^a-z0-9]+/g, '-')
-    .replace(/^-|-$/g, '')
-    .slice(0, 80) || 'board';
-
-/** Checks a document and computes what a stored version keeps beside it. */
-export function prepareVersion(document: BoardDocument): { key: string; name: string; expectedReadings: ExpectedReadingRow[] } {
-  const name = typeof document.name === 'string' && document.name.trim() ? document.name.trim() : undefined;
-  if (!name) throw new AppError('invalid', 'The board model needs a name', { errors: [{ path: 'document.name', message: 'required' }] });
-  const key = typeof document.id === 'string' && document.id.trim() ? document.id.trim() : slug(name);
+/** Checks a model and computes what a stored version keeps beside it. A picture upload must be the shop's own. */
+export async function prepareVersion(db: Pick<Db, 'select'>, shopId: string, document: BoardDocument): Promise<{ key: string; name: string; expectedReadings: ExpectedReadingRow[] }> {
+  const uploadId = document.picture.uploadId;
+  if (uploadId) {
+    const [u] = await db.select({ id: uploads.id }).from(uploads).where(and(eq(uploads.id, uploadId), eq(uploads.shopId, shopId)));
+    if (!u) throw new AppError('invalid', `No picture upload ${uploadId}`, { errors: [{ path: 'document.picture.uploadId', message: 'unknown upload' }] });
+  }
   const engine = buildBoardEngine('unsaved', document);
-  return { key, name, expectedReadings: expectedTable(engine) };
+  return { key: document.id, name: document.name.trim(), expectedReadings: expectedTable(engine) };
 }
 
-const strings = (v: unknown): string[] => (Array.isArray(v) ? v.filter((s): s is string => typeof s === 'string') : []);
-
-function documentFaultCodes(document: BoardDocument): CreateFaultCodeRequest[] {
-  if (!Array.isArray(document.faultCodes)) return [];
-  return document.faultCodes.flatMap((f: unknown) => {
-    const r = f as Record<string, unknown>;
-    if (typeof r?.code !== 'string') return [];
-    return [
-      {
-        code: r.code,
-        // The board-model schema names these `meaning` and `suspectSections`; older documents say title/sections.
-        title: typeof r.title === 'string' ? r.title : typeof r.meaning === 'string' ? r.meaning : r.code,
-        description: typeof r.description === 'string' ? r.description : null,
-        sections: strings(r.suspectSections ?? r.sections),
-      },
-    ];
-  });
-}
+const documentFaultCodes = (document: BoardDocument): CreateFaultCodeRequest[] =>
+  document.faultCodes.map((f) => ({ code: f.code, title: f.meaning || f.code, description: null, sections: f.suspectSections }));
 
 export async function findBoards({ db, shopId }: { db: Db; shopId: string }) {
   const rows = await db
@@ -99,17 +79,41 @@ export async function getBoardVersion({ db, shopId, versionId }: { db: Db; shopI
   return boardDetail(db, row.b, row.v);
 }
 
+/** The photo upload, else the server's drawing of the composition, else nothing. */
+const pictureUrlOf = (versionId: string, doc: BoardDocument) =>
+  doc.picture.uploadId ? `/api/uploads/${doc.picture.uploadId}` : doc.composition ? `/api/boards/versions/${versionId}/picture` : null;
+
+/** The drawing of a version's composition (SVG); 404 when the version has a photo or no composition. */
+export async function getBoardDrawing({ db, shopId, versionId }: { db: Db; shopId: string; versionId: string }): Promise<string> {
+  const [row] = await db
+    .select({ document: boardModelVersions.document })
+    .from(boardModelVersions)
+    .innerJoin(boardModels, eq(boardModels.id, boardModelVersions.boardId))
+    .where(and(eq(boardModelVersions.id, versionId), eq(boardModels.shopId, shopId)));
+  if (!row) throw new AppError('not_found', `No board model version ${versionId}`);
+  const doc = readBoardModel(row.document);
+  if (!doc.composition) throw new AppError('not_found', 'This board model version has no drawing');
+  try {
+    return drawBoard(doc.composition as unknown as BoardSpec);
+  } catch (err) {
+    if (err instanceof ComposeError) throw new AppError('not_found', `This version's composition cannot be drawn: ${err.message}`);
+    throw err;
+  }
+}
+
 async function boardDetail(db: Db, b: BoardRow, v: VersionRow): Promise<BoardDetail> {
+  const document = readBoardModel(v.document);
   return {
     ...summary(b, v),
-    document: v.document as BoardDocument,
+    document,
+    pictureUrl: pictureUrlOf(v.id, document),
     expectedReadings: v.expectedReadings as ExpectedReadingRow[],
     faultCodes: await boardFaultCodes(db, b.shopId, b.id),
   };
 }
 
 export async function createBoard({ db, actor, document, note, id }: { db: Db; actor: Pick<Actor, 'id' | 'shopId'>; document: BoardDocument; note?: string | null; id?: string }) {
-  const prepared = prepareVersion(document);
+  const prepared = await prepareVersion(db, actor.shopId, document);
   const boardId = id ?? newId();
   await db.transaction(async (tx) => {
     const [clash] = await tx.select({ id: boardModels.id }).from(boardModels).where(and(eq(boardModels.shopId, actor.shopId), eq(boardModels.key, prepared.key)));
@@ -129,7 +133,7 @@ export async function updateBoard({ db, actor, id, document, note }: { db: Db; a
   const version = await db.transaction(async (tx) => {
     const [b] = await tx.select().from(boardModels).where(and(eq(boardModels.id, id), eq(boardModels.shopId, actor.shopId))).for('update');
     if (!b) throw new AppError('not_found', `No board model ${id}`);
-    const prepared = prepareVersion(document);
+    const prepared = await prepareVersion(tx, actor.shopId, document);
     if (prepared.key !== b.key) {
       throw new AppError('invalid', `The document's id "${prepared.key}" is not this board model's ("${b.key}")`, { errors: [{ path: 'document.id', message: `must be ${b.key}` }] });
     }

@@ -3,10 +3,10 @@
 // never changes, so a diagnosis is a pure function of the job's pinned version and its ordered current readings:
 // the key names exactly those, and a new reading or a correction changes it. One entry per job, least recently
 // used dropped first, so memory stays bounded however many jobs are open.
+import { LRUCache } from 'lru-cache';
 import type { Diagnosis } from '@splitscope/contract';
 
-const LIMIT = 200;
-const entries = new Map<string, { key: string; output: Diagnosis }>();
+const entries = new LRUCache<string, { key: string; output: Diagnosis }>({ max: 200 });
 // A first diagnosis can take seconds of engine time; requests for the same readings meanwhile wait for that one
 // run instead of each starting their own.
 const running = new Map<string, { key: string; done: Promise<Diagnosis> }>();
@@ -23,11 +23,7 @@ export interface Computed {
  */
 export function diagnosisFor(jobId: string, key: string, compute: () => Promise<Computed>): Promise<Diagnosis> {
   const hit = entries.get(jobId);
-  if (hit?.key === key) {
-    entries.delete(jobId);
-    entries.set(jobId, hit);
-    return Promise.resolve(hit.output);
-  }
+  if (hit?.key === key) return Promise.resolve(hit.output);
   const pending = running.get(jobId);
   if (pending?.key === key) return pending.done;
   const done = compute().then(
@@ -46,9 +42,7 @@ export function diagnosisFor(jobId: string, key: string, compute: () => Promise<
 
 function keep(jobId: string, { key, output }: Computed): Diagnosis {
   const frozen = deepFreeze(output);
-  entries.delete(jobId);
   entries.set(jobId, { key, output: frozen });
-  if (entries.size > LIMIT) entries.delete(entries.keys().next().value as string);
   return frozen;
 }
 

@@ -8,9 +8,6 @@ import { AppError } from '../../http/errors';
 import type { WorkerFailure, WorkerReply, WorkerRequest } from './protocol';
 
 const ENTRY = new URL('./worker-entry.mjs', import.meta.url);
-// The versions a thread was sent, newest last. boards/engine.ts keeps 50 engines per thread; if it dropped one
-// this list still names, the thread answers `missing` and gets the document again.
-const KNOWN_LIMIT = 50;
 
 interface Call {
   versionId: string;
@@ -22,7 +19,8 @@ interface Call {
 
 interface Thread {
   worker: Worker;
-  known: Map<string, true>;
+  /** The versions this thread holds an engine for: sent to it, less those its engine cache reports dropped. */
+  known: Set<string>;
   pending: Map<number, Call>;
   /** What the thread threw before it exited, for the pending calls' error. */
   crash?: Error;
@@ -73,9 +71,7 @@ export class DiagnosisPool {
       // The thread may have died while the document loaded; a new one is sent the document too.
       if (!this.threads.includes(thread)) thread = this.pick(call.versionId);
       const id = this.nextId++;
-      thread.known.delete(call.versionId);
-      thread.known.set(call.versionId, true);
-      if (thread.known.size > KNOWN_LIMIT) thread.known.delete(thread.known.keys().next().value as string);
+      thread.known.add(call.versionId);
       thread.pending.set(id, call);
       // Referenced only while it owes an answer, so an idle thread never keeps the process alive.
       thread.worker.ref();
@@ -101,7 +97,7 @@ export class DiagnosisPool {
   private start(): Thread {
     const worker = (this.options.spawn ?? spawnDiagnosisWorker)();
     worker.unref();
-    const thread: Thread = { worker, known: new Map(), pending: new Map() };
+    const thread: Thread = { worker, known: new Set(), pending: new Map() };
     worker.on('message', (reply: WorkerReply) => this.answered(thread, reply));
     worker.on('error', (err) => void (thread.crash = err));
     worker.on('exit', (code) => {
@@ -114,6 +110,7 @@ export class DiagnosisPool {
   }
 
   private answered(thread: Thread, reply: WorkerReply): void {
+    for (const v of reply.dropped) thread.known.delete(v);
     const call = thread.pending.get(reply.id);
     if (!call) return;
     thread.pending.delete(reply.id);

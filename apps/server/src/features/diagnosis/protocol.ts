@@ -16,4 +16,5 @@ export type WorkerFailure =
   | { kind: 'app'; code: AppError['code']; detail: string; extra: AppError['extra'] }
   | { kind: 'other'; message: string; stack?: string };
 
-export type WorkerReply = { id: number } & ({ ok: true; output: DiagnosisOutput } | { ok: false; missing: true } | { ok: false; error: WorkerFailure });
+/** `dropped`: versions whose engine the thread let go since its last reply (they need their document again). */
+export type WorkerReply = { id: number; dropped: string[] } & ({ ok: true; output: DiagnosisOutput } | { ok: false; missing: true } | { ok: false; error: WorkerFailure });

@@ -23,16 +23,35 @@ function instruction(w: BoardWords, t: Diagnosis['nextTests'][number]): string {
   return `${how}${lifted}: red probe on ${w.probe(t.red)}, black probe on ${w.probe(t.black)}.`;
 }
 
+// What the diagnosis engine says in words itself, when it does: a fault's designator, kind and mode words, and
+// where each probe of a next test goes. Those are used first; the board's own words fill what it leaves out.
+interface EngineFault {
+  words?: { designator?: string; kind?: string; words?: string };
+}
+interface EngineTest {
+  probes?: { red?: { label?: string }; black?: { label?: string } };
+  liftedParts?: string[];
+}
+
 export function wordDiagnosis<T extends Out>(out: T, w: BoardWords): T {
   return {
     ...out,
-    parts: out.parts.map((p) => ({ ...p, designator: w.designator(p.part), label: w.fault(p.part, p.mode) })),
-    nextTests: out.nextTests.map((t) => ({
-      ...t,
-      redLabel: w.probe(t.red),
-      blackLabel: w.probe(t.black),
-      liftedLabels: t.lifted.map(w.designator),
-      instruction: instruction(w, t),
-    })),
+    parts: out.parts.map((p) => {
+      const e = (p as EngineFault).words;
+      const designator = e?.designator ?? w.designator(p.part);
+      const label = e?.designator && e.words ? `${[e.designator, e.kind].filter(Boolean).join(' ')} — ${e.words}` : w.fault(p.part, p.mode);
+      return { ...p, designator, label };
+    }),
+    nextTests: out.nextTests.map((t) => {
+      const e = t as EngineTest;
+      return {
+        ...t,
+        redLabel: e.probes?.red?.label ?? w.probe(t.red),
+        blackLabel: e.probes?.black?.label ?? w.probe(t.black),
+        liftedLabels: e.liftedParts ?? t.lifted.map(w.designator),
+        // The engine's sentence once it words its probes; before that, one built from the board's words.
+        instruction: e.probes ? t.instruction : instruction(w, t),
+      };
+    }),
   };
 }

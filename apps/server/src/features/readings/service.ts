@@ -1,6 +1,7 @@
 import { createHash } from 'node:crypto';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
+import { LRUCache } from 'lru-cache';
 import { acceptsReadings, correctionRefusal, guidedOrderBinds, readingRefusal, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
@@ -143,8 +144,7 @@ function queries(db: Db) {
 
 // A job's shop and board version never change, so which version a job of a shop pins is kept once looked up:
 // a plain reading write then needs no query before the statement that stores it.
-const VERSION_LIMIT = 1000;
-const versions = new Map<string, string>();
+const versions = new LRUCache<string, string>({ max: 1000 });
 async function boardVersionOf(db: Db, shopId: string, jobId: string): Promise<string | undefined> {
   const key = `${shopId}\n${jobId}`;
   const hit = versions.get(key);
@@ -152,7 +152,6 @@ async function boardVersionOf(db: Db, shopId: string, jobId: string): Promise<st
   const [row] = await queries(db).boardVersion.execute({ jobId, shopId });
   if (!row) return undefined;
   versions.set(key, row.boardVersionId);
-  if (versions.size > VERSION_LIMIT) versions.delete(versions.keys().next().value as string);
   return row.boardVersionId;
 }
 

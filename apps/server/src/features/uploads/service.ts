@@ -33,17 +33,22 @@ const toUpload = (u: typeof uploads.$inferSelect): Upload => ({
 });
 
 export async function createUpload({ db, storage, actor, bytes, jobId, name }: { db: Db; storage: Storage; actor: Actor; bytes: Buffer; jobId?: string; name?: string | null }) {
+  if (jobId) await getJobRow(db, actor.shopId, jobId);
+  return storeUpload({ db, storage, shopId: actor.shopId, createdBy: actor.id, bytes, jobId, name });
+}
+
+/** Stores a picture's bytes and its row; the type comes from the bytes, and a refused type stores nothing. */
+export async function storeUpload({ db, storage, shopId, createdBy, bytes, jobId, name }: { db: Db; storage: Storage; shopId: string; createdBy: string; bytes: Buffer; jobId?: string | null; name?: string | null }): Promise<Upload> {
   if (bytes.length === 0) throw new AppError('invalid', 'The upload is empty');
   const type = sniffImage(bytes);
   if (!type) throw new AppError('unsupported_media_type', 'Only PNG and JPEG pictures are accepted (checked from the file contents; SVG is refused)');
-  if (jobId) await getJobRow(db, actor.shopId, jobId);
   const id = newId();
-  const key = `${actor.shopId}/${id}`;
+  const key = `${shopId}/${id}`;
   await storage.put(key, bytes);
   try {
     const [row] = await db
       .insert(uploads)
-      .values({ id, shopId: actor.shopId, jobId: jobId ?? null, contentType: type, size: bytes.length, sha256: createHash('sha256').update(bytes).digest('hex'), name: name ?? null, storageKey: key, createdBy: actor.id })
+      .values({ id, shopId, jobId: jobId ?? null, contentType: type, size: bytes.length, sha256: createHash('sha256').update(bytes).digest('hex'), name: name ?? null, storageKey: key, createdBy })
       .returning();
     return toUpload(row!);
   } catch (err) {

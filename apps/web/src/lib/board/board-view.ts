@@ -37,9 +37,8 @@ export interface BoardView {
   pointOf: (netOrPoint: string) => BoardPoint | undefined;
 }
 
-const svgUrl = (svg: string) => `data:image/svg+xml;charset=utf-8,${encodeURIComponent(svg)}`;
-
-export function boardView(document: unknown): BoardView {
+/** `pictureUrl` is the board detail's: the photo upload or the server's drawing of the composition. */
+export function boardView(document: unknown, pictureUrl?: string | null): BoardView {
   const parsed = boardModelSchema.safeParse(document);
   const m = parsed.success ? parsed.data : null;
   const width = m?.picture.width ?? 1000;
@@ -86,7 +85,7 @@ export function boardView(document: unknown): BoardView {
     model: m,
     problem: parsed.success ? undefined : parsed.error.issues[0]?.message,
     size: { width, height },
-    pictureUrl: m?.picture.svg ? svgUrl(m.picture.svg) : m?.picture.url,
+    pictureUrl: pictureUrl ?? undefined,
     points,
     parts,
     connectors,

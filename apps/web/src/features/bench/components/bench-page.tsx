@@ -76,7 +76,7 @@ function Bench({ job }: { job: JobDetail }) {
   // Guided order binds a trainee (the server refuses anything else) until a lead lifts it for the job.
   const guided = job.guidedOrderRequired || params.get('mode') === 'guided' || (params.get('mode') === null && me.data?.role === 'trainee');
   const tab = (TABS.find((t) => t.id === params.get('tab'))?.id ?? 'map') as Tab;
-  const view = useMemo(() => boardView(job.board.document), [job.board.document]);
+  const view = useMemo(() => boardView(job.board.document, job.board.pictureUrl), [job.board.document, job.board.pictureUrl]);
   const rows = job.board.expectedReadings;
   const readingsQ = useReadings(job.id);
   const diagnosisQ = useDiagnosis(job.id);

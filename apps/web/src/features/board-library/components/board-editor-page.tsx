@@ -1,5 +1,5 @@
-import { boardModelSchema, hasRole, ROLES, type BoardDetail, type BoardModel } from '@splitscope/contract';
-import { useMemo, useState } from 'react';
+import { hasRole, ROLES, type BoardDetail, type BoardModel } from '@splitscope/contract';
+import { useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
 import { QueryState } from '@/components/ui/query-state';
@@ -7,29 +7,20 @@ import { useMe } from '@/lib/api/me';
 import { METER_LABEL, meterText } from '@/lib/format';
 import { useBoard } from '../api/get-board';
 import { useUpdateBoard } from '../api/update-board';
+import { imageSize, uploadPicture } from '../api/upload-picture';
 import { ComposePanel } from './compose-panel';
 
 const input = 'min-h-11 rounded-md border border-stone-500 bg-white px-2';
 
-function readFile(f: File): Promise<string> {
-  return new Promise((resolve, reject) => {
-    const r = new FileReader();
-    r.onload = () => resolve(String(r.result));
-    r.onerror = () => reject(r.error);
-    if (f.type === 'image/svg+xml') r.readAsText(f);
-    else r.readAsDataURL(f);
-  });
-}
-
 function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof useUpdateBoard> }) {
   const me = useMe();
-  const parsed = useMemo(() => boardModelSchema.safeParse(board.document), [board.document]);
-  const [doc, setDoc] = useState<BoardModel | null>(parsed.success ? parsed.data : null);
+  const [doc, setDoc] = useState<BoardModel>(board.document);
+  const [pic, setPic] = useState<string | undefined>(board.pictureUrl ?? undefined);
+  const [pictureError, setPictureError] = useState<string | null>(null);
   const [selected, setSelected] = useState<string | null>(null);
   const [placing, setPlacing] = useState<'point' | 'part'>('point');
   const [note, setNote] = useState('');
   const canEdit = hasRole(me.data?.role, ROLES.reviewers);
-  if (!doc) return <p role="alert">This board document does not match the board-model schema: {parsed.error?.issues[0]?.message}</p>;
 
   const movePoint = (id: string, x: number, y: number) =>
     setDoc({ ...doc, testPoints: doc.testPoints.map((t) => (t.id === id ? { ...t, x, y } : t)) });
@@ -53,12 +44,19 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
     });
     setSelected(`TP${n}`);
   };
+  // A photo is stored as an upload first; the document only names it, so it stays small whatever the photo weighs.
   const upload = async (f: File | undefined) => {
     if (!f) return;
-    const content = await readFile(f);
-    setDoc({ ...doc, picture: f.type === 'image/svg+xml' ? { ...doc.picture, svg: content, url: undefined } : { ...doc.picture, url: content, svg: undefined } });
+    setPictureError(null);
+    try {
+      const u = await uploadPicture(f);
+      const size = await imageSize(u.url);
+      setDoc({ ...doc, picture: { uploadId: u.id, width: size.width, height: size.height, units: 'px' } });
+      setPic(u.url);
+    } catch (err) {
+      setPictureError(`The picture was not stored: ${(err as Error).message}`);
+    }
   };
-  const pic = doc.picture.svg ? `data:image/svg+xml;charset=utf-8,${encodeURIComponent(doc.picture.svg)}` : doc.picture.url;
   const unit = doc.picture.width / 60;
 
   return (
@@ -103,10 +101,11 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
           <p className="text-sm text-stone-700">Drag a test point to move it, or pick a point or part in the lists and click the board to place it.</p>
           {canEdit && (
             <label className="block">
-              <span className="text-sm font-medium">Board picture (SVG, PNG or JPEG)</span>
-              <input type="file" accept="image/svg+xml,image/png,image/jpeg" className="mt-1 block min-h-11" onChange={(e) => void upload(e.target.files?.[0])} />
+              <span className="text-sm font-medium">Board photo (PNG or JPEG)</span>
+              <input type="file" accept="image/png,image/jpeg" className="mt-1 block min-h-11" onChange={(e) => void upload(e.target.files?.[0])} />
             </label>
           )}
+          {pictureError && <p role="alert" className="text-high">{pictureError}</p>}
         </div>
         <div className="space-y-3">
           <section aria-labelledby="tp-h">
@@ -159,7 +158,17 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
           </section>
         </div>
       </div>
-      {doc.composition && <ComposePanel composition={doc.composition} canEdit={canEdit} onComposed={(d) => setDoc({ ...d, id: doc.id })} />}
+      {doc.composition && (
+        <ComposePanel
+          composition={doc.composition}
+          canEdit={canEdit}
+          onComposed={(d, drawing) => {
+            // A photo stays the picture; without one the new drawing is shown (the server draws it again on save).
+            setDoc({ ...d, id: doc.id, picture: doc.picture.uploadId ? doc.picture : d.picture });
+            if (!doc.picture.uploadId) setPic(drawing);
+          }}
+        />
+      )}
       <section aria-labelledby="netlist-h" className="space-y-1">
         <h2 id="netlist-h" className="text-lg font-semibold">Netlist (SPICE subset)</h2>
         <p className="text-sm text-stone-700">

@@ -25,7 +25,7 @@ const paramValue = (old: unknown, text: string) => (typeof old === 'number' && t
  * section, and compose the board again in the browser (the board library's composeBoard). Saving sends the
  * result to the server, which checks the netlist and recomputes the expected readings.
  */
-export function ComposePanel({ composition, canEdit, onComposed }: { composition: Record<string, unknown>; canEdit: boolean; onComposed: (doc: BoardModel) => void }) {
+export function ComposePanel({ composition, canEdit, onComposed }: { composition: Record<string, unknown>; canEdit: boolean; onComposed: (doc: BoardModel, drawingUrl: string) => void }) {
   const [spec, setSpec] = useState<Spec>(() => structuredClone(composition) as Spec);
   const [templates, setTemplates] = useState<string[] | null>(null);
   const [adding, setAdding] = useState('');
@@ -35,9 +35,9 @@ export function ComposePanel({ composition, canEdit, onComposed }: { composition
   const library = () => import('@splitscope/boards');
 
   const compose = async () => {
-    const { composeBoard } = await library();
+    const { composeBoard, drawBoard } = await library();
     try {
-      onComposed(composeBoard(spec as never));
+      onComposed(composeBoard(spec as never), `data:image/svg+xml;charset=utf-8,${encodeURIComponent(drawBoard(spec as never))}`);
       setMessage({ ok: true, text: 'Composed: netlist, parts, nets, test points and picture replaced. Save to have the server check it and recompute the expected readings.' });
     } catch (err) {
       setMessage({ ok: false, text: (err as Error).message });
