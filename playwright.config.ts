@@ -9,6 +9,12 @@ export default defineConfig({
   workers: 1,
   retries: 0,
   reporter: [['list'], ['json']],
+  // The shop-mode spec needs a server in shop mode on an empty database (`npm test` starts one: SHOP_BASE_URL);
+  // every other spec runs against the demo server.
+  projects: [
+    { name: 'demo', testIgnore: /shop-mode\.spec\.ts$/ },
+    ...(process.env.SHOP_BASE_URL ? [{ name: 'shop', testMatch: /shop-mode\.spec\.ts$/, use: { baseURL: process.env.SHOP_BASE_URL } }] : []),
+  ],
   use: {
     baseURL: process.env.BASE_URL ?? 'http://127.0.0.1:5180',
     screenshot: 'on',

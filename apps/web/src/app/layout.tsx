@@ -45,15 +45,17 @@ export function AppLayout() {
           <NavLink to="/references" className={link}>
             Bench references
           </NavLink>
+          {hasRole(me.data.role, ROLES.admins) && <NavLink to="/people" className={link}>People</NavLink>}
+          {hasRole(me.data.role, ROLES.admins) && <NavLink to="/shop" className={link}>Shop</NavLink>}
           {hasRole(me.data.role, ROLES.admins) && <NavLink to="/billing/settings" className={link}>Billing</NavLink>}
           {hasRole(me.data.role, ROLES.admins) && <NavLink to="/dev/mail" className={link}>Mail outbox</NavLink>}
         </nav>
-        <span className="ml-auto whitespace-nowrap text-sm" title={`${me.data.name} · ${me.data.shopName}`}>
+        <NavLink to="/account" className="ml-auto flex min-h-11 items-center whitespace-nowrap rounded-md px-2 text-sm hover:bg-white/10" title={`${me.data.name} · ${me.data.shopName}: your account`}>
           <span className="hidden xl:inline">{me.data.name} · </span>
           {roleLabel[me.data.role]}
           {/* The shop's name only where there is room: on a tablet the main links come first. */}
           <span className="hidden 2xl:inline"> · {me.data.shopName}</span>
-        </span>
+        </NavLink>
         <button
           type="button"
           className="min-h-11 whitespace-nowrap rounded-md px-2 hover:bg-white/10"

@@ -1,5 +1,6 @@
 import { lazy, Suspense } from 'react';
-import { createBrowserRouter } from 'react-router-dom';
+import { createBrowserRouter, Outlet } from 'react-router-dom';
+import { DemoBanner } from '@/features/auth/components/demo-banner';
 import { SignInPage } from '@/features/auth/components/sign-in-page';
 import { HomePage } from '@/features/home/components/home-page';
 import { AppLayout } from './layout';
@@ -18,10 +19,39 @@ const ReferencesPage = lazy(() => import('@/features/references/components/refer
 const CustomerPage = lazy(() => import('@/features/customer-page/components/customer-page'));
 const MailOutboxPage = lazy(() => import('@/features/mail-outbox/components/mail-outbox-page'));
 const JobBillingPage = lazy(() => import('@/features/billing/components/job-billing-page'));
+const FirstRunPage = lazy(() => import('@/features/shop/components/first-run-page'));
+const ShopPage = lazy(() => import('@/features/shop/components/shop-page'));
+const PeoplePage = lazy(() => import('@/features/people/components/people-page'));
+const AccountPage = lazy(() => import('@/features/account/components/account-page'));
+const InvitationPage = lazy(() => import('@/features/auth/components/invitation-page'));
+const ForgotPasswordPage = lazy(() => import('@/features/auth/components/forgot-password-page'));
+const ResetPasswordPage = lazy(() => import('@/features/auth/components/reset-password-page'));
 const BillingSettingsPage = lazy(() => import('@/features/billing/components/billing-settings-page'));
 
+const loading = <p className="p-6">Loading…</p>;
+const page = (el: React.ReactNode) => <Suspense fallback={loading}>{el}</Suspense>;
+
+/** Every page, signed in or not: the demo's banner above it. */
+function Root() {
+  return (
+    <div className="flex min-h-full flex-col">
+      <DemoBanner />
+      <div className="flex flex-1 flex-col">
+        <Outlet />
+      </div>
+    </div>
+  );
+}
+
 export const router = createBrowserRouter([
+  {
+    element: <Root />,
+    children: [
   { path: '/sign-in', element: <SignInPage /> },
+  { path: '/first-run', element: page(<FirstRunPage />) },
+  { path: '/invitation/:token', element: page(<InvitationPage />) },
+  { path: '/forgot-password', element: page(<ForgotPasswordPage />) },
+  { path: '/reset-password/:token', element: page(<ResetPasswordPage />) },
   { path: '/dev/perf', lazy: async () => ({ Component: (await import('@/features/perf-lab/components/perf-lab-page')).default }) },
   { path: '/c/:token', element: <Suspense fallback={<p className="p-6">Loading…</p>}><CustomerPage /></Suspense> },
   {
@@ -41,6 +71,11 @@ export const router = createBrowserRouter([
       { path: 'references', element: <ReferencesPage /> },
       { path: 'dev/mail', element: <MailOutboxPage /> },
       { path: 'billing/settings', element: <BillingSettingsPage /> },
+      { path: 'people', element: <PeoplePage /> },
+      { path: 'shop', element: <ShopPage /> },
+      { path: 'account', element: <AccountPage /> },
+    ],
+  },
     ],
   },
 ]);

@@ -1,20 +1,23 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { signInRequest, type SignInRequest } from '@splitscope/contract';
 import { useForm } from 'react-hook-form';
-import { Navigate, useLocation } from 'react-router-dom';
+import { Link, Navigate, useLocation } from 'react-router-dom';
 import { useMe } from '@/lib/api/me';
+import { useSetupStatus } from '@/lib/api/setup-status';
 import { useSignIn } from '../api/sign-in';
 
 export function SignInPage() {
   const me = useMe();
+  const status = useSetupStatus();
   const signIn = useSignIn();
   const location = useLocation();
   const form = useForm<SignInRequest>({ resolver: zodResolver(signInRequest), defaultValues: { email: '', password: '' } });
   const from = (location.state as { from?: string } | null)?.from ?? '/';
   if (me.data) return <Navigate to={from} replace />;
+  if (status.data?.needsSetup) return <Navigate to="/first-run" replace />;
 
   return (
-    <main className="flex min-h-full items-center justify-center bg-board p-4">
+    <main className="flex min-h-full flex-1 items-center justify-center bg-board p-4">
       <div className="w-full max-w-sm rounded-xl bg-white p-8 shadow-xl">
         <div className="mb-6 flex items-center gap-3">
           <img src="/favicon.svg" alt="" className="h-10 w-10" />
@@ -56,6 +59,11 @@ export function SignInPage() {
             {signIn.isPending ? 'Signing in…' : 'Sign in'}
           </button>
         </form>
+        <p className="mt-4 text-sm">
+          <Link to="/forgot-password" className="underline">
+            Forgot your password?
+          </Link>
+        </p>
         <p className="mt-6 text-xs text-stone-600">
           Mains and the ~300 V DC bus on these boards can kill. Follow your shop's procedures, local codes and licensed practice.
         </p>

@@ -1,0 +1,136 @@
+import { useState, type FormEvent } from 'react';
+import { createInvitationRequest, roles, type Invitation, type Role, type ShopMember } from '@splitscope/contract';
+import { Button } from '@/components/ui/button';
+import { PageHeader } from '@/components/ui/page-header';
+import { QueryState } from '@/components/ui/query-state';
+import { ErrorNote, TextField } from '@/components/ui/text-field';
+import { useMe } from '@/lib/api/me';
+import { useCreateInvitation } from '../api/create-invitation';
+import { useInvitations } from '../api/get-invitations';
+import { usePeople } from '../api/get-people';
+import { useResendInvitation } from '../api/resend-invitation';
+import { useUpdatePerson } from '../api/update-person';
+
+const roleLabel: Record<Role, string> = { admin: 'Shop admin', lead: 'Lead', tech: 'Technician', trainee: 'Trainee' };
+const select = 'min-h-11 rounded-md border border-stone-500 bg-white px-2';
+
+function InviteForm() {
+  const create = useCreateInvitation();
+  const [f, setF] = useState({ name: '', email: '', role: 'tech' as Role });
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  const submit = (e: FormEvent) => {
+    e.preventDefault();
+    const r = createInvitationRequest.safeParse(f);
+    if (!r.success) return setErrors(Object.fromEntries(r.error.issues.map((i) => [i.path.join('.'), i.message])));
+    setErrors({});
+    create.mutate(r.data, { onSuccess: () => setF({ name: '', email: '', role: f.role }) });
+  };
+  return (
+    <form onSubmit={submit} noValidate aria-label="Invite a person" className="grid gap-3 rounded-lg border border-stone-300 bg-white p-4 sm:grid-cols-[1fr_1fr_auto_auto] sm:items-end">
+      <TextField label="Name" value={f.name} onChange={(e) => setF({ ...f, name: e.target.value })} error={errors.name} autoComplete="off" />
+      <TextField label="E-mail" type="email" value={f.email} onChange={(e) => setF({ ...f, email: e.target.value })} error={errors.email} autoComplete="off" />
+      <label className="block">
+        <span className="text-sm font-medium">Role</span>
+        <select className={`${select} mt-1 block w-full`} value={f.role} onChange={(e) => setF({ ...f, role: e.target.value as Role })}>
+          {roles.map((r) => (
+            <option key={r} value={r}>
+              {roleLabel[r]}
+            </option>
+          ))}
+        </select>
+      </label>
+      <Button type="submit" disabled={create.isPending}>
+        {create.isPending ? 'Sending…' : 'Send invitation'}
+      </Button>
+      <div className="sm:col-span-4" aria-live="polite">
+        <ErrorNote error={create.error} />
+        {create.isSuccess && <p className="text-sm font-semibold text-ok">Invitation e-mailed to {create.data.email}.</p>}
+      </div>
+    </form>
+  );
+}
+
+function PersonRow({ p, self }: { p: ShopMember; self: boolean }) {
+  const update = useUpdatePerson();
+  const active = !p.deactivatedAt;
+  return (
+    <li className="flex flex-wrap items-center gap-3 border-b border-stone-200 py-2 last:border-0">
+      <div className="min-w-48 flex-1">
+        <p className={`font-semibold ${active ? '' : 'text-stone-500 line-through'}`}>
+          {p.name} {self && <span className="text-sm font-normal">(you)</span>}
+        </p>
+        <p className="text-sm text-stone-700">{p.email}</p>
+      </div>
+      {!active && <span className="rounded bg-stone-200 px-2 text-sm">Deactivated</span>}
+      <label className="flex items-center gap-2">
+        <span className="sr-only">Role of {p.name}</span>
+        <select className={select} value={p.role} disabled={update.isPending} onChange={(e) => update.mutate({ id: p.id, role: e.target.value as Role })}>
+          {roles.map((r) => (
+            <option key={r} value={r}>
+              {roleLabel[r]}
+            </option>
+          ))}
+        </select>
+      </label>
+      {!self && (
+        <Button variant={active ? 'secondary' : 'primary'} disabled={update.isPending} onClick={() => update.mutate({ id: p.id, active: !active })} aria-label={`${active ? 'Deactivate' : 'Reactivate'} ${p.name}`}>
+          {active ? 'Deactivate' : 'Reactivate'}
+        </Button>
+      )}
+      {update.error && <p role="alert" className="w-full text-sm text-high">{update.error.message}</p>}
+    </li>
+  );
+}
+
+function InvitationRow({ i }: { i: Invitation }) {
+  const resend = useResendInvitation();
+  const expired = new Date(i.expiresAt).getTime() < Date.now();
+  return (
+    <li className="flex flex-wrap items-center gap-3 border-b border-stone-200 py-2 last:border-0">
+      <div className="min-w-48 flex-1">
+        <p className="font-semibold">
+          {i.name} · {roleLabel[i.role]}
+        </p>
+        <p className="text-sm text-stone-700">
+          {i.email} · {i.acceptedAt ? 'joined' : expired ? 'expired' : `open until ${i.expiresAt.slice(0, 10)}`}
+        </p>
+      </div>
+      {!i.acceptedAt && (
+        <Button variant="secondary" disabled={resend.isPending} onClick={() => resend.mutate(i.id)} aria-label={`Resend the invitation to ${i.email}`}>
+          {resend.isSuccess ? 'Sent again' : 'Resend'}
+        </Button>
+      )}
+      {resend.error && <p role="alert" className="w-full text-sm text-high">{resend.error.message}</p>}
+    </li>
+  );
+}
+
+/** The admin's people screen: invite by e-mail, change role, deactivate (ends their sessions), resend. */
+export default function PeoplePage() {
+  const me = useMe();
+  const people = usePeople();
+  const invitations = useInvitations();
+  return (
+    <div className="max-w-4xl space-y-6">
+      <PageHeader title="People" />
+      <section aria-labelledby="invite" className="space-y-2">
+        <h2 id="invite" className="text-lg font-semibold">Invite someone</h2>
+        <p className="text-sm text-stone-700">They get an e-mail with a link to choose their password (valid 7 days).</p>
+        <InviteForm />
+      </section>
+      <section aria-labelledby="members" className="rounded-lg border border-stone-300 bg-white p-4">
+        <h2 id="members" className="text-lg font-semibold">In the shop</h2>
+        <p className="text-sm text-stone-700">Deactivating signs the person out everywhere at once; their work stays in the history.</p>
+        <QueryState query={people} label="the people">
+          {(d) => <ul>{d.items.map((p) => <PersonRow key={p.id} p={p} self={p.id === me.data?.id} />)}</ul>}
+        </QueryState>
+      </section>
+      <section aria-labelledby="invited" className="rounded-lg border border-stone-300 bg-white p-4">
+        <h2 id="invited" className="text-lg font-semibold">Invitations</h2>
+        <QueryState query={invitations} label="the invitations">
+          {(d) => (d.items.length ? <ul>{d.items.map((i) => <InvitationRow key={i.id} i={i} />)}</ul> : <p className="text-stone-700">None yet.</p>)}
+        </QueryState>
+      </section>
+    </div>
+  );
+}
