@@ -52,6 +52,9 @@ describe('job flow and repair report', () => {
     expect(typo.body).toMatchObject({ verdict: { verdict: 'high' } });
     const fix = await tech.post(`/api/jobs/${jobId}/readings`, reading({ phase: 'verification', supersedes: typo.body.id }));
     expect(fix.body).toMatchObject({ verdict: { verdict: 'ok' } });
+    // The sign-off checklist also asks for the rail that feeds the divider (TP1, 15 V).
+    const rail = await tech.post(`/api/jobs/${jobId}/readings`, reading({ phase: 'verification', red: 'TP1', value: 15, raw: '15' }));
+    expect(rail.body).toMatchObject({ verdict: { verdict: 'ok' } });
     expect((await tech.patch(`/api/jobs/${jobId}`, { status: 'repaired' })).status).toBe(200);
     // the sign-off judges the correction, not the typo it replaced
     const signOff = await lead.patch(`/api/jobs/${jobId}`, { status: 'verified', functionalCheckDone: true });
@@ -60,7 +63,7 @@ describe('job flow and repair report', () => {
     const res = await tech.get(`/api/jobs/${jobId}/report`);
     expect(res.status).toBe(200);
     const report: RepairReport = repairReportSchema.parse(res.body);
-    expect(report.verification.map((r) => r.id)).toEqual([fix.body.id]);
+    expect(report.verification.map((r) => r.id).sort()).toEqual([fix.body.id, rail.body.id].sort());
     expect(report).toMatchObject({ verified: true, finding: { part: 'R2', reviewedBy: expect.any(String) }, repairs: [{ part: 'R2' }] });
     expect(report.foundBy.map((r) => r.raw)).toEqual(['2.1']);
 
