@@ -170,8 +170,16 @@ test.describe('repair, sign-off and return', () => {
   test('a verified board is returned with the date and how it left', async ({ page }) => {
     await signIn(page, 'tech@demo.test');
     const list = await getJson<{ items: { id: string }[] }>(page, '/jobs?status=verified');
-    test.skip(list.items.length === 0, 'the demo has no verified job');
-    const id = list.items[0]!.id;
+    // Other test files share the database and leave verified jobs on boards of their own (some in an older
+    // board-model form the job page refuses): take one whose job page loads.
+    let id: string | undefined;
+    for (const j of list.items) {
+      if ((await page.request.get(`/api/jobs/${j.id}`)).ok()) {
+        id = j.id;
+        break;
+      }
+    }
+    test.skip(id === undefined, 'the demo has no verified job');
     await page.goto(`/jobs/${id}/repair`);
     await page.getByLabel('sent by courier').check();
     await page.getByLabel('Date').fill('2026-12-04');

@@ -196,7 +196,7 @@ test.describe('touch screen', () => {
     const still = await onBoard(map, c0);
     // The board point under the fingers stays under them (to a screen pixel or two, from the rounded offset).
     expect(Math.hypot(still.x - under.x, still.y - under.y) * zoomed.scale).toBeLessThan(3);
-    await expect(page.getByRole('heading', { name: /^Reading at / }), 'a pinch is not a tap').toHaveCount(0);
+    await expect(page.locator('#reading-h'), 'a pinch is not a tap').toHaveCount(0);
 
     // Fingers that move while they pinch carry the board with them: what was under c1's start ends under its end.
     const c1 = { x: box.x + box.width * 0.6, y: box.y + box.height * 0.55 };
@@ -222,7 +222,7 @@ test.describe('touch screen', () => {
       await map.scrollIntoViewIfNeeded();
       const p = await onPage(map, t);
       await page.touchscreen.tap(p.x, p.y);
-      await expect(page.getByRole('heading', { name: new RegExp(`^Reading at ${t.id}\\b`) })).toBeVisible();
+      await expect(page.getByRole('heading', { name: new RegExp(` at ${t.id}\\b`) })).toBeVisible();
     }
     await shot(page, 'bench-map-pinched');
   });

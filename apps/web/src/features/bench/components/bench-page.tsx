@@ -194,7 +194,7 @@ function Bench({ job }: { job: JobDetail }) {
   const entry = panelTarget && canWrite && !gateShown && <ReadingPanel target={panelTarget} latest={latest} onSave={save} error={entryError} />;
 
   return (
-    <div className="flex flex-col gap-2 lg:h-[calc(100dvh-5.25rem)]">
+    <div className="flex flex-col gap-2 lg:h-[calc(100dvh_-_5.25rem_-_var(--banner-h,0px))]">
       <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
         <h1 className="text-xl font-semibold">
           Job #{job.number} · {job.boardName}
@@ -242,7 +242,8 @@ function Bench({ job }: { job: JobDetail }) {
               </button>
             ))}
           </div>
-          <div className="min-h-0 flex-1 overflow-auto">
+          {/* Focusable so a keyboard user can scroll the chosen view when it is taller than the screen. */}
+          <div className="min-h-0 flex-1 overflow-auto" tabIndex={0} role="region" aria-label="Chosen view">
             {tab === 'map' && (
               <div className="h-[55vh] min-h-72 lg:h-full lg:min-h-0">
                 <BoardMap
