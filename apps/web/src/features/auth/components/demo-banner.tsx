@@ -11,7 +11,9 @@ export function DemoBanner() {
   useEffect(() => {
     if (!shown) return;
     document.documentElement.style.setProperty('--banner-h', HEIGHT);
-    return () => document.documentElement.style.removeProperty('--banner-h');
+    return () => {
+      document.documentElement.style.removeProperty('--banner-h');
+    };
   }, [shown]);
   if (!shown) return null;
   return (
