@@ -15,8 +15,10 @@ import { reportRoutes } from './features/reports';
 import { reviewRoutes } from './features/reviews/routes';
 import { uploadRoutes } from './features/uploads/routes';
 import { userRoutes } from './features/users/routes';
-import { billingApiRoutes } from './features/billing/api';
-import { paymentWebhookRoutes } from './features/billing/webhook';
+import { billingRoutes } from './features/billing/routes';
+import { invoiceRoutes, paymentWebhookRoutes } from './features/invoices';
+import { mailOutboxRoutes } from './features/mail';
+import { quoteRoutes } from './features/quotes';
 import { dutyRoutes } from './features/duties/routes';
 import { customerPortalRoutes } from './features/customer-portal/routes';
 import { healthRoutes } from './features/health/routes';
@@ -74,7 +76,8 @@ export function createApp(ctx: AppContext): Express {
   api.use(repairRoutes(ctx));
   api.use(reportRoutes(ctx));
   api.use(uploadRoutes(ctx));
-  api.use(billingApiRoutes(ctx));
+  // Billing: settings, quotes, invoices, status e-mails and the development outbox.
+  api.use(billingRoutes(ctx), quoteRoutes(ctx), invoiceRoutes(ctx), mailOutboxRoutes(ctx));
   api.use(dutyRoutes(ctx));
   api.use(notFoundApi);
   app.use('/api', api);

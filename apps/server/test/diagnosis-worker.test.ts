@@ -9,7 +9,7 @@ import { diagnosisResponse, type Diagnosis, type ExpectedReadingRow } from '@spl
 import { jobs } from '../src/db/schema';
 import { buildBoardEngine, cachedBoardEngine } from '../src/features/boards/engine';
 import { currentReadings, shapeDiagnosis, toCaseReadings } from '../src/features/diagnosis/service';
-import { wordDiagnosis, wordsOf } from '../src/features/diagnosis/words';
+import { wordDiagnosis } from '../src/features/diagnosis/words';
 import type { RunningServer } from '../src/server';
 import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
@@ -69,9 +69,8 @@ describe('diagnosis in a worker thread', () => {
     expect(health.length).toBeGreaterThan(0);
     expect(update?.mock.calls ?? []).toHaveLength(0);
     const rows = await currentReadings(db, jobId);
-    // The server words the engine's answer for the bench (designators, probe places): the same words here.
-    const words = await wordsOf(job!.boardVersionId, () => Promise.resolve(document));
-    const local = wordDiagnosis(shapeDiagnosis(buildBoardEngine(job!.boardVersionId, document).diagnoser.update(toCaseReadings(rows)), job!, rows), words);
+    // The server copies the engine's words into the answer (designators, probe places): the same here.
+    const local = shapeDiagnosis(wordDiagnosis(buildBoardEngine(job!.boardVersionId, document).diagnoser.update(toCaseReadings(rows))), job!, rows);
     expect(d.body).toEqual(JSON.parse(JSON.stringify(diagnosisResponse.parse(local))));
     expect((d.body as unknown as Diagnosis).candidates.length).toBeGreaterThan(0);
   }, 120_000);

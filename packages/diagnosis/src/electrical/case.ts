@@ -215,7 +215,3 @@ export function checkReadingShape(r: unknown, i: number): asserts r is CaseReadi
   }
 }
 
-export const normNet = (n: string) => {
-  const l = n.trim().toLowerCase();
-  return l === 'gnd' ? '0' : l;
-};

@@ -10,12 +10,12 @@
  *   lifting one of the likeliest parts; never a test already taken (unless `confirm`), never one whose healthy
  *   value cannot be computed, and a powered probe on mains or the bus costs more and carries its caution.
  */
-import { NetlistError, parseNetlist, type Element, type MeterProfile, type Netlist } from '@splitscope/circuit';
+import { NetlistError, normNode, parseNetlist, type Element, type MeterProfile, type Netlist } from '@splitscope/circuit';
 import { diagnose } from '../core/engine.js';
 import { PredictionCache } from '../core/cache.js';
 import { rankTests } from '../core/probe.js';
 import type { Observation } from '../core/types.js';
-import { CaseError, checkReadingShape, normNet, validateCaseShape } from './case.js';
+import { CaseError, checkReadingShape, validateCaseShape } from './case.js';
 import type { BoardInput, CandidateReport, DiagnosisCase, DiagnosisOutput, NextTestReport, ReadingReport, UpdateOptions } from './case.js';
 import { ElectricalModel, testKey, type ElectricalTest } from './model.js';
 import { candidateTests, HAZARD_CAUTION, instruction, testCost, type BenchState, type Hazard, type TestPoint } from './nexttests.js';
@@ -48,7 +48,7 @@ export class Diagnoser {
       }
     } else netlist = board.netlist;
     try {
-      this.model = new ElectricalModel({ netlist, params: board.params, parts: board.parts, meter: board.meter, acMains: board.acMains?.map(normNet) });
+      this.model = new ElectricalModel({ netlist, params: board.params, parts: board.parts, meter: board.meter, acMains: board.acMains?.map(normNode) });
     } catch (err) {
       const msg = (err as Error).message.split('\n')[0] ?? '';
       throw new CaseError(err instanceof NetlistError ? `netlist: ${msg}` : msg);
@@ -58,9 +58,9 @@ export class Diagnoser {
     this.partByLower = new Map(this.model.parts.map((p) => [p.name.toLowerCase(), p.name]));
     if (board.testPoints) {
       board.testPoints.forEach((tp, i) => {
-        for (const n of [tp.net, tp.ref ?? '0']) if (!this.model.nets.has(normNet(n))) throw new CaseError(`testPoints ${i}: unknown net ${n}`);
+        for (const n of [tp.net, tp.ref ?? '0']) if (!this.model.nets.has(normNode(n))) throw new CaseError(`testPoints ${i}: unknown net ${n}`);
       });
-      this.testPoints = board.testPoints.map((tp) => ({ ...tp, net: normNet(tp.net), ref: normNet(tp.ref ?? '0') }));
+      this.testPoints = board.testPoints.map((tp) => ({ ...tp, net: normNode(tp.net), ref: normNode(tp.ref ?? '0') }));
     }
     this.names = this.makeNamer(netlist, board);
   }
@@ -79,9 +79,9 @@ export class Diagnoser {
       const part = this.model.partsByName.get(raw.name);
       if (!part) return [];
       const sub = raw.letter === 'X' ? Object.values(netlist.subckts).find((x) => x.name.toLowerCase() === raw.model?.toLowerCase()) : undefined;
-      return [{ part, designator: designator(raw.name), letter: raw.letter, nodes: raw.nodes.map(normNet), ports: sub?.ports, value: valueOf.get(raw.name.toLowerCase()) }];
+      return [{ part, designator: designator(raw.name), letter: raw.letter, nodes: raw.nodes.map(normNode), ports: sub?.ports, value: valueOf.get(raw.name.toLowerCase()) }];
     });
-    const connectors: ConnectorInput[] = (board.connectors ?? []).map((c) => ({ ...c, pins: c.pins.map((p) => ({ ...p, net: normNet(p.net) })) }));
+    const connectors: ConnectorInput[] = (board.connectors ?? []).map((c) => ({ ...c, pins: c.pins.map((p) => ({ ...p, net: normNode(p.net) })) }));
     const points = (this.testPoints ?? []).map((tp) => ({ ...tp }));
     const memo = new Map<string, ProbePoint>();
     const onBus = new Set(this.model.parts.filter((p) => p.nets.some((n) => this.model.hazards.bus.has(n))).map((p) => p.name));
@@ -113,8 +113,8 @@ export class Diagnoser {
   observations(readings: readonly unknown[]): Observation<ElectricalTest, ReadingValue>[] {
     return readings.map((r, i) => {
       checkReadingShape(r, i);
-      const red = normNet(r.red);
-      const black = normNet(r.black);
+      const red = normNode(r.red);
+      const black = normNode(r.black);
       if (!this.model.nets.has(red)) throw new CaseError(`reading ${i}: unknown net ${r.red}`);
       if (!this.model.nets.has(black)) throw new CaseError(`reading ${i}: unknown net ${r.black}`);
       const lifted = (r.lifted ?? []).map((p) => {

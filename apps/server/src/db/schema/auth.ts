@@ -38,6 +38,14 @@ export const users = pgTable(
   (t) => [uniqueIndex('users_email_unique').on(t.email), index('users_shop_idx').on(t.shopId)],
 );
 
+/** Who wrote a row and when: the last two columns of every row a person adds to a job's history. */
+export const authorColumns = () => ({
+  createdBy: text('created_by')
+    .notNull()
+    .references(() => users.id),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
 // lucia's session table: id, user_id, expires_at are the columns its Drizzle adapter expects.
 export const sessions = pgTable('sessions', {
   id: text('id').primaryKey(),

@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm';
 import { boolean, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex } from 'drizzle-orm/pg-core';
-import { shops, users } from './auth';
+import { authorColumns, shops, users } from './auth';
 import { boardModels, boardModelVersions } from './boards';
 import { customers } from './customers';
 
@@ -68,19 +68,27 @@ export const jobs = pgTable(
 );
 
 /**
+ * The first columns of every row of a job's history (readings, reviews, repairs, quotes, links, …): its id, the
+ * shop it belongs to and the job. A function, so each table gets column builders of its own.
+ */
+export const jobRowColumns = () => ({
+  id: text('id').primaryKey(),
+  shopId: text('shop_id')
+    .notNull()
+    .references(() => shops.id),
+  jobId: text('job_id')
+    .notNull()
+    .references(() => jobs.id),
+});
+
+/**
  * Append-only: a correction is a new row whose `supersedes` names the corrected one; nothing is updated.
  * The verdict is computed against the job's pinned board version when the row is stored.
  */
 export const readings = pgTable(
   'readings',
   {
-    id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id),
+    ...jobRowColumns(),
     idempotencyKey: text('idempotency_key').notNull(),
     /** sha256 of the request as parsed: a retry with the same key must send the same reading (null on older rows) */
     requestHash: text('request_hash'),
@@ -126,13 +134,7 @@ export const readings = pgTable(
 export const readingStrikes = pgTable(
   'reading_strikes',
   {
-    id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id),
+    ...jobRowColumns(),
     readingId: text('reading_id')
       .notNull()
       .references(() => readings.id),
@@ -148,20 +150,11 @@ export const readingStrikes = pgTable(
 export const diagnosisSnapshots = pgTable(
   'diagnosis_snapshots',
   {
-    id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id),
+    ...jobRowColumns(),
     engineVersion: text('engine_version').notNull(),
     proposedPart: text('proposed_part'),
     output: jsonb('output').notNull(),
-    createdBy: text('created_by')
-      .notNull()
-      .references(() => users.id),
-    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    ...authorColumns(),
   },
   (t) => [index('diagnosis_snapshots_job_idx').on(t.jobId, t.createdAt)],
 );
@@ -169,13 +162,7 @@ export const diagnosisSnapshots = pgTable(
 export const reviews = pgTable(
   'reviews',
   {
-    id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id),
+    ...jobRowColumns(),
     reviewerId: text('reviewer_id')
       .notNull()
       .references(() => users.id),
@@ -191,13 +178,7 @@ export const reviews = pgTable(
 export const repairActions = pgTable(
   'repair_actions',
   {
-    id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id),
+    ...jobRowColumns(),
     part: text('part').notNull(),
     action: repairActionEnum('action').notNull(),
     replacementValue: text('replacement_value'),
@@ -226,10 +207,7 @@ export const uploads = pgTable(
     name: text('name'),
     /** The key under which the Storage keeps the bytes. */
     storageKey: text('storage_key').notNull(),
-    createdBy: text('created_by')
-      .notNull()
-      .references(() => users.id),
-    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    ...authorColumns(),
   },
   (t) => [index('uploads_shop_idx').on(t.shopId, t.jobId)],
 );

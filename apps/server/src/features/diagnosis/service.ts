@@ -11,7 +11,7 @@ import { iso } from '../../lib/dates';
 import { unitOf } from '../boards';
 import { diagnosisFor } from './cache';
 import { diagnosisPool } from './pool';
-import { wordDiagnosis, wordsOf } from './words';
+import { wordDiagnosis } from './words';
 
 /** Stored with every snapshot, so an old diagnosis can be told apart from what today's engine would say. */
 export const ENGINE_VERSION = (() => {
@@ -97,8 +97,7 @@ export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Pr
     // A worker thread runs the engine (seconds on a first run), so the server answers other requests meanwhile.
     const out = await diagnosisPool().run(job.boardVersionId, toCaseReadings(rows), () => documentOf(db, job.boardVersionId));
     // Kept under the key of the rows it ran on: a reading stored since the key query makes that key differ.
-    const words = await wordsOf(job.boardVersionId, () => documentOf(db, job.boardVersionId));
-    return { key: keyOf(job.boardVersionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null), output: wordDiagnosis(shapeDiagnosis(out, job, rows), words) };
+    return { key: keyOf(job.boardVersionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null), output: shapeDiagnosis(wordDiagnosis(out), job, rows) };
   });
 }
 

@@ -19,6 +19,7 @@ import {
 } from '@splitscope/contract';
 import { assertRole, type Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
+import { getJobRow, type JobRow } from '../../db/job-row';
 import { boardModels, boardModelVersions, customers, diagnosisSnapshots, jobs, readingStrikes, readings, repairActions, reviews, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso, isoOrNull } from '../../lib/dates';
@@ -26,18 +27,8 @@ import { newId } from '../../lib/ids';
 import { getBoardVersion } from '../boards';
 import { toCustomer } from '../customers';
 import { computeDiagnosis, toSnapshot } from '../diagnosis';
-import { toReview } from '../reviews';
+import { toReview } from './review-view';
 import { checkMove, moveJob, type MoveRequest } from './flow';
-
-export type JobRow = typeof jobs.$inferSelect;
-
-/** A job of the actor's shop, or 404: another shop's ids look exactly like unknown ones. */
-export async function getJobRow(db: Db, shopId: string, id: string, lock = false): Promise<JobRow> {
-  const q = db.select().from(jobs).where(and(eq(jobs.id, id), eq(jobs.shopId, shopId)));
-  const [row] = lock ? await q.for('update') : await q;
-  if (!row) throw new AppError('not_found', `No job ${id}`);
-  return row;
-}
 
 const assignee = alias(users, 'assignee');
 

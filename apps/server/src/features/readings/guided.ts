@@ -7,20 +7,22 @@ import { DEFAULT_SAFE_THRESHOLD } from '@splitscope/boards';
 import type { Db } from '../../db/client';
 import type { jobs } from '../../db/schema';
 import { AppError } from '../../http/errors';
-import { normNet as norm } from '../boards';
+import { normNode as norm } from '@splitscope/circuit';
+import { LRUCache } from 'lru-cache';
 import { computeDiagnosis } from '../diagnosis';
 
 const sameSet = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((x) => b.some((y) => norm(x) === norm(y)));
 
 // The gate model (test points and sections) of a version, parsed once: a version never changes. Null when the
-// document cannot be read, which gates every unpowered reading.
-const gateModels = new Map<string, GateModel | null>();
+// document cannot be read, which gates every unpowered reading. This module is the cache's only user; lru-cache
+// keeps the 200 versions used last (a few kB each) and stores no null, hence the box.
+const gateModels = new LRUCache<string, { model: GateModel | null }>({ max: 200 });
 async function gateModelOf(versionId: string, loadDocument: () => Promise<unknown>): Promise<GateModel | null> {
-  if (gateModels.has(versionId)) return gateModels.get(versionId)!;
+  const hit = gateModels.get(versionId);
+  if (hit) return hit.model;
   const parsed = boardModelSchema.safeParse(await loadDocument());
   const model = parsed.success ? { testPoints: parsed.data.testPoints, sections: parsed.data.sections } : null;
-  gateModels.set(versionId, model);
-  if (gateModels.size > 200) gateModels.delete(gateModels.keys().next().value as string);
+  gateModels.set(versionId, { model });
   return model;
 }
 

@@ -11,7 +11,7 @@ import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
 import { boardEngine, cachedBoardEngine, powerRefusal, resolveNet, resolveParts, unitOf, verdictFor } from '../boards';
 import { getDutyRules } from '../duties';
-import { getJobRow } from '../jobs';
+import { getJobRow } from '../../db/job-row';
 import { checkGuidedStep, checkSafetyGate } from './guided';
 import { insertReading, type NewReading, type ReadingRow } from './write-batch';
 

@@ -8,7 +8,7 @@ import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
 import type { Storage } from '../../storage/storage';
-import { getJobRow } from '../jobs';
+import { getJobRow } from '../../db/job-row';
 
 const PNG = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
 const JPEG = Buffer.from([0xff, 0xd8, 0xff]);

@@ -11,6 +11,7 @@ import { useCustomers } from '../api/get-customers';
 import { useFaultCodes } from '../api/get-fault-codes';
 import { useUsers } from '../api/get-users';
 import { uploadPhoto } from '../api/upload-photo';
+import { formSubmit } from '@/lib/form-submit';
 
 type FormIn = z.input<typeof createJobRequest>;
 type FormOut = z.output<typeof createJobRequest>;
@@ -55,7 +56,7 @@ function NewJobPage() {
   return (
     <section className="max-w-3xl">
       <PageHeader title="Open a job (intake)" />
-      <form onSubmit={submit} noValidate className="grid gap-4 sm:grid-cols-2">
+      <form onSubmit={formSubmit(submit)} noValidate className="grid gap-4 sm:grid-cols-2">
         <label className="block">
           <span className="text-sm font-medium">Customer</span>
           <select className={field} {...form.register('customerId')} aria-invalid={!!e.customerId}>

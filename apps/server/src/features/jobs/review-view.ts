@@ -1,3 +1,4 @@
+// A review as the API shows it; the job detail lists a job's reviews, and the reviews feature answers with one.
 import type { Review } from '@splitscope/contract';
 import type { reviews } from '../../db/schema';
 import { iso } from '../../lib/dates';

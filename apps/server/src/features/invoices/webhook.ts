@@ -2,8 +2,8 @@ import express, { Router } from 'express';
 import type Stripe from 'stripe';
 import type { AppContext } from '../../context';
 import { AppError } from '../../http/errors';
-import { applyPaymentEvent } from '../invoices';
-import { paymentsFor } from './payments';
+import { applyPaymentEvent } from './service';
+import { paymentsFor } from '../billing';
 
 /**
  * The payment service's webhook. Mounted ahead of the JSON parser: the signature is over the raw bytes, so
