@@ -49,6 +49,13 @@ export const dictionaryStamp = (versionId: string) => `${ready.has(versionId) ? 
 export async function loadDictionary(db: Db, versionId: string): Promise<StoredDictionary | undefined> {
   const hit = ready.get(versionId);
   if (hit) return hit;
+  const stored = await readStoredDictionary(db, versionId);
+  if (stored) ready.set(versionId, stored);
+  return stored;
+}
+
+/** The stored dictionary as the database holds it (no process memory involved), or undefined while not ready. */
+export async function readStoredDictionary(db: Db, versionId: string): Promise<StoredDictionary | undefined> {
   const [head] = await db.select().from(faultDictionaries).where(byVersion(versionId));
   if (head?.state !== 'ready') return undefined;
   const rows = await db
@@ -60,12 +67,10 @@ export async function loadDictionary(db: Db, versionId: string): Promise<StoredD
     .select({ key: faultDictionaryPairs.faultKey, testKeys: faultDictionaryPairs.testKeys, predictions: faultDictionaryPairs.predictions })
     .from(faultDictionaryPairs)
     .where(and(eq(faultDictionaryPairs.versionId, versionId), eq(faultDictionaryPairs.engineVersion, DICTIONARY_ENGINE)));
-  const stored: StoredDictionary = {
+  return {
     dictionary: { tests: rows.map((r) => r.test as ElectricalTest), faults: head.faults as string[], rows: rows.map((r) => fromBytes(r.predictions)) },
     pairs: pairs.map((p) => ({ key: p.key, testKeys: p.testKeys as string[], values: fromBytes(p.predictions) })),
   };
-  ready.set(versionId, stored);
-  return stored;
 }
 
 /** Stores pair columns a diagnosis thread computed, for every later process, and re-ranks this one's jobs. */
