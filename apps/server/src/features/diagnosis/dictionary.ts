@@ -138,9 +138,6 @@ export async function ensureAllDictionaries(db: Db): Promise<void> {
   for (const m of missing) await ensureDictionary(db, m.id);
 }
 
-/** Resolves when this process's queued builds are done (tests, the benchmark). */
-export const dictionaryBuildsDone = (): Promise<void> => running ?? Promise.resolve();
-
 async function drain(): Promise<void> {
   const worker = new Worker(BUILDER, { name: 'splitscope-dictionary' });
   try {
