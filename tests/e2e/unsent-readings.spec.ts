@@ -11,7 +11,8 @@ test.describe('readings typed while the network is down', () => {
     await expect(page.getByRole('heading', { name: /Welcome/ })).toBeVisible();
     const job = await findJob(page, ['received', 'diagnosing'], '&assignee=me');
     const before = (await getJson<ReadingList>(page, `/jobs/${job.id}/readings`)).items.length;
-    await page.goto(`/jobs/${job.id}?mode=free`);
+    // The test-point list is a view of its own beside the map.
+    await page.goto(`/jobs/${job.id}?mode=free&tab=points`);
     await page.getByRole('navigation', { name: 'Test points' }).getByRole('button').first().click();
     await expect(page.getByLabel('Measured value')).toBeFocused();
     await page.getByLabel('Measured value').fill('14.9');
