@@ -2,7 +2,7 @@
 // the new job shows the flag too. The spec makes its own board model, customer and earlier job through the API.
 import { randomUUID } from 'node:crypto';
 import { expect, signIn, test } from './fixtures';
-import { benchSetup, returnedJob } from './shop-data';
+import { benchSetup, returnedJob } from './support/divider-job';
 
 test('a warranty return is flagged at intake and on the job, in the bench’s words', async ({ page }) => {
   test.setTimeout(120_000); // the earlier job's proposal runs the diagnosis of a new board model

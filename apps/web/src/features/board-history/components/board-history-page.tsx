@@ -9,7 +9,7 @@ import { useJob } from '@/lib/api/get-job';
 const field = 'mt-1 block min-h-11 w-full rounded-md border border-stone-500 bg-white px-3';
 
 /** Jobs by board serial or unit serial: what the shop did to this board before. */
-export function SerialLookupPage() {
+function SerialLookupPage() {
   const [params, setParams] = useSearchParams();
   const [serial, setSerial] = useState(params.get('serial') ?? '');
   const [unitSerial, setUnitSerial] = useState(params.get('unitSerial') ?? '');

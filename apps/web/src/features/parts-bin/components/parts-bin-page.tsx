@@ -20,7 +20,7 @@ function StockForm() {
     const minimum = Number(f.minimum || '0');
     if (!Number.isInteger(quantity) || quantity < 0) return setError('Quantity: a whole number, 0 or more');
     if (!Number.isInteger(minimum) || minimum < 0) return setError('Minimum: a whole number, 0 or more');
-    let unitCents = 0;
+    let unitCents: number;
     try {
       unitCents = f.price.trim() ? parseMoney(f.price) : 0;
     } catch (err) {

@@ -29,7 +29,8 @@ function RepairForm({ job }: { job: JobDetail }) {
     defaultValues: { part: job.proposedPart ?? '', action: 'replaced', replacementValue: '', marking: '', notes: '', binQuantity: 1 },
   });
   const submit = form.handleSubmit(async (v) => {
-    await create.mutateAsync(v);
+    // A refused repair (a drawer that does not fit) shows from the mutation state; it is not an uncaught error.
+    if (!(await create.mutateAsync(v).then(() => true, () => false))) return;
     if (job.allowedTransitions.includes('repaired')) await update.mutateAsync({ status: 'repaired' });
     // The drawer is not kept: saving again must not take a second part from it.
     form.reset({ ...v, notes: '', binPartId: undefined, binQuantity: 1 });

@@ -1,7 +1,14 @@
 import { randomUUID } from 'node:crypto';
 import { request, type APIRequestContext } from '@playwright/test';
 import { BOARD_MODEL_SCHEMA_VERSION } from '@splitscope/contract';
-import { DEMO_PASSWORD, expect } from './fixtures';
+import { readingRequest } from '../../../apps/server/src/testing/requests';
+import { DEMO_PASSWORD, expect } from '../fixtures';
+
+/**
+ * A job of a spec's own on an invented divider board, taken through the flow by the people whose role each step
+ * needs (technician, lead, admin), each with an API session beside the browser's. See support/shop-data.ts for
+ * single-user helpers on the demo boards.
+ */
 
 /** An API session of one demo person, beside the browser's (the spec's own data goes in through it). */
 export async function apiAs(email: string): Promise<APIRequestContext> {
@@ -56,7 +63,7 @@ export async function benchSetup() {
 }
 
 type Setup = Awaited<ReturnType<typeof benchSetup>>;
-const reading = (o: Record<string, unknown>) => ({ idempotencyKey: randomUUID(), mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', ...o });
+const reading = (o: { value: number; raw: string; phase?: 'verification'; red?: string }) => readingRequest({ mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', ...o });
 
 /** A job on the spec's board taken to approved: R2 found (TP2 reads 2.1 V instead of 7.5 V), the lead approves. */
 export async function approvedJob(s: Setup, extra: Record<string, unknown> = {}) {
