@@ -5,3 +5,4 @@ export * from './jobs';
 export * from './billing';
 export * from './rules';
 export * from './dictionary';
+export * from './shop-memory';
