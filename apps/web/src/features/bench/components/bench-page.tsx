@@ -214,6 +214,11 @@ function Bench({ job }: { job: JobDetail }) {
               Repair and verification
             </Link>
           )}
+          {!['verified', 'returned'].includes(job.status) && (
+            <Link className={linkClass} to={`/jobs/${job.id}/import`}>
+              Import meter log
+            </Link>
+          )}
           <Link className={linkClass} to={`/jobs/${job.id}/report`}>
             Report
           </Link>
