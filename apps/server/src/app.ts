@@ -6,6 +6,7 @@ import { sessionMiddleware } from './auth/session';
 import type { AppContext } from './context';
 import { authRoutes } from './features/auth/routes';
 import { boardRoutes } from './features/boards/routes';
+import { ensureDictionary } from './features/diagnosis';
 import { customerRoutes } from './features/customers/routes';
 import { diagnosisRoutes } from './features/diagnosis/routes';
 import { jobRoutes } from './features/jobs/routes';
@@ -23,6 +24,10 @@ import { dutyRoutes } from './features/duties/routes';
 import { customerPortalRoutes } from './features/customer-portal/routes';
 import { healthRoutes } from './features/health/routes';
 import { shopRoutes } from './features/shops/routes';
+import { boardHistoryRoutes } from './features/board-history';
+import { serviceTermsRoutes } from './features/service-terms';
+import { partsBinRoutes } from './features/parts-bin';
+import { meterImportRoutes } from './features/meter-import';
 import { errorHandler, notFoundApi } from './http/errors';
 import { hostAllowList } from './http/host';
 import { originCheck } from './http/origin';
@@ -69,7 +74,10 @@ export function createApp(ctx: AppContext): Express {
   api.use(shopRoutes(ctx));
   api.use(userRoutes(ctx));
   api.use(customerRoutes(ctx));
-  api.use(boardRoutes(ctx));
+  // A published version's fault dictionary is built in the background; the version is usable at once.
+  const buildDictionary = (versionId: string) =>
+    void ensureDictionary(ctx.db, versionId).catch((err: unknown) => console.error(`splitscope: fault dictionary of ${versionId} not started: ${(err as Error).message}`));
+  api.use(boardRoutes(ctx, buildDictionary));
   api.use(jobRoutes(ctx));
   api.use(diagnosisRoutes(ctx));
   api.use(reviewRoutes(ctx));
@@ -79,6 +87,10 @@ export function createApp(ctx: AppContext): Express {
   // Billing: settings, quotes, invoices, status e-mails and the development outbox.
   api.use(billingRoutes(ctx), quoteRoutes(ctx), invoiceRoutes(ctx), mailOutboxRoutes(ctx));
   api.use(dutyRoutes(ctx));
+  api.use(serviceTermsRoutes(ctx));
+  api.use(boardHistoryRoutes(ctx));
+  api.use(partsBinRoutes(ctx));
+  api.use(meterImportRoutes(ctx));
   api.use(notFoundApi);
   app.use('/api', api);
 
