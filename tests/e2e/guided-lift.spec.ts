@@ -1,18 +1,8 @@
 // A lead lifts guided order for a trainee on all of that trainee's jobs, from the bench of any one of them, and
 // puts it back. The spec makes its own trainee (an invitation accepted through the API), customer and jobs.
-import { randomUUID } from 'node:crypto';
-import type { Me } from '@splitscope/contract';
-import type { Page } from '@playwright/test';
+import type { CreatedInvitation, Me } from '@splitscope/contract';
 import { DEMO_PASSWORD, expect, signIn, test } from './fixtures';
-import { getJson } from './helpers';
-
-/** POSTs to the API with the page's cookies (a session the answer sets is the page's too). */
-async function post(page: Page, path: string, body: unknown) {
-  const r = await page.request.post(`/api${path}`, { data: body });
-  const text = await r.text();
-  expect(r.status(), `${path}: ${text}`).toBeLessThan(300);
-  return (text ? JSON.parse(text) : {}) as Record<string, string>;
-}
+import { api, createCustomer, createJob, runTag } from './support/shop-data';
 
 test('a lead lifts guided order on all of a trainee’s jobs, and holds the trainee to it again', async ({ page, browser }) => {
   // Three people sign in (argon2 each) and three benches load: about 30 s on a quiet machine, 85 s on a busy one.
@@ -20,14 +10,14 @@ test('a lead lifts guided order on all of a trainee’s jobs, and holds the trai
   // The admin only invites (through the API); the lead works in the browser. Both sign in at once.
   const admin = await browser.newPage();
   await Promise.all([signIn(page, 'lead@demo.test'), admin.request.post('/api/auth/sign-in', { data: { email: 'admin@demo.test', password: DEMO_PASSWORD } })]);
-  const name = `Robin ${randomUUID().slice(0, 6)}`;
-  const invite = await post(admin, '/users/invitations', { name, email: `robin-${randomUUID()}@example.test`, role: 'trainee' });
+  const tag = runTag();
+  const name = `Robin ${tag.slice(0, 6)}`;
+  const invite = await api.send<CreatedInvitation>(admin, 'POST', '/users/invitations', { name, email: `robin-${tag}@example.test`, role: 'trainee' }, 201);
   const traineePage = await browser.newPage();
-  await post(traineePage, '/auth/accept-invitation', { token: invite.token, password: 'guided-lift-trainee-1' });
-  const traineeId = (await getJson<Me>(traineePage, '/me')).id;
-  const customer = await post(page, '/customers', { name: `Lift Check Cooling ${randomUUID().slice(0, 6)}`, kind: 'contractor' });
-  const job = (symptom: string) =>
-    post(page, '/jobs', { customerId: customer.id, boardId: 'board-demo-ofd-220', unitDescription: 'Outdoor unit', faultCode: 'F7', symptom, assigneeId: traineeId });
+  await api.send(traineePage, 'POST', '/auth/accept-invitation', { token: invite.token, password: 'guided-lift-trainee-1' }, 204);
+  const traineeId = (await api.get<Me>(traineePage, '/me')).id;
+  const customer = await createCustomer(page);
+  const job = (symptom: string) => createJob(page, { customerId: customer.id, faultCode: 'F7', symptom, assigneeId: traineeId });
   const [a, b] = [await job('Fan stops after a minute'), await job('Fan never starts')];
 
   // Bound to start with, on both jobs.
