@@ -27,6 +27,11 @@ test('a lead lifts guided order on all of a trainee’s jobs, and holds the trai
   await page.goto(`/jobs/${a.id}`);
   const control = page.getByTestId('trainee-guided');
   await expect(control).toContainText(`${name}: guided order on`, { timeout: 20_000 });
+  // Before the first reading the ranking names what the fault code points at, by section, and the first test.
+  const before = page.getByTestId('before-first-reading');
+  await expect(before).toContainText('Fault code F7');
+  await expect(before).toContainText('Fan supply switch');
+  await expect(before).toContainText(/First test: Put the red probe on/, { timeout: 20_000 });
   await control.locator('summary').click();
   await control.getByRole('button', { name: `Lift guided order on all of ${name}’s jobs` }).click();
   await expect(control).toContainText(`${name}: guided order lifted`);

@@ -35,6 +35,7 @@ export function RankingPanel({
   onPickPart,
   onPickTest,
   before,
+  guided = false,
 }: {
   parts: RankedPart[];
   nextTests: NextTestView[];
@@ -42,7 +43,9 @@ export function RankingPanel({
   onPickPart: (part: string) => void;
   onPickTest?: (t: NextTestView) => void;
   /** Before the first reading: what the fault code points at, instead of every part of the board at equal odds. */
-  before?: { code: string | null; meaning: string | null; sections: string[] } | null;
+  before?: { code: string | null; meaning: string | null; sections: string[]; firstTest: string | null } | null;
+  /** In guided order the one step to take is the guided step beside the map, not a list to choose from. */
+  guided?: boolean;
 }) {
   // With no readings every part is equally suspect: a list of a hundred parts helps nobody, so show the leaders.
   const [all, setAll] = useState(false);
@@ -53,7 +56,9 @@ export function RankingPanel({
         <h2 id="next-h" className="mb-1 text-base font-semibold">
           Next tests
         </h2>
-        {nextTests.length === 0 ? (
+        {guided ? (
+          <p className="text-sm text-stone-700">Guided order: take the step shown beside the map.</p>
+        ) : nextTests.length === 0 ? (
           <p className="text-sm text-stone-700">No further test would change the ranking.</p>
         ) : (
           <ol className="space-y-1">
@@ -80,7 +85,7 @@ export function RankingPanel({
         {before ? (
           <div className="rounded-md bg-board-light p-2 text-sm" data-testid="before-first-reading">
             <p>
-              No reading yet: every part is equally likely.{' '}
+              No reading yet, so no part is ranked.{' '}
               {before.code ? (
                 <>
                   Fault code <strong>{before.code}</strong>
@@ -89,7 +94,13 @@ export function RankingPanel({
               ) : (
                 'No fault code was logged.'
               )}{' '}
-              Take the first test below.
+              {before.firstTest ? (
+                <>
+                  First test: <strong>{before.firstTest}</strong>
+                </>
+              ) : (
+                'The engine is choosing the first test.'
+              )}
             </p>
           </div>
         ) : parts.length === 0 ? (
