@@ -24,3 +24,5 @@ export * from './verification';
 export * from './policy';
 export * from './duties';
 export * from './report';
+export * from './shop-memory';
+export * from './meter-import';
