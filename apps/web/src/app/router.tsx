@@ -31,6 +31,7 @@ const JobHistoryPage = lazy(async () => ({ default: (await import('@/features/bo
 const ServiceTermsPage = lazy(() => import('@/features/service-terms/components/service-terms-page'));
 const PartsBinPage = lazy(() => import('@/features/parts-bin/components/parts-bin-page'));
 const MeterImportPage = lazy(() => import('@/features/meter-import/components/meter-import-page'));
+const StatsPage = lazy(() => import('@/features/shop-stats/components/stats-page'));
 const BillingSettingsPage = lazy(() => import('@/features/billing/components/billing-settings-page'));
 
 const loading = <p className="p-6">Loading…</p>;
@@ -74,6 +75,7 @@ export const router = createBrowserRouter([
       { path: 'jobs/:id/import', element: <MeterImportPage /> },
       { path: 'history', element: <SerialLookupPage /> },
       { path: 'parts-bin', element: <PartsBinPage /> },
+      { path: 'stats', element: <StatsPage /> },
       { path: 'review', element: <ReviewQueuePage /> },
       { path: 'boards', element: <BoardLibraryPage /> },
       { path: 'boards/:id', element: <BoardEditorPage /> },
