@@ -19,7 +19,7 @@ export function BarChart({ labels, series, horizontal = false }: { labels: strin
     return () => chart.destroy();
   }, [labels, series, horizontal]);
   return (
-    <div className="relative h-64 w-full" aria-hidden>
+    <div className="relative h-64 w-full min-w-0" aria-hidden>
       <canvas ref={canvas} />
     </div>
   );

@@ -10,7 +10,7 @@ const useShopStats = () => useQuery(queryOptions({ queryKey: ['stats'], queryFn:
 
 function Figure({ title, chart, children }: { title: string; chart: ReactNode; children: ReactNode }) {
   return (
-    <section aria-label={title} className="space-y-2 rounded-lg border border-stone-300 bg-white p-3">
+    <section aria-label={title} className="min-w-0 space-y-2 rounded-lg border border-stone-300 bg-white p-3">
       <h2 className="text-lg font-semibold">{title}</h2>
       {chart}
       <div className="overflow-x-auto">{children}</div>
