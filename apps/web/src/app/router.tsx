@@ -22,6 +22,8 @@ const JobBillingPage = lazy(() => import('@/features/billing/components/job-bill
 const FirstRunPage = lazy(() => import('@/features/shop/components/first-run-page'));
 const ShopPage = lazy(() => import('@/features/shop/components/shop-page'));
 const PeoplePage = lazy(() => import('@/features/people/components/people-page'));
+const CustomersPage = lazy(() => import('@/features/customers/components/customers-page'));
+const CustomerDetailPage = lazy(() => import('@/features/customers/components/customer-detail-page'));
 const AccountPage = lazy(() => import('@/features/account/components/account-page'));
 const InvitationPage = lazy(() => import('@/features/auth/components/invitation-page'));
 const ForgotPasswordPage = lazy(() => import('@/features/auth/components/forgot-password-page'));
@@ -71,6 +73,8 @@ export const router = createBrowserRouter([
       { path: 'references', element: <ReferencesPage /> },
       { path: 'dev/mail', element: <MailOutboxPage /> },
       { path: 'billing/settings', element: <BillingSettingsPage /> },
+      { path: 'customers', element: <CustomersPage /> },
+      { path: 'customers/:id', element: <CustomerDetailPage /> },
       { path: 'people', element: <PeoplePage /> },
       { path: 'shop', element: <ShopPage /> },
       { path: 'account', element: <AccountPage /> },

@@ -1,5 +1,5 @@
 import { and, count, eq, sql } from 'drizzle-orm';
-import type { AppMode, FirstRunRequest, Shop, UpdateShopRequest } from '@splitscope/contract';
+import type { AppMode, FirstRunRequest, Shop, ShopCard, UpdateShopRequest } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Auth } from '../../auth/lucia';
 import { hashPassword } from '../../auth/password';
@@ -22,6 +22,9 @@ export const toShop = (r: Row): Shop => ({
   sessionIdleHours: r.sessionIdleHours,
   sessionMaxDays: r.sessionMaxDays,
 });
+
+/** What customers see of the shop (reports, e-mails, the customer page); never its session settings. */
+export const toShopCard = (r: Row): ShopCard => ({ name: r.name, address: r.address, phone: r.phone, email: r.email, taxNumber: r.taxNumber, hasLogo: r.logoUploadId !== null });
 
 /** The first-run page is open only in shop mode and only until a shop exists. */
 export async function setupStatus({ db, mode }: { db: Db; mode: AppMode }) {

@@ -1,5 +1,5 @@
 import { useState, type FormEvent } from 'react';
-import { createInvitationRequest, roles, type Invitation, type Role, type ShopMember } from '@splitscope/contract';
+import { createInvitationRequest, roleLabels, roles, type Invitation, type Role, type ShopMember } from '@splitscope/contract';
 import { Button } from '@/components/ui/button';
 import { PageHeader } from '@/components/ui/page-header';
 import { QueryState } from '@/components/ui/query-state';
@@ -11,7 +11,7 @@ import { usePeople } from '../api/get-people';
 import { useResendInvitation } from '../api/resend-invitation';
 import { useUpdatePerson } from '../api/update-person';
 
-const roleLabel: Record<Role, string> = { admin: 'Shop admin', lead: 'Lead', tech: 'Technician', trainee: 'Trainee' };
+const roleLabel = roleLabels;
 const select = 'min-h-11 rounded-md border border-stone-500 bg-white px-2';
 
 function InviteForm() {
