@@ -25,9 +25,8 @@ const PeoplePage = lazy(() => import('@/features/people/components/people-page')
 const CustomersPage = lazy(() => import('@/features/customers/components/customers-page'));
 const CustomerDetailPage = lazy(() => import('@/features/customers/components/customer-detail-page'));
 const AccountPage = lazy(() => import('@/features/account/components/account-page'));
-const InvitationPage = lazy(() => import('@/features/auth/components/invitation-page'));
+const PasswordLinkPage = lazy(() => import('@/features/auth/components/password-link-page'));
 const ForgotPasswordPage = lazy(() => import('@/features/auth/components/forgot-password-page'));
-const ResetPasswordPage = lazy(() => import('@/features/auth/components/reset-password-page'));
 const BillingSettingsPage = lazy(() => import('@/features/billing/components/billing-settings-page'));
 
 const loading = <p className="p-6">Loading…</p>;
@@ -51,9 +50,9 @@ export const router = createBrowserRouter([
     children: [
   { path: '/sign-in', element: <SignInPage /> },
   { path: '/first-run', element: page(<FirstRunPage />) },
-  { path: '/invitation/:token', element: page(<InvitationPage />) },
+  { path: '/invitation/:token', element: page(<PasswordLinkPage link="invitation" />) },
   { path: '/forgot-password', element: page(<ForgotPasswordPage />) },
-  { path: '/reset-password/:token', element: page(<ResetPasswordPage />) },
+  { path: '/reset-password/:token', element: page(<PasswordLinkPage link="reset" />) },
   { path: '/dev/perf', lazy: async () => ({ Component: (await import('@/features/perf-lab/components/perf-lab-page')).default }) },
   { path: '/c/:token', element: <Suspense fallback={<p className="p-6">Loading…</p>}><CustomerPage /></Suspense> },
   {

@@ -2,6 +2,7 @@ import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { ROLES, hasRole, type Customer } from '@splitscope/contract';
 import { Button } from '@/components/ui/button';
+import { SelectField } from '@/components/ui/select-field';
 import { PageHeader } from '@/components/ui/page-header';
 import { QueryState } from '@/components/ui/query-state';
 import { StatusBadge } from '@/components/ui/status-badge';
@@ -9,7 +10,7 @@ import { ErrorNote } from '@/components/ui/text-field';
 import { useJobs } from '@/lib/api/get-jobs';
 import { useMe } from '@/lib/api/me';
 import { useCustomer, useCustomerList, useMergeCustomer, useUpdateCustomer } from '../api/customers';
-import { CustomerForm, kindLabel, selectClass } from './customer-form';
+import { CustomerForm, kindLabel } from './customer-form';
 
 function CustomerJobs({ id }: { id: string }) {
   const jobs = useJobs({ customerId: id });
@@ -51,17 +52,14 @@ function MergeDuplicate({ keep }: { keep: Customer }) {
       <h2 id="merge" className="text-lg font-semibold">Merge a duplicate into {keep.name}</h2>
       <p className="text-sm text-stone-700">The duplicate's jobs, quotes and invoices move here; then the duplicate is removed. This cannot be undone.</p>
       <div className="flex flex-wrap items-end gap-3">
-        <label className="block min-w-64 flex-1">
-          <span className="text-sm font-medium">Duplicate customer</span>
-          <select className={selectClass} value={duplicateId} onChange={(e) => setDuplicateId(e.target.value)}>
-            <option value="">Choose the duplicate</option>
-            {candidates.map((c) => (
-              <option key={c.id} value={c.id}>
-                {[c.name, c.company, c.email].filter(Boolean).join(' · ')}
-              </option>
-            ))}
-          </select>
-        </label>
+        <SelectField
+          label="Duplicate customer"
+          value={duplicateId}
+          options={['', ...candidates.map((c) => c.id)]}
+          labels={Object.fromEntries([['', 'Choose the duplicate'], ...candidates.map((c) => [c.id, [c.name, c.company, c.email].filter(Boolean).join(' · ')])])}
+          onChange={setDuplicateId}
+          className="min-w-64 flex-1"
+        />
         <Button variant="secondary" disabled={!chosen || merge.isPending} onClick={() => merge.mutate(duplicateId, { onSuccess: () => setDuplicateId('') })}>
           {merge.isPending ? 'Merging…' : chosen ? `Merge ${chosen.name} into ${keep.name}` : 'Merge'}
         </Button>

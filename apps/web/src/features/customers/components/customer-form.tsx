@@ -1,10 +1,10 @@
 import { useState, type FormEvent } from 'react';
 import { createCustomerRequest, customerKinds, type CreateCustomerRequest, type Customer, type CustomerKind } from '@splitscope/contract';
 import { Button } from '@/components/ui/button';
+import { SelectField } from '@/components/ui/select-field';
 import { ErrorNote, TextField } from '@/components/ui/text-field';
 
 export const kindLabel: Record<CustomerKind, string> = { contractor: 'Contractor (firm)', 'field-technician': 'Field technician' };
-export const selectClass = 'mt-1 block min-h-11 w-full rounded-md border border-stone-500 bg-white px-2';
 
 /** Name, firm, e-mail, phone, kind and notes: one form to add a customer and to edit one. */
 export function CustomerForm({ start, label, submitLabel, pending, error, onSubmit }: {
@@ -33,16 +33,7 @@ export function CustomerForm({ start, label, submitLabel, pending, error, onSubm
       <TextField label="Firm (if any)" autoComplete="off" {...bind('company')} />
       <TextField label="E-mail (quotes and invoices go here)" type="email" autoComplete="off" {...bind('email')} />
       <TextField label="Phone" type="tel" autoComplete="off" {...bind('phone')} />
-      <label className="block">
-        <span className="text-sm font-medium">Kind</span>
-        <select className={selectClass} value={f.kind} onChange={(e) => setF({ ...f, kind: e.target.value as CustomerKind })}>
-          {customerKinds.map((k) => (
-            <option key={k} value={k}>
-              {kindLabel[k]}
-            </option>
-          ))}
-        </select>
-      </label>
+      <SelectField label="Kind" value={f.kind} options={customerKinds} labels={kindLabel} onChange={(kind) => setF({ ...f, kind })} />
       <TextField label="Notes" autoComplete="off" {...bind('notes')} />
       <div className="sm:col-span-2" aria-live="polite">
         <ErrorNote error={error} />

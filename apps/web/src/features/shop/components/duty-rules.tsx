@@ -1,4 +1,5 @@
-import { roleLabels, roles, type DutyRules } from '@splitscope/contract';
+import { roleLabels, roles, type DutyRules, type Role } from '@splitscope/contract';
+import { SelectField } from '@/components/ui/select-field';
 import { QueryState } from '@/components/ui/query-state';
 import { ErrorNote } from '@/components/ui/text-field';
 import { useDutyRules, useUpdateDutyRules } from '../api/duty-rules';
@@ -18,22 +19,16 @@ function DutyRulesForm({ rules }: { rules: DutyRules }) {
           <span>The proposer may approve their own diagnosis (a one-person shop)</span>
         </label>
       </fieldset>
-      <label className="block max-w-md">
-        <span className="font-medium">Who may correct a reading someone else took</span>
-        <select
-          className="mt-1 block min-h-11 w-full rounded-md border border-stone-500 bg-white px-2"
-          value={rules.correctOthersMinRole}
-          disabled={update.isPending}
-          onChange={(e) => update.mutate({ correctOthersMinRole: e.target.value as DutyRules['correctOthersMinRole'] })}
-        >
-          {[...roles].reverse().map((r) => (
-            <option key={r} value={r}>
-              {roleLabels[r]} and above
-            </option>
-          ))}
-        </select>
-        <span className="block text-sm text-stone-700">Everyone may always correct their own readings.</span>
-      </label>
+      <SelectField
+        label="Who may correct a reading someone else took"
+        value={rules.correctOthersMinRole}
+        options={[...roles].reverse()}
+        labels={Object.fromEntries(roles.map((r) => [r, `${roleLabels[r]} and above`])) as Record<Role, string>}
+        disabled={update.isPending}
+        onChange={(correctOthersMinRole) => update.mutate({ correctOthersMinRole })}
+        hint="Everyone may always correct their own readings."
+        className="max-w-md"
+      />
       <div aria-live="polite">
         <ErrorNote error={update.error} />
         {update.isSuccess && <p className="text-sm font-semibold text-ok">Saved.</p>}
