@@ -24,3 +24,4 @@ export * from './verification';
 export * from './policy';
 export * from './duties';
 export * from './report';
+export * from './references';

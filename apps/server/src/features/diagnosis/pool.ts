@@ -3,7 +3,7 @@
 // makes a later update fast), so calls go to the thread that has the board, a board document crosses to a
 // thread once, and a thread that dies takes only its own pending calls with it.
 import { Worker } from 'node:worker_threads';
-import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
+import type { CaseReading, DiagnosisOutput, UpdateOptions } from '@splitscope/diagnosis';
 import { AppError } from '../../http/errors';
 import type { WorkerFailure, WorkerReply, WorkerRequest } from './protocol';
 
@@ -12,6 +12,7 @@ const ENTRY = new URL('./worker-entry.mjs', import.meta.url);
 interface Call {
   versionId: string;
   readings: CaseReading[];
+  options?: Pick<UpdateOptions, 'priors' | 'history' | 'references'>;
   loadDocument: () => Promise<unknown>;
   resolve: (out: DiagnosisOutput) => void;
   reject: (err: unknown) => void;
@@ -42,8 +43,8 @@ export class DiagnosisPool {
   constructor(private readonly options: PoolOptions) {}
 
   /** The engine's output for these readings on a board version; the document is loaded only if needed. */
-  run(versionId: string, readings: CaseReading[], loadDocument: () => Promise<unknown>): Promise<DiagnosisOutput> {
-    return new Promise((resolve, reject) => void this.dispatch({ versionId, readings, loadDocument, resolve, reject }, false));
+  run(versionId: string, readings: CaseReading[], loadDocument: () => Promise<unknown>, options?: Pick<UpdateOptions, 'priors' | 'history' | 'references'>): Promise<DiagnosisOutput> {
+    return new Promise((resolve, reject) => void this.dispatch({ versionId, readings, loadDocument, resolve, reject, ...(options ? { options } : {}) }, false));
   }
 
   /**
@@ -75,7 +76,7 @@ export class DiagnosisPool {
       thread.pending.set(id, call);
       // Referenced only while it owes an answer, so an idle thread never keeps the process alive.
       thread.worker.ref();
-      const message: WorkerRequest = { id, versionId: call.versionId, readings: call.readings, ...(withDocument ? { document } : {}) };
+      const message: WorkerRequest = { id, versionId: call.versionId, readings: call.readings, ...(call.options ? { options: call.options } : {}), ...(withDocument ? { document } : {}) };
       thread.worker.postMessage(message);
     } catch (err) {
       call.reject(err);

@@ -1,12 +1,14 @@
 // What the server and its diagnosis threads say to each other. Everything crosses by structured clone, so
 // errors travel as plain data and are rebuilt on the server's side.
-import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
+import type { CaseReading, DiagnosisOutput, UpdateOptions } from '@splitscope/diagnosis';
 import type { AppError } from '../../http/errors';
 
 export interface WorkerRequest {
   id: number;
   versionId: string;
   readings: CaseReading[];
+  /** The job's prior adjustments and failure history (structured-clone safe). */
+  options?: Pick<UpdateOptions, 'priors' | 'history' | 'references'>;
   /** The board model document, sent only when this thread has not been given the version yet. */
   document?: unknown;
 }

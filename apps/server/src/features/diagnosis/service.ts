@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
-import { BOUNDS, readableDiagnosis, type Diagnosis, type DiagnosisSnapshot } from '@splitscope/contract';
+import { BOUNDS, readableDiagnosis, type Diagnosis, type DiagnosisSnapshot, type PriorSource } from '@splitscope/contract';
 import type { Db } from '../../db/client';
 import { boardModelVersions, diagnosisSnapshots, jobs, readingStrikes, readings } from '../../db/schema';
 import { AppError } from '../../http/errors';
@@ -11,6 +11,7 @@ import { iso } from '../../lib/dates';
 import { unitOf } from '../boards';
 import { diagnosisFor } from './cache';
 import { diagnosisPool } from './pool';
+import { jobPriors } from './priors';
 import { wordDiagnosis, wordsOf } from './words';
 
 /** Stored with every snapshot, so an old diagnosis can be told apart from what today's engine would say. */
@@ -21,10 +22,10 @@ export const ENGINE_VERSION = (() => {
 
 /** The same digest PostgreSQL's md5() gives, so a key computed here matches the one the database computes. */
 const md5 = (text: string) => createHash('md5').update(text).digest('hex');
-const keyOf = (versionId: string, n: number, digest: string | null) => `${versionId}|${n}|${digest ?? ''}`;
+const keyOf = (versionId: string, n: number, digest: string | null, priorsKey: string) => `${versionId}|${n}|${digest ?? ''}|${priorsKey}`;
 
 type ReadingRow = typeof readings.$inferSelect;
-type JobRef = Pick<typeof jobs.$inferSelect, 'id' | 'boardVersionId'>;
+type JobRef = Pick<typeof jobs.$inferSelect, 'id' | 'boardVersionId'> & Partial<Pick<typeof jobs.$inferSelect, 'shopId' | 'boardId' | 'faultCode'>>;
 
 const jobId = sql.placeholder('jobId');
 // The readings the diagnosis works from: diagnosis-phase rows that no later row of the same job corrects
@@ -46,7 +47,7 @@ const prepared = new WeakMap<Db, ReturnType<typeof prepare>>();
 function prepare(db: Db) {
   return {
     job: db
-      .select({ id: jobs.id, boardVersionId: jobs.boardVersionId })
+      .select({ id: jobs.id, boardVersionId: jobs.boardVersionId, shopId: jobs.shopId, boardId: jobs.boardId, faultCode: jobs.faultCode })
       .from(jobs)
       .where(and(eq(jobs.id, jobId), eq(jobs.shopId, sql.placeholder('shopId'))))
       .prepare('diagnosis_job'),
@@ -78,6 +79,14 @@ const caseValue = (r: ReadingRow): CaseReading['value'] => {
   return r.overLimit ? 'OL' : r.value!;
 };
 
+/** What the job's priors are made of; callers that hold only the job's id and version have the rest read here. */
+async function jobFacts(db: Db, job: JobRef) {
+  if (job.shopId !== undefined && job.boardId !== undefined && job.faultCode !== undefined) return { ...job, shopId: job.shopId, boardId: job.boardId, faultCode: job.faultCode };
+  const [row] = await db.select({ shopId: jobs.shopId, boardId: jobs.boardId, faultCode: jobs.faultCode }).from(jobs).where(eq(jobs.id, job.id));
+  if (!row) throw new AppError('not_found', `No job ${job.id}`);
+  return { ...job, ...row };
+}
+
 /** The diagnosis of a job of the shop; another shop's job is a 404. */
 export async function getDiagnosis({ db, shopId, jobId: id }: { db: Db; shopId: string; jobId: string }): Promise<Diagnosis> {
   const [job] = await queries(db).job.execute({ jobId: id, shopId });
@@ -91,14 +100,17 @@ export async function getDiagnosis({ db, shopId, jobId: id }: { db: Db; shopId: 
  */
 export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Promise<Diagnosis> {
   const q = queries(db);
+  const facts = await jobFacts(db, job);
+  const before = await jobPriors(db, facts, () => documentOf(db, job.boardVersionId));
   const [k] = await q.key.execute({ jobId: job.id });
-  return diagnosisFor(job.id, keyOf(job.boardVersionId, k?.n ?? 0, k?.digest ?? null), async () => {
+  return diagnosisFor(job.id, keyOf(job.boardVersionId, k?.n ?? 0, k?.digest ?? null, before.key), async () => {
     const rows = await currentReadings(db, job.id);
     // A worker thread runs the engine (seconds on a first run), so the server answers other requests meanwhile.
-    const out = await diagnosisPool().run(job.boardVersionId, toCaseReadings(rows), () => documentOf(db, job.boardVersionId));
+    const options = { priors: before.priors, ...(before.history ? { history: before.history } : {}), ...(before.references ? { references: before.references } : {}) };
+    const out = await diagnosisPool().run(job.boardVersionId, toCaseReadings(rows), () => documentOf(db, job.boardVersionId), options);
     // Kept under the key of the rows it ran on: a reading stored since the key query makes that key differ.
     const words = await wordsOf(job.boardVersionId, () => documentOf(db, job.boardVersionId));
-    return { key: keyOf(job.boardVersionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null), output: wordDiagnosis(shapeDiagnosis(out, job, rows), words) };
+    return { key: keyOf(job.boardVersionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null, before.key), output: wordDiagnosis(shapeDiagnosis(out, job, rows), words) };
   });
 }
 
@@ -115,6 +127,15 @@ export function shapeDiagnosis(out: DiagnosisOutput, job: JobRef, rows: ReadingR
     jobId: job.id,
     boardVersionId: job.boardVersionId,
     engineVersion: ENGINE_VERSION,
+    priors: (out.priors ?? []).map((p) => ({
+      part: p.part,
+      mode: p.mode,
+      designator: p.words.designator,
+      label: p.words.text,
+      before: p.before,
+      after: p.after,
+      steps: p.steps.map((s) => ({ ...s, source: s.source as PriorSource })),
+    })),
     readings: out.readings.map((rep) => {
       const r = rows[rep.index]!;
       return {

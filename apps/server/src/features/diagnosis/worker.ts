@@ -17,13 +17,13 @@ function failure(err: unknown): WorkerFailure {
   return { kind: 'other', message: e.message, stack: e.stack };
 }
 
-function answer({ id, versionId, readings, document }: WorkerRequest): WorkerReply {
+function answer({ id, versionId, readings, document, options }: WorkerRequest): WorkerReply {
   try {
     const engine = document === undefined ? cachedBoardEngine(versionId) : boardEngine(versionId, document);
     // The server sends a document only for a version it has not sent before; one dropped from the bound since
     // is asked for again rather than guessed.
     if (!engine) return { id, dropped: takeDroppedEngines(), ok: false, missing: true };
-    const output = engine.diagnoser.update(readings);
+    const output = engine.diagnoser.update(readings, options);
     return { id, dropped: takeDroppedEngines(), ok: true, output };
   } catch (err) {
     return { id, dropped: takeDroppedEngines(), ok: false, error: failure(err) };
