@@ -11,7 +11,7 @@ import { boardModelVersions, diagnosisSnapshots, faultCodes, jobs, repairActions
 import { readBoardModel } from '../boards';
 import { measuredPoints } from '../references';
 
-export interface JobPriors {
+interface JobPriors {
   priors: PriorAdjustment[];
   history?: FailureHistory;
   /** Bands measured on the board model's known-good boards (evidence for "ok" where the model gives no value). */
@@ -29,7 +29,7 @@ interface JobFacts {
 }
 
 /** How many of a model's most recent verified jobs the history counts ("the last N boards"). */
-export const HISTORY_JOBS = 100;
+const HISTORY_JOBS = 100;
 
 // A version never changes: its parsed document is kept (bounded).
 const documents = new Map<string, BoardModel>();

@@ -128,7 +128,9 @@ export function priorNotes(d: Diagnosis): { text: string; parts: string[]; sourc
       } else out.set(text, { text, parts: [p.designator], source: s.source });
     }
   }
-  return [...out.values()];
+  // This job's own evidence first (its fault code), then this model's history, then other models' (the weakest).
+  const order = ['fault-code', 'reference', 'history', 'history-kind'];
+  return [...out.values()].sort((a, b) => order.indexOf(a.source) - order.indexOf(b.source));
 }
 
 /** The board's sections by the summed probability of their parts' faults (what to suspect before any reading). */

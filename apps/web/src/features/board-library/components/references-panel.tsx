@@ -42,7 +42,7 @@ export function ReferencesPanel({ board, canRecord }: { board: BoardDetail; canR
         Known-good references
       </h2>
       <p className="text-sm text-stone-700">
-        {refs.data ? `${refs.data.sets.length} known-good board${refs.data.sets.length === 1 ? '' : 's'} recorded` : 'Loading…'}
+        {refs.data ? `${refs.data.sets.length} known-good board${refs.data.sets.length === 1 ? '' : 's'} recorded` : refs.isError ? `The references could not be loaded: ${refs.error.message}` : 'Loading…'}
         {refs.data?.sets.length ? `: ${refs.data.sets.map((s) => (s.origin === 'verification' ? `job #${s.jobNumber} after repair` : (s.serial ?? 'a good board'))).join(', ')}` : ''}.
       </p>
       {flagged.length > 0 && (
