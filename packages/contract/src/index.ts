@@ -25,3 +25,4 @@ export * from './policy';
 export * from './duties';
 export * from './report';
 export * from './references';
+export * from './shop-memory';
