@@ -26,3 +26,4 @@ export * from './duties';
 export * from './report';
 export * from './references';
 export * from './shop-memory';
+export * from './meter-import';

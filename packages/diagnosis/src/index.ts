@@ -27,6 +27,20 @@ export { referenceAdjustments, REFERENCE_OK_FACTOR, MIN_REFERENCE_BOARDS } from 
 export type { ReferenceBand } from './electrical/references.js';
 export type { FailureHistory, FailureCount } from './electrical/history.js';
 export { CaseError, validateCaseShape } from './electrical/case.js';
+export {
+  DICTIONARY_FORMAT,
+  buildDictionary,
+  dictionaryTests,
+  attachDictionary,
+  takeWantedPairs,
+  computePairs,
+  addPairs,
+  toBytes,
+  fromBytes,
+  encodePrediction,
+  decodePrediction,
+} from './electrical/dictionary.js';
+export type { FaultDictionary, PairColumn, BuildOptions } from './electrical/dictionary.js';
 export { Diagnoser, createDiagnoser, diagnoseCase, validateCase } from './electrical/diagnoser.js';
 export type {
   DiagnosisCase,

@@ -218,6 +218,11 @@ function Bench({ job }: { job: JobDetail }) {
               Repair and verification
             </Link>
           )}
+          {!['verified', 'returned'].includes(job.status) && (
+            <Link className={linkClass} to={`/jobs/${job.id}/import`}>
+              Import meter log
+            </Link>
+          )}
           <Link className={linkClass} to={`/jobs/${job.id}/report`}>
             Report
           </Link>
@@ -300,6 +305,8 @@ function Bench({ job }: { job: JobDetail }) {
                   before={before}
                   suspectSections={before && diagnosisQ.data ? sectionShares(view, diagnosisQ.data) : []}
                   reasons={diagnosisQ.data ? priorNotes(diagnosisQ.data) : []}
+                  preparing={diagnosisQ.data?.preparing}
+                  checkingPairs={diagnosisQ.data?.checking?.candidates}
                   onPickPart={(p) => setSelectedPart((s) => (s === p ? null : p))}
                   onPickTest={guided ? undefined : (t) => setTarget({ ...(t as (typeof steps)[number]).target, pointId: t.pointId })}
                 />

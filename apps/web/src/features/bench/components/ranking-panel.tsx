@@ -10,6 +10,8 @@ export interface RankedPart {
   description?: string;
   evidenceFor: string[];
   evidenceAgainst: string[];
+  /** Fault pairs with this fault are still being checked. */
+  checking?: boolean;
 }
 
 export interface NextTestView {
@@ -37,6 +39,8 @@ export function RankingPanel({
   before,
   suspectSections = [],
   reasons = [],
+  preparing,
+  checkingPairs,
 }: {
   parts: RankedPart[];
   nextTests: NextTestView[];
@@ -49,6 +53,10 @@ export function RankingPanel({
   suspectSections?: { name: string; share: number }[];
   /** Why this job's priors moved (fault code, the shop's history), one line per reason. */
   reasons?: { text: string; parts: string[]; source: string }[];
+  /** The board's expected values for every fault are still being computed (parts done of the total). */
+  preparing?: { partsDone: number; partsTotal: number };
+  /** How many fault pairs are still being checked. */
+  checkingPairs?: number;
 }) {
   // With no readings every part is equally suspect: a list of a hundred parts helps nobody, so show the leaders.
   const [all, setAll] = useState(false);
@@ -83,6 +91,19 @@ export function RankingPanel({
         <h2 id="ranking-h" className="mb-1 text-base font-semibold">
           Probable faulty parts
         </h2>
+        {preparing && (
+          <div className="mb-2 rounded-md bg-board-light p-2 text-sm" data-testid="preparing-expected">
+            <label htmlFor="preparing-progress">
+              Preparing expected values: {preparing.partsDone} of {preparing.partsTotal} parts. The ranking works meanwhile, more slowly.
+            </label>
+            <progress id="preparing-progress" className="mt-1 block w-full" max={Math.max(1, preparing.partsTotal)} value={preparing.partsDone} />
+          </div>
+        )}
+        {!!checkingPairs && (
+          <p className="mb-2 text-sm text-stone-700" role="status" data-testid="checking-pairs">
+            Still checking {checkingPairs} candidate{checkingPairs === 1 ? '' : 's'} (mostly two faults together): marked parts may still move.
+          </p>
+        )}
         {before ? (
           <div className="rounded-md bg-board-light p-2 text-sm" data-testid="before-first-reading">
             <p>
@@ -125,6 +146,7 @@ export function RankingPanel({
                   <span className="flex items-baseline justify-between gap-2">
                     <span className="font-semibold">
                       {i + 1}. {p.label}
+                      {p.checking && <span className="ml-1 text-xs font-normal text-stone-700">(still being checked)</span>}
                     </span>
                     <span className="tabular-nums font-semibold">{pct(p.probability)}</span>
                   </span>
