@@ -26,6 +26,7 @@ import { boardHistoryRoutes } from './features/board-history';
 import { serviceTermsRoutes } from './features/service-terms';
 import { partsBinRoutes } from './features/parts-bin';
 import { meterImportRoutes } from './features/meter-import';
+import { shopStatsRoutes } from './features/shop-stats';
 import { errorHandler, notFoundApi } from './http/errors';
 import { hostAllowList } from './http/host';
 import { originCheck } from './http/origin';
@@ -86,6 +87,7 @@ export function createApp(ctx: AppContext): Express {
   api.use(boardHistoryRoutes(ctx));
   api.use(partsBinRoutes(ctx));
   api.use(meterImportRoutes(ctx));
+  api.use(shopStatsRoutes(ctx));
   api.use(notFoundApi);
   app.use('/api', api);
 

@@ -27,3 +27,4 @@ export * from './report';
 export * from './references';
 export * from './shop-memory';
 export * from './meter-import';
+export * from './shop-stats';
