@@ -26,7 +26,7 @@ import { candidateTests, HAZARD_CAUTION, instruction, testCost, type BenchState,
 import { bandOf, isPredicted, verdictOf, type Prediction, type ReadingValue } from './noise.js';
 import type { ObservedValue } from './repeats.js';
 import { candidateWords, faultWords, unexplainedOf, unpredictedNote, type Namer } from './report.js';
-import { defaultDesignator, KIND_WORDS, METER_FUNCTION, probePoint, type ConnectorInput, type PinPart, type ProbePoint } from './words.js';
+import { defaultDesignator, METER_FUNCTION, probePoint, type ConnectorInput, type PinPart, type ProbePoint } from './words.js';
 
 interface MeterModel {
   model: ElectricalModel;
