@@ -13,6 +13,8 @@ export { logLikelihood as readingLogLikelihood, consistent as readingConsistent,
 export { groupLogLikelihood, broadLogLikelihood, isRepeated } from './electrical/repeats.js';
 export type { RepeatedReading, ObservedValue } from './electrical/repeats.js';
 export { isSolveFailure } from './electrical/meter.js';
+export { partAloneCircuit, partAlonePrediction, partAloneRefusal, partAloneTable } from './electrical/part-alone.js';
+export type { PartAloneRow } from './electrical/part-alone.js';
 export { findHazards, HAZARD_VOLTS } from './electrical/hazard.js';
 export type { Hazards } from './electrical/hazard.js';
 export { KIND_WORDS, METER_FUNCTION, modeWords, defaultDesignator, probePoint } from './electrical/words.js';

@@ -21,6 +21,8 @@ export interface CaseReading {
   power: 'on' | 'off';
   /** Parts lifted from the board for this reading (names as in the netlist). */
   lifted?: string[];
+  /** A lifted part measured out of circuit on its own pins (a name in `lifted`; red / black are its pin nets). */
+  alone?: string;
   /** dcv: volts; ohm: ohms or "OL"; diode: volts or "OL"; continuity: true (beep) / false. */
   value: number | 'OL' | boolean;
 }
@@ -229,6 +231,7 @@ export function checkReadingShape(r: unknown, i: number): asserts r is CaseReadi
   if (mode === 'dcv' && r.power !== 'on') throw new CaseError(`${at}: dcv is read with the board powered (power "on"), not "off"`);
   if (mode !== 'dcv' && r.power !== 'off') throw new CaseError(`${at}: ${mode} is read with the board unplugged and the bus discharged (power "off"), not "on"`);
   if (r.lifted !== undefined && (!Array.isArray(r.lifted) || r.lifted.some((p) => typeof p !== 'string'))) throw new CaseError(`${at}: lifted must be a list of part names`);
+  if (r.alone !== undefined && (typeof r.alone !== 'string' || r.alone === '')) throw new CaseError(`${at}: alone must be the name of a lifted part`);
   const v = r.value;
   if (mode === 'continuity') {
     if (typeof v !== 'boolean') throw new CaseError(`${at}: continuity value must be true (beep) or false, got ${show(v)}`);

@@ -22,6 +22,7 @@ import { CaseError, checkReadingShape, normNet, validateCaseShape } from './case
 import type { BoardInput, CandidateReport, DiagnosisCase, DiagnosisOutput, NextTestReport, ReadingReport, UpdateOptions } from './case.js';
 import { checkingKeys } from './dictionary.js';
 import { ElectricalModel, testKey, type ElectricalTest } from './model.js';
+import { partAloneRefusal } from './part-alone.js';
 import { candidateTests, HAZARD_CAUTION, instruction, testCost, type BenchState, type Hazard, type TestPoint } from './nexttests.js';
 import { bandOf, isPredicted, verdictOf, type Prediction, type ReadingValue } from './noise.js';
 import type { ObservedValue } from './repeats.js';
@@ -126,7 +127,15 @@ export class Diagnoser {
         if (!name) throw new CaseError(`reading ${i}: unknown part ${p} in lifted`);
         return name;
       });
-      return { test: { mode: r.mode, red, black, power: r.power, lifted: [...new Set(lifted)].sort() }, value: r.value };
+      const test: ElectricalTest = { mode: r.mode, red, black, power: r.power, lifted: [...new Set(lifted)].sort() };
+      if (r.alone !== undefined) {
+        const part = this.model.partsByName.get(this.partByLower.get(r.alone.trim().toLowerCase()) ?? '');
+        if (!part) throw new CaseError(`reading ${i}: unknown part ${r.alone} measured alone`);
+        const refused = partAloneRefusal(test, part.name, part.nets);
+        if (refused) throw new CaseError(`reading ${i}: ${refused}`);
+        test.alone = part.name;
+      }
+      return { test, value: r.value };
     });
   }
 

@@ -197,7 +197,7 @@ function Bench({ job }: { job: JobDetail }) {
   const safetyGate = <SafetyGate key={gateRefusal ?? 'gate'} figures={gateFigures(view, rows)} check={checkBus} onPass={passGate} refusal={gateRefusal} />;
   const probeNets = active ? { red: view.pointOf(active.red)?.net ?? active.red, black: view.pointOf(active.black)?.net ?? active.black } : undefined;
   const faultCode = job.faultCode ? job.board.faultCodes.find((f) => f.code.toLowerCase() === job.faultCode!.toLowerCase()) : undefined;
-  const before = readings.length === 0 ? { code: job.faultCode, meaning: faultCode?.title ?? null, sections: (faultCode?.sections ?? []).map((id) => view.sections.find((x) => x.id === id)?.name ?? id) } : null;
+  const before = readings.length === 0 ? { code: job.faultCode, meaning: faultCode?.title ?? null, sections: (faultCode?.sections ?? []).map((id) => view.sections.find((x) => x.id === id)?.name ?? id), firstTest: step?.label ?? null } : null;
   const entry = panelTarget && canWrite && !gateShown && <ReadingPanel target={panelTarget} latest={latest} onSave={save} error={entryError} />;
 
   return (
@@ -305,6 +305,7 @@ function Bench({ job }: { job: JobDetail }) {
                   before={before}
                   suspectSections={before && diagnosisQ.data ? sectionShares(view, diagnosisQ.data) : []}
                   reasons={diagnosisQ.data ? priorNotes(diagnosisQ.data) : []}
+                  guided={guided}
                   preparing={diagnosisQ.data?.preparing}
                   checkingPairs={diagnosisQ.data?.checking?.candidates}
                   onPickPart={(p) => setSelectedPart((s) => (s === p ? null : p))}

@@ -39,6 +39,7 @@ export function RankingPanel({
   before,
   suspectSections = [],
   reasons = [],
+  guided = false,
   preparing,
   checkingPairs,
 }: {
@@ -48,7 +49,9 @@ export function RankingPanel({
   onPickPart: (part: string) => void;
   onPickTest?: (t: NextTestView) => void;
   /** Before the first reading: what the fault code points at, instead of every part of the board at equal odds. */
-  before?: { code: string | null; meaning: string | null; sections: string[] } | null;
+  before?: { code: string | null; meaning: string | null; sections: string[]; firstTest: string | null } | null;
+  /** In guided order the one step to take is the guided step beside the map, not a list to choose from. */
+  guided?: boolean;
   /** The board's sections by the likelihood of a fault there (before the first reading). */
   suspectSections?: { name: string; share: number }[];
   /** Why this job's priors moved (fault code, the shop's history), one line per reason. */
@@ -67,7 +70,9 @@ export function RankingPanel({
         <h2 id="next-h" className="mb-1 text-base font-semibold">
           Next tests
         </h2>
-        {nextTests.length === 0 ? (
+        {guided ? (
+          <p className="text-sm text-stone-700">Guided order: take the step shown beside the map.</p>
+        ) : nextTests.length === 0 ? (
           <p className="text-sm text-stone-700">No further test would change the ranking.</p>
         ) : (
           <ol className="space-y-1">
@@ -116,7 +121,13 @@ export function RankingPanel({
               ) : (
                 'No fault code was logged.'
               )}{' '}
-              Take the first test.
+              {before.firstTest ? (
+                <>
+                  First test: <strong>{before.firstTest}</strong>
+                </>
+              ) : (
+                'The engine is choosing the first test.'
+              )}
             </p>
             {suspectSections.length > 0 && (
               <>
