@@ -22,7 +22,7 @@ const schema = z.object({
   /** Where the built web app lives; served on the same port in production. */
   WEB_DIST: z.string().optional(),
   UPLOAD_DIR: z.string().default('.data/uploads'),
-  UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(8 * 1024 * 1024),
+  UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(20 * 1024 * 1024),
   /** The address people reach the app at; used for links in e-mail and the Origin check. */
   PUBLIC_URL: z.string().url().optional(),
   LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(10),
