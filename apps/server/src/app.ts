@@ -15,6 +15,7 @@ import { repairRoutes } from './features/repairs/routes';
 import { reportRoutes } from './features/reports';
 import { reviewRoutes } from './features/reviews/routes';
 import { uploadRoutes } from './features/uploads/routes';
+import { referenceRoutes } from './features/references/routes';
 import { userRoutes } from './features/users/routes';
 import { billingRoutes } from './features/billing/routes';
 import { invoiceRoutes, paymentWebhookRoutes } from './features/invoices';
@@ -28,6 +29,7 @@ import { boardHistoryRoutes } from './features/board-history';
 import { serviceTermsRoutes } from './features/service-terms';
 import { partsBinRoutes } from './features/parts-bin';
 import { meterImportRoutes } from './features/meter-import';
+import { shopStatsRoutes } from './features/shop-stats';
 import { errorHandler, notFoundApi } from './http/errors';
 import { hostAllowList } from './http/host';
 import { originCheck } from './http/origin';
@@ -84,6 +86,7 @@ export function createApp(ctx: AppContext): Express {
   api.use(repairRoutes(ctx));
   api.use(reportRoutes(ctx));
   api.use(uploadRoutes(ctx));
+  api.use(referenceRoutes(ctx));
   // Billing: settings, quotes, invoices, status e-mails and the development outbox.
   api.use(billingRoutes(ctx), quoteRoutes(ctx), invoiceRoutes(ctx), mailOutboxRoutes(ctx));
   api.use(dutyRoutes(ctx));
@@ -91,6 +94,7 @@ export function createApp(ctx: AppContext): Express {
   api.use(boardHistoryRoutes(ctx));
   api.use(partsBinRoutes(ctx));
   api.use(meterImportRoutes(ctx));
+  api.use(shopStatsRoutes(ctx));
   api.use(notFoundApi);
   app.use('/api', api);
 

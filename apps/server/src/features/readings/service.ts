@@ -12,6 +12,7 @@ import { newId } from '../../lib/ids';
 import { boardEngine, cachedBoardEngine, powerRefusal, resolveNet, resolveParts, verdictFor } from '../boards';
 import { getDutyRules } from '../duties';
 import { getJobRow } from '../../db/job-row';
+import { traineeGuidedLifted } from '../users';
 import { checkGuidedStep, checkSafetyGate } from './guided';
 import { insertReading, type NewReading, type ReadingRow } from './write-batch';
 
@@ -241,7 +242,8 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
       if (refused) throw new AppError('forbidden', refused);
     }
   }
-  if (job && guidedOrderBinds(actor.role, job.guidedLiftedBy)) await checkGuidedStep({ db, job, input, probe: { redNet, blackNet, lifted: lifted.parts }, corrects });
+  const lift = { job: !!job?.guidedLiftedBy, trainee: actor.role === 'trainee' && (await traineeGuidedLifted(db, actor.id)) };
+  if (job && guidedOrderBinds(actor.role, lift)) await checkGuidedStep({ db, job, input, probe: { redNet, blackNet, lifted: lifted.parts }, corrects });
   // Every role, every phase: an unpowered reading on the bus waits for the discharge gate.
   await checkSafetyGate(versionId, async () => (await loadVersion()).document, input);
 

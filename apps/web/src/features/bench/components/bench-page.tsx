@@ -21,7 +21,9 @@ import {
   latestFor,
   nextTests,
   pointState,
+  priorNotes,
   rankedParts,
+  sectionShares,
   rowsForPoint,
   sameTarget,
   stateOf,
@@ -37,6 +39,7 @@ import { LiftedParts } from './lifted-parts';
 import { ReadingActions } from './reading-actions';
 import { PointList } from './point-list';
 import { RankingPanel } from './ranking-panel';
+import { JobPhotos } from '@/components/photos/job-photos';
 import { ReadingPanel, type LatestReading } from './reading-panel';
 import { SafetyGate } from '@/components/safety-gate';
 import { SignalChain, type ChainLink } from './signal-chain';
@@ -63,12 +66,13 @@ function chainLinks(view: BoardView, rows: ExpectedReadingRow[], readings: Store
     });
 }
 
-type Tab = 'map' | 'chain' | 'points' | 'readings';
+type Tab = 'map' | 'chain' | 'points' | 'readings' | 'photos';
 const TABS: { id: Tab; label: string }[] = [
   { id: 'map', label: 'Board map' },
   { id: 'chain', label: 'Signal chain' },
   { id: 'points', label: 'Test points' },
   { id: 'readings', label: 'Readings' },
+  { id: 'photos', label: 'Photos' },
 ];
 const linkClass = 'inline-flex min-h-11 items-center rounded-md border border-stone-400 bg-white px-3 text-sm font-semibold';
 
@@ -193,7 +197,7 @@ function Bench({ job }: { job: JobDetail }) {
   const safetyGate = <SafetyGate key={gateRefusal ?? 'gate'} figures={gateFigures(view, rows)} check={checkBus} onPass={passGate} refusal={gateRefusal} />;
   const probeNets = active ? { red: view.pointOf(active.red)?.net ?? active.red, black: view.pointOf(active.black)?.net ?? active.black } : undefined;
   const faultCode = job.faultCode ? job.board.faultCodes.find((f) => f.code.toLowerCase() === job.faultCode!.toLowerCase()) : undefined;
-  const before = readings.length === 0 ? { code: job.faultCode, meaning: faultCode?.title ?? null, sections: (faultCode?.sections ?? []).map((id) => view.sections.find((x) => x.id === id)?.name ?? id) } : null;
+  const before = readings.length === 0 ? { code: job.faultCode, meaning: faultCode?.title ?? null, sections: (faultCode?.sections ?? []).map((id) => view.sections.find((x) => x.id === id)?.name ?? id), firstTest: step?.label ?? null } : null;
   const entry = panelTarget && canWrite && !gateShown && <ReadingPanel target={panelTarget} latest={latest} onSave={save} error={entryError} />;
 
   return (
@@ -268,6 +272,7 @@ function Bench({ job }: { job: JobDetail }) {
                 />
               </div>
             )}
+            {tab === 'photos' && <JobPhotos jobId={job.id} canAdd={canWrite} />}
             {tab === 'chain' && <SignalChain links={chainLinks(view, rows, readings)} />}
             {tab === 'points' && (
               <PointList
@@ -298,6 +303,9 @@ function Bench({ job }: { job: JobDetail }) {
                   nextTests={guided ? [] : steps.slice(0, 3)}
                   selectedPart={selectedPart}
                   before={before}
+                  suspectSections={before && diagnosisQ.data ? sectionShares(view, diagnosisQ.data) : []}
+                  reasons={diagnosisQ.data ? priorNotes(diagnosisQ.data) : []}
+                  guided={guided}
                   preparing={diagnosisQ.data?.preparing}
                   checkingPairs={diagnosisQ.data?.checking?.candidates}
                   onPickPart={(p) => setSelectedPart((s) => (s === p ? null : p))}
