@@ -254,7 +254,7 @@ export class Diagnoser {
 
   private referencePriors(model: ElectricalModel, obs: Observation<ElectricalTest, ReadingValue>[], options: UpdateOptions): PriorAdjustment[] {
     if (!options.references?.length) return [];
-    const bands = options.references.map((b) => ({ ...b, red: normNet(b.red), black: normNet(b.black) }));
+    const bands = options.references.map((b) => ({ ...b, red: normNode(b.red), black: normNode(b.black) }));
     const fmt = (v: number, mode: ElectricalTest['mode']) => `${sig(v)} ${mode === 'ohm' ? 'Ω' : 'V'}`;
     return referenceAdjustments(model, obs, bands, (t, v, b) => {
       const p = this.names.point(t.red);
