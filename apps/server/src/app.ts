@@ -14,6 +14,7 @@ import { repairRoutes } from './features/repairs/routes';
 import { reportRoutes } from './features/reports';
 import { reviewRoutes } from './features/reviews/routes';
 import { uploadRoutes } from './features/uploads/routes';
+import { referenceRoutes } from './features/references/routes';
 import { userRoutes } from './features/users/routes';
 import { billingApiRoutes } from './features/billing/api';
 import { paymentWebhookRoutes } from './features/billing/webhook';
@@ -79,6 +80,7 @@ export function createApp(ctx: AppContext): Express {
   api.use(repairRoutes(ctx));
   api.use(reportRoutes(ctx));
   api.use(uploadRoutes(ctx));
+  api.use(referenceRoutes(ctx));
   api.use(billingApiRoutes(ctx));
   api.use(dutyRoutes(ctx));
   api.use(serviceTermsRoutes(ctx));

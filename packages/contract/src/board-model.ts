@@ -116,6 +116,8 @@ export const boardFaultCodeSchema = z.object({
   code: z.string().min(1).max(32),
   meaning: z.string().max(400),
   suspectSections: z.array(z.string().max(64)),
+  /** Likelihood ratio per suspect section (the rule beside the contract's FAULT_CODE_WEIGHT); absent sections take the default. */
+  weights: z.record(z.string().max(64), z.number().min(1).max(50)).optional(),
 });
 
 export const boardMotorSchema = z.object({

@@ -24,6 +24,10 @@ export type { FaultWords, Unexplained } from './electrical/report.js';
 export type { Prediction, ReadingValue, MeterMode, Verdict, Band } from './electrical/noise.js';
 export { candidateTests, testCost, instruction, COST, HAZARD_CAUTION } from './electrical/nexttests.js';
 export type { BenchState, Hazard } from './electrical/nexttests.js';
+export { historyAdjustments, HISTORY_WEIGHT, KIND_WEIGHT } from './electrical/history.js';
+export { referenceAdjustments, REFERENCE_OK_FACTOR, MIN_REFERENCE_BOARDS } from './electrical/references.js';
+export type { ReferenceBand } from './electrical/references.js';
+export type { FailureHistory, FailureCount } from './electrical/history.js';
 export { CaseError, validateCaseShape } from './electrical/case.js';
 export {
   DICTIONARY_FORMAT,
@@ -52,4 +56,5 @@ export type {
   NextTestReport,
   UpdateOptions,
   BoardInput,
+  PriorReport,
 } from './electrical/case.js';

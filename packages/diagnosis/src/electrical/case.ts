@@ -3,6 +3,9 @@
  * server's diagnosis). The diagnoser itself is in diagnoser.ts.
  */
 import type { MeterProfile, Netlist } from '@splitscope/circuit';
+import type { PriorAdjustment, PriorChange } from '../core/priors.js';
+import type { FailureHistory } from './history.js';
+import type { ReferenceBand } from './references.js';
 import { PART_KINDS, type PartKind } from './kinds.js';
 import type { Hazard, TestPoint } from './nexttests.js';
 import type { MeterMode, Verdict } from './noise.js';
@@ -125,6 +128,8 @@ export interface DiagnosisOutput {
   unexplained?: Unexplained;
   /** How many multiple-fault candidates came from conflicts, and whether a bound cut the list. */
   generated: { pairs: number; triples: number; capped: boolean };
+  /** Priors moved by `UpdateOptions.priors`, largest move first. */
+  priors: PriorReport[];
   /**
    * Candidates still being checked: predictions the board's dictionary lacks (fault pairs the readings call for,
    * a test outside it) are computed in the background (dictionary.ts); the ranking updates when they arrive.
@@ -145,6 +150,20 @@ export interface UpdateOptions {
   meter?: MeterProfile;
   /** Offer tests already taken again, as confirmations (default false). */
   confirm?: boolean;
+  /**
+   * Per-job prior adjustments (core/priors.ts): `part` is the netlist name or the printed designator. Reported in
+   * `priors` of the output with the words of each part and mode.
+   */
+  priors?: readonly PriorAdjustment[];
+  /** The shop's verified failures (electrical/history.ts), applied before `priors`. */
+  history?: FailureHistory;
+  /** Bands measured on known-good boards: evidence for "ok" where the model is silent (electrical/references.ts). */
+  references?: readonly ReferenceBand[];
+}
+
+/** A prior a per-job adjustment moved, with the steps (sources) that moved it. */
+export interface PriorReport extends PriorChange {
+  words: FaultWords;
 }
 
 export interface BoardInput {

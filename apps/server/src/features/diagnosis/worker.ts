@@ -19,7 +19,7 @@ function failure(err: unknown): WorkerFailure {
 
 const withDictionary = new WeakSet<Diagnoser>();
 
-function answer({ id, versionId, readings, document, dictionary }: WorkerRequest): WorkerReply {
+function answer({ id, versionId, readings, document, dictionary, options }: WorkerRequest): WorkerReply {
   try {
     const engine = document === undefined ? cachedBoardEngine(versionId) : boardEngine(versionId, document);
     // The server sends a document only for a version it has not sent before; one dropped from the bound since
@@ -29,7 +29,7 @@ function answer({ id, versionId, readings, document, dictionary }: WorkerRequest
       attachDictionary(engine.diagnoser, dictionary.dictionary, dictionary.pairs);
       withDictionary.add(engine.diagnoser);
     }
-    const output = engine.diagnoser.update(readings);
+    const output = engine.diagnoser.update(readings, options);
     schedulePairs(versionId, engine.diagnoser);
     return { id, dropped: takeDroppedEngines(), ok: true, output };
   } catch (err) {

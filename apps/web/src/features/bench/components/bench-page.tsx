@@ -19,7 +19,9 @@ import {
   latestFor,
   nextTests,
   pointState,
+  priorNotes,
   rankedParts,
+  sectionShares,
   rowsForPoint,
   sameTarget,
   stateOf,
@@ -37,6 +39,7 @@ import { ProbeChoices } from './probe-choices';
 import { ProposePanel } from './propose-panel';
 import { PointList } from './point-list';
 import { RankingPanel } from './ranking-panel';
+import { JobPhotos } from '@/components/photos/job-photos';
 import { ReadingPanel, type LatestReading } from './reading-panel';
 import { SafetyGate } from '@/components/safety-gate';
 import { SignalChain, type ChainLink } from './signal-chain';
@@ -63,12 +66,13 @@ function chainLinks(view: BoardView, rows: ExpectedReadingRow[], readings: Store
     });
 }
 
-type Tab = 'map' | 'chain' | 'points' | 'readings';
+type Tab = 'map' | 'chain' | 'points' | 'readings' | 'photos';
 const TABS: { id: Tab; label: string }[] = [
   { id: 'map', label: 'Board map' },
   { id: 'chain', label: 'Signal chain' },
   { id: 'points', label: 'Test points' },
   { id: 'readings', label: 'Readings' },
+  { id: 'photos', label: 'Photos' },
 ];
 const linkClass = 'inline-flex min-h-11 items-center rounded-md border border-stone-400 bg-white px-3 text-sm font-semibold';
 
@@ -260,6 +264,7 @@ function Bench({ job }: { job: JobDetail }) {
                 />
               </div>
             )}
+            {tab === 'photos' && <JobPhotos jobId={job.id} canAdd={canWrite} />}
             {tab === 'chain' && <SignalChain links={chainLinks(view, rows, readings)} />}
             {tab === 'points' && (
               <PointList
@@ -290,6 +295,8 @@ function Bench({ job }: { job: JobDetail }) {
                   nextTests={guided ? [] : steps.slice(0, 3)}
                   selectedPart={selectedPart}
                   before={before}
+                  suspectSections={before && diagnosisQ.data ? sectionShares(view, diagnosisQ.data) : []}
+                  reasons={diagnosisQ.data ? priorNotes(diagnosisQ.data) : []}
                   guided={guided}
                   preparing={diagnosisQ.data?.preparing}
                   checkingPairs={diagnosisQ.data?.checking?.candidates}

@@ -37,6 +37,8 @@ export function RankingPanel({
   onPickPart,
   onPickTest,
   before,
+  suspectSections = [],
+  reasons = [],
   guided = false,
   preparing,
   checkingPairs,
@@ -50,6 +52,10 @@ export function RankingPanel({
   before?: { code: string | null; meaning: string | null; sections: string[]; firstTest: string | null } | null;
   /** In guided order the one step to take is the guided step beside the map, not a list to choose from. */
   guided?: boolean;
+  /** The board's sections by the likelihood of a fault there (before the first reading). */
+  suspectSections?: { name: string; share: number }[];
+  /** Why this job's priors moved (fault code, the shop's history), one line per reason. */
+  reasons?: { text: string; parts: string[]; source: string }[];
   /** The board's expected values for every fault are still being computed (parts done of the total). */
   preparing?: { partsDone: number; partsTotal: number };
   /** How many fault pairs are still being checked. */
@@ -106,7 +112,7 @@ export function RankingPanel({
         {before ? (
           <div className="rounded-md bg-board-light p-2 text-sm" data-testid="before-first-reading">
             <p>
-              No reading yet, so no part is ranked.{' '}
+              No reading yet.{' '}
               {before.code ? (
                 <>
                   Fault code <strong>{before.code}</strong>
@@ -123,6 +129,18 @@ export function RankingPanel({
                 'The engine is choosing the first test.'
               )}
             </p>
+            {suspectSections.length > 0 && (
+              <>
+                <p className="mt-1 font-semibold">Where to start</p>
+                <ol className="list-inside list-decimal">
+                  {suspectSections.map((s) => (
+                    <li key={s.name}>
+                      {s.name} <span className="tabular-nums">{pct(s.share)}</span>
+                    </li>
+                  ))}
+                </ol>
+              </>
+            )}
           </div>
         ) : parts.length === 0 ? (
           <p className="text-sm text-stone-700">No part stands out yet: record a reading.</p>
@@ -169,6 +187,18 @@ export function RankingPanel({
               </li>
             ))}
           </ol>
+        )}
+        {reasons.length > 0 && (
+          <details className="mt-2 rounded-md border border-stone-300 bg-white p-2 text-sm" open={Boolean(before)} data-testid="prior-reasons">
+            <summary className="cursor-pointer font-semibold">Why these first ({reasons.length})</summary>
+            <ul className="mt-1 list-disc space-y-1 pl-5">
+              {reasons.map((r) => (
+                <li key={r.text}>
+                  {r.source === 'fault-code' ? `${r.text} — ${r.parts.join(', ')}` : r.source === 'history-kind' ? `${r.parts.join(', ')}: ${r.text}` : r.text}
+                </li>
+              ))}
+            </ul>
+          </details>
         )}
         {!before && parts.length > SHORT_LIST && (
           <button type="button" className="mt-2 min-h-11 rounded-md border border-stone-400 bg-white px-3 text-sm font-semibold" onClick={() => setAll(!all)}>

@@ -31,7 +31,6 @@ function NewJobPage() {
   const create = useCreateJob();
   const navigate = useNavigate();
   const [photos, setPhotos] = useState<File[]>([]);
-  const [photoError, setPhotoError] = useState<string | null>(null);
   const form = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(createJobRequest),
     defaultValues: { idempotencyKey: crypto.randomUUID(), customerId: '', unitDescription: '', serial: '', unitSerial: '', boardId: '', faultCode: '', symptom: '', priority: 'normal', assigneeId: null },
@@ -46,15 +45,19 @@ function NewJobPage() {
   const match = code ? codes.data?.items.find((c) => c.code.toUpperCase() === code) : undefined;
   const e = form.formState.errors;
 
+  // The job is opened once (the idempotency key makes a second click the same job); its photos go after it, and a
+  // photo that fails is shown on the job's Photos tab (the server records a refusal), never here on the form.
   const submit = form.handleSubmit(async (v) => {
     const job = await create.mutateAsync(v);
-    try {
-      for (const f of photos) await uploadPhoto(f, job.id);
-    } catch (err) {
-      setPhotoError(`The job is open, but a photo was not stored: ${(err as Error).message}`);
-      return;
+    let failed = false;
+    for (const f of photos) {
+      try {
+        await uploadPhoto(f, job.id);
+      } catch {
+        failed = true;
+      }
     }
-    void navigate(`/jobs/${job.id}`);
+    void navigate(failed ? `/jobs/${job.id}?tab=photos` : `/jobs/${job.id}`);
   });
 
   return (
@@ -171,13 +174,13 @@ function NewJobPage() {
             className="mt-1 block min-h-11 w-full"
           />
         </label>
-        {(create.error || photoError) && (
+        {create.error && (
           <p role="alert" className="rounded-md bg-red-50 p-2 text-sm text-high sm:col-span-2">
-            {photoError ?? create.error?.message}
+            {create.error.message}
           </p>
         )}
         <div className="sm:col-span-2">
-          <button type="submit" disabled={form.formState.isSubmitting} className="min-h-11 rounded-md bg-board px-6 font-semibold text-white">
+          <button type="submit" disabled={form.formState.isSubmitting || form.formState.isSubmitSuccessful} className="min-h-11 rounded-md bg-board px-6 font-semibold text-white">
             {form.formState.isSubmitting ? 'Opening…' : 'Open the job'}
           </button>
         </div>
