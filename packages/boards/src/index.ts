@@ -14,3 +14,4 @@ export { renderBoardSvg, pinPosition, connectorPinPosition } from './compose/ren
 export { spiceParts, spiceValue } from './compose/spice-section';
 export * from './demo';
 export { composeCapture, type CaptureMeta, type ComposedCapture } from './compose/capture';
+export * from './sections/ports';

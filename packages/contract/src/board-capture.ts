@@ -1,5 +1,7 @@
 import { z } from 'zod';
+import type { Role } from './auth';
 import { idSchema, isoDateTime, optionalText } from './common';
+import { hasRole, ROLES } from './policy';
 
 /**
  * Board capture: what a technician marks on a board's photo — test points, connectors with their pins, and
@@ -91,17 +93,30 @@ export const boardDraftSchema = z.object({
   nets: z.array(z.object({ name: z.string(), label: z.string() })),
   /** The composed netlist, for the advanced view. */
   netlist: z.string().nullable(),
+  /** Whether the board's newest published version has a model (sections) or is its photo only. */
+  publishedModel: z.boolean(),
 });
 export type BoardDraft = z.infer<typeof boardDraftSchema>;
 
 export const saveDraftRequest = z.object({ capture: boardCaptureSchema });
 export const publishDraftRequest = z.object({ note: optionalText(500) });
 
+/** A board-model version that is its photo only (taken in before it had a model): nothing on it is judged. */
+export const isPhotoOnlyBoard = (doc: { sections: readonly unknown[]; parts: readonly unknown[] }) => doc.sections.length === 0 && doc.parts.length === 0;
+
 /** Intake of a board the library does not hold yet: its maker and model as printed, and its photos. */
-export const unlistedBoardSchema = z.object({
+export const createUnlistedBoardRequest = z.object({
   maker: z.string().trim().min(1).max(100),
   model: z.string().trim().min(1).max(100),
-  /** Uploaded photos; the first becomes the board's picture. */
-  photoIds: z.array(idSchema).min(1).max(10),
+  /** The photo that becomes the board's picture, with its size in pixels (the capture's coordinates). */
+  photo: z.object({ uploadId: idSchema, width: z.number().int().positive().max(20_000), height: z.number().int().positive().max(20_000) }),
 });
-export type UnlistedBoard = z.infer<typeof unlistedBoardSchema>;
+export type CreateUnlistedBoardRequest = z.infer<typeof createUnlistedBoardRequest>;
+
+/**
+ * Who does what with a capture: the bench takes in unlisted boards and marks them (saving drafts); a lead publishes
+ * a model, as editing one in the library is a lead's. The server's routes and the screens both read these.
+ */
+export const CAPTURE_ROLES = { intake: ROLES.bench, mark: ROLES.bench, publish: ROLES.reviewers } as const;
+export const canMarkBoards = (role: Role | null | undefined) => hasRole(role, CAPTURE_ROLES.mark);
+export const canPublishBoards = (role: Role | null | undefined) => hasRole(role, CAPTURE_ROLES.publish);

@@ -4,12 +4,13 @@
  * are computed from the result by `@splitscope/boards/readings`.
  */
 import { BOARD_MODEL_SCHEMA_VERSION, boardModelSchema, type BoardModel, type BoardSide } from '@splitscope/contract';
+import { formatSi } from '../references/decode-marking';
 import { MODELS, SUBCKTS } from '../sections/library';
 import { TEMPLATES } from '../sections/templates';
 import type { NetInfo, SectionTemplate, TemplatePart, TestPointSuggestion } from '../sections/types';
 import { renderBoardSvg } from './render';
 import { spiceParts } from './spice-section';
-import type { BoardSpec, Region, SectionInstance, TestPointChoice } from './types';
+import type { BoardSpec, Region, SectionInstance, TemplateSectionInstance, TestPointChoice } from './types';
 
 /** What a section instance resolves to before it is placed on the board. */
 interface Resolved {
@@ -55,13 +56,6 @@ function resolve(inst: SectionInstance, templates: Record<string, SectionTemplat
   };
 }
 
-/** SI value as printed on a board's part list: 4700 → "4.7k", 1e-7 → "100n". */
-function engineering(v: number, unit: string): string {
-  const steps: [number, string][] = [[1e6, 'M'], [1e3, 'k'], [1, ''], [1e-3, 'm'], [1e-6, 'µ'], [1e-9, 'n'], [1e-12, 'p']];
-  const [scale, prefix] = steps.find(([s]) => Math.abs(v) >= s * 0.9999) ?? steps[steps.length - 1]!;
-  return `${Number((v / scale).toPrecision(3))}${prefix}${unit}`;
-}
-
 /** Puts the values read off the board into a template's resistors and capacitors (netlist line and part list). */
 function withValues(inst: TemplateSectionInstance, out: ReturnType<SectionTemplate>): ReturnType<SectionTemplate> {
   const values = inst.values ?? {};
@@ -82,7 +76,7 @@ function withValues(inst: TemplateSectionInstance, out: ReturnType<SectionTempla
     const m = markings[p.designator];
     if (v === undefined && m === undefined) return p;
     const unit = p.kind === 'resistor' ? 'Ω' : 'F';
-    return { ...p, ...(v !== undefined ? { nominal: v, value: engineering(v, unit) } : {}), ...(m ? { marking: m.slice(0, 64) } : {}) };
+    return { ...p, ...(v !== undefined ? { nominal: v, value: formatSi(v, unit).replace(' ', '') } : {}), ...(m ? { marking: m.slice(0, 64) } : {}) };
   });
   const netlist = out.netlist
     .split('\n')

@@ -23,7 +23,9 @@ function answer({ id, versionId, readings, document }: WorkerRequest): WorkerRep
     // The server sends a document only for a version it has not sent before; one dropped from the bound since
     // is asked for again rather than guessed.
     if (!engine) return { id, dropped: takeDroppedEngines(), ok: false, missing: true };
-    const output = engine.diagnoser.update(readings);
+    // A board that is its photo only has no model: its readings are recorded, not judged, so none is evidence.
+    const photoOnly = engine.testPoints.length === 0 && Object.keys(engine.parts).length === 0;
+    const output = engine.diagnoser.update(photoOnly ? [] : readings);
     return { id, dropped: takeDroppedEngines(), ok: true, output };
   } catch (err) {
     return { id, dropped: takeDroppedEngines(), ok: false, error: failure(err) };

@@ -2,7 +2,7 @@
 // diagnosis engine gives next. Every unpowered reading on a section that touches the bus needs the discharge gate
 // passed first, whoever takes it. The bench screen enforces the same; this is the server's half, so a hand-made
 // request cannot skip a step or the gate.
-import { boardModelSchema, dischargeGateRefusal, type CreateReadingInput, type GateModel } from '@splitscope/contract';
+import { boardModelSchema, dischargeGateRefusal, isPhotoOnlyBoard, type CreateReadingInput, type GateModel } from '@splitscope/contract';
 import { DEFAULT_SAFE_THRESHOLD } from '@splitscope/boards';
 import type { Db } from '../../db/client';
 import type { jobs } from '../../db/schema';
@@ -18,7 +18,9 @@ const gateModels = new Map<string, GateModel | null>();
 async function gateModelOf(versionId: string, loadDocument: () => Promise<unknown>): Promise<GateModel | null> {
   if (gateModels.has(versionId)) return gateModels.get(versionId)!;
   const parsed = boardModelSchema.safeParse(await loadDocument());
-  const model = parsed.success ? { testPoints: parsed.data.testPoints, sections: parsed.data.sections } : null;
+  // A board that is its photo only (no sections, no parts) says nothing about where the bus is: gate it all.
+  const modelled = parsed.success && !isPhotoOnlyBoard(parsed.data);
+  const model = modelled ? { testPoints: parsed.data.testPoints, sections: parsed.data.sections } : null;
   gateModels.set(versionId, model);
   if (gateModels.size > 200) gateModels.delete(gateModels.keys().next().value as string);
   return model;

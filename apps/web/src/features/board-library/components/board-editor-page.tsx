@@ -7,7 +7,8 @@ import { useMe } from '@/lib/api/me';
 import { METER_LABEL, meterText } from '@/lib/format';
 import { useBoard } from '../api/get-board';
 import { useUpdateBoard } from '../api/update-board';
-import { imageSize, uploadPicture } from '../api/upload-picture';
+import { imageSize } from '@/lib/image-size';
+import { uploadPicture } from '../api/upload-picture';
 import { ComposePanel } from './compose-panel';
 
 const input = 'min-h-11 rounded-md border border-stone-500 bg-white px-2';

@@ -11,6 +11,7 @@ import { useCustomers } from '../api/get-customers';
 import { useFaultCodes } from '../api/get-fault-codes';
 import { useUsers } from '../api/get-users';
 import { uploadPhoto } from '../api/upload-photo';
+import { UNLISTED, UnlistedBoardFields, useUnlistedBoard } from './unlisted-board';
 
 type FormIn = z.input<typeof createJobRequest>;
 type FormOut = z.output<typeof createJobRequest>;
@@ -40,9 +41,12 @@ function NewJobPage() {
   const code = (faultCode ?? '').trim().toUpperCase();
   const match = code ? codes.data?.items.find((c) => c.code.toUpperCase() === code) : undefined;
   const e = form.formState.errors;
+  const unlisted = useUnlistedBoard(boardId === UNLISTED);
 
   const submit = form.handleSubmit(async (v) => {
-    const job = await create.mutateAsync(v);
+    const listedId = await unlisted.boardIdFor(v.boardId, photos);
+    if (!listedId) return;
+    const job = await create.mutateAsync({ ...v, boardId: listedId });
     try {
       for (const f of photos) await uploadPhoto(f, job.id);
     } catch (err) {
@@ -79,10 +83,12 @@ function NewJobPage() {
                 {b.name} (v{b.version})
               </option>
             ))}
+            <option value={UNLISTED}>Board not in the library yet</option>
           </select>
           {boards.isError && <Err msg={`Boards could not be loaded: ${boards.error.message}`} />}
           <Err msg={e.boardId && 'Choose the board model'} />
         </label>
+        <UnlistedBoardFields state={unlisted} />
         <label className="block">
           <span className="text-sm font-medium">Unit (make-free description, model line)</span>
           <input className={field} {...form.register('unitDescription')} aria-invalid={!!e.unitDescription} />
@@ -151,9 +157,9 @@ function NewJobPage() {
             className="mt-1 block min-h-11 w-full"
           />
         </label>
-        {(create.error || photoError) && (
+        {(create.error || photoError || unlisted.error) && (
           <p role="alert" className="rounded-md bg-red-50 p-2 text-sm text-high sm:col-span-2">
-            {photoError ?? create.error?.message}
+            {photoError ?? unlisted.error ?? create.error?.message}
           </p>
         )}
         <div className="sm:col-span-2">
