@@ -4,4 +4,5 @@ export * from './boards';
 export * from './jobs';
 export * from './billing';
 export * from './rules';
+export * from './shop-memory';
 export * from './captures';
