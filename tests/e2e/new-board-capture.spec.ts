@@ -2,6 +2,7 @@ import type { JobDetail } from '@splitscope/contract';
 import { expect, signIn, test } from './fixtures';
 import { fetchInPage, getJson, shot } from './helpers';
 import { boardPhoto } from './photo';
+import { createCustomer } from './support/shop-data';
 
 // A board the library does not hold, from intake to a judged second job: a new user opens a job on it with a
 // 4 MB photo, marks six test points and three sections from templates (values typed from the part markings),
@@ -12,9 +13,7 @@ test('a board not in the library: photo, six points, three template sections, a 
   await page.setViewportSize({ width: 1280, height: 900 });
   await signIn(page, 'lead@demo.test');
   const suffix = Date.now().toString(36);
-  const customer = await fetchInPage(page, '/customers', { method: 'POST', body: { name: `Capture Spec ${suffix}` } });
-  expect(customer.status).toBe(201);
-  const customerId = (customer.body as { id: string }).id;
+  const customerId = (await createCustomer(page)).id;
 
   // Intake: board not in the library yet, maker/model as printed, a 4 MB photo.
   const photo = boardPhoto();

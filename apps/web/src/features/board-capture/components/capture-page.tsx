@@ -48,6 +48,7 @@ function Capture({ boardId, draft }: { boardId: string; draft: BoardDraft }) {
   const save = useSaveDraft(boardId);
   const publish = usePublishDraft(boardId);
   const saved = save.data ?? draft;
+  // The server's copy of the capture (defaults filled in) is the one compared against, so a saved draft is not "changed".
   const dirty = JSON.stringify(capture) !== JSON.stringify(saved.capture);
   // Marking needs a pointer and room; on a phone the draft is shown, not edited.
   const narrow = width < 560;
@@ -120,7 +121,7 @@ function Capture({ boardId, draft }: { boardId: string; draft: BoardDraft }) {
       </div>
       {!narrow && (
         <div className="flex flex-wrap items-end gap-2 border-t border-stone-300 pt-3">
-          <Button type="button" disabled={save.isPending} onClick={() => save.mutate(capture)}>{save.isPending ? 'Computing…' : 'Save draft'}</Button>
+          <Button type="button" disabled={save.isPending} onClick={() => save.mutate(capture, { onSuccess: (d) => setCapture(d.capture) })}>{save.isPending ? 'Computing…' : 'Save draft'}</Button>
           {canPublishBoards(me.data?.role) && (
             <>
               <label className="flex flex-col text-sm">

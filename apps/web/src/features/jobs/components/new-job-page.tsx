@@ -42,7 +42,7 @@ function NewJobPage() {
   const serial = useWatch({ control: form.control, name: 'serial' });
   const unitSerial = useWatch({ control: form.control, name: 'unitSerial' });
   const history = useBoardHistory({ serial: serial ?? undefined, unitSerial: unitSerial ?? undefined });
-  const codes = useFaultCodes(boardId || undefined);
+  const codes = useFaultCodes(boardId && boardId !== UNLISTED ? boardId : undefined);
   const code = (faultCode ?? '').trim().toUpperCase();
   const match = code ? codes.data?.items.find((c) => c.code.toUpperCase() === code) : undefined;
   const e = form.formState.errors;
