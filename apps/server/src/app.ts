@@ -25,6 +25,7 @@ import { shopRoutes } from './features/shops/routes';
 import { boardHistoryRoutes } from './features/board-history';
 import { serviceTermsRoutes } from './features/service-terms';
 import { partsBinRoutes } from './features/parts-bin';
+import { meterImportRoutes } from './features/meter-import';
 import { errorHandler, notFoundApi } from './http/errors';
 import { hostAllowList } from './http/host';
 import { originCheck } from './http/origin';
@@ -84,6 +85,7 @@ export function createApp(ctx: AppContext): Express {
   api.use(serviceTermsRoutes(ctx));
   api.use(boardHistoryRoutes(ctx));
   api.use(partsBinRoutes(ctx));
+  api.use(meterImportRoutes(ctx));
   api.use(notFoundApi);
   app.use('/api', api);
 

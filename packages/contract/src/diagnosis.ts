@@ -27,6 +27,8 @@ export const diagnosisCandidateSchema = z.object({
   faults: z.array(faultRef),
   probability: z.number(),
   evidence: z.array(diagnosisEvidenceSchema),
+  /** Still being checked (a fault pair, or a test outside the board's dictionary): its place is provisional. */
+  checking: z.literal(true).optional(),
 });
 
 export const diagnosisPartSchema = z.object({
@@ -71,6 +73,10 @@ export const diagnosisResponse = z.object({
   nextTests: z.array(nextTestSchema),
   /** Entropy (bits) of the candidate posterior. */
   entropy: z.number(),
+  /** The board's expected values for every fault are still being computed: parts done of the total. */
+  preparing: z.object({ partsDone: z.number().int(), partsTotal: z.number().int() }).optional(),
+  /** Candidates still being checked (mostly fault pairs the readings call for); the ranking updates when they arrive. */
+  checking: z.object({ candidates: z.number().int() }).optional(),
 });
 export type Diagnosis = z.infer<typeof diagnosisResponse>;
 

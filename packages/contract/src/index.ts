@@ -26,3 +26,4 @@ export * from './policy';
 export * from './duties';
 export * from './report';
 export * from './shop-memory';
+export * from './meter-import';

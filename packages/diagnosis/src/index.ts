@@ -23,6 +23,20 @@ export type { Prediction, ReadingValue, MeterMode, Verdict, Band } from './elect
 export { candidateTests, testCost, instruction, COST, HAZARD_CAUTION } from './electrical/nexttests.js';
 export type { BenchState, Hazard } from './electrical/nexttests.js';
 export { CaseError, validateCaseShape } from './electrical/case.js';
+export {
+  DICTIONARY_FORMAT,
+  buildDictionary,
+  dictionaryTests,
+  attachDictionary,
+  takeWantedPairs,
+  computePairs,
+  addPairs,
+  toBytes,
+  fromBytes,
+  encodePrediction,
+  decodePrediction,
+} from './electrical/dictionary.js';
+export type { FaultDictionary, PairColumn, BuildOptions } from './electrical/dictionary.js';
 export { Diagnoser, createDiagnoser, diagnoseCase, validateCase } from './electrical/diagnoser.js';
 export type {
   DiagnosisCase,

@@ -31,6 +31,7 @@ const SerialLookupPage = lazy(() => import('@/features/board-history/components/
 const JobHistoryPage = lazy(async () => ({ default: (await import('@/features/board-history/components/board-history-page')).JobHistoryPage }));
 const ServiceTermsPage = lazy(() => import('@/features/service-terms/components/service-terms-page'));
 const PartsBinPage = lazy(() => import('@/features/parts-bin/components/parts-bin-page'));
+const MeterImportPage = lazy(() => import('@/features/meter-import/components/meter-import-page'));
 const BillingSettingsPage = lazy(() => import('@/features/billing/components/billing-settings-page'));
 
 const loading = <p className="p-6">Loading…</p>;
@@ -71,6 +72,7 @@ export const router = createBrowserRouter([
       { path: 'jobs/:id/report', element: <ReportPage /> },
       { path: 'jobs/:id/billing', element: <JobBillingPage /> },
       { path: 'jobs/:id/history', element: <JobHistoryPage /> },
+      { path: 'jobs/:id/import', element: <MeterImportPage /> },
       { path: 'history', element: <SerialLookupPage /> },
       { path: 'parts-bin', element: <PartsBinPage /> },
       { path: 'review', element: <ReviewQueuePage /> },

@@ -83,6 +83,8 @@ export interface CandidateReport {
   words: { text: string; faults: FaultWords[] };
   /** Readings whose expected value could not be computed under this candidate (left out of its score). */
   unpredicted?: number[];
+  /** Still being checked (dictionary.ts): scored as neutral on the readings it lacks a prediction for until then. */
+  checking?: true;
 }
 
 export interface NextTestReport {
@@ -121,6 +123,11 @@ export interface DiagnosisOutput {
   unexplained?: Unexplained;
   /** How many multiple-fault candidates came from conflicts, and whether a bound cut the list. */
   generated: { pairs: number; triples: number; capped: boolean };
+  /**
+   * Candidates still being checked: predictions the board's dictionary lacks (fault pairs the readings call for,
+   * a test outside it) are computed in the background (dictionary.ts); the ranking updates when they arrive.
+   */
+  checking?: { candidates: number };
 }
 
 export interface UpdateOptions {

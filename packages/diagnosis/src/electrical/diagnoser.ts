@@ -17,6 +17,7 @@ import { rankTests } from '../core/probe.js';
 import type { Observation } from '../core/types.js';
 import { CaseError, checkReadingShape, normNet, validateCaseShape } from './case.js';
 import type { BoardInput, CandidateReport, DiagnosisCase, DiagnosisOutput, NextTestReport, ReadingReport, UpdateOptions } from './case.js';
+import { checkingKeys } from './dictionary.js';
 import { ElectricalModel, testKey, type ElectricalTest } from './model.js';
 import { candidateTests, HAZARD_CAUTION, instruction, testCost, type BenchState, type Hazard, type TestPoint } from './nexttests.js';
 import { bandOf, isPredicted, verdictOf, type Prediction, type ReadingValue } from './noise.js';
@@ -32,7 +33,7 @@ interface MeterModel {
 export class Diagnoser {
   readonly model: ElectricalModel;
   readonly cache: PredictionCache<ElectricalTest, Prediction>;
-  private readonly testPoints?: TestPoint[];
+  readonly testPoints?: TestPoint[];
   private readonly partByLower: Map<string, string>;
   private readonly byMeter = new Map<MeterProfile, MeterModel>();
   private readonly names: Namer;
@@ -176,9 +177,13 @@ export class Diagnoser {
     const rest = post.candidates.slice(top).reduce((a, c) => a + c.probability, 0);
     const readingsOfGroup = (g: number) => groupOf.map((x, i) => (x === g ? i : -1)).filter((i) => i >= 0);
 
+    // Predictions a board's dictionary does not hold yet are computed in the background (dictionary.ts).
+    const checking = cache.defer ? checkingKeys(this) : undefined;
     const candidates: CandidateReport[] = listed.map((c) => {
-      const unpredicted = c.unpredicted.flatMap(readingsOfGroup);
+      const isChecking = !!checking?.size && c.combos.some((k) => checking.has(k.key));
+      const unpredicted = isChecking ? [] : c.unpredicted.flatMap(readingsOfGroup);
       return {
+        ...(isChecking ? { checking: true as const } : {}),
         faults: c.faults.map((f) => ({ part: f.part, mode: f.mode })),
         probability: c.probability,
         evidence: obs.map((_, i) => {
@@ -211,6 +216,7 @@ export class Diagnoser {
       unmodelledProbability: post.unmodelled?.probability ?? 0,
       ...(unexplained ? { unexplained } : {}),
       generated: post.generated,
+      ...(checking?.size ? { checking: { candidates: post.candidates.filter((c) => c.combos.some((k) => checking.has(k.key))).length } } : {}),
     };
   }
 

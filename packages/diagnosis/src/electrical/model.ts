@@ -185,6 +185,11 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ObservedValu
     return p;
   }
 
+  /** A healthy prediction computed elsewhere (the board's fault dictionary, dictionary.ts). */
+  seedHealthy(t: ElectricalTest, p: Prediction): void {
+    this.healthy.set(testKey(t), p);
+  }
+
   logLikelihood(t: ElectricalTest, v: ObservedValue, p: Prediction): number {
     return groupLogLikelihood(t.mode, v, p, this.meter);
   }

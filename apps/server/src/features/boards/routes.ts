@@ -15,7 +15,13 @@ import {
 import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';
+import { ensureDictionary } from '../diagnosis';
 import { createBoard, createFaultCode, findBoards, findBoardVersions, findFaultCodes, getBoard, getBoardDrawing, updateBoard } from './service';
+
+/** A published version's fault dictionary is built in the background; the version is usable at once. */
+function publishedVersion(ctx: AppContext, versionId: string): void {
+  void ensureDictionary(ctx.db, versionId).catch((err: unknown) => console.error(`splitscope: fault dictionary of ${versionId} not started: ${(err as Error).message}`));
+}
 
 export function boardRoutes(ctx: AppContext): Router {
   const r = Router();
@@ -25,7 +31,9 @@ export function boardRoutes(ctx: AppContext): Router {
   // The admin keeps the library; leads edit the models in it.
   r.post('/boards', requireRole(...ROLES.admins), async (req, res) => {
     const { document, note } = parse(createBoardRequest, req.body);
-    res.status(201).json(boardDetailSchema.parse(await createBoard({ db: ctx.db, actor: actorOf(req), document, note })));
+    const board = await createBoard({ db: ctx.db, actor: actorOf(req), document, note });
+    res.status(201).json(boardDetailSchema.parse(board));
+    publishedVersion(ctx, board.versionId);
   });
   r.get('/boards/:id', requireRole(...ROLES.everyone), async (req, res) => {
     const { id } = parse(idParams, req.params);
@@ -35,7 +43,9 @@ export function boardRoutes(ctx: AppContext): Router {
   r.patch('/boards/:id', requireRole(...ROLES.reviewers), async (req, res) => {
     const { id } = parse(idParams, req.params);
     const { document, note } = parse(updateBoardRequest, req.body);
-    res.json(boardDetailSchema.parse(await updateBoard({ db: ctx.db, actor: actorOf(req), id, document, note })));
+    const board = await updateBoard({ db: ctx.db, actor: actorOf(req), id, document, note });
+    res.json(boardDetailSchema.parse(board));
+    publishedVersion(ctx, board.versionId);
   });
   r.get('/boards/:id/versions', requireRole(...ROLES.everyone), async (req, res) => {
     const { id } = parse(idParams, req.params);

@@ -1,6 +1,4 @@
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
-import { fileURLToPath } from 'node:url';
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
 import { BOUNDS, readableDiagnosis, type Diagnosis, type DiagnosisSnapshot } from '@splitscope/contract';
@@ -10,14 +8,11 @@ import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { unitOf } from '../boards';
 import { diagnosisFor } from './cache';
+import { dictionaryStamp, dictionaryState, loadDictionary, savePairs } from './dictionary';
+import { ENGINE_VERSION } from './engine-version';
 import { diagnosisPool } from './pool';
 import { wordDiagnosis, wordsOf } from './words';
 
-/** Stored with every snapshot, so an old diagnosis can be told apart from what today's engine would say. */
-export const ENGINE_VERSION = (() => {
-  const pkg = JSON.parse(readFileSync(fileURLToPath(new URL('../../../../../packages/diagnosis/package.json', import.meta.url)), 'utf8')) as { name: string; version: string };
-  return `${pkg.name}@${pkg.version}`;
-})();
 
 /** The same digest PostgreSQL's md5() gives, so a key computed here matches the one the database computes. */
 const md5 = (text: string) => createHash('md5').update(text).digest('hex');
@@ -91,15 +86,23 @@ export async function getDiagnosis({ db, shopId, jobId: id }: { db: Db; shopId: 
  */
 export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Promise<Diagnosis> {
   const q = queries(db);
-  const [k] = await q.key.execute({ jobId: job.id });
-  return diagnosisFor(job.id, keyOf(job.boardVersionId, k?.n ?? 0, k?.digest ?? null), async () => {
+  const versionId = job.boardVersionId;
+  const [[k], dictionary] = await Promise.all([q.key.execute({ jobId: job.id }), dictionaryState(db, versionId)]);
+  // A diagnosis made before the board's dictionary (or a batch of fault pairs) was ready is made again.
+  const stamp = dictionaryStamp(versionId);
+  const out = await diagnosisFor(job.id, `${keyOf(versionId, k?.n ?? 0, k?.digest ?? null)}|${stamp}`, async () => {
     const rows = await currentReadings(db, job.id);
     // A worker thread runs the engine (seconds on a first run), so the server answers other requests meanwhile.
-    const out = await diagnosisPool().run(job.boardVersionId, toCaseReadings(rows), () => documentOf(db, job.boardVersionId));
+    const out = await diagnosisPool().run(versionId, toCaseReadings(rows), () => documentOf(db, versionId), {
+      loadDictionary: () => loadDictionary(db, versionId),
+      onPairs: (columns) => void savePairs(db, versionId, columns).catch((err: unknown) => console.error('storing fault pairs failed', err)),
+    });
     // Kept under the key of the rows it ran on: a reading stored since the key query makes that key differ.
-    const words = await wordsOf(job.boardVersionId, () => documentOf(db, job.boardVersionId));
-    return { key: keyOf(job.boardVersionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null), output: wordDiagnosis(shapeDiagnosis(out, job, rows), words) };
+    const words = await wordsOf(versionId, () => documentOf(db, versionId));
+    return { key: `${keyOf(versionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null)}|${stamp}`, output: wordDiagnosis(shapeDiagnosis(out, job, rows), words) };
   });
+  // The build's progress changes while the answer does not: it is added per request, outside the kept answer.
+  return dictionary.state === 'building' ? { ...out, preparing: { partsDone: dictionary.partsDone, partsTotal: dictionary.partsTotal } } : out;
 }
 
 /** A job's current readings in the order the engine reads them. */

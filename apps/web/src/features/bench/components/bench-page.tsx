@@ -215,6 +215,11 @@ function Bench({ job }: { job: JobDetail }) {
               Repair and verification
             </Link>
           )}
+          {!['verified', 'returned'].includes(job.status) && (
+            <Link className={linkClass} to={`/jobs/${job.id}/import`}>
+              Import meter log
+            </Link>
+          )}
           <Link className={linkClass} to={`/jobs/${job.id}/report`}>
             Report
           </Link>
@@ -294,6 +299,8 @@ function Bench({ job }: { job: JobDetail }) {
                   nextTests={guided ? [] : steps.slice(0, 3)}
                   selectedPart={selectedPart}
                   before={before}
+                  preparing={diagnosisQ.data?.preparing}
+                  checkingPairs={diagnosisQ.data?.checking?.candidates}
                   onPickPart={(p) => setSelectedPart((s) => (s === p ? null : p))}
                   onPickTest={guided ? undefined : (t) => setTarget({ ...(t as (typeof steps)[number]).target, pointId: t.pointId })}
                 />

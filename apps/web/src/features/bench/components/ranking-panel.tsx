@@ -10,6 +10,8 @@ export interface RankedPart {
   description?: string;
   evidenceFor: string[];
   evidenceAgainst: string[];
+  /** Fault pairs with this fault are still being checked. */
+  checking?: boolean;
 }
 
 export interface NextTestView {
@@ -35,6 +37,8 @@ export function RankingPanel({
   onPickPart,
   onPickTest,
   before,
+  preparing,
+  checkingPairs,
 }: {
   parts: RankedPart[];
   nextTests: NextTestView[];
@@ -43,6 +47,10 @@ export function RankingPanel({
   onPickTest?: (t: NextTestView) => void;
   /** Before the first reading: what the fault code points at, instead of every part of the board at equal odds. */
   before?: { code: string | null; meaning: string | null; sections: string[] } | null;
+  /** The board's expected values for every fault are still being computed (parts done of the total). */
+  preparing?: { partsDone: number; partsTotal: number };
+  /** How many fault pairs are still being checked. */
+  checkingPairs?: number;
 }) {
   // With no readings every part is equally suspect: a list of a hundred parts helps nobody, so show the leaders.
   const [all, setAll] = useState(false);
@@ -77,6 +85,19 @@ export function RankingPanel({
         <h2 id="ranking-h" className="mb-1 text-base font-semibold">
           Probable faulty parts
         </h2>
+        {preparing && (
+          <div className="mb-2 rounded-md bg-board-light p-2 text-sm" data-testid="preparing-expected">
+            <label htmlFor="preparing-progress">
+              Preparing expected values: {preparing.partsDone} of {preparing.partsTotal} parts. The ranking works meanwhile, more slowly.
+            </label>
+            <progress id="preparing-progress" className="mt-1 block w-full" max={Math.max(1, preparing.partsTotal)} value={preparing.partsDone} />
+          </div>
+        )}
+        {!!checkingPairs && (
+          <p className="mb-2 text-sm text-stone-700" role="status" data-testid="checking-pairs">
+            Still checking {checkingPairs} candidate{checkingPairs === 1 ? '' : 's'} (mostly two faults together): marked parts may still move.
+          </p>
+        )}
         {before ? (
           <div className="rounded-md bg-board-light p-2 text-sm" data-testid="before-first-reading">
             <p>
@@ -107,6 +128,7 @@ export function RankingPanel({
                   <span className="flex items-baseline justify-between gap-2">
                     <span className="font-semibold">
                       {i + 1}. {p.label}
+                      {p.checking && <span className="ml-1 text-xs font-normal text-stone-700">(still being checked)</span>}
                     </span>
                     <span className="tabular-nums font-semibold">{pct(p.probability)}</span>
                   </span>

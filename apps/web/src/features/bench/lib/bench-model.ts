@@ -90,6 +90,8 @@ export function rankedParts(view: BoardView, d: Diagnosis): RankedPart[] {
       description: typeof partRec.description === 'string' ? partRec.description : undefined,
       evidenceFor: ev.filter((e) => sign(e) === 'supports').map((e) => evidenceText(idx(e))),
       evidenceAgainst: ev.filter((e) => sign(e) === 'against').map((e) => evidenceText(idx(e))),
+      // Pairs with this fault still being checked: its share may still move when they arrive.
+      checking: d.candidates.some((c) => c.checking && c.faults.some((f) => f.part === p.part && f.mode === p.mode)),
     };
   });
 }
