@@ -66,9 +66,9 @@ function Capture({ boardId, draft }: { boardId: string; draft: BoardDraft }) {
   };
   const region = (r: { x: number; y: number; w: number; h: number }) => {
     const base = Math.max(0, ...capture.sections.map((s) => s.base)) + 100;
-    const stem = template.replace(/-.*/, '');
-    const id = capture.sections.some((s) => s.id === stem) ? `${stem}-${base}` : stem;
-    const title = TEMPLATE_INFO.find((t) => t.template === template)!.title;
+    const info = TEMPLATE_INFO.find((t) => t.template === template)!;
+    const id = capture.sections.some((s) => s.id === info.sectionId) ? `${info.sectionId}-${base}` : info.sectionId;
+    const title = info.title;
     setCapture({ ...capture, sections: [...capture.sections, { id, template, title, base, region: r, nets: {}, params: {}, values: {}, markings: {} }] });
     setSelected(id);
   };
