@@ -44,7 +44,7 @@ export async function startServer(config: Config): Promise<RunningServer> {
   holdDiagnosisPool(config.DIAGNOSIS_WORKERS, { warm: config.NODE_ENV !== 'test' });
   // Fault dictionaries of every version that lacks one (the demo boards after seeding, versions an older engine
   // computed) are built in the background; a version is usable at once meanwhile.
-  if (config.NODE_ENV !== 'test') {
+  if (config.NODE_ENV !== 'test' && config.FAULT_DICTIONARIES) {
     enableDictionaryBuilds(true);
     void ensureAllDictionaries(db).catch((err: unknown) => console.error(`splitscope: fault dictionaries not started: ${(err as Error).message}`));
   }

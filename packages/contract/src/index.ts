@@ -25,5 +25,7 @@ export * from './verification';
 export * from './policy';
 export * from './duties';
 export * from './report';
+export * from './references';
 export * from './shop-memory';
 export * from './meter-import';
+export * from './shop-stats';

@@ -1,10 +1,10 @@
 import { Suspense } from 'react';
 import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
-import { hasRole, ROLES } from '@splitscope/contract';
+import { hasRole, roleLabels, ROLES } from '@splitscope/contract';
 import { useMe } from '@/lib/api/me';
 import { useSignOut } from '@/features/auth/api/sign-in';
 
-const roleLabel = { admin: 'Shop admin', lead: 'Lead', tech: 'Technician', trainee: 'Trainee' } as const;
+const roleLabel = roleLabels;
 
 /** The signed-in frame: header with navigation; sends signed-out visitors to the sign-in page. */
 export function AppLayout() {
@@ -31,6 +31,9 @@ export function AppLayout() {
           </NavLink>
           <NavLink to="/jobs" end className={link}>
             Jobs
+          </NavLink>
+          <NavLink to="/customers" className={link}>
+            Customers
           </NavLink>
           {hasRole(me.data.role, ROLES.reviewers) && (
             <NavLink to="/review" className={link}>

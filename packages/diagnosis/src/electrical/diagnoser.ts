@@ -14,11 +14,15 @@ import { NetlistError, parseNetlist, type Element, type MeterProfile, type Netli
 import { diagnose } from '../core/engine.js';
 import { PredictionCache } from '../core/cache.js';
 import { rankTests } from '../core/probe.js';
+import { PriorAdjustmentError, type PriorAdjustment } from '../core/priors.js';
+import { historyAdjustments } from './history.js';
+import { referenceAdjustments } from './references.js';
 import type { Observation } from '../core/types.js';
 import { CaseError, checkReadingShape, normNet, validateCaseShape } from './case.js';
 import type { BoardInput, CandidateReport, DiagnosisCase, DiagnosisOutput, NextTestReport, ReadingReport, UpdateOptions } from './case.js';
 import { checkingKeys } from './dictionary.js';
 import { ElectricalModel, testKey, type ElectricalTest } from './model.js';
+import { partAloneRefusal } from './part-alone.js';
 import { candidateTests, HAZARD_CAUTION, instruction, testCost, type BenchState, type Hazard, type TestPoint } from './nexttests.js';
 import { bandOf, isPredicted, verdictOf, type Prediction, type ReadingValue } from './noise.js';
 import type { ObservedValue } from './repeats.js';
@@ -123,7 +127,15 @@ export class Diagnoser {
         if (!name) throw new CaseError(`reading ${i}: unknown part ${p} in lifted`);
         return name;
       });
-      return { test: { mode: r.mode, red, black, power: r.power, lifted: [...new Set(lifted)].sort() }, value: r.value };
+      const test: ElectricalTest = { mode: r.mode, red, black, power: r.power, lifted: [...new Set(lifted)].sort() };
+      if (r.alone !== undefined) {
+        const part = this.model.partsByName.get(this.partByLower.get(r.alone.trim().toLowerCase()) ?? '');
+        if (!part) throw new CaseError(`reading ${i}: unknown part ${r.alone} measured alone`);
+        const refused = partAloneRefusal(test, part.name, part.nets);
+        if (refused) throw new CaseError(`reading ${i}: ${refused}`);
+        test.alone = part.name;
+      }
+      return { test, value: r.value };
     });
   }
 
@@ -155,7 +167,13 @@ export class Diagnoser {
       return g;
     });
     const gobs: Observation<ElectricalTest, ObservedValue>[] = groups.map((g) => ({ test: g.test, value: g.values.length === 1 ? (g.values[0] as ReadingValue) : { repeats: g.values } }));
-    const post = diagnose(model, gobs, { pairTopK: options.pairTopK ?? 12 }, cache);
+    let post: ReturnType<typeof diagnose>;
+    try {
+      post = diagnose(model, gobs, { pairTopK: options.pairTopK ?? 12, priors: [...this.historyPriors(model, options), ...this.resolvePriors(options.priors ?? []), ...this.referencePriors(model, obs, options)] }, cache);
+    } catch (err) {
+      if (err instanceof PriorAdjustmentError) throw new CaseError(err.message);
+      throw err;
+    }
 
     const readingReports: ReadingReport[] = obs.map((o, index) => {
       const healthy = model.healthyPrediction(o.test);
@@ -216,8 +234,49 @@ export class Diagnoser {
       unmodelledProbability: post.unmodelled?.probability ?? 0,
       ...(unexplained ? { unexplained } : {}),
       generated: post.generated,
+      priors: (post.priorChanges ?? [])
+        .filter((c) => c.steps.some((s) => s.note))
+        .map((c) => ({ ...c, words: faultWords(model, names, c.part, c.mode) }))
+        .sort((a, b) => Math.abs(Math.log(b.after / b.before)) - Math.abs(Math.log(a.after / a.before)) || a.part.localeCompare(b.part)),
       ...(checking?.size ? { checking: { candidates: post.candidates.filter((c) => c.combos.some((k) => checking.has(k.key))).length } } : {}),
     };
+  }
+
+  private historyPriors(model: ElectricalModel, options: UpdateOptions): PriorAdjustment[] {
+    if (!options.history) return [];
+    const names = this.names;
+    const count = (n: number) => (Math.abs(n - Math.round(n)) < 0.05 ? String(Math.round(n)) : `about ${n.toFixed(1)}`);
+    return historyAdjustments(model.parts, options.history, (key) => this.partNamed(key), {
+      board: (part, mode, n, jobs) => `${faultWords(model, names, part, mode).text}: ${count(n)} of the last ${jobs} verified boards of this model`,
+      kind: (part, mode, kind, n, jobs) => `${faultWords(model, names, part, mode).words} on ${kind.replace(/-/g, ' ')}s of the shop's other models: ${count(n)} of ${jobs} verified boards`,
+    });
+  }
+
+  private referencePriors(model: ElectricalModel, obs: Observation<ElectricalTest, ReadingValue>[], options: UpdateOptions): PriorAdjustment[] {
+    if (!options.references?.length) return [];
+    const bands = options.references.map((b) => ({ ...b, red: normNet(b.red), black: normNet(b.black) }));
+    const fmt = (v: number, mode: ElectricalTest['mode']) => `${sig(v)} ${mode === 'ohm' ? 'Ω' : 'V'}`;
+    return referenceAdjustments(model, obs, bands, (t, v, b) => {
+      const p = this.names.point(t.red);
+      return `${p.label} ${METER_FUNCTION[t.mode]} ${fmt(v, t.mode)} is within ${b.boards} known-good boards (${fmt(b.low, t.mode)} – ${fmt(b.high, t.mode)}) where the model gives no value: the parts on it are likelier sound`;
+    });
+  }
+
+  private partNamed(key: string): string | undefined {
+    const k = key.trim().toLowerCase();
+    const direct = this.partByLower.get(k);
+    if (direct) return direct;
+    return this.model.parts.find((p) => this.names.designator(p.name).toLowerCase() === k)?.name;
+  }
+
+  /** Adjustments name parts by netlist name or printed designator; the core takes netlist names. */
+  private resolvePriors(adjustments: readonly PriorAdjustment[]): PriorAdjustment[] {
+    if (adjustments.length === 0) return [];
+    return adjustments.map((a, i) => {
+      const part = this.partNamed(a.part);
+      if (!part) throw new CaseError(`priors ${i}: unknown part ${a.part}`);
+      return { ...a, part };
+    });
   }
 
   private nextTests(

@@ -33,6 +33,8 @@ export const users = pgTable(
     passwordHash: text('password_hash').notNull(),
     /** Set when an admin deactivates the person: no sign-in, no session, kept for the history they wrote. */
     deactivatedAt: timestamp('deactivated_at', { withTimezone: true }),
+    /** For a trainee: the lead who lifted guided order on all their jobs; null while guided order binds. */
+    guidedLiftedBy: text('guided_lifted_by'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [uniqueIndex('users_email_unique').on(t.email), index('users_shop_idx').on(t.shopId)],

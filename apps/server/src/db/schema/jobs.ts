@@ -227,6 +227,11 @@ export const uploads = pgTable(
     jobId: text('job_id').references(() => jobs.id),
     contentType: text('content_type').notNull(),
     size: integer('size').notNull(),
+    /** Pixel size of the stored picture (null for rows stored before pictures were measured). */
+    width: integer('width'),
+    height: integer('height'),
+    /** Bytes as sent, when the stored picture was resized from them. */
+    originalSize: integer('original_size'),
     sha256: text('sha256').notNull(),
     name: text('name'),
     /** The key under which the Storage keeps the bytes. */
@@ -237,4 +242,26 @@ export const uploads = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('uploads_shop_idx').on(t.shopId, t.jobId)],
+);
+
+/** A picture sent for a job and not stored (refused type, damaged file): kept so the job shows it, not the form. */
+export const uploadRefusals = pgTable(
+  'upload_refusals',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id),
+    jobId: text('job_id')
+      .notNull()
+      .references(() => jobs.id),
+    name: text('name'),
+    size: integer('size').notNull(),
+    reason: text('reason').notNull(),
+    createdBy: text('created_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('upload_refusals_job_idx').on(t.jobId, t.createdAt)],
 );

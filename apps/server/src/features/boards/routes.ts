@@ -11,12 +11,13 @@ import {
   faultCodeSchema,
   idParams,
   updateBoardRequest,
+  updateFaultCodeRequest,
 } from '@splitscope/contract';
 import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';
 import { ensureDictionary } from '../diagnosis';
-import { createBoard, createFaultCode, findBoards, findBoardVersions, findFaultCodes, getBoard, getBoardDrawing, updateBoard } from './service';
+import { createBoard, createFaultCode, deleteFaultCode, findBoards, findBoardVersions, findFaultCodes, getBoard, getBoardDrawing, updateBoard, updateFaultCode } from './service';
 
 /** A published version's fault dictionary is built in the background; the version is usable at once. */
 function publishedVersion(ctx: AppContext, versionId: string): void {
@@ -63,9 +64,20 @@ export function boardRoutes(ctx: AppContext): Router {
     const { boardId } = parse(faultCodeListQuery, req.query);
     res.json(faultCodeListResponse.parse(await findFaultCodes({ db: ctx.db, shopId: actorOf(req).shopId, boardId })));
   });
-  r.post('/fault-codes', requireRole(...ROLES.admins), async (req, res) => {
+  r.post('/fault-codes', requireRole(...ROLES.reviewers), async (req, res) => {
     const input = parse(createFaultCodeRequest, req.body);
     res.status(201).json(faultCodeSchema.parse(await createFaultCode({ db: ctx.db, shopId: actorOf(req).shopId, input })));
+  });
+  // The shop's code table is the leads' to keep, like the board models it points into.
+  r.put('/fault-codes/:id', requireRole(...ROLES.reviewers), async (req, res) => {
+    const { id } = parse(idParams, req.params);
+    const input = parse(updateFaultCodeRequest, req.body);
+    res.json(faultCodeSchema.parse(await updateFaultCode({ db: ctx.db, shopId: actorOf(req).shopId, id, input })));
+  });
+  r.delete('/fault-codes/:id', requireRole(...ROLES.reviewers), async (req, res) => {
+    const { id } = parse(idParams, req.params);
+    await deleteFaultCode({ db: ctx.db, shopId: actorOf(req).shopId, id });
+    res.status(204).end();
   });
   return r;
 }

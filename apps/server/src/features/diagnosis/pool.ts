@@ -3,7 +3,7 @@
 // makes a later update fast), so calls go to the thread that has the board, a board document crosses to a
 // thread once, and a thread that dies takes only its own pending calls with it.
 import { Worker } from 'node:worker_threads';
-import type { CaseReading, DiagnosisOutput, PairColumn } from '@splitscope/diagnosis';
+import type { CaseReading, DiagnosisOutput, PairColumn, UpdateOptions } from '@splitscope/diagnosis';
 import { AppError } from '../../http/errors';
 import type { StoredDictionary } from './dictionary';
 import type { PairsMessage, WorkerFailure, WorkerReply, WorkerRequest } from './protocol';
@@ -13,6 +13,7 @@ const ENTRY = new URL('./worker-entry.mjs', import.meta.url);
 interface Call {
   versionId: string;
   readings: CaseReading[];
+  options?: Pick<UpdateOptions, 'priors' | 'history' | 'references'>;
   loadDocument: () => Promise<unknown>;
   /** The version's fault dictionary when it is ready (sent to a thread once). */
   loadDictionary?: () => Promise<StoredDictionary | undefined>;
@@ -56,8 +57,9 @@ export class DiagnosisPool {
     readings: CaseReading[],
     loadDocument: () => Promise<unknown>,
     dictionary: Pick<Call, 'loadDictionary' | 'onPairs'> = {},
+    options?: Pick<UpdateOptions, 'priors' | 'history' | 'references'>,
   ): Promise<DiagnosisOutput> {
-    return new Promise((resolve, reject) => void this.dispatch({ versionId, readings, loadDocument, ...dictionary, resolve, reject }, false));
+    return new Promise((resolve, reject) => void this.dispatch({ versionId, readings, loadDocument, ...dictionary, resolve, reject, ...(options ? { options } : {}) }, false));
   }
 
   /**
@@ -92,7 +94,7 @@ export class DiagnosisPool {
       thread.pending.set(id, call);
       // Referenced only while it owes an answer, so an idle thread never keeps the process alive.
       thread.worker.ref();
-      const message: WorkerRequest = { id, versionId: call.versionId, readings: call.readings, ...(withDocument ? { document } : {}), ...(dictionary ? { dictionary } : {}) };
+      const message: WorkerRequest = { id, versionId: call.versionId, readings: call.readings, ...(call.options ? { options: call.options } : {}), ...(withDocument ? { document } : {}), ...(dictionary ? { dictionary } : {}) };
       thread.worker.postMessage(message);
     } catch (err) {
       call.reject(err);

@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
-import { BOUNDS, readableDiagnosis, type Diagnosis, type DiagnosisSnapshot } from '@splitscope/contract';
+import { BOUNDS, readableDiagnosis, type Diagnosis, type DiagnosisSnapshot, type PriorSource } from '@splitscope/contract';
 import type { Db } from '../../db/client';
 import { boardModelVersions, diagnosisSnapshots, jobs, readingStrikes, readings } from '../../db/schema';
 import { AppError } from '../../http/errors';
@@ -11,15 +11,16 @@ import { diagnosisFor } from './cache';
 import { dictionaryStamp, dictionaryState, loadDictionary, savePairs } from './dictionary';
 import { ENGINE_VERSION } from './engine-version';
 import { diagnosisPool } from './pool';
+import { jobPriors } from './priors';
 import { wordDiagnosis, wordsOf } from './words';
 
 
 /** The same digest PostgreSQL's md5() gives, so a key computed here matches the one the database computes. */
 const md5 = (text: string) => createHash('md5').update(text).digest('hex');
-const keyOf = (versionId: string, n: number, digest: string | null) => `${versionId}|${n}|${digest ?? ''}`;
+const keyOf = (versionId: string, n: number, digest: string | null, priorsKey: string) => `${versionId}|${n}|${digest ?? ''}|${priorsKey}`;
 
 type ReadingRow = typeof readings.$inferSelect;
-type JobRef = Pick<typeof jobs.$inferSelect, 'id' | 'boardVersionId'>;
+type JobRef = Pick<typeof jobs.$inferSelect, 'id' | 'boardVersionId'> & Partial<Pick<typeof jobs.$inferSelect, 'shopId' | 'boardId' | 'faultCode'>>;
 
 const jobId = sql.placeholder('jobId');
 // The readings the diagnosis works from: diagnosis-phase rows that no later row of the same job corrects
@@ -41,7 +42,7 @@ const prepared = new WeakMap<Db, ReturnType<typeof prepare>>();
 function prepare(db: Db) {
   return {
     job: db
-      .select({ id: jobs.id, boardVersionId: jobs.boardVersionId })
+      .select({ id: jobs.id, boardVersionId: jobs.boardVersionId, shopId: jobs.shopId, boardId: jobs.boardId, faultCode: jobs.faultCode })
       .from(jobs)
       .where(and(eq(jobs.id, jobId), eq(jobs.shopId, sql.placeholder('shopId'))))
       .prepare('diagnosis_job'),
@@ -73,6 +74,14 @@ const caseValue = (r: ReadingRow): CaseReading['value'] => {
   return r.overLimit ? 'OL' : r.value!;
 };
 
+/** What the job's priors are made of; callers that hold only the job's id and version have the rest read here. */
+async function jobFacts(db: Db, job: JobRef) {
+  if (job.shopId !== undefined && job.boardId !== undefined && job.faultCode !== undefined) return { ...job, shopId: job.shopId, boardId: job.boardId, faultCode: job.faultCode };
+  const [row] = await db.select({ shopId: jobs.shopId, boardId: jobs.boardId, faultCode: jobs.faultCode }).from(jobs).where(eq(jobs.id, job.id));
+  if (!row) throw new AppError('not_found', `No job ${job.id}`);
+  return { ...job, ...row };
+}
+
 /** The diagnosis of a job of the shop; another shop's job is a 404. */
 export async function getDiagnosis({ db, shopId, jobId: id }: { db: Db; shopId: string; jobId: string }): Promise<Diagnosis> {
   const [job] = await queries(db).job.execute({ jobId: id, shopId });
@@ -87,19 +96,28 @@ export async function getDiagnosis({ db, shopId, jobId: id }: { db: Db; shopId: 
 export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Promise<Diagnosis> {
   const q = queries(db);
   const versionId = job.boardVersionId;
+  const facts = await jobFacts(db, job);
+  const before = await jobPriors(db, facts, () => documentOf(db, versionId));
   const [[k], dictionary] = await Promise.all([q.key.execute({ jobId: job.id }), dictionaryState(db, versionId)]);
   // A diagnosis made before the board's dictionary (or a batch of fault pairs) was ready is made again.
   const stamp = dictionaryStamp(versionId);
-  const out = await diagnosisFor(job.id, `${keyOf(versionId, k?.n ?? 0, k?.digest ?? null)}|${stamp}`, async () => {
+  const out = await diagnosisFor(job.id, `${keyOf(versionId, k?.n ?? 0, k?.digest ?? null, before.key)}|${stamp}`, async () => {
     const rows = await currentReadings(db, job.id);
     // A worker thread runs the engine (seconds on a first run), so the server answers other requests meanwhile.
-    const out = await diagnosisPool().run(versionId, toCaseReadings(rows), () => documentOf(db, versionId), {
-      loadDictionary: () => loadDictionary(db, versionId),
-      onPairs: (columns) => void savePairs(db, versionId, columns).catch((err: unknown) => console.error('storing fault pairs failed', err)),
-    });
+    const options = { priors: before.priors, ...(before.history ? { history: before.history } : {}), ...(before.references ? { references: before.references } : {}) };
+    const out = await diagnosisPool().run(
+      versionId,
+      toCaseReadings(rows),
+      () => documentOf(db, versionId),
+      {
+        loadDictionary: () => loadDictionary(db, versionId),
+        onPairs: (columns) => void savePairs(db, versionId, columns).catch((err: unknown) => console.error('storing fault pairs failed', err)),
+      },
+      options,
+    );
     // Kept under the key of the rows it ran on: a reading stored since the key query makes that key differ.
     const words = await wordsOf(versionId, () => documentOf(db, versionId));
-    return { key: `${keyOf(versionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null)}|${stamp}`, output: wordDiagnosis(shapeDiagnosis(out, job, rows), words) };
+    return { key: `${keyOf(versionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null, before.key)}|${stamp}`, output: wordDiagnosis(shapeDiagnosis(out, job, rows), words) };
   });
   // The build's progress changes while the answer does not: it is added per request, outside the kept answer.
   return dictionary.state === 'building' ? { ...out, preparing: { partsDone: dictionary.partsDone, partsTotal: dictionary.partsTotal } } : out;
@@ -118,6 +136,15 @@ export function shapeDiagnosis(out: DiagnosisOutput, job: JobRef, rows: ReadingR
     jobId: job.id,
     boardVersionId: job.boardVersionId,
     engineVersion: ENGINE_VERSION,
+    priors: (out.priors ?? []).map((p) => ({
+      part: p.part,
+      mode: p.mode,
+      designator: p.words.designator,
+      label: p.words.text,
+      before: p.before,
+      after: p.after,
+      steps: p.steps.map((s) => ({ ...s, source: s.source as PriorSource })),
+    })),
     readings: out.readings.map((rep) => {
       const r = rows[rep.index]!;
       return {

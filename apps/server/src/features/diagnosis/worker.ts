@@ -19,7 +19,7 @@ function failure(err: unknown): WorkerFailure {
 
 const withDictionary = new WeakSet<Diagnoser>();
 
-function answer({ id, versionId, readings, document, dictionary }: WorkerRequest): WorkerReply {
+function answer({ id, versionId, readings, document, dictionary, options }: WorkerRequest): WorkerReply {
   try {
     const engine = document === undefined ? cachedBoardEngine(versionId) : boardEngine(versionId, document);
     // The server sends a document only for a version it has not sent before; one dropped from the bound since
@@ -31,7 +31,7 @@ function answer({ id, versionId, readings, document, dictionary }: WorkerRequest
     }
     // A board that is its photo only has no model: its readings are recorded, not judged, so none is evidence.
     const photoOnly = engine.testPoints.length === 0 && Object.keys(engine.parts).length === 0;
-    const output = engine.diagnoser.update(photoOnly ? [] : readings);
+    const output = engine.diagnoser.update(photoOnly ? [] : readings, options);
     schedulePairs(versionId, engine.diagnoser);
     return { id, dropped: takeDroppedEngines(), ok: true, output };
   } catch (err) {

@@ -27,6 +27,7 @@ import { getBoardVersion } from '../boards';
 import { toCustomer } from '../customers';
 import { computeDiagnosis, toSnapshot } from '../diagnosis';
 import { toReview } from '../reviews';
+import { traineeGuidedLifted } from '../users';
 import { checkMove, moveJob, type MoveRequest } from './flow';
 
 export type JobRow = typeof jobs.$inferSelect;
@@ -125,10 +126,18 @@ export async function getJobDetail({ db, actor, id }: { db: Db; actor: Actor; id
     customer: toCustomer(customer!),
     board,
     allowedTransitions: allowedMoves(job.status, actor.role),
-    guidedOrderRequired: guidedOrderBinds(actor.role, job.guidedLifted ? 'lifted' : null),
+    guidedOrderRequired: guidedOrderBinds(actor.role, { job: job.guidedLifted, trainee: actor.role === 'trainee' && (await traineeGuidedLifted(db, actor.id)) }),
+    assigneeGuidedLifted: await assigneeLift(db, job.assigneeId),
     reviews: reviewRows.map(({ r, name }) => toReview(r, name)),
     latestSnapshot: snap ? toSnapshot(snap) : null,
   };
+}
+
+/** The assignee's lift across all their jobs, or null when the assignee is no trainee (guided order never binds them). */
+async function assigneeLift(db: Db, assigneeId: string | null): Promise<boolean | null> {
+  if (!assigneeId) return null;
+  const [u] = await db.select({ role: users.role }).from(users).where(eq(users.id, assigneeId));
+  return u?.role === 'trainee' ? traineeGuidedLifted(db, assigneeId) : null;
 }
 
 async function checkAssignee(db: Db, shopId: string, assigneeId: string | null | undefined) {

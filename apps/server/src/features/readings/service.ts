@@ -13,6 +13,7 @@ import { boardEngine, cachedBoardEngine, powerRefusal, resolveNet, resolveParts,
 import { capturedPointIds } from '../capture';
 import { getDutyRules } from '../duties';
 import { getJobRow } from '../jobs';
+import { traineeGuidedLifted } from '../users';
 import { checkGuidedStep, checkSafetyGate } from './guided';
 import { insertReading, type NewReading, type ReadingRow } from './write-batch';
 
@@ -245,7 +246,8 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
       if (refused) throw new AppError('forbidden', refused);
     }
   }
-  if (job && guidedOrderBinds(actor.role, job.guidedLiftedBy)) await checkGuidedStep({ db, job, input, probe: { redNet, blackNet, lifted: lifted.parts }, corrects });
+  const lift = { job: !!job?.guidedLiftedBy, trainee: actor.role === 'trainee' && (await traineeGuidedLifted(db, actor.id)) };
+  if (job && guidedOrderBinds(actor.role, lift)) await checkGuidedStep({ db, job, input, probe: { redNet, blackNet, lifted: lifted.parts }, corrects });
   // Every role, every phase: an unpowered reading on the bus waits for the discharge gate.
   await checkSafetyGate(versionId, async () => (await loadVersion()).document, input);
 

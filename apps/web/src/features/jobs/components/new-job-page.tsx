@@ -32,7 +32,6 @@ function NewJobPage() {
   const create = useCreateJob();
   const navigate = useNavigate();
   const [photos, setPhotos] = useState<File[]>([]);
-  const [photoError, setPhotoError] = useState<string | null>(null);
   const form = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(createJobRequest),
     defaultValues: { idempotencyKey: crypto.randomUUID(), customerId: '', unitDescription: '', serial: '', unitSerial: '', boardId: '', faultCode: '', symptom: '', priority: 'normal', assigneeId: null },
@@ -48,17 +47,21 @@ function NewJobPage() {
   const e = form.formState.errors;
   const unlisted = useUnlistedBoard(boardId === UNLISTED);
 
+  // The job is opened once (the idempotency key makes a second click the same job); its photos go after it, and a
+  // photo that fails is shown on the job's Photos tab (the server records a refusal), never here on the form.
   const submit = form.handleSubmit(async (v) => {
     const listedId = await unlisted.boardIdFor(v.boardId, photos);
     if (!listedId) return;
     const job = await create.mutateAsync({ ...v, boardId: listedId });
-    try {
-      for (const f of photos) await uploadPhoto(f, job.id);
-    } catch (err) {
-      setPhotoError(`The job is open, but a photo was not stored: ${(err as Error).message}`);
-      return;
+    let failed = false;
+    for (const f of photos) {
+      try {
+        await uploadPhoto(f, job.id);
+      } catch {
+        failed = true;
+      }
     }
-    void navigate(`/jobs/${job.id}`);
+    void navigate(failed ? `/jobs/${job.id}?tab=photos` : `/jobs/${job.id}`);
   });
 
   return (
@@ -177,13 +180,13 @@ function NewJobPage() {
             className="mt-1 block min-h-11 w-full"
           />
         </label>
-        {(create.error || photoError || unlisted.error) && (
+        {(create.error || unlisted.error) && (
           <p role="alert" className="rounded-md bg-red-50 p-2 text-sm text-high sm:col-span-2">
-            {photoError ?? unlisted.error ?? create.error?.message}
+            {unlisted.error ?? create.error?.message}
           </p>
         )}
         <div className="sm:col-span-2">
-          <button type="submit" disabled={form.formState.isSubmitting} className="min-h-11 rounded-md bg-board px-6 font-semibold text-white">
+          <button type="submit" disabled={form.formState.isSubmitting || form.formState.isSubmitSuccessful} className="min-h-11 rounded-md bg-board px-6 font-semibold text-white">
             {form.formState.isSubmitting ? 'Opening…' : 'Open the job'}
           </button>
         </div>
