@@ -6,6 +6,7 @@ import { sessionMiddleware } from './auth/session';
 import type { AppContext } from './context';
 import { authRoutes } from './features/auth/routes';
 import { boardRoutes } from './features/boards/routes';
+import { captureRoutes } from './features/capture/routes';
 import { customerRoutes } from './features/customers/routes';
 import { diagnosisRoutes } from './features/diagnosis/routes';
 import { jobRoutes } from './features/jobs/routes';
@@ -73,6 +74,7 @@ export function createApp(ctx: AppContext): Express {
   api.use(shopRoutes(ctx));
   api.use(userRoutes(ctx));
   api.use(customerRoutes(ctx));
+  api.use(captureRoutes(ctx));
   api.use(boardRoutes(ctx));
   api.use(jobRoutes(ctx));
   api.use(diagnosisRoutes(ctx));

@@ -1,4 +1,4 @@
-import { acceptsReadings, canPropose, jobStatusLabels, type ExpectedReadingRow, type JobDetail, type StoredReading } from '@splitscope/contract';
+import { acceptsReadings, canPropose, isPhotoOnlyBoard, jobStatusLabels, type ExpectedReadingRow, type JobDetail, type StoredReading } from '@splitscope/contract';
 import { useEffect, useMemo, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
@@ -44,6 +44,7 @@ import { ReadingPanel, type LatestReading } from './reading-panel';
 import { SafetyGate } from '@/components/safety-gate';
 import { SignalChain, type ChainLink } from './signal-chain';
 import { UnsentList } from './unsent-list';
+import { UnmodelledBench } from './unmodelled-bench';
 
 function chainLinks(view: BoardView, rows: ExpectedReadingRow[], readings: StoredReading[]): ChainLink[] {
   // The chain is the powered DC-volt rows in board order (the board model lists them bus first).
@@ -347,7 +348,7 @@ function BenchPage() {
   useEffect(() => void preloadReadingParser(), []);
   return (
     <QueryState query={job} label="the job">
-      {(j) => <Bench job={j} />}
+      {(j) => (isPhotoOnlyBoard(j.board.document) ? <UnmodelledBench job={j} /> : <Bench job={j} />)}
     </QueryState>
   );
 }
