@@ -33,12 +33,12 @@ export async function takeWrites(client: pg.Client): Promise<Writes> {
   };
 }
 
-/** The writes of a request whose route answers first and works after: collected until 300 ms pass without one (at most 5 s). */
+/** The writes of a request whose route answers first and works after: collected until 1 s passes without one (at most 8 s). */
 export async function settledWrites(client: pg.Client): Promise<Writes> {
   const changed = new Set<string>();
   const inserted = new Set<string>();
   let quiet = 0;
-  for (let waited = 0; quiet < 3 && waited < 5000; waited += 100) {
+  for (let waited = 0; quiet < 10 && waited < 8000; waited += 100) {
     await new Promise((r) => setTimeout(r, 100));
     const w = await takeWrites(client);
     quiet = w.changed.length ? 0 : quiet + 1;

@@ -7,6 +7,7 @@ import type { AppContext } from './context';
 import { authRoutes } from './features/auth/routes';
 import { boardRoutes } from './features/boards/routes';
 import { ensureDictionary } from './features/diagnosis';
+import { captureRoutes } from './features/capture/routes';
 import { customerRoutes } from './features/customers/routes';
 import { diagnosisRoutes } from './features/diagnosis/routes';
 import { jobRoutes } from './features/jobs/routes';
@@ -76,6 +77,7 @@ export function createApp(ctx: AppContext): Express {
   api.use(shopRoutes(ctx));
   api.use(userRoutes(ctx));
   api.use(customerRoutes(ctx));
+  api.use(captureRoutes(ctx));
   // A published version's fault dictionary is built in the background; the version is usable at once.
   const buildDictionary = (versionId: string) =>
     void ensureDictionary(ctx.db, versionId).catch((err: unknown) => console.error(`splitscope: fault dictionary of ${versionId} not started: ${(err as Error).message}`));

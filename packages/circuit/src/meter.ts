@@ -2,6 +2,7 @@ import type { Circuit, Element } from './circuit';
 import { normNode, REFERENCE } from './circuit';
 import { flatten } from './flatten';
 import type { Netlist } from './netlist';
+import { VT } from './devices';
 import { solveNodes, type NodeSolution, type SolveOptions } from './solver';
 
 export type MeterMode = 'dcv' | 'ohm' | 'diode' | 'continuity';
@@ -27,13 +28,50 @@ export interface Reading {
 }
 
 /**
- * How the meter drives the circuit. All defaults are typical handheld-DMM values from memory (not from a
- * particular meter's manual); a profile can override any of them.
+ * A meter's test source on one range: a Thevenin source (open-circuit voltage behind a resistance: an analog
+ * ohmmeter's battery and scale resistor) or a constant current with a compliance voltage (a digital meter's
+ * regulated test current, which stops rising at about `compliance` volts on an open circuit).
+ */
+export type TestSource = { kind: 'thevenin'; voc: number; rs: number } | { kind: 'current'; current: number; compliance: number };
+
+/**
+ * A meter's stated accuracy on a function. `pct` + `digits`: a digital meter's ±(% of reading + digits), one digit
+ * being the range's resolution. `fullScalePct`: an analog meter's ±% of full scale (DC V). `arcPct`: an analog
+ * ohmmeter's ±% of scale arc, which in ohms is arcPct·(R + Rc)²/Rc with Rc the range's centre value (the
+ * deflection of a series ohmmeter is Rc/(R + Rc); Kularatna / common practice).
+ */
+export type Accuracy = { pct: number; digits: number } | { fullScalePct: number } | { arcPct: number };
+
+/** One range of an autoranging (or range-switched) function. */
+export interface MeterRange {
+  /** Largest value the range shows; above it the range is overloaded. */
+  full: number;
+  /** One digit (or the smallest division read on an analog scale). */
+  resolution: number;
+  /** Ω ranges: the range's test source. */
+  source?: TestSource;
+  /** DC V ranges of an analog meter: input resistance on this range (ohm-per-volt × full scale). */
+  inputResistance?: number;
+  /** Overrides the function's accuracy on this range. */
+  accuracy?: Accuracy;
+}
+
+/**
+ * How the meter drives the circuit and how far its display can be trusted. The single-range fields
+ * (`openCircuitVoltage`, `sourceResistance`, `overRange`) describe a Thevenin meter and are what DEFAULT_METER
+ * uses; a profile with `ranges` autoranges over them instead (measure below) and states its accuracy.
  */
 export interface MeterProfile {
+  /** Short id stored with a job (e.g. "cc-autorange-6000"), and the name shown in the shop. */
+  id?: string;
+  name?: string;
+  /** Where the values come from: a manual named, or "from memory". */
+  reference?: string;
   dcv: {
     /** Input resistance between the probes, ohm (typical 10 MΩ; Infinity = ideal voltmeter). */
     inputResistance: number;
+    ranges?: MeterRange[];
+    accuracy?: Accuracy;
   };
   ohm: {
     /** Open-circuit test voltage, V (typical 0.5–1 V; low enough to leave most silicon junctions off). */
@@ -42,6 +80,9 @@ export interface MeterProfile {
     sourceResistance: number;
     /** Largest value shown; above it the meter reads OL (typical 40–60 MΩ full scale). */
     overRange: number;
+    /** Ranges from the lowest up, each with its test source: the meter autoranges (measure). */
+    ranges?: MeterRange[];
+    accuracy?: Accuracy;
   };
   diode: {
     /** Open-circuit (compliance) voltage, V (typical 2.5–3.3 V). */
@@ -50,6 +91,10 @@ export interface MeterProfile {
     sourceResistance: number;
     /** Readings above this show OL, V (typical ≈2 V). */
     overRange: number;
+    /** The test source when it is not the Thevenin source above (a constant test current). */
+    source?: TestSource;
+    resolution?: number;
+    accuracy?: Accuracy;
   };
   continuity: {
     /** Beeps below this resistance, ohm (typical 10–100 Ω; 50 Ω chosen here). */
@@ -58,10 +103,12 @@ export interface MeterProfile {
     overRange: number;
     openCircuitVoltage: number;
     sourceResistance: number;
+    /** The test source when it is not the Thevenin source above. */
+    source?: TestSource;
   };
 }
 
-/** Default meter: typical values from memory, see MeterProfile. */
+/** Default meter: typical values from memory, see MeterProfile (a single-range Thevenin meter, no stated accuracy). */
 export const DEFAULT_METER: MeterProfile = {
   dcv: { inputResistance: 10e6 },
   ohm: { openCircuitVoltage: 0.5, sourceResistance: 10e3, overRange: 40e6 },
@@ -167,14 +214,39 @@ function withMeter(circuit: Circuit, extra: Element[], red: string, black: strin
   return solveNodes({ ...circuit, elements: [...circuit.elements, ...extra] }, { ...solve, extraNodes: [red, black] });
 }
 
-function driven(circuit: Circuit, red: string, black: string, voc: number, rs: number, solve: MeasureOptions['solve']): { v: number; i: number; s: NodeSolution } {
+/** The Thevenin source a single-range function describes (DEFAULT_METER's style). */
+const thevenin = (f: { openCircuitVoltage: number; sourceResistance: number }): TestSource => ({ kind: 'thevenin', voc: f.openCircuitVoltage, rs: f.sourceResistance });
+
+/**
+ * The compliance clamp of a constant-current source: a diode across the probes whose knee sits at the compliance
+ * voltage at the test current (Shockley: V = n·VT·ln(I/IS), IS fixed at 1e-30 A and n solved for), so an open
+ * circuit reads `compliance` and anything well below it draws no measurable current from the source.
+ */
+const CLAMP_IS = 1e-30;
+function clampModel(src: { current: number; compliance: number }) {
+  return { is: CLAMP_IS, n: src.compliance / (VT * Math.log(src.current / CLAMP_IS)), rs: 0, bv: Infinity, ibv: 1e-3 };
+}
+
+/**
+ * Drives the probes from a test source; v = V(red) − V(black), i = the current the meter takes as flowing (the
+ * Thevenin source's actual current; a current source's nominal current, as its display is calibrated).
+ */
+function driven(circuit: Circuit, red: string, black: string, src: TestSource, solve: MeasureOptions['solve']): { v: number; i: number; s: NodeSolution } {
+  if (src.kind === 'current') {
+    const extra: Element[] = [
+      { kind: 'I', name: 'meter#i', part: 'meter#', nodes: [black, red], value: src.current },
+      { kind: 'D', name: 'meter#clamp', part: 'meter#', nodes: [red, black], model: clampModel(src), area: 1 },
+    ];
+    const s = withMeter(circuit, extra, red, black, solve);
+    return { v: s.voltage(red) - s.voltage(black), i: src.current, s };
+  }
   const extra: Element[] = [
-    { kind: 'V', name: 'meter#v', part: 'meter#', nodes: [METER_NODE, black], value: voc },
-    { kind: 'R', name: 'meter#r', part: 'meter#', nodes: [METER_NODE, red], value: rs },
+    { kind: 'V', name: 'meter#v', part: 'meter#', nodes: [METER_NODE, black], value: src.voc },
+    { kind: 'R', name: 'meter#r', part: 'meter#', nodes: [METER_NODE, red], value: src.rs },
   ];
   const s = withMeter(circuit, extra, red, black, solve);
   const vr = s.voltage(red);
-  return { v: vr - s.voltage(black), i: (s.voltage(METER_NODE) - vr) / rs, s };
+  return { v: vr - s.voltage(black), i: (s.voltage(METER_NODE) - vr) / src.rs, s };
 }
 
 function resistanceReading(v: number, i: number, overRange: number): number | 'OL' {
@@ -184,14 +256,44 @@ function resistanceReading(v: number, i: number, overRange: number): number | 'O
   return Math.max(0, r);
 }
 
+/** The first range at or above `from` whose full scale holds `r`, or -1. */
+const rangeFor = (ranges: readonly MeterRange[], r: number, from: number) => ranges.findIndex((g, k) => k >= from && r <= g.full);
+
+/**
+ * An autoranging ohmmeter: it shows the lowest range that is not overloaded. Each range is a solve; rather than
+ * try every range from the bottom, the search jumps to the first range that can hold the value read so far. That
+ * is exact when the reading V/I does not fall as the test current falls, which holds for the unpowered boards a
+ * meter reads: networks of resistors and junctions have a concave V(I) through the origin (a series or parallel
+ * combination of concave, resp. convex-in-V, branches stays so), so V/I is non-increasing in I and a lower range
+ * (more current) can only read less. Two solves for a linear path, one when the lowest range holds it.
+ */
+function autorangeOhm(circuit: Circuit, red: string, black: string, ranges: readonly MeterRange[], solve: MeasureOptions['solve']): { reading: number | 'OL'; s: NodeSolution; range: number } {
+  let k = 0;
+  let guess = solve?.initialGuess;
+  for (;;) {
+    const range = ranges[k] as MeterRange;
+    const { v, i, s } = driven(circuit, red, black, range.source as TestSource, { ...solve, initialGuess: guess });
+    const r = i > 0 ? v / i : Infinity;
+    if (Number.isFinite(r) && r <= range.full) return { reading: Math.max(0, r), s, range: k };
+    const next = Number.isFinite(r) ? rangeFor(ranges, r, k + 1) : -1;
+    if (next < 0) return { reading: 'OL', s, range: ranges.length - 1 };
+    k = next;
+    guess = s.x;
+  }
+}
+
 /**
  * Takes one reading on a circuit (already in the right state). The meter is modelled as it drives the circuit:
- * dcv loads it with its input resistance; ohm, continuity and diode connect a Thevenin test source between red (+)
- * and black and read V/I (ohm, continuity) or V (diode).
+ * dcv loads it with its input resistance; ohm, continuity and diode connect the profile's test source (Thevenin or
+ * constant current with its compliance clamp) between red (+) and black and read V/I (ohm, continuity) or V
+ * (diode). A profile with Ω ranges autoranges (autorangeOhm); continuity uses the lowest Ω range's source.
  */
 export function measure(circuit: Circuit, probe: Probe, meter: MeterProfile = DEFAULT_METER, options: MeasureOptions = {}): Reading {
   return measureDetailed(circuit, probe, meter, options).reading;
 }
+
+/** The test source continuity uses: its own, else the lowest Ω range's, else its Thevenin fields. */
+const continuitySource = (m: MeterProfile): TestSource => m.continuity.source ?? m.ohm.ranges?.[0]?.source ?? thevenin(m.continuity);
 
 /** measure, also returning the solution (a warm start for the same probe on a variant of the circuit). */
 export function measureDetailed(circuit: Circuit, probe: Probe, meter: MeterProfile = DEFAULT_METER, options: MeasureOptions = {}): MeasuredReading {
@@ -200,31 +302,66 @@ export function measureDetailed(circuit: Circuit, probe: Probe, meter: MeterProf
   switch (probe.mode) {
     case 'dcv': {
       if (red === black) return { reading: { value: 0, unit: 'V' } };
-      const rin = meter.dcv.inputResistance;
-      const extra: Element[] = Number.isFinite(rin) && rin > 0 ? [{ kind: 'R', name: 'meter#rin', part: 'meter#', nodes: [red, black], value: rin }] : [];
-      const s = withMeter(circuit, extra, red, black, options.solve);
-      return solved({ value: s.voltage(red) - s.voltage(black), unit: 'V' }, s);
+      return dcvReading(circuit, red, black, meter, options.solve);
     }
     case 'ohm': {
       if (red === black) return { reading: { value: 0, unit: 'ohm' } };
-      const { v, i, s } = driven(circuit, red, black, meter.ohm.openCircuitVoltage, meter.ohm.sourceResistance, options.solve);
+      const ranges = meter.ohm.ranges;
+      if (ranges?.length) {
+        const { reading, s } = autorangeOhm(circuit, red, black, ranges, options.solve);
+        return solved({ value: reading, unit: 'ohm' }, s);
+      }
+      const { v, i, s } = driven(circuit, red, black, thevenin(meter.ohm), options.solve);
       return solved({ value: resistanceReading(v, i, meter.ohm.overRange), unit: 'ohm' }, s);
     }
     case 'continuity': {
       const c = meter.continuity;
       if (red === black) return { reading: { value: 0, unit: 'ohm', beep: true } };
-      const { v, i, s } = driven(circuit, red, black, c.openCircuitVoltage, c.sourceResistance, options.solve);
+      const { v, i, s } = driven(circuit, red, black, continuitySource(meter), options.solve);
       const value = resistanceReading(v, i, c.overRange);
       return solved({ value, unit: 'ohm', beep: value !== 'OL' && value < c.threshold }, s);
     }
     case 'diode': {
       if (red === black) return { reading: { value: 0, unit: 'V' } };
-      const { v, s } = driven(circuit, red, black, meter.diode.openCircuitVoltage, meter.diode.sourceResistance, options.solve);
+      const { v, s } = driven(circuit, red, black, meter.diode.source ?? thevenin(meter.diode), options.solve);
       return solved({ value: v > meter.diode.overRange ? 'OL' : v, unit: 'V' }, s);
     }
     default:
       throw new MeasurementError(`unknown meter mode "${String((probe as Probe).mode)}" (dcv, ohm, diode, continuity)`);
   }
+}
+
+/**
+ * DC V. A meter with one input resistance loads the probes with it. An analog meter's input resistance is its
+ * ohms-per-volt times the range's full scale: the reading is taken as a technician does, stepping down from a
+ * range that holds the value to the lowest range that still holds it (each lower range loads the node more).
+ */
+function dcvReading(circuit: Circuit, red: string, black: string, meter: MeterProfile, solve: MeasureOptions['solve']): MeasuredReading {
+  const load = (rin: number): Element[] => (Number.isFinite(rin) && rin > 0 ? [{ kind: 'R', name: 'meter#rin', part: 'meter#', nodes: [red, black], value: rin }] : []);
+  const ranges = meter.dcv.ranges;
+  if (!ranges?.some((r) => r.inputResistance !== undefined)) {
+    const s = withMeter(circuit, load(meter.dcv.inputResistance), red, black, solve);
+    return solved({ value: s.voltage(red) - s.voltage(black), unit: 'V' }, s);
+  }
+  const rinOf = (k: number) => ranges[k]?.inputResistance ?? meter.dcv.inputResistance;
+  const at = (k: number, guess: SolveOptions['initialGuess']) => {
+    const s = withMeter(circuit, load(rinOf(k)), red, black, { ...solve, initialGuess: guess });
+    return { s, v: s.voltage(red) - s.voltage(black) };
+  };
+  let k = ranges.length - 1;
+  let cur = at(k, solve?.initialGuess);
+  const start = rangeFor(ranges, Math.abs(cur.v), 0);
+  if (start >= 0 && start < k) {
+    k = start;
+    cur = at(k, cur.s.x);
+  }
+  while (k > 0) {
+    const lower = at(k - 1, cur.s.x);
+    if (Math.abs(lower.v) > (ranges[k - 1] as MeterRange).full) break;
+    k -= 1;
+    cur = lower;
+  }
+  return solved({ value: cur.v, unit: 'V' }, cur.s);
 }
 
 /** Why a reading is refused in a power state, or undefined when it may be taken. */

@@ -16,6 +16,7 @@ export * from './uploads';
 export * from './jobs';
 export * from './billing';
 export * from './board-model';
+export * from './board-capture';
 export * from './safety-gate';
 export * from './shop';
 export * from './policy-bench';

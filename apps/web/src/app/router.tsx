@@ -15,6 +15,7 @@ const RepairPage = lazy(() => import('@/features/repair/components/repair-page')
 const ReportPage = lazy(() => import('@/features/report/components/report-page'));
 const BoardLibraryPage = lazy(() => import('@/features/board-library/components/board-library-page'));
 const BoardEditorPage = lazy(() => import('@/features/board-library/components/board-editor-page'));
+const BoardCapturePage = lazy(() => import('@/features/board-capture/components/capture-page'));
 const ReferencesPage = lazy(() => import('@/features/references/components/references-page'));
 const CustomerPage = lazy(() => import('@/features/customer-page/components/customer-page'));
 const MailOutboxPage = lazy(() => import('@/features/mail-outbox/components/mail-outbox-page'));
@@ -80,6 +81,7 @@ export const router = createBrowserRouter([
       { path: 'review', element: <ReviewQueuePage /> },
       { path: 'boards', element: <BoardLibraryPage /> },
       { path: 'boards/:id', element: <BoardEditorPage /> },
+      { path: 'boards/:id/capture', element: <BoardCapturePage /> },
       { path: 'references', element: <ReferencesPage /> },
       { path: 'dev/mail', element: <MailOutboxPage /> },
       { path: 'billing/settings', element: <BillingSettingsPage /> },

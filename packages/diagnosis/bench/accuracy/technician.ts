@@ -51,15 +51,15 @@ const names = (faults: { part: string; mode: string }[]) => (faults.length ? fau
 /** One diagnoser per board variant, as the server keeps one engine per board. */
 const diagnosers = new Map<string, Diagnoser>();
 
-function diagnoserFor(c: BenchCase, params: Record<string, number>): Diagnoser {
-  const id = `${c.board.id}:${JSON.stringify(params)}`;
+function diagnoserFor(c: BenchCase, params: Record<string, number>, meter: MeterStyle): Diagnoser {
+  const id = `${c.board.id}:${meter}:${JSON.stringify(params)}`;
   let d = diagnosers.get(id);
   if (!d) {
     d = createDiagnoser({
       netlist: c.board.netlist(params),
       parts: partKinds(c.board, params),
       testPoints: c.board.testPoints,
-      meter: engineMeter(),
+      meter: engineMeter(meter),
       ...(c.board.acMains ? { acMains: c.board.acMains } : {}),
     });
     diagnosers.set(id, d);
@@ -85,7 +85,7 @@ export async function runCase(c: BenchCase, seed = 'bench-1', meter: MeterStyle 
     for (const p of c.start) await take(p);
     let diagnoser: Diagnoser;
     try {
-      diagnoser = diagnoserFor(c, params);
+      diagnoser = diagnoserFor(c, params, meter);
     } catch (e) {
       result.engineErrors.push(`board refused: ${(e as Error).message}`);
       return finish(result, t0);

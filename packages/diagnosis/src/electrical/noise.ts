@@ -11,6 +11,10 @@
  *   spread of junction paths at the meter's test voltage (from memory).
  * - diode: volts, σ_tol = √(15 mV² + (3 % of the drop)²) (junction spread with temperature and test current;
  *   from memory), σ_meter = 2 mV + 0.5 % (a handheld's diode-test accuracy; from memory).
+ * A profile that states its accuracy (MeterProfile.accuracy, ±(% + digits) per range, or an analog meter's % of
+ * full scale / of arc) replaces the meter terms above: its ± limit is read as the half-width of a rectangular
+ * distribution, σ_meter = limit/√3 (JCGM 100:2008, the GUM, §4.3.7), in volts for dcv and diode and divided by
+ * (R + r0) in the log scale of ohm.
  * The two terms are kept apart because they behave differently on repeats (repeats.ts): the part tolerance is
  * one error shared by every reading of the same quantity on one board, the meter term is fresh per reading.
  * The Gaussian core is mixed with a heavy tail: likelihood = (1 - ε)·N(s; μ, σ) + ε·Cauchy(s; μ, γ), ε = 0.02,
@@ -25,7 +29,7 @@
  * Consistency (for minimal diagnoses): a reading is within its band when it lies within 3σ of the prediction
  * (and OL / beep agree).
  */
-import type { MeterProfile } from '@splitscope/circuit';
+import { accuracyLimit, type MeterProfile } from '@splitscope/circuit';
 
 export type MeterMode = 'dcv' | 'ohm' | 'diode' | 'continuity';
 export type ReadingValue = number | 'OL' | boolean;
@@ -105,6 +109,17 @@ const MAINS_LEVEL = 60;
 const MAINS_TOL = 0.1 / 3;
 const SIG_OHM_TOL = 0.08;
 
+const SQRT3 = Math.sqrt(3);
+
+/** σ_meter from the profile's stated accuracy (GUM §4.3.7: a ± limit as a rectangular distribution), else `legacy`. */
+function stated(mode: MeterMode, meter: MeterProfile, legacy: (mu: number) => number, log = false): (mu: number) => number {
+  if (accuracyLimit(meter, mode, 1) === undefined) return legacy;
+  return (mu) => {
+    const sd = (accuracyLimit(meter, mode, mu) as number) / SQRT3;
+    return log ? sd / (Math.max(mu, 0) + R0) : sd;
+  };
+}
+
 function makeScale(mode: MeterMode, meter: MeterProfile): Scale {
   const split = (sigmaMeter: (mu: number) => number, sigmaTol: (mu: number) => number) => ({
     sigmaMeter,
@@ -116,7 +131,7 @@ function makeScale(mode: MeterMode, meter: MeterProfile): Scale {
       return {
         s: (x) => x,
         ...split(
-          (mu) => 0.005 * Math.abs(mu) + 0.02,
+          stated('dcv', meter, (mu) => 0.005 * Math.abs(mu) + 0.02),
           (mu) => (Math.abs(mu) >= MAINS_LEVEL ? MAINS_TOL : 0.015) * Math.abs(mu),
         ),
         gammaFloor: 0.2,
@@ -126,7 +141,7 @@ function makeScale(mode: MeterMode, meter: MeterProfile): Scale {
       return {
         s: (x) => x,
         ...split(
-          (mu) => 0.002 + 0.005 * Math.abs(mu),
+          stated('diode', meter, (mu) => 0.002 + 0.005 * Math.abs(mu)),
           (mu) => Math.hypot(0.015, 0.03 * mu),
         ),
         gammaFloor: 0.1,
@@ -136,7 +151,7 @@ function makeScale(mode: MeterMode, meter: MeterProfile): Scale {
       return {
         s: (x) => (x > 0 ? Math.log(x + R0) : LN_R0),
         ...split(
-          () => SIG_OHM_METER,
+          stated('ohm', meter, () => SIG_OHM_METER, true),
           () => SIG_OHM_TOL,
         ),
         gammaFloor: 0.5,

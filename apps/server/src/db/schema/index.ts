@@ -6,3 +6,4 @@ export * from './billing';
 export * from './rules';
 export * from './dictionary';
 export * from './shop-memory';
+export * from './captures';

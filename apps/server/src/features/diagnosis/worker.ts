@@ -29,7 +29,9 @@ function answer({ id, versionId, readings, document, dictionary, options }: Work
       attachDictionary(engine.diagnoser, dictionary.dictionary, dictionary.pairs);
       withDictionary.add(engine.diagnoser);
     }
-    const output = engine.diagnoser.update(readings, options);
+    // A board that is its photo only has no model: its readings are recorded, not judged, so none is evidence.
+    const photoOnly = engine.testPoints.length === 0 && Object.keys(engine.parts).length === 0;
+    const output = engine.diagnoser.update(photoOnly ? [] : readings, options);
     schedulePairs(versionId, engine.diagnoser);
     return { id, dropped: takeDroppedEngines(), ok: true, output };
   } catch (err) {

@@ -2,7 +2,7 @@
 // diagnosis engine gives next. Every unpowered reading on a section that touches the bus needs the discharge gate
 // passed first, whoever takes it. The bench screen enforces the same; this is the server's half, so a hand-made
 // request cannot skip a step or the gate.
-import { dischargeGateRefusal, type CreateReadingInput, type GateModel } from '@splitscope/contract';
+import { dischargeGateRefusal, isPhotoOnlyBoard, type CreateReadingInput, type GateModel } from '@splitscope/contract';
 import { DEFAULT_SAFE_THRESHOLD } from '@splitscope/boards';
 import type { Db } from '../../db/client';
 import type { jobs } from '../../db/schema';
@@ -24,7 +24,8 @@ async function gateModelOf(versionId: string, loadDocument: () => Promise<unknow
   let model: GateModel | null = null;
   try {
     const m = readBoardModel(await loadDocument());
-    model = { testPoints: m.testPoints, sections: m.sections };
+    // A board that is its photo only (no sections, no parts) says nothing about where the bus is: it stays null.
+    if (!isPhotoOnlyBoard(m)) model = { testPoints: m.testPoints, sections: m.sections };
   } catch {
     // An unreadable document leaves the model null, which gates every unpowered reading.
   }

@@ -10,6 +10,7 @@ import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
 import { boardEngine, cachedBoardEngine, powerRefusal, resolveNet, resolveParts, verdictFor } from '../boards';
+import { capturedPointIds } from '../capture';
 import { getDutyRules } from '../duties';
 import { getJobRow } from '../../db/job-row';
 import { traineeGuidedLifted } from '../users';
@@ -225,9 +226,12 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
     const v = await loadVersion();
     engine = boardEngine(versionId, v.document, v.expectedReadings);
   }
-  const redNet = resolveNet(engine, input.red);
+  // A board that is its photo only takes readings on the points marked on its photo: recorded, not judged.
+  const photoPoints = engine.testPoints.length === 0 && Object.keys(engine.parts).length === 0 ? await capturedPointIds(db, versionId) : null;
+  const onPhoto = (name: string) => (photoPoints?.has(name.trim().toUpperCase()) ? name.trim().toUpperCase() : undefined);
+  const redNet = resolveNet(engine, input.red) ?? onPhoto(input.red);
   if (!redNet) throw invalid('red', `Unknown net or test point "${input.red}" on this board model`);
-  const blackNet = resolveNet(engine, input.black);
+  const blackNet = resolveNet(engine, input.black) ?? onPhoto(input.black);
   if (!blackNet) throw invalid('black', `Unknown net or test point "${input.black}" on this board model`);
   const lifted = resolveParts(engine, input.lifted);
   if ('unknown' in lifted) throw invalid('lifted', `Unknown part "${lifted.unknown}" on this board model`);
@@ -248,7 +252,7 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
   await checkSafetyGate(versionId, async () => (await loadVersion()).document, input);
 
   const engineValue = input.mode === 'continuity' ? (input.beep ?? input.value !== 'OL') : input.value;
-  const verdict = verdictFor(engine, { mode: input.mode, red: redNet, black: blackNet, power: input.power, lifted: lifted.parts }, engineValue);
+  const verdict = photoPoints ? null : verdictFor(engine, { mode: input.mode, red: redNet, black: blackNet, power: input.power, lifted: lifted.parts }, engineValue);
   const row: NewReading = {
     id: newId(),
     shopId: actor.shopId,

@@ -14,6 +14,7 @@ import { useFaultCodes } from '../api/get-fault-codes';
 import { useUsers } from '../api/get-users';
 import { uploadPhoto } from '../api/upload-photo';
 import { formSubmit } from '@/lib/form-submit';
+import { UNLISTED, UnlistedBoardFields, useUnlistedBoard } from './unlisted-board';
 
 type FormIn = z.input<typeof createJobRequest>;
 type FormOut = z.output<typeof createJobRequest>;
@@ -41,15 +42,18 @@ function NewJobPage() {
   const serial = useWatch({ control: form.control, name: 'serial' });
   const unitSerial = useWatch({ control: form.control, name: 'unitSerial' });
   const history = useBoardHistory({ serial: serial ?? undefined, unitSerial: unitSerial ?? undefined });
-  const codes = useFaultCodes(boardId || undefined);
+  const codes = useFaultCodes(boardId && boardId !== UNLISTED ? boardId : undefined);
   const code = (faultCode ?? '').trim().toUpperCase();
   const match = code ? codes.data?.items.find((c) => c.code.toUpperCase() === code) : undefined;
   const e = form.formState.errors;
+  const unlisted = useUnlistedBoard(boardId === UNLISTED);
 
   // The job is opened once (the idempotency key makes a second click the same job); its photos go after it, and a
   // photo that fails is shown on the job's Photos tab (the server records a refusal), never here on the form.
   const submit = form.handleSubmit(async (v) => {
-    const job = await create.mutateAsync(v);
+    const listedId = await unlisted.boardIdFor(v.boardId, photos);
+    if (!listedId) return;
+    const job = await create.mutateAsync({ ...v, boardId: listedId });
     let failed = false;
     for (const f of photos) {
       try {
@@ -88,10 +92,12 @@ function NewJobPage() {
                 {b.name} (v{b.version})
               </option>
             ))}
+            <option value={UNLISTED}>Board not in the library yet</option>
           </select>
           {boards.isError && <Err msg={`Boards could not be loaded: ${boards.error.message}`} />}
           <Err msg={e.boardId && 'Choose the board model'} />
         </label>
+        <UnlistedBoardFields state={unlisted} />
         <label className="block">
           <span className="text-sm font-medium">Unit (make-free description, model line)</span>
           <input className={field} {...form.register('unitDescription')} aria-invalid={!!e.unitDescription} />
@@ -175,9 +181,9 @@ function NewJobPage() {
             className="mt-1 block min-h-11 w-full"
           />
         </label>
-        {create.error && (
+        {(create.error || unlisted.error) && (
           <p role="alert" className="rounded-md bg-red-50 p-2 text-sm text-high sm:col-span-2">
-            {create.error.message}
+            {unlisted.error ?? create.error?.message}
           </p>
         )}
         <div className="sm:col-span-2">

@@ -23,7 +23,7 @@ function DutyRulesForm({ rules }: { rules: DutyRules }) {
         label="Who may correct a reading someone else took"
         value={rules.correctOthersMinRole}
         options={[...roles].reverse()}
-        labels={Object.fromEntries(roles.map((r) => [r, `${roleLabels[r]} and above`])) as Record<Role, string>}
+        labels={Object.fromEntries(roles.map((r) => [r, r === 'admin' ? 'Shop admins only' : `${roleLabels[r]} and above`])) as Record<Role, string>}
         disabled={update.isPending}
         onChange={(correctOthersMinRole) => update.mutate({ correctOthersMinRole })}
         hint="Everyone may always correct their own readings."
