@@ -7,6 +7,7 @@ import type { BoardCaptureInput, BoardDetail, BoardDraft, Diagnosis } from '@spl
 import type { RunningServer } from '../src/server';
 import { createCustomer } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
+import { TINY_PNG } from './pictures';
 
 let server: RunningServer;
 let tech: Client;
@@ -21,7 +22,7 @@ beforeAll(async () => {
   customerId = (await createCustomer(server.ctx.db, { shopId: 'shop-demo', name: 'Capture Test Contracting' })).id;
   tech = await new Client(server.url).signIn('tech@demo.test');
   lead = await new Client(server.url).signIn('lead@demo.test');
-  const png = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(16)]);
+  const png = TINY_PNG;
   const up = await fetch(`${server.url}/api/uploads`, { method: 'POST', headers: { cookie: tech.cookie, 'content-type': 'image/png' }, body: png });
   photoId = ((await up.json()) as { id: string }).id;
 }, 120_000);

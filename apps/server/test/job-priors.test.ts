@@ -26,7 +26,8 @@ const SUSPECT = new Set(['fan-switch', 'feedback', 'speed-cmd']);
 // The screens print a subcircuit part without the netlist's leading X (XU1 is U1 on the board).
 const sections = new Map(OUTDOOR_FAN_BOARD.parts.map((p) => [p.designator, p.section]));
 const sectionOf = { get: (designator: string) => sections.get(designator) ?? sections.get(`X${designator}`) };
-const tpSection = new Map(OUTDOOR_FAN_BOARD.testPoints.map((t) => [t.id, t.section]));
+// A next test names its probe nets (`red`, `black`); its labels are the points' descriptions.
+const netSection = new Map(OUTDOOR_FAN_BOARD.testPoints.filter((t) => t.net !== '0').map((t) => [t.net.toLowerCase(), t.section]));
 
 const diagnosis = async (jobId: string): Promise<Diagnosis> => {
   const r = await tech.get(`/api/jobs/${jobId}/diagnosis`);
@@ -83,7 +84,7 @@ describe('a fault code steers the ranking before any reading', () => {
 
   it('the next tests start in the suspect sections', () => {
     const firstSuspect = (d: Diagnosis) =>
-      d.nextTests.findIndex((t) => SUSPECT.has(tpSection.get(/TP\d+/.exec(`${t.redLabel ?? ''} ${t.blackLabel ?? ''}`)?.[0] ?? '') ?? ''));
+      d.nextTests.findIndex((t) => [t.red, t.black].some((n) => SUSPECT.has(netSection.get(n.toLowerCase()) ?? '')));
     const coded3 = firstSuspect(coded);
     expect(coded3).toBeGreaterThanOrEqual(0);
     expect(coded3).toBeLessThan(3);
