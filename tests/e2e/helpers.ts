@@ -58,3 +58,24 @@ export function expectedRowFor(job: JobDetail, t: Probe) {
 
 /** What a technician types for a value: plain SI numbers, or OL. */
 export const typed = (v: number | 'OL' | boolean) => (v === 'OL' ? 'OL' : typeof v === 'boolean' ? (v ? '0' : 'OL') : String(Number(v.toPrecision(4))));
+
+/**
+ * Waits until the page has loaded and no API request has been in flight for `quietMs` (the app marks the count on
+ * `<html data-requests>`), e.g. before reading a whole page's text: the ranking arrives after the page does.
+ */
+export async function settled(page: Page, quietMs = 150): Promise<void> {
+  await page.waitForLoadState('load');
+  await page.waitForFunction(
+    (quiet) => {
+      const w = window as unknown as { __idleSince?: number };
+      if (document.documentElement.dataset.requests !== '0') {
+        w.__idleSince = undefined;
+        return false;
+      }
+      w.__idleSince ??= performance.now();
+      return performance.now() - w.__idleSince >= quiet;
+    },
+    quietMs,
+    { polling: 50, timeout: 60_000 },
+  );
+}

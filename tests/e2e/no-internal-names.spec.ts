@@ -1,10 +1,10 @@
 // Simulator internals stay inside the engine: every page of the demo, as each role, is read for text that looks
 // like a netlist element ("XU1", "XVREG"), a fault mode id ("dl:open", "q1:be-open"), a meter mode id or an
 // arrow to a bare net ("la → 0"). The bench is visited in each of its views, with the ranking and next tests.
-import type { JobList } from '@splitscope/contract';
 import type { Page } from '@playwright/test';
 import { expect, signIn, test } from './fixtures';
-import { getJson } from './helpers';
+import { settled } from './helpers';
+import { jobsInEachStatus } from './support/job-states';
 
 const INTERNAL: [string, RegExp][] = [
   ['a fault mode id', /\b[a-z]{1,3}\d?:(open|short|be-open|bc-open|ce-short|be-short|drift|leaky)\b/],
@@ -15,9 +15,8 @@ const INTERNAL: [string, RegExp][] = [
 ];
 
 async function pageText(page: Page): Promise<string> {
-  await page.waitForLoadState('networkidle');
-  // Give queries (diagnosis in a worker thread) time to land before reading the page.
-  await page.waitForTimeout(300);
+  // The ranking and next tests arrive after the page (diagnosis in a worker thread): read once nothing is in flight.
+  await settled(page);
   return page.locator('body').innerText();
 }
 
@@ -29,35 +28,52 @@ function check(text: string, where: string) {
 }
 
 // Pages a role may not use answer 403 (and say so on the page); the browser logs those.
-// Jobs left by other test files on board documents in the older form answer 422 (a known fault: such a job
-// should be upgraded on read); the walk still fails on any internal name it reads.
-test.use({ expectedConsoleErrors: [/status of 403/, /status of 422/] });
+test.use({ expectedConsoleErrors: [/status of 403/] });
+
+// The board editor (/boards/:id) is left out on purpose: it is where a board's author edits the SPICE netlist,
+// whose element and net names are its material.
+const SHOP_PAGES = ['/', '/jobs', '/jobs/new', '/review', '/history', '/customers', '/parts-bin', '/stats', '/boards', '/references'];
+const ADMIN_PAGES = ['/billing/settings', '/people', '/shop', '/shop/terms', '/account', '/dev/mail'];
+// Every view of a job: the bench's four tabs, review, repair, report, billing and the board's history.
+const jobViews = (id: string) => [
+  `/jobs/${id}?mode=free`,
+  `/jobs/${id}?mode=free&tab=readings`,
+  `/jobs/${id}?mode=free&tab=points`,
+  `/jobs/${id}?mode=free&tab=chain`,
+  `/jobs/${id}/review`,
+  `/jobs/${id}/repair`,
+  `/jobs/${id}/report`,
+  `/jobs/${id}/billing`,
+  `/jobs/${id}/history`,
+];
+// What the engine says does not depend on who reads it; what a role sees of it does. The admin reads every view of
+// one job per status (each status shows other parts of the bench, review, repair and report); the
+// other roles read the shop's pages and each job as they open it (a trainee's guided bench) and its review.
+const roleViews = (id: string) => [`/jobs/${id}`, `/jobs/${id}/review`];
+
+// A job of the walk's own in each status on the demo fan-drive board (its opto, regulator and transistor models
+// are where internal names could leak), made once for the four roles.
+let walkJobs: ReturnType<typeof jobsInEachStatus>;
+test.beforeAll(() => {
+  walkJobs = jobsInEachStatus();
+});
 
 for (const email of ['admin@demo.test', 'lead@demo.test', 'tech@demo.test', 'trainee@demo.test']) {
+  const admin = email.startsWith('admin');
   test(`no simulator-internal name on any page as ${email.split('@')[0]}`, async ({ page }) => {
-    test.setTimeout(600_000); // a first diagnosis per job takes the engine seconds on a busy machine
+    test.setTimeout(300_000); // a first diagnosis per job takes the engine seconds on a busy machine
     await signIn(page, email);
-    const jobs = (await getJson<JobList>(page, '/jobs')).items;
-    const pages = ['/', '/jobs', '/review', '/boards', '/references', '/billing/settings', '/dev/mail'];
-    // One job per status: each status shows other parts of the bench, review, repair and report.
-    const seen = new Set<string>();
-    for (const j of jobs) {
-      if (seen.has(j.status)) continue;
-      seen.add(j.status);
-      pages.push(`/jobs/${j.id}?mode=free`, `/jobs/${j.id}?mode=free&tab=readings`, `/jobs/${j.id}?mode=free&tab=points`, `/jobs/${j.id}?mode=free&tab=chain`);
-      pages.push(`/jobs/${j.id}/review`, `/jobs/${j.id}/repair`, `/jobs/${j.id}/report`);
-    }
+    const pages = [...SHOP_PAGES, ...ADMIN_PAGES];
+    for (const id of (await walkJobs).values()) pages.push(...(admin ? jobViews(id) : roleViews(id)));
     for (const path of pages) {
       await page.goto(path);
       check(await pageText(page), `${path} as ${email}`);
     }
     // The full ranking too, not only its first eight.
-    const bench = jobs.find((j) => j.status === 'diagnosing');
-    if (bench) {
-      await page.goto(`/jobs/${bench.id}?mode=free`);
-      const all = page.getByRole('button', { name: /Show all \d+ candidates/ });
-      if (await all.count()) await all.click();
-      check(await pageText(page), `the full ranking as ${email}`);
-    }
+    await page.goto(`/jobs/${(await walkJobs).get('diagnosing')}?mode=free`);
+    await settled(page);
+    const all = page.getByRole('button', { name: /Show all \d+ candidates/ });
+    if (await all.count()) await all.click();
+    check(await pageText(page), `the full ranking as ${email}`);
   });
 }

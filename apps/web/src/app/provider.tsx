@@ -1,6 +1,7 @@
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query';
 import { useState, type ReactNode } from 'react';
 import { ApiError } from '@/lib/api-client';
+import { ActivityMarker } from './activity-marker';
 
 export function AppProvider({ children }: { children: ReactNode }) {
   const [client] = useState(
@@ -15,5 +16,10 @@ export function AppProvider({ children }: { children: ReactNode }) {
         },
       }),
   );
-  return <QueryClientProvider client={client}>{children}</QueryClientProvider>;
+  return (
+    <QueryClientProvider client={client}>
+      <ActivityMarker />
+      {children}
+    </QueryClientProvider>
+  );
 }

@@ -59,6 +59,17 @@ export const quotes = pgTable(
   (t) => [uniqueIndex('quotes_shop_number_unique').on(t.shopId, t.number), index('quotes_job_idx').on(t.jobId, t.createdAt)],
 );
 
+/** A line of a quote or an invoice: what it is, how many, at what price; an invoice copies its quote's lines. */
+const lineColumns = () => ({
+  position: integer('position').notNull(),
+  kind: billingLineKindEnum('kind').notNull(),
+  description: text('description').notNull(),
+  quantityHundredths: integer('quantity_hundredths').notNull(),
+  unitCents: cents('unit_cents'),
+  amountCents: cents('amount_cents'),
+  taxable: boolean('taxable').notNull().default(true),
+});
+
 export const quoteLines = pgTable(
   'quote_lines',
   {
@@ -66,13 +77,7 @@ export const quoteLines = pgTable(
     quoteId: text('quote_id')
       .notNull()
       .references(() => quotes.id, { onDelete: 'cascade' }),
-    position: integer('position').notNull(),
-    kind: billingLineKindEnum('kind').notNull(),
-    description: text('description').notNull(),
-    quantityHundredths: integer('quantity_hundredths').notNull(),
-    unitCents: cents('unit_cents'),
-    amountCents: cents('amount_cents'),
-    taxable: boolean('taxable').notNull().default(true),
+    ...lineColumns(),
   },
   (t) => [uniqueIndex('quote_lines_position_unique').on(t.quoteId, t.position)],
 );
@@ -112,13 +117,7 @@ export const invoiceLines = pgTable(
     invoiceId: text('invoice_id')
       .notNull()
       .references(() => invoices.id, { onDelete: 'cascade' }),
-    position: integer('position').notNull(),
-    kind: billingLineKindEnum('kind').notNull(),
-    description: text('description').notNull(),
-    quantityHundredths: integer('quantity_hundredths').notNull(),
-    unitCents: cents('unit_cents'),
-    amountCents: cents('amount_cents'),
-    taxable: boolean('taxable').notNull().default(true),
+    ...lineColumns(),
   },
   (t) => [uniqueIndex('invoice_lines_position_unique').on(t.invoiceId, t.position)],
 );

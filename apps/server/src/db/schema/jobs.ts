@@ -76,6 +76,14 @@ export const jobs = pgTable(
  * The first columns of every row of a job's history (readings, reviews, repairs, quotes, links, …): its id, the
  * shop it belongs to and the job. A function, so each table gets column builders of its own.
  */
+/** The person who wrote a row of a job's history and when (older tables name the column author_id). */
+const writtenBy = () => ({
+  authorId: text('author_id')
+    .notNull()
+    .references(() => users.id),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
 export const jobRowColumns = () => ({
   id: text('id').primaryKey(),
   shopId: text('shop_id')
@@ -144,10 +152,7 @@ export const readingStrikes = pgTable(
       .notNull()
       .references(() => readings.id),
     reason: text('reason').notNull(),
-    authorId: text('author_id')
-      .notNull()
-      .references(() => users.id),
-    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    ...writtenBy(),
   },
   (t) => [uniqueIndex('reading_strikes_reading_unique').on(t.readingId), index('reading_strikes_job_idx').on(t.jobId)],
 );
@@ -190,10 +195,7 @@ export const repairActions = pgTable(
     marking: text('marking'),
     notes: text('notes'),
     uploadIds: text('upload_ids').array().notNull().default([]),
-    authorId: text('author_id')
-      .notNull()
-      .references(() => users.id),
-    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    ...writtenBy(),
   },
   (t) => [index('repair_actions_job_idx').on(t.jobId, t.createdAt)],
 );

@@ -7,6 +7,7 @@ import { useJob } from '@/lib/api/get-job';
 import { METER_LABEL, meterText } from '@/lib/format';
 import { useMeterImport, useMeterProfiles } from '../api/meter-import';
 import { ProfileForm } from './profile-form';
+import { TableHead } from '@/components/ui/table-head';
 
 const field = 'mt-1 block min-h-11 w-full rounded-md border border-stone-500 bg-white px-3';
 
@@ -34,15 +35,7 @@ function RowsTable({
     <div className="overflow-x-auto rounded-lg border border-stone-300 bg-white">
       <table className="w-full text-left text-sm">
         <caption className="p-2 text-left font-semibold">Rows of the log</caption>
-        <thead>
-          <tr className="border-b border-stone-300">
-            {['Line', 'Test point', 'Black probe', 'Meter function', 'Read', 'Taken', 'Check'].map((h) => (
-              <th key={h} scope="col" className="px-2 py-1">
-                {h}
-              </th>
-            ))}
-          </tr>
-        </thead>
+        <TableHead columns={['Line', 'Test point', 'Black probe', 'Meter function', 'Read', 'Taken', 'Check']} />
         <tbody>
           {rows.map((r) => (
             <tr key={r.line} className={`border-b border-stone-200 align-top ${r.error ? 'bg-red-50' : ''}`}>

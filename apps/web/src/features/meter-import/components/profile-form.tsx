@@ -2,6 +2,7 @@ import { meterModes, type MeterColumnMapping, type MeterProfile } from '@splitsc
 import { useState } from 'react';
 import { METER_LABEL } from '@/lib/format';
 import { useSaveMeterProfile } from '../api/meter-import';
+import { FormFooter } from '@/components/ui/form-footer';
 
 const field = 'mt-1 block min-h-11 w-full rounded-md border border-stone-500 bg-white px-3';
 const COLUMNS: [keyof MeterColumnMapping, string, boolean][] = [
@@ -72,18 +73,7 @@ export function ProfileForm({ columns, start, onSaved }: { columns: string[]; st
         <span className="text-sm font-medium">Black probe without a column</span>
         <input className={field} value={defaultReference} onChange={(e) => setReference(e.target.value)} autoComplete="off" />
       </label>
-      <div aria-live="polite" className="sm:col-span-3">
-        {save.error && (
-          <p role="alert" className="text-sm text-high">
-            {save.error.message}
-          </p>
-        )}
-      </div>
-      <div className="sm:col-span-3">
-        <button type="submit" disabled={save.isPending} className="min-h-11 rounded-md border border-board px-4 font-semibold text-board">
-          Save the meter profile
-        </button>
-      </div>
+      <FormFooter error={save.error?.message} pending={save.isPending} label="Save the meter profile" span="sm:col-span-3" variant="secondary" />
     </form>
   );
 }

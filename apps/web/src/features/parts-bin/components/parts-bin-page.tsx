@@ -3,6 +3,8 @@ import { useState } from 'react';
 import { PageHeader } from '@/components/ui/page-header';
 import { QueryState } from '@/components/ui/query-state';
 import { usePartsBin, useStockBinPart, useUpdateBinPart } from '@/lib/api/parts-bin';
+import { FormFooter } from '@/components/ui/form-footer';
+import { TableHead } from '@/components/ui/table-head';
 
 const field = 'mt-1 block min-h-11 w-full rounded-md border border-stone-500 bg-white px-3';
 const EMPTY = { value: '', package: '', rating: '', marking: '', quantity: '', drawer: '', minimum: '', price: '' };
@@ -47,18 +49,7 @@ function StockForm() {
       {input('quantity', 'Quantity', { inputMode: 'numeric' })}
       {input('minimum', 'Reorder under', { inputMode: 'numeric' })}
       {input('price', 'Price each', { inputMode: 'decimal' })}
-      <div aria-live="polite" className="sm:col-span-4">
-        {(error ?? stock.error) && (
-          <p role="alert" className="text-sm text-high">
-            {error ?? stock.error?.message}
-          </p>
-        )}
-      </div>
-      <div className="sm:col-span-4">
-        <button type="submit" disabled={stock.isPending} className="min-h-11 rounded-md bg-board px-6 font-semibold text-white">
-          Add to the bin
-        </button>
-      </div>
+      <FormFooter error={error ?? stock.error?.message} pending={stock.isPending} label="Add to the bin" span="sm:col-span-4" />
     </form>
   );
 }
@@ -89,15 +80,7 @@ function BinTable({ items, caption, editable }: { items: BinPart[]; caption: str
     <div className="overflow-x-auto rounded-lg border border-stone-300 bg-white">
       <table className="w-full text-left text-sm">
         <caption className="p-2 text-left font-semibold">{caption}</caption>
-        <thead>
-          <tr className="border-b border-stone-300">
-            {['Drawer', 'Value', 'Package', 'Rating', 'Marking', 'In stock', 'Reorder under', 'Price each'].map((h) => (
-              <th key={h} scope="col" className="px-2 py-1">
-                {h}
-              </th>
-            ))}
-          </tr>
-        </thead>
+        <TableHead columns={['Drawer', 'Value', 'Package', 'Rating', 'Marking', 'In stock', 'Reorder under', 'Price each']} />
         <tbody>
           {items.map((p) => (
             <tr key={p.id} className={`border-b border-stone-200 ${p.reorder ? 'bg-amber-50' : ''}`}>

@@ -5,6 +5,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { QueryState } from '@/components/ui/query-state';
 import { api } from '@/lib/api-client';
 import { BarChart } from './bar-chart';
+import { TableHead } from '@/components/ui/table-head';
 
 const useShopStats = () => useQuery(queryOptions({ queryKey: ['stats'], queryFn: () => api('/stats', { schema: shopStatsResponse }) }));
 
@@ -22,15 +23,7 @@ function Table({ head, rows, caption }: { head: string[]; rows: (string | number
   return (
     <table className="w-full text-left text-sm">
       <caption className="sr-only">{caption}</caption>
-      <thead>
-        <tr className="border-b border-stone-300">
-          {head.map((h) => (
-            <th key={h} scope="col" className="px-2 py-1">
-              {h}
-            </th>
-          ))}
-        </tr>
-      </thead>
+      <TableHead columns={head} />
       <tbody>
         {rows.length ? (
           rows.map((r) => (
