@@ -1,6 +1,7 @@
-import type { BillingSettings, CapturedMailSummary, JobBilling } from '@splitscope/contract';
+import type { BillingSettings, CapturedMailSummary } from '@splitscope/contract';
 import { expect, signIn, test } from './fixtures';
-import { findJob, getJson, shot } from './helpers';
+import { getJson, shot } from './helpers';
+import { createJob } from './support/shop-data';
 
 // The mail outbox shows each message's HTML in a frame sandboxed without scripts; Chromium reports the browser
 // tooling's own script being refused there at times. That refusal is the sandbox working, not a page error.
@@ -9,14 +10,12 @@ test.use({ expectedConsoleErrors: [/Blocked script execution in 'about:srcdoc'/]
 test('the shop admin composes a quote in the shop currency, sends it, and the mail outbox shows it', async ({ page }) => {
   await signIn(page, 'admin@demo.test');
   await expect(page.getByRole('navigation', { name: 'Main' })).toBeVisible();
-  const job = await findJob(page, ['received', 'diagnosing']);
+  const job = await createJob(page);
   const settings = await getJson<BillingSettings>(page, '/billing/settings');
   const cur = settings.currency.toUpperCase();
-  const before = await getJson<JobBilling>(page, `/jobs/${job.id}/billing`);
 
   await page.goto(`/jobs/${job.id}/billing`);
   await expect(page.getByRole('heading', { name: `Billing · job #${job.number}` })).toBeVisible();
-  if (before.quotes.length) await page.getByRole('button', { name: 'New quote' }).click();
   const editor = page.getByRole('form', { name: 'New quote' });
   await expect(editor).toBeVisible();
   await expect(editor.getByText(`Prices in ${cur}`)).toBeVisible();
@@ -67,9 +66,13 @@ test('the shop admin composes a quote in the shop currency, sends it, and the ma
 });
 
 test('a trainee sees a job’s billing but cannot quote, and the settings page is not theirs', async ({ page }) => {
+  // A technician opens the job; the trainee then looks at it.
+  await signIn(page, 'tech@demo.test');
+  const job = await createJob(page);
+  await page.getByRole('button', { name: 'Sign out' }).click();
+  await expect(page.getByRole('button', { name: 'Sign in' })).toBeVisible();
   await signIn(page, 'trainee@demo.test');
   await expect(page.getByRole('navigation', { name: 'Main' })).toBeVisible();
-  const job = await findJob(page, ['received', 'diagnosing']);
   await page.goto(`/jobs/${job.id}/billing`);
   await expect(page.getByRole('heading', { name: `Billing · job #${job.number}` })).toBeVisible();
   await expect(page.getByText('a technician, lead or shop admin quotes and invoices')).toBeVisible();

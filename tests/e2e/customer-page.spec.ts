@@ -1,6 +1,7 @@
 import type { CapturedMail, CapturedMailSummary, JobBilling, Quote } from '@splitscope/contract';
 import { expect, signIn, test } from './fixtures';
-import { fetchInPage, findJob, getJson, shot } from './helpers';
+import { getJson, shot } from './helpers';
+import { api, createJob } from './support/shop-data';
 
 test.describe('the customer page', () => {
   // The altered link's API call answers 404 on purpose; the browser logs that as a console error.
@@ -9,14 +10,15 @@ test.describe('the customer page', () => {
   test('the link from the e-mail approves the quote; an altered link shows the plain dead-link page', async ({ page, browser }) => {
     await signIn(page, 'tech@demo.test');
     await expect(page.getByRole('navigation', { name: 'Main' })).toBeVisible();
-    const job = await findJob(page, ['received', 'diagnosing']);
-    const created = await fetchInPage(page, `/jobs/${job.id}/quotes`, {
-      method: 'POST',
-      body: { lines: [{ kind: 'part', description: 'Fan-drive opto-coupler', quantity: '1', unitCents: 450 }], taxRate: '0' },
-    });
-    expect(created.status).toBe(201);
-    const quote = created.body as Quote;
-    expect((await fetchInPage(page, `/quotes/${quote.id}/send`, { method: 'POST', body: {} })).status).toBe(200);
+    const job = await createJob(page);
+    const quote = await api.send<Quote>(
+      page,
+      'POST',
+      `/jobs/${job.id}/quotes`,
+      { lines: [{ kind: 'part', description: 'Fan-drive opto-coupler', quantity: '1', unitCents: 450 }], taxRate: '0' },
+      201,
+    );
+    await api.send(page, 'POST', `/quotes/${quote.id}/send`, {}, 200);
 
     // The shop admin's outbox holds what the local SMTP capture server received: take the link from there.
     const admin = await browser.newPage();

@@ -10,6 +10,7 @@ import { updateJob } from '../features/jobs/service';
 import type { Db } from './client';
 import { jobs } from './schema';
 import { createJob } from '../testing/factories';
+import { DEMO_BOARD_IDS } from '../testing/requests';
 
 export const REVIEW_JOB_ID = 'job-demo-fan-4';
 
@@ -30,7 +31,7 @@ export async function seedReviewJob(db: Db): Promise<void> {
     id: REVIEW_JOB_ID,
     shopId: 'shop-demo',
     createdBy: 'user-tech',
-    boardId: 'board-demo-ofd-220',
+    boardId: DEMO_BOARD_IDS.outdoorFan,
     customerId: 'customer-northgate',
     faultCode: 'F7',
     unitDescription: 'Outdoor unit, 7 kW heat pump',

@@ -6,6 +6,7 @@ import type { Db } from './client';
 import { users } from './schema';
 import { INDOOR_FAN_BOARD, OUTDOOR_FAN_BOARD } from '@splitscope/boards';
 import { createBoardModel, createCustomer, createJob, createShop, createUser } from '../testing/factories';
+import { DEMO_BOARD_IDS } from '../testing/requests';
 import { seedReviewJob } from './seed-review';
 
 export const DEMO_PASSWORD = 'splitscope-demo';
@@ -48,9 +49,9 @@ export async function seedDemo(db: Db): Promise<{ created: number }> {
 
 /** The demo bench: the outdoor and indoor fan-drive boards, and jobs for the technician and the trainee (fixed ids). */
 async function seedDemoBench(db: Db): Promise<void> {
-  const board = await createBoardModel(db, { shopId: DEMO_SHOP.id, createdBy: 'user-admin', id: 'board-demo-ofd-220', document: OUTDOOR_FAN_BOARD });
+  const board = await createBoardModel(db, { shopId: DEMO_SHOP.id, createdBy: 'user-admin', id: DEMO_BOARD_IDS.outdoorFan, document: OUTDOOR_FAN_BOARD });
   await createBoardModel(db, { shopId: OTHER_SHOP.id, createdBy: 'user-other-tech', id: 'board-other-ofd-220', document: OUTDOOR_FAN_BOARD });
-  await createBoardModel(db, { shopId: DEMO_SHOP.id, createdBy: 'user-admin', id: 'board-demo-idf-310', document: INDOOR_FAN_BOARD });
+  await createBoardModel(db, { shopId: DEMO_SHOP.id, createdBy: 'user-admin', id: DEMO_BOARD_IDS.indoorFan, document: INDOOR_FAN_BOARD });
   const base = { shopId: DEMO_SHOP.id, createdBy: 'user-tech', boardId: board.id, faultCode: 'F7' };
   await createJob(db, { ...base, id: 'job-demo-fan-1', customerId: 'customer-coastline', unitDescription: 'Outdoor unit, 3.5 kW heat pump', serial: 'DEMO-0001', symptom: 'Outdoor fan never starts; compressor stops after a minute', assigneeId: 'user-tech' });
   await createJob(db, { ...base, id: 'job-demo-fan-2', customerId: 'customer-jun', unitDescription: 'Outdoor unit, 2.5 kW', serial: 'DEMO-0002', symptom: 'Fan starts, then the unit stops with F7', assigneeId: 'user-trainee' });

@@ -7,6 +7,7 @@ import { boardModels, customers, jobs, shops, users } from '../db/schema';
 import { createBoard } from '../features/boards/service';
 import { createJob as createJobService } from '../features/jobs/service';
 import { newId } from '../lib/ids';
+import { CUSTOMER_DEFAULTS, JOB_DEFAULTS } from './requests';
 
 export async function createShop(db: Db, overrides: Partial<typeof shops.$inferInsert> = {}) {
   const row = { id: newId(), name: 'Test Bench Shop', ...overrides };
@@ -56,7 +57,7 @@ export const DIVIDER_BOARD: BoardModel = boardModelSchema.parse({
 });
 
 export async function createCustomer(db: Db, overrides: Partial<typeof customers.$inferInsert> & { shopId: string }) {
-  const row = { id: newId(), name: 'Test Customer', kind: 'contractor' as const, ...overrides };
+  const row = { id: newId(), ...CUSTOMER_DEFAULTS, ...overrides };
   await db.insert(customers).values(row).onConflictDoNothing();
   return row;
 }
@@ -79,7 +80,7 @@ export async function createJob(db: Db, o: { shopId: string; createdBy: string; 
   const job = await createJobService({
     db,
     actor: { id: o.createdBy, shopId: o.shopId },
-    input: { unitDescription: 'Test outdoor unit', symptom: 'outdoor fan never starts', ...o },
+    input: { ...JOB_DEFAULTS, ...o },
   });
   return { id: job.id };
 }

@@ -1,0 +1,80 @@
+/**
+ * Shop data for one browser spec, made through the API with the defaults the seed's factories use
+ * (apps/server/src/testing/requests.ts), so a spec never looks for a demo job another spec may have moved on.
+ *
+ * API (every function takes the signed-in page; calls carry its session cookie):
+ * - `api.get<T>(page, path)`, `api.send<T>(page, method, path, body?, expected = 2xx)`: the JSON API, path
+ *   without `/api`; a status other than the expected one fails the test with the server's answer.
+ * - `createCustomer(page, overrides?)` → `Customer`: a customer of the page user's shop, named with `runTag()`
+ *   so its name and e-mail are the spec's alone.
+ * - `createJob(page, overrides?)` → `JobDetail`: a job on the demo outdoor fan-drive board (`DEMO_BOARD_IDS`)
+ *   for a customer of its own (`overrides.customerId` to reuse one), assigned to nobody unless told.
+ * - `recordReading(page, jobId, reading)` → `CreateReadingResponse`: one meter reading; the idempotency key and
+ *   the typed text are filled in (`readingRequest`).
+ * - `moveJob(page, jobId, change)` → `Job`: a PATCH of the job (status moves, proposals, sign-off).
+ * - `copyBoard(page, boardId)` → `BoardDetail`: a new board model of the shop with the document of `boardId`
+ *   (id and slug made unique), for a spec that edits a board (admins only).
+ * - `runTag()`: a short id unique to this run, for names a spec searches for.
+ * Roles: customers and jobs need a technician or above (ROLES.bench); sign a trainee in afterwards if the spec
+ * is about a trainee.
+ */
+import type { Page } from '@playwright/test';
+import type { BoardDetail, CreateCustomerRequest, CreateJobRequest, CreateReadingRequest, CreateReadingResponse, Customer, JobDetail, UpdateJobRequest, Job } from '@splitscope/contract';
+import { CUSTOMER_DEFAULTS, DEMO_BOARD_IDS, JOB_DEFAULTS, readingRequest } from '../../../apps/server/src/testing/requests';
+import { expect } from '../fixtures';
+
+export { DEMO_BOARD_IDS };
+
+export const runTag = (): string => crypto.randomUUID().slice(0, 8);
+
+export const api = {
+  async get<T>(page: Page, path: string): Promise<T> {
+    const res = await page.request.get(`/api${path}`);
+    expect(res.ok(), `GET ${path} → ${res.status()} ${await res.text()}`).toBe(true);
+    return (await res.json()) as T;
+  },
+  async send<T>(page: Page, method: 'POST' | 'PATCH' | 'PUT' | 'DELETE', path: string, body?: unknown, expected?: number): Promise<T> {
+    const res = await page.request.fetch(`/api${path}`, { method, data: body });
+    const text = await res.text();
+    if (expected === undefined) expect(res.ok(), `${method} ${path} → ${res.status()} ${text}`).toBe(true);
+    else expect(res.status(), `${method} ${path}: ${text}`).toBe(expected);
+    return (text ? JSON.parse(text) : null) as T;
+  },
+};
+
+export function createCustomer(page: Page, overrides: Partial<CreateCustomerRequest> = {}): Promise<Customer> {
+  const tag = runTag();
+  return api.send<Customer>(page, 'POST', '/customers', {
+    ...CUSTOMER_DEFAULTS,
+    name: `${CUSTOMER_DEFAULTS.name} ${tag}`,
+    email: `customer-${tag}@example.test`,
+    ...overrides,
+  });
+}
+
+export async function createJob(page: Page, overrides: Partial<CreateJobRequest> = {}): Promise<JobDetail> {
+  const customerId = overrides.customerId ?? (await createCustomer(page)).id;
+  const body: CreateJobRequest = { ...JOB_DEFAULTS, boardId: DEMO_BOARD_IDS.outdoorFan, ...overrides, customerId };
+  const created = await api.send<{ id: string }>(page, 'POST', '/jobs', body, 201);
+  return api.get<JobDetail>(page, `/jobs/${created.id}`);
+}
+
+export function recordReading(
+  page: Page,
+  jobId: string,
+  reading: Parameters<typeof readingRequest>[0],
+): Promise<CreateReadingResponse> {
+  const body: CreateReadingRequest = readingRequest(reading);
+  return api.send<CreateReadingResponse>(page, 'POST', `/jobs/${jobId}/readings`, body, 201);
+}
+
+export function moveJob(page: Page, jobId: string, change: UpdateJobRequest): Promise<Job> {
+  return api.send<Job>(page, 'PATCH', `/jobs/${jobId}`, change);
+}
+
+export async function copyBoard(page: Page, boardId: string): Promise<BoardDetail> {
+  const { document } = await api.get<BoardDetail>(page, `/boards/${boardId}`);
+  const tag = runTag();
+  const copy = { ...document, id: `${document.id}-${tag}`, slug: `${document.slug}-${tag}`, name: `${document.name} (${tag})` };
+  return api.send<BoardDetail>(page, 'POST', '/boards', { document: copy, note: 'copy for a browser test' }, 201);
+}
