@@ -18,6 +18,7 @@ export * from './billing';
 export * from './board-model';
 export * from './safety-gate';
 export * from './shop';
+export * from './meter-profiles';
 export * from './policy-bench';
 export * from './board-words';
 export * from './verification';

@@ -3,6 +3,7 @@
 // makes a later update fast), so calls go to the thread that has the board, a board document crosses to a
 // thread once, and a thread that dies takes only its own pending calls with it.
 import { Worker } from 'node:worker_threads';
+import type { MeterProfileId } from '@splitscope/contract';
 import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
 import { AppError } from '../../http/errors';
 import type { WorkerFailure, WorkerReply, WorkerRequest } from './protocol';
@@ -11,6 +12,7 @@ const ENTRY = new URL('./worker-entry.mjs', import.meta.url);
 
 interface Call {
   versionId: string;
+  meter: MeterProfileId | null;
   readings: CaseReading[];
   loadDocument: () => Promise<unknown>;
   resolve: (out: DiagnosisOutput) => void;
@@ -42,8 +44,8 @@ export class DiagnosisPool {
   constructor(private readonly options: PoolOptions) {}
 
   /** The engine's output for these readings on a board version; the document is loaded only if needed. */
-  run(versionId: string, readings: CaseReading[], loadDocument: () => Promise<unknown>): Promise<DiagnosisOutput> {
-    return new Promise((resolve, reject) => void this.dispatch({ versionId, readings, loadDocument, resolve, reject }, false));
+  run(versionId: string, readings: CaseReading[], loadDocument: () => Promise<unknown>, meter: MeterProfileId | null = null): Promise<DiagnosisOutput> {
+    return new Promise((resolve, reject) => void this.dispatch({ versionId, readings, meter, loadDocument, resolve, reject }, false));
   }
 
   /**
@@ -75,7 +77,7 @@ export class DiagnosisPool {
       thread.pending.set(id, call);
       // Referenced only while it owes an answer, so an idle thread never keeps the process alive.
       thread.worker.ref();
-      const message: WorkerRequest = { id, versionId: call.versionId, readings: call.readings, ...(withDocument ? { document } : {}) };
+      const message: WorkerRequest = { id, versionId: call.versionId, readings: call.readings, meter: call.meter, ...(withDocument ? { document } : {}) };
       thread.worker.postMessage(message);
     } catch (err) {
       call.reject(err);

@@ -3,9 +3,9 @@ import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
-import { BOUNDS, readableDiagnosis, type Diagnosis, type DiagnosisSnapshot } from '@splitscope/contract';
+import { BOUNDS, readableDiagnosis, readMeterProfileId, type Diagnosis, type DiagnosisSnapshot, type MeterProfileId } from '@splitscope/contract';
 import type { Db } from '../../db/client';
-import { boardModelVersions, diagnosisSnapshots, jobs, readingStrikes, readings } from '../../db/schema';
+import { boardModelVersions, diagnosisSnapshots, jobs, readingStrikes, readings, shops } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { unitOf } from '../boards';
@@ -21,7 +21,7 @@ export const ENGINE_VERSION = (() => {
 
 /** The same digest PostgreSQL's md5() gives, so a key computed here matches the one the database computes. */
 const md5 = (text: string) => createHash('md5').update(text).digest('hex');
-const keyOf = (versionId: string, n: number, digest: string | null) => `${versionId}|${n}|${digest ?? ''}`;
+const keyOf = (versionId: string, meter: MeterProfileId | null, n: number, digest: string | null) => `${versionId}|${meter ?? ''}|${n}|${digest ?? ''}`;
 
 type ReadingRow = typeof readings.$inferSelect;
 type JobRef = Pick<typeof jobs.$inferSelect, 'id' | 'boardVersionId'>;
@@ -57,6 +57,13 @@ function prepare(db: Db) {
       .where(isCurrent(db))
       .prepare('diagnosis_readings_key'),
     rows: db.select().from(readings).where(isCurrent(db)).orderBy(...byTime).prepare('diagnosis_readings'),
+    // The meter the job's readings are read with: the job's own profile, else its shop's default.
+    meter: db
+      .select({ profile: sql<string | null>`coalesce(${jobs.meterProfile}, ${shops.meterProfile})` })
+      .from(jobs)
+      .innerJoin(shops, eq(shops.id, jobs.shopId))
+      .where(eq(jobs.id, jobId))
+      .prepare('diagnosis_job_meter'),
     document: db.select({ document: boardModelVersions.document }).from(boardModelVersions).where(eq(boardModelVersions.id, sql.placeholder('versionId'))).prepare('diagnosis_board_document'),
   };
 }
@@ -91,14 +98,15 @@ export async function getDiagnosis({ db, shopId, jobId: id }: { db: Db; shopId: 
  */
 export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Promise<Diagnosis> {
   const q = queries(db);
-  const [k] = await q.key.execute({ jobId: job.id });
-  return diagnosisFor(job.id, keyOf(job.boardVersionId, k?.n ?? 0, k?.digest ?? null), async () => {
+  const [[k], [m]] = await Promise.all([q.key.execute({ jobId: job.id }), q.meter.execute({ jobId: job.id })]);
+  const meter = readMeterProfileId(m?.profile);
+  return diagnosisFor(job.id, keyOf(job.boardVersionId, meter, k?.n ?? 0, k?.digest ?? null), async () => {
     const rows = await currentReadings(db, job.id);
     // A worker thread runs the engine (seconds on a first run), so the server answers other requests meanwhile.
-    const out = await diagnosisPool().run(job.boardVersionId, toCaseReadings(rows), () => documentOf(db, job.boardVersionId));
+    const out = await diagnosisPool().run(job.boardVersionId, toCaseReadings(rows), () => documentOf(db, job.boardVersionId), meter);
     // Kept under the key of the rows it ran on: a reading stored since the key query makes that key differ.
     const words = await wordsOf(job.boardVersionId, () => documentOf(db, job.boardVersionId));
-    return { key: keyOf(job.boardVersionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null), output: wordDiagnosis(shapeDiagnosis(out, job, rows), words) };
+    return { key: keyOf(job.boardVersionId, meter, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null), output: wordDiagnosis(shapeDiagnosis(out, job, rows), words) };
   });
 }
 

@@ -7,7 +7,7 @@ import { CaseError } from '@splitscope/diagnosis';
 import { AppError } from '../../http/errors';
 // The worker thread loads the board engine alone, not the boards feature's database service behind its index.
 // eslint-disable-next-line import-x/no-restricted-paths
-import { boardEngine, cachedBoardEngine, takeDroppedEngines } from '../boards/engine';
+import { boardEngine, cachedBoardEngine, meterOptions, takeDroppedEngines } from '../boards/engine';
 import type { WorkerFailure, WorkerReply, WorkerRequest } from './protocol';
 
 function failure(err: unknown): WorkerFailure {
@@ -17,13 +17,13 @@ function failure(err: unknown): WorkerFailure {
   return { kind: 'other', message: e.message, stack: e.stack };
 }
 
-function answer({ id, versionId, readings, document }: WorkerRequest): WorkerReply {
+function answer({ id, versionId, readings, meter, document }: WorkerRequest): WorkerReply {
   try {
     const engine = document === undefined ? cachedBoardEngine(versionId) : boardEngine(versionId, document);
     // The server sends a document only for a version it has not sent before; one dropped from the bound since
     // is asked for again rather than guessed.
     if (!engine) return { id, dropped: takeDroppedEngines(), ok: false, missing: true };
-    const output = engine.diagnoser.update(readings);
+    const output = engine.diagnoser.update(readings, meterOptions(meter));
     return { id, dropped: takeDroppedEngines(), ok: true, output };
   } catch (err) {
     return { id, dropped: takeDroppedEngines(), ok: false, error: failure(err) };

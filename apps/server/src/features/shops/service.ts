@@ -1,5 +1,5 @@
 import { and, count, eq, sql } from 'drizzle-orm';
-import type { AppMode, FirstRunRequest, Shop, UpdateShopRequest } from '@splitscope/contract';
+import { readMeterProfileId, type AppMode, type FirstRunRequest, type Shop, type UpdateShopRequest } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Auth } from '../../auth/lucia';
 import { hashPassword } from '../../auth/password';
@@ -21,6 +21,7 @@ export const toShop = (r: Row): Shop => ({
   logoUploadId: r.logoUploadId,
   sessionIdleHours: r.sessionIdleHours,
   sessionMaxDays: r.sessionMaxDays,
+  meterProfile: readMeterProfileId(r.meterProfile),
 });
 
 /** The first-run page is open only in shop mode and only until a shop exists. */
