@@ -9,6 +9,7 @@ const alias = {
   '@splitscope/circuit': here('./packages/circuit/src/index.ts'),
   '@splitscope/diagnosis': here('./packages/diagnosis/src/index.ts'),
   '@splitscope/boards/readings': here('./packages/boards/src/readings/index.ts'),
+  '@splitscope/boards/units': here('./packages/boards/src/units.ts'),
   '@splitscope/boards': here('./packages/boards/src/index.ts'),
 };
 

@@ -36,18 +36,23 @@ export const modeFromEnv = (): AppMode => (process.env.SPLITSCOPE_MODE === 'shop
  * has its own database (`splitscope_shop` unless SPLITSCOPE_DB_NAME says otherwise), so demo rows never meet it.
  * Returns DATABASE_URL.
  */
-export async function prepareDatabase(kind: 'main' | 'test', mode: AppMode = 'demo'): Promise<string> {
+/**
+ * A migrated database. `kind: 'test'` makes a new one per run; `suffix` names a second one for the same run (the
+ * browser tests' own demo database, so rows the integration tests leave behind never reach a browser spec).
+ */
+export async function prepareDatabase(kind: 'main' | 'test', mode: AppMode = 'demo', suffix = ''): Promise<string> {
   const t0 = Date.now();
   const cluster = await ensureCluster(clusterSpec(kind));
-  if (kind === 'test' && mode === 'demo') await dropStaleTestDatabases(cluster, TEST_DB_PREFIX);
+  const first = kind === 'test' && mode === 'demo' && !suffix;
+  if (first) await dropStaleTestDatabases(cluster, TEST_DB_PREFIX);
   const name =
     kind === 'main'
       ? (process.env.SPLITSCOPE_DB_NAME ?? (mode === 'shop' ? 'splitscope_shop' : 'splitscope'))
-      : `${TEST_DB_PREFIX}${process.pid}${mode === 'shop' ? '_shop' : ''}`;
+      : `${TEST_DB_PREFIX}${process.pid}${mode === 'shop' ? '_shop' : ''}${suffix ? `_${suffix}` : ''}`;
   const url = await ensureDatabase(cluster, name, { recreate: kind === 'test' });
   const { created, seeded } = await migrateAndSeed(url, mode);
   // Lets a developer run one integration test file by hand against the same database.
-  if (kind === 'test' && mode === 'demo') writeFileSync(join(root, '.data', 'test-url'), url + '\n');
+  if (first) writeFileSync(join(root, '.data', 'test-url'), url + '\n');
   console.log(
     `splitscope: PostgreSQL on 127.0.0.1:${cluster.port} (${cluster.dir}), database ${name} migrated` +
       (!seeded ? ' (shop mode: no demo seed)' : created ? `, demo seeded (${created} users)` : ', demo already seeded') +

@@ -2,6 +2,8 @@ import type { BoardModel, Diagnosis, FaultCodeList, JobDetail } from '@splitscop
 import { expect, signIn, test } from './fixtures';
 import { findJob, getJson, shot, typed } from './helpers';
 import { faultedBoard } from './simulated-fault';
+// A test may reach into the contract's source; the root package does not depend on the workspace packages.
+import { verificationChecklist } from '../../packages/contract/src/index';
 
 // The demo job's board has a shorted ceramic filter capacitor on the switched fan rail (C9, 0.3 ohm): the
 // lesson of the trade that a shorted capacitor kills a rail while every transistor tests fine.
@@ -64,6 +66,7 @@ test('tech diagnoses on the map, lead approves, tech repairs and verifies, the r
   await expect(lead.getByTestId('proposed-part')).toHaveText(top.part);
   await shot(lead, 'flow-review');
   await lead.getByRole('button', { name: `Approve ${top.part}` }).click();
+  await lead.getByRole('button', { name: `Yes, approve: replace ${top.part}` }).click();
   await expect(lead).toHaveURL(/\/review$/);
 
   // The tech records the repair and healthy verification readings.
@@ -71,20 +74,35 @@ test('tech diagnoses on the map, lead approves, tech repairs and verifies, the r
   await page.getByLabel('Part (designator)').fill(top.part);
   await page.getByLabel('Replacement value').fill('new part, same value');
   await page.getByRole('button', { name: 'Save the repair' }).click();
-  await expect(page.getByRole('heading', { name: /Verification readings/ })).toBeVisible();
+  // Verification is the short checklist the sign-off checks (contract: verificationChecklist), in its order.
+  const checklist = page.getByRole('heading', { name: /Verification checklist/ }).locator('..');
+  await expect(checklist).toBeVisible();
   const repaired = await getJson<JobDetail>(page, `/jobs/${job.id}`);
-  const powered = repaired.board.expectedReadings.filter((r) => r.power === 'on' && r.mode === 'dcv' && typeof r.expected === 'number').slice(0, 4);
-  for (const r of powered) {
-    const field = page.getByLabel(`Verification reading for ${r.label ?? `${r.red} → ${r.black}`} (DC volts, board powered)`);
-    await field.fill(typed(r.expected));
+  const { rows } = verificationChecklist(repaired.board.document as unknown as BoardModel, repaired.board.expectedReadings, repaired.proposedPart);
+  expect(rows.length).toBeGreaterThan(0);
+  for (const [i, row] of rows.entries()) {
+    const item = checklist.getByRole('listitem').nth(i);
+    const field = item.getByRole('textbox');
+    const value = row.mode === 'continuity' ? (row.expected ? 'beep' : 'no beep') : typed(row.expected as number | 'OL');
+    await field.fill(value);
     await field.press('Enter');
-    await expect(field.locator('xpath=ancestor::tr')).toContainText('healthy');
+    const gate = page.getByRole('heading', { name: /Safety gate/ });
+    await expect(gate.or(item.getByText('healthy')).first()).toBeVisible({ timeout: 30_000 });
+    if (await gate.isVisible()) {
+      await page.getByLabel(/The board is unplugged/).check();
+      await page.getByLabel(/Bus voltage I measured now/).fill('1.2');
+      await page.getByRole('button', { name: 'Bus is safe — continue' }).click();
+      await field.fill(value);
+      await field.press('Enter');
+    }
+    await expect(item.getByTestId('check-result')).toContainText('healthy', { timeout: 30_000 });
   }
   await shot(page, 'flow-verification');
 
   // The lead signs it off; the report shows the fault, the readings, the part and the verification.
   await lead.goto(`/jobs/${job.id}/repair`);
-  await lead.getByRole('button', { name: 'Mark the board verified' }).click();
+  await lead.getByLabel(/Functional check:/).check();
+  await lead.getByRole('button', { name: 'Sign off: board verified' }).click();
   await expect(lead.getByText('Verified', { exact: true })).toBeVisible();
   await page.goto(`/jobs/${job.id}/report`);
   await expect(page.getByTestId('report-part')).toContainText(top.part);

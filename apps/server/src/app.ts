@@ -21,6 +21,9 @@ import { dutyRoutes } from './features/duties/routes';
 import { customerPortalRoutes } from './features/customer-portal/routes';
 import { healthRoutes } from './features/health/routes';
 import { shopRoutes } from './features/shops/routes';
+import { boardHistoryRoutes } from './features/board-history';
+import { serviceTermsRoutes } from './features/service-terms';
+import { partsBinRoutes } from './features/parts-bin';
 import { errorHandler, notFoundApi } from './http/errors';
 import { hostAllowList } from './http/host';
 import { originCheck } from './http/origin';
@@ -76,6 +79,9 @@ export function createApp(ctx: AppContext): Express {
   api.use(uploadRoutes(ctx));
   api.use(billingApiRoutes(ctx));
   api.use(dutyRoutes(ctx));
+  api.use(serviceTermsRoutes(ctx));
+  api.use(boardHistoryRoutes(ctx));
+  api.use(partsBinRoutes(ctx));
   api.use(notFoundApi);
   app.use('/api', api);
 

@@ -102,6 +102,31 @@ describe('start-time upgrade of version 1 documents', () => {
     // A second start finds nothing left to upgrade.
     expect((await upgradeBoardDocuments(server.ctx)).upgraded).toBe(0);
   });
+
+  it('reads a version 1 document stored after start-up: the job page and its diagnosis answer, the photo waits', async () => {
+    const db = server.ctx.db;
+    const id = `v1-late-${randomUUID().slice(0, 8)}`;
+    const { picture: _picture, parts, ...rest } = DIVIDER_BOARD;
+    const v1 = {
+      ...rest, id, slug: id, schemaVersion: 1,
+      picture: { url: `data:image/png;base64,${PNG.toString('base64')}`, width: 1, height: 1, units: 'px' },
+      parts: parts.map(({ priors: _p, ...q }) => q),
+      priors: { R2: { open: 0.02 } },
+    };
+    await db.insert(boardModels).values({ id, shopId: 'shop-demo', key: id, name: 'Late version 1 board', currentVersion: 1 });
+    await db.insert(boardModelVersions).values({ id: `${id}-v1`, boardId: id, version: 1, document: v1, expectedReadings: [], createdBy: 'user-admin' });
+    const job = await createJob(db, { shopId: 'shop-demo', createdBy: 'user-tech', customerId, boardId: id });
+
+    const page = await tech.get(`/api/jobs/${job.id}`);
+    expect(page.status, JSON.stringify(page.body)).toBe(200);
+    const board = await tech.get(`/api/boards/${id}`);
+    expect(board.status, JSON.stringify(board.body)).toBe(200);
+    const b = board.body as unknown as BoardDetail;
+    expect(b.document.parts.find((p) => p.designator === 'R2')?.priors).toEqual({ open: 0.02 });
+    // The inline photo is stored by the next start-up step, not by a read.
+    expect(b.pictureUrl ?? 'none').not.toMatch(/^\/api\/uploads\//);
+    expect((await tech.get(`/api/jobs/${job.id}/diagnosis`)).status).toBe(200);
+  }, 120_000);
 });
 
 describe('versions', () => {

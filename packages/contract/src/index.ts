@@ -25,3 +25,4 @@ export * from './verification';
 export * from './policy';
 export * from './duties';
 export * from './report';
+export * from './shop-memory';

@@ -35,6 +35,8 @@ export const jobSchema = z.object({
   customerName: z.string(),
   unitDescription: z.string(),
   serial: z.string().nullable(),
+  /** The serial of the unit the board came out of. */
+  unitSerial: z.string().nullable(),
   boardId: idSchema,
   boardName: z.string(),
   boardVersionId: idSchema,
@@ -103,6 +105,7 @@ export const createJobRequest = z.object({
   customerId: idSchema,
   unitDescription: z.string().trim().min(1).max(300),
   serial: optionalText(100),
+  unitSerial: optionalText(100),
   boardId: idSchema,
   /** Defaults to the board model's newest version. */
   boardVersion: counterSchema.optional(),
@@ -135,6 +138,7 @@ export const updateJobRequest = z
     priority: prioritySchema,
     unitDescription: z.string().trim().min(1).max(300),
     serial: optionalText(100),
+    unitSerial: optionalText(100),
     faultCode: optionalText(20),
     symptom: z.string().trim().min(1).max(2000),
     dueAt: isoDateTimeInput.nullable(),

@@ -15,6 +15,9 @@ export const createRepairRequest = z.object({
   notes: optionalText(4000),
   /** Pictures of the work (ids from POST /api/uploads). */
   uploadIds: z.array(idSchema).max(20).default([]),
+  /** A replaced part taken from the parts bin: the drawer, checked against the board model's part, and how many. */
+  binPartId: idSchema.optional(),
+  binQuantity: z.number().int().min(1).max(100).default(1),
 });
 export type CreateRepairRequest = z.input<typeof createRepairRequest>;
 

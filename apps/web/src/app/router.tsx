@@ -26,6 +26,10 @@ const AccountPage = lazy(() => import('@/features/account/components/account-pag
 const InvitationPage = lazy(() => import('@/features/auth/components/invitation-page'));
 const ForgotPasswordPage = lazy(() => import('@/features/auth/components/forgot-password-page'));
 const ResetPasswordPage = lazy(() => import('@/features/auth/components/reset-password-page'));
+const SerialLookupPage = lazy(() => import('@/features/board-history/components/board-history-page'));
+const JobHistoryPage = lazy(async () => ({ default: (await import('@/features/board-history/components/board-history-page')).JobHistoryPage }));
+const ServiceTermsPage = lazy(() => import('@/features/service-terms/components/service-terms-page'));
+const PartsBinPage = lazy(() => import('@/features/parts-bin/components/parts-bin-page'));
 const BillingSettingsPage = lazy(() => import('@/features/billing/components/billing-settings-page'));
 
 const loading = <p className="p-6">Loading…</p>;
@@ -65,6 +69,9 @@ export const router = createBrowserRouter([
       { path: 'jobs/:id/repair', element: <RepairPage /> },
       { path: 'jobs/:id/report', element: <ReportPage /> },
       { path: 'jobs/:id/billing', element: <JobBillingPage /> },
+      { path: 'jobs/:id/history', element: <JobHistoryPage /> },
+      { path: 'history', element: <SerialLookupPage /> },
+      { path: 'parts-bin', element: <PartsBinPage /> },
       { path: 'review', element: <ReviewQueuePage /> },
       { path: 'boards', element: <BoardLibraryPage /> },
       { path: 'boards/:id', element: <BoardEditorPage /> },
@@ -73,6 +80,7 @@ export const router = createBrowserRouter([
       { path: 'billing/settings', element: <BillingSettingsPage /> },
       { path: 'people', element: <PeoplePage /> },
       { path: 'shop', element: <ShopPage /> },
+      { path: 'shop/terms', element: <ServiceTermsPage /> },
       { path: 'account', element: <AccountPage /> },
     ],
   },

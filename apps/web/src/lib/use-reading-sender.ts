@@ -38,28 +38,35 @@ export function useReadingSender(jobId: string) {
   const [rejected, setRejected] = useState<{ raw: string; message: string }[]>([]);
   const [lastSaved, setLastSaved] = useState<CreateReadingResponse | null>(null);
   const running = useRef(false);
+  const again = useRef(false);
 
   const refresh = useCallback(() => setUnsent(loadUnsent<CreateReadingRequest>(store).filter((e) => e.jobId === jobId)), [jobId]);
 
-  const flush = useCallback(async () => {
+  const flush = useCallback(async (): Promise<void> => {
+    // A call during a run (the browser comes back online while the last attempt is still failing) makes the run
+    // go round once more, so the return of the network is never missed.
+    again.current = true;
     if (running.current) return;
     running.current = true;
     try {
-      const r = await flushUnsent<CreateReadingRequest>(store, jobId, async (e) => {
-        try {
-          setLastSaved(await createReading(jobId, e.body));
-          return 'sent';
-        } catch (err) {
-          if (err instanceof ApiError && (err.isNetwork || err.status >= 500 || err.status === 429)) return 'retry';
-          return { outcome: 'rejected', message: err instanceof Error ? err.message : 'refused' };
+      while (again.current) {
+        again.current = false;
+        const r = await flushUnsent<CreateReadingRequest>(store, jobId, async (e) => {
+          try {
+            setLastSaved(await createReading(jobId, e.body));
+            return 'sent';
+          } catch (err) {
+            if (err instanceof ApiError && (err.isNetwork || err.status >= 500 || err.status === 429)) return 'retry';
+            return { outcome: 'rejected', message: err instanceof Error ? err.message : 'refused' };
+          }
+        });
+        if (r.rejected.length) setRejected((old) => [...old, ...r.rejected.map((x) => ({ raw: x.entry.body.raw, message: x.message }))]);
+        if (r.sent.length) {
+          await Promise.all([
+            qc.invalidateQueries({ queryKey: ['jobs', jobId, 'readings'] }),
+            qc.invalidateQueries({ queryKey: ['jobs', jobId, 'diagnosis'] }),
+          ]);
         }
-      });
-      if (r.rejected.length) setRejected((old) => [...old, ...r.rejected.map((x) => ({ raw: x.entry.body.raw, message: x.message }))]);
-      if (r.sent.length) {
-        await Promise.all([
-          qc.invalidateQueries({ queryKey: ['jobs', jobId, 'readings'] }),
-          qc.invalidateQueries({ queryKey: ['jobs', jobId, 'diagnosis'] }),
-        ]);
       }
     } finally {
       running.current = false;

@@ -4,3 +4,4 @@ export * from './boards';
 export * from './jobs';
 export * from './billing';
 export * from './rules';
+export * from './shop-memory';

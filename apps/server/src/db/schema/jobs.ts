@@ -25,6 +25,8 @@ export const jobs = pgTable(
       .references(() => customers.id),
     unitDescription: text('unit_description').notNull(),
     serial: text('serial'),
+    /** The serial of the air-conditioning unit the board came out of (the board's own serial is `serial`). */
+    unitSerial: text('unit_serial'),
     boardId: text('board_id')
       .notNull()
       .references(() => boardModels.id),
@@ -66,6 +68,9 @@ export const jobs = pgTable(
       .where(sql`${t.idempotencyKey} is not null`),
     index('jobs_shop_status_idx').on(t.shopId, t.status),
     index('jobs_assignee_idx').on(t.assigneeId),
+    // A board that comes back is found by its serial, as typed at intake in any case.
+    index('jobs_shop_serial_idx').on(t.shopId, sql`lower(${t.serial})`),
+    index('jobs_shop_unit_serial_idx').on(t.shopId, sql`lower(${t.unitSerial})`),
   ],
 );
 

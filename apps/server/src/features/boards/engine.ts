@@ -7,6 +7,7 @@ import { meterProfileById, refusal, type MeterProfile } from '@splitscope/circui
 import { bandOf, CaseError, createDiagnoser, verdictOf, type CasePart, type Diagnoser, type ReadingValue, type TestPoint } from '@splitscope/diagnosis';
 import { boardModelSchema, type BoardModel, type MeterProfileId, type BoardPartKind, type ExpectedReadingRow, type MeterModeName, type PowerState, type ReadingVerdict } from '@splitscope/contract';
 import { AppError } from '../../http/errors';
+import { isOlderDocument, upgradeV1InMemory } from './document-form';
 import { LRUCache } from 'lru-cache';
 
 export interface BoardTestPoint extends TestPoint {
@@ -70,7 +71,9 @@ function testPointsOf(model: BoardModel): BoardTestPoint[] {
  * not match the schema is a 422 naming the first field at fault.
  */
 export function readBoardModel(doc: unknown): BoardModel {
-  const parsed = boardModelSchema.safeParse(doc);
+  // A stored document in an older form (written before this server's start-up upgrade ran, or by an older server
+  // beside it) is read through the same upgrade in memory: stored data never makes a job unreadable.
+  const parsed = boardModelSchema.safeParse(isOlderDocument(doc) ? upgradeV1InMemory(doc as Record<string, unknown>).document : doc);
   if (parsed.success) return parsed.data;
   const issue = parsed.error.issues[0]!;
   const path = ['document', ...issue.path.map(String)].join('.');

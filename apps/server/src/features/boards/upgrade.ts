@@ -9,11 +9,10 @@ import type { Db } from '../../db/client';
 import { boardModels, boardModelVersions } from '../../db/schema';
 import type { Storage } from '../../storage/storage';
 import { storeUpload } from '../uploads';
+import { upgradeV1InMemory } from './document-form';
 
 type Json = Record<string, unknown>;
 const isRecord = (x: unknown): x is Json => typeof x === 'object' && x !== null && !Array.isArray(x);
-const DATA_URL = /^data:image\/(?:png|jpeg);base64,(.+)$/s;
-const UPLOAD_URL = /^\/api\/uploads\/([A-Za-z0-9_-]{1,64})$/;
 
 export interface UpgradeOutcome {
   upgraded: number;
@@ -26,26 +25,9 @@ export interface UpgradeOutcome {
  * Exported for its test; the start-up step below is what runs it.
  */
 export async function upgradeV1(doc: Json, storePhoto: (bytes: Buffer) => Promise<string>): Promise<Json> {
-  const out: Json = { ...doc, schemaVersion: BOARD_MODEL_SCHEMA_VERSION };
-  const pic = isRecord(doc.picture) ? doc.picture : {};
-  const picture: Json = { width: pic.width, height: pic.height, units: pic.units };
-  const url = typeof pic.url === 'string' ? pic.url : '';
-  const inline = DATA_URL.exec(url);
-  const linked = UPLOAD_URL.exec(url);
-  if (inline) picture.uploadId = await storePhoto(Buffer.from(inline[1]!, 'base64'));
-  else if (linked) picture.uploadId = linked[1];
-  // An inline SVG was the drawing of the composition (drawn again on request) or a pasted drawing, which the
-  // schema no longer carries: a board without a photo shows its drawing or no picture.
-  out.picture = picture;
-  const priors = isRecord(doc.priors) ? doc.priors : {};
-  delete out.priors;
-  if (Array.isArray(doc.parts)) {
-    out.parts = doc.parts.map((p: unknown) => {
-      if (!isRecord(p) || typeof p.designator !== 'string' || !isRecord(priors[p.designator])) return p;
-      return { ...p, priors: priors[p.designator] };
-    });
-  }
-  return out;
+  const { document, photo } = upgradeV1InMemory(doc);
+  if (photo) (document.picture as Json).uploadId = await storePhoto(photo);
+  return document;
 }
 
 /** Upgrades every stored version below the current schema version; idempotent (upgraded rows are not selected again). */

@@ -62,6 +62,7 @@ const toJob = ({ j, customerName, assigneeName, boardName, boardVersion }: JobQu
   customerName,
   unitDescription: j.unitDescription,
   serial: j.serial,
+  unitSerial: j.unitSerial,
   boardId: j.boardId,
   boardName,
   boardVersionId: j.boardVersionId,
@@ -95,7 +96,7 @@ export async function findJobs({ db, actor, query }: { db: Db; actor: Actor; que
   if (query.customerId) where.push(eq(jobs.customerId, query.customerId));
   if (query.q) {
     const like = `%${escapeLike(query.q)}%`;
-    where.push(or(ilike(jobs.unitDescription, like), ilike(jobs.serial, like), ilike(jobs.symptom, like), ilike(jobs.faultCode, like), ilike(customers.name, like), sql`${jobs.number}::text = ${query.q}`)!);
+    where.push(or(ilike(jobs.unitDescription, like), ilike(jobs.serial, like), ilike(jobs.unitSerial, like), ilike(jobs.symptom, like), ilike(jobs.faultCode, like), ilike(customers.name, like), sql`${jobs.number}::text = ${query.q}`)!);
   }
   const priorityOrder = sql`case ${jobs.priority} when 'high' then 0 when 'normal' then 1 else 2 end`;
   const rows = await jobQuery(db)
@@ -183,6 +184,7 @@ async function insertJob({ db, actor, input }: { db: Db; actor: Pick<Actor, 'id'
       customerId: customer.id,
       unitDescription: input.unitDescription,
       serial: input.serial ?? null,
+      unitSerial: input.unitSerial ?? null,
       boardId: board.id,
       boardVersionId: version.id,
       faultCode: input.faultCode ?? null,
@@ -242,6 +244,7 @@ export async function updateJob({ db, actor, id, input }: { db: Db; actor: Actor
   if (fields.priority) set.priority = fields.priority;
   if (fields.unitDescription) set.unitDescription = fields.unitDescription;
   if (fields.serial !== undefined) set.serial = fields.serial;
+  if (fields.unitSerial !== undefined) set.unitSerial = fields.unitSerial;
   if (fields.faultCode !== undefined) set.faultCode = fields.faultCode;
   if (fields.symptom) set.symptom = fields.symptom;
   if (fields.dueAt !== undefined) set.dueAt = fields.dueAt ? new Date(fields.dueAt) : null;

@@ -2,12 +2,12 @@
 // diagnosis engine gives next. Every unpowered reading on a section that touches the bus needs the discharge gate
 // passed first, whoever takes it. The bench screen enforces the same; this is the server's half, so a hand-made
 // request cannot skip a step or the gate.
-import { boardModelSchema, dischargeGateRefusal, type CreateReadingInput, type GateModel } from '@splitscope/contract';
+import { dischargeGateRefusal, type CreateReadingInput, type GateModel } from '@splitscope/contract';
 import { DEFAULT_SAFE_THRESHOLD } from '@splitscope/boards';
 import type { Db } from '../../db/client';
 import type { jobs } from '../../db/schema';
 import { AppError } from '../../http/errors';
-import { normNet as norm } from '../boards';
+import { normNet as norm, readBoardModel } from '../boards';
 import { computeDiagnosis } from '../diagnosis';
 
 const sameSet = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((x) => b.some((y) => norm(x) === norm(y)));
@@ -17,8 +17,13 @@ const sameSet = (a: readonly string[], b: readonly string[]) => a.length === b.l
 const gateModels = new Map<string, GateModel | null>();
 async function gateModelOf(versionId: string, loadDocument: () => Promise<unknown>): Promise<GateModel | null> {
   if (gateModels.has(versionId)) return gateModels.get(versionId)!;
-  const parsed = boardModelSchema.safeParse(await loadDocument());
-  const model = parsed.success ? { testPoints: parsed.data.testPoints, sections: parsed.data.sections } : null;
+  let model: GateModel | null = null;
+  try {
+    const m = readBoardModel(await loadDocument());
+    model = { testPoints: m.testPoints, sections: m.sections };
+  } catch {
+    // An unreadable document leaves the model null, which gates every unpowered reading.
+  }
   gateModels.set(versionId, model);
   if (gateModels.size > 200) gateModels.delete(gateModels.keys().next().value as string);
   return model;

@@ -7,6 +7,7 @@ import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
 import { getJobRow } from '../jobs';
+import { checkBinTake, takeFromBin } from '../parts-bin';
 
 const toRepair = (r: typeof repairActions.$inferSelect, authorName: string): Repair => ({
   id: r.id,
@@ -31,7 +32,16 @@ export async function createRepair({
   db: Db;
   actor: Actor;
   jobId: string;
-  input: { part: string; action: Repair['action']; replacementValue?: string | null; marking?: string | null; notes?: string | null; uploadIds: string[] };
+  input: {
+    part: string;
+    action: Repair['action'];
+    replacementValue?: string | null;
+    marking?: string | null;
+    notes?: string | null;
+    uploadIds: string[];
+    binPartId?: string;
+    binQuantity?: number;
+  };
 }): Promise<Repair> {
   const job = await getJobRow(db, actor.shopId, jobId);
   if (job.status !== 'approved' && job.status !== 'repaired') throw new AppError('conflict', `Repairs are recorded once the diagnosis is approved; this job is ${job.status}`);
@@ -40,11 +50,30 @@ export async function createRepair({
     const missing = input.uploadIds.filter((id) => !found.some((f) => f.id === id));
     if (missing.length) throw new AppError('invalid', `Unknown uploads: ${missing.join(', ')}`, { errors: [{ path: 'uploadIds', message: `unknown: ${missing.join(', ')}` }] });
   }
-  const [row] = await db
-    .insert(repairActions)
-    .values({ id: newId(), shopId: actor.shopId, jobId, part: input.part, action: input.action, replacementValue: input.replacementValue ?? null, marking: input.marking ?? null, notes: input.notes ?? null, uploadIds: input.uploadIds, authorId: actor.id })
-    .returning();
-  return toRepair(row!, actor.name);
+  const { binPartId } = input;
+  if (binPartId && input.action !== 'replaced') throw new AppError('invalid', 'Only a replaced part comes from the parts bin', { errors: [{ path: 'binPartId', message: 'only with action replaced' }] });
+  // A part from the bin is the board model's part (value and package checked); it records the drawer's value.
+  const fitted = binPartId ? await checkBinTake({ db, shopId: actor.shopId, jobId, part: input.part, binPartId }) : null;
+  const row = await db.transaction(async (tx) => {
+    const [made] = await tx
+      .insert(repairActions)
+      .values({
+        id: newId(),
+        shopId: actor.shopId,
+        jobId,
+        part: input.part,
+        action: input.action,
+        replacementValue: input.replacementValue ?? fitted?.replacementValue ?? null,
+        marking: input.marking ?? fitted?.marking ?? null,
+        notes: input.notes ?? null,
+        uploadIds: input.uploadIds,
+        authorId: actor.id,
+      })
+      .returning();
+    if (binPartId) await takeFromBin(tx, { shopId: actor.shopId, jobId, repairId: made!.id, binPartId, quantity: input.binQuantity ?? 1, takenBy: actor.id });
+    return made!;
+  });
+  return toRepair(row, actor.name);
 }
 
 export async function findRepairs({ db, shopId, jobId }: { db: Db; shopId: string; jobId: string }) {

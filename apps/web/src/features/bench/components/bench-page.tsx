@@ -2,6 +2,8 @@ import { acceptsReadings, canPropose, jobStatusLabels, type ExpectedReadingRow, 
 import { useEffect, useMemo, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
+import { JobHistoryNote } from '@/components/board-history/board-history';
+import { useJobHistory } from '@/lib/api/get-board-history';
 import { Button } from '@/components/ui/button';
 import { QueryState } from '@/components/ui/query-state';
 import { StatusBadge } from '@/components/ui/status-badge';
@@ -82,6 +84,7 @@ function Bench({ job }: { job: JobDetail }) {
   const readingsQ = useReadings(job.id);
   const diagnosisQ = useDiagnosis(job.id);
   const sender = useReadingSender(job.id);
+  const history = useJobHistory(job.id);
   const update = useUpdateJob(job.id);
   const [target, setTarget] = useState<(Target & { pointId?: string }) | null>(null);
   const [selectedPart, setSelectedPart] = useState<string | null>(null);
@@ -226,6 +229,7 @@ function Bench({ job }: { job: JobDetail }) {
           Sent back by {job.reviews.at(-1)!.reviewerName}: “{job.reviews.at(-1)!.comment}”
         </p>
       )}
+      <JobHistoryNote history={history.data} jobId={job.id} />
       <UnsentBlock sender={sender} />
       <div className="grid gap-3 lg:min-h-0 lg:flex-1 lg:grid-cols-[minmax(0,1fr)_26rem]">
         <div className="order-2 flex min-h-0 flex-col gap-2 lg:order-1">

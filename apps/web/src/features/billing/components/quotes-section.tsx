@@ -1,8 +1,9 @@
-import type { Quote } from '@splitscope/contract';
+import { centsToDecimal, type Quote } from '@splitscope/contract';
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { DocumentTable } from '@/components/ui/document-table';
 import { dateTime } from '@/lib/format';
+import { useQuoteDraft } from '@/lib/api/parts-bin';
 import { useSaveQuote } from '../api/save-quote';
 import { useSendDocument } from '../api/send-document';
 import type { BillingCtx } from '../lib/billing-ctx';
@@ -58,6 +59,9 @@ export function QuotesSection({ quotes, ctx }: { quotes: Quote[]; ctx: BillingCt
   const quoting = !['verified', 'returned'].includes(ctx.job.status);
   const [editing, setEditing] = useState<string | null>(quotes.length === 0 && ctx.canEdit && quoting ? 'new' : null);
   const draft = editing && editing !== 'new' ? (quotes.find((q) => q.id === editing) ?? null) : null;
+  // A new quote starts from the parts the repairs took from the bin and the shop's labour rate.
+  const prefill = useQuoteDraft(ctx.job.id, editing === 'new' && ctx.canEdit);
+  const prefilled = prefill.data?.lines.length ? { lines: prefill.data.lines.map(({ unitCents, ...l }) => ({ ...l, unitPrice: centsToDecimal(unitCents) })), taxRate: ctx.defaultRate, note: '' } : null;
   const [latest, ...earlier] = [...quotes].reverse();
   // the server's rule: once a newer quote went out, the customer answers only that one
   const replaced = (q: Quote) => quotes.some((o) => o.status !== 'draft' && o.createdAt > q.createdAt);
@@ -71,10 +75,10 @@ export function QuotesSection({ quotes, ctx }: { quotes: Quote[]; ctx: BillingCt
       </div>
       {editing && (
         <LinesEditor
-          key={editing}
-          title={draft ? `Edit draft ${draft.number}` : 'New quote'}
+          key={`${editing}-${prefilled ? 'prefilled' : 'blank'}`}
+          title={draft ? `Edit draft ${draft.number}` : prefilled ? 'New quote (from the parts used and the labour rate)' : 'New quote'}
           currency={ctx.currency}
-          defaultValues={formValuesOf(draft, ctx.defaultRate)}
+          defaultValues={draft ? formValuesOf(draft, ctx.defaultRate) : (prefilled ?? formValuesOf(null, ctx.defaultRate))}
           submitLabel={draft ? 'Save the draft' : 'Save as draft'}
           pending={save.isPending}
           error={save.error}

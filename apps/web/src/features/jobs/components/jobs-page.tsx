@@ -158,6 +158,12 @@ function JobsPage() {
   return (
     <section>
       <PageHeader title="Jobs">
+        <Link to="/history" className="inline-flex min-h-11 items-center rounded-md border border-board px-4 font-semibold text-board">
+          Board history by serial
+        </Link>
+        <Link to="/parts-bin" className="inline-flex min-h-11 items-center rounded-md border border-board px-4 font-semibold text-board">
+          Parts bin
+        </Link>
         <Link to="/jobs/new" className="inline-flex min-h-11 items-center rounded-md bg-board px-4 font-semibold text-white">
           Open a job
         </Link>

@@ -4,7 +4,9 @@ import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { useNavigate } from 'react-router-dom';
 import type { z } from 'zod';
+import { EarlierJobs, WarrantyFlag } from '@/components/board-history/board-history';
 import { PageHeader } from '@/components/ui/page-header';
+import { useBoardHistory } from '@/lib/api/get-board-history';
 import { useCreateJob } from '../api/create-job';
 import { useBoards } from '@/lib/api/get-boards';
 import { useCustomers } from '../api/get-customers';
@@ -32,10 +34,13 @@ function NewJobPage() {
   const [photoError, setPhotoError] = useState<string | null>(null);
   const form = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(createJobRequest),
-    defaultValues: { idempotencyKey: crypto.randomUUID(), customerId: '', unitDescription: '', serial: '', boardId: '', faultCode: '', symptom: '', priority: 'normal', assigneeId: null },
+    defaultValues: { idempotencyKey: crypto.randomUUID(), customerId: '', unitDescription: '', serial: '', unitSerial: '', boardId: '', faultCode: '', symptom: '', priority: 'normal', assigneeId: null },
   });
   const boardId = useWatch({ control: form.control, name: 'boardId' });
   const faultCode = useWatch({ control: form.control, name: 'faultCode' });
+  const serial = useWatch({ control: form.control, name: 'serial' });
+  const unitSerial = useWatch({ control: form.control, name: 'unitSerial' });
+  const history = useBoardHistory({ serial: serial ?? undefined, unitSerial: unitSerial ?? undefined });
   const codes = useFaultCodes(boardId || undefined);
   const code = (faultCode ?? '').trim().toUpperCase();
   const match = code ? codes.data?.items.find((c) => c.code.toUpperCase() === code) : undefined;
@@ -89,9 +94,24 @@ function NewJobPage() {
           <Err msg={e.unitDescription?.message} />
         </label>
         <label className="block">
-          <span className="text-sm font-medium">Serial (optional)</span>
-          <input className={field} {...form.register('serial')} />
+          <span className="text-sm font-medium">Board serial (optional)</span>
+          <input className={field} {...form.register('serial')} autoComplete="off" />
         </label>
+        <label className="block">
+          <span className="text-sm font-medium">Unit serial (optional)</span>
+          <input className={field} {...form.register('unitSerial')} autoComplete="off" />
+        </label>
+        {/* A board that was here before: its earlier jobs and, within the warranty days, the flag. */}
+        <div aria-live="polite" className="space-y-2 sm:col-span-2">
+          {history.isError && <Err msg={`The serial's history could not be loaded: ${history.error.message}`} />}
+          {history.data && history.data.jobs.length > 0 && (
+            <>
+              <WarrantyFlag history={history.data} />
+              <p className="text-sm font-medium">This serial was here before ({history.data.jobs.length} {history.data.jobs.length === 1 ? 'job' : 'jobs'}):</p>
+              <EarlierJobs history={history.data} />
+            </>
+          )}
+        </div>
         <div className="sm:col-span-2">
           <label className="block max-w-xs">
             <span className="text-sm font-medium">Reported fault code</span>

@@ -7,5 +7,9 @@ export const createRepair = (jobId: string, input: CreateRepairRequest) =>
 
 export const useCreateRepair = (jobId: string) => {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: (input: CreateRepairRequest) => createRepair(jobId, input), onSuccess: () => qc.invalidateQueries({ queryKey: ['jobs', jobId] }) });
+  return useMutation({
+    mutationFn: (input: CreateRepairRequest) => createRepair(jobId, input),
+    // A part fitted from the bin changed its stock too.
+    onSuccess: () => Promise.all([qc.invalidateQueries({ queryKey: ['jobs', jobId] }), qc.invalidateQueries({ queryKey: ['parts-bin'] })]),
+  });
 };

@@ -12,6 +12,7 @@ import { useUpdateJob } from '@/lib/api/update-job';
 import { dateTime } from '@/lib/format';
 import { useCreateRepair } from '../api/create-repair';
 import { useRepairs } from '@/lib/api/get-repairs';
+import { usePartsBin } from '@/lib/api/parts-bin';
 import { ReturnForm } from './return-form';
 import { VerificationChecklist } from './verification-checklist';
 
@@ -22,14 +23,17 @@ const input = 'mt-1 block min-h-11 w-full rounded-md border border-stone-500 bg-
 function RepairForm({ job }: { job: JobDetail }) {
   const create = useCreateRepair(job.id);
   const update = useUpdateJob(job.id);
+  const bin = usePartsBin();
   const form = useForm<In, unknown, Out>({
     resolver: zodResolver(createRepairRequest),
-    defaultValues: { part: job.proposedPart ?? '', action: 'replaced', replacementValue: '', marking: '', notes: '' },
+    defaultValues: { part: job.proposedPart ?? '', action: 'replaced', replacementValue: '', marking: '', notes: '', binQuantity: 1 },
   });
   const submit = form.handleSubmit(async (v) => {
-    await create.mutateAsync(v);
+    // A refused repair (a drawer that does not fit) shows from the mutation state; it is not an uncaught error.
+    if (!(await create.mutateAsync(v).then(() => true, () => false))) return;
     if (job.allowedTransitions.includes('repaired')) await update.mutateAsync({ status: 'repaired' });
-    form.reset({ ...v, notes: '' });
+    // The drawer is not kept: saving again must not take a second part from it.
+    form.reset({ ...v, notes: '', binPartId: undefined, binQuantity: 1 });
   });
   const err = create.error ?? update.error;
   return (
@@ -49,6 +53,25 @@ function RepairForm({ job }: { job: JobDetail }) {
             </option>
           ))}
         </select>
+      </label>
+      <label>
+        <span className="text-sm font-medium">Fitted from the parts bin (optional)</span>
+        <select className={input} {...form.register('binPartId', { setValueAs: (v: string) => v || undefined })}>
+          <option value="">Not from the bin</option>
+          {bin.data?.items
+            .filter((p) => p.quantity > 0)
+            .map((p) => (
+              <option key={p.id} value={p.id}>
+                {p.value} {p.package}
+                {p.rating ? ` ${p.rating}` : ''} · drawer {p.drawer} · {p.quantity} left
+              </option>
+            ))}
+        </select>
+        <span className="text-sm text-stone-700">The drawer’s value and package are checked against the board’s part.</span>
+      </label>
+      <label>
+        <span className="text-sm font-medium">How many from the bin</span>
+        <input type="number" min={1} max={100} className={input} {...form.register('binQuantity', { valueAsNumber: true })} />
       </label>
       <label>
         <span className="text-sm font-medium">Replacement value</span>

@@ -1,3 +1,4 @@
+import { Link } from 'react-router-dom';
 import { useState, type FormEvent } from 'react';
 import { GENERIC_METER_LABEL, meterProfileIds, meterProfileLabels, updateShopRequest, type Shop } from '@splitscope/contract';
 import { Button } from '@/components/ui/button';
@@ -92,7 +93,11 @@ export default function ShopPage() {
   const shop = useShop();
   return (
     <div className="max-w-3xl">
-      <PageHeader title="Shop" />
+      <PageHeader title="Shop">
+        <Link className="inline-flex min-h-11 items-center text-board underline" to="/shop/terms">
+          Warranty and labour rate
+        </Link>
+      </PageHeader>
       <QueryState query={shop} label="the shop">
         {(s) => <ShopForm shop={s} />}
       </QueryState>
