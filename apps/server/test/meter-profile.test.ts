@@ -35,7 +35,7 @@ beforeAll(async () => {
     parts: [
       DIVIDER_BOARD.parts[0]!,
       { ...DIVIDER_BOARD.parts[1]!, value: '1M' },
-      { designator: 'D1', element: 'D1', kind: 'diode', value: '1N4148', package: 'SOD-123', x: 300, y: 100, section: 'div', pins: [{ pin: 'A', net: 'mid' }, { pin: 'K', net: '0' }] },
+      { designator: 'D1', element: 'D1', kind: 'diode', value: 'signal', package: 'SOD-123', x: 300, y: 100, rotation: 0, section: 'div', pins: [{ pin: 'A', net: 'mid' }, { pin: 'K', net: '0' }] },
     ],
   };
   const created = await admin.post('/api/boards', { document: doc });
