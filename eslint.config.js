@@ -5,6 +5,7 @@ import tseslint from 'typescript-eslint';
 import reactHooks from 'eslint-plugin-react-hooks';
 import importX from 'eslint-plugin-import-x';
 import { createTypeScriptImportResolver } from 'eslint-import-resolver-typescript';
+import splitscope from './scripts/lint/no-feature-cycle.js';
 
 // Each rule below is described, with a file that breaks it, in docs/decisions/0003-lint-boundaries.md; the files
 // under tests/lint-fixtures/ must fail (tests/unit/lint-boundaries.test.ts runs ESLint on them).
@@ -64,6 +65,14 @@ const boundaries = {
   rules: { 'import-x/no-restricted-paths': ['error', { zones }] },
 };
 
+// No import cycles: between files (import-x/no-cycle), and between the features of an app, which import each
+// other through index files and so form cycles no single file shows (scripts/lint/no-feature-cycle.js).
+const noCycles = {
+  files: ['apps/*/src/**/*.{ts,tsx}', 'packages/*/src/**/*.ts'],
+  plugins: { 'import-x': importX, splitscope },
+  rules: { 'import-x/no-cycle': ['error', { ignoreExternal: true }], 'splitscope/no-feature-cycle': 'error' },
+};
+
 // Promises that nobody awaits lose their errors; a promise handed where a plain callback is expected (an
 // onClick, an event handler) is never awaited either. Both need the types, so these two rules run type-aware.
 const promises = {
@@ -77,9 +86,9 @@ const promises = {
   },
   rules: {
     '@typescript-eslint/no-floating-promises': 'error',
-    // JSX event attributes are left out: React ignores a handler's return value, and the forms hand react-hook-form's
-    // handleSubmit (which returns a promise) straight to onSubmit.
-    '@typescript-eslint/no-misused-promises': ['error', { checksVoidReturn: { attributes: false } }],
+    // JSX handlers included: a form hands React a plain handler (lib/forms.ts `formSubmit`), which starts the
+    // async submit and shows its failure through the mutation's state.
+    '@typescript-eslint/no-misused-promises': 'error',
   },
 };
 
@@ -108,6 +117,7 @@ export default tseslint.config(
   enginePurity,
   serverWithoutFakes,
   boundaries,
+  noCycles,
   promises,
   {
     files: ['apps/web/src/**/*.{ts,tsx}'],

@@ -116,7 +116,8 @@ async function test(): Promise<number> {
   // The demo server of the browser tests runs on a database of its own, seeded afresh: the integration tests'
   // leftovers (boards in older forms, odd names made on purpose) are theirs, not a page a spec should walk.
   const e2eUrl = await prepareDatabase('test', 'demo', 'e2e');
-  const server = await spawnServer({ DATABASE_URL: e2eUrl, LOGIN_RATE_LIMIT: '1000', ...(await free(0)) }, { quiet: true });
+  // No fault dictionaries: their builds would take a core from the browser run (config.ts FAULT_DICTIONARIES).
+  const server = await spawnServer({ DATABASE_URL: e2eUrl, LOGIN_RATE_LIMIT: '1000', FAULT_DICTIONARIES: '0', ...(await free(0)) }, { quiet: true });
   let shopServer: Awaited<ReturnType<typeof spawnServer>> | undefined;
   const e2eJson = join(reports, 'e2e.json');
   try {

@@ -12,19 +12,21 @@ const defOf = (s: Any) => (s as unknown as { _zod: { def: Def; optin?: string } 
 const isOptional = (s: Any) => (s as unknown as { _zod: { optin?: string } })._zod.optin === 'optional';
 
 /** Ids of real rows by the field name that carries them (customerId, boardId, ...): set before generating. */
-export const realIds: Record<string, string[]> = {};
+export const realIds: Record<string, unknown[]> = {};
 
 const safeChars = fc.constantFrom(...'abcdefghijklmnopqrstuvwxyz0123456789-'.split(''));
+const safeLetters = fc.constantFrom(...'abcdefghijklmnopqrstuvwxyz0123456789'.split(''));
 
 /** Values the schema's shape accepts (constraints beyond the shape, such as refinements, may still refuse them). */
-export function validArb(schema: Any, depth = 0): fc.Arbitrary<unknown> {
+export function validArb(schema: Any, depth = 0, ids: Record<string, unknown[]> = realIds): fc.Arbitrary<unknown> {
   const def = defOf(schema);
   const s = schema as unknown as Record<string, unknown>;
   switch (def.type) {
     case 'string': {
       const format = s.format as string | null;
       if (format === 'datetime') return fc.date({ min: new Date('2020-01-01'), max: new Date('2030-01-01'), noInvalidDate: true }).map((d) => d.toISOString());
-      if (format === 'email') return fc.emailAddress();
+      // the contract's e-mail check is stricter than RFC 5322 (no quoted or exotic local parts): addresses it takes
+      if (format === 'email') return fc.tuple(fc.string({ unit: safeLetters, minLength: 1, maxLength: 12 }), fc.string({ unit: safeLetters, minLength: 1, maxLength: 12 })).map(([a, b]) => `${a}@${b}.test`);
       if (format === 'uuid') return fc.uuid();
       if (format === 'url') return fc.webUrl();
       // The schema's own pattern: values a `^\d{1,3}(\.\d{1,3})?$` tax rate or a quantity accepts, not a made-up shape.
@@ -51,32 +53,32 @@ export function validArb(schema: Any, depth = 0): fc.Arbitrary<unknown> {
     case 'literal':
       return fc.constantFrom(...(def.values as unknown[]));
     case 'array':
-      return depth > 4 ? fc.constant([]) : fc.array(validArb(def.element as Any, depth + 1), { maxLength: 3 });
+      return depth > 4 ? fc.constant([]) : fc.array(validArb(def.element as Any, depth + 1, ids), { maxLength: 3 });
     case 'object': {
       const shape = def.shape as Record<string, Any>;
       const model: Record<string, fc.Arbitrary<unknown>> = {};
       const required: string[] = [];
       for (const [k, v] of Object.entries(shape)) {
-        const ids = realIds[k];
-        model[k] = ids?.length ? fc.oneof({ weight: 4, arbitrary: fc.constantFrom(...ids) }, { weight: 1, arbitrary: validArb(v, depth + 1) }) : validArb(v, depth + 1);
+        const real = ids[k];
+        model[k] = real?.length ? fc.oneof({ weight: 4, arbitrary: fc.constantFrom(...real) }, { weight: 1, arbitrary: validArb(v, depth + 1, ids) }) : validArb(v, depth + 1, ids);
         if (!isOptional(v)) required.push(k);
       }
       return fc.record(model, { requiredKeys: required as never[] });
     }
     case 'union':
-      return fc.oneof(...(def.options as Any[]).map((o) => validArb(o, depth + 1)));
+      return fc.oneof(...(def.options as Any[]).map((o) => validArb(o, depth + 1, ids)));
     case 'nullable':
-      return fc.oneof(fc.constant(null), validArb(def.innerType as Any, depth));
+      return fc.oneof(fc.constant(null), validArb(def.innerType as Any, depth, ids));
     case 'optional':
     case 'default':
     case 'prefault':
     case 'readonly':
     case 'catch':
-      return validArb(def.innerType as Any, depth);
+      return validArb(def.innerType as Any, depth, ids);
     case 'pipe':
-      return validArb(def.in as Any, depth);
+      return validArb(def.in as Any, depth, ids);
     case 'record':
-      return depth > 3 ? fc.constant({}) : fc.dictionary(fc.string({ unit: safeChars, minLength: 1, maxLength: 8 }), validArb(def.valueType as Any, depth + 1), { maxKeys: 3 });
+      return depth > 3 ? fc.constant({}) : fc.dictionary(fc.string({ unit: safeChars, minLength: 1, maxLength: 8 }), validArb(def.valueType as Any, depth + 1, ids), { maxKeys: 3 });
     case 'unknown':
     case 'any':
       return fc.jsonValue({ maxDepth: 2 });
@@ -170,10 +172,13 @@ function stringifySafe(v: unknown): string {
 }
 
 /** Malformed and boundary bodies for one schema (and a share of well-formed ones, so boundaries get through). */
-export function payloadArb(schema: Any): fc.Arbitrary<FuzzPayload> {
+export function payloadArb(schema: Any, ids: Record<string, unknown[]> = realIds): fc.Arbitrary<FuzzPayload> {
   const def = defOf(schema);
-  const valid = validArb(schema);
-  const keys = def.type === 'object' ? Object.keys(def.shape as object) : [];
+  return payloadArbOf(validArb(schema, 0, ids), def.type === 'object' ? Object.keys(def.shape as object) : []);
+}
+
+/** The same mix for a body no contract schema describes (a payment event): well-formed values and their breakages. */
+export function payloadArbOf(valid: fc.Arbitrary<unknown>, keys: string[]): fc.Arbitrary<FuzzPayload> {
   const mutated = fc.tuple(valid, fc.nat(), nastyValue, fc.constantFrom('replace', 'drop', 'extra')).map(([v, i, bad, how]) => {
     const obj = v && typeof v === 'object' && !Array.isArray(v) ? { ...(v as Record<string, unknown>) } : {};
     const key = keys.length ? keys[i % keys.length]! : 'x';
@@ -185,7 +190,7 @@ export function payloadArb(schema: Any): fc.Arbitrary<FuzzPayload> {
   const body = fc.oneof(
     { weight: 5, arbitrary: mutated },
     // well-formed bodies reach the routes' own rules and state changes, not only the contract's refusals
-    { weight: 8, arbitrary: valid.map((value) => ({ value, label: 'well-formed' })) },
+    { weight: 12, arbitrary: valid.map((value) => ({ value, label: 'well-formed' })) },
     { weight: 2, arbitrary: nastyValue.map((value) => ({ value, label: 'whole body' })) },
     {
       weight: 2,

@@ -14,10 +14,15 @@ const schema = z.object({
   DB_POOL_SIZE: z.coerce.number().int().min(1).max(200).default(20),
   /** Threads that run the diagnosis engine beside the request thread; one leaves a core for requests on two. */
   DIAGNOSIS_WORKERS: z.coerce.number().int().min(1).max(16).default(1),
+  /**
+   * `0`: build no fault dictionaries (diagnoses simulate as before). The browser-test run sets it, since a build
+   * takes a core for a minute per board version and the specs publish board copies by the dozen.
+   */
+  FAULT_DICTIONARIES: z.enum(['0', '1']).default('1').transform((v) => v === '1'),
   /** Where the built web app lives; served on the same port in production. */
   WEB_DIST: z.string().optional(),
   UPLOAD_DIR: z.string().default('.data/uploads'),
-  UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(8 * 1024 * 1024),
+  UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(20 * 1024 * 1024),
   /** The address people reach the app at; used for links in e-mail and the Origin check. */
   PUBLIC_URL: z.string().url().optional(),
   LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(10),

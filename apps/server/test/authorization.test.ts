@@ -9,6 +9,7 @@ import type { RunningServer } from '../src/server';
 import { createBoardModel, createCustomer, createJob, DIVIDER_BOARD } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
 import { apiRoutes } from './routes';
+import { TINY_PNG } from './pictures';
 
 const ALL: Role[] = ['admin', 'lead', 'tech', 'trainee'];
 const BENCH: Role[] = ['admin', 'lead', 'tech'];
@@ -34,6 +35,7 @@ interface Entry {
 }
 
 const quoteBody = () => ({ lines: [{ kind: 'labour', description: 'Matrix bench time', quantity: '1', unitCents: 5000 }] });
+const meterImportBody = () => ({ importKey: `matrix-${crypto.randomUUID()}`, profileId: 'matrix-no-such-profile', csv: 'point,value\nTP1,310\n' });
 const readingBody = () => ({ idempotencyKey: crypto.randomUUID(), mode: 'dcv', red: 'TP2', black: '0', power: 'on', value: 7.5, raw: '7.5' });
 
 const TABLE: Entry[] = [
@@ -70,7 +72,33 @@ const TABLE: Entry[] = [
   { method: 'GET', path: '/api/boards/versions/:id/picture', roles: ALL, kind: 'drawnVersion' },
   { method: 'GET', path: '/api/boards/:id/versions', roles: ALL, kind: 'board' },
   { method: 'GET', path: '/api/fault-codes', roles: ALL },
-  { method: 'POST', path: '/api/fault-codes', roles: ADMIN },
+  { method: 'POST', path: '/api/fault-codes', roles: REVIEWERS },
+  // No fault code or drawer has the id `:id`: a role past the guard gets its 404.
+  { method: 'PUT', path: '/api/fault-codes/:id', roles: REVIEWERS },
+  { method: 'DELETE', path: '/api/fault-codes/:id', roles: REVIEWERS, own: { admin: 404, lead: 404 } },
+  { method: 'PUT', path: '/api/users/:id/guided-order', roles: REVIEWERS, kind: 'user', body: () => ({ lifted: false }) },
+  { method: 'POST', path: '/api/boards/unlisted', roles: BENCH },
+  { method: 'GET', path: '/api/boards/:id/draft', roles: ALL, kind: 'board' },
+  { method: 'PUT', path: '/api/boards/:id/draft', roles: BENCH, kind: 'board', body: () => ({ capture: { photo: { uploadId: ids.own.upload, width: 1, height: 1 } } }) },
+  { method: 'POST', path: '/api/boards/:id/publish', roles: REVIEWERS, kind: 'board' },
+  { method: 'GET', path: '/api/boards/:id/references', roles: ALL, kind: 'board' },
+  { method: 'POST', path: '/api/boards/:id/references', roles: BENCH, kind: 'board', body: () => ({ readings: [{ mode: 'dcv', red: 'TP1', black: '0', power: 'on', value: 310 }] }) },
+  { method: 'POST', path: '/api/jobs/:id/reference', roles: REVIEWERS, kind: 'job' },
+  { method: 'GET', path: '/api/jobs/:id/upload-refusals', roles: ALL, kind: 'job' },
+  { method: 'GET', path: '/api/service-terms', roles: ALL },
+  { method: 'PATCH', path: '/api/service-terms', roles: ADMIN },
+  { method: 'GET', path: '/api/board-history', roles: ALL },
+  { method: 'GET', path: '/api/jobs/:id/history', roles: ALL, kind: 'job' },
+  { method: 'GET', path: '/api/parts-bin', roles: ALL },
+  { method: 'GET', path: '/api/parts-bin/reorder', roles: ALL },
+  { method: 'POST', path: '/api/parts-bin', roles: BENCH },
+  { method: 'PATCH', path: '/api/parts-bin/:id', roles: BENCH, own: { admin: 404, lead: 404, tech: 404 } },
+  { method: 'GET', path: '/api/jobs/:id/quote-draft', roles: BENCH, kind: 'job' },
+  { method: 'GET', path: '/api/meter-profiles', roles: ALL },
+  { method: 'PUT', path: '/api/meter-profiles', roles: BENCH },
+  { method: 'POST', path: '/api/jobs/:id/meter-import/preview', roles: BENCH, kind: 'job', body: meterImportBody },
+  { method: 'POST', path: '/api/jobs/:id/meter-import', roles: BENCH, kind: 'job', body: meterImportBody },
+  { method: 'GET', path: '/api/stats', roles: REVIEWERS },
   { method: 'GET', path: '/api/jobs', roles: ALL },
   { method: 'POST', path: '/api/jobs', roles: BENCH },
   { method: 'GET', path: '/api/jobs/:id', roles: ALL, kind: 'job' },
@@ -137,7 +165,7 @@ beforeAll(async () => {
     const board = await createBoardModel(db, { shopId, createdBy: author });
     const job = await createJob(db, { shopId, createdBy: author, customerId: customer.id, boardId: board.id });
     const c = await new Client(server.url).signIn(side === 'own' ? 'tech@demo.test' : 'tech@other.test');
-    const png = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(16)]);
+    const png = TINY_PNG;
     const up = await fetch(`${server.url}/api/uploads`, { method: 'POST', headers: { cookie: c.cookie, 'content-type': 'image/png' }, body: png });
     const upload = ((await up.json()) as { id: string }).id;
     // A quote, and an invoice on a second job that is past verification (the invoice comes after it).

@@ -6,29 +6,22 @@ import { randomUUID } from 'node:crypto';
 import { sql } from 'drizzle-orm';
 import { OUTDOOR_FAN_BOARD } from '@splitscope/boards';
 import type { Diagnosis, JobDetail, StoredReading } from '@splitscope/contract';
-import type { RunningServer } from '../src/server';
-import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
-import { Client, startTestServer } from './harness';
+import { startBench, type Bench } from './bench-fixture';
+import type { Client } from './harness';
 
-let server: RunningServer;
+let bench: Bench;
+let server: Bench['server'];
 let tech: Client;
 let lead: Client;
 let trainee: Client;
-let boardId: string;
-let customerId: string;
 
 beforeAll(async () => {
-  server = await startTestServer();
-  const db = server.ctx.db;
-  customerId = (await createCustomer(db, { shopId: 'shop-demo', name: 'Bench Rules Contracting' })).id;
-  boardId = (await createBoardModel(db, { shopId: 'shop-demo', createdBy: 'user-admin', document: { ...OUTDOOR_FAN_BOARD, id: `rules-${randomUUID()}` } })).id;
-  tech = await new Client(server.url).signIn('tech@demo.test');
-  lead = await new Client(server.url).signIn('lead@demo.test');
-  trainee = await new Client(server.url).signIn('trainee@demo.test');
+  bench = await startBench({ customer: 'Bench Rules Contracting', document: { ...OUTDOOR_FAN_BOARD, id: `rules-${randomUUID()}` } });
+  ({ server, tech, lead, trainee } = bench);
 }, 120_000);
 afterAll(() => server.close());
 
-const newJob = async (assigneeId = 'user-tech') => (await createJob(server.ctx.db, { shopId: 'shop-demo', createdBy: 'user-tech', customerId, boardId, assigneeId })).id;
+const newJob = (assigneeId = 'user-tech') => bench.newJob({ createdBy: 'user-tech', assigneeId });
 const reading = (over: Record<string, unknown>) => ({ idempotencyKey: randomUUID(), mode: 'ohm', red: 'TP1', black: '0', power: 'off', value: 220000, raw: '220k', ...over });
 
 describe('the discharge gate for every role and phase', () => {

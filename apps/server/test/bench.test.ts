@@ -5,6 +5,7 @@ import { readings } from '../src/db/schema';
 import type { RunningServer } from '../src/server';
 import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
+import { TINY_PNG, tinyJpeg } from './pictures';
 
 let server: RunningServer;
 let tech: Client;
@@ -97,15 +98,14 @@ describe('readings', () => {
 });
 
 describe('uploads', () => {
-  const png = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(64, 1)]);
-  const jpeg = Buffer.concat([Buffer.from([0xff, 0xd8, 0xff, 0xe0]), Buffer.alloc(64, 2)]);
+  const png = TINY_PNG;
   const send = (bytes: Buffer, type: string) =>
     fetch(`${server.url}/api/uploads?jobId=${jobId}`, { method: 'POST', headers: { cookie: tech.cookie, 'content-type': type }, body: bytes });
 
   it('accepts a PNG and a JPEG and serves them back with their type', async () => {
     for (const [bytes, type] of [
       [png, 'image/png'],
-      [jpeg, 'image/jpeg'],
+      [await tinyJpeg(), 'image/jpeg'],
     ] as const) {
       const r = await send(bytes, 'application/octet-stream');
       expect(r.status).toBe(201);

@@ -52,6 +52,25 @@ describe('board documents are board models', () => {
     expect(JSON.stringify(r.body)).toMatch(/document\.schemaVersion/);
   });
 
+  it('refuses absurd part values, ratings and positions with a 422 that names the field and the range', async () => {
+    const base = capacitorBoard();
+    const part0 = base.parts[0]!;
+    const cases: [string, BoardModel, RegExp][] = [
+      ['part value 1e308', { ...base, parts: [{ ...part0, nominal: 1e308 }, ...base.parts.slice(1)] }, /parts\.0\.nominal.*at most 1000000000/],
+      ['negative rating', { ...base, parts: [{ ...part0, params: { ctr: -1e12 } }, ...base.parts.slice(1)] }, /parts\.0\.params\.ctr.*at least -1000000000/],
+      ['position 1e300', { ...base, parts: [{ ...part0, x: 1e300 }, ...base.parts.slice(1)] }, /parts\.0\.x.*position on the board picture/],
+      ['picture 0 wide', { ...base, picture: { ...base.picture, width: 0 } }, /picture\.width.*at least 1/],
+      ['.param 1e100', { ...base, params: { DUTY: 1e100 } }, /params\.DUTY/],
+    ];
+    for (const [what, doc, words] of cases) {
+      const r = await admin.post('/api/boards', { document: doc });
+      expect(r.status, what).toBe(422);
+      expect(JSON.stringify(r.body), what).toMatch(words);
+    }
+    // the same board within the ranges is stored
+    expect((await admin.post('/api/boards', { document: base })).status).toBe(201);
+  });
+
   it('gives a ceramic capacitor the ceramic priors and a part its own prior, before any reading', async () => {
     const created = await admin.post('/api/boards', { document: capacitorBoard() });
     expect(created.status, JSON.stringify(created.body)).toBe(201);

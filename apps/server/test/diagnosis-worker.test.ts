@@ -9,7 +9,8 @@ import { diagnosisResponse, type Diagnosis, type ExpectedReadingRow } from '@spl
 import { jobs } from '../src/db/schema';
 import { buildBoardEngine, cachedBoardEngine } from '../src/features/boards/engine';
 import { currentReadings, shapeDiagnosis, toCaseReadings } from '../src/features/diagnosis/service';
-import { wordDiagnosis, wordsOf } from '../src/features/diagnosis/words';
+import { wordDiagnosis } from '../src/features/diagnosis/words';
+import { jobPriors } from '../src/features/diagnosis/priors';
 import type { RunningServer } from '../src/server';
 import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
@@ -42,7 +43,10 @@ afterAll(() => server.close());
 describe('diagnosis in a worker thread', () => {
   it('the server answers health checks while a cold diagnosis computes off its thread, and the answer is the in-process one', async () => {
     const db = server.ctx.db;
-    const [job] = await db.select({ id: jobs.id, boardVersionId: jobs.boardVersionId }).from(jobs).where(eq(jobs.id, jobId));
+    const [job] = await db
+      .select({ id: jobs.id, boardVersionId: jobs.boardVersionId, shopId: jobs.shopId, boardId: jobs.boardId, faultCode: jobs.faultCode })
+      .from(jobs)
+      .where(eq(jobs.id, jobId));
     // The readings above built this board's engine on the server's thread for their verdicts; its diagnoser must
     // not be the one that runs.
     const onServerThread = cachedBoardEngine(job!.boardVersionId);
@@ -69,9 +73,11 @@ describe('diagnosis in a worker thread', () => {
     expect(health.length).toBeGreaterThan(0);
     expect(update?.mock.calls ?? []).toHaveLength(0);
     const rows = await currentReadings(db, jobId);
-    // The server words the engine's answer for the bench (designators, probe places): the same words here.
-    const words = await wordsOf(job!.boardVersionId, () => Promise.resolve(document));
-    const local = wordDiagnosis(shapeDiagnosis(buildBoardEngine(job!.boardVersionId, document).diagnoser.update(toCaseReadings(rows)), job!, rows), words);
+    // The server copies the engine's words into the answer (designators, probe places): the same here.
+    // With the job's priors as the server makes them (fault code, the shop's verified history, references).
+    const before = await jobPriors(db, job!, () => Promise.resolve(document));
+    const options = { priors: before.priors, ...(before.history ? { history: before.history } : {}), ...(before.references ? { references: before.references } : {}) };
+    const local = shapeDiagnosis(wordDiagnosis(buildBoardEngine(job!.boardVersionId, document).diagnoser.update(toCaseReadings(rows), options)), job!, rows);
     expect(d.body).toEqual(JSON.parse(JSON.stringify(diagnosisResponse.parse(local))));
     expect((d.body as unknown as Diagnosis).candidates.length).toBeGreaterThan(0);
   }, 120_000);

@@ -2,32 +2,25 @@
 // reading someone else took is corrected only by a lead or above; an admin can relax both for a small shop.
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { RunningServer } from '../src/server';
-import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
-import { Client, startTestServer } from './harness';
+import { startBench, type Bench } from './bench-fixture';
+import type { Client } from './harness';
 
-let server: RunningServer;
+let bench: Bench;
 let admin: Client;
 let lead: Client;
 let tech: Client;
 let trainee: Client;
-let boardId: string;
-let customerId: string;
 
 beforeAll(async () => {
-  server = await startTestServer();
-  const db = server.ctx.db;
-  customerId = (await createCustomer(db, { shopId: 'shop-demo', name: 'Duties Test Cooling' })).id;
-  boardId = (await createBoardModel(db, { shopId: 'shop-demo', createdBy: 'user-admin' })).id;
-  const as = (role: string) => new Client(server.url).signIn(`${role}@demo.test`);
-  [admin, lead, tech, trainee] = [await as('admin'), await as('lead'), await as('tech'), await as('trainee')];
+  bench = await startBench({ customer: 'Duties Test Cooling' });
+  ({ admin, lead, tech, trainee } = bench);
 });
 afterAll(async () => {
   await admin.patch('/api/shop/duties', { selfApproval: false, correctOthersMinRole: 'lead' });
-  await server.close();
+  await bench.server.close();
 });
 
-const newJob = async (assigneeId = 'user-trainee') => (await createJob(server.ctx.db, { shopId: 'shop-demo', createdBy: 'user-lead', customerId, boardId, assigneeId })).id;
+const newJob = (assigneeId = 'user-trainee') => bench.newJob({ createdBy: 'user-lead', assigneeId });
 // The divider board: 15 V over 10k/10k reads about 7.5 V at TP2.
 const reading = (over: Record<string, unknown> = {}) => ({ idempotencyKey: randomUUID(), mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', value: 7.5, raw: '7.5', ...over });
 

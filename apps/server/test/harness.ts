@@ -37,6 +37,7 @@ export class Client {
   get = (path: string) => this.request('GET', path);
   post = (path: string, body?: unknown, headers?: Record<string, string>) => this.request('POST', path, body ?? {}, headers);
   patch = (path: string, body?: unknown) => this.request('PATCH', path, body ?? {});
+  put = (path: string, body?: unknown) => this.request('PUT', path, body ?? {});
 
   async signIn(email: string, password = 'splitscope-demo') {
     const r = await this.post('/api/auth/sign-in', { email, password });

@@ -6,6 +6,7 @@ import { sessions, shops } from '../src/db/schema';
 import type { RunningServer } from '../src/server';
 import { createShop, createUser } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
+import { TINY_PNG } from './pictures';
 
 let server: RunningServer;
 const PASSWORD = 'relay-coil-bench-5';
@@ -58,7 +59,7 @@ describe('caching', () => {
 
   it('revalidates pictures, and a signed-out browser revalidating gets 401', async () => {
     const c = await new Client(server.url).signIn('tech@demo.test');
-    const png = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(16)]);
+    const png = TINY_PNG;
     const up = await fetch(`${server.url}/api/uploads`, { method: 'POST', headers: { cookie: c.cookie, 'content-type': 'image/png' }, body: png });
     const { url } = (await up.json()) as { url: string };
     const first = await fetch(server.url + url, { headers: { cookie: c.cookie } });

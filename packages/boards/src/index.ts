@@ -13,3 +13,5 @@ export type * from './compose/types';
 export { renderBoardSvg, pinPosition, connectorPinPosition } from './compose/render';
 export { spiceParts, spiceValue } from './compose/spice-section';
 export * from './demo';
+export { composeCapture, type CaptureMeta, type ComposedCapture } from './compose/capture';
+export * from './sections/ports';

@@ -152,9 +152,12 @@ export interface Circuit {
 
 export const REFERENCE = '0';
 
-/** Normalises a node name: lower-case, "gnd" → "0". */
+/**
+ * Normalises a node name: trimmed, lower-case, "gnd" → "0". The one spelling of a net everywhere (the diagnosis
+ * engine, the expected table, the server's probe names): nothing else writes this rule again.
+ */
 export function normNode(n: string): string {
-  const l = n.toLowerCase();
+  const l = n.trim().toLowerCase();
   return l === 'gnd' ? REFERENCE : l;
 }
 

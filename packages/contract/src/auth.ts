@@ -3,6 +3,8 @@ import { z } from 'zod';
 export const roles = ['admin', 'lead', 'tech', 'trainee'] as const;
 export const roleSchema = z.enum(roles);
 export type Role = z.infer<typeof roleSchema>;
+/** The roles as screens and e-mails name them. */
+export const roleLabels: Record<Role, string> = { admin: 'Shop admin', lead: 'Lead', tech: 'Technician', trainee: 'Trainee' };
 
 export const signInRequest = z.object({
   email: z.string().trim().toLowerCase().email().max(254),

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { OUTDOOR_FAN_BOARD } from '@splitscope/boards';
 import { boardWords, modeWords } from './board-words';
-import { guidedOrderBinds, canLiftGuidedOrder } from './policy-bench';
+import { guidedOrderBinds, canLiftGuidedOrder, traineeLiftRefusal } from './policy';
 import { createReadingRequest } from './readings';
 import { dischargeGateRefusal, judgeBusVolts, needsDischargeGate } from './safety-gate';
 import { strikeReadingRequest } from './readings';
@@ -40,12 +40,19 @@ describe('the discharge gate', () => {
 });
 
 describe('guided order', () => {
-  it('binds a trainee until a lead lifts it, and binds nobody else', () => {
-    expect(guidedOrderBinds('trainee', null)).toBe(true);
-    expect(guidedOrderBinds('trainee', 'user-lead')).toBe(false);
-    expect(guidedOrderBinds('tech', null)).toBe(false);
+  it('binds a trainee until a lead lifts it for the job or for the trainee, and nobody else', () => {
+    expect(guidedOrderBinds('trainee', { job: false, trainee: false })).toBe(true);
+    expect(guidedOrderBinds('trainee', { job: true, trainee: false })).toBe(false);
+    expect(guidedOrderBinds('trainee', { job: false, trainee: true })).toBe(false);
+    expect(guidedOrderBinds('tech', { job: false, trainee: false })).toBe(false);
     expect(canLiftGuidedOrder('lead')).toBe(true);
+    expect(canLiftGuidedOrder('admin')).toBe(true);
+    expect(canLiftGuidedOrder('tech')).toBe(false);
     expect(canLiftGuidedOrder('trainee')).toBe(false);
+  });
+  it('is lifted across all jobs for trainees only', () => {
+    expect(traineeLiftRefusal('trainee')).toBeNull();
+    expect(traineeLiftRefusal('tech')).toMatch(/trainees only/);
   });
 });
 

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { idSchema, isoDateTime } from './common';
+import { shopCardSchema } from './shop';
 
 // ---------------------------------------------------------------------------------------------------------
 // Money. Amounts are integer cents everywhere (never a float). Quantities are integer hundredths ("1.5" h of
@@ -341,7 +342,7 @@ export type Sent = z.infer<typeof sentResponse>;
 // --- the customer page (no sign-in; everything scoped to the job of the link) --------------------------
 
 export const publicJobSchema = z.object({
-  shopName: z.string(),
+  shop: shopCardSchema,
   reference: z.string(),
   customerName: z.string(),
   board: z.string().nullable(),

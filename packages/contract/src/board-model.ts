@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { BOUNDS, boardNumber, voltsSchema } from './bounds';
 
 /**
  * Board-model documents: the data that turns a board picture into a workbench. Stored by the server (which owns
@@ -21,7 +22,10 @@ export const boardPartKindSchema = z.enum(boardPartKinds);
 export type BoardPartKind = z.infer<typeof boardPartKindSchema>;
 
 const id = z.string().min(1).max(64);
-const coord = z.number().finite();
+const coord = boardNumber(BOUNDS.boardCoordinate, 'a position on the board picture');
+/** A part value or parameter in SI units (ohms, farads, volts, a CTR): bounded so a slip such as 1e308 is refused. */
+const siValue = boardNumber(BOUNDS.boardValue, 'a part value or parameter');
+const pictureSize = boardNumber({ min: 1, max: BOUNDS.boardCoordinate.max }, 'the picture size');
 
 /**
  * The board's picture. A photo is an upload (PNG or JPEG, stored beside the document and referenced by id, never
@@ -30,8 +34,8 @@ const coord = z.number().finite();
  */
 export const boardPictureSchema = z.object({
   uploadId: id.optional(),
-  width: z.number().positive(),
-  height: z.number().positive(),
+  width: pictureSize,
+  height: pictureSize,
   units: z.enum(['mm', 'px']),
 });
 export type BoardPicture = z.infer<typeof boardPictureSchema>;
@@ -42,7 +46,7 @@ export const boardPriorsSchema = z.record(z.string().max(64), z.number().min(0).
 export const boardSectionRefSchema = z.object({
   id,
   template: z.string().min(1).max(64),
-  params: z.record(z.string(), z.union([z.number(), z.string(), z.boolean()])).default({}),
+  params: z.record(z.string(), z.union([siValue, z.string(), z.boolean()])).default({}),
   side: boardSideSchema,
   title: z.string().max(200),
   touchesBus: z.boolean().default(false),
@@ -57,19 +61,19 @@ export const boardPartSchema = z.object({
   kind: boardPartKindSchema,
   value: z.string().max(64),
   /** Nominal value in SI units where it has one (ohms, farads, volts for a zener/regulator). */
-  nominal: z.number().optional(),
+  nominal: siValue.optional(),
   /** Relative tolerance (0.05 = ±5 %). */
   tolerance: z.number().min(0).max(1).optional(),
   package: z.string().max(32),
   marking: z.string().max(64).optional(),
   x: coord,
   y: coord,
-  rotation: z.number().default(0),
+  rotation: boardNumber(BOUNDS.rotation, 'a rotation', 'degrees').default(0),
   section: z.string().max(64),
   side: boardSideSchema.optional(),
   pins: z.array(boardPartPinSchema).default([]),
   /** Extra part parameters, e.g. an opto-coupler's CTR or a motor's pulses per revolution. */
-  params: z.record(z.string(), z.union([z.number(), z.string()])).optional(),
+  params: z.record(z.string(), z.union([siValue, z.string()])).optional(),
   /** This part's own fault-mode priors, where the shop knows better than the kind's defaults. */
   priors: boardPriorsSchema.optional(),
 });
@@ -104,7 +108,7 @@ export const boardTestPointSchema = z.object({
   touchesBus: z.boolean(),
   side: boardSideSchema.optional(),
   /** Where the healthy band of the powered reading comes from, when a standard or datasheet fixes it. */
-  band: z.object({ low: z.number(), high: z.number(), source: z.string().max(400) }).optional(),
+  band: z.object({ low: voltsSchema, high: voltsSchema, source: z.string().max(400) }).optional(),
 });
 export type BoardTestPoint = z.infer<typeof boardTestPointSchema>;
 
@@ -112,11 +116,13 @@ export const boardFaultCodeSchema = z.object({
   code: z.string().min(1).max(32),
   meaning: z.string().max(400),
   suspectSections: z.array(z.string().max(64)),
+  /** Likelihood ratio per suspect section (the rule beside the contract's FAULT_CODE_WEIGHT); absent sections take the default. */
+  weights: z.record(z.string().max(64), z.number().min(1).max(50)).optional(),
 });
 
 export const boardMotorSchema = z.object({
   connector: z.string().max(32).optional(),
-  pulsesPerRevolution: z.number().int().positive(),
+  pulsesPerRevolution: boardNumber(BOUNDS.pulsesPerRevolution, 'pulses per revolution').int(),
   /** Netlist elements that model the off-board motor; lifted (unplugged) for unpowered readings. */
   elements: z.array(z.string().max(32)).default([]),
   note: z.string().max(400).optional(),
@@ -136,7 +142,7 @@ export const boardModelSchema = z.object({
   /** The composed (or pasted) SPICE-subset netlist. */
   netlist: z.string().min(1).max(500_000),
   /** Default .param values used for powered readings (e.g. FAN_ON, DUTY). */
-  params: z.record(z.string(), z.number()).default({}),
+  params: z.record(z.string(), siValue).default({}),
   parts: z.array(boardPartSchema),
   nets: z.array(boardNetSchema),
   connectors: z.array(boardConnectorSchema).default([]),

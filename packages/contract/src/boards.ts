@@ -39,6 +39,8 @@ export const faultCodeSchema = z.object({
   description: z.string().nullable(),
   /** Sections of the board the code points at (section ids of the board model). */
   sections: z.array(z.string()),
+  /** Per suspect section, how much more likely the code is when the fault is there (the rule beside FAULT_CODE_WEIGHT). */
+  weights: z.record(z.string(), z.number()).default({}),
 });
 export type FaultCode = z.infer<typeof faultCodeSchema>;
 
@@ -90,11 +92,28 @@ export const faultCodeListQuery = z.object({ boardId: idSchema.optional() });
 export const faultCodeListResponse = z.object({ items: z.array(faultCodeSchema) });
 export type FaultCodeList = z.infer<typeof faultCodeListResponse>;
 
+const faultCodeWeights = z.record(z.string().trim().min(1).max(50), z.number({ error: 'Weight must be a number' }).min(1, { error: 'A weight is at least 1 (1 = no steer)' }).max(50, { error: 'A weight is at most 50' }));
+
 export const createFaultCodeRequest = z.object({
   boardId: idSchema.nullable().optional(),
   code: z.string().trim().min(1).max(20),
   title: z.string().trim().min(1).max(200),
   description: optionalText(4000),
   sections: z.array(z.string().trim().min(1).max(50)).max(20).default([]),
+  weights: faultCodeWeights.default({}),
 });
 export type CreateFaultCodeRequest = z.input<typeof createFaultCodeRequest>;
+
+/** The shop edits a code's words and where it points; the board it belongs to stays. */
+export const updateFaultCodeRequest = createFaultCodeRequest.omit({ boardId: true });
+export type UpdateFaultCodeRequest = z.input<typeof updateFaultCodeRequest>;
+
+/**
+ * How a fault code steers the diagnosis (the rule, in one place). A unit that shows code K is evidence; for a
+ * part in a suspect section s of K, the shop's weight w_s is the likelihood ratio P(K | the fault is in s) /
+ * P(K | the fault is elsewhere), and the part's fault-mode priors are updated by the odds form of Bayes' rule,
+ * posterior odds = w_s × prior odds (Pearl 1988, "Probabilistic Reasoning in Intelligent Systems", §2.1.2; from
+ * memory). A section without a weight takes FAULT_CODE_WEIGHT (5, from memory: a code that names a section makes a
+ * fault there about five times likelier than one elsewhere). Every fault mode of each part in a suspect section moves; parts elsewhere keep their priors. Weights run from 1 (no steer) to 50.
+ */
+export const FAULT_CODE_WEIGHT = 5;

@@ -15,6 +15,17 @@ export const BOUNDS = {
   counter: { min: 1, max: 2_147_483_647 },
   /** Dates a person or a bench can mean: the shop's records start after 2000 and plans end before 2100. */
   years: { min: 2000, max: 2099 },
+  /**
+   * A board model's part values and parameters in SI units (ohms, farads, volts, a CTR, a .param value): the
+   * largest part value on these boards is a resistor in the megohms, so a gigohm either way leaves room (common practice).
+   */
+  boardValue: { min: -1e9, max: 1e9 },
+  /** Positions and picture sizes on a board picture, in mm or px: a 100-megapixel photo is about 12,000 px wide. */
+  boardCoordinate: { min: -20_000, max: 20_000 },
+  /** A part's rotation on the picture, in degrees. */
+  rotation: { min: -360, max: 360 },
+  /** Motor speed-feedback pulses per revolution: fan motors give a handful (common practice). */
+  pulsesPerRevolution: { min: 1, max: 1000 },
 } as const;
 
 /** A DC voltage as the meter shows it, in volts. */
@@ -40,4 +51,14 @@ export function yearInBounds(iso: string): boolean {
   if (!Number.isFinite(t)) return false;
   const y = new Date(t).getUTCFullYear();
   return y >= BOUNDS.years.min && y <= BOUNDS.years.max;
+}
+
+/** A bounded number of a board model, refused in words when it is not finite or out of its range. */
+export function boardNumber(range: { min: number; max: number }, what: string, unit = '') {
+  const u = unit ? ` ${unit}` : '';
+  return z
+    .number()
+    .refine(Number.isFinite, `${what} must be a finite number`)
+    .min(range.min, `${what} must be at least ${range.min}${u}`)
+    .max(range.max, `${what} must be at most ${range.max}${u}`);
 }

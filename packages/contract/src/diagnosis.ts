@@ -27,6 +27,8 @@ export const diagnosisCandidateSchema = z.object({
   faults: z.array(faultRef),
   probability: z.number(),
   evidence: z.array(diagnosisEvidenceSchema),
+  /** Still being checked (a fault pair, or a test outside the board's dictionary): its place is provisional. */
+  checking: z.literal(true).optional(),
 });
 
 export const diagnosisPartSchema = z.object({
@@ -58,6 +60,25 @@ export const nextTestSchema = z.object({
   liftedLabels: z.array(z.string()).optional(),
 });
 
+/**
+ * A fault-mode prior this job moved before weighing any reading, and what moved it: the unit's fault code, the
+ * shop's verified history of the board model (or of the part kind on its other models), readings that agree with
+ * known-good boards. `before` is the board model's prior, `after` the one the ranking used.
+ */
+export const priorSourceSchema = z.enum(['fault-code', 'history', 'history-kind', 'reference']);
+export type PriorSource = z.infer<typeof priorSourceSchema>;
+export const priorReasonSchema = z.object({
+  part: z.string(),
+  mode: z.string(),
+  designator: z.string(),
+  /** "C10 capacitor — shorted". */
+  label: z.string(),
+  before: z.number(),
+  after: z.number(),
+  steps: z.array(z.object({ source: priorSourceSchema, note: z.string().optional(), factor: z.number().optional(), prior: z.number().optional(), before: z.number(), after: z.number() })),
+});
+export type PriorReason = z.infer<typeof priorReasonSchema>;
+
 /** The output of `circuit diagnose` for a job's current readings, plus where it came from. */
 export const diagnosisResponse = z.object({
   jobId: idSchema,
@@ -71,6 +92,12 @@ export const diagnosisResponse = z.object({
   nextTests: z.array(nextTestSchema),
   /** Entropy (bits) of the candidate posterior. */
   entropy: z.number(),
+  /** Priors this job moved, with their reasons (largest move first); empty when none moved. */
+  priors: z.array(priorReasonSchema).default([]),
+  /** The board's expected values for every fault are still being computed: parts done of the total. */
+  preparing: z.object({ partsDone: z.number().int(), partsTotal: z.number().int() }).optional(),
+  /** Candidates still being checked (mostly fault pairs the readings call for); the ranking updates when they arrive. */
+  checking: z.object({ candidates: z.number().int() }).optional(),
 });
 export type Diagnosis = z.infer<typeof diagnosisResponse>;
 
@@ -124,6 +151,7 @@ export function readableDiagnosis(stored: unknown): { output: Diagnosis; unreada
     minimalDiagnoses: list('minimalDiagnoses', z.array(z.string())),
     nextTests: list('nextTests', nextTestSchema),
     entropy: one('entropy', z.number(), 0),
+    priors: list('priors', priorReasonSchema),
   };
   return { output, unreadable };
 }

@@ -76,6 +76,8 @@ export const jobDetailSchema = jobSchema.extend({
   allowedTransitions: z.array(jobStatusSchema),
   /** Whether the signed-in user takes readings on this job in guided order only (policy: guidedOrderBinds). */
   guidedOrderRequired: z.boolean(),
+  /** When a trainee is assigned: whether a lead lifted guided order on all of that trainee's jobs; null otherwise. */
+  assigneeGuidedLifted: z.boolean().nullable(),
   reviews: z.array(reviewSchema),
   latestSnapshot: diagnosisSnapshotSchema.nullable(),
 });

@@ -102,6 +102,31 @@ export function readingRefusal(role: Role, phase: ReadingPhase, assignedToThem: 
   return null;
 }
 
+/** Roles that may lift guided order for a trainee (on one job, or on all of a trainee's jobs): their reviewers. */
+export const guidedLiftRoles: readonly Role[] = ROLES.reviewers;
+
+/** Where guided order has been lifted: on this job, and/or for the trainee across all their jobs. */
+export interface GuidedLift {
+  job: boolean;
+  trainee: boolean;
+}
+
+/**
+ * Whether readings must follow the engine's guided order for this person: a trainee works in guided order only,
+ * until a lead lifts it for the job or for that trainee on all their jobs. Everyone else works freely.
+ */
+export function guidedOrderBinds(role: Role, lift: GuidedLift): boolean {
+  return role === 'trainee' && !lift.job && !lift.trainee;
+}
+
+/** Whether this person may lift (or restore) guided order, for a job or for a trainee. */
+export const canLiftGuidedOrder = (role: Role | null | undefined): boolean => hasRole(role, guidedLiftRoles);
+
+/** Why guided order cannot be lifted for this person, or null when it can: only trainees work under it. */
+export function traineeLiftRefusal(targetRole: Role): string | null {
+  return targetRole === 'trainee' ? null : 'Guided order binds trainees only: this person already works without it';
+}
+
 /** A part may be proposed for review from a received job too: proposing starts the diagnosis first. */
 export function canPropose(status: JobStatus, role: Role | null | undefined): boolean {
   if (mayMove(status, 'awaiting-review', role, 'patch')) return true;

@@ -32,6 +32,9 @@ export const meterValueSchema = z.union([z.literal('OL'), z.number().refine(Numb
   error: `must be a number in SI units (V from ${BOUNDS.volts.min} to ${BOUNDS.volts.max}, ohm up to ${BOUNDS.ohms.max}) or "OL"`,
 });
 
+/** The unit a meter mode reads in: volts for DC V and diode, ohms for Ω and continuity. */
+export const unitOf = (mode: MeterModeName): 'V' | 'ohm' => (mode === 'dcv' || mode === 'diode' ? 'V' : 'ohm');
+
 /** The range of the mode's unit: volts for DC V and diode, ohms for Ω and continuity. */
 const valueForMode = (mode: MeterModeName) => (mode === 'dcv' || mode === 'diode' ? voltsSchema : ohmsSchema);
 export type MeterValue = z.infer<typeof meterValueSchema>;

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { idSchema, isoDateTime } from './common';
 import { jobStatusSchema } from './jobs';
+import { shopCardSchema } from './shop';
 import { readingSchema, type ReadingPhase } from './readings';
 import { repairSchema } from './repairs';
 
@@ -22,7 +23,7 @@ export type ReportReading = z.infer<typeof reportReadingSchema>;
 export const repairReportSchema = z.object({
   jobId: idSchema,
   jobNumber: z.number().int().positive(),
-  shopName: z.string(),
+  shop: shopCardSchema,
   customer: z.object({ name: z.string(), company: z.string().nullable() }),
   unit: z.string(),
   serial: z.string().nullable(),

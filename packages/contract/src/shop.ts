@@ -59,6 +59,28 @@ export const shopSchema = z.object({
 });
 export type Shop = z.infer<typeof shopSchema>;
 
+/** The shop as its customers see it, on the report PDF, the quote and invoice e-mails and the customer page. */
+export const shopCardSchema = z.object({
+  name: z.string(),
+  address: z.string().nullable(),
+  phone: z.string().nullable(),
+  email: z.string().nullable(),
+  taxNumber: z.string().nullable(),
+  /** Whether the shop has a logo (the customer page fetches it through its link). */
+  hasLogo: z.boolean(),
+});
+export type ShopCard = z.infer<typeof shopCardSchema>;
+
+/** The card's contact lines in reading order: the address (one line per line typed), phone, e-mail, tax number. */
+export function shopCardLines(s: ShopCard): string[] {
+  return [
+    ...(s.address ?? '').split(/\r?\n/).map((l) => l.trim()).filter(Boolean),
+    ...(s.phone ? [`Phone ${s.phone}`] : []),
+    ...(s.email ? [s.email] : []),
+    ...(s.taxNumber ? [`Tax number ${s.taxNumber}`] : []),
+  ];
+}
+
 /** Admin only. The logo is an upload of the shop (PNG or JPEG); null removes it. */
 export const updateShopRequest = shopDetailsFields
   .partial()

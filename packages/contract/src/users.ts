@@ -10,6 +10,8 @@ export const shopMemberSchema = z.object({
   role: roleSchema,
   /** Set when an admin deactivated the person: they cannot sign in. */
   deactivatedAt: isoDateTime.nullable(),
+  /** For a trainee: a lead lifted guided order on all their jobs (policy: guidedOrderBinds). False for everyone else. */
+  guidedLifted: z.boolean(),
   createdAt: isoDateTime,
 });
 export type ShopMember = z.infer<typeof shopMemberSchema>;
@@ -22,6 +24,10 @@ export const updateUserRequest = z
   .object({ role: roleSchema.optional(), active: z.boolean().optional() })
   .refine((o) => o.role !== undefined || o.active !== undefined, 'nothing to change');
 export type UpdateUserRequest = z.infer<typeof updateUserRequest>;
+
+/** Leads and admins: lift (true) or restore (false) guided order for a trainee on all of that trainee's jobs. */
+export const traineeGuidedOrderRequest = z.object({ lifted: z.boolean({ error: 'Say whether guided order is lifted (true) or restored (false)' }) });
+export type TraineeGuidedOrderRequest = z.infer<typeof traineeGuidedOrderRequest>;
 
 /** Admin only: invite someone to the shop; the link goes to them by e-mail and is also in the answer, once. */
 export const createInvitationRequest = z.object({

@@ -13,6 +13,8 @@ export { logLikelihood as readingLogLikelihood, consistent as readingConsistent,
 export { groupLogLikelihood, broadLogLikelihood, isRepeated } from './electrical/repeats.js';
 export type { RepeatedReading, ObservedValue } from './electrical/repeats.js';
 export { isSolveFailure } from './electrical/meter.js';
+export { partAloneCircuit, partAlonePrediction, partAloneRefusal, partAloneTable } from './electrical/part-alone.js';
+export type { PartAloneRow } from './electrical/part-alone.js';
 export { findHazards, HAZARD_VOLTS } from './electrical/hazard.js';
 export type { Hazards } from './electrical/hazard.js';
 export { KIND_WORDS, METER_FUNCTION, modeWords, defaultDesignator, probePoint } from './electrical/words.js';
@@ -22,7 +24,25 @@ export type { FaultWords, Unexplained } from './electrical/report.js';
 export type { Prediction, ReadingValue, MeterMode, Verdict, Band } from './electrical/noise.js';
 export { candidateTests, testCost, instruction, COST, HAZARD_CAUTION } from './electrical/nexttests.js';
 export type { BenchState, Hazard } from './electrical/nexttests.js';
+export { historyAdjustments, HISTORY_WEIGHT, KIND_WEIGHT } from './electrical/history.js';
+export { referenceAdjustments, REFERENCE_OK_FACTOR, MIN_REFERENCE_BOARDS } from './electrical/references.js';
+export type { ReferenceBand } from './electrical/references.js';
+export type { FailureHistory, FailureCount } from './electrical/history.js';
 export { CaseError, validateCaseShape } from './electrical/case.js';
+export {
+  DICTIONARY_FORMAT,
+  buildDictionary,
+  dictionaryTests,
+  attachDictionary,
+  takeWantedPairs,
+  computePairs,
+  addPairs,
+  toBytes,
+  fromBytes,
+  encodePrediction,
+  decodePrediction,
+} from './electrical/dictionary.js';
+export type { FaultDictionary, PairColumn, BuildOptions } from './electrical/dictionary.js';
 export { Diagnoser, createDiagnoser, diagnoseCase, validateCase } from './electrical/diagnoser.js';
 export type {
   DiagnosisCase,
@@ -36,4 +56,5 @@ export type {
   NextTestReport,
   UpdateOptions,
   BoardInput,
+  PriorReport,
 } from './electrical/case.js';

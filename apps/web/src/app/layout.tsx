@@ -1,10 +1,17 @@
 import { Suspense } from 'react';
 import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
-import { hasRole, ROLES } from '@splitscope/contract';
+import { hasRole, roleLabels, ROLES } from '@splitscope/contract';
 import { useMe } from '@/lib/api/me';
 import { useSignOut } from '@/features/auth/api/sign-in';
 
-const roleLabel = { admin: 'Shop admin', lead: 'Lead', tech: 'Technician', trainee: 'Trainee' } as const;
+
+/** A link's shorter words below 1280 px, so the admin's row of links fits at 1024 px. */
+const Short = ({ short, long }: { short: string; long: string }) => (
+  <>
+    <span className="xl:hidden">{short}</span>
+    <span className="hidden xl:inline">{long}</span>
+  </>
+);
 
 /** The signed-in frame: header with navigation; sends signed-out visitors to the sign-in page. */
 export function AppLayout() {
@@ -32,6 +39,9 @@ export function AppLayout() {
           <NavLink to="/jobs" end className={link}>
             Jobs
           </NavLink>
+          <NavLink to="/customers" className={link}>
+            Customers
+          </NavLink>
           {hasRole(me.data.role, ROLES.reviewers) && (
             <NavLink to="/review" className={link}>
               Review
@@ -39,20 +49,20 @@ export function AppLayout() {
           )}
           {hasRole(me.data.role, ROLES.reviewers) && (
             <NavLink to="/boards" className={link}>
-              Board library
+              <Short short="Boards" long="Board library" />
             </NavLink>
           )}
           <NavLink to="/references" className={link}>
-            Bench references
+            <Short short="References" long="Bench references" />
           </NavLink>
           {hasRole(me.data.role, ROLES.admins) && <NavLink to="/people" className={link}>People</NavLink>}
           {hasRole(me.data.role, ROLES.admins) && <NavLink to="/shop" className={link}>Shop</NavLink>}
           {hasRole(me.data.role, ROLES.admins) && <NavLink to="/billing/settings" className={link}>Billing</NavLink>}
-          {hasRole(me.data.role, ROLES.admins) && <NavLink to="/dev/mail" className={link}>Mail outbox</NavLink>}
+          {hasRole(me.data.role, ROLES.admins) && <NavLink to="/dev/mail" className={link}><Short short="Mail" long="Mail outbox" /></NavLink>}
         </nav>
         <NavLink to="/account" className="ml-auto flex min-h-11 items-center whitespace-nowrap rounded-md px-2 text-sm hover:bg-white/10" title={`${me.data.name} · ${me.data.shopName}: your account`}>
           <span className="hidden xl:inline">{me.data.name} · </span>
-          {roleLabel[me.data.role]}
+          {roleLabels[me.data.role]}
           {/* The shop's name only where there is room: on a tablet the main links come first. */}
           <span className="hidden 2xl:inline"> · {me.data.shopName}</span>
         </NavLink>

@@ -15,6 +15,7 @@ const RepairPage = lazy(() => import('@/features/repair/components/repair-page')
 const ReportPage = lazy(() => import('@/features/report/components/report-page'));
 const BoardLibraryPage = lazy(() => import('@/features/board-library/components/board-library-page'));
 const BoardEditorPage = lazy(() => import('@/features/board-library/components/board-editor-page'));
+const BoardCapturePage = lazy(() => import('@/features/board-capture/components/capture-page'));
 const ReferencesPage = lazy(() => import('@/features/references/components/references-page'));
 const CustomerPage = lazy(() => import('@/features/customer-page/components/customer-page'));
 const MailOutboxPage = lazy(() => import('@/features/mail-outbox/components/mail-outbox-page'));
@@ -22,14 +23,17 @@ const JobBillingPage = lazy(() => import('@/features/billing/components/job-bill
 const FirstRunPage = lazy(() => import('@/features/shop/components/first-run-page'));
 const ShopPage = lazy(() => import('@/features/shop/components/shop-page'));
 const PeoplePage = lazy(() => import('@/features/people/components/people-page'));
+const CustomersPage = lazy(() => import('@/features/customers/components/customers-page'));
+const CustomerDetailPage = lazy(() => import('@/features/customers/components/customer-detail-page'));
 const AccountPage = lazy(() => import('@/features/account/components/account-page'));
-const InvitationPage = lazy(() => import('@/features/auth/components/invitation-page'));
+const PasswordLinkPage = lazy(() => import('@/features/auth/components/password-link-page'));
 const ForgotPasswordPage = lazy(() => import('@/features/auth/components/forgot-password-page'));
-const ResetPasswordPage = lazy(() => import('@/features/auth/components/reset-password-page'));
 const SerialLookupPage = lazy(() => import('@/features/board-history/components/board-history-page'));
 const JobHistoryPage = lazy(async () => ({ default: (await import('@/features/board-history/components/board-history-page')).JobHistoryPage }));
 const ServiceTermsPage = lazy(() => import('@/features/service-terms/components/service-terms-page'));
 const PartsBinPage = lazy(() => import('@/features/parts-bin/components/parts-bin-page'));
+const MeterImportPage = lazy(() => import('@/features/meter-import/components/meter-import-page'));
+const StatsPage = lazy(() => import('@/features/shop-stats/components/stats-page'));
 const BillingSettingsPage = lazy(() => import('@/features/billing/components/billing-settings-page'));
 
 const loading = <p className="p-6">Loading…</p>;
@@ -53,9 +57,9 @@ export const router = createBrowserRouter([
     children: [
   { path: '/sign-in', element: <SignInPage /> },
   { path: '/first-run', element: page(<FirstRunPage />) },
-  { path: '/invitation/:token', element: page(<InvitationPage />) },
+  { path: '/invitation/:token', element: page(<PasswordLinkPage link="invitation" />) },
   { path: '/forgot-password', element: page(<ForgotPasswordPage />) },
-  { path: '/reset-password/:token', element: page(<ResetPasswordPage />) },
+  { path: '/reset-password/:token', element: page(<PasswordLinkPage link="reset" />) },
   { path: '/dev/perf', lazy: async () => ({ Component: (await import('@/features/perf-lab/components/perf-lab-page')).default }) },
   { path: '/c/:token', element: <Suspense fallback={<p className="p-6">Loading…</p>}><CustomerPage /></Suspense> },
   {
@@ -70,14 +74,19 @@ export const router = createBrowserRouter([
       { path: 'jobs/:id/report', element: <ReportPage /> },
       { path: 'jobs/:id/billing', element: <JobBillingPage /> },
       { path: 'jobs/:id/history', element: <JobHistoryPage /> },
+      { path: 'jobs/:id/import', element: <MeterImportPage /> },
       { path: 'history', element: <SerialLookupPage /> },
       { path: 'parts-bin', element: <PartsBinPage /> },
+      { path: 'stats', element: <StatsPage /> },
       { path: 'review', element: <ReviewQueuePage /> },
       { path: 'boards', element: <BoardLibraryPage /> },
       { path: 'boards/:id', element: <BoardEditorPage /> },
+      { path: 'boards/:id/capture', element: <BoardCapturePage /> },
       { path: 'references', element: <ReferencesPage /> },
       { path: 'dev/mail', element: <MailOutboxPage /> },
       { path: 'billing/settings', element: <BillingSettingsPage /> },
+      { path: 'customers', element: <CustomersPage /> },
+      { path: 'customers/:id', element: <CustomerDetailPage /> },
       { path: 'people', element: <PeoplePage /> },
       { path: 'shop', element: <ShopPage /> },
       { path: 'shop/terms', element: <ServiceTermsPage /> },

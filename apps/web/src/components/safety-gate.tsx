@@ -1,6 +1,7 @@
 import { judgeBusVolts } from '@splitscope/contract';
 import { useId, useState, type FormEvent } from 'react';
 import { Caution } from '@/components/ui/caution';
+import { formSubmit } from '@/lib/form-submit';
 
 export interface GateFigures {
   /** Safe threshold in volts and the standard it comes from. */
@@ -62,7 +63,7 @@ export function SafetyGate({
           ))}
         </ul>
       </Caution>
-      <form onSubmit={submit} className="space-y-3" noValidate>
+      <form onSubmit={formSubmit(submit)} className="space-y-3" noValidate>
         <label className="flex min-h-11 items-center gap-3">
           <input type="checkbox" className="h-6 w-6" checked={unplugged} onChange={(e) => setUnplugged(e.target.checked)} />
           <span>The board is unplugged from mains and I have waited the bleed time</span>

@@ -1,4 +1,4 @@
-import type { MeterModeName } from '@splitscope/contract';
+import { unitOf, type MeterModeName } from '@splitscope/contract';
 
 // The board library's unit parser brings mathjs, so it stays out of the first load. The bench preloads it when
 // it opens: a reading typed after the network drops must still parse, and a lazy chunk cannot load offline.
@@ -20,7 +20,7 @@ export async function parseTyped(text: string, mode: MeterModeName): Promise<{ o
     if (NO_BEEP.test(t)) return { ok: true, value: 'OL', beep: false };
   }
   const { parseReadingInput } = await preloadReadingParser();
-  const r = parseReadingInput(text, mode === 'dcv' || mode === 'diode' ? 'V' : 'ohm');
+  const r = parseReadingInput(text, unitOf(mode));
   if (!r.ok) return { ok: false, error: mode === 'continuity' ? `${r.error}. On continuity type beep (b) or no beep (n).` : r.error };
   return { ok: true, value: r.value };
 }

@@ -4,12 +4,13 @@
  * are computed from the result by `@splitscope/boards/readings`.
  */
 import { BOARD_MODEL_SCHEMA_VERSION, boardModelSchema, type BoardModel, type BoardSide } from '@splitscope/contract';
+import { formatSi } from '../references/decode-marking';
 import { MODELS, SUBCKTS } from '../sections/library';
 import { TEMPLATES } from '../sections/templates';
 import type { NetInfo, SectionTemplate, TemplatePart, TestPointSuggestion } from '../sections/types';
 import { renderBoardSvg } from './render';
 import { spiceParts } from './spice-section';
-import type { BoardSpec, Region, SectionInstance, TestPointChoice } from './types';
+import type { BoardSpec, Region, SectionInstance, TemplateSectionInstance, TestPointChoice } from './types';
 
 /** What a section instance resolves to before it is placed on the board. */
 interface Resolved {
@@ -48,11 +49,44 @@ function resolve(inst: SectionInstance, templates: Record<string, SectionTemplat
   }
   const template = templates[inst.template];
   if (!template) throw new ComposeError(`section "${inst.id}": unknown template "${inst.template}" (known: ${Object.keys(templates).join(', ')})`);
-  const out = template({ id: inst.id, base: inst.base, nets: inst.nets ?? {}, params: inst.params ?? {} });
+  const out = withValues(inst, template({ id: inst.id, base: inst.base, nets: inst.nets ?? {}, params: inst.params ?? {} }));
   return {
     ...common, title: inst.title ?? out.title, template: out.template, params: inst.params ?? {}, side: out.side, touchesBus: out.touchesBus,
     fragment: out.netlist, parts: out.parts, nets: out.nets, suggestions: out.testPoints, sourceParams: out.params, uses: out.uses,
   };
+}
+
+/** Puts the values read off the board into a template's resistors and capacitors (netlist line and part list). */
+function withValues(inst: TemplateSectionInstance, out: ReturnType<SectionTemplate>): ReturnType<SectionTemplate> {
+  const values = inst.values ?? {};
+  const markings = inst.markings ?? {};
+  for (const d of Object.keys(values)) {
+    const part = out.parts.find((p) => p.designator === d);
+    if (!part) throw new ComposeError(`section "${inst.id}": no part ${d} in the ${out.title} template (its parts: ${out.parts.map((p) => p.designator).join(', ')})`);
+    const isR = part.kind === 'resistor';
+    if (!isR && part.kind !== 'ceramic-capacitor' && part.kind !== 'electrolytic-capacitor') {
+      throw new ComposeError(`section "${inst.id}": ${d} is a ${part.kind}; only resistor and capacitor values are typed in`);
+    }
+    const v = values[d]!;
+    if (!(v > 0) || !Number.isFinite(v)) throw new ComposeError(`section "${inst.id}": ${d} needs a positive value, got ${v}`);
+  }
+  if (!Object.keys(values).length && !Object.keys(markings).length) return out;
+  const parts = out.parts.map((p) => {
+    const v = values[p.designator];
+    const m = markings[p.designator];
+    if (v === undefined && m === undefined) return p;
+    const unit = p.kind === 'resistor' ? 'Ω' : 'F';
+    return { ...p, ...(v !== undefined ? { nominal: v, value: formatSi(v, unit).replace(' ', '') } : {}), ...(m ? { marking: m.slice(0, 64) } : {}) };
+  });
+  const netlist = out.netlist
+    .split('\n')
+    .map((line) => {
+      const tokens = line.trim().split(/\s+/);
+      const v = values[tokens[0] ?? ''];
+      return v !== undefined && tokens.length === 4 ? [...tokens.slice(0, 3), String(v)].join(' ') : line;
+    })
+    .join('\n');
+  return { ...out, parts, netlist };
 }
 
 const CELL_W = 86;

@@ -27,6 +27,12 @@ export interface TemplateSectionInstance extends SectionBase {
   /** Board net names for the template's ports ({ out: 'v15', hotGnd: '0' }). */
   nets?: Record<string, string>;
   params?: Record<string, ParamValue>;
+  /**
+   * Part values read off the board (designator → ohms or farads), replacing the template's defaults for resistors
+   * and capacitors; `markings` keeps what was printed on each part, as typed.
+   */
+  values?: Record<string, number>;
+  markings?: Record<string, string>;
 }
 
 /**

@@ -43,11 +43,11 @@ export const INDOOR_FAN_SPEC: BoardSpec = {
     ] },
   ],
   faultCodes: [
-    { code: 'E1', meaning: 'Indoor fan motor: no speed pulses within 30 s of the start command (invented code)', suspectSections: ['fan-switch', 'speed-fb', 'speed-cmd'] },
+    { code: 'E1', meaning: 'Indoor fan motor: no speed pulses within 30 s of the start command (invented code)', suspectSections: ['fan-switch', 'speed-fb', 'speed-cmd'], weights: { 'fan-switch': 8, 'speed-fb': 3, 'speed-cmd': 3 } },
     { code: 'E2', meaning: 'Room thermistor open or shorted (invented code)', suspectSections: ['room-th'] },
     { code: 'E3', meaning: 'Indoor coil thermistor open or shorted (invented code)', suspectSections: ['coil-th'] },
     { code: 'E5', meaning: 'Indoor fan speed does not follow the command (invented code)', suspectSections: ['speed-cmd', 'speed-fb'] },
-    { code: 'E8', meaning: 'Controller or motor control supply low (invented code)', suspectSections: ['reg15', 'reg5'] },
+    { code: 'E8', meaning: 'Controller or motor control supply low (invented code)', suspectSections: ['reg15', 'reg5'], weights: { reg15: 8, reg5: 4 } },
   ],
   motor: { connector: 'CN5', pulsesPerRevolution: 4, elements: ['VMFG501', 'RMFG501', 'QMFG501'], note: 'Invented 8-pole demo motor: FG toggles once per electrical cycle, 4 pulses per revolution' },
   cautions: [

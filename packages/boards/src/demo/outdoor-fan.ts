@@ -61,8 +61,8 @@ export const OUTDOOR_FAN_SPEC: BoardSpec = {
     ] },
   ],
   faultCodes: [
-    { code: 'F7', meaning: 'Outdoor fan motor: no speed feedback after start command (invented code)', suspectSections: ['fan-switch', 'feedback', 'speed-cmd'] },
-    { code: 'F3', meaning: 'DC bus voltage out of range (invented code)', suspectSections: ['bus'] },
+    { code: 'F7', meaning: 'Outdoor fan motor: no speed feedback after start command (invented code)', suspectSections: ['fan-switch', 'feedback', 'speed-cmd'], weights: { 'fan-switch': 8, feedback: 3, 'speed-cmd': 3 } },
+    { code: 'F3', meaning: 'DC bus voltage out of range (invented code)', suspectSections: ['bus'], weights: { bus: 10 } },
     { code: 'F9', meaning: 'Outdoor coil thermistor open or shorted (invented code)', suspectSections: ['logic'] },
   ],
   motor: { connector: 'CN3', pulsesPerRevolution: 4, elements: ['RLOAD', 'R13'], note: 'Pulses per revolution of the invented demo motor' },

@@ -1,6 +1,7 @@
 // The scripted technician: takes the readings the symptom calls for, then each round the engine's first next test,
 // measured on the faulted board through the bench meter (ngspice), until the engine's top candidate reaches 0.9,
 // it offers no test, or the round limit. Everything the engine is given goes through its public API.
+import { normNode } from '@splitscope/circuit';
 import { createDiagnoser, type CaseReading, type DiagnosisOutput, type Diagnoser } from '../../src/index';
 import { partKinds } from './board';
 import type { BenchCase, TrueFault } from './cases';
@@ -166,8 +167,7 @@ function score(r: CaseResult, out: DiagnosisOutput, c: BenchCase) {
 function toProbe(c: BenchCase, t: DiagnosisOutput['nextTests'][number]): Probe {
   const net = (n: string) => {
     const byLabel = c.board.testPoints.find((p) => p.label === n)?.net;
-    const v = (byLabel ?? n).toLowerCase();
-    return v === 'gnd' ? '0' : v;
+    return normNode(byLabel ?? n);
   };
   return { mode: t.mode, red: net(t.red), black: net(t.black), power: t.power, lifted: t.lifted ?? [] };
 }

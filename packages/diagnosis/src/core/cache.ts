@@ -21,7 +21,26 @@ export class PredictionCache<T, P> {
   private readonly testKeys = new WeakMap<object, string>();
   hits = 0;
   misses = 0;
+  /**
+   * Stored predictions consulted before the model is asked (a fault dictionary, electrical/dictionary.ts):
+   * (fault-set key, test key) → prediction, or undefined when the store does not hold it.
+   */
+  source?: (faultKey: string, testKey: string) => P | undefined;
+  /**
+   * Fault sets the store does not hold (pairs; single faults on a test outside it) are answered with
+   * `placeholder` (a prediction `predicted()` says no to, so the reading counts as neutral for that candidate)
+   * and listed in `wanted` for a background run, instead of being simulated while the caller waits. The healthy
+   * board is always simulated. Absent: everything is simulated at once.
+   */
+  defer?: { placeholder: P; wanted: Map<string, { faults: SubFault[]; tests: Map<string, T> }> };
   constructor(private readonly model: SystemModel<T, unknown, P>) {}
+
+  /** Store a prediction computed elsewhere (a background run). */
+  put(faultKey: string, testKey: string, p: P): void {
+    let inner = this.map.get(faultKey);
+    if (!inner) this.map.set(faultKey, (inner = new Map()));
+    inner.set(testKey, p);
+  }
 
   private keyOf(t: T): string {
     if (typeof t !== 'object' || t === null) return this.model.testKey(t);
@@ -58,8 +77,17 @@ export class PredictionCache<T, P> {
     for (let i = 0; i < tests.length; i++) {
       const t = tests[i] as T;
       const k = this.keyOf(t);
-      const p = inner.get(k);
-      if (p === undefined) {
+      let p = inner.get(k);
+      if (p === undefined && this.source) {
+        p = this.source(fk, k);
+        if (p !== undefined) inner.set(k, p);
+      }
+      if (p === undefined && this.defer && faults.length > 0) {
+        let w = this.defer.wanted.get(fk);
+        if (!w) this.defer.wanted.set(fk, (w = { faults: faults.slice(), tests: new Map() }));
+        w.tests.set(k, t);
+        out[i] = this.defer.placeholder;
+      } else if (p === undefined) {
         (missing ??= []).push(t);
         (missingIdx ??= []).push(i);
       } else {

@@ -26,6 +26,7 @@
  */
 import { PredictionCache } from './cache.js';
 import { choicesOf, choiceSet, truncatedChoice, type ModeChoice } from './choices.js';
+import { adjustedChoices, type PriorAdjustment } from './priors.js';
 import { extendByConflicts, type ConflictOptions } from './conflicts.js';
 import { comboLogWeight, heaviest, logMarginal, logSumExp, scoreCandidate, type Scored } from './scoring.js';
 import type { CandidateEvidence, Combo, FaultRef, Observation, PartMarginal, Posterior, ScoredCandidate, SystemModel } from './types.js';
@@ -53,6 +54,8 @@ export interface DiagnoseOptions {
   unmodelledPrior?: number;
   /** Share of the broad density in a reading's likelihood under the unmodelled hypothesis (default 0.3). */
   unmodelledShare?: number;
+  /** Per-job prior adjustments (priors.ts); the model itself is not rebuilt. Reported in `priorChanges`. */
+  priors?: readonly PriorAdjustment[];
 }
 
 /** |ln LR| below this (nats, a factor of about 1.05) is reported as neutral evidence. */
@@ -83,7 +86,8 @@ export function diagnose<T, V, P>(
   const pairTopK = options.pairTopK ?? 12;
   const pairPoints = options.pairPoints ?? 2;
   const tests = observations.map((o) => o.test);
-  const choices = choicesOf(model);
+  const adjusted = adjustedChoices(model, choicesOf(model), options.priors ?? []);
+  const choices = adjusted.choices;
 
   // The healthy system first: its per-reading scores stand in for predictions a candidate cannot compute.
   const noFault = scoreCandidate(model, cache, choiceSet(), observations, tests);
@@ -155,7 +159,7 @@ export function diagnose<T, V, P>(
     });
     unmodelledLog = { logPrior: Math.log(pU / (1 - pU)), logLikelihood: ll };
   }
-  return buildPosterior(scored, observations.length, pairRule, generated, unmodelledLog, [...excluded]);
+  return { ...buildPosterior(scored, observations.length, pairRule, generated, unmodelledLog, [...excluded]), priorChanges: adjusted.changes };
 }
 
 function buildPosterior(

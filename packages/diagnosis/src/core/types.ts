@@ -10,6 +10,7 @@
  * scores a reading against a prediction (its noise model), says whether a reading lies within its band
  * (consistency, for minimal diagnoses) and discretises the predicted outcome of a test (for probing).
  */
+import type { PriorChange } from './priors.js';
 
 export interface SweepPoint {
   /** Parameter value of this sub-mode (model-defined meaning: ohms, a multiplier, an output value ...). */
@@ -146,4 +147,6 @@ export interface Posterior {
   unmodelled?: { probability: number; logLikelihood: number };
   /** Readings (indices) left out of scoring because the healthy system's prediction could not be computed. */
   excluded: number[];
+  /** Priors the per-job adjustments moved (core/priors.ts), each with the steps that moved it. */
+  priorChanges?: PriorChange[];
 }

@@ -3,6 +3,9 @@
  * server's diagnosis). The diagnoser itself is in diagnoser.ts.
  */
 import type { MeterProfile, Netlist } from '@splitscope/circuit';
+import type { PriorAdjustment, PriorChange } from '../core/priors.js';
+import type { FailureHistory } from './history.js';
+import type { ReferenceBand } from './references.js';
 import { PART_KINDS, type PartKind } from './kinds.js';
 import type { Hazard, TestPoint } from './nexttests.js';
 import type { MeterMode, Verdict } from './noise.js';
@@ -18,6 +21,8 @@ export interface CaseReading {
   power: 'on' | 'off';
   /** Parts lifted from the board for this reading (names as in the netlist). */
   lifted?: string[];
+  /** A lifted part measured out of circuit on its own pins (a name in `lifted`; red / black are its pin nets). */
+  alone?: string;
   /** dcv: volts; ohm: ohms or "OL"; diode: volts or "OL"; continuity: true (beep) / false. */
   value: number | 'OL' | boolean;
 }
@@ -83,6 +88,8 @@ export interface CandidateReport {
   words: { text: string; faults: FaultWords[] };
   /** Readings whose expected value could not be computed under this candidate (left out of its score). */
   unpredicted?: number[];
+  /** Still being checked (dictionary.ts): scored as neutral on the readings it lacks a prediction for until then. */
+  checking?: true;
 }
 
 export interface NextTestReport {
@@ -121,6 +128,13 @@ export interface DiagnosisOutput {
   unexplained?: Unexplained;
   /** How many multiple-fault candidates came from conflicts, and whether a bound cut the list. */
   generated: { pairs: number; triples: number; capped: boolean };
+  /** Priors moved by `UpdateOptions.priors`, largest move first. */
+  priors: PriorReport[];
+  /**
+   * Candidates still being checked: predictions the board's dictionary lacks (fault pairs the readings call for,
+   * a test outside it) are computed in the background (dictionary.ts); the ranking updates when they arrive.
+   */
+  checking?: { candidates: number };
 }
 
 export interface UpdateOptions {
@@ -136,6 +150,20 @@ export interface UpdateOptions {
   meter?: MeterProfile;
   /** Offer tests already taken again, as confirmations (default false). */
   confirm?: boolean;
+  /**
+   * Per-job prior adjustments (core/priors.ts): `part` is the netlist name or the printed designator. Reported in
+   * `priors` of the output with the words of each part and mode.
+   */
+  priors?: readonly PriorAdjustment[];
+  /** The shop's verified failures (electrical/history.ts), applied before `priors`. */
+  history?: FailureHistory;
+  /** Bands measured on known-good boards: evidence for "ok" where the model is silent (electrical/references.ts). */
+  references?: readonly ReferenceBand[];
+}
+
+/** A prior a per-job adjustment moved, with the steps (sources) that moved it. */
+export interface PriorReport extends PriorChange {
+  words: FaultWords;
 }
 
 export interface BoardInput {
@@ -203,6 +231,7 @@ export function checkReadingShape(r: unknown, i: number): asserts r is CaseReadi
   if (mode === 'dcv' && r.power !== 'on') throw new CaseError(`${at}: dcv is read with the board powered (power "on"), not "off"`);
   if (mode !== 'dcv' && r.power !== 'off') throw new CaseError(`${at}: ${mode} is read with the board unplugged and the bus discharged (power "off"), not "on"`);
   if (r.lifted !== undefined && (!Array.isArray(r.lifted) || r.lifted.some((p) => typeof p !== 'string'))) throw new CaseError(`${at}: lifted must be a list of part names`);
+  if (r.alone !== undefined && (typeof r.alone !== 'string' || r.alone === '')) throw new CaseError(`${at}: alone must be the name of a lifted part`);
   const v = r.value;
   if (mode === 'continuity') {
     if (typeof v !== 'boolean') throw new CaseError(`${at}: continuity value must be true (beep) or false, got ${show(v)}`);
@@ -215,7 +244,3 @@ export function checkReadingShape(r: unknown, i: number): asserts r is CaseReadi
   }
 }
 
-export const normNet = (n: string) => {
-  const l = n.trim().toLowerCase();
-  return l === 'gnd' ? '0' : l;
-};

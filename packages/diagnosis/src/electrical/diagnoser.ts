@@ -10,14 +10,19 @@
  *   lifting one of the likeliest parts; never a test already taken (unless `confirm`), never one whose healthy
  *   value cannot be computed, and a powered probe on mains or the bus costs more and carries its caution.
  */
-import { NetlistError, parseNetlist, type Element, type MeterProfile, type Netlist } from '@splitscope/circuit';
+import { NetlistError, normNode, parseNetlist, type Element, type MeterProfile, type Netlist } from '@splitscope/circuit';
 import { diagnose } from '../core/engine.js';
 import { PredictionCache } from '../core/cache.js';
 import { rankTests } from '../core/probe.js';
+import { PriorAdjustmentError, type PriorAdjustment } from '../core/priors.js';
+import { historyAdjustments } from './history.js';
+import { referenceAdjustments } from './references.js';
 import type { Observation } from '../core/types.js';
-import { CaseError, checkReadingShape, normNet, validateCaseShape } from './case.js';
+import { CaseError, checkReadingShape, validateCaseShape } from './case.js';
 import type { BoardInput, CandidateReport, DiagnosisCase, DiagnosisOutput, NextTestReport, ReadingReport, UpdateOptions } from './case.js';
+import { checkingKeys } from './dictionary.js';
 import { ElectricalModel, testKey, type ElectricalTest } from './model.js';
+import { partAloneRefusal } from './part-alone.js';
 import { candidateTests, HAZARD_CAUTION, instruction, testCost, type BenchState, type Hazard, type TestPoint } from './nexttests.js';
 import { bandOf, isPredicted, verdictOf, type Prediction, type ReadingValue } from './noise.js';
 import type { ObservedValue } from './repeats.js';
@@ -32,7 +37,7 @@ interface MeterModel {
 export class Diagnoser {
   readonly model: ElectricalModel;
   readonly cache: PredictionCache<ElectricalTest, Prediction>;
-  private readonly testPoints?: TestPoint[];
+  readonly testPoints?: TestPoint[];
   private readonly partByLower: Map<string, string>;
   private readonly byMeter = new Map<MeterProfile, MeterModel>();
   private readonly names: Namer;
@@ -48,7 +53,7 @@ export class Diagnoser {
       }
     } else netlist = board.netlist;
     try {
-      this.model = new ElectricalModel({ netlist, params: board.params, parts: board.parts, meter: board.meter, acMains: board.acMains?.map(normNet) });
+      this.model = new ElectricalModel({ netlist, params: board.params, parts: board.parts, meter: board.meter, acMains: board.acMains?.map(normNode) });
     } catch (err) {
       const msg = (err as Error).message.split('\n')[0] ?? '';
       throw new CaseError(err instanceof NetlistError ? `netlist: ${msg}` : msg);
@@ -58,9 +63,9 @@ export class Diagnoser {
     this.partByLower = new Map(this.model.parts.map((p) => [p.name.toLowerCase(), p.name]));
     if (board.testPoints) {
       board.testPoints.forEach((tp, i) => {
-        for (const n of [tp.net, tp.ref ?? '0']) if (!this.model.nets.has(normNet(n))) throw new CaseError(`testPoints ${i}: unknown net ${n}`);
+        for (const n of [tp.net, tp.ref ?? '0']) if (!this.model.nets.has(normNode(n))) throw new CaseError(`testPoints ${i}: unknown net ${n}`);
       });
-      this.testPoints = board.testPoints.map((tp) => ({ ...tp, net: normNet(tp.net), ref: normNet(tp.ref ?? '0') }));
+      this.testPoints = board.testPoints.map((tp) => ({ ...tp, net: normNode(tp.net), ref: normNode(tp.ref ?? '0') }));
     }
     this.names = this.makeNamer(netlist, board);
   }
@@ -79,9 +84,9 @@ export class Diagnoser {
       const part = this.model.partsByName.get(raw.name);
       if (!part) return [];
       const sub = raw.letter === 'X' ? Object.values(netlist.subckts).find((x) => x.name.toLowerCase() === raw.model?.toLowerCase()) : undefined;
-      return [{ part, designator: designator(raw.name), letter: raw.letter, nodes: raw.nodes.map(normNet), ports: sub?.ports, value: valueOf.get(raw.name.toLowerCase()) }];
+      return [{ part, designator: designator(raw.name), letter: raw.letter, nodes: raw.nodes.map(normNode), ports: sub?.ports, value: valueOf.get(raw.name.toLowerCase()) }];
     });
-    const connectors: ConnectorInput[] = (board.connectors ?? []).map((c) => ({ ...c, pins: c.pins.map((p) => ({ ...p, net: normNet(p.net) })) }));
+    const connectors: ConnectorInput[] = (board.connectors ?? []).map((c) => ({ ...c, pins: c.pins.map((p) => ({ ...p, net: normNode(p.net) })) }));
     const points = (this.testPoints ?? []).map((tp) => ({ ...tp }));
     const memo = new Map<string, ProbePoint>();
     const onBus = new Set(this.model.parts.filter((p) => p.nets.some((n) => this.model.hazards.bus.has(n))).map((p) => p.name));
@@ -118,8 +123,8 @@ export class Diagnoser {
   observations(readings: readonly unknown[]): Observation<ElectricalTest, ReadingValue>[] {
     return readings.map((r, i) => {
       checkReadingShape(r, i);
-      const red = normNet(r.red);
-      const black = normNet(r.black);
+      const red = normNode(r.red);
+      const black = normNode(r.black);
       if (!this.model.nets.has(red)) throw new CaseError(`reading ${i}: unknown net ${r.red}`);
       if (!this.model.nets.has(black)) throw new CaseError(`reading ${i}: unknown net ${r.black}`);
       const lifted = (r.lifted ?? []).map((p) => {
@@ -127,7 +132,15 @@ export class Diagnoser {
         if (!name) throw new CaseError(`reading ${i}: unknown part ${p} in lifted`);
         return name;
       });
-      return { test: { mode: r.mode, red, black, power: r.power, lifted: [...new Set(lifted)].sort() }, value: r.value };
+      const test: ElectricalTest = { mode: r.mode, red, black, power: r.power, lifted: [...new Set(lifted)].sort() };
+      if (r.alone !== undefined) {
+        const part = this.model.partsByName.get(this.partByLower.get(r.alone.trim().toLowerCase()) ?? '');
+        if (!part) throw new CaseError(`reading ${i}: unknown part ${r.alone} measured alone`);
+        const refused = partAloneRefusal(test, part.name, part.nets);
+        if (refused) throw new CaseError(`reading ${i}: ${refused}`);
+        test.alone = part.name;
+      }
+      return { test, value: r.value };
     });
   }
 
@@ -159,7 +172,13 @@ export class Diagnoser {
       return g;
     });
     const gobs: Observation<ElectricalTest, ObservedValue>[] = groups.map((g) => ({ test: g.test, value: g.values.length === 1 ? (g.values[0] as ReadingValue) : { repeats: g.values } }));
-    const post = diagnose(model, gobs, { pairTopK: options.pairTopK ?? 12 }, cache);
+    let post: ReturnType<typeof diagnose>;
+    try {
+      post = diagnose(model, gobs, { pairTopK: options.pairTopK ?? 12, priors: [...this.historyPriors(model, options), ...this.resolvePriors(options.priors ?? []), ...this.referencePriors(model, obs, options)] }, cache);
+    } catch (err) {
+      if (err instanceof PriorAdjustmentError) throw new CaseError(err.message);
+      throw err;
+    }
 
     const readingReports: ReadingReport[] = obs.map((o, index) => {
       const healthy = model.healthyPrediction(o.test);
@@ -181,9 +200,13 @@ export class Diagnoser {
     const rest = post.candidates.slice(top).reduce((a, c) => a + c.probability, 0);
     const readingsOfGroup = (g: number) => groupOf.map((x, i) => (x === g ? i : -1)).filter((i) => i >= 0);
 
+    // Predictions a board's dictionary does not hold yet are computed in the background (dictionary.ts).
+    const checking = cache.defer ? checkingKeys(this) : undefined;
     const candidates: CandidateReport[] = listed.map((c) => {
-      const unpredicted = c.unpredicted.flatMap(readingsOfGroup);
+      const isChecking = !!checking?.size && c.combos.some((k) => checking.has(k.key));
+      const unpredicted = isChecking ? [] : c.unpredicted.flatMap(readingsOfGroup);
       return {
+        ...(isChecking ? { checking: true as const } : {}),
         faults: c.faults.map((f) => ({ part: f.part, mode: f.mode })),
         probability: c.probability,
         evidence: obs.map((_, i) => {
@@ -216,7 +239,49 @@ export class Diagnoser {
       unmodelledProbability: post.unmodelled?.probability ?? 0,
       ...(unexplained ? { unexplained } : {}),
       generated: post.generated,
+      priors: (post.priorChanges ?? [])
+        .filter((c) => c.steps.some((s) => s.note))
+        .map((c) => ({ ...c, words: faultWords(model, names, c.part, c.mode) }))
+        .sort((a, b) => Math.abs(Math.log(b.after / b.before)) - Math.abs(Math.log(a.after / a.before)) || a.part.localeCompare(b.part)),
+      ...(checking?.size ? { checking: { candidates: post.candidates.filter((c) => c.combos.some((k) => checking.has(k.key))).length } } : {}),
     };
+  }
+
+  private historyPriors(model: ElectricalModel, options: UpdateOptions): PriorAdjustment[] {
+    if (!options.history) return [];
+    const names = this.names;
+    const count = (n: number) => (Math.abs(n - Math.round(n)) < 0.05 ? String(Math.round(n)) : `about ${n.toFixed(1)}`);
+    return historyAdjustments(model.parts, options.history, (key) => this.partNamed(key), {
+      board: (part, mode, n, jobs) => `${faultWords(model, names, part, mode).text}: ${count(n)} of the last ${jobs} verified boards of this model`,
+      kind: (part, mode, kind, n, jobs) => `${faultWords(model, names, part, mode).words} on ${kind.replace(/-/g, ' ')}s of the shop's other models: ${count(n)} of ${jobs} verified boards`,
+    });
+  }
+
+  private referencePriors(model: ElectricalModel, obs: Observation<ElectricalTest, ReadingValue>[], options: UpdateOptions): PriorAdjustment[] {
+    if (!options.references?.length) return [];
+    const bands = options.references.map((b) => ({ ...b, red: normNode(b.red), black: normNode(b.black) }));
+    const fmt = (v: number, mode: ElectricalTest['mode']) => `${sig(v)} ${mode === 'ohm' ? 'Ω' : 'V'}`;
+    return referenceAdjustments(model, obs, bands, (t, v, b) => {
+      const p = this.names.point(t.red);
+      return `${p.label} ${METER_FUNCTION[t.mode]} ${fmt(v, t.mode)} is within ${b.boards} known-good boards (${fmt(b.low, t.mode)} – ${fmt(b.high, t.mode)}) where the model gives no value: the parts on it are likelier sound`;
+    });
+  }
+
+  private partNamed(key: string): string | undefined {
+    const k = key.trim().toLowerCase();
+    const direct = this.partByLower.get(k);
+    if (direct) return direct;
+    return this.model.parts.find((p) => this.names.designator(p.name).toLowerCase() === k)?.name;
+  }
+
+  /** Adjustments name parts by netlist name or printed designator; the core takes netlist names. */
+  private resolvePriors(adjustments: readonly PriorAdjustment[]): PriorAdjustment[] {
+    if (adjustments.length === 0) return [];
+    return adjustments.map((a, i) => {
+      const part = this.partNamed(a.part);
+      if (!part) throw new CaseError(`priors ${i}: unknown part ${a.part}`);
+      return { ...a, part };
+    });
   }
 
   private nextTests(

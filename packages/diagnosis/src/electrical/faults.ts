@@ -9,6 +9,7 @@
  * the internal element's name lower-cased as written (`dl:open`, `q1:ce-short`).
  */
 import type { BjtElement, Circuit, Element, Netlist, RawElement, SubcktDef } from '@splitscope/circuit';
+import { normNode } from '@splitscope/circuit';
 import type { Component, SubFault } from '../core/types.js';
 import type { Hazards } from './hazard.js';
 import {
@@ -52,10 +53,6 @@ export interface ElectricalPart {
   modes: ElectricalMode[];
 }
 
-function norm(n: string): string {
-  const l = n.toLowerCase();
-  return l === 'gnd' ? '0' : l;
-}
 
 function findSubckt(netlist: Netlist, name: string | undefined): SubcktDef | undefined {
   if (!name) return undefined;
@@ -143,7 +140,7 @@ export function buildParts(netlist: Netlist, circuit: Circuit, overrides: Record
     const els = byPart.get(lname) ?? [];
     const ov = overrideByLower.get(lname);
     const kind = ov?.kind ?? inferKind(els.length === 1 ? els[0] : undefined, raw, netlist);
-    const nets = [...new Set(raw.nodes.map(norm))];
+    const nets = [...new Set(raw.nodes.map(normNode))];
     const part: ElectricalPart = { name: raw.name, kind, elements: els.map((e) => e.name.toLowerCase()), nets, modes: [] };
     if (kind === 'regulator') {
       part.modes = DEFAULT_MODES.regulator.map((t) => fromTemplate(t, t.name, undefined));
@@ -153,7 +150,7 @@ export function buildParts(netlist: Netlist, circuit: Circuit, overrides: Record
         sub.ports.forEach((p, i) => {
           const net = raw.nodes[i];
           if (net === undefined) return;
-          for (const key of ['in', 'out', 'gnd'] as const) if (PORT_PATTERNS[key].test(p)) ports[key] = norm(net);
+          for (const key of ['in', 'out', 'gnd'] as const) if (PORT_PATTERNS[key].test(p)) ports[key] = normNode(net);
         });
         part.ports = ports;
         part.modes = part.modes.filter((m) =>

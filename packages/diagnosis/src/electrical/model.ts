@@ -11,6 +11,7 @@ import type { Component, SubFault, SystemModel } from '../core/types.js';
 import { applyFaults, buildParts, toComponents, type ElectricalPart, type PartOverride } from './faults.js';
 import { findHazards, type Hazards } from './hazard.js';
 import { meterReading } from './meter.js';
+import { partAloneCircuit } from './part-alone.js';
 import { isPredicted, outcomeBins, type MeterMode, type Prediction } from './noise.js';
 import { broadLogLikelihood, groupConsistent, groupLogLikelihood, type ObservedValue } from './repeats.js';
 
@@ -22,10 +23,12 @@ export interface ElectricalTest {
   power: 'on' | 'off';
   /** Lifted parts as written in the netlist, sorted. */
   lifted: string[];
+  /** A lifted part measured out of circuit on its own pins (red / black are its pin nets): part-alone.ts. */
+  alone?: string;
 }
 
-export function stateKey(t: Pick<ElectricalTest, 'power' | 'lifted'>): string {
-  return `${t.power}|${t.lifted.join(',')}`;
+export function stateKey(t: Pick<ElectricalTest, 'power' | 'lifted' | 'alone'>): string {
+  return `${t.power}|${t.lifted.join(',')}${t.alone ? `|alone:${t.alone}` : ''}`;
 }
 
 export function testKey(t: ElectricalTest): string {
@@ -105,6 +108,7 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ObservedValu
   /** Parts with a pin on a probed net (the reference excluded): a reading's structural neighbourhood. */
   suspects(t: ElectricalTest): string[] {
     const out = new Set<string>();
+    if (t.alone) return [t.alone]; // the part on its own pins: nothing else is in the measurement
     for (const n of [t.red, t.black]) if (n !== '0') for (const p of this.partsOnNet.get(n) ?? []) out.add(p);
     return [...out];
   }
@@ -114,11 +118,11 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ObservedValu
     return this.partsOnNet.get(net) ?? [];
   }
 
-  stateCircuit(t: Pick<ElectricalTest, 'power' | 'lifted'>): Circuit {
+  stateCircuit(t: Pick<ElectricalTest, 'power' | 'lifted' | 'alone'>): Circuit {
     const k = stateKey(t);
     let c = this.states.get(k);
     if (!c) {
-      c = this.unsmoothed(stateOf(this.circuit, { power: t.power, lifted: t.lifted }), t);
+      c = t.alone ? partAloneCircuit(this.circuit, t.alone) : this.unsmoothed(stateOf(this.circuit, { power: t.power, lifted: t.lifted }), t);
       this.states.set(k, c);
     }
     return c;
@@ -183,6 +187,11 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ObservedValu
       this.healthy.set(k, p);
     }
     return p;
+  }
+
+  /** A healthy prediction computed elsewhere (the board's fault dictionary, dictionary.ts). */
+  seedHealthy(t: ElectricalTest, p: Prediction): void {
+    this.healthy.set(testKey(t), p);
   }
 
   logLikelihood(t: ElectricalTest, v: ObservedValue, p: Prediction): number {

@@ -38,8 +38,11 @@ export type ReadingValue = number | 'OL' | boolean;
 export interface Prediction {
   value: number | 'OL' | 'unknown';
   beep?: boolean;
-  /** Why a prediction is unknown: the model does not solve in that state, or a DC reading on an AC mains net. */
-  reason?: 'no-solve' | 'ac-mains';
+  /**
+   * Why a prediction is unknown: the model does not solve in that state, a DC reading on an AC mains net, or a
+   * fault pair still being computed in the background (dictionary.ts).
+   */
+  reason?: 'no-solve' | 'ac-mains' | 'pending';
 }
 
 /** The prediction could be computed (not 'unknown'). */

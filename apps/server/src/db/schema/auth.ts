@@ -35,10 +35,20 @@ export const users = pgTable(
     passwordHash: text('password_hash').notNull(),
     /** Set when an admin deactivates the person: no sign-in, no session, kept for the history they wrote. */
     deactivatedAt: timestamp('deactivated_at', { withTimezone: true }),
+    /** For a trainee: the lead who lifted guided order on all their jobs; null while guided order binds. */
+    guidedLiftedBy: text('guided_lifted_by'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [uniqueIndex('users_email_unique').on(t.email), index('users_shop_idx').on(t.shopId)],
 );
+
+/** Who wrote a row and when: the last two columns of every row a person adds to a job's history. */
+export const authorColumns = () => ({
+  createdBy: text('created_by')
+    .notNull()
+    .references(() => users.id),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+});
 
 // lucia's session table: id, user_id, expires_at are the columns its Drizzle adapter expects.
 export const sessions = pgTable('sessions', {

@@ -1,7 +1,7 @@
 import { bigint, boolean, index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex } from 'drizzle-orm/pg-core';
-import { shops, users } from './auth';
+import { authorColumns, shops, users } from './auth';
 import { customers } from './customers';
-import { jobs } from './jobs';
+import { jobRowColumns, jobs } from './jobs';
 
 // Money columns are integer cents (bigint, read as a JS number: the contract caps amounts well inside 2^53).
 const cents = (name: string) => bigint(name, { mode: 'number' }).notNull();
@@ -33,13 +33,7 @@ export const billingSettings = pgTable('billing_settings', {
 export const quotes = pgTable(
   'quotes',
   {
-    id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id),
+    ...jobRowColumns(),
     customerId: text('customer_id')
       .notNull()
       .references(() => customers.id),
@@ -59,10 +53,7 @@ export const quotes = pgTable(
     decidedByEmail: text('decided_by_email'),
     sentAt: timestamp('sent_at', { withTimezone: true }),
     sentTo: text('sent_to'),
-    createdBy: text('created_by')
-      .notNull()
-      .references(() => users.id),
-    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    ...authorColumns(),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [uniqueIndex('quotes_shop_number_unique').on(t.shopId, t.number), index('quotes_job_idx').on(t.jobId, t.createdAt)],
@@ -89,13 +80,7 @@ export const quoteLines = pgTable(
 export const invoices = pgTable(
   'invoices',
   {
-    id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id),
+    ...jobRowColumns(),
     customerId: text('customer_id')
       .notNull()
       .references(() => customers.id),
@@ -183,13 +168,7 @@ export const payments = pgTable(
 export const customerLinks = pgTable(
   'customer_links',
   {
-    id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id),
+    ...jobRowColumns(),
     tokenHash: text('token_hash').notNull(),
     /** who the link was mailed to (the customer's name and address on file at the time); null for older links */
     recipientName: text('recipient_name'),

@@ -1,4 +1,4 @@
-import { index, integer, jsonb, pgTable, text, timestamp, uniqueIndex } from 'drizzle-orm/pg-core';
+import { boolean, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex } from 'drizzle-orm/pg-core';
 import { shops, users } from './auth';
 
 /** A board in the shop's library; its content lives in numbered, immutable versions. */
@@ -50,7 +50,57 @@ export const faultCodes = pgTable(
     title: text('title').notNull(),
     description: text('description'),
     sections: text('sections').array().notNull().default([]),
+    /** Suspect section → likelihood ratio (the rule beside the contract's FAULT_CODE_WEIGHT). */
+    weights: jsonb('weights').$type<Record<string, number>>().notNull().default({}),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('fault_codes_shop_idx').on(t.shopId, t.boardId)],
+);
+
+/** A known-good board's readings for a board model (one set = one board): recorded, or a repaired board's verification. */
+export const referenceSets = pgTable(
+  'reference_sets',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id),
+    boardId: text('board_id')
+      .notNull()
+      .references(() => boardModels.id),
+    /** The version the readings were taken against (their points are that version's). */
+    versionId: text('version_id')
+      .notNull()
+      .references(() => boardModelVersions.id),
+    /** The repaired job whose verification readings were promoted; null for a recorded good board. */
+    jobId: text('job_id'),
+    serial: text('serial'),
+    note: text('note'),
+    createdBy: text('created_by')
+      .notNull()
+      .references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('reference_sets_board_idx').on(t.shopId, t.boardId), uniqueIndex('reference_sets_job_unique').on(t.jobId)],
+);
+
+export const referenceReadings = pgTable(
+  'reference_readings',
+  {
+    id: text('id').primaryKey(),
+    setId: text('set_id')
+      .notNull()
+      .references(() => referenceSets.id),
+    mode: text('mode').notNull(),
+    power: text('power').notNull(),
+    /** Probe points as given (TP3, gnd) and the nets they resolve to on the set's version. */
+    red: text('red').notNull(),
+    black: text('black').notNull(),
+    redNet: text('red_net').notNull(),
+    blackNet: text('black_net').notNull(),
+    /** Volts or ohms; null with overLimit for OL. */
+    value: doublePrecision('value'),
+    overLimit: boolean('over_limit').notNull().default(false),
+  },
+  (t) => [index('reference_readings_set_idx').on(t.setId)],
 );

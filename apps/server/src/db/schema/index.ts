@@ -4,4 +4,6 @@ export * from './boards';
 export * from './jobs';
 export * from './billing';
 export * from './rules';
+export * from './dictionary';
 export * from './shop-memory';
+export * from './captures';

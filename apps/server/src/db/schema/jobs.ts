@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm';
 import { boolean, doublePrecision, index, integer, jsonb, pgEnum, pgTable, text, timestamp, uniqueIndex } from 'drizzle-orm/pg-core';
-import { shops, users } from './auth';
+import { authorColumns, shops, users } from './auth';
 import { boardModels, boardModelVersions } from './boards';
 import { customers } from './customers';
 
@@ -75,19 +75,27 @@ export const jobs = pgTable(
 );
 
 /**
+ * The first columns of every row of a job's history (readings, reviews, repairs, quotes, links, …): its id, the
+ * shop it belongs to and the job. A function, so each table gets column builders of its own.
+ */
+export const jobRowColumns = () => ({
+  id: text('id').primaryKey(),
+  shopId: text('shop_id')
+    .notNull()
+    .references(() => shops.id),
+  jobId: text('job_id')
+    .notNull()
+    .references(() => jobs.id),
+});
+
+/**
  * Append-only: a correction is a new row whose `supersedes` names the corrected one; nothing is updated.
  * The verdict is computed against the job's pinned board version when the row is stored.
  */
 export const readings = pgTable(
   'readings',
   {
-    id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id),
+    ...jobRowColumns(),
     idempotencyKey: text('idempotency_key').notNull(),
     /** sha256 of the request as parsed: a retry with the same key must send the same reading (null on older rows) */
     requestHash: text('request_hash'),
@@ -133,13 +141,7 @@ export const readings = pgTable(
 export const readingStrikes = pgTable(
   'reading_strikes',
   {
-    id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id),
+    ...jobRowColumns(),
     readingId: text('reading_id')
       .notNull()
       .references(() => readings.id),
@@ -155,20 +157,11 @@ export const readingStrikes = pgTable(
 export const diagnosisSnapshots = pgTable(
   'diagnosis_snapshots',
   {
-    id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id),
+    ...jobRowColumns(),
     engineVersion: text('engine_version').notNull(),
     proposedPart: text('proposed_part'),
     output: jsonb('output').notNull(),
-    createdBy: text('created_by')
-      .notNull()
-      .references(() => users.id),
-    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    ...authorColumns(),
   },
   (t) => [index('diagnosis_snapshots_job_idx').on(t.jobId, t.createdAt)],
 );
@@ -176,13 +169,7 @@ export const diagnosisSnapshots = pgTable(
 export const reviews = pgTable(
   'reviews',
   {
-    id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id),
+    ...jobRowColumns(),
     reviewerId: text('reviewer_id')
       .notNull()
       .references(() => users.id),
@@ -198,13 +185,7 @@ export const reviews = pgTable(
 export const repairActions = pgTable(
   'repair_actions',
   {
-    id: text('id').primaryKey(),
-    shopId: text('shop_id')
-      .notNull()
-      .references(() => shops.id),
-    jobId: text('job_id')
-      .notNull()
-      .references(() => jobs.id),
+    ...jobRowColumns(),
     part: text('part').notNull(),
     action: repairActionEnum('action').notNull(),
     replacementValue: text('replacement_value'),
@@ -229,14 +210,38 @@ export const uploads = pgTable(
     jobId: text('job_id').references(() => jobs.id),
     contentType: text('content_type').notNull(),
     size: integer('size').notNull(),
+    /** Pixel size of the stored picture (null for rows stored before pictures were measured). */
+    width: integer('width'),
+    height: integer('height'),
+    /** Bytes as sent, when the stored picture was resized from them. */
+    originalSize: integer('original_size'),
     sha256: text('sha256').notNull(),
     name: text('name'),
     /** The key under which the Storage keeps the bytes. */
     storageKey: text('storage_key').notNull(),
+    ...authorColumns(),
+  },
+  (t) => [index('uploads_shop_idx').on(t.shopId, t.jobId)],
+);
+
+/** A picture sent for a job and not stored (refused type, damaged file): kept so the job shows it, not the form. */
+export const uploadRefusals = pgTable(
+  'upload_refusals',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id),
+    jobId: text('job_id')
+      .notNull()
+      .references(() => jobs.id),
+    name: text('name'),
+    size: integer('size').notNull(),
+    reason: text('reason').notNull(),
     createdBy: text('created_by')
       .notNull()
       .references(() => users.id),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [index('uploads_shop_idx').on(t.shopId, t.jobId)],
+  (t) => [index('upload_refusals_job_idx').on(t.jobId, t.createdAt)],
 );

@@ -1,6 +1,6 @@
-import { bigint, doublePrecision, index, integer, pgTable, text, timestamp } from 'drizzle-orm/pg-core';
+import { bigint, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex } from 'drizzle-orm/pg-core';
 import { shops, users } from './auth';
-import { jobs, repairActions } from './jobs';
+import { jobs, meterModeEnum, powerStateEnum, repairActions } from './jobs';
 
 /**
  * A shop's service terms (one row per shop, made with the defaults on first use): how many days after a board
@@ -68,4 +68,26 @@ export const binTakes = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
   (t) => [index('bin_takes_job_idx').on(t.jobId), index('bin_takes_part_idx').on(t.binPartId)],
+);
+
+/**
+ * How one meter's logged CSV maps onto readings: which column holds the test point, the value, its unit, the meter
+ * function and the time; what to assume where the log has no such column. Saved per meter, by name.
+ */
+export const meterProfiles = pgTable(
+  'meter_profiles',
+  {
+    id: text('id').primaryKey(),
+    shopId: text('shop_id')
+      .notNull()
+      .references(() => shops.id),
+    name: text('name').notNull(),
+    /** Column names: { point, value, unit?, function?, reference?, time? } (contract: meterColumnMapping). */
+    mapping: jsonb('mapping').notNull(),
+    defaultMode: meterModeEnum('default_mode').notNull().default('dcv'),
+    defaultReference: text('default_reference').notNull().default('gnd'),
+    power: powerStateEnum('power').notNull().default('on'),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('meter_profiles_shop_name_unique').on(t.shopId, t.name)],
 );

@@ -2,9 +2,11 @@
 // feature, and billing changes a job's status only through the flow's own transitions (see customer-portal).
 import { and, eq } from 'drizzle-orm';
 import type { Db } from '../../db/client';
+import type { ShopCard } from '@splitscope/contract';
 import { boardModels, customers, jobs, shops } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import type { JobSummary } from '../mail';
+import { toShopCard } from '../shops';
 
 export interface BillingJob {
   id: string;
@@ -19,14 +21,14 @@ export interface BillingJob {
   proposedPart: string | null;
   receivedAt: Date;
   boardName: string | null;
-  shopName: string;
+  shop: ShopCard;
   customer: { id: string; name: string; company: string | null; email: string | null };
 }
 
 /** The job with its customer, board and shop; another shop's job answers 404. */
 export async function getBillingJob(db: Db, shopId: string, jobId: string): Promise<BillingJob> {
   const [row] = await db
-    .select({ job: jobs, customer: customers, boardName: boardModels.name, shopName: shops.name })
+    .select({ job: jobs, customer: customers, boardName: boardModels.name, shop: shops })
     .from(jobs)
     .innerJoin(customers, eq(customers.id, jobs.customerId))
     .innerJoin(shops, eq(shops.id, jobs.shopId))
@@ -47,13 +49,13 @@ export async function getBillingJob(db: Db, shopId: string, jobId: string): Prom
     proposedPart: j.proposedPart,
     receivedAt: j.receivedAt,
     boardName: row.boardName,
-    shopName: row.shopName,
+    shop: toShopCard(row.shop),
     customer: { id: row.customer.id, name: row.customer.name, company: row.customer.company, email: row.customer.email },
   };
 }
 
 export const jobSummary = (j: BillingJob): JobSummary => ({
-  shopName: j.shopName,
+  shop: j.shop,
   customerName: j.customer.name,
   jobNumber: j.number,
   unitDescription: j.unitDescription,

@@ -3,7 +3,7 @@ import { boardWords, METER_WORDS, warrantyReturn, wordsModelOf, type BoardHistor
 import type { Db } from '../../db/client';
 import { boardModels, boardModelVersions, customers, jobs, readingStrikes, readings, repairActions, users } from '../../db/schema';
 import { iso, isoOrNull } from '../../lib/dates';
-import { getJobRow } from '../jobs';
+import { getJobRow } from '../../db/job-row';
 import { getServiceTerms } from '../service-terms';
 
 const same = (column: typeof jobs.serial | typeof jobs.unitSerial, value: string) => sql`lower(${column}) = lower(${value})`;

@@ -3,9 +3,9 @@
 // the healthy board. A version never changes, so everything here is cached per version id for the life of the
 // process.
 import { expectedReadings, type BandFn, type ExpectedReadingsInput, type ExpectedReadingsTestPoint } from '@splitscope/boards/readings';
-import { meterProfileById, refusal, type MeterProfile } from '@splitscope/circuit';
+import { meterProfileById, normNode, refusal, type MeterProfile } from '@splitscope/circuit';
 import { bandOf, CaseError, createDiagnoser, verdictOf, type CasePart, type Diagnoser, type ReadingValue, type TestPoint } from '@splitscope/diagnosis';
-import { boardModelSchema, type BoardModel, type MeterProfileId, type BoardPartKind, type ExpectedReadingRow, type MeterModeName, type PowerState, type ReadingVerdict } from '@splitscope/contract';
+import { boardModelSchema, unitOf, type BoardModel, type BoardPartKind, type ExpectedReadingRow, type MeterModeName, type MeterProfileId, type PowerState, type ReadingVerdict } from '@splitscope/contract';
 import { AppError } from '../../http/errors';
 import { isOlderDocument, upgradeV1InMemory } from './document-form';
 import { LRUCache } from 'lru-cache';
@@ -125,11 +125,6 @@ export function cachedBoardEngine(versionId: string): BoardEngine | undefined {
   return cache.get(versionId);
 }
 
-/** A net name as typed → the netlist's spelling: lower case, `gnd` is the reference `0`. */
-export const normNet = (n: string) => {
-  const l = n.trim().toLowerCase();
-  return l === 'gnd' ? '0' : l;
-};
 
 /** A probe name as typed (a test point id or a net name) → the net, or undefined when the board has neither. */
 const pointIds = new WeakMap<BoardEngine, Map<string, BoardTestPoint>>();
@@ -142,7 +137,7 @@ export function resolveNet(engine: BoardEngine, name: string): string | undefine
     pointIds.set(engine, byId);
   }
   const tp = byId.get(name.trim().toLowerCase());
-  const net = normNet(tp ? tp.net : name);
+  const net = normNode(tp ? tp.net : name);
   return engine.diagnoser.model.nets.has(net) ? net : undefined;
 }
 
@@ -173,7 +168,6 @@ export interface ProbeState {
 }
 
 const round = (x: number) => (x === 0 || !Number.isFinite(x) ? x : Number(x.toPrecision(4)));
-export const unitOf = (mode: MeterModeName) => (mode === 'dcv' || mode === 'diode' ? 'V' : 'ohm') as 'V' | 'ohm';
 
 /** The shipped meter profile of an id; undefined (the board's generic meter) for none. */
 export const meterOf = (id: MeterProfileId | null | undefined): MeterProfile | undefined => (id ? meterProfileById(id) : undefined);

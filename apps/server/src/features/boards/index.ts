@@ -1,3 +1,5 @@
 // What other features may use of boards: they import it from here, never from the files inside.
-export { boardEngine, cachedBoardEngine, meterOf, meterOptions, normNet, powerRefusal, readBoardModel, resolveNet, resolveParts, unitOf, verdictFor } from './engine';
+export { boardEngine, cachedBoardEngine, meterOf, meterOptions, powerRefusal, readBoardModel, resolveNet, resolveParts, verdictFor } from './engine';
 export { getBoardVersion } from './service';
+export { buildBoardEngine, expectedTable } from './engine';
+export { createBoard, updateBoard } from './service';

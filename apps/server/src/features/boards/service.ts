@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, isNull, or } from 'drizzle-orm';
-import type { BoardDetail, BoardDocument, BoardSummary, CreateFaultCodeRequest, ExpectedReadingRow, FaultCode } from '@splitscope/contract';
+import type { BoardDetail, BoardDocument, BoardSummary, CreateFaultCodeRequest, ExpectedReadingRow, FaultCode, UpdateFaultCodeRequest } from '@splitscope/contract';
 import { ComposeError, drawBoard, type BoardSpec } from '@splitscope/boards';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
@@ -21,7 +21,7 @@ const summary = (b: BoardRow, v: Pick<VersionRow, 'id' | 'version'>): BoardSumma
   updatedAt: iso(b.updatedAt),
 });
 
-const faultCode = (f: typeof faultCodes.$inferSelect): FaultCode => ({ id: f.id, boardId: f.boardId, code: f.code, title: f.title, description: f.description, sections: f.sections });
+const faultCode = (f: typeof faultCodes.$inferSelect): FaultCode => ({ id: f.id, boardId: f.boardId, code: f.code, title: f.title, description: f.description, sections: f.sections, weights: f.weights });
 
 /** Checks a model and computes what a stored version keeps beside it. A picture upload must be the shop's own. */
 export async function prepareVersion(db: Pick<Db, 'select'>, shopId: string, document: BoardDocument): Promise<{ key: string; name: string; expectedReadings: ExpectedReadingRow[] }> {
@@ -35,7 +35,7 @@ export async function prepareVersion(db: Pick<Db, 'select'>, shopId: string, doc
 }
 
 const documentFaultCodes = (document: BoardDocument): CreateFaultCodeRequest[] =>
-  document.faultCodes.map((f) => ({ code: f.code, title: f.meaning || f.code, description: null, sections: f.suspectSections }));
+  document.faultCodes.map((f) => ({ code: f.code, title: f.meaning || f.code, description: null, sections: f.suspectSections, weights: f.weights ?? {} }));
 
 export async function findBoards({ db, shopId }: { db: Db; shopId: string }) {
   const rows = await db
@@ -122,7 +122,7 @@ export async function createBoard({ db, actor, document, note, id }: { db: Db; a
     await tx.insert(boardModelVersions).values({ id: newId(), boardId, version: 1, document, expectedReadings: prepared.expectedReadings, note: note ?? null, createdBy: actor.id });
     const codes = documentFaultCodes(document);
     if (codes.length) {
-      await tx.insert(faultCodes).values(codes.map((c) => ({ id: newId(), shopId: actor.shopId, boardId, code: c.code, title: c.title, description: c.description ?? null, sections: c.sections ?? [] })));
+      await tx.insert(faultCodes).values(codes.map((c) => ({ id: newId(), shopId: actor.shopId, boardId, code: c.code, title: c.title, description: c.description ?? null, sections: c.sections ?? [], weights: c.weights ?? {} })));
     }
   });
   return getBoard({ db, shopId: actor.shopId, id: boardId });
@@ -176,7 +176,25 @@ export async function createFaultCode({ db, shopId, input }: { db: Db; shopId: s
   }
   const [row] = await db
     .insert(faultCodes)
-    .values({ id: newId(), shopId, boardId: input.boardId ?? null, code: input.code, title: input.title, description: input.description ?? null, sections: input.sections ?? [] })
+    .values({ id: newId(), shopId, boardId: input.boardId ?? null, code: input.code, title: input.title, description: input.description ?? null, sections: input.sections ?? [], weights: onlySuspects(input) })
     .returning();
   return faultCode(row!);
+}
+
+/** Weights are kept for the code's suspect sections only. */
+const onlySuspects = (input: Pick<CreateFaultCodeRequest, 'sections' | 'weights'>) => Object.fromEntries(Object.entries(input.weights ?? {}).filter(([s]) => (input.sections ?? []).includes(s)));
+
+export async function updateFaultCode({ db, shopId, id, input }: { db: Db; shopId: string; id: string; input: UpdateFaultCodeRequest }) {
+  const [row] = await db
+    .update(faultCodes)
+    .set({ code: input.code, title: input.title, description: input.description ?? null, sections: input.sections ?? [], weights: onlySuspects(input) })
+    .where(and(eq(faultCodes.id, id), eq(faultCodes.shopId, shopId)))
+    .returning();
+  if (!row) throw new AppError('not_found', `No fault code ${id}`);
+  return faultCode(row);
+}
+
+export async function deleteFaultCode({ db, shopId, id }: { db: Db; shopId: string; id: string }) {
+  const [row] = await db.delete(faultCodes).where(and(eq(faultCodes.id, id), eq(faultCodes.shopId, shopId))).returning({ id: faultCodes.id });
+  if (!row) throw new AppError('not_found', `No fault code ${id}`);
 }

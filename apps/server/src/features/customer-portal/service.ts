@@ -18,7 +18,7 @@ export async function getPublicJob({ db, token }: { db: Db; token: string }): Pr
   const job = await getBillingJob(db, link.shopId, link.jobId);
   const quotesOfJob = (await findJobQuotes(db, job.id)).filter((q) => q.status !== 'draft');
   return {
-    shopName: job.shopName,
+    shop: job.shop,
     reference: `Job ${job.number}`,
     customerName: job.customer.name,
     board: job.boardName ? `${job.boardName} (${job.unitDescription})` : job.unitDescription,

@@ -4,9 +4,10 @@
 // thread once, and a thread that dies takes only its own pending calls with it.
 import { Worker } from 'node:worker_threads';
 import type { MeterProfileId } from '@splitscope/contract';
-import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
+import type { CaseReading, DiagnosisOutput, PairColumn, UpdateOptions } from '@splitscope/diagnosis';
 import { AppError } from '../../http/errors';
-import type { WorkerFailure, WorkerReply, WorkerRequest } from './protocol';
+import type { StoredDictionary } from './dictionary';
+import type { PairsMessage, WorkerFailure, WorkerReply, WorkerRequest } from './protocol';
 
 const ENTRY = new URL('./worker-entry.mjs', import.meta.url);
 
@@ -14,7 +15,12 @@ interface Call {
   versionId: string;
   meter: MeterProfileId | null;
   readings: CaseReading[];
+  options?: Pick<UpdateOptions, 'priors' | 'history' | 'references'>;
   loadDocument: () => Promise<unknown>;
+  /** The version's fault dictionary when it is ready (sent to a thread once). */
+  loadDictionary?: () => Promise<StoredDictionary | undefined>;
+  /** Where fault pairs the thread computes after answering go (stored in the dictionary). */
+  onPairs?: (columns: PairColumn[]) => void;
   resolve: (out: DiagnosisOutput) => void;
   reject: (err: unknown) => void;
 }
@@ -24,6 +30,10 @@ interface Thread {
   /** The versions this thread holds an engine for: sent to it, less those its engine cache reports dropped. */
   known: Set<string>;
   pending: Map<number, Call>;
+  /** The versions whose dictionary this thread was sent. */
+  dictionaries: Set<string>;
+  /** Per version, where the pairs the thread computes for it go. */
+  pairSinks: Map<string, (columns: PairColumn[]) => void>;
   /** What the thread threw before it exited, for the pending calls' error. */
   crash?: Error;
 }
@@ -44,8 +54,15 @@ export class DiagnosisPool {
   constructor(private readonly options: PoolOptions) {}
 
   /** The engine's output for these readings on a board version; the document is loaded only if needed. */
-  run(versionId: string, readings: CaseReading[], loadDocument: () => Promise<unknown>, meter: MeterProfileId | null = null): Promise<DiagnosisOutput> {
-    return new Promise((resolve, reject) => void this.dispatch({ versionId, readings, meter, loadDocument, resolve, reject }, false));
+  run(
+    versionId: string,
+    readings: CaseReading[],
+    loadDocument: () => Promise<unknown>,
+    dictionary: Pick<Call, 'loadDictionary' | 'onPairs'> = {},
+    options?: Pick<UpdateOptions, 'priors' | 'history' | 'references'>,
+    meter: MeterProfileId | null = null,
+  ): Promise<DiagnosisOutput> {
+    return new Promise((resolve, reject) => void this.dispatch({ versionId, readings, meter, loadDocument, ...dictionary, resolve, reject, ...(options ? { options } : {}) }, false));
   }
 
   /**
@@ -70,14 +87,17 @@ export class DiagnosisPool {
       let thread = this.pick(call.versionId);
       const withDocument = resend || !thread.known.has(call.versionId);
       const document = withDocument ? await call.loadDocument() : undefined;
+      const dictionary = (withDocument || !thread.dictionaries.has(call.versionId)) && call.loadDictionary ? await call.loadDictionary() : undefined;
       // The thread may have died while the document loaded; a new one is sent the document too.
       if (!this.threads.includes(thread)) thread = this.pick(call.versionId);
+      if (dictionary) thread.dictionaries.add(call.versionId);
+      if (call.onPairs) thread.pairSinks.set(call.versionId, call.onPairs);
       const id = this.nextId++;
       thread.known.add(call.versionId);
       thread.pending.set(id, call);
       // Referenced only while it owes an answer, so an idle thread never keeps the process alive.
       thread.worker.ref();
-      const message: WorkerRequest = { id, versionId: call.versionId, readings: call.readings, meter: call.meter, ...(withDocument ? { document } : {}) };
+      const message: WorkerRequest = { id, versionId: call.versionId, readings: call.readings, meter: call.meter, ...(call.options ? { options: call.options } : {}), ...(withDocument ? { document } : {}), ...(dictionary ? { dictionary } : {}) };
       thread.worker.postMessage(message);
     } catch (err) {
       call.reject(err);
@@ -99,8 +119,8 @@ export class DiagnosisPool {
   private start(): Thread {
     const worker = (this.options.spawn ?? spawnDiagnosisWorker)();
     worker.unref();
-    const thread: Thread = { worker, known: new Set(), pending: new Map() };
-    worker.on('message', (reply: WorkerReply) => this.answered(thread, reply));
+    const thread: Thread = { worker, known: new Set(), pending: new Map(), dictionaries: new Set(), pairSinks: new Map() };
+    worker.on('message', (reply: WorkerReply | PairsMessage) => ('pairs' in reply ? thread.pairSinks.get(reply.versionId)?.(reply.columns) : this.answered(thread, reply)));
     worker.on('error', (err) => void (thread.crash = err));
     worker.on('exit', (code) => {
       this.threads = this.threads.filter((t) => t !== thread);
@@ -112,7 +132,10 @@ export class DiagnosisPool {
   }
 
   private answered(thread: Thread, reply: WorkerReply): void {
-    for (const v of reply.dropped) thread.known.delete(v);
+    for (const v of reply.dropped) {
+      thread.known.delete(v);
+      thread.dictionaries.delete(v);
+    }
     const call = thread.pending.get(reply.id);
     if (!call) return;
     thread.pending.delete(reply.id);
@@ -120,6 +143,7 @@ export class DiagnosisPool {
     if (reply.ok) call.resolve(reply.output);
     else if ('missing' in reply) {
       thread.known.delete(call.versionId);
+      thread.dictionaries.delete(call.versionId);
       void this.dispatch(call, true);
     } else call.reject(rebuild(reply.error));
   }

@@ -1,7 +1,8 @@
 // What the server and its diagnosis threads say to each other. Everything crosses by structured clone, so
 // errors travel as plain data and are rebuilt on the server's side.
-import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
+import type { CaseReading, DiagnosisOutput, PairColumn, UpdateOptions } from '@splitscope/diagnosis';
 import type { MeterProfileId } from '@splitscope/contract';
+import type { StoredDictionary } from './dictionary';
 import type { AppError } from '../../http/errors';
 
 export interface WorkerRequest {
@@ -10,8 +11,12 @@ export interface WorkerRequest {
   readings: CaseReading[];
   /** The meter profile the readings were taken with (a shipped profile id); null = the board's generic meter. */
   meter: MeterProfileId | null;
+  /** The job's prior adjustments and failure history (structured-clone safe). */
+  options?: Pick<UpdateOptions, 'priors' | 'history' | 'references'>;
   /** The board model document, sent only when this thread has not been given the version yet. */
   document?: unknown;
+  /** The version's fault dictionary, sent once per thread when it is ready (dictionary.ts). */
+  dictionary?: StoredDictionary;
 }
 
 export type WorkerFailure =
@@ -20,4 +25,11 @@ export type WorkerFailure =
   | { kind: 'other'; message: string; stack?: string };
 
 /** `dropped`: versions whose engine the thread let go since its last reply (they need their document again). */
+/** Fault pairs a thread computed in the background after an answer, to be stored in the dictionary. */
+export interface PairsMessage {
+  pairs: true;
+  versionId: string;
+  columns: PairColumn[];
+}
+
 export type WorkerReply = { id: number; dropped: string[] } & ({ ok: true; output: DiagnosisOutput } | { ok: false; missing: true } | { ok: false; error: WorkerFailure });

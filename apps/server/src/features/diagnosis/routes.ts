@@ -3,7 +3,7 @@ import { diagnosisResponse, diagnosisSnapshotListResponse, idParams, type Diagno
 import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';
-import { getJobRow } from '../jobs';
+import { getJobRow } from '../../db/job-row';
 import { findSnapshots, getDiagnosis } from './service';
 
 // A diagnosis is kept frozen and shared while the job's readings stay the same, so it is checked against the

@@ -1,30 +1,25 @@
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
-import { fileURLToPath } from 'node:url';
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
-import { BOUNDS, readableDiagnosis, readMeterProfileId, type Diagnosis, type DiagnosisSnapshot, type MeterProfileId } from '@splitscope/contract';
+import { BOUNDS, readableDiagnosis, readMeterProfileId, unitOf, type Diagnosis, type DiagnosisSnapshot, type MeterProfileId, type PriorSource } from '@splitscope/contract';
 import type { Db } from '../../db/client';
 import { boardModelVersions, diagnosisSnapshots, jobs, readingStrikes, readings, shops } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
-import { unitOf } from '../boards';
 import { diagnosisFor } from './cache';
+import { dictionaryStamp, dictionaryState, loadDictionary, savePairs } from './dictionary';
+import { ENGINE_VERSION } from './engine-version';
 import { diagnosisPool } from './pool';
-import { wordDiagnosis, wordsOf } from './words';
+import { jobPriors } from './priors';
+import { wordDiagnosis } from './words';
 
-/** Stored with every snapshot, so an old diagnosis can be told apart from what today's engine would say. */
-export const ENGINE_VERSION = (() => {
-  const pkg = JSON.parse(readFileSync(fileURLToPath(new URL('../../../../../packages/diagnosis/package.json', import.meta.url)), 'utf8')) as { name: string; version: string };
-  return `${pkg.name}@${pkg.version}`;
-})();
 
 /** The same digest PostgreSQL's md5() gives, so a key computed here matches the one the database computes. */
 const md5 = (text: string) => createHash('md5').update(text).digest('hex');
-const keyOf = (versionId: string, meter: MeterProfileId | null, n: number, digest: string | null) => `${versionId}|${meter ?? ''}|${n}|${digest ?? ''}`;
+const keyOf = (versionId: string, meter: MeterProfileId | null, n: number, digest: string | null, priorsKey: string) => `${versionId}|${meter ?? ''}|${n}|${digest ?? ''}|${priorsKey}`;
 
 type ReadingRow = typeof readings.$inferSelect;
-type JobRef = Pick<typeof jobs.$inferSelect, 'id' | 'boardVersionId'>;
+type JobRef = Pick<typeof jobs.$inferSelect, 'id' | 'boardVersionId'> & Partial<Pick<typeof jobs.$inferSelect, 'shopId' | 'boardId' | 'faultCode'>>;
 
 const jobId = sql.placeholder('jobId');
 // The readings the diagnosis works from: diagnosis-phase rows that no later row of the same job corrects
@@ -46,7 +41,7 @@ const prepared = new WeakMap<Db, ReturnType<typeof prepare>>();
 function prepare(db: Db) {
   return {
     job: db
-      .select({ id: jobs.id, boardVersionId: jobs.boardVersionId })
+      .select({ id: jobs.id, boardVersionId: jobs.boardVersionId, shopId: jobs.shopId, boardId: jobs.boardId, faultCode: jobs.faultCode })
       .from(jobs)
       .where(and(eq(jobs.id, jobId), eq(jobs.shopId, sql.placeholder('shopId'))))
       .prepare('diagnosis_job'),
@@ -85,6 +80,14 @@ const caseValue = (r: ReadingRow): CaseReading['value'] => {
   return r.overLimit ? 'OL' : r.value!;
 };
 
+/** What the job's priors are made of; callers that hold only the job's id and version have the rest read here. */
+async function jobFacts(db: Db, job: JobRef) {
+  if (job.shopId !== undefined && job.boardId !== undefined && job.faultCode !== undefined) return { ...job, shopId: job.shopId, boardId: job.boardId, faultCode: job.faultCode };
+  const [row] = await db.select({ shopId: jobs.shopId, boardId: jobs.boardId, faultCode: jobs.faultCode }).from(jobs).where(eq(jobs.id, job.id));
+  if (!row) throw new AppError('not_found', `No job ${job.id}`);
+  return { ...job, ...row };
+}
+
 /** The diagnosis of a job of the shop; another shop's job is a 404. */
 export async function getDiagnosis({ db, shopId, jobId: id }: { db: Db; shopId: string; jobId: string }): Promise<Diagnosis> {
   const [job] = await queries(db).job.execute({ jobId: id, shopId });
@@ -98,16 +101,33 @@ export async function getDiagnosis({ db, shopId, jobId: id }: { db: Db; shopId: 
  */
 export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Promise<Diagnosis> {
   const q = queries(db);
-  const [[k], [m]] = await Promise.all([q.key.execute({ jobId: job.id }), q.meter.execute({ jobId: job.id })]);
+  const versionId = job.boardVersionId;
+  const facts = await jobFacts(db, job);
+  const before = await jobPriors(db, facts, () => documentOf(db, versionId));
+  const [[k], [m], dictionary] = await Promise.all([q.key.execute({ jobId: job.id }), q.meter.execute({ jobId: job.id }), dictionaryState(db, versionId)]);
   const meter = readMeterProfileId(m?.profile);
-  return diagnosisFor(job.id, keyOf(job.boardVersionId, meter, k?.n ?? 0, k?.digest ?? null), async () => {
+  // A diagnosis made before the board's dictionary (or a batch of fault pairs) was ready is made again.
+  const stamp = dictionaryStamp(versionId);
+  const out = await diagnosisFor(job.id, `${keyOf(versionId, meter, k?.n ?? 0, k?.digest ?? null, before.key)}|${stamp}`, async () => {
     const rows = await currentReadings(db, job.id);
     // A worker thread runs the engine (seconds on a first run), so the server answers other requests meanwhile.
-    const out = await diagnosisPool().run(job.boardVersionId, toCaseReadings(rows), () => documentOf(db, job.boardVersionId), meter);
+    const options = { priors: before.priors, ...(before.history ? { history: before.history } : {}), ...(before.references ? { references: before.references } : {}) };
+    const out = await diagnosisPool().run(
+      versionId,
+      toCaseReadings(rows),
+      () => documentOf(db, versionId),
+      {
+        loadDictionary: () => loadDictionary(db, versionId),
+        onPairs: (columns) => void savePairs(db, versionId, columns).catch((err: unknown) => console.error('storing fault pairs failed', err)),
+      },
+      options,
+      meter,
+    );
     // Kept under the key of the rows it ran on: a reading stored since the key query makes that key differ.
-    const words = await wordsOf(job.boardVersionId, () => documentOf(db, job.boardVersionId));
-    return { key: keyOf(job.boardVersionId, meter, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null), output: wordDiagnosis(shapeDiagnosis(out, job, rows), words) };
+    return { key: `${keyOf(versionId, meter, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null, before.key)}|${stamp}`, output: shapeDiagnosis(wordDiagnosis(out), job, rows) };
   });
+  // The build's progress changes while the answer does not: it is added per request, outside the kept answer.
+  return dictionary.state === 'building' ? { ...out, preparing: { partsDone: dictionary.partsDone, partsTotal: dictionary.partsTotal } } : out;
 }
 
 /** A job's current readings in the order the engine reads them. */
@@ -123,6 +143,15 @@ export function shapeDiagnosis(out: DiagnosisOutput, job: JobRef, rows: ReadingR
     jobId: job.id,
     boardVersionId: job.boardVersionId,
     engineVersion: ENGINE_VERSION,
+    priors: (out.priors ?? []).map((p) => ({
+      part: p.part,
+      mode: p.mode,
+      designator: p.words.designator,
+      label: p.words.text,
+      before: p.before,
+      after: p.after,
+      steps: p.steps.map((s) => ({ ...s, source: s.source as PriorSource })),
+    })),
     readings: out.readings.map((rep) => {
       const r = rows[rep.index]!;
       return {

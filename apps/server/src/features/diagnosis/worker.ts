@@ -3,12 +3,12 @@
 // Engines are kept per board version (boards/engine.ts bounds how many and reports the ones it drops), so a later update of the same board
 // reuses the diagnoser's prediction cache and is fast. Messages are answered one at a time, in arrival order.
 import { parentPort } from 'node:worker_threads';
-import { CaseError } from '@splitscope/diagnosis';
+import { addPairs, attachDictionary, CaseError, computePairs, takeWantedPairs, type Diagnoser } from '@splitscope/diagnosis';
 import { AppError } from '../../http/errors';
 // The worker thread loads the board engine alone, not the boards feature's database service behind its index.
 // eslint-disable-next-line import-x/no-restricted-paths
 import { boardEngine, cachedBoardEngine, meterOptions, takeDroppedEngines } from '../boards/engine';
-import type { WorkerFailure, WorkerReply, WorkerRequest } from './protocol';
+import type { PairsMessage, WorkerFailure, WorkerReply, WorkerRequest } from './protocol';
 
 function failure(err: unknown): WorkerFailure {
   if (err instanceof CaseError) return { kind: 'case', message: err.message };
@@ -17,17 +17,43 @@ function failure(err: unknown): WorkerFailure {
   return { kind: 'other', message: e.message, stack: e.stack };
 }
 
-function answer({ id, versionId, readings, meter, document }: WorkerRequest): WorkerReply {
+const withDictionary = new WeakSet<Diagnoser>();
+
+function answer({ id, versionId, readings, meter, document, dictionary, options }: WorkerRequest): WorkerReply {
   try {
     const engine = document === undefined ? cachedBoardEngine(versionId) : boardEngine(versionId, document);
     // The server sends a document only for a version it has not sent before; one dropped from the bound since
     // is asked for again rather than guessed.
     if (!engine) return { id, dropped: takeDroppedEngines(), ok: false, missing: true };
-    const output = engine.diagnoser.update(readings, meterOptions(meter));
+    if (dictionary && !withDictionary.has(engine.diagnoser)) {
+      attachDictionary(engine.diagnoser, dictionary.dictionary, dictionary.pairs);
+      withDictionary.add(engine.diagnoser);
+    }
+    // A board that is its photo only has no model: its readings are recorded, not judged, so none is evidence.
+    // The dictionary holds the board's own meter; another profile's predictions are solved as asked (ADR 0005).
+    const photoOnly = engine.testPoints.length === 0 && Object.keys(engine.parts).length === 0;
+    const output = engine.diagnoser.update(photoOnly ? [] : readings, { ...options, ...meterOptions(meter) });
+    schedulePairs(versionId, engine.diagnoser);
     return { id, dropped: takeDroppedEngines(), ok: true, output };
   } catch (err) {
     return { id, dropped: takeDroppedEngines(), ok: false, error: failure(err) };
   }
+}
+
+// Fault pairs the answer marked as being checked are computed after it, a batch per turn of the event loop, so a
+// request that arrives meanwhile is answered between batches (from the dictionary, at once).
+const PAIR_BATCH = 24;
+function schedulePairs(versionId: string, diagnoser: Diagnoser): void {
+  const work = takeWantedPairs(diagnoser);
+  const step = (from: number) => {
+    if (from >= work.length) return;
+    const columns = computePairs(diagnoser, work.slice(from, from + PAIR_BATCH));
+    addPairs(diagnoser, columns);
+    const message: PairsMessage = { pairs: true, versionId, columns };
+    parentPort!.postMessage(message);
+    setImmediate(step, from + PAIR_BATCH);
+  };
+  if (work.length > 0) setImmediate(step, 0);
 }
 
 parentPort!.on('message', (m: WorkerRequest) => parentPort!.postMessage(answer(m)));

@@ -1,3 +1,4 @@
 // What other features may use of invoices: they import it from here, never from the files inside.
 export { invoiceRoutes } from './routes';
-export { applyPaymentEvent, startCheckout } from './service';
+export { startCheckout } from './service';
+export { paymentWebhookRoutes } from './webhook';

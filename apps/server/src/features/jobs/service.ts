@@ -20,6 +20,7 @@ import {
 } from '@splitscope/contract';
 import { assertRole, type Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
+import { getJobRow, type JobRow } from '../../db/job-row';
 import { boardModels, boardModelVersions, customers, diagnosisSnapshots, jobs, readingStrikes, readings, repairActions, reviews, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso, isoOrNull } from '../../lib/dates';
@@ -27,18 +28,9 @@ import { newId } from '../../lib/ids';
 import { getBoardVersion } from '../boards';
 import { toCustomer } from '../customers';
 import { computeDiagnosis, toSnapshot } from '../diagnosis';
-import { toReview } from '../reviews';
+import { toReview } from './review-view';
+import { traineeGuidedLifted } from '../users';
 import { checkMove, moveJob, type MoveRequest } from './flow';
-
-export type JobRow = typeof jobs.$inferSelect;
-
-/** A job of the actor's shop, or 404: another shop's ids look exactly like unknown ones. */
-export async function getJobRow(db: Db, shopId: string, id: string, lock = false): Promise<JobRow> {
-  const q = db.select().from(jobs).where(and(eq(jobs.id, id), eq(jobs.shopId, shopId)));
-  const [row] = lock ? await q.for('update') : await q;
-  if (!row) throw new AppError('not_found', `No job ${id}`);
-  return row;
-}
 
 const assignee = alias(users, 'assignee');
 
@@ -127,10 +119,18 @@ export async function getJobDetail({ db, actor, id }: { db: Db; actor: Actor; id
     customer: toCustomer(customer!),
     board,
     allowedTransitions: allowedMoves(job.status, actor.role),
-    guidedOrderRequired: guidedOrderBinds(actor.role, job.guidedLifted ? 'lifted' : null),
+    guidedOrderRequired: guidedOrderBinds(actor.role, { job: job.guidedLifted, trainee: actor.role === 'trainee' && (await traineeGuidedLifted(db, actor.id)) }),
+    assigneeGuidedLifted: await assigneeLift(db, job.assigneeId),
     reviews: reviewRows.map(({ r, name }) => toReview(r, name)),
     latestSnapshot: snap ? toSnapshot(snap) : null,
   };
+}
+
+/** The assignee's lift across all their jobs, or null when the assignee is no trainee (guided order never binds them). */
+async function assigneeLift(db: Db, assigneeId: string | null): Promise<boolean | null> {
+  if (!assigneeId) return null;
+  const [u] = await db.select({ role: users.role }).from(users).where(eq(users.id, assigneeId));
+  return u?.role === 'trainee' ? traineeGuidedLifted(db, assigneeId) : null;
 }
 
 async function checkAssignee(db: Db, shopId: string, assigneeId: string | null | undefined) {

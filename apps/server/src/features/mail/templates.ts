@@ -1,6 +1,6 @@
 // The customer e-mails, each in plain text and HTML from one description, so the two never say different
 // things. HTML is escaped here and nowhere else.
-import { formatMoney, jobStatusLabels, type JobStatus } from '@splitscope/contract';
+import { formatMoney, jobStatusLabels, shopCardLines, type JobStatus, type ShopCard } from '@splitscope/contract';
 
 export interface MailContent {
   subject: string;
@@ -15,6 +15,8 @@ interface Row {
 
 interface Layout {
   shopName: string;
+  /** The shop's address, phone, e-mail and tax number under its name, in mail to customers. */
+  shopLines?: string[];
   subject: string;
   greeting: string;
   paragraphs: string[];
@@ -38,6 +40,7 @@ function render(l: Layout): MailContent {
   }
   if (l.action) text.push(`${l.action.label}: ${l.action.url}`, '');
   text.push(l.closing ?? `${l.shopName}`);
+  if (!l.closing) text.push(...(l.shopLines ?? []));
 
   const e = escapeHtml;
   const rows = l.rows?.length
@@ -58,7 +61,7 @@ function render(l: Layout): MailContent {
 ${l.paragraphs.map((p) => `<p>${e(p)}</p>`).join('\n')}
 ${rows}
 ${action}
-<p>${e(l.closing ?? l.shopName)}</p>
+<p>${e(l.closing ?? l.shopName)}${l.closing ? '' : (l.shopLines ?? []).map((s) => `<br><span style="font-size:12px;color:#555">${e(s)}</span>`).join('')}</p>
 </body></html>`;
   return { subject: l.subject, text: text.join('\n'), html };
 }
@@ -74,7 +77,7 @@ export interface DocumentSummary {
 }
 
 export interface JobSummary {
-  shopName: string;
+  shop: ShopCard;
   customerName: string;
   jobNumber: number;
   unitDescription: string;
@@ -97,7 +100,8 @@ function documentRows(d: DocumentSummary): { rows: Row[]; total: Row } {
 
 export function quoteMail(job: JobSummary, quote: DocumentSummary & { note: string | null }, link: { url: string; expiresAt: Date }): MailContent {
   return render({
-    shopName: job.shopName,
+    shopName: job.shop.name,
+    shopLines: shopCardLines(job.shop),
     subject: `Quote ${quote.number} for job ${job.jobNumber}: ${job.boardName ?? job.unitDescription}`,
     greeting: `Hello ${job.customerName},`,
     paragraphs: [
@@ -112,7 +116,8 @@ export function quoteMail(job: JobSummary, quote: DocumentSummary & { note: stri
 
 export function invoiceMail(job: JobSummary, invoice: DocumentSummary, link: { url: string }, reportAttached: boolean): MailContent {
   return render({
-    shopName: job.shopName,
+    shopName: job.shop.name,
+    shopLines: shopCardLines(job.shop),
     subject: `Invoice ${invoice.number} for job ${job.jobNumber}: your board is repaired`,
     greeting: `Hello ${job.customerName},`,
     paragraphs: [
@@ -127,7 +132,8 @@ export function invoiceMail(job: JobSummary, invoice: DocumentSummary, link: { u
 
 export function paidMail(job: JobSummary, invoice: { number: string; currency: string; paidCents: number }, link: { url: string }): MailContent {
   return render({
-    shopName: job.shopName,
+    shopName: job.shop.name,
+    shopLines: shopCardLines(job.shop),
     subject: `Payment received for invoice ${invoice.number}`,
     greeting: `Hello ${job.customerName},`,
     paragraphs: [`Thank you: we received ${formatMoney(invoice.paidCents, invoice.currency)} for invoice ${invoice.number} (job ${job.jobNumber}).`],
@@ -146,7 +152,8 @@ const milestoneText: Record<string, string> = {
 
 export function statusMail(job: JobSummary, status: JobStatus, link: { url: string }): MailContent {
   return render({
-    shopName: job.shopName,
+    shopName: job.shop.name,
+    shopLines: shopCardLines(job.shop),
     subject: `Job ${job.jobNumber}: ${jobStatusLabels[status]}`,
     greeting: `Hello ${job.customerName},`,
     paragraphs: [`An update on the board (${board(job)}), job ${job.jobNumber}.`, milestoneText[status] ?? `Its status is now: ${jobStatusLabels[status]}.`],
@@ -157,7 +164,8 @@ export function statusMail(job: JobSummary, status: JobStatus, link: { url: stri
 /** To the shop: the customer's answer on a quote. */
 export function quoteDecisionMail(job: JobSummary, quote: { number: string }, decision: 'approved' | 'declined', reason: string | null): MailContent {
   return render({
-    shopName: job.shopName,
+    shopName: job.shop.name,
+    shopLines: shopCardLines(job.shop),
     subject: `Quote ${quote.number} ${decision} by ${job.customerName} (job ${job.jobNumber})`,
     greeting: 'Hello,',
     paragraphs: [

@@ -4,7 +4,7 @@ import type { Db } from '../../db/client';
 import { binParts, binTakes, boardModelVersions, repairActions } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
-import { getJobRow } from '../jobs';
+import { getJobRow } from '../../db/job-row';
 import { getServiceTerms } from '../service-terms';
 import { assertFits, valueOf } from './fit';
 

@@ -2,30 +2,34 @@
 // diagnosis engine gives next. Every unpowered reading on a section that touches the bus needs the discharge gate
 // passed first, whoever takes it. The bench screen enforces the same; this is the server's half, so a hand-made
 // request cannot skip a step or the gate.
-import { dischargeGateRefusal, type CreateReadingInput, type GateModel } from '@splitscope/contract';
+import { dischargeGateRefusal, isPhotoOnlyBoard, type CreateReadingInput, type GateModel } from '@splitscope/contract';
 import { DEFAULT_SAFE_THRESHOLD } from '@splitscope/boards';
 import type { Db } from '../../db/client';
 import type { jobs } from '../../db/schema';
 import { AppError } from '../../http/errors';
-import { normNet as norm, readBoardModel } from '../boards';
+import { normNode as norm } from '@splitscope/circuit';
+import { LRUCache } from 'lru-cache';
+import { readBoardModel } from '../boards';
 import { computeDiagnosis } from '../diagnosis';
 
 const sameSet = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((x) => b.some((y) => norm(x) === norm(y)));
 
 // The gate model (test points and sections) of a version, parsed once: a version never changes. Null when the
-// document cannot be read, which gates every unpowered reading.
-const gateModels = new Map<string, GateModel | null>();
+// document cannot be read, which gates every unpowered reading. This module is the cache's only user; lru-cache
+// keeps the 200 versions used last (a few kB each) and stores no null, hence the box.
+const gateModels = new LRUCache<string, { model: GateModel | null }>({ max: 200 });
 async function gateModelOf(versionId: string, loadDocument: () => Promise<unknown>): Promise<GateModel | null> {
-  if (gateModels.has(versionId)) return gateModels.get(versionId)!;
+  const hit = gateModels.get(versionId);
+  if (hit) return hit.model;
   let model: GateModel | null = null;
   try {
     const m = readBoardModel(await loadDocument());
-    model = { testPoints: m.testPoints, sections: m.sections };
+    // A board that is its photo only (no sections, no parts) says nothing about where the bus is: it stays null.
+    if (!isPhotoOnlyBoard(m)) model = { testPoints: m.testPoints, sections: m.sections };
   } catch {
     // An unreadable document leaves the model null, which gates every unpowered reading.
   }
-  gateModels.set(versionId, model);
-  if (gateModels.size > 200) gateModels.delete(gateModels.keys().next().value as string);
+  gateModels.set(versionId, { model });
   return model;
 }
 

@@ -1,2 +1,2 @@
 // What other features may use of readings: they import it from here, never from the files inside.
-export { findReadings } from './service';
+export { createReading, findReadings } from './service';

@@ -2,16 +2,18 @@ import { createHash } from 'node:crypto';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { LRUCache } from 'lru-cache';
-import { acceptsReadings, correctionRefusal, guidedOrderBinds, readingRefusal, readMeterProfileId, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading } from '@splitscope/contract';
+import { acceptsReadings, correctionRefusal, guidedOrderBinds, readingRefusal, readMeterProfileId, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading, unitOf } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
 import { boardModelVersions, jobs, readingStrikes, readings, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { boardEngine, cachedBoardEngine, meterOf, powerRefusal, resolveNet, resolveParts, unitOf, verdictFor } from '../boards';
+import { boardEngine, cachedBoardEngine, meterOf, powerRefusal, resolveNet, resolveParts, verdictFor } from '../boards';
+import { capturedPointIds } from '../capture';
 import { getDutyRules } from '../duties';
-import { getJobRow } from '../jobs';
+import { getJobRow } from '../../db/job-row';
+import { traineeGuidedLifted } from '../users';
 import { checkGuidedStep, checkSafetyGate } from './guided';
 import { insertReading, type NewReading, type ReadingRow } from './write-batch';
 
@@ -236,9 +238,12 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
     const v = await loadVersion();
     engine = boardEngine(versionId, v.document, v.expectedReadings);
   }
-  const redNet = resolveNet(engine, input.red);
+  // A board that is its photo only takes readings on the points marked on its photo: recorded, not judged.
+  const photoPoints = engine.testPoints.length === 0 && Object.keys(engine.parts).length === 0 ? await capturedPointIds(db, versionId) : null;
+  const onPhoto = (name: string) => (photoPoints?.has(name.trim().toUpperCase()) ? name.trim().toUpperCase() : undefined);
+  const redNet = resolveNet(engine, input.red) ?? onPhoto(input.red);
   if (!redNet) throw invalid('red', `Unknown net or test point "${input.red}" on this board model`);
-  const blackNet = resolveNet(engine, input.black);
+  const blackNet = resolveNet(engine, input.black) ?? onPhoto(input.black);
   if (!blackNet) throw invalid('black', `Unknown net or test point "${input.black}" on this board model`);
   const lifted = resolveParts(engine, input.lifted);
   if ('unknown' in lifted) throw invalid('lifted', `Unknown part "${lifted.unknown}" on this board model`);
@@ -253,13 +258,14 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
       if (refused) throw new AppError('forbidden', refused);
     }
   }
-  if (job && guidedOrderBinds(actor.role, job.guidedLiftedBy)) await checkGuidedStep({ db, job, input, probe: { redNet, blackNet, lifted: lifted.parts }, corrects });
+  const lift = { job: !!job?.guidedLiftedBy, trainee: actor.role === 'trainee' && (await traineeGuidedLifted(db, actor.id)) };
+  if (job && guidedOrderBinds(actor.role, lift)) await checkGuidedStep({ db, job, input, probe: { redNet, blackNet, lifted: lifted.parts }, corrects });
   // Every role, every phase: an unpowered reading on the bus waits for the discharge gate.
   await checkSafetyGate(versionId, async () => (await loadVersion()).document, input);
 
   const engineValue = input.mode === 'continuity' ? (input.beep ?? input.value !== 'OL') : input.value;
   const meter = meterOf(readMeterProfileId((await meterRow)[0]?.profile));
-  const verdict = verdictFor(engine, { mode: input.mode, red: redNet, black: blackNet, power: input.power, lifted: lifted.parts }, engineValue, meter);
+  const verdict = photoPoints ? null : verdictFor(engine, { mode: input.mode, red: redNet, black: blackNet, power: input.power, lifted: lifted.parts }, engineValue, meter);
   const row: NewReading = {
     id: newId(),
     shopId: actor.shopId,

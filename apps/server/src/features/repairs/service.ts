@@ -6,7 +6,7 @@ import { repairActions, uploads, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { getJobRow } from '../jobs';
+import { getJobRow } from '../../db/job-row';
 import { checkBinTake, takeFromBin } from '../parts-bin';
 
 const toRepair = (r: typeof repairActions.$inferSelect, authorName: string): Repair => ({

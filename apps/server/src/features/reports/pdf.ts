@@ -1,9 +1,9 @@
 // The repair report as a PDF for the customer (pdfkit), drawn from the one report model (service.ts). The lines
 // are composed first and drawn second, so what the PDF says can be checked without parsing a PDF.
 import PDFDocument from 'pdfkit';
-import { jobStatusLabels, METER_WORDS, type RepairReport, type ReportReading } from '@splitscope/contract';
+import { jobStatusLabels, METER_WORDS, shopCardLines, type RepairReport, type ReportReading } from '@splitscope/contract';
 
-type Line = { style: 'title' | 'subtitle' | 'heading' | 'field' | 'text' | 'caution'; text: string; label?: string; gapAfter?: number };
+type Line = { style: 'title' | 'shop' | 'subtitle' | 'heading' | 'field' | 'text' | 'caution'; text: string; label?: string; gapAfter?: number };
 
 const VERDICT_WORDS = { ok: 'healthy', low: 'low', high: 'high' } as const;
 
@@ -17,7 +17,8 @@ export function reportLines(r: RepairReport): Line[] {
   const field = (label: string, value: string | null): Line[] => (value ? [{ style: 'field', label, text: value }] : []);
   const finding = r.finding.part ? `Faulty part: ${r.finding.part}${r.finding.reviewedBy ? ` (diagnosis reviewed by ${r.finding.reviewedBy})` : ''}` : 'No finding recorded.';
   return [
-    { style: 'title', text: r.shopName },
+    { style: 'title', text: r.shop.name },
+    ...shopCardLines(r.shop).map((text): Line => ({ style: 'shop', text })),
     { style: 'subtitle', text: `Repair report: job ${r.jobNumber}`, gapAfter: 1 },
     ...field('Customer', r.customer.company ? `${r.customer.name} (${r.customer.company})` : r.customer.name),
     ...field('Unit', r.unit),
@@ -39,7 +40,7 @@ export function reportLines(r: RepairReport): Line[] {
 
 /** Renders the report; resolves with the PDF bytes. */
 export function renderReportPdf(r: RepairReport): Promise<Buffer> {
-  const doc = new PDFDocument({ size: 'A4', margin: 50, info: { Title: `Repair report, job ${r.jobNumber}`, Author: r.shopName } });
+  const doc = new PDFDocument({ size: 'A4', margin: 50, info: { Title: `Repair report, job ${r.jobNumber}`, Author: r.shop.name } });
   const chunks: Buffer[] = [];
   doc.on('data', (c: Buffer) => chunks.push(c));
   const done = new Promise<Buffer>((resolve, reject) => {
@@ -51,7 +52,8 @@ export function renderReportPdf(r: RepairReport): Promise<Buffer> {
     if (line.style === 'heading' && previous !== 'subtitle') doc.moveDown();
     if (line.style === 'caution') doc.moveDown(2);
     if (line.style === 'title') doc.fontSize(18).text(line.text);
-    else if (line.style === 'subtitle') doc.fontSize(14).text(line.text);
+    else if (line.style === 'shop') doc.fontSize(9).fillColor('#555').text(line.text).fillColor('black');
+    else if (line.style === 'subtitle') doc.moveDown(previous === 'shop' ? 0.5 : 0).fontSize(14).text(line.text);
     else if (line.style === 'heading') doc.fontSize(12).font('Helvetica-Bold').text(line.text).font('Helvetica').fontSize(10);
     else if (line.style === 'field') doc.fontSize(10).font('Helvetica-Bold').text(`${line.label}: `, { continued: true }).font('Helvetica').text(line.text);
     else if (line.style === 'caution') doc.fontSize(8).fillColor('#555').text(line.text);

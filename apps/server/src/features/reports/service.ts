@@ -8,6 +8,7 @@ import { AppError } from '../../http/errors';
 import { iso, isoOrNull } from '../../lib/dates';
 import { findReadings } from '../readings';
 import { findRepairs } from '../repairs';
+import { toShopCard } from '../shops';
 
 // Probe positions and parts in the bench's words (contract: boardWords), never the netlist's names.
 const asReportReading =
@@ -20,7 +21,7 @@ const asReportReading =
 
 export async function getRepairReport({ db, shopId, jobId }: { db: Db; shopId: string; jobId: string }): Promise<RepairReport> {
   const [row] = await db
-    .select({ job: jobs, customer: customers, shopName: shops.name, board: boardModels.name, boardVersion: boardModelVersions.version, document: boardModelVersions.document })
+    .select({ job: jobs, customer: customers, shop: shops, board: boardModels.name, boardVersion: boardModelVersions.version, document: boardModelVersions.document })
     .from(jobs)
     .innerJoin(customers, eq(customers.id, jobs.customerId))
     .innerJoin(shops, eq(shops.id, jobs.shopId))
@@ -44,7 +45,7 @@ export async function getRepairReport({ db, shopId, jobId }: { db: Db; shopId: s
   return {
     jobId,
     jobNumber: job.number,
-    shopName: row.shopName,
+    shop: toShopCard(row.shop),
     customer: { name: row.customer.name, company: row.customer.company },
     unit: job.unitDescription,
     serial: job.serial,

@@ -6,8 +6,8 @@ import { diagnosisSnapshots, reviews, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
 import { getDutyRules } from '../duties';
-import { checkMove, getJobRow, moveJob, type MoveRequest } from '../jobs';
-import { toReview } from './view';
+import { getJobRow } from '../../db/job-row';
+import { checkMove, moveJob, toReview, type MoveRequest } from '../jobs';
 
 /** Approve → approved; send back → diagnosing, marked sent back. Only from awaiting review. */
 export async function createReview({ db, actor, jobId, input }: { db: Db; actor: Actor; jobId: string; input: { decision: 'approve' | 'send-back'; comment: string; proposedPart?: string | null } }): Promise<Review> {

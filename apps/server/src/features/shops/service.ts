@@ -1,5 +1,5 @@
 import { and, count, eq, sql } from 'drizzle-orm';
-import { readMeterProfileId, type AppMode, type FirstRunRequest, type Shop, type UpdateShopRequest } from '@splitscope/contract';
+import { readMeterProfileId, shopCardSchema, shopSchema, type AppMode, type FirstRunRequest, type Shop, type ShopCard, type UpdateShopRequest } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Auth } from '../../auth/lucia';
 import { hashPassword } from '../../auth/password';
@@ -11,18 +11,12 @@ import { newId } from '../../lib/ids';
 
 type Row = typeof shops.$inferSelect;
 
-export const toShop = (r: Row): Shop => ({
-  id: r.id,
-  name: r.name,
-  address: r.address,
-  phone: r.phone,
-  email: r.email,
-  taxNumber: r.taxNumber,
-  logoUploadId: r.logoUploadId,
-  sessionIdleHours: r.sessionIdleHours,
-  sessionMaxDays: r.sessionMaxDays,
-  meterProfile: readMeterProfileId(r.meterProfile),
-});
+// The row's columns are the shop's fields; the schema keeps those the API shows (and drops created_at). A stored
+// meter profile no longer shipped reads as none (the generic meter).
+export const toShop = (r: Row): Shop => shopSchema.parse({ ...r, meterProfile: readMeterProfileId(r.meterProfile) });
+
+/** What customers see of the shop (reports, e-mails, the customer page); never its session settings. */
+export const toShopCard = (r: Row): ShopCard => shopCardSchema.parse({ ...r, hasLogo: r.logoUploadId !== null });
 
 /** The first-run page is open only in shop mode and only until a shop exists. */
 export async function setupStatus({ db, mode }: { db: Db; mode: AppMode }) {

@@ -1,9 +1,9 @@
 import express, { Router } from 'express';
-import { idParams, uploadListResponse, uploadQuery, uploadSchema } from '@splitscope/contract';
+import { idParams, uploadListResponse, uploadQuery, uploadRefusalListResponse, uploadSchema } from '@splitscope/contract';
 import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';
-import { createUpload, findUploads, getUploadBytes } from './service';
+import { createUpload, findUploadRefusals, findUploads, getUploadBytes } from './service';
 
 export function uploadRoutes(ctx: AppContext): Router {
   const r = Router();
@@ -21,6 +21,10 @@ export function uploadRoutes(ctx: AppContext): Router {
     res.setHeader('Cache-Control', 'private, no-cache');
     res.setHeader('Content-Disposition', 'inline');
     res.type(contentType).send(bytes);
+  });
+  r.get('/jobs/:id/upload-refusals', requireRole(...ROLES.everyone), async (req, res) => {
+    const { id } = parse(idParams, req.params);
+    res.json(uploadRefusalListResponse.parse(await findUploadRefusals({ db: ctx.db, shopId: actorOf(req).shopId, jobId: id })));
   });
   r.get('/jobs/:id/uploads', requireRole(...ROLES.everyone), async (req, res) => {
     const { id } = parse(idParams, req.params);

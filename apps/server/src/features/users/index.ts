@@ -1,2 +1,2 @@
 // What other features may use of users: they import it from here, never from the files inside.
-export { tokenHash } from './service';
+export { tokenHash, traineeGuidedLifted } from './service';

@@ -3,9 +3,11 @@ import {
   acceptInvitationRequest,
   createInvitationRequest,
   createInvitationResponse,
+  guidedLiftRoles,
   idParams,
   invitationListResponse,
   shopMemberSchema,
+  traineeGuidedOrderRequest,
   updateUserRequest,
   userListResponse,
 } from '@splitscope/contract';
@@ -13,7 +15,7 @@ import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';
 import { addressLimit } from '../../http/rate-limit';
-import { acceptInvitation, createInvitation, findInvitations, findMembers, resendInvitation, updateMember } from './service';
+import { acceptInvitation, createInvitation, findInvitations, findMembers, resendInvitation, setTraineeGuidedOrder, updateMember } from './service';
 
 export function userRoutes(ctx: AppContext): Router {
   const r = Router();
@@ -35,6 +37,11 @@ export function userRoutes(ctx: AppContext): Router {
     const { id } = parse(idParams, req.params);
     const { role, active } = parse(updateUserRequest, req.body);
     res.json(shopMemberSchema.parse(await updateMember({ db: ctx.db, auth: ctx.auth, actor: actorOf(req), id, role, active })));
+  });
+  r.put('/users/:id/guided-order', requireRole(...guidedLiftRoles), async (req, res) => {
+    const { id } = parse(idParams, req.params);
+    const { lifted } = parse(traineeGuidedOrderRequest, req.body);
+    res.json(shopMemberSchema.parse(await setTraineeGuidedOrder({ db: ctx.db, actor: actorOf(req), id, lifted })));
   });
 
   // Public (the invited person has no account yet), so rate-limited like sign-in.

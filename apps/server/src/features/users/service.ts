@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { and, asc, count, desc, eq, gt, isNull } from 'drizzle-orm';
-import type { AcceptInvitationRequest, CreateInvitationRequest, Invitation, Role, ShopMember } from '@splitscope/contract';
+import { traineeLiftRefusal, type AcceptInvitationRequest, type CreateInvitationRequest, type Invitation, type Role, type ShopMember } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Auth } from '../../auth/lucia';
 import { hashPassword } from '../../auth/password';
@@ -24,6 +24,7 @@ const member = (u: typeof users.$inferSelect): ShopMember => ({
   name: u.name,
   role: u.role,
   deactivatedAt: isoOrNull(u.deactivatedAt),
+  guidedLifted: u.role === 'trainee' && u.guidedLiftedBy !== null,
   createdAt: iso(u.createdAt),
 });
 const invitation = (i: typeof invitations.$inferSelect): Invitation => ({
@@ -71,6 +72,27 @@ export async function updateMember({ db, auth, actor, id, role, active }: { db: 
   if (active === false) await auth.invalidateUserSessions(id);
   else forgetUserSessions(id);
   return updated;
+}
+
+/**
+ * A lead lifts guided order for a trainee on all of that trainee's jobs (or puts it back). Recorded in the audit
+ * log; the readings service asks the policy with this flag beside the job's own.
+ */
+export async function setTraineeGuidedOrder({ db, actor, id, lifted }: { db: Db; actor: Actor; id: string; lifted: boolean }): Promise<ShopMember> {
+  const [target] = await db.select().from(users).where(and(eq(users.id, id), eq(users.shopId, actor.shopId)));
+  if (!target) throw new AppError('not_found', `No user ${id}`);
+  const refused = traineeLiftRefusal(target.role);
+  if (refused) throw new AppError('conflict', refused);
+  const [row] = await db.update(users).set({ guidedLiftedBy: lifted ? actor.id : null }).where(eq(users.id, id)).returning();
+  await db.insert(auditLog).values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: lifted ? 'guided-order-lifted' : 'guided-order-restored', subject: target.email, detail: `${target.name}, all jobs` });
+  return member(row!);
+}
+
+/** Whether a lead lifted guided order on all of this person's jobs (the actor of a reading, the assignee of a job). */
+export async function traineeGuidedLifted(db: Db, userId: string | null): Promise<boolean> {
+  if (!userId) return false;
+  const [u] = await db.select({ role: users.role, by: users.guidedLiftedBy }).from(users).where(eq(users.id, userId));
+  return !!u && u.role === 'trainee' && u.by !== null;
 }
 
 export async function findInvitations({ db, shopId }: { db: Db; shopId: string }) {

@@ -9,4 +9,9 @@ export const getDiagnosis = (jobId: string) =>
 export const getDiagnosisQueryOptions = (jobId: string) =>
   queryOptions({ queryKey: ['jobs', jobId, 'diagnosis'], queryFn: () => getDiagnosis(jobId) });
 
-export const useDiagnosis = (jobId: string, enabled = true) => useQuery({ ...getDiagnosisQueryOptions(jobId), enabled });
+/**
+ * While the board's expected values are still being prepared, or fault pairs are still being checked, the
+ * ranking is asked for again each second so it updates when they arrive.
+ */
+export const useDiagnosis = (jobId: string, enabled = true) =>
+  useQuery({ ...getDiagnosisQueryOptions(jobId), enabled, refetchInterval: (q) => (q.state.data?.preparing || q.state.data?.checking ? 1000 : false) });

@@ -5,6 +5,7 @@ import { Link, Navigate, useLocation } from 'react-router-dom';
 import { useMe } from '@/lib/api/me';
 import { useSetupStatus } from '@/lib/api/setup-status';
 import { useSignIn } from '../api/sign-in';
+import { formSubmit } from '@/lib/form-submit';
 
 export function SignInPage() {
   const me = useMe();
@@ -26,7 +27,7 @@ export function SignInPage() {
             <p className="text-sm text-stone-600">Bench workbench for inverter control boards</p>
           </div>
         </div>
-        <form onSubmit={form.handleSubmit((v) => signIn.mutate(v))} className="space-y-4" noValidate>
+        <form onSubmit={formSubmit(form.handleSubmit((v) => signIn.mutate(v)))} className="space-y-4" noValidate>
           <label className="block">
             <span className="text-sm font-medium">E-mail</span>
             <input

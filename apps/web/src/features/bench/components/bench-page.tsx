@@ -1,19 +1,17 @@
-import { acceptsReadings, canPropose, jobStatusLabels, type ExpectedReadingRow, type JobDetail, type StoredReading } from '@splitscope/contract';
+import { acceptsReadings, canPropose, isPhotoOnlyBoard, jobStatusLabels, type ExpectedReadingRow, type JobDetail, type StoredReading } from '@splitscope/contract';
 import { useEffect, useMemo, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
 import { JobHistoryNote } from '@/components/board-history/board-history';
 import { useJobHistory } from '@/lib/api/get-board-history';
-import { Button } from '@/components/ui/button';
 import { QueryState } from '@/components/ui/query-state';
 import { StatusBadge } from '@/components/ui/status-badge';
 import { useMe } from '@/lib/api/me';
 import { useDiagnosis } from '@/lib/api/get-diagnosis';
 import { useJob } from '@/lib/api/get-job';
 import { useReadings } from '@/lib/api/get-readings';
-import { useUpdateJob } from '@/lib/api/update-job';
 import { ReadingsTable } from '@/components/readings/readings-table';
-import { bandText, METER_LABEL, readingText } from '@/lib/format';
+import { bandText, readingText } from '@/lib/format';
 import { useReadingSender } from '@/lib/use-reading-sender';
 import {
   currentReadings,
@@ -21,7 +19,9 @@ import {
   latestFor,
   nextTests,
   pointState,
+  priorNotes,
   rankedParts,
+  sectionShares,
   rowsForPoint,
   sameTarget,
   stateOf,
@@ -36,12 +36,16 @@ import { GuidedSwitch } from './guided-switch';
 import { MeterSwitch } from './meter-switch';
 import { LiftedParts } from './lifted-parts';
 import { ReadingActions } from './reading-actions';
+import { ProbeChoices } from './probe-choices';
+import { ProposePanel } from './propose-panel';
 import { PointList } from './point-list';
 import { RankingPanel } from './ranking-panel';
+import { JobPhotos } from '@/components/photos/job-photos';
 import { ReadingPanel, type LatestReading } from './reading-panel';
 import { SafetyGate } from '@/components/safety-gate';
 import { SignalChain, type ChainLink } from './signal-chain';
 import { UnsentList } from './unsent-list';
+import { UnmodelledBench } from './unmodelled-bench';
 
 function chainLinks(view: BoardView, rows: ExpectedReadingRow[], readings: StoredReading[]): ChainLink[] {
   // The chain is the powered DC-volt rows in board order (the board model lists them bus first).
@@ -64,12 +68,13 @@ function chainLinks(view: BoardView, rows: ExpectedReadingRow[], readings: Store
     });
 }
 
-type Tab = 'map' | 'chain' | 'points' | 'readings';
+type Tab = 'map' | 'chain' | 'points' | 'readings' | 'photos';
 const TABS: { id: Tab; label: string }[] = [
   { id: 'map', label: 'Board map' },
   { id: 'chain', label: 'Signal chain' },
   { id: 'points', label: 'Test points' },
   { id: 'readings', label: 'Readings' },
+  { id: 'photos', label: 'Photos' },
 ];
 const linkClass = 'inline-flex min-h-11 items-center rounded-md border border-stone-400 bg-white px-3 text-sm font-semibold';
 
@@ -85,10 +90,8 @@ function Bench({ job }: { job: JobDetail }) {
   const diagnosisQ = useDiagnosis(job.id);
   const sender = useReadingSender(job.id);
   const history = useJobHistory(job.id);
-  const update = useUpdateJob(job.id);
   const [target, setTarget] = useState<(Target & { pointId?: string }) | null>(null);
   const [selectedPart, setSelectedPart] = useState<string | null>(null);
-  const [note, setNote] = useState('');
   const [lifted, setLifted] = useState<string[]>([]);
   const [entryError, setEntryError] = useState<string | null>(null);
   // The bus voltage typed at the safety gate; null until the gate is passed for this unplugged spell.
@@ -174,12 +177,6 @@ function Bench({ job }: { job: JobDetail }) {
   };
   const choices = !guided && target?.pointId && lifted.length === 0 ? rowsForPoint(view, rows, target.pointId) : [];
   const proposed = ranked.find((p) => p.part === selectedPart) ?? ranked[0];
-  const propose = async () => {
-    if (!proposed) return;
-    if (job.status === 'received') await update.mutateAsync({ status: 'diagnosing' });
-    // The lead, the repair and the report name the part as printed on the board.
-    await update.mutateAsync({ status: 'awaiting-review', proposedPart: proposed.designator, proposalNote: note });
-  };
   const checkBus = async (t: string): Promise<{ ok: true; volts: number } | { ok: false; message: string }> => {
     const r = await parseTyped(t, 'dcv');
     if (!r.ok) return { ok: false, message: r.error };
@@ -194,7 +191,7 @@ function Bench({ job }: { job: JobDetail }) {
   const safetyGate = <SafetyGate key={gateRefusal ?? 'gate'} figures={gateFigures(view, rows)} check={checkBus} onPass={passGate} refusal={gateRefusal} />;
   const probeNets = active ? { red: view.pointOf(active.red)?.net ?? active.red, black: view.pointOf(active.black)?.net ?? active.black } : undefined;
   const faultCode = job.faultCode ? job.board.faultCodes.find((f) => f.code.toLowerCase() === job.faultCode!.toLowerCase()) : undefined;
-  const before = readings.length === 0 ? { code: job.faultCode, meaning: faultCode?.title ?? null, sections: (faultCode?.sections ?? []).map((id) => view.sections.find((x) => x.id === id)?.name ?? id) } : null;
+  const before = readings.length === 0 ? { code: job.faultCode, meaning: faultCode?.title ?? null, sections: (faultCode?.sections ?? []).map((id) => view.sections.find((x) => x.id === id)?.name ?? id), firstTest: step?.label ?? null } : null;
   const entry = panelTarget && canWrite && !gateShown && <ReadingPanel target={panelTarget} latest={latest} onSave={save} error={entryError} />;
 
   return (
@@ -214,6 +211,11 @@ function Bench({ job }: { job: JobDetail }) {
           {['approved', 'repaired', 'verified', 'returned'].includes(job.status) && (
             <Link className={linkClass} to={`/jobs/${job.id}/repair`}>
               Repair and verification
+            </Link>
+          )}
+          {!['verified', 'returned'].includes(job.status) && (
+            <Link className={linkClass} to={`/jobs/${job.id}/import`}>
+              Import meter log
             </Link>
           )}
           <Link className={linkClass} to={`/jobs/${job.id}/report`}>
@@ -265,6 +267,7 @@ function Bench({ job }: { job: JobDetail }) {
                 />
               </div>
             )}
+            {tab === 'photos' && <JobPhotos jobId={job.id} canAdd={canWrite} />}
             {tab === 'chain' && <SignalChain links={chainLinks(view, rows, readings)} />}
             {tab === 'points' && (
               <PointList
@@ -295,6 +298,11 @@ function Bench({ job }: { job: JobDetail }) {
                   nextTests={guided ? [] : steps.slice(0, 3)}
                   selectedPart={selectedPart}
                   before={before}
+                  suspectSections={before && diagnosisQ.data ? sectionShares(view, diagnosisQ.data) : []}
+                  reasons={diagnosisQ.data ? priorNotes(diagnosisQ.data) : []}
+                  guided={guided}
+                  preparing={diagnosisQ.data?.preparing}
+                  checkingPairs={diagnosisQ.data?.checking?.candidates}
                   onPickPart={(p) => setSelectedPart((s) => (s === p ? null : p))}
                   onPickTest={guided ? undefined : (t) => setTarget({ ...(t as (typeof steps)[number]).target, pointId: t.pointId })}
                 />
@@ -313,48 +321,18 @@ function Bench({ job }: { job: JobDetail }) {
           ) : (
             <>
               {canWrite && <LiftedParts parts={liftable} lifted={lifted} onChange={changeLifted} onMeasurePads={measurePads} />}
-              {choices.length > 1 && (
-                <fieldset className="flex flex-wrap gap-1">
-                  <legend className="text-sm font-medium">Test at this point</legend>
-                  {choices.map((r) => (
-                    <button
-                      key={r.id}
-                      type="button"
-                      aria-pressed={!!target && sameTarget(view, r, target)}
-                      onClick={() => setTarget({ mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted, pointId: target?.pointId })}
-                      className="min-h-11 rounded-md border border-stone-400 bg-white px-2 text-sm aria-pressed:border-copper aria-pressed:bg-amber-50 aria-pressed:font-semibold"
-                    >
-                      {/* The point is already chosen: what tells these apart is the meter function and the power state. */}
-                      {METER_LABEL[r.mode]} · {r.power === 'on' ? 'powered' : 'unplugged'}
-                    </button>
-                  ))}
-                </fieldset>
-              )}
+              <ProbeChoices
+                rows={choices}
+                isChosen={(r) => !!target && sameTarget(view, r, target)}
+                onChoose={(r) => setTarget({ mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted, pointId: target?.pointId })}
+              />
               {gateShown && active && safetyGate}
               {entry}
               {!active && <p className="rounded-md bg-board-light p-3 text-sm">Pick a test point on the map, or a next test below.</p>}
               {!canWrite && <p className="rounded-md bg-board-light p-2 text-sm">This job is {jobStatusLabels[job.status].toLowerCase()}: diagnosis readings are closed.</p>}
             </>
           )}
-          {proposed && readings.length > 0 && canPropose(job.status, me.data?.role) && (
-            <section aria-labelledby="propose-h" className="space-y-2 rounded-lg border border-stone-300 bg-white p-3">
-              <h2 id="propose-h" className="text-base font-semibold">
-                Propose for review
-              </h2>
-              <p className="text-sm">
-                <strong>{proposed.label}</strong>
-                {!selectedPart && <span className="text-stone-700"> (the top candidate; pick another in the list above)</span>}
-              </p>
-              <label className="block">
-                <span className="text-sm font-medium">Note for the lead</span>
-                <textarea rows={2} value={note} onChange={(e) => setNote(e.target.value)} className="mt-1 block w-full rounded-md border border-stone-500 p-2 text-sm" placeholder="What you saw, what you lifted, why this part" />
-              </label>
-              <Button onClick={() => void propose()} disabled={update.isPending}>
-                Propose {proposed.designator} for review
-              </Button>
-              {update.error && <p role="alert" className="text-sm text-high">{update.error.message}</p>}
-            </section>
-          )}
+          {proposed && readings.length > 0 && canPropose(job.status, me.data?.role) && <ProposePanel job={job} proposed={proposed} picked={!!selectedPart} />}
           {job.status === 'awaiting-review' && <p className="rounded-md bg-amber-50 p-2 text-sm">Proposed {job.proposedPart}: waiting for a lead’s review.</p>}
         </div>
       </div>
@@ -372,7 +350,7 @@ function BenchPage() {
   useEffect(() => void preloadReadingParser(), []);
   return (
     <QueryState query={job} label="the job">
-      {(j) => <Bench job={j} />}
+      {(j) => (isPhotoOnlyBoard(j.board.document) ? <UnmodelledBench job={j} /> : <Bench job={j} />)}
     </QueryState>
   );
 }

@@ -10,6 +10,8 @@ export interface RankedPart {
   description?: string;
   evidenceFor: string[];
   evidenceAgainst: string[];
+  /** Fault pairs with this fault are still being checked. */
+  checking?: boolean;
 }
 
 export interface NextTestView {
@@ -35,6 +37,11 @@ export function RankingPanel({
   onPickPart,
   onPickTest,
   before,
+  suspectSections = [],
+  reasons = [],
+  guided = false,
+  preparing,
+  checkingPairs,
 }: {
   parts: RankedPart[];
   nextTests: NextTestView[];
@@ -42,7 +49,17 @@ export function RankingPanel({
   onPickPart: (part: string) => void;
   onPickTest?: (t: NextTestView) => void;
   /** Before the first reading: what the fault code points at, instead of every part of the board at equal odds. */
-  before?: { code: string | null; meaning: string | null; sections: string[] } | null;
+  before?: { code: string | null; meaning: string | null; sections: string[]; firstTest: string | null } | null;
+  /** In guided order the one step to take is the guided step beside the map, not a list to choose from. */
+  guided?: boolean;
+  /** The board's sections by the likelihood of a fault there (before the first reading). */
+  suspectSections?: { name: string; share: number }[];
+  /** Why this job's priors moved (fault code, the shop's history), one line per reason. */
+  reasons?: { text: string; parts: string[]; source: string }[];
+  /** The board's expected values for every fault are still being computed (parts done of the total). */
+  preparing?: { partsDone: number; partsTotal: number };
+  /** How many fault pairs are still being checked. */
+  checkingPairs?: number;
 }) {
   // With no readings every part is equally suspect: a list of a hundred parts helps nobody, so show the leaders.
   const [all, setAll] = useState(false);
@@ -53,7 +70,9 @@ export function RankingPanel({
         <h2 id="next-h" className="mb-1 text-base font-semibold">
           Next tests
         </h2>
-        {nextTests.length === 0 ? (
+        {guided ? (
+          <p className="text-sm text-stone-700">Guided order: take the step shown beside the map.</p>
+        ) : nextTests.length === 0 ? (
           <p className="text-sm text-stone-700">No further test would change the ranking.</p>
         ) : (
           <ol className="space-y-1">
@@ -77,10 +96,23 @@ export function RankingPanel({
         <h2 id="ranking-h" className="mb-1 text-base font-semibold">
           Probable faulty parts
         </h2>
+        {preparing && (
+          <div className="mb-2 rounded-md bg-board-light p-2 text-sm" data-testid="preparing-expected">
+            <label htmlFor="preparing-progress">
+              Preparing expected values: {preparing.partsDone} of {preparing.partsTotal} parts. The ranking works meanwhile, more slowly.
+            </label>
+            <progress id="preparing-progress" className="mt-1 block w-full" max={Math.max(1, preparing.partsTotal)} value={preparing.partsDone} />
+          </div>
+        )}
+        {!!checkingPairs && (
+          <p className="mb-2 text-sm text-stone-700" role="status" data-testid="checking-pairs">
+            Still checking {checkingPairs} candidate{checkingPairs === 1 ? '' : 's'} (mostly two faults together): marked parts may still move.
+          </p>
+        )}
         {before ? (
           <div className="rounded-md bg-board-light p-2 text-sm" data-testid="before-first-reading">
             <p>
-              No reading yet: every part is equally likely.{' '}
+              No reading yet.{' '}
               {before.code ? (
                 <>
                   Fault code <strong>{before.code}</strong>
@@ -89,8 +121,26 @@ export function RankingPanel({
               ) : (
                 'No fault code was logged.'
               )}{' '}
-              Take the first test below.
+              {before.firstTest ? (
+                <>
+                  First test: <strong>{before.firstTest}</strong>
+                </>
+              ) : (
+                'The engine is choosing the first test.'
+              )}
             </p>
+            {suspectSections.length > 0 && (
+              <>
+                <p className="mt-1 font-semibold">Where to start</p>
+                <ol className="list-inside list-decimal">
+                  {suspectSections.map((s) => (
+                    <li key={s.name}>
+                      {s.name} <span className="tabular-nums">{pct(s.share)}</span>
+                    </li>
+                  ))}
+                </ol>
+              </>
+            )}
           </div>
         ) : parts.length === 0 ? (
           <p className="text-sm text-stone-700">No part stands out yet: record a reading.</p>
@@ -107,6 +157,7 @@ export function RankingPanel({
                   <span className="flex items-baseline justify-between gap-2">
                     <span className="font-semibold">
                       {i + 1}. {p.label}
+                      {p.checking && <span className="ml-1 text-xs font-normal text-stone-700">(still being checked)</span>}
                     </span>
                     <span className="tabular-nums font-semibold">{pct(p.probability)}</span>
                   </span>
@@ -136,6 +187,18 @@ export function RankingPanel({
               </li>
             ))}
           </ol>
+        )}
+        {reasons.length > 0 && (
+          <details className="mt-2 rounded-md border border-stone-300 bg-white p-2 text-sm" open={Boolean(before)} data-testid="prior-reasons">
+            <summary className="cursor-pointer font-semibold">Why these first ({reasons.length})</summary>
+            <ul className="mt-1 list-disc space-y-1 pl-5">
+              {reasons.map((r) => (
+                <li key={r.text}>
+                  {r.source === 'fault-code' ? `${r.text} — ${r.parts.join(', ')}` : r.source === 'history-kind' ? `${r.parts.join(', ')}: ${r.text}` : r.text}
+                </li>
+              ))}
+            </ul>
+          </details>
         )}
         {!before && parts.length > SHORT_LIST && (
           <button type="button" className="mt-2 min-h-11 rounded-md border border-stone-400 bg-white px-3 text-sm font-semibold" onClick={() => setAll(!all)}>

@@ -1,6 +1,7 @@
 import type { StoredReading } from '@splitscope/contract';
 import { useState, type FormEvent } from 'react';
 import { useStrikeReading } from '@/lib/api/strike-reading';
+import { formSubmit } from '@/lib/form-submit';
 
 /**
  * Correct (enter the value again: the old reading stays, struck through, with who and when) or strike out with a
@@ -39,7 +40,7 @@ export function ReadingActions({ reading, jobId, onCorrect }: { reading: StoredR
       </span>
     );
   return (
-    <form onSubmit={submit} className="flex flex-wrap gap-1">
+    <form onSubmit={formSubmit(submit)} className="flex flex-wrap gap-1">
       <input
         aria-label={mode === 'correct' ? 'Corrected value' : 'Why strike this reading'}
         value={text}

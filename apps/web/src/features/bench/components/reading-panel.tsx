@@ -3,6 +3,7 @@ import { Caution } from '@/components/ui/caution';
 import { MARKER, type MarkerState } from '@/lib/map-geometry';
 import { MarkerGlyph } from '@/components/board-map/marker-glyph';
 import { METER_LABEL } from '@/lib/format';
+import { formSubmit } from '@/lib/form-submit';
 
 
 export interface ReadingTarget {
@@ -77,7 +78,7 @@ export function ReadingPanel({
           </>
         )}
       </p>
-      <form onSubmit={submit} className="flex flex-wrap items-end gap-2">
+      <form onSubmit={formSubmit(submit)} className="flex flex-wrap items-end gap-2">
         <label className="min-w-0 flex-1">
           <span className="block text-sm font-medium">Measured value</span>
           <input

@@ -90,6 +90,8 @@ export function rankedParts(view: BoardView, d: Diagnosis): RankedPart[] {
       description: typeof partRec.description === 'string' ? partRec.description : undefined,
       evidenceFor: ev.filter((e) => sign(e) === 'supports').map((e) => evidenceText(idx(e))),
       evidenceAgainst: ev.filter((e) => sign(e) === 'against').map((e) => evidenceText(idx(e))),
+      // Pairs with this fault still being checked: its share may still move when they arrive.
+      checking: d.candidates.some((c) => c.checking && c.faults.some((f) => f.part === p.part && f.mode === p.mode)),
     };
   });
 }
@@ -111,4 +113,39 @@ export function nextTests(view: BoardView, d: Diagnosis): (NextTestView & { targ
       target,
     };
   });
+}
+
+/** Why priors moved on this job, one line per reason: a fault code names a section (many parts), history a part. */
+export function priorNotes(d: Diagnosis): { text: string; parts: string[]; source: string }[] {
+  const out = new Map<string, { text: string; parts: string[]; source: string }>();
+  for (const p of d.priors ?? []) {
+    for (const s of p.steps) {
+      if (!s.note) continue;
+      const pct = (x: number) => `${(x * 100).toFixed(x < 0.01 ? 2 : 1)} %`;
+      // A section-wide reason lists its parts; a part's own history says its prior before and after.
+      const text = s.source === 'fault-code' ? s.note : `${s.note} (prior ${pct(s.before)} → ${pct(s.after)})`;
+      const e = out.get(text);
+      if (e) {
+        if (!e.parts.includes(p.designator)) e.parts.push(p.designator);
+      } else out.set(text, { text, parts: [p.designator], source: s.source });
+    }
+  }
+  // This job's own evidence first (its fault code), then this model's history, then other models' (the weakest).
+  const order = ['fault-code', 'reference', 'history', 'history-kind'];
+  return [...out.values()].sort((a, b) => order.indexOf(a.source) - order.indexOf(b.source));
+}
+
+/** The board's sections by the summed probability of their parts' faults (what to suspect before any reading). */
+export function sectionShares(view: BoardView, d: Diagnosis, top = 4): { name: string; share: number }[] {
+  const sectionOf = new Map(view.parts.map((p) => [p.id, p.section]));
+  const byId = new Map<string, number>();
+  for (const p of d.parts) {
+    const s = sectionOf.get(p.designator ?? p.part);
+    if (s) byId.set(s, (byId.get(s) ?? 0) + p.probability);
+  }
+  const total = [...byId.values()].reduce((a, b) => a + b, 0) || 1;
+  return [...byId.entries()]
+    .map(([id, v]) => ({ name: view.sections.find((x) => x.id === id)?.name ?? id, share: v / total }))
+    .sort((a, b) => b.share - a.share)
+    .slice(0, top);
 }

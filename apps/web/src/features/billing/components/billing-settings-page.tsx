@@ -8,6 +8,7 @@ import { useMe } from '@/lib/api/me';
 import { useBillingSettings } from '../api/get-billing-settings';
 import { useUpdateBillingSettings } from '../api/update-billing-settings';
 import { milestoneOptions, settingsFormSchema, settingsFormValues, type SettingsFormValues } from '../lib/settings-form';
+import { formSubmit } from '@/lib/form-submit';
 
 const field = 'block min-h-11 w-full rounded-md border border-stone-500 bg-white px-3';
 
@@ -17,7 +18,7 @@ function SettingsForm({ settings }: { settings: BillingSettings }) {
   const errs = form.formState.errors;
   const submit = form.handleSubmit((v) => update.mutateAsync(v).then((s) => form.reset(settingsFormValues(s)), () => undefined));
   return (
-    <form onSubmit={submit} noValidate className="max-w-3xl space-y-4 rounded-lg border border-stone-300 bg-white p-4">
+    <form onSubmit={formSubmit(submit)} noValidate className="max-w-3xl space-y-4 rounded-lg border border-stone-300 bg-white p-4">
       <div className="grid gap-4 sm:grid-cols-2">
         <label>
           <span className="font-medium">Currency</span>

@@ -4,6 +4,7 @@ import { useId } from 'react';
 import { useFieldArray, useForm } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
 import { blankLine, linesFormSchema, type LinesFormValues } from '../lib/lines-form';
+import { formSubmit } from '@/lib/form-submit';
 
 const field = 'block min-h-11 w-full rounded-md border border-stone-500 bg-white px-3';
 const kindLabel = { part: 'Part', labour: 'Labour', other: 'Other' } as const;
@@ -29,7 +30,7 @@ export function LinesEditor({ title, currency, defaultValues, submitLabel, pendi
   const errs = form.formState.errors;
   const cur = currency.toUpperCase();
   return (
-    <form onSubmit={form.handleSubmit(onSubmit)} noValidate aria-labelledby={`${id}-h`} className="space-y-3 rounded-lg border border-stone-300 bg-white p-3">
+    <form onSubmit={formSubmit(form.handleSubmit(onSubmit))} noValidate aria-labelledby={`${id}-h`} className="space-y-3 rounded-lg border border-stone-300 bg-white p-3">
       <h3 id={`${id}-h`} className="text-lg font-semibold">
         {title}
       </h3>

@@ -7,8 +7,11 @@ import { useMe } from '@/lib/api/me';
 import { METER_LABEL, meterText } from '@/lib/format';
 import { useBoard } from '../api/get-board';
 import { useUpdateBoard } from '../api/update-board';
-import { imageSize, uploadPicture } from '../api/upload-picture';
+import { imageSize } from '@/lib/image-size';
+import { uploadPicture } from '../api/upload-picture';
 import { ComposePanel } from './compose-panel';
+import { FaultCodesPanel } from './fault-codes-panel';
+import { ReferencesPanel } from './references-panel';
 
 const input = 'min-h-11 rounded-md border border-stone-500 bg-white px-2';
 
@@ -185,6 +188,8 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
           className="block w-full rounded-md border border-stone-500 bg-white p-2 font-mono text-sm"
         />
       </section>
+      <FaultCodesPanel boardId={board.id} doc={board.document} canEdit={canEdit} />
+      <ReferencesPanel board={board} canRecord={hasRole(me.data?.role, ROLES.bench)} />
       <section aria-labelledby="exp-h">
         <h2 id="exp-h" className="text-lg font-semibold">Expected readings (computed from the netlist)</h2>
         <div className="overflow-x-auto rounded-lg border border-stone-300 bg-white">

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { useParams, useSearchParams } from 'react-router-dom';
-import { formatMoney, type PublicJob } from '@splitscope/contract';
+import { formatMoney, shopCardLines, type PublicJob } from '@splitscope/contract';
 import { Button } from '@/components/ui/button';
 import { ApiError } from '@/lib/api-client';
 import { useDecideQuote } from '../api/decide-quote';
@@ -129,7 +129,8 @@ export default function CustomerPage() {
   return (
     <div className="min-h-full bg-stone-100">
       <header className="bg-board px-4 py-3 text-white">
-        <p className="text-lg font-semibold">{d.shopName}</p>
+        <p className="text-lg font-semibold">{d.shop.name}</p>
+        {shopCardLines(d.shop).length > 0 && <p className="text-sm text-white/85">{shopCardLines(d.shop).join(' · ')}</p>}
       </header>
       <main className="mx-auto flex max-w-2xl flex-col gap-4 p-4">
         <div>

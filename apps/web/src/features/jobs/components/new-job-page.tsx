@@ -13,6 +13,8 @@ import { useCustomers } from '../api/get-customers';
 import { useFaultCodes } from '../api/get-fault-codes';
 import { useUsers } from '../api/get-users';
 import { uploadPhoto } from '../api/upload-photo';
+import { formSubmit } from '@/lib/form-submit';
+import { UNLISTED, UnlistedBoardFields, useUnlistedBoard } from './unlisted-board';
 
 type FormIn = z.input<typeof createJobRequest>;
 type FormOut = z.output<typeof createJobRequest>;
@@ -31,7 +33,6 @@ function NewJobPage() {
   const create = useCreateJob();
   const navigate = useNavigate();
   const [photos, setPhotos] = useState<File[]>([]);
-  const [photoError, setPhotoError] = useState<string | null>(null);
   const form = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(createJobRequest),
     defaultValues: { idempotencyKey: crypto.randomUUID(), customerId: '', unitDescription: '', serial: '', unitSerial: '', boardId: '', faultCode: '', symptom: '', priority: 'normal', assigneeId: null },
@@ -41,26 +42,33 @@ function NewJobPage() {
   const serial = useWatch({ control: form.control, name: 'serial' });
   const unitSerial = useWatch({ control: form.control, name: 'unitSerial' });
   const history = useBoardHistory({ serial: serial ?? undefined, unitSerial: unitSerial ?? undefined });
-  const codes = useFaultCodes(boardId || undefined);
+  const codes = useFaultCodes(boardId && boardId !== UNLISTED ? boardId : undefined);
   const code = (faultCode ?? '').trim().toUpperCase();
   const match = code ? codes.data?.items.find((c) => c.code.toUpperCase() === code) : undefined;
   const e = form.formState.errors;
+  const unlisted = useUnlistedBoard(boardId === UNLISTED);
 
+  // The job is opened once (the idempotency key makes a second click the same job); its photos go after it, and a
+  // photo that fails is shown on the job's Photos tab (the server records a refusal), never here on the form.
   const submit = form.handleSubmit(async (v) => {
-    const job = await create.mutateAsync(v);
-    try {
-      for (const f of photos) await uploadPhoto(f, job.id);
-    } catch (err) {
-      setPhotoError(`The job is open, but a photo was not stored: ${(err as Error).message}`);
-      return;
+    const listedId = await unlisted.boardIdFor(v.boardId, photos);
+    if (!listedId) return;
+    const job = await create.mutateAsync({ ...v, boardId: listedId });
+    let failed = false;
+    for (const f of photos) {
+      try {
+        await uploadPhoto(f, job.id);
+      } catch {
+        failed = true;
+      }
     }
-    void navigate(`/jobs/${job.id}`);
+    void navigate(failed ? `/jobs/${job.id}?tab=photos` : `/jobs/${job.id}`);
   });
 
   return (
     <section className="max-w-3xl">
       <PageHeader title="Open a job (intake)" />
-      <form onSubmit={submit} noValidate className="grid gap-4 sm:grid-cols-2">
+      <form onSubmit={formSubmit(submit)} noValidate className="grid gap-4 sm:grid-cols-2">
         <label className="block">
           <span className="text-sm font-medium">Customer</span>
           <select className={field} {...form.register('customerId')} aria-invalid={!!e.customerId}>
@@ -84,10 +92,12 @@ function NewJobPage() {
                 {b.name} (v{b.version})
               </option>
             ))}
+            <option value={UNLISTED}>Board not in the library yet</option>
           </select>
           {boards.isError && <Err msg={`Boards could not be loaded: ${boards.error.message}`} />}
           <Err msg={e.boardId && 'Choose the board model'} />
         </label>
+        <UnlistedBoardFields state={unlisted} />
         <label className="block">
           <span className="text-sm font-medium">Unit (make-free description, model line)</span>
           <input className={field} {...form.register('unitDescription')} aria-invalid={!!e.unitDescription} />
@@ -182,13 +192,13 @@ function NewJobPage() {
             className="mt-1 block min-h-11 w-full"
           />
         </label>
-        {(create.error || photoError) && (
+        {(create.error || unlisted.error) && (
           <p role="alert" className="rounded-md bg-red-50 p-2 text-sm text-high sm:col-span-2">
-            {photoError ?? create.error?.message}
+            {unlisted.error ?? create.error?.message}
           </p>
         )}
         <div className="sm:col-span-2">
-          <button type="submit" disabled={form.formState.isSubmitting} className="min-h-11 rounded-md bg-board px-6 font-semibold text-white">
+          <button type="submit" disabled={form.formState.isSubmitting || form.formState.isSubmitSuccessful} className="min-h-11 rounded-md bg-board px-6 font-semibold text-white">
             {form.formState.isSubmitting ? 'Opening…' : 'Open the job'}
           </button>
         </div>

@@ -1,6 +1,7 @@
 import { useState, type FormEvent } from 'react';
-import { createInvitationRequest, roles, type Invitation, type Role, type ShopMember } from '@splitscope/contract';
+import { createInvitationRequest, roleLabels, roles, type Invitation, type Role, type ShopMember } from '@splitscope/contract';
 import { Button } from '@/components/ui/button';
+import { SelectField } from '@/components/ui/select-field';
 import { PageHeader } from '@/components/ui/page-header';
 import { QueryState } from '@/components/ui/query-state';
 import { ErrorNote, TextField } from '@/components/ui/text-field';
@@ -11,8 +12,6 @@ import { usePeople } from '../api/get-people';
 import { useResendInvitation } from '../api/resend-invitation';
 import { useUpdatePerson } from '../api/update-person';
 
-const roleLabel: Record<Role, string> = { admin: 'Shop admin', lead: 'Lead', tech: 'Technician', trainee: 'Trainee' };
-const select = 'min-h-11 rounded-md border border-stone-500 bg-white px-2';
 
 function InviteForm() {
   const create = useCreateInvitation();
@@ -29,16 +28,7 @@ function InviteForm() {
     <form onSubmit={submit} noValidate aria-label="Invite a person" className="grid gap-3 rounded-lg border border-stone-300 bg-white p-4 sm:grid-cols-[1fr_1fr_auto_auto] sm:items-end">
       <TextField label="Name" value={f.name} onChange={(e) => setF({ ...f, name: e.target.value })} error={errors.name} autoComplete="off" />
       <TextField label="E-mail" type="email" value={f.email} onChange={(e) => setF({ ...f, email: e.target.value })} error={errors.email} autoComplete="off" />
-      <label className="block">
-        <span className="text-sm font-medium">Role</span>
-        <select className={`${select} mt-1 block w-full`} value={f.role} onChange={(e) => setF({ ...f, role: e.target.value as Role })}>
-          {roles.map((r) => (
-            <option key={r} value={r}>
-              {roleLabel[r]}
-            </option>
-          ))}
-        </select>
-      </label>
+      <SelectField label="Role" value={f.role} options={roles} labels={roleLabels} onChange={(role) => setF({ ...f, role })} />
       <Button type="submit" disabled={create.isPending}>
         {create.isPending ? 'Sending…' : 'Send invitation'}
       </Button>
@@ -62,16 +52,7 @@ function PersonRow({ p, self }: { p: ShopMember; self: boolean }) {
         <p className="text-sm text-stone-700">{p.email}</p>
       </div>
       {!active && <span className="rounded bg-stone-200 px-2 text-sm">Deactivated</span>}
-      <label className="flex items-center gap-2">
-        <span className="sr-only">Role of {p.name}</span>
-        <select className={select} value={p.role} disabled={update.isPending} onChange={(e) => update.mutate({ id: p.id, role: e.target.value as Role })}>
-          {roles.map((r) => (
-            <option key={r} value={r}>
-              {roleLabel[r]}
-            </option>
-          ))}
-        </select>
-      </label>
+      <SelectField label={`Role of ${p.name}`} hideLabel value={p.role} options={roles} labels={roleLabels} disabled={update.isPending} onChange={(role) => update.mutate({ id: p.id, role })} className="w-auto" />
       {!self && (
         <Button variant={active ? 'secondary' : 'primary'} disabled={update.isPending} onClick={() => update.mutate({ id: p.id, active: !active })} aria-label={`${active ? 'Deactivate' : 'Reactivate'} ${p.name}`}>
           {active ? 'Deactivate' : 'Reactivate'}
@@ -89,7 +70,7 @@ function InvitationRow({ i }: { i: Invitation }) {
     <li className="flex flex-wrap items-center gap-3 border-b border-stone-200 py-2 last:border-0">
       <div className="min-w-48 flex-1">
         <p className="font-semibold">
-          {i.name} · {roleLabel[i.role]}
+          {i.name} · {roleLabels[i.role]}
         </p>
         <p className="text-sm text-stone-700">
           {i.email} · {i.acceptedAt ? 'joined' : expired ? 'expired' : `open until ${i.expiresAt.slice(0, 10)}`}

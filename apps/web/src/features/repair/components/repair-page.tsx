@@ -15,6 +15,7 @@ import { useRepairs } from '@/lib/api/get-repairs';
 import { usePartsBin } from '@/lib/api/parts-bin';
 import { ReturnForm } from './return-form';
 import { VerificationChecklist } from './verification-checklist';
+import { formSubmit } from '@/lib/form-submit';
 
 type In = z.input<typeof createRepairRequest>;
 type Out = z.output<typeof createRepairRequest>;
@@ -37,7 +38,7 @@ function RepairForm({ job }: { job: JobDetail }) {
   });
   const err = create.error ?? update.error;
   return (
-    <form onSubmit={submit} noValidate className="grid gap-3 rounded-lg border border-stone-300 bg-white p-3 sm:grid-cols-2">
+    <form onSubmit={formSubmit(submit)} noValidate className="grid gap-3 rounded-lg border border-stone-300 bg-white p-3 sm:grid-cols-2">
       <h2 className="text-lg font-semibold sm:col-span-2">Record a repair action</h2>
       <label>
         <span className="text-sm font-medium">Part (designator)</span>

@@ -10,6 +10,7 @@ import { parseTyped } from '@/lib/parse-reading';
 import { useReadingSender } from '@/lib/use-reading-sender';
 import { useRepairs } from '@/lib/api/get-repairs';
 import { useUpdateJob } from '@/lib/api/update-job';
+import { formSubmit } from '@/lib/form-submit';
 
 const stateOf = (v: string | null | undefined) => (v === 'ok' ? 'healthy' : v === 'low' ? 'low' : v === 'high' ? 'high' : 'unmeasured') as 'healthy' | 'low' | 'high' | 'unmeasured';
 
@@ -33,7 +34,7 @@ function Row({ row, label, latest, onSave }: { row: ExpectedReadingRow; label: s
         </span>
       </span>
       <span className="text-sm tabular-nums">expect {bandText(row, row.mode)}</span>
-      <form onSubmit={submit} className="flex gap-1">
+      <form onSubmit={formSubmit(submit)} className="flex gap-1">
         <input
           aria-label={`Verification reading: ${test}`}
           value={text}

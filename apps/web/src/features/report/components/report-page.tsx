@@ -1,8 +1,27 @@
-import { jobStatusLabels, type RepairReport, type ReportReading } from '@splitscope/contract';
+import { hasRole, jobStatusLabels, ROLES, type RepairReport, type ReportReading } from '@splitscope/contract';
 import { useParams } from 'react-router-dom';
+import { JobPhotos } from '@/components/photos/job-photos';
 import { QueryState } from '@/components/ui/query-state';
 import { bandText, dateTime, METER_LABEL, readingText, verdictWord } from '@/lib/format';
+import { useMe } from '@/lib/api/me';
+import { usePromoteReference } from '../api/promote-reference';
 import { useReport } from '../api/get-report';
+
+/** A lead keeps a signed-off repair's verification readings as a known-good reference of the board model. */
+function KeepAsReference({ jobId }: { jobId: string }) {
+  const me = useMe();
+  const promote = usePromoteReference(jobId);
+  if (!hasRole(me.data?.role, ROLES.reviewers)) return null;
+  return (
+    <div className="no-print text-sm">
+      <button type="button" disabled={promote.isPending || promote.isSuccess} onClick={() => promote.mutate(null)} className="min-h-11 rounded-md border border-stone-400 bg-white px-3 font-semibold">
+        Keep the verification readings as a known-good reference
+      </button>
+      {promote.isSuccess && <p role="status">Kept: the board model now has {promote.data.sets.length} known-good boards.</p>}
+      {promote.isError && <p role="alert" className="text-high">{promote.error.message}</p>}
+    </div>
+  );
+}
 
 /** The report as the server composes it (the same model the customer's PDF is drawn from). */
 function Report({ report: r }: { report: RepairReport }) {
@@ -48,6 +67,7 @@ function Report({ report: r }: { report: RepairReport }) {
           <dd>{jobStatusLabels[r.status]}</dd>
         </dl>
       </section>
+      <JobPhotos jobId={r.jobId} compact />
       <section>
         <h2 className="text-lg font-semibold">Readings that found it</h2>
         {r.foundBy.length === 0 ? <p className="text-sm">No out-of-band reading recorded.</p> : <ReadingTable rows={r.foundBy} />}
@@ -71,6 +91,7 @@ function Report({ report: r }: { report: RepairReport }) {
       </section>
       <section>
         <h2 className="text-lg font-semibold">Verification</h2>
+        {r.verified && <KeepAsReference jobId={r.jobId} />}
         {r.verification.length === 0 ? <p className="text-sm">No verification reading recorded.</p> : <ReadingTable rows={r.verification} />}
         <p className="mt-2 text-sm font-semibold">{r.verified ? 'The board was verified against its expected readings.' : 'The board is not verified yet.'}</p>
       </section>

@@ -8,7 +8,11 @@ function ReviewQueuePage() {
   const jobs = useJobs({ status: 'awaiting-review' });
   return (
     <section>
-      <PageHeader title="Review queue" />
+      <PageHeader title="Review queue">
+        <Link className="inline-flex min-h-11 items-center text-board underline" to="/stats">
+          Shop statistics
+        </Link>
+      </PageHeader>
       <QueryState query={jobs} label="the review queue">
         {(d) =>
           d.items.length === 0 ? (

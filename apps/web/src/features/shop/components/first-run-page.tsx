@@ -8,6 +8,7 @@ import { AuthCard } from '@/components/ui/auth-card';
 import { useFirstRun } from '../api/first-run';
 import { updateShop } from '../api/update-shop';
 import { uploadLogo } from '../api/upload-logo';
+import { formSubmit } from '@/lib/form-submit';
 
 const empty = { name: '', address: '', phone: '', email: '', currency: '', taxNumber: '', adminName: '', adminEmail: '', password: '' };
 type Fields = typeof empty;
@@ -58,7 +59,7 @@ export default function FirstRunPage() {
 
   return (
     <AuthCard title="Set up your shop" subtitle="Once: the shop's details and its first admin" wide>
-      <form onSubmit={submit} noValidate className="space-y-6">
+      <form onSubmit={formSubmit(submit)} noValidate className="space-y-6">
         <fieldset className="grid gap-4 sm:grid-cols-2">
           <legend className="mb-2 text-lg font-semibold">The shop</legend>
           <TextField label="Shop name" autoComplete="organization" {...bind('name')} error={errors['shop.name']} className="sm:col-span-2" />

@@ -8,6 +8,7 @@ import { ErrorNote, TextField } from '@/components/ui/text-field';
 import { useShop } from '../api/get-shop';
 import { useUpdateShop } from '../api/update-shop';
 import { uploadLogo } from '../api/upload-logo';
+import { DutyRulesSection } from './duty-rules';
 
 function ShopForm({ shop }: { shop: Shop }) {
   const update = useUpdateShop();
@@ -88,7 +89,7 @@ function ShopForm({ shop }: { shop: Shop }) {
   );
 }
 
-/** The admin's shop details: name, address, phone, e-mail, tax number, logo, session lifetime. */
+/** The admin's shop details: name, address, phone, e-mail, tax number, logo, session lifetime, duty rules. */
 export default function ShopPage() {
   const shop = useShop();
   return (
@@ -101,6 +102,9 @@ export default function ShopPage() {
       <QueryState query={shop} label="the shop">
         {(s) => <ShopForm shop={s} />}
       </QueryState>
+      <div className="mt-6">
+        <DutyRulesSection />
+      </div>
     </div>
   );
 }

@@ -1,0 +1,1 @@
+ALTER TABLE "users" ADD COLUMN "guided_lifted_by" text;
