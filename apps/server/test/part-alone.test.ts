@@ -32,7 +32,7 @@ describe('a part measured on its own pins', () => {
     expect(r.body.lifted).toEqual(['C10']);
     expect(r.body.expected).toBe('OL'); // the healthy capacitor alone is open at DC
     expect((r.body.verdict as { verdict: string }).verdict).toBe('low');
-    const list = (await tech.get(`/api/jobs/${jobId}/readings`)).body as { items: StoredReading[] };
+    const list = (await tech.get(`/api/jobs/${jobId}/readings`)).body as unknown as { items: StoredReading[] };
     expect(list.items.map((x) => x.alone)).toEqual(['C10']);
   });
 
