@@ -2,6 +2,8 @@
  * @splitscope/circuit — netlist parsing, flattening, DC operating point and meter models.
  * Public surface: docs/decisions/0001-engine-api.md (plus the helpers exported below).
  */
+// registers the expression engine of {expressions} and .param values (expressions.ts)
+import './mathjs-engine';
 export { parseNetlist, NetlistError } from './netlist';
 export type { Netlist, RawElement, RawValue, ModelDef, ParamDef, SubcktDef, ElementLetter, ParseOptions } from './netlist';
 export { flatten } from './flatten';
