@@ -13,7 +13,8 @@ import { fileURLToPath } from 'node:url';
 import { ExpressionEngineMissing } from './expressions';
 import { flatten } from './flatten';
 import { applyState, MeasurementError, read, type MeterMode } from './meter';
-import { NetlistError, parseNetlist, type Netlist } from './netlist';
+import { parseNetlist } from './netlist';
+import { NetlistError, type Netlist } from './netlist-types';
 import { solveOp } from './solver';
 
 /** Bad input: printed as one line, exit code 2. */

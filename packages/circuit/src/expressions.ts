@@ -4,7 +4,7 @@
  * of plain numbers never needs it. The package entry (index.ts) registers it, so every caller of the package gets it;
  * the command line loads it only when a netlist asks for an expression (cli.ts).
  */
-import { NetlistError } from './netlist';
+import { NetlistError } from './netlist-types';
 
 /** Compiles an expression (SPICE suffixes already rewritten) into a function of the parameter scope. */
 interface ExpressionEngine {

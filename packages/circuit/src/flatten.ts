@@ -1,7 +1,7 @@
 import type { Circuit, Element } from './circuit';
 import { normNode, REFERENCE } from './circuit';
 import { bjtModel, diodeModel } from './models';
-import { NetlistError, type ModelDef, type Netlist, type ParamDef, type RawElement, type RawValue, type SubcktDef } from './netlist';
+import { NetlistError, type ModelDef, type Netlist, type ParamDef, type RawElement, type RawValue, type SubcktDef } from './netlist-types';
 import { nodesWithoutDcPath } from './topology';
 import { evalExpr } from './expressions';
 

@@ -4,8 +4,10 @@
  */
 // registers the expression engine of {expressions} and .param values (expressions.ts)
 import './mathjs-engine';
-export { parseNetlist, NetlistError } from './netlist';
-export type { Netlist, RawElement, RawValue, ModelDef, ParamDef, SubcktDef, ElementLetter, ParseOptions } from './netlist';
+export { parseNetlist } from './netlist';
+export type { ParseOptions } from './netlist';
+export { NetlistError } from './netlist-types';
+export type { Netlist, RawElement, RawValue, ModelDef, ParamDef, SubcktDef, ElementLetter } from './netlist-types';
 export { flatten } from './flatten';
 export type { FlattenOptions } from './flatten';
 export {
