@@ -29,3 +29,4 @@ export * from './references';
 export * from './shop-memory';
 export * from './meter-import';
 export * from './shop-stats';
+export * from './bench-meter';
