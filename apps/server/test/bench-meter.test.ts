@@ -47,6 +47,8 @@ async function arm(body: Record<string, unknown>, job = jobId) {
   const res = await tech.post(`/api/jobs/${job}/bench-meter`, body);
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   await until('the meter to wait for its trigger', () => sim.armed, Boolean);
+  // The bench says "press its trigger" once the server has the test's expected value at hand.
+  await until('the request to be ready', () => status(job), (s) => s.arm?.ready === true);
   return String(res.body.id);
 }
 

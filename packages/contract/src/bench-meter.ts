@@ -81,6 +81,8 @@ export const benchMeterArmSchema = z.object({
   trigger: benchMeterTriggerSchema,
   armedAt: isoDateTime,
   state: z.enum(benchMeterArmStates),
+  /** The server has the expected value of this test at hand: the reading is judged as soon as the meter sends it. */
+  ready: z.boolean(),
   /** The stored reading once the meter's answer was accepted. */
   reading: readingSchema.nullable(),
   /** Why the meter's answer was not stored, in the words the server refused it with. */

@@ -5,7 +5,8 @@
 import { EventEmitter } from 'node:events';
 import type { BenchMeterArm, StoredReading } from '@splitscope/contract';
 
-export interface Arm extends Omit<BenchMeterArm, 'reading' | 'refusal' | 'state'> {
+export interface Arm extends Omit<BenchMeterArm, 'reading' | 'refusal' | 'state' | 'ready'> {
+  ready: boolean;
   userId: string;
   shopId: string;
   state: BenchMeterArm['state'];

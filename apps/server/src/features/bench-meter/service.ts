@@ -23,7 +23,9 @@ import { getJobRow } from '../../db/job-row';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { powerRefusal } from '../boards';
+import { eq } from 'drizzle-orm';
+import { boardEngine, cachedBoardEngine, powerRefusal, resolveNet, verdictFor } from '../boards';
+import { boardModelVersions } from '../../db/schema';
 import { createReading } from '../readings';
 import type { Arm, MeterDesk } from './desk';
 
@@ -39,6 +41,7 @@ const shown = (a: Arm): BenchMeterArm => ({
   trigger: a.trigger,
   armedAt: a.armedAt,
   state: a.state,
+  ready: a.ready,
   reading: a.reading,
   refusal: a.refusal,
 });
@@ -55,9 +58,30 @@ export async function armBenchMeter({ db, desk, actor, jobId, input }: { db: Db;
   }
   const why = powerRefusal(input.mode, input.power);
   if (why) throw new AppError('invalid', why, { errors: [{ path: 'power', message: why }] });
-  const arm: Arm = { id: newId(), jobId, userId: actor.id, shopId: actor.shopId, ...input, armedAt: iso(new Date()), state: 'waiting', reading: null, refusal: null };
+  const arm: Arm = { id: newId(), jobId, userId: actor.id, shopId: actor.shopId, ...input, armedAt: iso(new Date()), state: 'waiting', ready: false, reading: null, refusal: null };
   desk.arm(arm);
+  void prepareVerdict(db, job.boardVersionId, arm)
+    .catch(() => undefined)
+    .finally(() => (arm.ready = true));
   return shown(arm);
+}
+
+/**
+ * While the technician places the probes, builds the board's engine and the healthy band of the armed test (both
+ * kept per process), so the write at the meter's trigger does not pay for the first solve: on a busy 2-core
+ * machine that was 1.4 s of the trigger-to-bench time, against 0.14-0.2 s once built. A failure here only means
+ * the write builds them itself.
+ */
+async function prepareVerdict(db: Db, versionId: string, arm: Arm): Promise<void> {
+  let engine = cachedBoardEngine(versionId);
+  if (!engine) {
+    const [v] = await db.select({ document: boardModelVersions.document, expectedReadings: boardModelVersions.expectedReadings }).from(boardModelVersions).where(eq(boardModelVersions.id, versionId));
+    if (!v) return;
+    engine = boardEngine(versionId, v.document, v.expectedReadings);
+  }
+  const red = resolveNet(engine, arm.red);
+  const black = resolveNet(engine, arm.black);
+  if (red && black && arm.lifted.length === 0) verdictFor(engine, { mode: arm.mode, red, black, power: arm.power, lifted: [] }, null);
 }
 
 export async function cancelBenchMeter({ db, desk, actor, jobId }: { db: Db; desk: MeterDesk; actor: Actor; jobId: string }): Promise<BenchMeterStatus> {
