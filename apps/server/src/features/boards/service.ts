@@ -68,6 +68,17 @@ export async function getBoard({ db, shopId, id, version }: { db: Db; shopId: st
   return boardDetail(db, b, v);
 }
 
+/** A board's newest version and its document, read by the one reader; another shop's board is unknown here. */
+export async function currentBoardVersion(db: Pick<Db, 'select'>, shopId: string, boardId: string) {
+  const [row] = await db
+    .select({ b: boardModels, v: boardModelVersions })
+    .from(boardModels)
+    .innerJoin(boardModelVersions, and(eq(boardModelVersions.boardId, boardModels.id), eq(boardModelVersions.version, boardModels.currentVersion)))
+    .where(and(eq(boardModels.id, boardId), eq(boardModels.shopId, shopId)));
+  if (!row) throw new AppError('not_found', `No board model ${boardId}`);
+  return { board: row.b, version: row.v, document: readBoardModel(row.v.document) };
+}
+
 /** A pinned version by its id (for job detail). */
 export async function getBoardVersion({ db, shopId, versionId }: { db: Db; shopId: string; versionId: string }): Promise<BoardDetail> {
   const [row] = await db
