@@ -12,10 +12,7 @@ import { boardDrafts, boardModelVersions, uploads, users } from '../../db/schema
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { buildBoardEngine, createBoard, currentBoardVersion, expectedTable, updateBoard } from '../boards';
-
-const CAUTION =
-  'Mains and the ~300 V DC bus can kill, and the bulk capacitor holds its charge after the board is unplugged. Discharge and measure the bus before any unpowered test; follow local codes and licensed practice.';
+import { BUS_CAUTION, buildBoardEngine, createBoard, currentBoardVersion, expectedTable, updateBoard } from '../boards';
 
 
 const slugOf = (text: string) => text.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 40) || 'board';
@@ -36,7 +33,7 @@ export async function createUnlistedBoard({ db, actor, input }: { db: Db; actor:
     description: 'Photographed at intake; no model yet.',
     picture: { uploadId: input.photo.uploadId, width: input.photo.width, height: input.photo.height, units: 'px' },
     sections: [], netlist: `* ${name.replace(/\n/g, ' ')}: photographed at intake, no model yet\n.end\n`, params: {},
-    parts: [], nets: [], connectors: [], testPoints: [], faultCodes: [], cautions: [CAUTION],
+    parts: [], nets: [], connectors: [], testPoints: [], faultCodes: [], cautions: [BUS_CAUTION],
   };
   return createBoard({ db, actor, document, note: 'Board photographed at intake' });
 }
