@@ -59,7 +59,8 @@ function chainLinks(view: BoardView, rows: ExpectedReadingRow[], readings: Store
       const p = view.pointOf(r.red);
       return {
         id: r.id,
-        label: r.label ?? p?.label ?? r.red,
+        // The test point first ("TP5 Fan control supply"): the chain's axis names each link by its point.
+        label: p?.label ?? r.label ?? r.red,
         section: view.sections.find((s) => s.id === p?.section)?.name ?? p?.section ?? '',
         unit: r.unit,
         nominal: r.expected as number,
