@@ -15,9 +15,9 @@ import { renderReportPdf } from './pdf';
 // Probe positions and parts in the bench's words (contract: boardWords), never the netlist's names.
 const asReportReading =
   (w: BoardWords) =>
-  ({ id, red, black, mode, power, lifted, beep, value, unit, raw, verdict, takenAt }: StoredReading): ReportReading => ({
-    id, red, black, mode, power, lifted, beep, value, unit, raw, verdict, takenAt,
-    probes: `${w.probe(red)} to ${w.probe(black)}`,
+  ({ id, red, black, mode, power, lifted, alone, beep, value, unit, raw, verdict, takenAt }: StoredReading): ReportReading => ({
+    id, red, black, mode, power, lifted, alone, beep, value, unit, raw, verdict, takenAt,
+    probes: w.probes({ red, black, alone }),
     boardState: `${power === 'on' ? 'powered' : 'unplugged'}${lifted.length ? `, ${lifted.map(w.designator).join(', ')} lifted` : ''}`,
   });
 
