@@ -71,6 +71,7 @@ const TABLE: Entry[] = [
   { method: 'PATCH', path: '/api/boards/:id', roles: REVIEWERS, kind: 'board', body: () => ({ document: DIVIDER_BOARD }) },
   { method: 'GET', path: '/api/boards/versions/:id/picture', roles: ALL, kind: 'drawnVersion' },
   { method: 'GET', path: '/api/boards/:id/versions', roles: ALL, kind: 'board' },
+  { method: 'PUT', path: '/api/boards/versions/:id/document', roles: REVIEWERS, kind: 'drawnVersion', body: () => ({ document: DIVIDER_BOARD }) },
   { method: 'GET', path: '/api/fault-codes', roles: ALL },
   { method: 'POST', path: '/api/fault-codes', roles: REVIEWERS },
   // No fault code or drawer has the id `:id`: a role past the guard gets its 404.
