@@ -97,6 +97,17 @@ export function readStoredBoardModel(doc: unknown, board: { key: string; name: s
   }
 }
 
+/**
+ * Schematics print values in the IEC 60062 letter code (2K2 = 2.2 kΩ, 4R7 = 4.7 Ω), which SPICE does not read:
+ * the solver refuses such a value rather than guess, and the refusal says what to type instead.
+ */
+function rkmHint(message: string): string {
+  const m = /"(\d+)([RKM])(\d+)"/i.exec(message);
+  if (!m) return '';
+  const scale = { r: '', k: 'k', m: 'meg' }[m[2]!.toLowerCase() as 'r' | 'k' | 'm'];
+  return ` (the letter in ${m[0]} stands for the decimal point, as printed on schematics; in a netlist write ${m[1]}.${m[3]}${scale})`;
+}
+
 /** Builds the engine view of a board model; a model the engines cannot use is a 422 naming why. */
 export function buildBoardEngine(versionId: string, model: BoardModel): BoardEngine {
   const { netlist, params } = model;
@@ -106,7 +117,10 @@ export function buildBoardEngine(versionId: string, model: BoardModel): BoardEng
     const diagnoser = createDiagnoser({ netlist, params, parts, testPoints: testPoints.map(({ net, label, ref }) => ({ net, label, ref })) });
     return { versionId, netlist, params, parts, testPoints, diagnoser };
   } catch (err) {
-    if (err instanceof CaseError) throw new AppError('invalid', `The board model cannot be used: ${err.message}`, { errors: [{ path: 'document', message: err.message }] });
+    if (err instanceof CaseError) {
+      const message = err.message + rkmHint(err.message);
+      throw new AppError('invalid', `The board model cannot be used: ${message}`, { errors: [{ path: 'document', message }] });
+    }
     throw err;
   }
 }
@@ -260,7 +274,16 @@ function diagnoserBand(engine: BoardEngine): BandFn {
 export function expectedTable(engine: BoardEngine): ExpectedReadingRow[] {
   if (engine.expected) return engine.expected;
   const input: ExpectedReadingsInput = { netlist: engine.netlist, testPoints: engine.testPoints.map((t) => t.table), ...(engine.params ? { params: engine.params } : {}) };
-  const rows = expectedReadings(input, { meter: engine.diagnoser.model.meter, band: diagnoserBand(engine) });
+  let rows: ReturnType<typeof expectedReadings>;
+  try {
+    rows = expectedReadings(input, { meter: engine.diagnoser.model.meter, band: diagnoserBand(engine) });
+  } catch (err) {
+    // A netlist that reads but does not solve in one of the states the table reads (a deck written elsewhere can
+    // do that) is the author's to fix: said in words, not a server error.
+    if (!(err instanceof Error) || err.name !== 'SolveError') throw err;
+    const message = `the netlist does not solve in every state the expected readings need (${err.message}); check the deck's models and values`;
+    throw new AppError('invalid', `The board model cannot be used: ${message}`, { errors: [{ path: 'document.netlist', message }] });
+  }
   engine.expected = rows.map((r) => ({
     id: r.id, label: r.label, mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted,
     expected: r.expected, low: r.low, high: r.high, unit: r.unit, ...(r.source ? { source: r.source } : {}), ...(r.note ? { note: r.note } : {}),
