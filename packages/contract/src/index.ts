@@ -19,6 +19,7 @@ export * from './board-model';
 export * from './board-capture';
 export * from './safety-gate';
 export * from './shop';
+export * from './meter-profiles';
 export * from './policy-bench';
 export * from './board-words';
 export * from './verification';

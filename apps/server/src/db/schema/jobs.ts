@@ -55,6 +55,8 @@ export const jobs = pgTable(
       .references(() => users.id),
     /** The intake request's key, so a repeated create answers the job it made. */
     idempotencyKey: text('idempotency_key'),
+    /** The meter profile the job's readings are taken with (a shipped profile id); null = the shop's default. */
+    meterProfile: text('meter_profile'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
   },

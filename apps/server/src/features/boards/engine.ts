@@ -3,9 +3,9 @@
 // the healthy board. A version never changes, so everything here is cached per version id for the life of the
 // process.
 import { expectedReadings, type BandFn, type ExpectedReadingsInput, type ExpectedReadingsTestPoint } from '@splitscope/boards/readings';
-import { normNode, refusal } from '@splitscope/circuit';
+import { meterProfileById, normNode, refusal, type MeterProfile } from '@splitscope/circuit';
 import { bandOf, CaseError, createDiagnoser, verdictOf, type CasePart, type Diagnoser, type ReadingValue, type TestPoint } from '@splitscope/diagnosis';
-import { boardModelSchema, unitOf, type BoardModel, type BoardPartKind, type ExpectedReadingRow, type MeterModeName, type PowerState, type ReadingVerdict } from '@splitscope/contract';
+import { boardModelSchema, unitOf, type BoardModel, type BoardPartKind, type ExpectedReadingRow, type MeterModeName, type MeterProfileId, type PowerState, type ReadingVerdict } from '@splitscope/contract';
 import { AppError } from '../../http/errors';
 import { isOlderDocument, upgradeV1InMemory } from './document-form';
 import { LRUCache } from 'lru-cache';
@@ -169,18 +169,28 @@ export interface ProbeState {
 
 const round = (x: number) => (x === 0 || !Number.isFinite(x) ? x : Number(x.toPrecision(4)));
 
+/** The shipped meter profile of an id; undefined (the board's generic meter) for none. */
+export const meterOf = (id: MeterProfileId | null | undefined): MeterProfile | undefined => (id ? meterProfileById(id) : undefined);
+
+/** The diagnoser's update options for a job's meter profile. */
+export const meterOptions = (id: MeterProfileId | null | undefined): { meter?: MeterProfile } => {
+  const meter = meterOf(id);
+  return meter ? { meter } : {};
+};
+
 /**
- * The healthy board's band for a probe and how a value compares, from the diagnosis engine's noise model.
- * Null when the engine cannot predict this probe.
+ * The healthy board's band for a probe and how a value compares, from the diagnosis engine's noise model, with
+ * the meter the reading was taken with (a sourced band of the table stands whatever the meter). Null when the
+ * engine cannot predict this probe.
  */
-export function verdictFor(engine: BoardEngine, probe: ProbeState, value: ReadingValue | null): ReadingVerdict | null {
+export function verdictFor(engine: BoardEngine, probe: ProbeState, value: ReadingValue | null, meter?: MeterProfile): ReadingVerdict | null {
   const row = tableRow(engine, probe);
   if (row?.source && row.low !== null && row.high !== null) {
     // A sourced band (a datasheet's output tolerance, the mains range) is the healthy range the table shows.
     const band = { expected: row.expected, low: row.low, high: row.high };
     return { expected: row.expected, low: row.low, high: row.high, unit: row.unit, verdict: value === null ? 'ok' : verdictOf(probe.mode, value, band) };
   }
-  const model = engine.diagnoser.model;
+  const model = engine.diagnoser.modelFor(meter);
   const test = { mode: probe.mode, red: probe.red, black: probe.black, power: probe.power, lifted: probe.lifted };
   const healthy = model.healthyPrediction(test);
   if (healthy.value === 'unknown') return null;

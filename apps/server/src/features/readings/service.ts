@@ -2,14 +2,14 @@ import { createHash } from 'node:crypto';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { LRUCache } from 'lru-cache';
-import { acceptsReadings, correctionRefusal, guidedOrderBinds, readingRefusal, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading, unitOf } from '@splitscope/contract';
+import { acceptsReadings, correctionRefusal, guidedOrderBinds, readingRefusal, readMeterProfileId, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading, unitOf } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
-import { boardModelVersions, jobs, readingStrikes, readings, users } from '../../db/schema';
+import { boardModelVersions, jobs, readingStrikes, readings, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { boardEngine, cachedBoardEngine, powerRefusal, resolveNet, resolveParts, verdictFor } from '../boards';
+import { boardEngine, cachedBoardEngine, meterOf, powerRefusal, resolveNet, resolveParts, verdictFor } from '../boards';
 import { capturedPointIds } from '../capture';
 import { getDutyRules } from '../duties';
 import { getJobRow } from '../../db/job-row';
@@ -126,6 +126,14 @@ function prepare(db: Db) {
       .leftJoin(later, eq(later.supersedes, stored.id))
       .where(and(eq(jobs.id, p('jobId')), eq(jobs.shopId, p('shopId'))))
       .prepare('reading_job_and_replay'),
+    // The meter the job's readings are read with (the job's profile, else the shop's): it can change on the bench,
+    // so it is read with every write rather than kept.
+    meter: db
+      .select({ profile: sql<string | null>`coalesce(${jobs.meterProfile}, ${shops.meterProfile})` })
+      .from(jobs)
+      .innerJoin(shops, eq(shops.id, jobs.shopId))
+      .where(and(eq(jobs.id, p('jobId')), eq(jobs.shopId, p('shopId'))))
+      .prepare('reading_job_meter'),
     version: db
       .select({ document: boardModelVersions.document, expectedReadings: boardModelVersions.expectedReadings })
       .from(boardModelVersions)
@@ -197,6 +205,10 @@ async function jobAndReplay(db: Db, actor: Actor, jobId: string, input: CreateRe
  */
 export async function createReading({ db, actor, jobId, input }: { db: Db; actor: Actor; jobId: string; input: CreateReadingInput }): Promise<CreateReadingResponse> {
   const q = queries(db);
+  // Started now, read when the verdict is computed: it overlaps the checks below.
+  const meterRow = q.meter.execute({ jobId, shopId: actor.shopId });
+  // A check below may throw first; the query's own failure is then not the one to report.
+  meterRow.catch(() => undefined);
   let versionId: string;
   let job: JobState | undefined;
   if (actor.role === 'trainee' || input.supersedes) {
@@ -252,7 +264,8 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
   await checkSafetyGate(versionId, async () => (await loadVersion()).document, input);
 
   const engineValue = input.mode === 'continuity' ? (input.beep ?? input.value !== 'OL') : input.value;
-  const verdict = photoPoints ? null : verdictFor(engine, { mode: input.mode, red: redNet, black: blackNet, power: input.power, lifted: lifted.parts }, engineValue);
+  const meter = meterOf(readMeterProfileId((await meterRow)[0]?.profile));
+  const verdict = photoPoints ? null : verdictFor(engine, { mode: input.mode, red: redNet, black: blackNet, power: input.power, lifted: lifted.parts }, engineValue, meter);
   const row: NewReading = {
     id: newId(),
     shopId: actor.shopId,

@@ -1,5 +1,5 @@
 import { and, count, eq, sql } from 'drizzle-orm';
-import { shopCardSchema, shopSchema, type AppMode, type FirstRunRequest, type Shop, type ShopCard, type UpdateShopRequest } from '@splitscope/contract';
+import { readMeterProfileId, shopCardSchema, shopSchema, type AppMode, type FirstRunRequest, type Shop, type ShopCard, type UpdateShopRequest } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Auth } from '../../auth/lucia';
 import { hashPassword } from '../../auth/password';
@@ -11,8 +11,9 @@ import { newId } from '../../lib/ids';
 
 type Row = typeof shops.$inferSelect;
 
-// The row's columns are the shop's fields; the schema keeps those the API shows (and drops created_at).
-export const toShop = (r: Row): Shop => shopSchema.parse(r);
+// The row's columns are the shop's fields; the schema keeps those the API shows (and drops created_at). A stored
+// meter profile no longer shipped reads as none (the generic meter).
+export const toShop = (r: Row): Shop => shopSchema.parse({ ...r, meterProfile: readMeterProfileId(r.meterProfile) });
 
 /** What customers see of the shop (reports, e-mails, the customer page); never its session settings. */
 export const toShopCard = (r: Row): ShopCard => shopCardSchema.parse({ ...r, hasLogo: r.logoUploadId !== null });

@@ -33,6 +33,7 @@ import { gateRefusalFor, touchesBus } from '@/lib/board/gate';
 import { parseTyped, preloadReadingParser } from '@/lib/parse-reading';
 import { GuidedOrder } from './guided-order';
 import { GuidedSwitch } from './guided-switch';
+import { MeterSwitch } from './meter-switch';
 import { LiftedParts } from './lifted-parts';
 import { ReadingActions } from './reading-actions';
 import { ProbeChoices } from './probe-choices';
@@ -206,6 +207,7 @@ function Bench({ job }: { job: JobDetail }) {
         </p>
         <div className="flex flex-wrap gap-1">
           <GuidedSwitch job={job} guided={guided} onToggle={() => setParams((p) => (p.set('mode', guided ? 'free' : 'guided'), p))} />
+          <MeterSwitch job={job} />
           {['approved', 'repaired', 'verified', 'returned'].includes(job.status) && (
             <Link className={linkClass} to={`/jobs/${job.id}/repair`}>
               Repair and verification
