@@ -44,4 +44,3 @@ export { CC_AUTORANGE_6000, ANALOG_THEVENIN_20K, METER_PROFILES, meterProfileByI
 export { parseSpiceNumber } from './values';
 export { nodesWithoutDcPath } from './topology';
 export { HealthyFactor, rubberStamps } from './fault-sim';
-export type { RubberStamp, FaultSolution, FaultMethod } from './fault-sim';

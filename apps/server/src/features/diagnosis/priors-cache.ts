@@ -13,7 +13,7 @@ import { jobPriors } from './priors';
 type JobFacts = Parameters<typeof jobPriors>[1];
 type JobPriors = Awaited<ReturnType<typeof jobPriors>>;
 
-export const PRIORS_TTL_MS = 60_000;
+const PRIORS_TTL_MS = 60_000;
 
 const kept = new LRUCache<string, { key: string; at: number; value: Promise<JobPriors> }>({ max: 500 });
 
