@@ -22,7 +22,7 @@
  * Where each case applies: docs/decisions/0006-fast-fault-simulation.md.
  */
 import type { Circuit, Element } from './circuit';
-import type { Topology } from './compile';
+import type { Topology } from './system';
 import { stampJunctions } from './devices';
 import { luFactor, luProgramToDense, luSolve, luWorkspace, type LuWorkspace } from './lu';
 import { solveNodes, type SolveOptions } from './solver';
