@@ -137,6 +137,7 @@ const TABLE: Entry[] = [
   { method: 'POST', path: '/api/public/links/:token/quotes/:id/approve', public: true, billing: true },
   { method: 'POST', path: '/api/public/links/:token/quotes/:id/decline', public: true, billing: true },
   { method: 'GET', path: '/api/public/links/:token/report.pdf', public: true, billing: true },
+  { method: 'GET', path: '/api/public/links/:token/logo', public: true, billing: true },
   { method: 'POST', path: '/api/public/links/:token/invoices/:id/checkout', public: true, billing: true },
   // Everyone reads billing; admin, lead and tech quote, invoice and mail the customer; only the admin
   // changes the shop's billing settings or reads the development outbox.

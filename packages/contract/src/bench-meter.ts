@@ -97,6 +97,9 @@ export const benchMeterBridgeSchema = z.object({ instrument: z.string().nullable
 export const benchMeterStatusResponse = z.object({ arm: benchMeterArmSchema.nullable(), bridge: benchMeterBridgeSchema.nullable() });
 export type BenchMeterStatus = z.infer<typeof benchMeterStatusResponse>;
 
+/** The page's poll: `since` is the request as the page shows it ("id:state:ready", or "none"); `wait` seconds at most. */
+export const benchMeterStatusQuery = z.object({ since: z.string().trim().max(200).optional(), wait: z.coerce.number().int().min(0).max(20).default(0) });
+
 /** What the bridge asks for: the next request to serve, waiting up to `wait` seconds for one other than `after`. */
 export const benchMeterNextQuery = z.object({
   after: z.string().trim().max(100).optional(),

@@ -12,6 +12,8 @@ export const diagnosisReadingSchema = z.object({
   black: z.string(),
   power: powerStateSchema,
   lifted: z.array(z.string()),
+  /** The lifted part measured on its own pins, if this reading is of a part alone (older answers lack it). */
+  alone: z.string().nullable().optional(),
   value: z.union([z.number(), z.literal('OL')]),
   expected: expectedValueSchema.nullable(),
   low: z.number().nullable(),

@@ -106,6 +106,8 @@ export const readings = pgTable(
     blackNet: text('black_net').notNull(),
     power: powerStateEnum('power').notNull(),
     lifted: text('lifted').array().notNull().default([]),
+    /** A lifted part measured on its own pins (its netlist name); null for a reading on the board. */
+    alone: text('alone'),
     /** SI units (V or ohm); null when the meter showed OL. */
     value: doublePrecision('value'),
     overLimit: boolean('over_limit').notNull().default(false),

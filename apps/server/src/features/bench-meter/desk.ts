@@ -63,6 +63,26 @@ export class MeterDesk {
     return this.lastOfJob.get(MeterDesk.jobKey(userId, jobId));
   }
 
+  /** Something about the person's request changed that the bench shows (it became ready). */
+  touch(userId: string): void {
+    this.changes.emit(userId);
+  }
+
+  /** Resolves on the person's next change (a request armed, ready, taken, refused, cancelled), or after `waitMs`. */
+  changed(userId: string, waitMs: number, signal: AbortSignal): Promise<void> {
+    return new Promise((resolve) => {
+      const done = () => {
+        clearTimeout(timer);
+        this.changes.off(userId, done);
+        signal.removeEventListener('abort', done);
+        resolve();
+      };
+      const timer = setTimeout(done, waitMs);
+      this.changes.on(userId, done);
+      signal.addEventListener('abort', done);
+    });
+  }
+
   seen(userId: string, instrument: string | undefined): void {
     const before = this.bridges.get(userId);
     this.bridges.set(userId, { instrument: instrument ?? before?.instrument ?? null, seenAt: new Date() });

@@ -1,5 +1,5 @@
 import { Router } from 'express';
-import { armBenchMeterRequest, benchMeterArmParams, benchMeterArmSchema, benchMeterNextQuery, benchMeterNextResponse, benchMeterReadingRequest, benchMeterRoles, benchMeterStatusResponse, idParams, type CreateReadingResponse } from '@splitscope/contract';
+import { armBenchMeterRequest, benchMeterArmParams, benchMeterArmSchema, benchMeterNextQuery, benchMeterNextResponse, benchMeterReadingRequest, benchMeterRoles, benchMeterStatusQuery, benchMeterStatusResponse, idParams, type CreateReadingResponse } from '@splitscope/contract';
 import { actorOf, requireRole } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';
@@ -16,7 +16,11 @@ export function benchMeterRoutes(ctx: AppContext): Router {
   const guard = requireRole(...benchMeterRoles);
   r.get('/jobs/:id/bench-meter', guard, async (req, res) => {
     const { id } = parse(idParams, req.params);
-    res.json(benchMeterStatusResponse.parse(await benchMeterStatus({ db: ctx.db, desk, actor: actorOf(req), jobId: id })));
+    const { since, wait } = parse(benchMeterStatusQuery, req.query);
+    const hangUp = new AbortController();
+    res.on('close', () => hangUp.abort());
+    const status = await benchMeterStatus({ db: ctx.db, desk, actor: actorOf(req), jobId: id, since, waitMs: wait * 1000, signal: hangUp.signal });
+    if (!res.writableEnded && !hangUp.signal.aborted) res.json(benchMeterStatusResponse.parse(status));
   });
   r.post('/jobs/:id/bench-meter', guard, async (req, res) => {
     const { id } = parse(idParams, req.params);

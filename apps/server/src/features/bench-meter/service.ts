@@ -62,7 +62,10 @@ export async function armBenchMeter({ db, desk, actor, jobId, input }: { db: Db;
   desk.arm(arm);
   void prepareVerdict(db, job.boardVersionId, arm)
     .catch(() => undefined)
-    .finally(() => (arm.ready = true));
+    .finally(() => {
+      arm.ready = true;
+      desk.touch(actor.id);
+    });
   return shown(arm);
 }
 
@@ -90,8 +93,15 @@ export async function cancelBenchMeter({ db, desk, actor, jobId }: { db: Db; des
   return benchMeterStatus({ db, desk, actor, jobId });
 }
 
-export async function benchMeterStatus({ db, desk, actor, jobId }: { db: Db; desk: MeterDesk; actor: Actor; jobId: string }): Promise<BenchMeterStatus> {
+/**
+ * This person's latest request on the job and their bridge. With `wait`, and while the request the page shows
+ * (`since`: its id and state) is still as shown, the answer waits up to `wait` ms for it to change: the bench hears
+ * of the meter's reading the moment it is stored, not at its next poll.
+ */
+export async function benchMeterStatus({ db, desk, actor, jobId, since, waitMs = 0, signal }: { db: Db; desk: MeterDesk; actor: Actor; jobId: string; since?: string; waitMs?: number; signal?: AbortSignal }): Promise<BenchMeterStatus> {
   await getJobRow(db, actor.shopId, jobId);
+  const shownNow = (a: Arm | undefined) => (a ? `${a.id}:${a.state}:${a.ready}` : 'none');
+  if (waitMs > 0 && signal && since === shownNow(desk.latestOnJob(actor.id, jobId))) await desk.changed(actor.id, waitMs, signal);
   const arm = desk.latestOnJob(actor.id, jobId);
   const bridge = desk.bridgeOf(actor.id);
   return { arm: arm ? shown(arm) : null, bridge: bridge ? { instrument: bridge.instrument, seenAt: iso(bridge.seenAt), connected: bridge.connected } : null };

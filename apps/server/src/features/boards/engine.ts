@@ -4,7 +4,7 @@
 // process.
 import { expectedReadings, type BandFn, type ExpectedReadingsInput, type ExpectedReadingsTestPoint } from '@splitscope/boards/readings';
 import { meterProfileById, normNode, refusal, type MeterProfile } from '@splitscope/circuit';
-import { bandOf, CaseError, createDiagnoser, verdictOf, type CasePart, type Diagnoser, type ReadingValue, type TestPoint } from '@splitscope/diagnosis';
+import { bandOf, CaseError, createDiagnoser, partAloneRefusal, verdictOf, type CasePart, type Diagnoser, type ReadingValue, type TestPoint } from '@splitscope/diagnosis';
 import { boardModelSchema, boardTestPointSchema, unitOf, type BoardModel, type BoardPartKind, type ExpectedReadingRow, type MeterModeName, type MeterProfileId, type PowerState, type ReadingVerdict } from '@splitscope/contract';
 import { AppError } from '../../http/errors';
 import { isOlderDocument, photoOnlyForm, upgradeV1InMemory } from './document-form';
@@ -180,6 +180,18 @@ export function resolveParts(engine: BoardEngine, names: readonly string[]): { p
   return { parts: parts.sort() };
 }
 
+/**
+ * The part a reading measures on its own pins, as the netlist names it, or why it cannot be: the engine's check
+ * (lifted, unpowered, the probes on two of its pins).
+ */
+export function resolveAlone(engine: BoardEngine, name: string, probe: ProbeState): { part: string } | { refused: string } {
+  const found = resolveParts(engine, [name]);
+  if ('unknown' in found) return { refused: `Unknown part "${name}" on this board model` };
+  const part = engine.diagnoser.model.partsByName.get(found.parts[0]!)!;
+  const why = partAloneRefusal(probe, part.name, part.nets);
+  return why ? { refused: why } : { part: part.name };
+}
+
 /** Why a reading cannot be taken in that power state (the circuit engine's own wording), if it cannot. */
 export const powerRefusal = (mode: MeterModeName, power: PowerState) => refusal(mode, power);
 
@@ -189,6 +201,8 @@ export interface ProbeState {
   black: string;
   power: PowerState;
   lifted: string[];
+  /** A lifted part measured on its own pins (its netlist name): the engine's part-alone prediction, no table row. */
+  alone?: string;
 }
 
 const round = (x: number) => (x === 0 || !Number.isFinite(x) ? x : Number(x.toPrecision(4)));
@@ -208,14 +222,14 @@ export const meterOptions = (id: MeterProfileId | null | undefined): { meter?: M
  * engine cannot predict this probe.
  */
 export function verdictFor(engine: BoardEngine, probe: ProbeState, value: ReadingValue | null, meter?: MeterProfile): ReadingVerdict | null {
-  const row = tableRow(engine, probe);
+  const row = probe.alone ? undefined : tableRow(engine, probe);
   if (row?.source && row.low !== null && row.high !== null) {
     // A sourced band (a datasheet's output tolerance, the mains range) is the healthy range the table shows.
     const band = { expected: row.expected, low: row.low, high: row.high };
     return { expected: row.expected, low: row.low, high: row.high, unit: row.unit, verdict: value === null ? 'ok' : verdictOf(probe.mode, value, band) };
   }
   const model = engine.diagnoser.modelFor(meter);
-  const test = { mode: probe.mode, red: probe.red, black: probe.black, power: probe.power, lifted: probe.lifted };
+  const test = { mode: probe.mode, red: probe.red, black: probe.black, power: probe.power, lifted: probe.lifted, ...(probe.alone ? { alone: probe.alone } : {}) };
   const healthy = model.healthyPrediction(test);
   if (healthy.value === 'unknown') return null;
   const band = bandOf(probe.mode, healthy, model.meter);

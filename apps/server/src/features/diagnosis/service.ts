@@ -134,7 +134,7 @@ export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Pr
 export const currentReadings = (db: Db, id: string): Promise<ReadingRow[]> => queries(db).rows.execute({ jobId: id });
 
 export const toCaseReadings = (rows: ReadingRow[]): CaseReading[] =>
-  rows.map((r) => ({ mode: r.mode, red: r.redNet, black: r.blackNet, power: r.power, lifted: r.lifted, value: caseValue(r) }));
+  rows.map((r) => ({ mode: r.mode, red: r.redNet, black: r.blackNet, power: r.power, lifted: r.lifted, ...(r.alone ? { alone: r.alone } : {}), value: caseValue(r) }));
 
 /** The engine's output as the API tells it: each reading report joined back to its stored row. */
 export function shapeDiagnosis(out: DiagnosisOutput, job: JobRef, rows: ReadingRow[]): Diagnosis {
@@ -161,6 +161,7 @@ export function shapeDiagnosis(out: DiagnosisOutput, job: JobRef, rows: ReadingR
         black: r.black,
         power: r.power,
         lifted: r.lifted,
+        alone: r.alone,
         value: r.overLimit ? 'OL' : r.value!,
         unit: unitOf(r.mode),
         expected: rep.expected,

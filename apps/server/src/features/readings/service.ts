@@ -9,7 +9,7 @@ import { boardModelVersions, jobs, readingStrikes, readings, shops, users } from
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { boardEngine, cachedBoardEngine, meterOf, powerRefusal, resolveNet, resolveParts, verdictFor } from '../boards';
+import { boardEngine, cachedBoardEngine, meterOf, powerRefusal, resolveAlone, resolveNet, resolveParts, verdictFor } from '../boards';
 import { capturedPointIds } from '../capture';
 import { getDutyRules } from '../duties';
 import { getJobRow } from '../../db/job-row';
@@ -33,6 +33,7 @@ function toReading(r: Row, authorName: string, supersededBy: string | null, stru
     blackNet: r.blackNet,
     power: r.power,
     lifted: r.lifted,
+    alone: r.alone,
     value: r.overLimit ? 'OL' : r.value!,
     unit: r.unit as 'V' | 'ohm',
     beep: r.beep,
@@ -252,6 +253,13 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
   if (!blackNet) throw invalid('black', `Unknown net or test point "${input.black}" on this board model`);
   const lifted = resolveParts(engine, input.lifted);
   if ('unknown' in lifted) throw invalid('lifted', `Unknown part "${lifted.unknown}" on this board model`);
+  const probe = { mode: input.mode, red: redNet, black: blackNet, power: input.power, lifted: lifted.parts };
+  let alone: string | null = null;
+  if (input.alone !== undefined) {
+    const found = resolveAlone(engine, input.alone, probe);
+    if ('refused' in found) throw invalid('alone', found.refused);
+    alone = found.part;
+  }
 
   let corrects: { mode: string; redNet: string; blackNet: string; power: string; lifted: string[]; authorId: string } | undefined;
   if (input.supersedes) {
@@ -270,7 +278,7 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
 
   const engineValue = input.mode === 'continuity' ? (input.beep ?? input.value !== 'OL') : input.value;
   const meter = meterOf(readMeterProfileId((await meterRow)[0]?.profile));
-  const verdict = photoPoints ? null : verdictFor(engine, { mode: input.mode, red: redNet, black: blackNet, power: input.power, lifted: lifted.parts }, engineValue, meter);
+  const verdict = photoPoints ? null : verdictFor(engine, { ...probe, ...(alone ? { alone } : {}) }, engineValue, meter);
   const row: NewReading = {
     id: newId(),
     shopId: actor.shopId,
@@ -284,6 +292,7 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
     blackNet,
     power: input.power,
     lifted: lifted.parts,
+    alone,
     value: input.value === 'OL' ? null : input.value,
     overLimit: input.value === 'OL',
     unit: unitOf(input.mode),

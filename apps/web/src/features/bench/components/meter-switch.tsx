@@ -8,10 +8,10 @@ import { useUpdateJob } from '@/lib/api/update-job';
 export function MeterSwitch({ job }: { job: JobDetail }) {
   const update = useUpdateJob(job.id);
   return (
-    <label className="inline-flex min-h-11 items-center gap-2 text-sm">
+    <label className="inline-flex min-h-11 max-w-full min-w-0 items-center gap-2 text-sm">
       <span className="font-medium">Meter</span>
       <select
-        className="min-h-11 rounded-md border border-stone-500 bg-white px-2"
+        className="min-h-11 min-w-0 max-w-full rounded-md border border-stone-500 bg-white px-2"
         value={job.meterProfile ?? ''}
         disabled={update.isPending}
         onChange={(e) => update.mutate({ meterProfile: (e.target.value || null) as JobDetail['meterProfile'] })}

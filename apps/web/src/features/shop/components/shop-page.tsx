@@ -78,6 +78,7 @@ function ShopForm({ shop }: { shop: Shop }) {
       </form>
       <section className="space-y-2 rounded-lg border border-stone-300 bg-white p-4">
         <h2 className="text-lg font-semibold">Logo</h2>
+        <p className="text-sm text-stone-700">It heads the repair report and the customer page; a large picture is scaled down to fit.</p>
         {shop.logoUploadId ? <img src={`/api/uploads/${shop.logoUploadId}`} alt={`${shop.name} logo`} className="max-h-24 max-w-60 object-contain" /> : <p className="text-stone-700">No logo yet.</p>}
         <label className="block">
           <span className="text-sm font-medium">Choose a PNG or JPEG</span>
