@@ -47,3 +47,4 @@ export type { Probe, BoardState, Reading, MeterProfile, MeterMode, MeasureOption
 export { CC_AUTORANGE_6000, ANALOG_THEVENIN_20K, METER_PROFILES, meterProfileById, accuracyLimit } from './meter-profiles';
 export { parseSpiceNumber } from './values';
 export { nodesWithoutDcPath } from './topology';
+export { HealthyFactor, rubberStamps } from './fault-sim';

@@ -7,6 +7,7 @@ import { boardModels, boardModelVersions, faultCodes, uploads, users } from '../
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
+import { priorsChanged } from '../../lib/priors-generation';
 import { buildBoardEngine, expectedTable, readBoardModel, readStoredBoardModel } from './engine';
 
 type BoardRow = typeof boardModels.$inferSelect;
@@ -218,6 +219,7 @@ export async function createFaultCode({ db, shopId, input }: { db: Db; shopId: s
     .insert(faultCodes)
     .values({ id: newId(), shopId, boardId: input.boardId ?? null, code: input.code, title: input.title, description: input.description ?? null, sections: input.sections ?? [], weights: onlySuspects(input) })
     .returning();
+  priorsChanged();
   return faultCode(row!);
 }
 
@@ -231,10 +233,12 @@ export async function updateFaultCode({ db, shopId, id, input }: { db: Db; shopI
     .where(and(eq(faultCodes.id, id), eq(faultCodes.shopId, shopId)))
     .returning();
   if (!row) throw new AppError('not_found', `No fault code ${id}`);
+  priorsChanged();
   return faultCode(row);
 }
 
 export async function deleteFaultCode({ db, shopId, id }: { db: Db; shopId: string; id: string }) {
   const [row] = await db.delete(faultCodes).where(and(eq(faultCodes.id, id), eq(faultCodes.shopId, shopId))).returning({ id: faultCodes.id });
   if (!row) throw new AppError('not_found', `No fault code ${id}`);
+  priorsChanged();
 }

@@ -10,7 +10,7 @@ import { diagnosisFor } from './cache';
 import { dictionaryStamp, dictionaryState, loadDictionary, savePairs } from './dictionary';
 import { ENGINE_VERSION } from './engine-version';
 import { diagnosisPool } from './pool';
-import { jobPriors } from './priors';
+import { cachedJobPriors } from './priors-cache';
 import { wordDiagnosis } from './words';
 
 
@@ -102,10 +102,10 @@ export async function getDiagnosis({ db, shopId, jobId: id }: { db: Db; shopId: 
 export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Promise<Diagnosis> {
   const q = queries(db);
   const versionId = job.boardVersionId;
-  const facts = await jobFacts(db, job);
-  const before = await jobPriors(db, facts, () => documentOf(db, versionId));
-  const [[k], [m], dictionary] = await Promise.all([q.key.execute({ jobId: job.id }), q.meter.execute({ jobId: job.id }), dictionaryState(db, versionId)]);
+  const [facts, [k], [m], dictionary] = await Promise.all([jobFacts(db, job), q.key.execute({ jobId: job.id }), q.meter.execute({ jobId: job.id }), dictionaryState(db, versionId)]);
   const meter = readMeterProfileId(m?.profile);
+  // The priors are kept with the readings key (priors-cache.ts): a poll or the read after a reading queries nothing.
+  const before = await cachedJobPriors(db, facts, `${k?.n ?? 0}|${k?.digest ?? ''}`, () => documentOf(db, versionId));
   // A diagnosis made before the board's dictionary (or a batch of fault pairs) was ready is made again.
   const stamp = dictionaryStamp(versionId);
   const out = await diagnosisFor(job.id, `${keyOf(versionId, meter, k?.n ?? 0, k?.digest ?? null, before.key)}|${stamp}`, async () => {

@@ -21,6 +21,7 @@ import { boardModelVersions, jobs, readings, readingStrikes, referenceReadings, 
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
+import { priorsChanged } from '../../lib/priors-generation';
 import { currentBoardVersion, readBoardModel } from '../boards';
 
 const norm = (n: string) => (n.trim().toLowerCase() === 'gnd' ? '0' : n.trim().toLowerCase());
@@ -51,6 +52,7 @@ async function storeSet(db: Db, o: { actor: Actor; boardId: string; versionId: s
     await tx.insert(referenceSets).values({ id, shopId: o.actor.shopId, boardId: o.boardId, versionId: o.versionId, jobId: o.jobId, serial: o.serial, note: o.note, createdBy: o.actor.id });
     await tx.insert(referenceReadings).values(rows.map((r) => ({ ...r, setId: id })));
   });
+  priorsChanged();
   return id;
 }
 
