@@ -11,6 +11,8 @@ const alias = {
   '@splitscope/boards/readings': here('./packages/boards/src/readings/index.ts'),
   '@splitscope/boards/units': here('./packages/boards/src/units.ts'),
   '@splitscope/boards': here('./packages/boards/src/index.ts'),
+  // The web app's own root, as its Vite config names it, for web unit tests of modules that import through it.
+  '@': here('./apps/web/src'),
 };
 
 export default defineConfig({

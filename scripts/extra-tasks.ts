@@ -3,6 +3,7 @@ import { printFuzzReport, runFuzz } from './proof/fuzz';
 import { printApiBench, runApiBench } from './proof/bench-api';
 import { printWebBench, runWebBench } from './proof/bench-web';
 import { FULL, printFaultReport, runFaults, SHORT, type FaultReport } from './proof/faults';
+import { modeFromEnv, prepareDatabase } from './lib/stack';
 
 /**
  * The short fault-injection run for `npm test` (about 30 s): 4 technicians, 2 server SIGKILLs, 2 PostgreSQL
@@ -24,7 +25,8 @@ async function faults(args: string[]): Promise<number> {
 async function fuzz(args: string[]): Promise<number> {
   const n = Number(args.find((a) => a.startsWith('--runs='))?.slice(7) ?? 4000);
   const seedArg = args.find((a) => a.startsWith('--seed='));
-  const report = await runFuzz({ total: Number.isFinite(n) && n > 0 ? n : 4000, seed: seedArg ? Number(seedArg.slice(7)) : undefined, log: console.log });
+  const onlyArg = args.find((a) => a.startsWith('--routes='));
+  const report = await runFuzz({ total: Number.isFinite(n) && n > 0 ? n : 4000, seed: seedArg ? Number(seedArg.slice(7)) : undefined, only: onlyArg ? new RegExp(onlyArg.slice(9)) : undefined, log: console.log });
   printFuzzReport(report);
   return report.ok ? 0 : 1;
 }
@@ -43,7 +45,17 @@ async function benchWeb(): Promise<number> {
   return 0;
 }
 
+/** `dictionary:build [--board <id, key or name>]`: the fault dictionaries stored versions lack, on the main database. */
+async function dictionaryBuild(args: string[]): Promise<number> {
+  const i = args.indexOf('--board');
+  const board = i >= 0 ? args[i + 1] : args.find((a) => a.startsWith('--board='))?.slice(8);
+  const url = await prepareDatabase('main', modeFromEnv());
+  const { buildMissingDictionaries } = await import('../apps/server/src/features/diagnosis/dictionary-command');
+  return buildMissingDictionaries(url, board, (line) => console.log(`splitscope: ${line}`));
+}
+
 export const tasks: Record<string, (args: string[]) => Promise<number>> = {
+  'dictionary:build': dictionaryBuild,
   faults,
   fuzz,
   'bench:api': benchApi,

@@ -15,6 +15,8 @@ import { proofDatabase, ServerChild, signIn, type Session } from './env';
 import { findFreePort } from '../lib/proc';
 import { installWriteLog, settledWrites, takeWrites } from './write-log';
 import { payloadArb, payloadArbOf, realIds, type FuzzPayload } from './zod-arb';
+import { smallPicture } from '../../apps/server/src/testing/pictures';
+import { fillFields, fillPath, placeholder, preconditions, SETUP_CUSTOMER_EMAIL, SETUP_PEOPLE, setupApi, type Fresh } from './fuzz-fresh';
 
 export interface WriteRoute {
   method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
@@ -66,22 +68,18 @@ interface Fixtures {
 
 const sha256 = (t: string) => createHash('sha256').update(t, 'utf8').digest('hex');
 
-async function makeFixtures(client: pg.Client): Promise<{ fixtures: Fixtures; resetTokens: string[] }> {
+async function makeFixtures(client: pg.Client): Promise<{ fixtures: Fixtures }> {
   await client.query(`INSERT INTO users (id, shop_id, email, name, role, password_hash)
     SELECT 'user-fuzz-target', shop_id, 'fuzz-target@demo.test', 'Fuzz Target', 'tech', password_hash FROM users WHERE email = 'tech@demo.test'`);
+  for (const [role, email] of Object.entries(SETUP_PEOPLE)) {
+    await client.query(`INSERT INTO users (id, shop_id, email, name, role, password_hash) SELECT $1, shop_id, $2, $3, $4, password_hash FROM users WHERE email = 'tech@demo.test'`, [`user-fuzz-setup-${role}`, email, `Fuzz set-up ${role}`, role]);
+  }
   const q = (await client.query<{ id: string; job_id: string }>("SELECT id, job_id FROM quotes WHERE shop_id = 'shop-demo' ORDER BY (status = 'sent') DESC, id LIMIT 1")).rows[0];
   const jobId = q?.job_id ?? (await client.query<{ id: string }>("SELECT id FROM jobs WHERE shop_id = 'shop-demo' ORDER BY id LIMIT 1")).rows[0]!.id;
   const inv = (await client.query<{ id: string }>('SELECT id FROM invoices WHERE job_id = $1 LIMIT 1', [jobId])).rows[0];
   const linkToken = randomBytes(32).toString('base64url'); // the shape of a mailed link's token
   await client.query("INSERT INTO customer_links (id, shop_id, job_id, token_hash, expires_at) VALUES ($1, 'shop-demo', $2, $3, now() + interval '1 day')", [randomUUID(), jobId, sha256(linkToken)]);
-  // Reset links for the target person: each works once, so the valid space of the confirm route is this many tokens.
-  const resetTokens: string[] = [];
-  for (let i = 0; i < 20; i++) {
-    const t = `fuzz-reset-${randomBytes(16).toString('hex')}`;
-    resetTokens.push(t);
-    await client.query("INSERT INTO password_resets (id, user_id, token_hash, expires_at) VALUES ($1, 'user-fuzz-target', $2, now() + interval '30 minutes')", [randomUUID(), sha256(t)]);
-  }
-  return { fixtures: { linkToken, linkQuoteId: q?.id ?? 'no-such-id', linkInvoiceId: inv?.id ?? 'no-such-id', targetUserId: 'user-fuzz-target' }, resetTokens };
+  return { fixtures: { linkToken, linkQuoteId: q?.id ?? 'no-such-id', linkInvoiceId: inv?.id ?? 'no-such-id', targetUserId: 'user-fuzz-target' } };
 }
 
 // The row a `:param` names, by the segment before it; rows of the demo shop, so its people reach them.
@@ -95,6 +93,7 @@ const ID_QUERIES: Record<string, string> = {
   readings: "SELECT id FROM readings WHERE shop_id = 'shop-demo' ORDER BY id LIMIT 1",
   invitations: "SELECT id FROM invitations WHERE shop_id = 'shop-demo' ORDER BY id LIMIT 1",
   uploads: "SELECT id FROM uploads WHERE shop_id = 'shop-demo' ORDER BY id LIMIT 1",
+  'parts-bin': "SELECT id FROM bin_parts WHERE shop_id = 'shop-demo' ORDER BY id LIMIT 1",
 };
 
 const VERIFIED_JOB = "SELECT id FROM jobs WHERE shop_id = 'shop-demo' AND status IN ('verified', 'returned') ORDER BY id LIMIT 1";
@@ -109,7 +108,8 @@ async function fillParams(path: string, client: pg.Client, f: Fixtures): Promise
     if (before === 'links') id = f.linkToken;
     else if (isPublic && before === 'quotes') id = f.linkQuoteId;
     else if (isPublic && before === 'invoices') id = f.linkInvoiceId;
-    else if (before === 'users') id = f.targetUserId;
+    // a trainee's guided order is set on a trainee; role changes and deactivation hit the fuzzer's own target
+    else if (before === 'users') id = parts[i + 1] === 'guided-order' ? 'user-trainee' : f.targetUserId;
     // an invoice is issued on a verified job: that route gets one, so its valid space is reachable
     else if (before === 'jobs' && parts[i + 1] === 'invoices') id = (await client.query<{ id: string }>(VERIFIED_JOB)).rows[0]?.id ?? id;
     else if (ID_QUERIES[before]) id = (await client.query<{ id: string }>(ID_QUERIES[before]!).catch(() => null))?.rows[0]?.id ?? id;
@@ -128,6 +128,8 @@ export interface FuzzReport {
   changes: { route: string; status: number; label: string; tables: string[] }[];
   /** Accepted requests whose effect on the database was not what their answer says (a GET that wrote, a 201 that stored nothing). */
   stateErrors: { route: string; status: number; label: string; problem: string }[];
+  /** Set-up steps (fuzz-fresh.ts) that failed: the route then went without its fresh row. */
+  setupErrors: string[];
   perRoute: Record<string, { accepted: number; refused: number }>;
   unmapped: string[];
   statuses: Record<number, number>;
@@ -142,7 +144,10 @@ const REFUSED_MAY_WRITE: Record<string, string[]> = {
   'POST /api/public/links/:token/quotes/:id/decline': ['customer_links'],
   'POST /api/public/links/:token/invoices/:id/checkout': ['customer_links'],
 };
-const READS_MAY_WRITE = ['sessions', 'billing_settings', 'customer_links'];
+const READS_MAY_WRITE = ['sessions', 'billing_settings', 'service_terms', 'customer_links'];
+// Written by the server's own background work, whatever request is in flight: a board model's fault dictionary is
+// built in the background after the server starts or a board changes (diagnosis/dictionary.ts).
+const BACKGROUND_TABLES = ['fault_dictionaries', 'fault_dictionary_rows'];
 // Routes that answer before their work is done, on purpose: a reset request answers at once whether or not the
 // address has an account (its timing tells nothing), then writes the link and mails it.
 const ANSWERS_FIRST = ['POST /api/auth/password-reset'];
@@ -209,21 +214,23 @@ const PEOPLE = ['admin@demo.test', 'lead@demo.test', 'tech@demo.test', 'trainee@
 const DEMO_PASSWORD = 'splitscope-demo';
 
 /** Field values that open a route's valid space beyond the shared ids: real accounts, tokens the fuzzer holds. */
-function routeIds(name: string, resetTokens: string[], invitationTokens: string[], boards: BoardDocs): Record<string, unknown[]> {
+function routeIds(name: string, boards: BoardDocs): Record<string, unknown[]> {
   if (name === 'POST /api/boards') return { ...realIds, document: boards.fresh };
   if (name === 'PATCH /api/boards/:id') return { ...realIds, document: boards.current };
   if (name === 'GET /api/boards/:id') return { ...realIds, version: [1, 2] };
   if (name === 'POST /api/auth/sign-in') return { ...realIds, email: PEOPLE.filter((e): e is string => !!e), password: [DEMO_PASSWORD] };
   if (name === 'POST /api/auth/password-reset') return { ...realIds, email: PEOPLE.filter((e): e is string => !!e) };
   if (name === 'POST /api/me/password') return { ...realIds, currentPassword: [DEMO_PASSWORD] };
-  if (name === 'POST /api/auth/password-reset/confirm') return { ...realIds, token: resetTokens };
-  if (name === 'POST /api/auth/accept-invitation') return { ...realIds, token: invitationTokens.length ? invitationTokens : ['no-such-token'] };
+  // a quote, an invoice or a notice goes to the customer's address on file, or is refused
+  if (/^POST \/api\/(quotes|invoices)\/:id\/send$|^POST \/api\/jobs\/:jobId\/notify$/.test(name)) return { ...realIds, to: [SETUP_CUSTOMER_EMAIL] };
   return realIds;
 }
 
-export async function runFuzz({ total, seed, log }: { total: number; seed?: number; log: (l: string) => void }): Promise<FuzzReport> {
+export async function runFuzz({ total, seed, only, log }: { total: number; seed?: number; only?: RegExp; log: (l: string) => void }): Promise<FuzzReport> {
   const t0 = Date.now();
-  const routes = findWriteRoutes();
+  // `only`: the routes (`METHOD /path`) a shorter run fuzzes; the payloads per route stay as for all of them
+  const all = findWriteRoutes();
+  const routes = only ? all.filter((r) => only.test(`${r.method} ${r.path}`)) : all;
   const db = await proofDatabase(clusterSpec('test'), 'splitscope_fuzz');
   // The local mail capture and payment fakes, so routes that mail or start a checkout reach their valid space
   // (without a mail relay they answer 503, as a shop's server does while its relay is down).
@@ -238,11 +245,11 @@ export async function runFuzz({ total, seed, log }: { total: number; seed?: numb
     MAIL_CAPTURE_DIR: mailDir,
   });
   const client = new pg.Client({ connectionString: db.url });
-  const report: FuzzReport = { ok: false, tried: 0, routes: routes.length, accepted: 0, refused: 0, serverErrors: [], changes: [], stateErrors: [], perRoute: {}, unmapped: [], statuses: {}, seconds: 0 };
+  const report: FuzzReport = { ok: false, tried: 0, routes: routes.length, accepted: 0, refused: 0, serverErrors: [], changes: [], stateErrors: [], setupErrors: [], perRoute: {}, unmapped: [], statuses: {}, seconds: 0 };
   try {
     await server.start();
     await client.connect();
-    const { fixtures, resetTokens } = await makeFixtures(client);
+    const { fixtures } = await makeFixtures(client);
     // every role of the demo shop, a technician of the other shop, and nobody
     const passwords = PEOPLE.map(() => DEMO_PASSWORD);
     const sessions: (Session | null)[] = await Promise.all(PEOPLE.map((e) => (e ? signIn(server.url, e) : null)));
@@ -251,23 +258,30 @@ export async function runFuzz({ total, seed, log }: { total: number; seed?: numb
       const email = PEOPLE[k];
       if (email) sessions[k] = await signIn(server.url, email, passwords[k]).catch(() => null);
     };
-    const invitationTokens: string[] = [];
     await loadRealIds(client);
     const boards = await boardDocs(client);
     await installWriteLog(client);
-    const perRoute = Math.max(50, Math.ceil(total / Math.max(1, routes.length)));
+    const perRoute = Math.max(only ? 1 : 50, Math.ceil(total / Math.max(1, all.length)));
     const schemas = contract as unknown as Record<string, ZodSchema | undefined>;
+    const setup = setupApi(server.url, client);
+    const PRE = preconditions(server.url);
     for (const route of routes) {
       const name = `${route.method} ${route.path}`;
       const stats = (report.perRoute[name] = { accepted: 0, refused: 0 });
       const schema = route.schemaName ? schemas[route.schemaName] : undefined;
       if (!schema && route.method !== 'GET') report.unmapped.push(`${name} (${route.file})`);
-      const ids = routeIds(name, resetTokens, invitationTokens, boards);
+      const pre = PRE[name];
+      const ids = { ...routeIds(name, boards), ...Object.fromEntries((pre?.fields ?? []).map((f) => [f, [placeholder(f)]])) };
       const arb = route.path.includes('/webhooks/')
         ? payloadArbOf(paymentEventArb(), ['id', 'type', 'created', 'data'])
         : payloadArb(schema ?? ((route.method === 'GET' ? contract.idParams : contract.createReadingRequest) as unknown as ZodSchema), ids);
       const samples = fc.sample(arb, { numRuns: perRoute, seed: seed === undefined ? undefined : seed + report.tried });
       const paths = [await fillParams(route.path, client, fixtures), route.path.replace(/:\w+/g, 'no-such-id')];
+      // A fresh row for the route (a token, a sent quote, a picture): made before the first payload and again once
+      // an accepted payload used it up.
+      let fresh: Fresh | null = null;
+      let usedUp = true;
+      let setupFailed = false;
       // Who the route lets in, learnt from its answers: after a first round over everyone, three payloads in four
       // go as the people it accepted, so the valid space is reached; every fourth still goes round everyone.
       const letIn: number[] = [];
@@ -276,23 +290,40 @@ export async function runFuzz({ total, seed, log }: { total: number; seed?: numb
         const k = i < 2 * PEOPLE.length || i % 4 === 0 || letIn.length === 0 ? i % PEOPLE.length : letIn[i % letIn.length]!;
         // Signing out would end the session the rest of the run uses: that route gets none.
         const session = route.path.endsWith('/auth/sign-out') ? null : sessions[k]!;
+        if (pre && !setupFailed && (fresh === null || (pre.once && usedUp))) {
+          fresh = await pre.make(setup).catch((err: Error) => {
+            report.setupErrors.push(`${name}: ${err.message}`);
+            log(`fuzz: FAIL set-up ${name}: ${err.message}`);
+            setupFailed = true;
+            return null;
+          });
+          if (fresh) paths[0] = await fillParams(fillPath(route.path, fresh), client, fixtures);
+          usedUp = false;
+          await takeWrites(client); // the set-up's own writes are not the next request's
+        }
         const url = server.url + paths[i % 7 === 6 ? 1 : 0];
         // a change of one's own password needs the current one, which an earlier accepted change may have changed
-        const text = name === 'POST /api/me/password' ? p.text.replace(`"currentPassword":"${DEMO_PASSWORD}"`, `"currentPassword":${JSON.stringify(passwords[k])}`) : p.text;
-        const answer = await send(route.method, url, { ...p, text }, session, route.path.includes('/webhooks/'));
+        const text = fillFields(name === 'POST /api/me/password' ? p.text.replace(`"currentPassword":"${DEMO_PASSWORD}"`, `"currentPassword":${JSON.stringify(passwords[k])}`) : p.text, fresh);
+        // An upload's body is a picture: three in four payloads are a whole small PNG or JPEG, some for a job.
+        const picture = name === 'POST /api/uploads' && i % 4 !== 3 ? await smallPicture((i * 0.618) % 1) : null;
+        const answer = picture
+          ? await send('POST', `${url}?${new URLSearchParams({ name: `board-${i}.${picture.type === 'image/png' ? 'png' : 'jpg'}`, ...(i % 2 && realIds.jobId?.length ? { jobId: String(realIds.jobId[i % realIds.jobId.length]) } : {}) })}`, { text: '', bytes: picture.bytes, contentType: picture.type, label: 'picture' }, session, false)
+          : await send(route.method, url, { ...p, text }, session, route.path.includes('/webhooks/'));
         const status = answer.status;
         report.tried++;
         report.statuses[status] = (report.statuses[status] ?? 0) + 1;
         if (status >= 500 || status === 0) {
           if (report.serverErrors.length < 20) report.serverErrors.push({ route: name, status, label: p.label, sample: text.slice(0, 300) });
         }
-        const { changed, inserted } = ANSWERS_FIRST.includes(name) ? await settledWrites(client) : await takeWrites(client);
+        const writes = ANSWERS_FIRST.includes(name) ? await settledWrites(client) : await takeWrites(client);
+        const changed = writes.changed.filter((t) => !BACKGROUND_TABLES.includes(t));
+        const inserted = writes.inserted.filter((t) => !BACKGROUND_TABLES.includes(t));
         if (status >= 200 && status < 400) {
           report.accepted++;
           stats.accepted++;
+          usedUp = true;
           if (session && !letIn.includes(k)) letIn.push(k);
           if (name === 'POST /api/me/password') passwords[k] = (JSON.parse(text) as { newPassword: string }).newPassword;
-          if (name === 'POST /api/users/invitations') invitationTokens.push((JSON.parse(answer.body) as { token: string }).token);
           // State assertions: a read writes nothing of substance, and a 201 stored a row somewhere.
           const stray = route.method === 'GET' ? changed.filter((t) => !READS_MAY_WRITE.includes(t)) : [];
           if (stray.length && report.stateErrors.length < 20) report.stateErrors.push({ route: name, status, label: p.label, problem: `a read changed ${stray.join(', ')}` });
@@ -322,11 +353,11 @@ export async function runFuzz({ total, seed, log }: { total: number; seed?: numb
     rmSync(mailDir, { recursive: true, force: true });
   }
   report.seconds = (Date.now() - t0) / 1000;
-  report.ok = report.tried > 0 && report.serverErrors.length === 0 && report.changes.length === 0 && report.stateErrors.length === 0;
+  report.ok = report.tried > 0 && report.setupErrors.length === 0 && report.serverErrors.length === 0 && report.changes.length === 0 && report.stateErrors.length === 0;
   return report;
 }
 
-async function send(method: string, url: string, p: FuzzPayload, session: Session | null, signed: boolean): Promise<{ status: number; body: string }> {
+async function send(method: string, url: string, p: FuzzPayload & { bytes?: Buffer }, session: Session | null, signed: boolean): Promise<{ status: number; body: string }> {
   const headers: Record<string, string> = {};
   if (signed) headers['stripe-signature'] = signWebhook(p.text);
   if (p.contentType) headers['content-type'] = p.contentType;
@@ -335,7 +366,7 @@ async function send(method: string, url: string, p: FuzzPayload, session: Sessio
   try {
     // A GET carries its payload as the query string (the route parses req.query).
     const query = method === 'GET' ? queryOf(p.text) : '';
-    const r = await fetch(url + query, { method, headers, body: method === 'GET' ? undefined : p.text, signal: AbortSignal.timeout(60_000) });
+    const r = await fetch(url + query, { method, headers, body: method === 'GET' ? undefined : (p.bytes ?? p.text), signal: AbortSignal.timeout(60_000) });
     return { status: r.status, body: await r.text() };
   } catch {
     return { status: 0, body: '' }; // no answer at all counts with the server errors
@@ -361,6 +392,7 @@ export function printFuzzReport(r: FuzzReport, log: (l: string) => void = consol
   for (const e of r.serverErrors) log(`fuzz: FAIL ${e.status || 'no answer'} from ${e.route} (${e.label}): ${e.sample}`);
   for (const c of r.changes) log(`fuzz: FAIL refused ${c.status} from ${c.route} (${c.label}) changed ${c.tables.join(', ')}`);
   for (const e of r.stateErrors) log(`fuzz: FAIL accepted ${e.status} from ${e.route} (${e.label}): ${e.problem}`);
+  for (const e of r.setupErrors) log(`fuzz: set-up failed for ${e}`);
   log('fuzz: accepted / refused per route:');
   for (const [route, s] of Object.entries(r.perRoute)) log(`  ${route.padEnd(52)} ${String(s.accepted).padStart(5)} / ${String(s.refused).padStart(5)}  (${Math.round((100 * s.accepted) / Math.max(1, s.accepted + s.refused))} % accepted)`);
   log(`fuzz: tried ${r.tried} payloads on ${r.routes} routes (${r.refused} refused, ${r.accepted} accepted) in ${r.seconds.toFixed(1)} s: ${r.serverErrors.length} server errors, ${r.changes.length} refused requests that changed the database, ${r.stateErrors.length} accepted requests with the wrong effect`);

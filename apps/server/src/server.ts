@@ -7,7 +7,7 @@ import { shops } from './db/schema';
 import { createDatabase } from './db/client';
 import type { AppContext } from './context';
 import { holdDiagnosisPool, releaseDiagnosisPool } from './features/diagnosis/pool';
-import { enableDictionaryBuilds, ensureAllDictionaries } from './features/diagnosis/dictionary';
+import { enableDictionaryBuilds, ensureOpenJobDictionaries } from './features/diagnosis/dictionary';
 import { upgradeBoardDocuments, type UpgradeOutcome } from './features/boards/upgrade';
 import { DiskStorage } from './storage/storage';
 
@@ -42,11 +42,12 @@ export async function startServer(config: Config): Promise<RunningServer> {
   });
   // Test servers come and go by the dozen; each starting diagnosis threads it may never use would cost seconds.
   holdDiagnosisPool(config.DIAGNOSIS_WORKERS, { warm: config.NODE_ENV !== 'test' });
-  // Fault dictionaries of every version that lacks one (the demo boards after seeding, versions an older engine
-  // computed) are built in the background; a version is usable at once meanwhile.
+  // Fault dictionaries are built on publish; at start only those of versions open jobs use and that lack one (a
+  // minute of a core per board: docs/decisions/0007). `pnpm dictionary:build` builds the rest. A version is usable
+  // at once meanwhile.
   if (config.NODE_ENV !== 'test' && config.FAULT_DICTIONARIES) {
     enableDictionaryBuilds(true);
-    void ensureAllDictionaries(db).catch((err: unknown) => console.error(`splitscope: fault dictionaries not started: ${(err as Error).message}`));
+    void ensureOpenJobDictionaries(db).catch((err: unknown) => console.error(`splitscope: fault dictionaries not started: ${(err as Error).message}`));
   }
   // Idle keep-alive sockets outlive the clients' own idle timeouts (browsers, proxies, test runners), so the
   // server never closes a socket at the moment a client reuses it (seen as ECONNRESET). Node's default is 5 s.

@@ -15,6 +15,8 @@ import { newId } from '../src/lib/ids';
 import type { RunningServer } from '../src/server';
 import { Client, createEmptyDatabase, startTestServer } from './harness';
 import { linkIn } from './billing-fixture';
+import sharp from 'sharp';
+import { LOGO_BOX } from '../src/features/shops';
 
 const SHOP = { name: 'Kestrel Row Electronics', address: '12 Kestrel Row\nMillbrook', phone: '555-0142', email: 'desk@kestrelrow.test', taxNumber: 'VAT-778812', currency: 'EUR' };
 const DEMO_WORDS = /Harbour Lane|Splitscope Demo/;
@@ -110,5 +112,56 @@ describe("the shop's details where customers see them", () => {
     expect(mail.text).toContain('Tax number VAT-990001');
     const report = (await admin.get(`/api/jobs/${jobId}/report`)).body as unknown as RepairReport;
     expect(reportLines(report).map((l) => l.text)).toContain('Tax number VAT-990001');
+  });
+
+  it("heads the report PDF and the customer page with the shop's logo, fitted to a header; refuses a file that is not a picture in words", async () => {
+    const upload = (bytes: Buffer, type: string) => fetch(`${server.url}/api/uploads?name=logo`, { method: 'POST', headers: { 'content-type': type, cookie: admin.cookie }, body: bytes });
+    // a 1600 × 1200 photo-sized JPEG: kept as a copy at most LOGO_BOX
+    const big = await sharp({ create: { width: 1600, height: 1200, channels: 3, background: '#1d6f42' } }).jpeg().toBuffer();
+    const up = await upload(big, 'image/jpeg');
+    expect(up.status).toBe(201);
+    const set = await admin.patch('/api/shop', { logoUploadId: ((await up.json()) as { id: string }).id });
+    expect(set.status, JSON.stringify(set.body)).toBe(200);
+    const logoId = set.body.logoUploadId as string;
+    const stored = await fetch(`${server.url}/api/uploads/${logoId}`, { headers: { cookie: admin.cookie } });
+    const meta = await sharp(Buffer.from(await stored.arrayBuffer())).metadata();
+    expect(meta.format).toBe('png');
+    expect(meta.width! <= LOGO_BOX.width && meta.height! <= LOGO_BOX.height).toBe(true);
+    expect(meta.width! / meta.height!).toBeCloseTo(1600 / 1200, 1);
+
+    // a text file named like a picture: refused, in words, and the logo stays as it was
+    const text = await upload(Buffer.from('not a picture at all'), 'image/png');
+    expect(text.status).toBe(415);
+    expect(((await text.json()) as { detail: string }).detail).toMatch(/PNG and JPEG/);
+    expect((await admin.get('/api/shop')).body.logoUploadId).toBe(logoId);
+
+    // the customer page says there is a logo and fetches it through its link; the PDF draws it at its head
+    const email = 'wren.soto@contractor.example.test';
+    const { id: jobId, db } = await customerJob(email);
+    const quote = await admin.post(`/api/jobs/${jobId}/quotes`, { lines: [{ kind: 'labour', description: 'Bench diagnosis', quantity: '1', unitCents: 4500 }] });
+    expect((await admin.post(`/api/quotes/${quote.body.id as string}/send`)).status).toBe(200);
+    const token = linkIn(await smtp.waitFor((m) => m.to.some((t) => t.includes(email))));
+    const customer = new Client(server.url);
+    expect(((await customer.get(`/api/public/links/${token}`)).body as unknown as PublicJob).shop.hasLogo).toBe(true);
+    const logo = await fetch(`${server.url}/api/public/links/${token}/logo`);
+    expect(logo.status).toBe(200);
+    expect(logo.headers.get('content-type')).toBe('image/png');
+    expect((await sharp(Buffer.from(await logo.arrayBuffer())).metadata()).width).toBe(meta.width);
+    expect((await fetch(`${server.url}/api/public/links/${'x'.repeat(43)}/logo`)).status).toBe(404);
+
+    await db.update(jobs).set({ status: 'verified' }).where(eq(jobs.id, jobId));
+    const pdf = await fetch(`${server.url}/api/public/links/${token}/report.pdf`);
+    expect(pdf.status).toBe(200);
+    const bytes = Buffer.from(await pdf.arrayBuffer()).toString('latin1');
+    // one picture object, drawn on the first page (pdfkit names images /I1, /I2 … in the page's resources)
+    expect(bytes.match(/\/Subtype \/Image/g)?.length).toBe(1);
+    expect(bytes).toMatch(/\/XObject <<\s*\/I1 /);
+
+    // removed again: no logo on the page, the logo link answers 404
+    expect((await admin.patch('/api/shop', { logoUploadId: null })).status).toBe(200);
+    expect(((await customer.get(`/api/public/links/${token}`)).body as unknown as PublicJob).shop.hasLogo).toBe(false);
+    expect((await fetch(`${server.url}/api/public/links/${token}/logo`)).status).toBe(404);
+    const plain = Buffer.from(await (await fetch(`${server.url}/api/public/links/${token}/report.pdf`)).arrayBuffer()).toString('latin1');
+    expect(plain).not.toMatch(/\/Subtype \/Image/);
   });
 });

@@ -72,13 +72,18 @@ export interface BoardWords {
   fault(element: string, mode: string): string;
   /** Where a probe goes for a test point id or a net: "TP3 15 V rail", "CN3 pin 3", "C10 +". */
   probe(netOrPoint: string): string;
+  /**
+   * Where a reading's probes were: "TP5 Fan control supply to bus negative"; for a lifted part measured on its
+   * own pins "C10 alone" (a two-pin part), or "U1 alone, pin 1 to pin 2" where the pins matter.
+   */
+  probes(r: { red: string; black: string; alone?: string | null }): string;
 }
 
 const lower = (s: string) => s.trim().toLowerCase();
 
 const PIN_WORDS: Record<string, string> = { a: 'anode', k: 'cathode', c: 'collector', b: 'base', e: 'emitter' };
 /** A part pin as the silkscreen and the trade say it: an electrolytic's + and −, a diode's anode, a transistor's base. */
-function pinWord(kind: string, pin: string): string {
+export function pinWord(kind: string, pin: string): string {
   if (kind === 'electrolytic-capacitor' && (pin === '1' || pin === '2')) return pin === '1' ? '+' : '−';
   const named = PIN_WORDS[lower(pin)];
   if (named && (kind === 'diode' || kind === 'led' || kind === 'zener' || kind === 'bjt')) return named;
@@ -126,9 +131,22 @@ export function boardWords(model: WordsModel | null): BoardWords {
     return pinByNet.get(key) ?? partPinByNet.get(key) ?? netLabels.get(key) ?? 'a point not on the board map';
   };
 
+  const probes = (r: { red: string; black: string; alone?: string | null }) => {
+    if (!r.alone) return `${probe(r.red)} to ${probe(r.black)}`;
+    const p = partOf(r.alone);
+    const name = `${designator(r.alone)} alone`;
+    if (!p || p.pins.length <= 2) return name;
+    const pinOf = (net: string) => {
+      const pin = p.pins.find((x) => lower(x.net) === lower(net));
+      return pin ? pinWord(p.kind, pin.pin) : 'a pin';
+    };
+    return `${name}, ${pinOf(r.red)} to ${pinOf(r.black)}`;
+  };
+
   return {
     designator,
     kind,
+    probes,
     fault: (element, mode) => {
       const k = partOf(element)?.kind;
       const name = [designator(element), k ? KIND_WORDS[k] : undefined].filter(Boolean).join(' ');

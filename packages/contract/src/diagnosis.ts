@@ -12,6 +12,8 @@ export const diagnosisReadingSchema = z.object({
   black: z.string(),
   power: powerStateSchema,
   lifted: z.array(z.string()),
+  /** The lifted part measured on its own pins, if this reading is of a part alone (older answers lack it). */
+  alone: z.string().nullable().optional(),
   value: z.union([z.number(), z.literal('OL')]),
   expected: expectedValueSchema.nullable(),
   low: z.number().nullable(),
@@ -79,7 +81,7 @@ export const priorReasonSchema = z.object({
 });
 export type PriorReason = z.infer<typeof priorReasonSchema>;
 
-/** The output of `circuit diagnose` for a job's current readings, plus where it came from. */
+/** The output of `pnpm diagnose` for a job's current readings, plus where it came from. */
 export const diagnosisResponse = z.object({
   jobId: idSchema,
   boardVersionId: idSchema,

@@ -4,6 +4,7 @@ import { counterSchema } from './bounds';
 import { idSchema, isoDateTime, isoDateTimeInput, optionalText } from './common';
 import { customerSchema } from './customers';
 import { diagnosisSnapshotSchema } from './diagnosis';
+import { meterProfileIdSchema } from './meter-profiles';
 import { returnMethods } from './policy-bench';
 import { reviewSchema } from './reviews';
 
@@ -59,6 +60,8 @@ export const jobSchema = z.object({
   returnedVia: z.enum(returnMethods).nullable(),
   /** True when a lead lifted guided order for this job's trainee. */
   guidedLifted: z.boolean(),
+  /** The meter the job's readings are taken with; null = the shop's default. */
+  meterProfile: meterProfileIdSchema.nullable(),
   createdBy: idSchema,
   createdAt: isoDateTime,
   updatedAt: isoDateTime,
@@ -114,6 +117,8 @@ export const createJobRequest = z.object({
   assigneeId: idSchema.nullable().optional(),
   receivedAt: isoDateTimeInput.optional(),
   dueAt: isoDateTimeInput.nullable().optional(),
+  /** The meter the readings will be taken with; omitted or null = the shop's default. */
+  meterProfile: meterProfileIdSchema.nullable().optional(),
 });
 export type CreateJobRequest = z.input<typeof createJobRequest>;
 
@@ -139,6 +144,8 @@ export const updateJobRequest = z
     faultCode: optionalText(20),
     symptom: z.string().trim().min(1).max(2000),
     dueAt: isoDateTimeInput.nullable(),
+    /** The meter the readings are taken with (null = the shop's default); changed on the bench as well. */
+    meterProfile: meterProfileIdSchema.nullable(),
   })
   .partial()
   .refine((o) => Object.keys(o).length > 0, 'nothing to change');

@@ -41,6 +41,18 @@ export type MeterValue = z.infer<typeof meterValueSchema>;
 
 const netName = z.string().trim().min(1).max(100);
 
+/**
+ * Why a reading cannot be of a part on its own pins, in the bench's words, or null when it can: the part is off
+ * the board (lifted), the board unplugged, and the meter on Ω, diode or continuity. The engine checks the pins.
+ */
+export function aloneRefusal(r: { alone?: string; mode: MeterModeName; power: PowerState; lifted: readonly string[] }): string | null {
+  const part = r.alone?.trim();
+  if (!part) return null;
+  if (r.mode === 'dcv' || r.power !== 'off') return `${part} on its own pins is measured unpowered with Ω, diode or continuity, not DC V`;
+  if (!r.lifted.some((p) => p.trim().toLowerCase() === part.toLowerCase())) return `Lift ${part} first: a part is measured on its own pins only when it is off the board`;
+  return null;
+}
+
 export const createReadingRequest = z.object({
   /** Chosen by the client once per reading; a retried POST with the same key returns the stored reading. */
   idempotencyKey: z.string().trim().min(8).max(100),
@@ -51,6 +63,11 @@ export const createReadingRequest = z.object({
   power: powerStateSchema,
   /** Top-level part names lifted from the board for this reading. */
   lifted: z.array(z.string().trim().min(1).max(50)).max(20).default([]),
+  /**
+   * A lifted part measured on its own pins ("C10 lifted, Ω across its pins"): red and black are two of its pins'
+   * nets, the board is unplugged, the part is one of `lifted`. The reading is evidence about that part alone.
+   */
+  alone: z.string().trim().min(1).max(50).optional(),
   value: meterValueSchema,
   /** Continuity: whether the meter beeped. */
   beep: z.boolean().optional(),
@@ -65,6 +82,10 @@ export const createReadingRequest = z.object({
   /** The bus-discharge gate passed before an unpowered reading on a section that touches the bus. */
   safetyCheck: safetyCheckSchema.optional(),
 }).superRefine((r, ctx) => {
+  if (r.alone !== undefined) {
+    const why = aloneRefusal(r);
+    if (why) ctx.addIssue({ code: 'custom', path: ['alone'], message: why });
+  }
   if (r.value === 'OL') return;
   const checked = valueForMode(r.mode).safeParse(r.value);
   if (!checked.success) ctx.addIssue({ code: 'custom', path: ['value'], message: checked.error.issues[0]!.message });
@@ -97,6 +118,8 @@ export const readingSchema = z.object({
   blackNet: z.string(),
   power: powerStateSchema,
   lifted: z.array(z.string()),
+  /** The lifted part this reading measured on its own pins (red and black on its pins); null for a board reading. */
+  alone: z.string().nullable(),
   value: z.union([z.number(), z.literal('OL')]),
   unit: readingUnitSchema,
   beep: z.boolean().nullable(),

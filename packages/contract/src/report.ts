@@ -7,7 +7,7 @@ import { repairSchema } from './repairs';
 
 /** A reading as the report shows it: where the probes were, the meter function, what it read against the band. */
 export const reportReadingSchema = readingSchema
-  .pick({ id: true, red: true, black: true, mode: true, power: true, lifted: true, beep: true, value: true, unit: true, raw: true, verdict: true, takenAt: true })
+  .pick({ id: true, red: true, black: true, mode: true, power: true, lifted: true, alone: true, beep: true, value: true, unit: true, raw: true, verdict: true, takenAt: true })
   .extend({
     /** Where the probes were, in the bench's words ("TP5 Fan control supply to bus negative"). */
     probes: z.string(),

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { idSchema, optionalText } from './common';
+import { meterProfileIdSchema } from './meter-profiles';
 
 export const MIN_PASSWORD_LENGTH = 10;
 /** Length only; the server also refuses commonly used passwords (a list it ships). */
@@ -53,6 +54,8 @@ export const shopSchema = z.object({
   logoUploadId: z.string().nullable(),
   sessionIdleHours: z.number().int(),
   sessionMaxDays: z.number().int(),
+  /** The meter profile jobs use unless they name another; null = the engine's generic meter. */
+  meterProfile: meterProfileIdSchema.nullable(),
 });
 export type Shop = z.infer<typeof shopSchema>;
 
@@ -85,6 +88,7 @@ export const updateShopRequest = shopDetailsFields
     logoUploadId: idSchema.nullable().optional(),
     sessionIdleHours: z.number().int().min(1).max(24 * 7).optional(),
     sessionMaxDays: z.number().int().min(1).max(90).optional(),
+    meterProfile: meterProfileIdSchema.nullable().optional(),
   })
   .refine((o) => Object.keys(o).length > 0, 'nothing to change');
 export type UpdateShopRequest = z.infer<typeof updateShopRequest>;

@@ -110,3 +110,15 @@ describe('fault dictionary', () => {
     expect(Math.abs(second.nextTests[0]!.expectedEntropy - reference.nextTests[0]!.expectedEntropy)).toBeLessThan(1e-3);
   }, 60_000);
 });
+
+describe('a lifted part on its own pins with a dictionary attached', () => {
+  it('is simulated at once, not left as being checked: C2 alone at 1 Ω makes "C2 — shorted" the diagnosis', () => {
+    const d = board();
+    attachDictionary(d, buildDictionary(d));
+    // C2 (100 nF, v15 to 0) lifted and measured alone: no dictionary row holds this test.
+    const out = d.update([{ mode: 'ohm', red: 'v15', black: '0', power: 'off', lifted: ['C2'], alone: 'C2', value: 1 }]);
+    expect(out.candidates[0]!.faults).toEqual([{ part: 'C2', mode: 'short' }]);
+    expect(out.candidates[0]!.checking).toBeUndefined();
+    expect(takeWantedPairs(d).filter((w) => w.tests.some((t) => t.alone))).toEqual([]);
+  });
+});

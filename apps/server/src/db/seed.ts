@@ -8,6 +8,8 @@ import { INDOOR_FAN_BOARD, OUTDOOR_FAN_BOARD } from '@splitscope/boards';
 import { createBoardModel, createCustomer, createJob, createShop, createUser } from '../testing/factories';
 import { DEMO_BOARD_IDS } from '../testing/requests';
 import { seedReviewJob } from './seed-review';
+import { seedDemoLogo } from './demo-logo';
+import type { Storage } from '../storage/storage';
 
 export const DEMO_PASSWORD = 'splitscope-demo';
 
@@ -31,7 +33,7 @@ export const DEMO_CUSTOMERS = [
 ];
 
 /** Seeds the demo; returns how many users it created (0 on a second run). */
-export async function seedDemo(db: Db): Promise<{ created: number }> {
+export async function seedDemo(db: Db, storage: Storage): Promise<{ created: number }> {
   await createShop(db, DEMO_SHOP);
   await createShop(db, OTHER_SHOP);
   let created = 0;
@@ -44,6 +46,7 @@ export async function seedDemo(db: Db): Promise<{ created: number }> {
   for (const c of DEMO_CUSTOMERS) await createCustomer(db, c);
   await seedDemoBench(db);
   await seedReviewJob(db);
+  await seedDemoLogo(db, storage, DEMO_SHOP.id, 'user-admin');
   return { created };
 }
 

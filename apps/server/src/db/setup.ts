@@ -14,9 +14,10 @@ export async function migrateAndSeed(url: string, mode: 'demo' | 'shop' = 'demo'
   try {
     await runMigrations(db);
     // Stored board documents are brought to the current schema before the seed reads any (see boards/upgrade.ts).
-    await upgradeBoardDocuments({ db, storage: new DiskStorage(loadConfig({ ...process.env, DATABASE_URL: url }).UPLOAD_DIR) });
+    const storage = new DiskStorage(loadConfig({ ...process.env, DATABASE_URL: url }).UPLOAD_DIR);
+    await upgradeBoardDocuments({ db, storage });
     if (mode === 'shop') return { created: 0, seeded: false };
-    return { ...(await seedDemo(db)), seeded: true };
+    return { ...(await seedDemo(db, storage)), seeded: true };
   } finally {
     await pool.end();
   }

@@ -62,6 +62,8 @@ export function useReadingSender(jobId: string) {
         });
         if (r.rejected.length) setRejected((old) => [...old, ...r.rejected.map((x) => ({ raw: x.entry.body.raw, message: x.message }))]);
         if (r.sent.length) {
+          // Stored: no longer listed as unsent while the readings and the (slower) diagnosis are fetched again.
+          refresh();
           await Promise.all([
             qc.invalidateQueries({ queryKey: ['jobs', jobId, 'readings'] }),
             qc.invalidateQueries({ queryKey: ['jobs', jobId, 'diagnosis'] }),

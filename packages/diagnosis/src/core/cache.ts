@@ -30,9 +30,10 @@ export class PredictionCache<T, P> {
    * Fault sets the store does not hold (pairs; single faults on a test outside it) are answered with
    * `placeholder` (a prediction `predicted()` says no to, so the reading counts as neutral for that candidate)
    * and listed in `wanted` for a background run, instead of being simulated while the caller waits. The healthy
-   * board is always simulated. Absent: everything is simulated at once.
+   * board is always simulated. Absent: everything is simulated at once. `now` names tests cheap enough to
+   * simulate while the caller waits (a lifted part on its own pins is a handful of elements).
    */
-  defer?: { placeholder: P; wanted: Map<string, { faults: SubFault[]; tests: Map<string, T> }> };
+  defer?: { placeholder: P; wanted: Map<string, { faults: SubFault[]; tests: Map<string, T> }>; now?: (test: T) => boolean };
   constructor(private readonly model: SystemModel<T, unknown, P>) {}
 
   /** Store a prediction computed elsewhere (a background run). */
@@ -82,7 +83,7 @@ export class PredictionCache<T, P> {
         p = this.source(fk, k);
         if (p !== undefined) inner.set(k, p);
       }
-      if (p === undefined && this.defer && faults.length > 0) {
+      if (p === undefined && this.defer && faults.length > 0 && !this.defer.now?.(t)) {
         let w = this.defer.wanted.get(fk);
         if (!w) this.defer.wanted.set(fk, (w = { faults: faults.slice(), tests: new Map() }));
         w.tests.set(k, t);

@@ -102,6 +102,11 @@ export class Diagnoser {
     };
   }
 
+  /** The board's model read with a meter profile (the board's own by default): healthy predictions, bands. */
+  modelFor(meter?: MeterProfile): ElectricalModel {
+    return this.forMeter(meter).model;
+  }
+
   /** The model and prediction cache for a meter profile (the board's own by default). */
   private forMeter(meter?: MeterProfile): MeterModel {
     if (!meter) return { model: this.model, cache: this.cache };

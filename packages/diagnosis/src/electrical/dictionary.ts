@@ -130,7 +130,8 @@ export function attachDictionary(d: Diagnoser, dict: FaultDictionary, pairs: rea
     if (r === undefined || c === undefined) return undefined;
     return decodePrediction((dict.rows[r] as Float64Array)[c] as number, tk.slice(0, tk.indexOf('|')) as MeterMode, meter);
   };
-  d.cache.defer = { placeholder: PENDING, wanted: new Map() };
+  // A part alone is simulated at once: its circuit is the part's own elements, a fraction of a millisecond each.
+  d.cache.defer = { placeholder: PENDING, wanted: new Map(), now: (t) => t.alone !== undefined };
   inFlight.set(d, new Map());
   addPairs(d, pairs);
 }

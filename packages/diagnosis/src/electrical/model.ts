@@ -146,6 +146,8 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ObservedValu
   }
 
   predict(faults: readonly SubFault[], tests: readonly ElectricalTest[]): Prediction[] {
+    // the healthy board: its own cache, so that a test the next-test ranking already solved is not solved again
+    if (faults.length === 0) return tests.map((t) => this.healthyPrediction(t));
     const byState = new Map<string, Circuit>();
     return tests.map((t) => {
       const k = stateKey(t);

@@ -17,6 +17,8 @@ export const shops = pgTable('shops', {
   /** Session lifetime the shop sets: signed out after this long without a request, and after this long at most. */
   sessionIdleHours: integer('session_idle_hours').notNull().default(12),
   sessionMaxDays: integer('session_max_days').notNull().default(30),
+  /** The meter profile a job uses unless it names another (a shipped profile id); null = the engine's generic meter. */
+  meterProfile: text('meter_profile'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 

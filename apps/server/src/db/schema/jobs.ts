@@ -55,6 +55,8 @@ export const jobs = pgTable(
       .references(() => users.id),
     /** The intake request's key, so a repeated create answers the job it made. */
     idempotencyKey: text('idempotency_key'),
+    /** The meter profile the job's readings are taken with (a shipped profile id); null = the shop's default. */
+    meterProfile: text('meter_profile'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
   },
@@ -112,6 +114,8 @@ export const readings = pgTable(
     blackNet: text('black_net').notNull(),
     power: powerStateEnum('power').notNull(),
     lifted: text('lifted').array().notNull().default([]),
+    /** A lifted part measured on its own pins (its netlist name); null for a reading on the board. */
+    alone: text('alone'),
     /** SI units (V or ohm); null when the meter showed OL. */
     value: doublePrecision('value'),
     overLimit: boolean('over_limit').notNull().default(false),

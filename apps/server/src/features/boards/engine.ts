@@ -3,11 +3,11 @@
 // the healthy board. A version never changes, so everything here is cached per version id for the life of the
 // process.
 import { expectedReadings, type BandFn, type ExpectedReadingsInput, type ExpectedReadingsTestPoint } from '@splitscope/boards/readings';
-import { normNode, refusal } from '@splitscope/circuit';
-import { bandOf, CaseError, createDiagnoser, verdictOf, type CasePart, type Diagnoser, type ReadingValue, type TestPoint } from '@splitscope/diagnosis';
-import { boardModelSchema, unitOf, type BoardModel, type BoardPartKind, type ExpectedReadingRow, type MeterModeName, type PowerState, type ReadingVerdict } from '@splitscope/contract';
+import { meterProfileById, normNode, refusal, type MeterProfile } from '@splitscope/circuit';
+import { bandOf, CaseError, createDiagnoser, partAloneRefusal, verdictOf, type CasePart, type Diagnoser, type ReadingValue, type TestPoint } from '@splitscope/diagnosis';
+import { boardModelSchema, boardTestPointSchema, unitOf, type BoardModel, type BoardPartKind, type ExpectedReadingRow, type MeterModeName, type MeterProfileId, type PowerState, type ReadingVerdict } from '@splitscope/contract';
 import { AppError } from '../../http/errors';
-import { isOlderDocument, upgradeV1InMemory } from './document-form';
+import { isOlderDocument, photoOnlyForm, upgradeV1InMemory } from './document-form';
 import { LRUCache } from 'lru-cache';
 
 export interface BoardTestPoint extends TestPoint {
@@ -25,6 +25,8 @@ export interface BoardEngine {
   diagnoser: Diagnoser;
   /** The expected-readings table, computed on first use. */
   expected?: ExpectedReadingRow[];
+  /** Set when the stored document cannot be read: the schema's complaint and the test points readings go on. */
+  unreadable?: { problem: string; points: string[] };
 }
 
 /**
@@ -80,6 +82,32 @@ export function readBoardModel(doc: unknown): BoardModel {
   throw new AppError('invalid', `The board model does not match the board-model schema: ${path}: ${issue.message}`, { errors: [{ path, message: issue.message }] });
 }
 
+/**
+ * A stored version's document for showing and recording: the model, or, when the schema rejects it even after the
+ * in-memory upgrade, the board as a photo with the test points that still read (no sections, no parts: readings
+ * are recorded, not judged) and the schema's complaint, so a job on it still opens and a lead can correct it.
+ */
+export function readStoredBoardModel(doc: unknown, board: { key: string; name: string }): { model: BoardModel; problem: string | null } {
+  try {
+    return { model: readBoardModel(doc), problem: null };
+  } catch (err) {
+    if (!(err instanceof AppError)) throw err;
+    const form = photoOnlyForm(doc, board, (tp) => boardTestPointSchema.safeParse(tp).success);
+    return { model: boardModelSchema.parse(form), problem: err.message };
+  }
+}
+
+/**
+ * Schematics print values in the IEC 60062 letter code (2K2 = 2.2 kΩ, 4R7 = 4.7 Ω), which SPICE does not read:
+ * the solver refuses such a value rather than guess, and the refusal says what to type instead.
+ */
+function rkmHint(message: string): string {
+  const m = /"(\d+)([RKM])(\d+)"/i.exec(message);
+  if (!m) return '';
+  const scale = { r: '', k: 'k', m: 'meg' }[m[2]!.toLowerCase() as 'r' | 'k' | 'm'];
+  return ` (the letter in ${m[0]} stands for the decimal point, as printed on schematics; in a netlist write ${m[1]}.${m[3]}${scale})`;
+}
+
 /** Builds the engine view of a board model; a model the engines cannot use is a 422 naming why. */
 export function buildBoardEngine(versionId: string, model: BoardModel): BoardEngine {
   const { netlist, params } = model;
@@ -89,7 +117,10 @@ export function buildBoardEngine(versionId: string, model: BoardModel): BoardEng
     const diagnoser = createDiagnoser({ netlist, params, parts, testPoints: testPoints.map(({ net, label, ref }) => ({ net, label, ref })) });
     return { versionId, netlist, params, parts, testPoints, diagnoser };
   } catch (err) {
-    if (err instanceof CaseError) throw new AppError('invalid', `The board model cannot be used: ${err.message}`, { errors: [{ path: 'document', message: err.message }] });
+    if (err instanceof CaseError) {
+      const message = err.message + rkmHint(err.message);
+      throw new AppError('invalid', `The board model cannot be used: ${message}`, { errors: [{ path: 'document', message }] });
+    }
     throw err;
   }
 }
@@ -114,7 +145,14 @@ export function takeDroppedEngines(): string[] {
 export function boardEngine(versionId: string, doc: unknown, storedTable?: unknown): BoardEngine {
   const hit = cachedBoardEngine(versionId);
   if (hit) return hit;
-  const built = buildBoardEngine(versionId, readBoardModel(doc));
+  const stored = readStoredBoardModel(doc, { key: versionId, name: 'board' });
+  if (stored.problem) {
+    // No sections or parts: nothing is judged. Its points are the test points that still read. Not cached, so
+    // the corrected form a lead stores for this version is what the next call builds.
+    const { testPoints, ...rest } = stored.model;
+    return { ...buildBoardEngine(versionId, { ...rest, testPoints: [] }), unreadable: { problem: stored.problem, points: testPoints.map((t) => t.id) } };
+  }
+  const built = buildBoardEngine(versionId, stored.model);
   if (Array.isArray(storedTable) && storedTable.length > 0) built.expected = storedTable as ExpectedReadingRow[];
   cache.set(versionId, built);
   return built;
@@ -156,6 +194,18 @@ export function resolveParts(engine: BoardEngine, names: readonly string[]): { p
   return { parts: parts.sort() };
 }
 
+/**
+ * The part a reading measures on its own pins, as the netlist names it, or why it cannot be: the engine's check
+ * (lifted, unpowered, the probes on two of its pins).
+ */
+export function resolveAlone(engine: BoardEngine, name: string, probe: ProbeState): { part: string } | { refused: string } {
+  const found = resolveParts(engine, [name]);
+  if ('unknown' in found) return { refused: `Unknown part "${name}" on this board model` };
+  const part = engine.diagnoser.model.partsByName.get(found.parts[0]!)!;
+  const why = partAloneRefusal(probe, part.name, part.nets);
+  return why ? { refused: why } : { part: part.name };
+}
+
 /** Why a reading cannot be taken in that power state (the circuit engine's own wording), if it cannot. */
 export const powerRefusal = (mode: MeterModeName, power: PowerState) => refusal(mode, power);
 
@@ -165,23 +215,35 @@ export interface ProbeState {
   black: string;
   power: PowerState;
   lifted: string[];
+  /** A lifted part measured on its own pins (its netlist name): the engine's part-alone prediction, no table row. */
+  alone?: string;
 }
 
 const round = (x: number) => (x === 0 || !Number.isFinite(x) ? x : Number(x.toPrecision(4)));
 
+/** The shipped meter profile of an id; undefined (the board's generic meter) for none. */
+export const meterOf = (id: MeterProfileId | null | undefined): MeterProfile | undefined => (id ? meterProfileById(id) : undefined);
+
+/** The diagnoser's update options for a job's meter profile. */
+export const meterOptions = (id: MeterProfileId | null | undefined): { meter?: MeterProfile } => {
+  const meter = meterOf(id);
+  return meter ? { meter } : {};
+};
+
 /**
- * The healthy board's band for a probe and how a value compares, from the diagnosis engine's noise model.
- * Null when the engine cannot predict this probe.
+ * The healthy board's band for a probe and how a value compares, from the diagnosis engine's noise model, with
+ * the meter the reading was taken with (a sourced band of the table stands whatever the meter). Null when the
+ * engine cannot predict this probe.
  */
-export function verdictFor(engine: BoardEngine, probe: ProbeState, value: ReadingValue | null): ReadingVerdict | null {
-  const row = tableRow(engine, probe);
+export function verdictFor(engine: BoardEngine, probe: ProbeState, value: ReadingValue | null, meter?: MeterProfile): ReadingVerdict | null {
+  const row = probe.alone ? undefined : tableRow(engine, probe);
   if (row?.source && row.low !== null && row.high !== null) {
     // A sourced band (a datasheet's output tolerance, the mains range) is the healthy range the table shows.
     const band = { expected: row.expected, low: row.low, high: row.high };
     return { expected: row.expected, low: row.low, high: row.high, unit: row.unit, verdict: value === null ? 'ok' : verdictOf(probe.mode, value, band) };
   }
-  const model = engine.diagnoser.model;
-  const test = { mode: probe.mode, red: probe.red, black: probe.black, power: probe.power, lifted: probe.lifted };
+  const model = engine.diagnoser.modelFor(meter);
+  const test = { mode: probe.mode, red: probe.red, black: probe.black, power: probe.power, lifted: probe.lifted, ...(probe.alone ? { alone: probe.alone } : {}) };
   const healthy = model.healthyPrediction(test);
   if (healthy.value === 'unknown') return null;
   const band = bandOf(probe.mode, healthy, model.meter);
@@ -212,7 +274,16 @@ function diagnoserBand(engine: BoardEngine): BandFn {
 export function expectedTable(engine: BoardEngine): ExpectedReadingRow[] {
   if (engine.expected) return engine.expected;
   const input: ExpectedReadingsInput = { netlist: engine.netlist, testPoints: engine.testPoints.map((t) => t.table), ...(engine.params ? { params: engine.params } : {}) };
-  const rows = expectedReadings(input, { meter: engine.diagnoser.model.meter, band: diagnoserBand(engine) });
+  let rows: ReturnType<typeof expectedReadings>;
+  try {
+    rows = expectedReadings(input, { meter: engine.diagnoser.model.meter, band: diagnoserBand(engine) });
+  } catch (err) {
+    // A netlist that reads but does not solve in one of the states the table reads (a deck written elsewhere can
+    // do that) is the author's to fix: said in words, not a server error.
+    if (!(err instanceof Error) || err.name !== 'SolveError') throw err;
+    const message = `the netlist does not solve in every state the expected readings need (${err.message}); check the deck's models and values`;
+    throw new AppError('invalid', `The board model cannot be used: ${message}`, { errors: [{ path: 'document.netlist', message }] });
+  }
   engine.expected = rows.map((r) => ({
     id: r.id, label: r.label, mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted,
     expected: r.expected, low: r.low, high: r.high, unit: r.unit, ...(r.source ? { source: r.source } : {}), ...(r.note ? { note: r.note } : {}),

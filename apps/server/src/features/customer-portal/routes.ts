@@ -4,7 +4,7 @@ import { checkoutResponse, declineQuoteRequest, publicJobSchema } from '@splitsc
 import { z } from 'zod';
 import type { AppContext } from '../../context';
 import { AppError, parse } from '../../http/errors';
-import { decideQuote, getPublicJob, getPublicReport, startPublicCheckout } from './service';
+import { decideQuote, getPublicJob, getPublicLogo, getPublicReport, startPublicCheckout } from './service';
 
 const tokenParams = z.object({ token: z.string().max(200) });
 const docParams = tokenParams.extend({ id: z.string().trim().min(1).max(100) });
@@ -45,9 +45,14 @@ export function customerPortalRoutes(ctx: AppContext): Router {
   });
   r.get('/public/links/:token/report.pdf', async (req, res) => {
     const { token } = parse(tokenParams, req.params);
-    const { filename, pdf } = await getPublicReport({ db: ctx.db, token });
+    const { filename, pdf } = await getPublicReport({ db: ctx.db, storage: ctx.storage, token });
     res.type('application/pdf').setHeader('Content-Disposition', `inline; filename="${filename}"`);
     res.send(pdf);
+  });
+  r.get('/public/links/:token/logo', async (req, res) => {
+    const { token } = parse(tokenParams, req.params);
+    const { contentType, bytes } = await getPublicLogo({ db: ctx.db, storage: ctx.storage, token });
+    res.type(contentType).send(bytes);
   });
   r.post('/public/links/:token/invoices/:id/checkout', async (req, res) => {
     const { token, id } = parse(docParams, req.params);

@@ -10,7 +10,9 @@ import { newId } from '../../lib/ids';
 import { findJobInvoices, findJobQuotes, getBillingJob, getSettingsRow, jobSummary, resolveCustomerLink } from '../billing';
 import { startCheckout } from '../invoices';
 import { moveJob } from '../jobs';
-import { getRepairReport, renderReportPdf } from '../reports';
+import { reportPdf } from '../reports';
+import { shopLogo } from '../shops';
+import type { Storage } from '../../storage/storage';
 import { quoteDecisionMail, sendMail } from '../mail';
 
 export async function getPublicJob({ db, token }: { db: Db; token: string }): Promise<PublicJob> {
@@ -124,11 +126,19 @@ export async function decideQuote({
   return getPublicJob({ db, token });
 }
 
-export async function getPublicReport({ db, token }: { db: Db; token: string }) {
+export async function getPublicReport({ db, storage, token }: { db: Db; storage: Storage; token: string }) {
   const link = await resolveCustomerLink(db, token);
   const job = await getBillingJob(db, link.shopId, link.jobId);
   if (!reportReady(job.status)) throw new AppError('not_found', 'The repair report is not ready yet');
-  return { filename: `repair-report-job-${job.number}.pdf`, pdf: await renderReportPdf(await getRepairReport({ db, shopId: link.shopId, jobId: job.id })) };
+  return { filename: `repair-report-job-${job.number}.pdf`, pdf: await reportPdf({ db, storage, shopId: link.shopId, jobId: job.id }) };
+}
+
+/** The logo of the link's shop, for the customer page's header. */
+export async function getPublicLogo({ db, storage, token }: { db: Db; storage: Storage; token: string }) {
+  const link = await resolveCustomerLink(db, token);
+  const logo = await shopLogo({ db, storage, shopId: link.shopId });
+  if (!logo) throw new AppError('not_found', 'This shop has no logo');
+  return logo;
 }
 
 export async function startPublicCheckout({ db, config, token, invoiceId }: { db: Db; config: Config; token: string; invoiceId: string }) {

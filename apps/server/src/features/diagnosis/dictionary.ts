@@ -4,10 +4,10 @@
 // died is taken over when it has not moved for two minutes). Until it is ready, diagnoses run as before and the
 // bench shows the build's progress.
 import { Worker } from 'node:worker_threads';
-import { and, eq, lt, or, sql } from 'drizzle-orm';
+import { and, eq, isNull, lt, or, sql } from 'drizzle-orm';
 import { DICTIONARY_FORMAT, fromBytes, toBytes, type ElectricalTest, type FaultDictionary, type PairColumn } from '@splitscope/diagnosis';
 import type { Db } from '../../db/client';
-import { boardModelVersions, faultDictionaries, faultDictionaryPairs, faultDictionaryRows } from '../../db/schema';
+import { boardModels, boardModelVersions, faultDictionaries, faultDictionaryPairs, faultDictionaryRows, jobs } from '../../db/schema';
 import { ENGINE_VERSION } from './engine-version';
 
 /** The engine that computed a dictionary: a newer engine (or layout) builds its own. */
@@ -120,7 +120,7 @@ export function enableDictionaryBuilds(on: boolean): void {
   enabled = on;
 }
 
-/** Queues the version's build when no process has it yet (called on publish and at start for every version). */
+/** Queues the version's build when no process has it yet (called on publish, at start for open jobs' versions, and by the command). */
 export async function ensureDictionary(db: Db, versionId: string, { force = false } = {}): Promise<void> {
   if (!enabled && !force) return;
   if (ready.has(versionId) || !(await claim(db, versionId))) return;
@@ -129,14 +129,36 @@ export async function ensureDictionary(db: Db, versionId: string, { force = fals
   running ??= drain().finally(() => (running = undefined));
 }
 
-/** Every stored version without a dictionary of this engine: the demo boards after seeding, versions of an older engine. */
-export async function ensureAllDictionaries(db: Db): Promise<void> {
+const lacksDictionary = sql`not exists (select 1 from ${faultDictionaries} d where d.version_id = ${boardModelVersions.id} and d.engine_version = ${DICTIONARY_ENGINE} and d.state = 'ready')`;
+
+/**
+ * At start: the versions that open jobs (not closed) are diagnosed on and that lack a dictionary of this engine,
+ * the only ones a technician may wait on soon (docs/decisions/0007). Every other version gets its dictionary on
+ * publish, or from `pnpm dictionary:build`.
+ */
+export async function ensureOpenJobDictionaries(db: Db): Promise<number> {
   const missing = await db
-    .select({ id: boardModelVersions.id })
+    .selectDistinct({ id: boardModelVersions.id })
     .from(boardModelVersions)
-    .where(sql`not exists (select 1 from ${faultDictionaries} d where d.version_id = ${boardModelVersions.id} and d.engine_version = ${DICTIONARY_ENGINE} and d.state = 'ready')`);
+    .innerJoin(jobs, eq(jobs.boardVersionId, boardModelVersions.id))
+    .where(and(isNull(jobs.closedAt), lacksDictionary));
   for (const m of missing) await ensureDictionary(db, m.id);
+  return missing.length;
 }
+
+/** Versions without a dictionary of this engine, all or those of boards whose id, key or name is `board`. */
+export async function versionsLackingDictionary(db: Db, board?: string): Promise<{ id: string; board: string; version: number }[]> {
+  const named = board ? or(eq(boardModels.id, board), eq(boardModels.key, board), eq(boardModels.name, board)) : undefined;
+  return db
+    .select({ id: boardModelVersions.id, board: boardModels.name, version: boardModelVersions.version })
+    .from(boardModelVersions)
+    .innerJoin(boardModels, eq(boardModels.id, boardModelVersions.boardId))
+    .where(named ? and(lacksDictionary, named) : lacksDictionary)
+    .orderBy(boardModels.name, boardModelVersions.version);
+}
+
+/** Resolves when this process's build queue is empty (the command waits on it). */
+export const dictionaryBuildsIdle = (): Promise<void> => running ?? Promise.resolve();
 
 async function drain(): Promise<void> {
   const worker = new Worker(BUILDER, { name: 'splitscope-dictionary' });

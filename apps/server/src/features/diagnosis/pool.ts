@@ -3,6 +3,7 @@
 // makes a later update fast), so calls go to the thread that has the board, a board document crosses to a
 // thread once, and a thread that dies takes only its own pending calls with it.
 import { Worker } from 'node:worker_threads';
+import type { MeterProfileId } from '@splitscope/contract';
 import type { CaseReading, DiagnosisOutput, PairColumn, UpdateOptions } from '@splitscope/diagnosis';
 import { AppError } from '../../http/errors';
 import type { StoredDictionary } from './dictionary';
@@ -12,6 +13,7 @@ const ENTRY = new URL('./worker-entry.mjs', import.meta.url);
 
 interface Call {
   versionId: string;
+  meter: MeterProfileId | null;
   readings: CaseReading[];
   options?: Pick<UpdateOptions, 'priors' | 'history' | 'references'>;
   loadDocument: () => Promise<unknown>;
@@ -58,8 +60,9 @@ export class DiagnosisPool {
     loadDocument: () => Promise<unknown>,
     dictionary: Pick<Call, 'loadDictionary' | 'onPairs'> = {},
     options?: Pick<UpdateOptions, 'priors' | 'history' | 'references'>,
+    meter: MeterProfileId | null = null,
   ): Promise<DiagnosisOutput> {
-    return new Promise((resolve, reject) => void this.dispatch({ versionId, readings, loadDocument, ...dictionary, resolve, reject, ...(options ? { options } : {}) }, false));
+    return new Promise((resolve, reject) => void this.dispatch({ versionId, readings, meter, loadDocument, ...dictionary, resolve, reject, ...(options ? { options } : {}) }, false));
   }
 
   /**
@@ -94,7 +97,7 @@ export class DiagnosisPool {
       thread.pending.set(id, call);
       // Referenced only while it owes an answer, so an idle thread never keeps the process alive.
       thread.worker.ref();
-      const message: WorkerRequest = { id, versionId: call.versionId, readings: call.readings, ...(call.options ? { options: call.options } : {}), ...(withDocument ? { document } : {}), ...(dictionary ? { dictionary } : {}) };
+      const message: WorkerRequest = { id, versionId: call.versionId, readings: call.readings, meter: call.meter, ...(call.options ? { options: call.options } : {}), ...(withDocument ? { document } : {}), ...(dictionary ? { dictionary } : {}) };
       thread.worker.postMessage(message);
     } catch (err) {
       call.reject(err);

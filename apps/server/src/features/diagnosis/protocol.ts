@@ -1,6 +1,7 @@
 // What the server and its diagnosis threads say to each other. Everything crosses by structured clone, so
 // errors travel as plain data and are rebuilt on the server's side.
 import type { CaseReading, DiagnosisOutput, PairColumn, UpdateOptions } from '@splitscope/diagnosis';
+import type { MeterProfileId } from '@splitscope/contract';
 import type { StoredDictionary } from './dictionary';
 import type { AppError } from '../../http/errors';
 
@@ -8,6 +9,8 @@ export interface WorkerRequest {
   id: number;
   versionId: string;
   readings: CaseReading[];
+  /** The meter profile the readings were taken with (a shipped profile id); null = the board's generic meter. */
+  meter: MeterProfileId | null;
   /** The job's prior adjustments and failure history (structured-clone safe). */
   options?: Pick<UpdateOptions, 'priors' | 'history' | 'references'>;
   /** The board model document, sent only when this thread has not been given the version yet. */

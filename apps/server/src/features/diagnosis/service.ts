@@ -1,22 +1,22 @@
 import { createHash } from 'node:crypto';
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
-import { BOUNDS, readableDiagnosis, unitOf, type Diagnosis, type DiagnosisSnapshot, type PriorSource } from '@splitscope/contract';
+import { BOUNDS, readableDiagnosis, readMeterProfileId, unitOf, type Diagnosis, type DiagnosisSnapshot, type MeterProfileId, type PriorSource } from '@splitscope/contract';
 import type { Db } from '../../db/client';
-import { boardModelVersions, diagnosisSnapshots, jobs, readingStrikes, readings } from '../../db/schema';
+import { boardModelVersions, diagnosisSnapshots, jobs, readingStrikes, readings, shops } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { diagnosisFor } from './cache';
 import { dictionaryStamp, dictionaryState, loadDictionary, savePairs } from './dictionary';
 import { ENGINE_VERSION } from './engine-version';
 import { diagnosisPool } from './pool';
-import { jobPriors } from './priors';
+import { cachedJobPriors } from './priors-cache';
 import { wordDiagnosis } from './words';
 
 
 /** The same digest PostgreSQL's md5() gives, so a key computed here matches the one the database computes. */
 const md5 = (text: string) => createHash('md5').update(text).digest('hex');
-const keyOf = (versionId: string, n: number, digest: string | null, priorsKey: string) => `${versionId}|${n}|${digest ?? ''}|${priorsKey}`;
+const keyOf = (versionId: string, meter: MeterProfileId | null, n: number, digest: string | null, priorsKey: string) => `${versionId}|${meter ?? ''}|${n}|${digest ?? ''}|${priorsKey}`;
 
 type ReadingRow = typeof readings.$inferSelect;
 type JobRef = Pick<typeof jobs.$inferSelect, 'id' | 'boardVersionId'> & Partial<Pick<typeof jobs.$inferSelect, 'shopId' | 'boardId' | 'faultCode'>>;
@@ -52,6 +52,13 @@ function prepare(db: Db) {
       .where(isCurrent(db))
       .prepare('diagnosis_readings_key'),
     rows: db.select().from(readings).where(isCurrent(db)).orderBy(...byTime).prepare('diagnosis_readings'),
+    // The meter the job's readings are read with: the job's own profile, else its shop's default.
+    meter: db
+      .select({ profile: sql<string | null>`coalesce(${jobs.meterProfile}, ${shops.meterProfile})` })
+      .from(jobs)
+      .innerJoin(shops, eq(shops.id, jobs.shopId))
+      .where(eq(jobs.id, jobId))
+      .prepare('diagnosis_job_meter'),
     document: db.select({ document: boardModelVersions.document }).from(boardModelVersions).where(eq(boardModelVersions.id, sql.placeholder('versionId'))).prepare('diagnosis_board_document'),
   };
 }
@@ -95,12 +102,13 @@ export async function getDiagnosis({ db, shopId, jobId: id }: { db: Db; shopId: 
 export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Promise<Diagnosis> {
   const q = queries(db);
   const versionId = job.boardVersionId;
-  const facts = await jobFacts(db, job);
-  const before = await jobPriors(db, facts, () => documentOf(db, versionId));
-  const [[k], dictionary] = await Promise.all([q.key.execute({ jobId: job.id }), dictionaryState(db, versionId)]);
+  const [facts, [k], [m], dictionary] = await Promise.all([jobFacts(db, job), q.key.execute({ jobId: job.id }), q.meter.execute({ jobId: job.id }), dictionaryState(db, versionId)]);
+  const meter = readMeterProfileId(m?.profile);
+  // The priors are kept with the readings key (priors-cache.ts): a poll or the read after a reading queries nothing.
+  const before = await cachedJobPriors(db, facts, `${k?.n ?? 0}|${k?.digest ?? ''}`, () => documentOf(db, versionId));
   // A diagnosis made before the board's dictionary (or a batch of fault pairs) was ready is made again.
   const stamp = dictionaryStamp(versionId);
-  const out = await diagnosisFor(job.id, `${keyOf(versionId, k?.n ?? 0, k?.digest ?? null, before.key)}|${stamp}`, async () => {
+  const out = await diagnosisFor(job.id, `${keyOf(versionId, meter, k?.n ?? 0, k?.digest ?? null, before.key)}|${stamp}`, async () => {
     const rows = await currentReadings(db, job.id);
     // A worker thread runs the engine (seconds on a first run), so the server answers other requests meanwhile.
     const options = { priors: before.priors, ...(before.history ? { history: before.history } : {}), ...(before.references ? { references: before.references } : {}) };
@@ -113,9 +121,10 @@ export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Pr
         onPairs: (columns) => void savePairs(db, versionId, columns).catch((err: unknown) => console.error('storing fault pairs failed', err)),
       },
       options,
+      meter,
     );
     // Kept under the key of the rows it ran on: a reading stored since the key query makes that key differ.
-    return { key: `${keyOf(versionId, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null, before.key)}|${stamp}`, output: shapeDiagnosis(wordDiagnosis(out), job, rows) };
+    return { key: `${keyOf(versionId, meter, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null, before.key)}|${stamp}`, output: shapeDiagnosis(wordDiagnosis(out), job, rows) };
   });
   // The build's progress changes while the answer does not: it is added per request, outside the kept answer.
   return dictionary.state === 'building' ? { ...out, preparing: { partsDone: dictionary.partsDone, partsTotal: dictionary.partsTotal } } : out;
@@ -125,7 +134,7 @@ export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Pr
 export const currentReadings = (db: Db, id: string): Promise<ReadingRow[]> => queries(db).rows.execute({ jobId: id });
 
 export const toCaseReadings = (rows: ReadingRow[]): CaseReading[] =>
-  rows.map((r) => ({ mode: r.mode, red: r.redNet, black: r.blackNet, power: r.power, lifted: r.lifted, value: caseValue(r) }));
+  rows.map((r) => ({ mode: r.mode, red: r.redNet, black: r.blackNet, power: r.power, lifted: r.lifted, ...(r.alone ? { alone: r.alone } : {}), value: caseValue(r) }));
 
 /** The engine's output as the API tells it: each reading report joined back to its stored row. */
 export function shapeDiagnosis(out: DiagnosisOutput, job: JobRef, rows: ReadingRow[]): Diagnosis {
@@ -152,6 +161,7 @@ export function shapeDiagnosis(out: DiagnosisOutput, job: JobRef, rows: ReadingR
         black: r.black,
         power: r.power,
         lifted: r.lifted,
+        alone: r.alone,
         value: r.overLimit ? 'OL' : r.value!,
         unit: unitOf(r.mode),
         expected: rep.expected,

@@ -7,7 +7,7 @@ import { addPairs, attachDictionary, CaseError, computePairs, takeWantedPairs, t
 import { AppError } from '../../http/errors';
 // The worker thread loads the board engine alone, not the boards feature's database service behind its index.
 // eslint-disable-next-line import-x/no-restricted-paths
-import { boardEngine, cachedBoardEngine, takeDroppedEngines } from '../boards/engine';
+import { boardEngine, cachedBoardEngine, meterOptions, takeDroppedEngines } from '../boards/engine';
 import type { PairsMessage, WorkerFailure, WorkerReply, WorkerRequest } from './protocol';
 
 function failure(err: unknown): WorkerFailure {
@@ -19,7 +19,7 @@ function failure(err: unknown): WorkerFailure {
 
 const withDictionary = new WeakSet<Diagnoser>();
 
-function answer({ id, versionId, readings, document, dictionary, options }: WorkerRequest): WorkerReply {
+function answer({ id, versionId, readings, meter, document, dictionary, options }: WorkerRequest): WorkerReply {
   try {
     const engine = document === undefined ? cachedBoardEngine(versionId) : boardEngine(versionId, document);
     // The server sends a document only for a version it has not sent before; one dropped from the bound since
@@ -30,8 +30,9 @@ function answer({ id, versionId, readings, document, dictionary, options }: Work
       withDictionary.add(engine.diagnoser);
     }
     // A board that is its photo only has no model: its readings are recorded, not judged, so none is evidence.
+    // The dictionary holds the board's own meter; another profile's predictions are solved as asked (ADR 0005).
     const photoOnly = engine.testPoints.length === 0 && Object.keys(engine.parts).length === 0;
-    const output = engine.diagnoser.update(photoOnly ? [] : readings, options);
+    const output = engine.diagnoser.update(photoOnly ? [] : readings, { ...options, ...meterOptions(meter) });
     schedulePairs(versionId, engine.diagnoser);
     return { id, dropped: takeDroppedEngines(), ok: true, output };
   } catch (err) {

@@ -13,7 +13,7 @@ export function invoiceRoutes(ctx: AppContext): Router {
   r.post('/jobs/:jobId/invoices', requireRole(...ROLES.bench), async (req, res) => {
     const { jobId } = parse(jobParams, req.params);
     const input = parse(createInvoiceRequest, req.body);
-    res.status(201).json(invoiceSchema.parse(await createInvoice({ db: ctx.db, config: ctx.config, actor: actorOf(req), jobId, input })));
+    res.status(201).json(invoiceSchema.parse(await createInvoice({ db: ctx.db, config: ctx.config, storage: ctx.storage, actor: actorOf(req), jobId, input })));
   });
   r.get('/invoices/:id', requireRole(...ROLES.everyone), async (req, res) => {
     const { id } = parse(idParams, req.params);
@@ -22,7 +22,7 @@ export function invoiceRoutes(ctx: AppContext): Router {
   r.post('/invoices/:id/send', requireRole(...ROLES.bench), async (req, res) => {
     const { id } = parse(idParams, req.params);
     const { to } = parse(sendRequest, req.body);
-    res.json(sentResponse.parse(await sendInvoice({ db: ctx.db, config: ctx.config, actor: actorOf(req), id, to })));
+    res.json(sentResponse.parse(await sendInvoice({ db: ctx.db, config: ctx.config, storage: ctx.storage, actor: actorOf(req), id, to })));
   });
   return r;
 }

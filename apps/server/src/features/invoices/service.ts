@@ -8,8 +8,9 @@ import type { Db } from '../../db/client';
 import { invoiceLines, invoices, paymentEvents, payments, quoteLines, quotes } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
+import type { Storage } from '../../storage/storage';
 import { auditBilling, createCustomerLink, getBillingJob, getSettingsRow, jobSummary, linesFromInput, linesFromRows, mailDocument, openDocument, paymentsFor, publicBase, toInvoice } from '../billing';
-import { getRepairReport, renderReportPdf } from '../reports';
+import { reportPdf } from '../reports';
 import { invoiceMail, paidMail, sendMail } from '../mail';
 
 async function loadInvoice(db: Db, shopId: string, id: string) {
@@ -28,12 +29,14 @@ export async function getInvoice({ db, shopId, id }: { db: Db; shopId: string; i
 export async function createInvoice({
   db,
   config,
+  storage,
   actor,
   jobId,
   input,
 }: {
   db: Db;
   config: Config;
+  storage: Storage;
   actor: Actor;
   jobId: string;
   input: z.output<typeof createInvoiceRequest>;
@@ -85,12 +88,12 @@ export async function createInvoice({
     await tx.insert(invoiceLines).values(doc.lines.map((l) => ({ ...l, invoiceId: id })));
     await auditBilling(tx, actor.shopId, actor, 'invoice.issue', id, doc.number);
   });
-  if (input.send) await sendInvoice({ db, config, actor, id });
+  if (input.send) await sendInvoice({ db, config, storage, actor, id });
   return getInvoice({ db, shopId: actor.shopId, id });
 }
 
 /** E-mails the invoice with a fresh customer link and the repair report attached as a PDF. */
-export async function sendInvoice({ db, config, actor, id, to }: { db: Db; config: Config; actor: Actor; id: string; to?: string }) {
+export async function sendInvoice({ db, config, storage, actor, id, to }: { db: Db; config: Config; storage: Storage; actor: Actor; id: string; to?: string }) {
   const { inv, lines } = await loadInvoice(db, actor.shopId, id);
   if (inv.status === 'void') throw new AppError('conflict', `Invoice ${inv.number} is void`);
   const sent = await mailDocument({
@@ -102,7 +105,7 @@ export async function sendInvoice({ db, config, actor, id, to }: { db: Db; confi
     to,
     render: async (job, link) => ({
       ...invoiceMail(jobSummary(job), toInvoice(inv, lines), link, true),
-      attachments: [{ filename: `repair-report-job-${job.number}.pdf`, content: await renderReportPdf(await getRepairReport({ db, shopId: job.shopId, jobId: job.id })), contentType: 'application/pdf' }],
+      attachments: [{ filename: `repair-report-job-${job.number}.pdf`, content: await reportPdf({ db, storage, shopId: job.shopId, jobId: job.id }), contentType: 'application/pdf' }],
     }),
   });
   await db.update(invoices).set({ sentAt: sent.sentAt }).where(eq(invoices.id, id));

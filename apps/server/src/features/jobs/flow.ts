@@ -8,6 +8,7 @@ import type { Db } from '../../db/client';
 import { auditLog, jobs } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
+import { priorsChanged } from '../../lib/priors-generation';
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
@@ -65,6 +66,8 @@ export async function moveJob(db: Db | Tx, req: MoveRequest): Promise<boolean> {
     .where(and(eq(jobs.id, req.jobId), eq(jobs.shopId, req.shopId), eq(jobs.status, req.from)))
     .returning({ id: jobs.id });
   if (moved.length === 0) return false;
+  // a verified or returned job joins the shop's repair history, which steers other jobs' priors
+  if (req.to === 'verified' || req.to === 'returned') priorsChanged();
   const audit = req.audit ?? ('event' in req.by ? { action: 'job.status', detail: `${req.from} → ${req.to} (${req.by.event})` } : undefined);
   if (audit) {
     const userId = 'actor' in req.by ? req.by.actor.id : null;

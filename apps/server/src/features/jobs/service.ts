@@ -8,6 +8,7 @@ import {
   guidedLiftRoles,
   guidedOrderBinds,
   METER_WORDS,
+  readMeterProfileId,
   unprovenRows,
   verificationChecklist,
   verificationReadings,
@@ -72,6 +73,7 @@ const toJob = ({ j, customerName, assigneeName, boardName, boardVersion }: JobQu
   closedAt: isoOrNull(j.closedAt),
   returnedVia: j.returnedVia === 'courier' || j.returnedVia === 'collected' ? j.returnedVia : null,
   guidedLifted: j.guidedLiftedBy !== null,
+  meterProfile: readMeterProfileId(j.meterProfile),
   createdBy: j.createdBy,
   createdAt: iso(j.createdAt),
   updatedAt: iso(j.updatedAt),
@@ -193,6 +195,7 @@ async function insertJob({ db, actor, input }: { db: Db; actor: Pick<Actor, 'id'
       dueAt: input.dueAt ? new Date(input.dueAt) : null,
       createdBy: actor.id,
       idempotencyKey: input.idempotencyKey ?? null,
+      meterProfile: input.meterProfile ?? null,
     });
   });
   return getJob({ db, shopId: actor.shopId, id });
@@ -247,6 +250,7 @@ export async function updateJob({ db, actor, id, input }: { db: Db; actor: Actor
   if (fields.dueAt !== undefined) set.dueAt = fields.dueAt ? new Date(fields.dueAt) : null;
   if (fields.proposedPart !== undefined) set.proposedPart = fields.proposedPart;
   if (fields.proposalNote !== undefined) set.proposalNote = fields.proposalNote;
+  if (fields.meterProfile !== undefined) set.meterProfile = fields.meterProfile;
   if (fields.guidedLifted !== undefined) {
     assertRole(actor, guidedLiftRoles, 'Lifting guided order');
     set.guidedLiftedBy = fields.guidedLifted ? actor.id : null;

@@ -2,14 +2,14 @@ import { createHash } from 'node:crypto';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { LRUCache } from 'lru-cache';
-import { acceptsReadings, correctionRefusal, guidedOrderBinds, readingRefusal, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading, unitOf } from '@splitscope/contract';
+import { acceptsReadings, correctionRefusal, guidedOrderBinds, readingRefusal, readMeterProfileId, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading, unitOf } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
-import { boardModelVersions, jobs, readingStrikes, readings, users } from '../../db/schema';
+import { boardModelVersions, jobs, readingStrikes, readings, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { boardEngine, cachedBoardEngine, powerRefusal, resolveNet, resolveParts, verdictFor } from '../boards';
+import { boardEngine, cachedBoardEngine, meterOf, powerRefusal, resolveAlone, resolveNet, resolveParts, verdictFor } from '../boards';
 import { capturedPointIds } from '../capture';
 import { getDutyRules } from '../duties';
 import { getJobRow } from '../../db/job-row';
@@ -33,6 +33,7 @@ function toReading(r: Row, authorName: string, supersededBy: string | null, stru
     blackNet: r.blackNet,
     power: r.power,
     lifted: r.lifted,
+    alone: r.alone,
     value: r.overLimit ? 'OL' : r.value!,
     unit: r.unit as 'V' | 'ohm',
     beep: r.beep,
@@ -126,6 +127,14 @@ function prepare(db: Db) {
       .leftJoin(later, eq(later.supersedes, stored.id))
       .where(and(eq(jobs.id, p('jobId')), eq(jobs.shopId, p('shopId'))))
       .prepare('reading_job_and_replay'),
+    // The meter the job's readings are read with (the job's profile, else the shop's): it can change on the bench,
+    // so it is read with every write rather than kept.
+    meter: db
+      .select({ profile: sql<string | null>`coalesce(${jobs.meterProfile}, ${shops.meterProfile})` })
+      .from(jobs)
+      .innerJoin(shops, eq(shops.id, jobs.shopId))
+      .where(and(eq(jobs.id, p('jobId')), eq(jobs.shopId, p('shopId'))))
+      .prepare('reading_job_meter'),
     version: db
       .select({ document: boardModelVersions.document, expectedReadings: boardModelVersions.expectedReadings })
       .from(boardModelVersions)
@@ -197,6 +206,10 @@ async function jobAndReplay(db: Db, actor: Actor, jobId: string, input: CreateRe
  */
 export async function createReading({ db, actor, jobId, input }: { db: Db; actor: Actor; jobId: string; input: CreateReadingInput }): Promise<CreateReadingResponse> {
   const q = queries(db);
+  // Started now, read when the verdict is computed: it overlaps the checks below.
+  const meterRow = q.meter.execute({ jobId, shopId: actor.shopId });
+  // A check below may throw first; the query's own failure is then not the one to report.
+  meterRow.catch(() => undefined);
   let versionId: string;
   let job: JobState | undefined;
   if (actor.role === 'trainee' || input.supersedes) {
@@ -227,7 +240,12 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
     engine = boardEngine(versionId, v.document, v.expectedReadings);
   }
   // A board that is its photo only takes readings on the points marked on its photo: recorded, not judged.
-  const photoPoints = engine.testPoints.length === 0 && Object.keys(engine.parts).length === 0 ? await capturedPointIds(db, versionId) : null;
+  // So does a board whose stored model the schema rejects, on the test points of it that still read.
+  const photoPoints = engine.unreadable
+    ? new Set(engine.unreadable.points)
+    : engine.testPoints.length === 0 && Object.keys(engine.parts).length === 0
+      ? await capturedPointIds(db, versionId)
+      : null;
   const onPhoto = (name: string) => (photoPoints?.has(name.trim().toUpperCase()) ? name.trim().toUpperCase() : undefined);
   const redNet = resolveNet(engine, input.red) ?? onPhoto(input.red);
   if (!redNet) throw invalid('red', `Unknown net or test point "${input.red}" on this board model`);
@@ -235,6 +253,13 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
   if (!blackNet) throw invalid('black', `Unknown net or test point "${input.black}" on this board model`);
   const lifted = resolveParts(engine, input.lifted);
   if ('unknown' in lifted) throw invalid('lifted', `Unknown part "${lifted.unknown}" on this board model`);
+  const probe = { mode: input.mode, red: redNet, black: blackNet, power: input.power, lifted: lifted.parts };
+  let alone: string | null = null;
+  if (input.alone !== undefined) {
+    const found = resolveAlone(engine, input.alone, probe);
+    if ('refused' in found) throw invalid('alone', found.refused);
+    alone = found.part;
+  }
 
   let corrects: { mode: string; redNet: string; blackNet: string; power: string; lifted: string[]; authorId: string } | undefined;
   if (input.supersedes) {
@@ -252,7 +277,8 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
   await checkSafetyGate(versionId, async () => (await loadVersion()).document, input);
 
   const engineValue = input.mode === 'continuity' ? (input.beep ?? input.value !== 'OL') : input.value;
-  const verdict = photoPoints ? null : verdictFor(engine, { mode: input.mode, red: redNet, black: blackNet, power: input.power, lifted: lifted.parts }, engineValue);
+  const meter = meterOf(readMeterProfileId((await meterRow)[0]?.profile));
+  const verdict = photoPoints ? null : verdictFor(engine, { ...probe, ...(alone ? { alone } : {}) }, engineValue, meter);
   const row: NewReading = {
     id: newId(),
     shopId: actor.shopId,
@@ -266,6 +292,7 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
     blackNet,
     power: input.power,
     lifted: lifted.parts,
+    alone,
     value: input.value === 'OL' ? null : input.value,
     overLimit: input.value === 'OL',
     unit: unitOf(input.mode),

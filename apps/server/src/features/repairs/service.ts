@@ -6,6 +6,7 @@ import { repairActions, uploads, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
+import { priorsChanged } from '../../lib/priors-generation';
 import { getJobRow } from '../../db/job-row';
 import { checkBinTake, takeFromBin } from '../parts-bin';
 
@@ -73,6 +74,8 @@ export async function createRepair({
     if (binPartId) await takeFromBin(tx, { shopId: actor.shopId, jobId, repairId: made!.id, binPartId, quantity: input.binQuantity ?? 1, takenBy: actor.id });
     return made!;
   });
+  // a repair of a verified job is part of the shop's history, which steers other jobs' priors
+  priorsChanged();
   return toRepair(row, actor.name);
 }
 

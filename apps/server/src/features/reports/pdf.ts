@@ -38,8 +38,11 @@ export function reportLines(r: RepairReport): Line[] {
   ];
 }
 
-/** Renders the report; resolves with the PDF bytes. */
-export function renderReportPdf(r: RepairReport): Promise<Buffer> {
+/** The logo's box at the head of the page, pt (about 53 × 18 mm). */
+const LOGO_FIT: [number, number] = [150, 50];
+
+/** Renders the report, headed by the shop's logo when it has one (PNG or JPEG bytes); resolves with the PDF bytes. */
+export function renderReportPdf(r: RepairReport, logo?: Buffer | null): Promise<Buffer> {
   const doc = new PDFDocument({ size: 'A4', margin: 50, info: { Title: `Repair report, job ${r.jobNumber}`, Author: r.shop.name } });
   const chunks: Buffer[] = [];
   doc.on('data', (c: Buffer) => chunks.push(c));
@@ -47,6 +50,7 @@ export function renderReportPdf(r: RepairReport): Promise<Buffer> {
     doc.on('end', () => resolve(Buffer.concat(chunks)));
     doc.on('error', reject);
   });
+  if (logo) doc.image(logo, { fit: LOGO_FIT }).moveDown(0.5);
   let previous: Line['style'] | undefined;
   for (const line of reportLines(r)) {
     if (line.style === 'heading' && previous !== 'subtitle') doc.moveDown();

@@ -6,16 +6,18 @@ import type { Db } from '../../db/client';
 import { boardModels, boardModelVersions, customers, jobs, reviews, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso, isoOrNull } from '../../lib/dates';
+import type { Storage } from '../../storage/storage';
 import { findReadings } from '../readings';
 import { findRepairs } from '../repairs';
-import { toShopCard } from '../shops';
+import { shopLogo, toShopCard } from '../shops';
+import { renderReportPdf } from './pdf';
 
 // Probe positions and parts in the bench's words (contract: boardWords), never the netlist's names.
 const asReportReading =
   (w: BoardWords) =>
-  ({ id, red, black, mode, power, lifted, beep, value, unit, raw, verdict, takenAt }: StoredReading): ReportReading => ({
-    id, red, black, mode, power, lifted, beep, value, unit, raw, verdict, takenAt,
-    probes: `${w.probe(red)} to ${w.probe(black)}`,
+  ({ id, red, black, mode, power, lifted, alone, beep, value, unit, raw, verdict, takenAt }: StoredReading): ReportReading => ({
+    id, red, black, mode, power, lifted, alone, beep, value, unit, raw, verdict, takenAt,
+    probes: w.probes({ red, black, alone }),
     boardState: `${power === 'on' ? 'powered' : 'unplugged'}${lifted.length ? `, ${lifted.map(w.designator).join(', ')} lifted` : ''}`,
   });
 
@@ -61,4 +63,10 @@ export async function getRepairReport({ db, shopId, jobId }: { db: Db; shopId: s
     verification: verificationReadings(counting, lastRepairAt).map(asReportReading(words)),
     verified: reportReady(job.status),
   };
+}
+
+/** The report as the customer gets it: the PDF, headed by the shop's logo. */
+export async function reportPdf({ db, storage, shopId, jobId }: { db: Db; storage: Storage; shopId: string; jobId: string }): Promise<Buffer> {
+  const [report, logo] = await Promise.all([getRepairReport({ db, shopId, jobId }), shopLogo({ db, storage, shopId })]);
+  return renderReportPdf(report, logo?.bytes);
 }

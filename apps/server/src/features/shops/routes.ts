@@ -23,7 +23,7 @@ export function shopRoutes(ctx: AppContext): Router {
   });
   r.patch('/shop', requireRole(...ROLES.admins), async (req, res) => {
     const input = parse(updateShopRequest, req.body);
-    res.json(shopSchema.parse(await updateShop({ db: ctx.db, actor: actorOf(req), input })));
+    res.json(shopSchema.parse(await updateShop({ db: ctx.db, storage: ctx.storage, actor: actorOf(req), input })));
   });
   return r;
 }

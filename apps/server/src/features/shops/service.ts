@@ -1,18 +1,21 @@
-import { and, count, eq, sql } from 'drizzle-orm';
-import { shopCardSchema, shopSchema, type AppMode, type FirstRunRequest, type Shop, type ShopCard, type UpdateShopRequest } from '@splitscope/contract';
+import { count, eq, sql } from 'drizzle-orm';
+import { readMeterProfileId, shopCardSchema, shopSchema, type AppMode, type FirstRunRequest, type Shop, type ShopCard, type UpdateShopRequest } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Auth } from '../../auth/lucia';
 import { hashPassword } from '../../auth/password';
 import { assertPasswordAllowed } from '../../auth/password-policy';
 import type { Db } from '../../db/client';
-import { auditLog, billingSettings, shops, uploads, users } from '../../db/schema';
+import { auditLog, billingSettings, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
+import type { Storage } from '../../storage/storage';
+import { logoFromUpload } from './logo';
 
 type Row = typeof shops.$inferSelect;
 
-// The row's columns are the shop's fields; the schema keeps those the API shows (and drops created_at).
-export const toShop = (r: Row): Shop => shopSchema.parse(r);
+// The row's columns are the shop's fields; the schema keeps those the API shows (and drops created_at). A stored
+// meter profile no longer shipped reads as none (the generic meter).
+export const toShop = (r: Row): Shop => shopSchema.parse({ ...r, meterProfile: readMeterProfileId(r.meterProfile) });
 
 /** What customers see of the shop (reports, e-mails, the customer page); never its session settings. */
 export const toShopCard = (r: Row): ShopCard => shopCardSchema.parse({ ...r, hasLogo: r.logoUploadId !== null });
@@ -58,12 +61,10 @@ export async function getShop({ db, shopId }: { db: Db; shopId: string }) {
   return toShop(await getShopRow(db, shopId));
 }
 
-export async function updateShop({ db, actor, input }: { db: Db; actor: Actor; input: UpdateShopRequest }) {
-  if (input.logoUploadId) {
-    const [up] = await db.select({ id: uploads.id }).from(uploads).where(and(eq(uploads.id, input.logoUploadId), eq(uploads.shopId, actor.shopId)));
-    if (!up) throw new AppError('not_found', `No upload ${input.logoUploadId}`);
-  }
-  const [row] = await db.update(shops).set(input).where(eq(shops.id, actor.shopId)).returning();
+/** Admin only. A logo given as an upload of the shop is kept as a copy fitted to a header (logo.ts). */
+export async function updateShop({ db, storage, actor, input }: { db: Db; storage: Storage; actor: Actor; input: UpdateShopRequest }) {
+  const values = input.logoUploadId ? { ...input, logoUploadId: await logoFromUpload({ db, storage, shopId: actor.shopId, userId: actor.id, uploadId: input.logoUploadId }) } : input;
+  const [row] = await db.update(shops).set(values).where(eq(shops.id, actor.shopId)).returning();
   if (!row) throw new AppError('not_found', `No shop ${actor.shopId}`);
   await db.insert(auditLog).values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: 'shop-details', subject: row.name, detail: Object.keys(input).join(', ') });
   return toShop(row);

@@ -34,7 +34,11 @@ export function ReadingsTable({ readings, model, actions, caption }: { readings:
           return (
             <tr key={r.id} className="border-b border-stone-200 align-top" data-testid="reading-row">
               <td className="py-1">
-                {words.probe(r.red)} <span className="text-stone-600">to</span> {words.probe(r.black)}
+                {r.alone ? words.probes(r) : (
+                  <>
+                    {words.probe(r.red)} <span className="text-stone-600">to</span> {words.probe(r.black)}
+                  </>
+                )}
               </td>
               <td>{METER_LABEL[r.mode]}</td>
               <td data-testid="board-state">{boardStateText({ power: r.power, lifted: r.lifted.map(words.designator) })}</td>

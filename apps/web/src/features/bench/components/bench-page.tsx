@@ -27,13 +27,16 @@ import {
   stateOf,
   type Target,
 } from '../lib/bench-model';
+import { useBenchTarget } from '../lib/use-bench-target';
 import { boardView, type BoardView } from '@/lib/board/board-view';
 import { gateFigures } from '@/lib/board/gate-figures';
 import { gateRefusalFor, touchesBus } from '@/lib/board/gate';
 import { parseTyped, preloadReadingParser } from '@/lib/parse-reading';
 import { GuidedOrder } from './guided-order';
 import { GuidedSwitch } from './guided-switch';
+import { MeterSwitch } from './meter-switch';
 import { LiftedParts } from './lifted-parts';
+import { AloneChoices } from './alone-choices';
 import { ReadingActions } from './reading-actions';
 import { ProbeChoices } from './probe-choices';
 import { ProposePanel } from './propose-panel';
@@ -41,6 +44,7 @@ import { PointList } from './point-list';
 import { RankingPanel } from './ranking-panel';
 import { JobPhotos } from '@/components/photos/job-photos';
 import { ReadingPanel, type LatestReading } from './reading-panel';
+import { BenchMeter } from './bench-meter';
 import { SafetyGate } from '@/components/safety-gate';
 import { SignalChain, type ChainLink } from './signal-chain';
 import { UnsentList } from './unsent-list';
@@ -55,7 +59,8 @@ function chainLinks(view: BoardView, rows: ExpectedReadingRow[], readings: Store
       const p = view.pointOf(r.red);
       return {
         id: r.id,
-        label: r.label ?? p?.label ?? r.red,
+        // The test point first ("TP5 Fan control supply"): the chain's axis names each link by its point.
+        label: p?.label ?? r.label ?? r.red,
         section: view.sections.find((s) => s.id === p?.section)?.name ?? p?.section ?? '',
         unit: r.unit,
         nominal: r.expected as number,
@@ -89,9 +94,6 @@ function Bench({ job }: { job: JobDetail }) {
   const diagnosisQ = useDiagnosis(job.id);
   const sender = useReadingSender(job.id);
   const history = useJobHistory(job.id);
-  const [target, setTarget] = useState<(Target & { pointId?: string }) | null>(null);
-  const [selectedPart, setSelectedPart] = useState<string | null>(null);
-  const [lifted, setLifted] = useState<string[]>([]);
   const [entryError, setEntryError] = useState<string | null>(null);
   // The bus voltage typed at the safety gate; null until the gate is passed for this unplugged spell.
   const [gateVolts, setGateVolts] = useState<number | null>(null);
@@ -102,31 +104,14 @@ function Bench({ job }: { job: JobDetail }) {
   const steps = useMemo(() => (diagnosisQ.data ? nextTests(view, diagnosisQ.data) : []), [view, diagnosisQ.data]);
   const ranked = useMemo(() => (diagnosisQ.data ? rankedParts(view, diagnosisQ.data) : []), [view, diagnosisQ.data]);
   const step = steps[0];
-  const active: (Target & { pointId?: string }) | null = guided ? (step ? { ...step.target, pointId: step.pointId } : null) : target;
+  const bench = useBenchTarget({ view, rows, guided, step });
+  const { target, active, lifted, liftable, selectedPart } = bench;
+  // A new test clears the last one's refusal.
+  useEffect(() => setEntryError(null), [active?.pointId, active?.mode, active?.red, active?.black, active?.alone]);
   const canWrite = acceptsReadings(job.status, 'diagnosis');
   const needsGate = !!active && active.power === 'off' && touchesBus(view, active) && gateVolts === null;
 
   const points = view.points.map((p) => ({ ...p, ...pointState(view, readings, p.net, guided ? [] : lifted) }));
-  const liftable = (view.model?.parts ?? []).filter((p) => p.element).map((p) => ({ id: p.element!, label: view.parts.find((x) => x.id === p.designator)?.label ?? p.designator, pins: p.pins.length, nets: p.pins.map((x) => x.net) }));
-  const selectPoint = (id: string) => {
-    if (guided) return;
-    const choices = rowsForPoint(view, rows, id);
-    const p = view.pointOf(id)!;
-    const row = choices.find((r) => r.power === 'on') ?? choices[0];
-    // With parts lifted the board is not as built: the test keeps the point's probes and takes the lifted set.
-    const base = row ? { mode: row.mode, red: row.red, black: row.black, power: row.power } : { mode: 'dcv' as const, red: p.id, black: '0', power: 'on' as const };
-    setTarget(lifted.length ? { ...base, mode: base.mode === 'dcv' ? 'ohm' : base.mode, power: 'off', lifted, pointId: id } : { ...base, lifted: row?.lifted ?? [], pointId: id });
-    setEntryError(null);
-  };
-  const measurePads = (part: string) => {
-    const p = liftable.find((x) => x.id === part);
-    if (!p || p.nets.length !== 2) return;
-    setTarget({ mode: 'ohm', red: p.nets[0]!, black: p.nets[1]!, power: 'off', lifted });
-  };
-  const changeLifted = (next: string[]) => {
-    setLifted(next);
-    if (target) setTarget({ ...target, lifted: next, ...(next.length ? { power: 'off' as const, mode: target.mode === 'dcv' ? ('ohm' as const) : target.mode } : {}) });
-  };
 
   /** Sends a reading (or a correction) through the gate rule the server applies. */
   const send = async (probe: Target, text: string, extra: { supersedes?: string; gate?: number | null } = {}): Promise<string | null> => {
@@ -142,7 +127,7 @@ function Bench({ job }: { job: JobDetail }) {
       return 'Pass the discharge gate first: this reading is unpowered on the DC bus.';
     }
     const { mode, red, black, power } = probe;
-    await sender.save({ mode, red, black, power, lifted: probe.lifted, value: parsed.value, ...(parsed.beep !== undefined ? { beep: parsed.beep } : {}), raw: text.trim(), phase: 'diagnosis', ...safetyCheck, ...(extra.supersedes ? { supersedes: extra.supersedes } : {}) });
+    await sender.save({ mode, red, black, power, lifted: probe.lifted, ...(probe.alone ? { alone: probe.alone } : {}), value: parsed.value, ...(parsed.beep !== undefined ? { beep: parsed.beep } : {}), raw: text.trim(), phase: 'diagnosis', ...safetyCheck, ...(extra.supersedes ? { supersedes: extra.supersedes } : {}) });
     return null;
   };
   const save = async (text: string) => {
@@ -152,7 +137,7 @@ function Bench({ job }: { job: JobDetail }) {
     return err === null;
   };
   // A correction re-enters the value of a measurement already taken, under the gate that reading passed.
-  const correct = (r: StoredReading, text: string) => send({ mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted }, text, { supersedes: r.id, gate: r.safetyBusVolts });
+  const correct = (r: StoredReading, text: string) => send({ mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted, alone: r.alone }, text, { supersedes: r.id, gate: r.safetyBusVolts });
 
   const latest: LatestReading | null = (() => {
     if (!active) return null;
@@ -164,14 +149,16 @@ function Bench({ job }: { job: JobDetail }) {
   })();
 
   const expectedRow = active ? expectedFor(view, rows, active) : undefined;
+  const alonePart = active?.alone ? liftable.find((x) => x.id === active.alone) : undefined;
+  const pinLabel = (net: string) => (alonePart ? `${alonePart.designator} ${alonePart.pins.find((x) => x.net === net)?.word ?? 'pin'}` : view.netLabel(net));
   const panelTarget = active && {
-    pointId: `${active.red}|${active.black}|${active.mode}|${active.power}|${active.lifted.join()}`,
-    pointLabel: view.netLabel(active.red),
+    pointId: `${active.red}|${active.black}|${active.mode}|${active.power}|${active.lifted.join()}|${active.alone ?? ''}`,
+    pointLabel: alonePart ? `${alonePart.designator} alone` : view.netLabel(active.red),
     meter: active.mode,
     power: active.power,
-    lifted: active.lifted.map((p) => liftable.find((x) => x.id === p)?.label.split(' ')[0] ?? p),
-    red: { label: view.netLabel(active.red) },
-    black: { label: view.netLabel(active.black) },
+    lifted: active.lifted.map((p) => liftable.find((x) => x.id === p)?.designator ?? p),
+    red: { label: pinLabel(active.red) },
+    black: { label: pinLabel(active.black) },
     expected: expectedRow ? { text: bandText({ ...expectedRow, low: null, high: null }, expectedRow.mode), band: bandText(expectedRow, expectedRow.mode), note: expectedRow.note, source: expectedRow.source } : null,
   };
   const choices = !guided && target?.pointId && lifted.length === 0 ? rowsForPoint(view, rows, target.pointId) : [];
@@ -191,7 +178,8 @@ function Bench({ job }: { job: JobDetail }) {
   const probeNets = active ? { red: view.pointOf(active.red)?.net ?? active.red, black: view.pointOf(active.black)?.net ?? active.black } : undefined;
   const faultCode = job.faultCode ? job.board.faultCodes.find((f) => f.code.toLowerCase() === job.faultCode!.toLowerCase()) : undefined;
   const before = readings.length === 0 ? { code: job.faultCode, meaning: faultCode?.title ?? null, sections: (faultCode?.sections ?? []).map((id) => view.sections.find((x) => x.id === id)?.name ?? id), firstTest: step?.label ?? null } : null;
-  const entry = panelTarget && canWrite && !gateShown && <ReadingPanel target={panelTarget} latest={latest} onSave={save} error={entryError} />;
+  const meter = active && <BenchMeter jobId={job.id} role={me.data?.role} target={active} label={view.netLabel} busVolts={gateVolts} />;
+  const entry = panelTarget && canWrite && !gateShown && <ReadingPanel target={panelTarget} latest={latest} onSave={save} error={entryError} meter={meter} />;
 
   return (
     <div className="flex flex-col gap-2 lg:h-[calc(100dvh_-_5.25rem_-_var(--banner-h,0px))]">
@@ -206,6 +194,7 @@ function Bench({ job }: { job: JobDetail }) {
         </p>
         <div className="flex flex-wrap gap-1">
           <GuidedSwitch job={job} guided={guided} onToggle={() => setParams((p) => (p.set('mode', guided ? 'free' : 'guided'), p))} />
+          <MeterSwitch job={job} />
           {['approved', 'repaired', 'verified', 'returned'].includes(job.status) && (
             <Link className={linkClass} to={`/jobs/${job.id}/repair`}>
               Repair and verification
@@ -261,7 +250,7 @@ function Bench({ job }: { job: JobDetail }) {
                   selectedId={active?.pointId ?? null}
                   probes={probeNets}
                   highlightPart={selectedPart}
-                  onSelect={selectPoint}
+                  onSelect={bench.selectPoint}
                 />
               </div>
             )}
@@ -271,7 +260,7 @@ function Bench({ job }: { job: JobDetail }) {
               <PointList
                 items={points.map((p) => ({ id: p.id, label: p.label, section: view.sections.find((s) => s.id === p.section)?.name ?? p.section, state: p.state, reading: p.reading ? readingText(p.reading) : undefined }))}
                 selectedId={target?.pointId}
-                onSelect={selectPoint}
+                onSelect={bench.selectPoint}
               />
             )}
             {tab === 'readings' && (
@@ -301,8 +290,8 @@ function Bench({ job }: { job: JobDetail }) {
                   guided={guided}
                   preparing={diagnosisQ.data?.preparing}
                   checkingPairs={diagnosisQ.data?.checking?.candidates}
-                  onPickPart={(p) => setSelectedPart((s) => (s === p ? null : p))}
-                  onPickTest={guided ? undefined : (t) => setTarget({ ...(t as (typeof steps)[number]).target, pointId: t.pointId })}
+                  onPickPart={bench.pickPart}
+                  onPickTest={guided ? undefined : (t) => bench.chooseTest(t as (typeof steps)[number])}
                 />
               )}
             </QueryState>
@@ -318,12 +307,12 @@ function Bench({ job }: { job: JobDetail }) {
             </GuidedOrder>
           ) : (
             <>
-              {canWrite && <LiftedParts parts={liftable} lifted={lifted} onChange={changeLifted} onMeasurePads={measurePads} />}
-              <ProbeChoices
-                rows={choices}
-                isChosen={(r) => !!target && sameTarget(view, r, target)}
-                onChoose={(r) => setTarget({ mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted, pointId: target?.pointId })}
-              />
+              {canWrite && <LiftedParts parts={liftable} lifted={lifted} onChange={bench.changeLifted} onMeasurePads={bench.measurePads} onMeasureAlone={(p) => bench.measureAlone(p)} />}
+              {alonePart && target ? (
+                <AloneChoices part={alonePart} mode={target.mode} red={target.red} black={target.black} onChange={(c) => bench.measureAlone(alonePart.id, c)} />
+              ) : (
+                <ProbeChoices rows={choices} isChosen={(r) => !!target && sameTarget(view, r, target)} onChoose={bench.chooseRow} />
+              )}
               {gateShown && active && safetyGate}
               {entry}
               {!active && <p className="rounded-md bg-board-light p-3 text-sm">Pick a test point on the map, or a next test below.</p>}

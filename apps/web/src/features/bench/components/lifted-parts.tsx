@@ -1,20 +1,23 @@
 import { useState } from 'react';
+import type { LiftablePart } from '../lib/use-bench-target';
 
 /**
  * The parts lifted from the board right now: any part can be lifted and put back, and every reading taken
  * meanwhile carries them (the engine computes that board's expected values). A lifted two-pin part's pads can be
- * measured directly.
+ * measured directly, and a lifted part itself on its own pins ("C10 alone").
  */
 export function LiftedParts({
   parts,
   lifted,
   onChange,
   onMeasurePads,
+  onMeasureAlone,
 }: {
-  parts: { id: string; label: string; pins: number }[];
+  parts: LiftablePart[];
   lifted: string[];
   onChange: (lifted: string[]) => void;
   onMeasurePads: (part: string) => void;
+  onMeasureAlone: (part: string) => void;
 }) {
   const [pick, setPick] = useState('');
   const label = (id: string) => parts.find((p) => p.id === id)?.label ?? id;
@@ -27,11 +30,14 @@ export function LiftedParts({
         {lifted.map((p) => (
           <li key={p} className="flex items-center gap-1 rounded-md bg-amber-100 px-2 text-sm">
             <strong>{label(p)}</strong> lifted
-            {(parts.find((x) => x.id === p)?.pins ?? 0) === 2 && (
+            {(parts.find((x) => x.id === p)?.pins.length ?? 0) === 2 && (
               <button type="button" className="min-h-11 px-1 underline" onClick={() => onMeasurePads(p)}>
                 measure its pads
               </button>
             )}
+            <button type="button" className="min-h-11 px-1 underline" onClick={() => onMeasureAlone(p)}>
+              measure {parts.find((x) => x.id === p)?.designator ?? p} alone
+            </button>
             <button type="button" className="min-h-11 px-1 underline" onClick={() => onChange(lifted.filter((x) => x !== p))}>
               put back
             </button>

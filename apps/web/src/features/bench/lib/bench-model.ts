@@ -2,7 +2,7 @@
  * Joins what the server sent (expected-readings table, readings with their verdicts, the engine's diagnosis) to the
  * drawable board. Only lookups and labels: verdicts, bands, probabilities and next tests are the engine's.
  */
-import { type Diagnosis, type ExpectedReadingRow, type StoredReading } from '@splitscope/contract';
+import { boardWords, type Diagnosis, type ExpectedReadingRow, type StoredReading } from '@splitscope/contract';
 import type { MarkerState } from '@/lib/map-geometry';
 import { METER_LABEL, meterText, readingText, verdictWord } from '@/lib/format';
 import type { NextTestView, RankedPart } from '../components/ranking-panel';
@@ -14,6 +14,8 @@ export interface Target {
   black: string;
   power: 'on' | 'off';
   lifted: string[];
+  /** A lifted part measured on its own pins (its netlist element); red and black are its pins' nets. */
+  alone?: string | null;
 }
 
 const norm = (s: string) => s.trim().toLowerCase();
@@ -28,7 +30,8 @@ export function sameTarget(view: BoardView, a: Target, b: Target) {
     a.power === b.power &&
     sameProbe(view, a.red, b.red) &&
     sameProbe(view, a.black, b.black) &&
-    [...a.lifted].sort().join() === [...b.lifted].sort().join()
+    [...a.lifted].sort().join() === [...b.lifted].sort().join() &&
+    (a.alone ?? null) === (b.alone ?? null)
   );
 }
 
@@ -46,7 +49,8 @@ export function latestFor(view: BoardView, readings: StoredReading[], t: Target)
  */
 export function pointState(view: BoardView, readings: StoredReading[], pointNet: string, lifted: readonly string[] = []): { state: MarkerState; reading?: StoredReading } {
   const same = [...lifted].sort().join();
-  const r = [...readings].reverse().find((x) => norm(x.redNet) === norm(pointNet) && [...x.lifted].sort().join() === same);
+  // A part measured on its own pins is off the board: its reading says nothing about the point its pad is on.
+  const r = [...readings].reverse().find((x) => !x.alone && norm(x.redNet) === norm(pointNet) && [...x.lifted].sort().join() === same);
   return { state: r ? stateOf(r.verdict?.verdict) : 'unmeasured', reading: r };
 }
 
@@ -69,11 +73,16 @@ const rec = (v: unknown): Record<string, unknown> => (typeof v === 'object' && v
 
 /** Parts ranked by the engine, each with the readings that speak for and against it. */
 export function rankedParts(view: BoardView, d: Diagnosis): RankedPart[] {
+  const words = boardWords(view.model);
   const evidenceText = (i: number): string => {
     const r = d.readings[i];
     if (!r) return `reading ${i + 1}`;
-    const lifted = r.lifted.length ? `, ${r.lifted.join(', ')} lifted` : '';
-    return `${view.netLabel(r.red)} ${r.mode === 'continuity' ? readingText({ ...r, beep: null }) : meterText(r.value, r.unit)}${lifted}${r.verdict ? ` (${verdictWord(r.verdict)})` : ''}`;
+    const value = r.mode === 'continuity' ? readingText({ ...r, beep: null }) : meterText(r.value, r.unit);
+    const verdict = r.verdict ? ` (${verdictWord(r.verdict)})` : '';
+    // "C10 alone, Ω: 2 Ω": the part off the board on its own pins.
+    if (r.alone) return `${words.probes(r)}, ${METER_LABEL[r.mode]}: ${value}${verdict}`;
+    const lifted = r.lifted.length ? `, ${r.lifted.map(words.designator).join(', ')} lifted` : '';
+    return `${view.netLabel(r.red)} ${value}${lifted}${verdict}`;
   };
   return d.parts.map((p) => {
     const single = d.candidates.find((c) => c.faults.length === 1 && c.faults[0]!.part === p.part && c.faults[0]!.mode === p.mode);

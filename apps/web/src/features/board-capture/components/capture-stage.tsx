@@ -1,6 +1,6 @@
 import type { BoardCapture, BoardDraft } from '@splitscope/contract';
 import { useEffect, useState } from 'react';
-import { Circle, Group, Image as KImage, Layer, Rect, Stage, Text } from 'react-konva';
+import { Circle, Group, Image as KImage, Label, Layer, Rect, Stage, Tag, Text } from 'react-konva';
 import type { KonvaEventObject } from 'konva/lib/Node';
 
 export type Tool = 'point' | 'connector' | 'section' | 'look';
@@ -57,6 +57,11 @@ export function CaptureStage({ capture, draft, tool, width, onPlace, onRegion, s
     if (r.w > 8 && r.h > 8) onRegion(r);
   };
   const fs = 14 / scale;
+  // Text width estimated from the character count (the stage's font is about 0.6 em per character).
+  const labelX = (x: number, text: string) => {
+    const w = (text.length * 0.6 * fs) + 4 / scale;
+    return x + 12 / scale + w > photo.width ? x - 12 / scale - w : x + 12 / scale;
+  };
 
   return (
     <Stage width={width} height={photo.height * scale} scaleX={scale} scaleY={scale} onMouseDown={down} onMouseMove={move} onMouseUp={up} onTouchStart={down} onTouchMove={move} onTouchEnd={up}
@@ -66,7 +71,11 @@ export function CaptureStage({ capture, draft, tool, width, onPlace, onRegion, s
         {capture.sections.map((s) => (
           <Group key={s.id}>
             <Rect x={s.region.x} y={s.region.y} width={s.region.w} height={s.region.h} stroke={selected === s.id ? '#b45309' : '#0f766e'} strokeWidth={3 / scale} dash={[10 / scale, 6 / scale]} />
-            <Text x={s.region.x + 4 / scale} y={s.region.y + 4 / scale} text={s.title || s.id} fontSize={fs} fill="#fff" padding={2 / scale} />
+            {/* Kept inside its own region (cut short with an ellipsis), so neighbouring sections' titles never overlap. */}
+            <Label x={s.region.x + 4 / scale} y={s.region.y + 4 / scale}>
+              <Tag fill="rgba(0,0,0,0.7)" />
+              <Text text={s.title || s.id} fontSize={fs} fill="#fff" padding={2 / scale} width={Math.max(s.region.w - 8 / scale, fs)} wrap="none" ellipsis />
+            </Label>
           </Group>
         ))}
         {drag && <Rect x={drag.x} y={drag.y} width={drag.w} height={drag.h} stroke="#b45309" strokeWidth={2 / scale} />}
@@ -81,7 +90,11 @@ export function CaptureStage({ capture, draft, tool, width, onPlace, onRegion, s
           return (
             <Group key={p.id}>
               <Circle x={p.x} y={p.y} radius={9 / scale} fill={v ? '#15803d' : '#f59e0b'} stroke={selected === p.id ? '#000' : '#fff'} strokeWidth={2 / scale} />
-              <Text x={p.x + 12 / scale} y={p.y - 8 / scale} text={v ? `${p.id} ${v}` : p.id} fontSize={fs} fill="#fff" stroke="#000" strokeWidth={0.6 / scale} />
+              {/* White on a dark tag reads on any board colour; a label that would leave the photo goes left of its point. */}
+              <Label x={labelX(p.x, v ? `${p.id} ${v}` : p.id)} y={p.y - 9 / scale}>
+                <Tag fill="rgba(0,0,0,0.75)" />
+                <Text text={v ? `${p.id} ${v}` : p.id} fontSize={fs} fill="#fff" padding={2 / scale} />
+              </Label>
             </Group>
           );
         })}

@@ -128,9 +128,13 @@ export default function CustomerPage() {
   const d = job.data;
   return (
     <div className="min-h-full bg-stone-100">
-      <header className="bg-board px-4 py-3 text-white">
-        <p className="text-lg font-semibold">{d.shop.name}</p>
-        {shopCardLines(d.shop).length > 0 && <p className="text-sm text-white/85">{shopCardLines(d.shop).join(' · ')}</p>}
+      <header className="flex flex-wrap items-center gap-x-4 gap-y-2 bg-board px-4 py-3 text-white">
+        {/* the logo on a white ground: it is drawn for paper, as on the report PDF */}
+        {d.shop.hasLogo && <img src={`/api/public/links/${encodeURIComponent(token)}/logo`} alt={`${d.shop.name} logo`} className="h-14 max-w-48 rounded bg-white object-contain p-1" />}
+        <div>
+          <p className="text-lg font-semibold">{d.shop.name}</p>
+          {shopCardLines(d.shop).length > 0 && <p className="text-sm text-white/85">{shopCardLines(d.shop).join(' · ')}</p>}
+        </div>
       </header>
       <main className="mx-auto flex max-w-2xl flex-col gap-4 p-4">
         <div>

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { createJobRequest } from '@splitscope/contract';
+import { createJobRequest, meterProfileIds, meterProfileLabels } from '@splitscope/contract';
 import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { useNavigate } from 'react-router-dom';
@@ -156,6 +156,17 @@ function NewJobPage() {
             <option value="low">Low</option>
             <option value="normal">Normal</option>
             <option value="high">High</option>
+          </select>
+        </label>
+        <label className="block">
+          <span className="text-sm font-medium">Meter</span>
+          <select className={field} {...form.register('meterProfile', { setValueAs: (v: string) => v || null })}>
+            <option value="">Shop's default meter</option>
+            {meterProfileIds.map((id) => (
+              <option key={id} value={id}>
+                {meterProfileLabels[id]}
+              </option>
+            ))}
           </select>
         </label>
         <label className="block">

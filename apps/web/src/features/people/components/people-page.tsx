@@ -1,4 +1,4 @@
-import { useState, type FormEvent } from 'react';
+import { useState, type FormEvent, type ReactNode } from 'react';
 import { createInvitationRequest, roleLabels, roles, type Invitation, type Role, type ShopMember } from '@splitscope/contract';
 import { Button } from '@/components/ui/button';
 import { SelectField } from '@/components/ui/select-field';
@@ -11,7 +11,6 @@ import { useInvitations } from '../api/get-invitations';
 import { usePeople } from '../api/get-people';
 import { useResendInvitation } from '../api/resend-invitation';
 import { useUpdatePerson } from '../api/update-person';
-
 
 function InviteForm() {
   const create = useCreateInvitation();
@@ -40,17 +39,30 @@ function InviteForm() {
   );
 }
 
-function PersonRow({ p, self }: { p: ShopMember; self: boolean }) {
-  const update = useUpdatePerson();
-  const active = !p.deactivatedAt;
+/** One line of the people screen: who (title, detail), the admin's actions on them, and why an action failed. */
+function MemberRow({ title, detail, error, children }: { title: ReactNode; detail: ReactNode; error: Error | null; children: ReactNode }) {
   return (
     <li className="flex flex-wrap items-center gap-3 border-b border-stone-200 py-2 last:border-0">
       <div className="min-w-48 flex-1">
-        <p className={`font-semibold ${active ? '' : 'text-stone-500 line-through'}`}>
-          {p.name} {self && <span className="text-sm font-normal">(you)</span>}
-        </p>
-        <p className="text-sm text-stone-700">{p.email}</p>
+        {title}
+        <p className="text-sm text-stone-700">{detail}</p>
       </div>
+      {children}
+      {error && <p role="alert" className="w-full text-sm text-high">{error.message}</p>}
+    </li>
+  );
+}
+
+function PersonRow({ p, self }: { p: ShopMember; self: boolean }) {
+  const update = useUpdatePerson();
+  const active = !p.deactivatedAt;
+  const title = (
+    <p className={`font-semibold ${active ? '' : 'text-stone-500 line-through'}`}>
+      {p.name} {self && <span className="text-sm font-normal">(you)</span>}
+    </p>
+  );
+  return (
+    <MemberRow title={title} detail={p.email} error={update.error}>
       {!active && <span className="rounded bg-stone-200 px-2 text-sm">Deactivated</span>}
       <SelectField label={`Role of ${p.name}`} hideLabel value={p.role} options={roles} labels={roleLabels} disabled={update.isPending} onChange={(role) => update.mutate({ id: p.id, role })} className="w-auto" />
       {!self && (
@@ -58,31 +70,26 @@ function PersonRow({ p, self }: { p: ShopMember; self: boolean }) {
           {active ? 'Deactivate' : 'Reactivate'}
         </Button>
       )}
-      {update.error && <p role="alert" className="w-full text-sm text-high">{update.error.message}</p>}
-    </li>
+    </MemberRow>
   );
 }
 
 function InvitationRow({ i }: { i: Invitation }) {
   const resend = useResendInvitation();
   const expired = new Date(i.expiresAt).getTime() < Date.now();
+  const title = (
+    <p className="font-semibold">
+      {i.name} · {roleLabels[i.role]}
+    </p>
+  );
   return (
-    <li className="flex flex-wrap items-center gap-3 border-b border-stone-200 py-2 last:border-0">
-      <div className="min-w-48 flex-1">
-        <p className="font-semibold">
-          {i.name} · {roleLabels[i.role]}
-        </p>
-        <p className="text-sm text-stone-700">
-          {i.email} · {i.acceptedAt ? 'joined' : expired ? 'expired' : `open until ${i.expiresAt.slice(0, 10)}`}
-        </p>
-      </div>
+    <MemberRow title={title} detail={`${i.email} · ${i.acceptedAt ? 'joined' : expired ? 'expired' : `open until ${i.expiresAt.slice(0, 10)}`}`} error={resend.error}>
       {!i.acceptedAt && (
         <Button variant="secondary" disabled={resend.isPending} onClick={() => resend.mutate(i.id)} aria-label={`Resend the invitation to ${i.email}`}>
           {resend.isSuccess ? 'Sent again' : 'Resend'}
         </Button>
       )}
-      {resend.error && <p role="alert" className="w-full text-sm text-high">{resend.error.message}</p>}
-    </li>
+    </MemberRow>
   );
 }
 
