@@ -75,23 +75,35 @@ function raiseScale(top: Topology, w: Work, pos: Int32Array): void {
 /**
  * One step of iterative refinement (Golub & Van Loan, "Matrix Computations", 4th ed., §3.5.3; Wilkinson 1963):
  * residual r = b − A·x with the assembled matrix, correction A·d = r with the same factors, x += d. Used near
- * convergence only. |d| estimates the rounding error of the solve (w.floor): a node tied to the rest of the circuit
- * by gigaohms keeps a rounding noise larger than SPICE's VNTOL, and a Newton step within that noise is converged.
+ * convergence only. The correction applied uses the residual summed with Dot2 (`residual`), accurate to twice the
+ * working precision. The rounding floor (w.floor) that widens the convergence test is the correction a plainly
+ * summed residual gives (`plainResidual`): the Newton steps that test judges are computed in plain arithmetic, so
+ * their noise is that one, not the smaller error left after an accurate refinement. A node tied to the rest of the
+ * circuit by gigaohms keeps a rounding noise larger than SPICE's VNTOL, and a Newton step within it is converged.
  */
 function refineSolution(top: Topology, w: Work, solve: (r: Float64Array, d: Float64Array) => boolean | void): void {
   const { n, lu } = top;
   const { posRow, posCol, nnz } = lu;
   const r = (w.res ??= new Float64Array(n + 1));
   const d = (w.dx ??= new Float64Array(n + 1));
-  residual(w.asm, w.xn, w.b, posRow, posCol, nnz, r);
   const { xn } = w;
+  plainResidual(w.asm, xn, w.b, posRow, posCol, nnz, r);
   if (solve(r, d) === false) return;
   const floor = (w.floor ??= new Float64Array(n));
-  for (let i = 0; i < n; i++) {
-    xn[i] = (xn[i] as number) + (d[i] as number);
-    floor[i] = Math.abs(d[i] as number);
-  }
+  for (let i = 0; i < n; i++) floor[i] = Math.abs(d[i] as number);
+  residual(w.asm, xn, w.b, posRow, posCol, nnz, r);
+  if (solve(r, d) === false) return;
+  for (let i = 0; i < n; i++) xn[i] = (xn[i] as number) + (d[i] as number);
   w.refined = true;
+}
+
+/** r = b − A·x summed in working precision, as the Newton iteration itself rounds. */
+function plainResidual(a: Float64Array, x: Float64Array, b: Float64Array, posRow: Int32Array, posCol: Int32Array, nnz: number, r: Float64Array): void {
+  r.set(b);
+  for (let p = 0; p < nnz; p++) {
+    const i = posRow[p] as number;
+    r[i] = (r[i] as number) - (a[p] as number) * (x[posCol[p] as number] as number);
+  }
 }
 
 /** Veltkamp's splitting constant 2^27 + 1: a double splits into two halves of 26 bits whose products are exact. */
