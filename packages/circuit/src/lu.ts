@@ -257,8 +257,15 @@ export function luColumnScale(v: Float64Array, lp: LuProgram, out: Float64Array)
  * Factors the compressed values `v` in place along the program. Returns false (v partly modified) when a diagonal
  * pivot is too small relative to its column; the caller then factors a copy densely with luFactor. `colScale` is
  * the column scale of the matrix as assembled (luColumnScale, or an upper bound of it).
+ *
+ * The threshold against the column bounds the growth of the entries a pivot row adds to the rows below it (Duff,
+ * Erisman & Reid, "Direct Methods for Sparse Matrices", §5.4). A pivot row with nothing right of its pivot adds
+ * nothing, so no threshold applies to it: a voltage-source branch equation `v(a) = V` twinned with node a keeps its
+ * exact 1 beside a forward diode's 1e100 S in the same column (ngspice solves such a deck; a column-relative test
+ * calls it singular). Its singularity test is then against its own row as assembled (`orig`, the values before
+ * factoring), the magnitude that an exact cancellation would show against.
  */
-export function luProgramFactor(v: Float64Array, lp: LuProgram, colScale?: Float64Array): boolean {
+export function luProgramFactor(v: Float64Array, lp: LuProgram, colScale?: Float64Array, orig?: Float64Array): boolean {
   const { n, diag, lStart, lPos } = lp;
   const scale = colScale ?? lp.colScale;
   if (!colScale) luColumnScale(v, lp, scale);
@@ -266,13 +273,38 @@ export function luProgramFactor(v: Float64Array, lp: LuProgram, colScale?: Float
   for (let k = 0; k < n; k++) {
     const piv = v[diag[k] as number] as number;
     const ap = Math.abs(piv);
-    if (!(ap > 1e-14 * (scale[k] as number))) return false;
-    const weak = ap / SPARSE_PIVOT_THRESHOLD;
-    // The column's entries below the pivot are not changed by its own elimination, so they are checked first.
-    for (let t = lStart[k] as number; t < (lStart[k + 1] as number); t++) if (Math.abs(v[lPos[t] as number] as number) > weak) return false;
+    if (!(ap > 1e-14 * (scale[k] as number))) {
+      if (!orig || !emptyRight(v, lp, k) || !(ap > 1e-14 * rowScale(orig, lp, k))) return false;
+    } else if (!emptyRight(v, lp, k)) {
+      const weak = ap / SPARSE_PIVOT_THRESHOLD;
+      // The column's entries below the pivot are not changed by its own elimination, so they are checked first.
+      for (let t = lStart[k] as number; t < (lStart[k + 1] as number); t++) if (Math.abs(v[lPos[t] as number] as number) > weak) return false;
+    }
     tp = eliminateColumn(v, lp, k, piv, tp);
   }
   return true;
+}
+
+/** Row k holds no non-zero right of its pivot (structurally or by value). */
+function emptyRight(v: Float64Array, lp: LuProgram, k: number): boolean {
+  const { uStart, uPos } = lp;
+  for (let u = uStart[k] as number; u < (uStart[k + 1] as number); u++) if (v[uPos[u] as number] !== 0) return false;
+  return true;
+}
+
+/** Largest magnitude in row k of `a` (positions are numbered row after row, so the row is one run of posRow). */
+function rowScale(a: Float64Array, lp: LuProgram, k: number): number {
+  const { posRow, nnz } = lp;
+  let lo = 0;
+  let hi = nnz;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if ((posRow[mid] as number) < k) lo = mid + 1;
+    else hi = mid;
+  }
+  let m = 0;
+  for (let t = lo; t < nnz && posRow[t] === k; t++) m = Math.max(m, Math.abs(a[t] as number));
+  return m;
 }
 
 /**

@@ -83,12 +83,8 @@ function refineSolution(top: Topology, w: Work, solve: (r: Float64Array, d: Floa
   const { posRow, posCol, nnz } = lu;
   const r = (w.res ??= new Float64Array(n + 1));
   const d = (w.dx ??= new Float64Array(n + 1));
-  r.set(w.b);
-  const { asm, xn } = w;
-  for (let p = 0; p < nnz; p++) {
-    const i = posRow[p] as number;
-    r[i] = (r[i] as number) - (asm[p] as number) * (xn[posCol[p] as number] as number);
-  }
+  residual(w.asm, w.xn, w.b, posRow, posCol, nnz, r);
+  const { xn } = w;
   if (solve(r, d) === false) return;
   const floor = (w.floor ??= new Float64Array(n));
   for (let i = 0; i < n; i++) {
@@ -96,6 +92,49 @@ function refineSolution(top: Topology, w: Work, solve: (r: Float64Array, d: Floa
     floor[i] = Math.abs(d[i] as number);
   }
   w.refined = true;
+}
+
+/** Veltkamp's splitting constant 2^27 + 1: a double splits into two halves of 26 bits whose products are exact. */
+const SPLIT = 134217729;
+
+/**
+ * r = b − A·x row by row with the Dot2 algorithm of Ogita, Rump & Oishi ("Accurate sum and dot product", SIAM J.
+ * Sci. Comput. 26, 2005): every product split exactly by Dekker's TwoProduct (Veltkamp splitting; JavaScript has no
+ * fused multiply-add) and summed with Knuth's TwoSum, the errors gathered apart. The residual is then as accurate as
+ * if computed in twice the working precision, the classical condition for iterative refinement to improve a solution
+ * (Wilkinson 1963; Higham, "Accuracy and Stability of Numerical Algorithms", 2nd ed., §12.1). Summed plainly, a node
+ * tied by 57 S to its neighbour and by picosiemens to the rest of the circuit has a residual whose rounding (about
+ * 1e-15 A out of products near 10 A) is a correction of 0.2 mV: the refinement then adds the noise it should remove.
+ * Positions are numbered row after row, so each row is one run.
+ */
+function residual(a: Float64Array, x: Float64Array, b: Float64Array, posRow: Int32Array, posCol: Int32Array, nnz: number, r: Float64Array): void {
+  let p = 0;
+  while (p < nnz) {
+    const i = posRow[p] as number;
+    let s = b[i] as number;
+    let c = 0;
+    for (; p < nnz && posRow[p] === i; p++) {
+      const av = a[p] as number;
+      const xv = x[posCol[p] as number] as number;
+      const prod = av * xv;
+      // TwoProduct: av·xv = prod + perr exactly
+      let t = SPLIT * av;
+      const ah = t - (t - av);
+      const al = av - ah;
+      t = SPLIT * xv;
+      const xh = t - (t - xv);
+      const xl = xv - xh;
+      const perr = al * xl - (((prod - ah * xh) - al * xh) - ah * xl);
+      // TwoSum: s + (−prod) = z + serr exactly
+      const z = s - prod;
+      const bb = z - s;
+      const serr = (s - (z - bb)) + (-prod - bb);
+      s = z;
+      c += serr - perr;
+    }
+    const v = s + c;
+    r[i] = Number.isFinite(v) ? v : s;
+  }
 }
 
 /** Second pivot orders built per structure before the dense fall-back is left as it is (values that keep moving the pivots). */
@@ -107,7 +146,7 @@ const MAX_REPIVOTS = 4;
  */
 function sparseSolve(top: Topology, w: Work): 0 | 1 | 2 {
   w.fac.set(w.asm);
-  if (luProgramFactor(w.fac, top.lu, w.scale)) {
+  if (luProgramFactor(w.fac, top.lu, w.scale, w.asm)) {
     luProgramSolve(w.fac, top.lu, w.b, w.xn);
     return 1;
   }
@@ -209,7 +248,7 @@ export function newton(top: Topology, w: Work, cfg: AttemptConfig): AttemptResul
         const big = Math.max(Math.abs(xo), Math.abs(xv));
         const noise = floor ? NOISE_FACTOR * (floor[i] as number) : 0;
         if (conv && d > cfg.reltol * big + (isNode[i] ? cfg.vntol : cfg.abstol) + noise) conv = false;
-        if (isNode[i] && d > LOOSE_RELTOL * big + LOOSE_VNTOL) loose = conv = false;
+        if (isNode[i] && d > LOOSE_RELTOL * big + LOOSE_VNTOL + noise) loose = conv = false;
       }
       x[i] = xv;
     }
