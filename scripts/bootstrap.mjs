@@ -53,6 +53,17 @@ if (stale) {
 }
 
 const task = process.argv[2] ?? 'start';
+// The bench-meter tests talk to a simulated SCPI meter over a pseudo-terminal pair made by Debian's socat: install
+// it for `npm test` when missing (as root; otherwise those tests say why they skip).
+const hasSocat = () => spawnSync('sh', ['-c', 'command -v socat'], { stdio: 'ignore' }).status === 0;
+if (task === 'test' && !hasSocat() && process.getuid?.() === 0) {
+  console.log("splitscope: installing socat from Debian's packages (the bench-meter tests need it)");
+  const aptEnv = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
+  if (run('apt-get', ['install', '-y', '-qq', '--no-upgrade', 'socat'], { env: aptEnv }) !== 0) {
+    run('apt-get', ['update', '-qq'], { env: aptEnv, stdio: 'ignore' });
+    if (run('apt-get', ['install', '-y', '-qq', '--no-upgrade', 'socat'], { env: aptEnv }) !== 0) console.warn('splitscope: could not install socat; the bench-meter tests will skip');
+  }
+}
 const tsx = join(root, 'node_modules', '.bin', 'tsx');
 const env = { ...process.env, PATH: `${join(toolsDir, 'node_modules', '.bin')}:${join(root, 'node_modules', '.bin')}:${process.env.PATH}` };
 process.exit(run(tsx, [join(root, 'scripts', 'tasks.ts'), task, ...process.argv.slice(3)], { env }));

@@ -6,8 +6,8 @@ import { createCustomer } from './support/shop-data';
 
 // A board the library does not hold, from intake to a judged second job: a new user opens a job on it with a
 // 4 MB photo, marks six test points and three sections from templates (values typed from the part markings),
-// saves the draft and sees the computed expected values on the points, publishes, and a second job on the
-// board gets verdicts and a ranking. The spec makes its own customer and jobs.
+// saves the draft and sees the computed expected values on the points, publishes, records a known-good board
+// (its measured band shown beside the computed one), and a second job on the board gets verdicts and a ranking. The spec makes its own customer and jobs.
 test('a board not in the library: photo, six points, three template sections, a draft, a model, a judged second job', async ({ page }) => {
   test.setTimeout(150_000);
   await page.setViewportSize({ width: 1280, height: 900 });
@@ -90,13 +90,12 @@ test('a board not in the library: photo, six points, three template sections, a 
   await expect(page.getByRole('list', { name: 'Expected at TP4' })).toContainText(/DC V, powered: 1[45](\.\d+)? V.*MC7800/);
   await shot(page, 'capture-draft');
 
-  // Known-good reference set: the step that records one for this board goes here, once reference sets exist.
-
   await page.getByRole('button', { name: 'Publish as a new version' }).click();
-  await expect(page.getByText('Published as version 2.')).toBeVisible({ timeout: 60_000 });
-
-  // A second job on the board is judged against the published model and ranked.
+  await expect(page.getByText('Published as version 2.')).toBeVisible({ timeout: 30_000 });
   const first = await getJson<JobDetail>(page, `/jobs/${firstJobId}`);
+
+  // A second job on the board is judged against the published model; its first ranking (seconds of the engine's
+  // time) is asked for now and computed while the known-good board is recorded.
   const second = await fetchInPage(page, '/jobs', { method: 'POST', body: { customerId, unitDescription: 'Wall unit, indoor', boardId: first.boardId, symptom: 'Fan never starts' } });
   expect(second.status).toBe(201);
   const jobId = (second.body as { id: string }).id;
@@ -105,6 +104,22 @@ test('a board not in the library: photo, six points, three template sections, a 
   });
   expect(reading.status).toBe(201);
   expect((reading.body as { verdict: { verdict: string } }).verdict.verdict).toBe('low');
+  const ranking = page.request.get(`/api/jobs/${jobId}/diagnosis`);
+
+  // Known-good reference set: a good board of this model read at two points; the board page shows the measured
+  // band beside the computed one, each labelled with where it comes from.
+  await page.goto(`/boards/${first.boardId}`);
+  await page.getByText('Record a known-good board').click();
+  await page.getByLabel('Board serial').fill(`GOOD-${suffix}`);
+  await page.getByLabel('15 V rail DC V powered', { exact: true }).fill('14.8');
+  await page.getByLabel('DC bus + (bulk capacitor) DC V powered', { exact: true }).fill('322');
+  await page.getByRole('button', { name: 'Save as a known-good reference' }).click();
+  await expect(page.getByText(`1 known-good board recorded: GOOD-${suffix}.`)).toBeVisible();
+  const rail = page.getByRole('row').filter({ hasText: '15 V rail' }).filter({ hasText: 'median' });
+  await expect(rail).toContainText(/median 14\.8 V .*1 board/);
+  await expect(rail.getByRole('cell').nth(2)).toContainText(/1[45](\.\d+)? V/);
+
+  expect((await ranking).ok()).toBe(true);
   await page.goto(`/jobs/${jobId}`);
   await expect(page.getByRole('heading', { name: 'Probable faulty parts' })).toBeVisible({ timeout: 60_000 });
   await expect(page.getByText('No model for this board yet')).toHaveCount(0);

@@ -31,6 +31,7 @@ import { serviceTermsRoutes } from './features/service-terms';
 import { partsBinRoutes } from './features/parts-bin';
 import { meterImportRoutes } from './features/meter-import';
 import { shopStatsRoutes } from './features/shop-stats';
+import { benchMeterRoutes } from './features/bench-meter';
 import { errorHandler, notFoundApi } from './http/errors';
 import { hostAllowList } from './http/host';
 import { originCheck } from './http/origin';
@@ -97,6 +98,7 @@ export function createApp(ctx: AppContext): Express {
   api.use(partsBinRoutes(ctx));
   api.use(meterImportRoutes(ctx));
   api.use(shopStatsRoutes(ctx));
+  api.use(benchMeterRoutes(ctx));
   api.use(notFoundApi);
   app.use('/api', api);
 

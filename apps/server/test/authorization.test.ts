@@ -71,6 +71,7 @@ const TABLE: Entry[] = [
   { method: 'PATCH', path: '/api/boards/:id', roles: REVIEWERS, kind: 'board', body: () => ({ document: DIVIDER_BOARD }) },
   { method: 'GET', path: '/api/boards/versions/:id/picture', roles: ALL, kind: 'drawnVersion' },
   { method: 'GET', path: '/api/boards/:id/versions', roles: ALL, kind: 'board' },
+  { method: 'PUT', path: '/api/boards/versions/:id/document', roles: REVIEWERS, kind: 'drawnVersion', body: () => ({ document: DIVIDER_BOARD }) },
   { method: 'GET', path: '/api/fault-codes', roles: ALL },
   { method: 'POST', path: '/api/fault-codes', roles: REVIEWERS },
   // No fault code or drawer has the id `:id`: a role past the guard gets its 404.
@@ -99,6 +100,12 @@ const TABLE: Entry[] = [
   { method: 'POST', path: '/api/jobs/:id/meter-import/preview', roles: BENCH, kind: 'job', body: meterImportBody },
   { method: 'POST', path: '/api/jobs/:id/meter-import', roles: BENCH, kind: 'job', body: meterImportBody },
   { method: 'GET', path: '/api/stats', roles: REVIEWERS },
+  { method: 'GET', path: '/api/jobs/:id/bench-meter', roles: ALL, kind: 'job' },
+  { method: 'POST', path: '/api/jobs/:id/bench-meter', roles: ALL, kind: 'job', body: () => ({ mode: 'dcv', red: 'TP2', black: '0', power: 'on' }) },
+  { method: 'DELETE', path: '/api/jobs/:id/bench-meter', roles: ALL, kind: 'job' },
+  { method: 'GET', path: '/api/bench-meter/next', roles: ALL },
+  // A bridge sends answers only for requests of its own person: no request has the id `:armId`.
+  { method: 'POST', path: '/api/bench-meter/requests/:armId/reading', roles: ALL, body: () => ({ answer: '+1.5E+01' }), own: { admin: 404, lead: 404, tech: 404, trainee: 404 } },
   { method: 'GET', path: '/api/jobs', roles: ALL },
   { method: 'POST', path: '/api/jobs', roles: BENCH },
   { method: 'GET', path: '/api/jobs/:id', roles: ALL, kind: 'job' },

@@ -2,12 +2,20 @@
  * Splitscope circuit command line.
  *   circuit op FILE.cir
  *   circuit read FILE.cir --mode ohm --red vfan --black 0 [--power off|on] [--lift C2,C3] [--param FAN_ON=0]
- * Prints JSON on stdout; exit 0 on success, 2 with a one-line message on bad input.
- * Further subcommands (e.g. `diagnose`) register in `commands` below.
+ * Prints JSON on stdout; exit 0 on success, 2 with a one-line message on bad input. (Diagnosis has its own command,
+ * packages/diagnosis/src/cli.ts: the engine above this package.)
+ * It imports the modules it uses, not the package entry, so the expression engine (mathjs, slower to load than all
+ * the rest) loads only for a netlist with {expressions} or .param values (`withExpressions`): `circuit op` on a plain
+ * netlist starts in a fraction of the time.
  */
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { applyState, flatten, MeasurementError, NetlistError, parseNetlist, read, solveOp, type MeterMode, type Netlist } from './index';
+import { ExpressionEngineMissing } from './expressions';
+import { flatten } from './flatten';
+import { applyState, MeasurementError, read, type MeterMode } from './meter';
+import { parseNetlist } from './netlist';
+import { NetlistError, type Netlist } from './netlist-types';
+import { solveOp } from './solver';
 
 /** Bad input: printed as one line, exit code 2. */
 export class UsageError extends Error {}
@@ -56,13 +64,26 @@ function parseParams(spec: string | undefined): Record<string, number> {
   return out;
 }
 
+/** Runs f; when it meets an expression before the engine is loaded, loads the engine and runs f again (f is pure). */
+async function withExpressions<T>(f: () => T): Promise<T> {
+  try {
+    return f();
+  } catch (err) {
+    if (!(err instanceof ExpressionEngineMissing)) throw err;
+    await import('./mathjs-engine');
+    return f();
+  }
+}
+
 const op: Command = (args) => {
   const { positional, flags } = parseFlags(args, ['param']);
   const nl = loadNetlist(positional[0]);
-  const circuit = flatten(nl, parseParams(flags.param));
-  const r = solveOp(circuit);
-  if (!r.converged) return { converged: false, message: r.message };
-  return { converged: true, nodes: r.nodes, sources: r.sources };
+  const params = parseParams(flags.param);
+  return withExpressions(() => {
+    const r = solveOp(flatten(nl, params));
+    if (!r.converged) return { converged: false, message: r.message };
+    return { converged: true, nodes: r.nodes, sources: r.sources };
+  });
 };
 
 const MODES: readonly MeterMode[] = ['dcv', 'ohm', 'diode', 'continuity'];
@@ -76,23 +97,25 @@ const readCmd: Command = (args) => {
   const power = flags.power ?? (mode === 'dcv' ? 'on' : 'off');
   if (power !== 'on' && power !== 'off') throw new UsageError('--power must be on or off');
   const lifted = flags.lift ? flags.lift.split(',').map((s) => s.trim()).filter(Boolean) : [];
-  const reading = read(nl, { mode, red: flags.red, black: flags.black, power, lifted, params: parseParams(flags.param) });
-  return reading.beep === undefined ? { value: reading.value, unit: reading.unit } : reading;
+  const params = parseParams(flags.param);
+  return withExpressions(() => {
+    const reading = read(nl, { mode, red: flags.red as string, black: flags.black as string, power, lifted, params });
+    return reading.beep === undefined ? { value: reading.value, unit: reading.unit } : reading;
+  });
 };
 
-/** Subcommands by name. A `diagnose` command (from @splitscope/diagnosis) is registered here. */
+/** Subcommands by name. */
 export const commands: Record<string, Command> = {
   op,
   read: readCmd,
-  diagnose: (args) => import('./cli/diagnose').then((m) => m.diagnose(args)),
   // state: an `applyState` view for debugging: the elements left in a board state
   state: (args) => {
     const { positional, flags } = parseFlags(args, ['power', 'lift', 'param']);
     const nl = loadNetlist(positional[0]);
     const power = flags.power ?? 'off';
     if (power !== 'on' && power !== 'off') throw new UsageError('--power must be on or off');
-    const c = applyState(nl, { power, lifted: flags.lift ? flags.lift.split(',') : [], params: parseParams(flags.param) });
-    return { elements: c.elements.map((e) => e.name) };
+    const params = parseParams(flags.param);
+    return withExpressions(() => ({ elements: applyState(nl, { power, lifted: flags.lift ? flags.lift.split(',') : [], params }).elements.map((e) => e.name) }));
   },
 };
 

@@ -1,5 +1,5 @@
 /** Junction models of the diode and the BJT (ngspice dioload / bjtload forms) and their stamps. */
-import type { Topology, Work } from './compile';
+import type { Topology, Work } from './system';
 
 /** Thermal voltage kT/q at 27 °C (300.15 K) with the constants ngspice uses (CONSTboltz, CHARGE). */
 export const VT = (1.38064852e-23 * 300.15) / 1.6021766208e-19;

@@ -1,60 +1,9 @@
-import { create, all, type EvalFunction } from 'mathjs';
 import type { Circuit, Element } from './circuit';
 import { normNode, REFERENCE } from './circuit';
 import { bjtModel, diodeModel } from './models';
-import { NetlistError, type ModelDef, type Netlist, type ParamDef, type RawElement, type RawValue, type SubcktDef } from './netlist';
+import { NetlistError, type ModelDef, type Netlist, type ParamDef, type RawElement, type RawValue, type SubcktDef } from './netlist-types';
 import { nodesWithoutDcPath } from './topology';
-import { rewriteSuffixedNumbers } from './values';
-
-const math = create(all as NonNullable<typeof all>, {});
-const evaluateExpr = math.evaluate;
-const parseExpr = math.parse;
-// Expressions come from netlists users upload: disable the functions that change mathjs itself
-// (mathjs documentation, "Security").
-math.import(
-  {
-    import: () => {
-      throw new Error('import is disabled');
-    },
-    createUnit: () => {
-      throw new Error('createUnit is disabled');
-    },
-    evaluate: () => {
-      throw new Error('evaluate is disabled');
-    },
-    parse: () => {
-      throw new Error('parse is disabled');
-    },
-  },
-  { override: true },
-);
-void evaluateExpr;
-
-const compiled = new Map<string, EvalFunction>();
-
-function evalExpr(expr: string, scope: Map<string, number>, line: number, what: string): number {
-  let fn = compiled.get(expr);
-  if (!fn) {
-    try {
-      fn = parseExpr(rewriteSuffixedNumbers(expr.toLowerCase())).compile();
-    } catch (err) {
-      throw new NetlistError(line, `${what}: cannot parse {${expr}}: ${(err as Error).message}`);
-    }
-    if (compiled.size > 5000) compiled.clear();
-    compiled.set(expr, fn);
-  }
-  let v: unknown;
-  try {
-    v = fn.evaluate(new Map(scope));
-  } catch (err) {
-    throw new NetlistError(line, `${what}: cannot evaluate {${expr}}: ${(err as Error).message}`);
-  }
-  if (typeof v === 'boolean') return v ? 1 : 0;
-  if (typeof v !== 'number' || !Number.isFinite(v)) {
-    throw new NetlistError(line, `${what}: {${expr}} does not give a finite number`);
-  }
-  return v;
-}
+import { evalExpr } from './expressions';
 
 function value(v: RawValue, scope: Map<string, number>, line: number, what: string): number {
   return v.kind === 'number' ? v.value : evalExpr(v.expr, scope, line, what);

@@ -2,8 +2,12 @@
  * @splitscope/circuit — netlist parsing, flattening, DC operating point and meter models.
  * Public surface: docs/decisions/0001-engine-api.md (plus the helpers exported below).
  */
-export { parseNetlist, NetlistError } from './netlist';
-export type { Netlist, RawElement, RawValue, ModelDef, ParamDef, SubcktDef, ElementLetter, ParseOptions } from './netlist';
+// registers the expression engine of {expressions} and .param values (expressions.ts)
+import './mathjs-engine';
+export { parseNetlist } from './netlist';
+export type { ParseOptions } from './netlist';
+export { NetlistError } from './netlist-types';
+export type { Netlist, RawElement, RawValue, ModelDef, ParamDef, SubcktDef, ElementLetter } from './netlist-types';
 export { flatten } from './flatten';
 export type { FlattenOptions } from './flatten';
 export {

@@ -1,7 +1,7 @@
 import type { Circuit, Element } from './circuit';
 import { normNode, REFERENCE } from './circuit';
 import { flatten } from './flatten';
-import type { Netlist } from './netlist';
+import type { Netlist } from './netlist-types';
 import { VT } from './devices';
 import { solveNodes, type NodeSolution, type SolveOptions } from './solver';
 

@@ -7,7 +7,8 @@
  */
 import type { BjtModel, DiodeModel } from './circuit';
 import { DEFAULT_BJT, DEFAULT_DIODE } from './circuit';
-import { NetlistError, NOMINAL_TEMP, type ModelDef } from './netlist';
+import { NOMINAL_TEMP } from './netlist';
+import { NetlistError, type ModelDef } from './netlist-types';
 
 /** Diode parameters without effect at DC and 27 °C (README lists them). */
 export const DIODE_IGNORED = [

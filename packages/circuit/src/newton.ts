@@ -2,7 +2,7 @@
  * One Newton–Raphson run on a compiled system: each iteration copies the linear stamps, adds the companion models
  * of the junctions at the limited junction voltages, factors along the sparse LU program and checks convergence.
  */
-import type { Topology, Work } from './compile';
+import type { Topology, Work } from './system';
 import { stampJunctions } from './devices';
 import { luColumnScale, luFactor, luProgramFactor, luProgramSolve, luProgramToDense, luSolve, luWorkspace } from './lu';
 import { repivot, repivotSolve } from './repivot';

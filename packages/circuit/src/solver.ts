@@ -1,5 +1,5 @@
 import type { Circuit } from './circuit';
-import type { Topology, Work } from './compile';
+import type { Topology, Work } from './system';
 import { stampValues } from './stamp';
 import { topologyOf } from './structure-cache';
 import { bq, GMIN, gummelPoon, junction, jv } from './devices';

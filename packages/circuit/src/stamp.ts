@@ -1,6 +1,6 @@
 /** Per-solve values: the linear stamps, sources and device parameters written into a compiled topology. */
 import type { Element } from './circuit';
-import type { Topology, Work } from './compile';
+import type { Topology, Work } from './system';
 import { breakdownVoltage, criticalVoltage, GISLAND, GMIN, VT } from './devices';
 import { luColumnScale } from './lu';
 

@@ -5,7 +5,7 @@
  * the last resort (Kelley & Keyes, "Convergence analysis of pseudo-transient continuation", SIAM J. Numer. Anal.
  * 35, 1998; Najm, "Circuit Simulation", Wiley 2010, ch. 5 on homotopy and continuation methods).
  */
-import type { Topology, Work } from './compile';
+import type { Topology, Work } from './system';
 import { newton, type AttemptConfig, type AttemptResult } from './newton';
 
 export type SolveMethod = 'linear' | 'newton' | 'damped' | 'gmin' | 'source' | 'ptc';

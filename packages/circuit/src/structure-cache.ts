@@ -2,7 +2,8 @@
  * The cache of compiled topologies, keyed by a circuit's structure (see compile.ts for what a topology holds).
  */
 import type { Circuit, Element } from './circuit';
-import { compileTopology, type Topology } from './compile';
+import { compileTopology } from './compile';
+import type { Topology } from './system';
 
 /**
  * The structure of a circuit as integers: per element its kind and node count, its nodes, and the names that

@@ -61,6 +61,12 @@ export const boardDetailSchema = boardSummarySchema.extend({
   pictureUrl: z.string().nullable(),
   expectedReadings: z.array(expectedReadingSchema),
   faultCodes: z.array(faultCodeSchema),
+  /**
+   * Set when the stored document of this version fails the schema even after the in-memory upgrade: `document` is
+   * then the board as its photo and the test points that still read (readings recorded, not judged), `message` the
+   * schema's complaint and `stored` the document as stored, for the lead who corrects it.
+   */
+  modelProblem: z.object({ message: z.string(), stored: z.unknown() }).nullable().optional(),
 });
 export type BoardDetail = z.infer<typeof boardDetailSchema>;
 
@@ -75,6 +81,10 @@ export type CreateBoardRequest = z.infer<typeof createBoardRequest>;
 /** Editing a board model stores a new version; jobs keep the version they pinned. */
 export const updateBoardRequest = z.object({ document: boardDocumentSchema, note: optionalText(500) });
 export type UpdateBoardRequest = z.infer<typeof updateBoardRequest>;
+
+/** A lead's corrected form of a stored version the schema rejects; a version that reads is never rewritten. */
+export const correctBoardVersionRequest = z.object({ document: boardDocumentSchema });
+export type CorrectBoardVersionRequest = z.infer<typeof correctBoardVersionRequest>;
 
 export const boardVersionSchema = z.object({
   versionId: idSchema,

@@ -79,7 +79,7 @@ export const priorReasonSchema = z.object({
 });
 export type PriorReason = z.infer<typeof priorReasonSchema>;
 
-/** The output of `circuit diagnose` for a job's current readings, plus where it came from. */
+/** The output of `pnpm diagnose` for a job's current readings, plus where it came from. */
 export const diagnosisResponse = z.object({
   jobId: idSchema,
   boardVersionId: idSchema,

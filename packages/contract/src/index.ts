@@ -30,3 +30,4 @@ export * from './references';
 export * from './shop-memory';
 export * from './meter-import';
 export * from './shop-stats';
+export * from './bench-meter';

@@ -144,3 +144,13 @@ const REPORT_READY: readonly JobStatus[] = ['verified', 'returned'];
 
 /** The repair report goes to the customer once the repair is signed off. */
 export const reportReady = (status: JobStatus): boolean => REPORT_READY.includes(status);
+
+/** Who may take readings through a bench meter: everyone who takes readings (the reading write applies its own rules). */
+export const benchMeterRoles: readonly Role[] = ROLES.everyone;
+export const mayUseBenchMeter = (role: Role | null | undefined): boolean => hasRole(role, benchMeterRoles);
+
+/**
+ * A request is served only by a bridge signed in as the person who asked for it, in their shop: the reading is
+ * theirs, under their role's rules. Anyone else's bridge is told there is no such request.
+ */
+export const mayServeBenchMeterArm = (actor: { id: string; shopId: string }, arm: { userId: string; shopId: string }): boolean => actor.id === arm.userId && actor.shopId === arm.shopId;

@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { request, type APIRequestContext } from '@playwright/test';
-import { BOARD_MODEL_SCHEMA_VERSION } from '@splitscope/contract';
+import { DIVIDER_BOARD } from '../../../apps/server/src/testing/boards';
 import { readingRequest } from '../../../apps/server/src/testing/requests';
 import { DEMO_PASSWORD, expect } from '../fixtures';
 
@@ -24,31 +24,9 @@ export async function send<T = Record<string, unknown>>(ctx: APIRequestContext, 
   return (await res.json()) as T;
 }
 
-/** An invented board of the spec's own: a 15 V rail through a 10k/10k divider (TP1 rail, TP2 divider). */
+/** The shared invented divider board (TP1 15 V rail, TP2 divider) under a key and name of the spec's own. */
 export function dividerBoard(tag: string) {
-  return {
-    schemaVersion: BOARD_MODEL_SCHEMA_VERSION,
-    id: `e2e-divider-${tag}`,
-    slug: `e2e-divider-${tag}`,
-    name: `Divider test board ${tag}`,
-    family: 'Tests',
-    maker: 'Invented',
-    picture: { width: 400, height: 300, units: 'px' },
-    netlist: '* invented test board\nVS in 0 DC 15\nR1 in mid 10k\nR2 mid 0 10k\n.end\n',
-    parts: [
-      { designator: 'R1', element: 'R1', kind: 'resistor', value: '10k', package: '0805', x: 100, y: 100, section: 'div', pins: [{ pin: '1', net: 'in' }, { pin: '2', net: 'mid' }] },
-      { designator: 'R2', element: 'R2', kind: 'resistor', value: '10k', package: '0805', x: 200, y: 100, section: 'div', pins: [{ pin: '1', net: 'mid' }, { pin: '2', net: '0' }] },
-    ],
-    nets: [
-      { name: 'in', label: '15 V rail', side: 'hot', reference: '0' },
-      { name: 'mid', label: 'divider', side: 'hot', reference: '0' },
-    ],
-    testPoints: [
-      { id: 'TP1', net: 'in', label: '15 V rail', reference: '0', x: 80, y: 150, powerStates: ['on'], modes: ['dcv'], section: 'div', touchesBus: false },
-      { id: 'TP2', net: 'mid', label: 'divider', reference: '0', x: 180, y: 150, powerStates: ['on'], modes: ['dcv'], section: 'div', touchesBus: false },
-    ],
-    faultCodes: [],
-  };
+  return { ...DIVIDER_BOARD, id: `e2e-divider-${tag}`, slug: `e2e-divider-${tag}`, name: `Divider test board ${tag}` };
 }
 
 /** The spec's own board model and customer. */

@@ -1,13 +1,16 @@
 // Factories shared by the demo seed and the tests: one way to make a shop or a user.
 import { eq } from 'drizzle-orm';
-import { BOARD_MODEL_SCHEMA_VERSION, boardModelSchema, type BoardModel, type CreateJobRequest, type Role } from '@splitscope/contract';
+import type { BoardModel, CreateJobRequest, Role } from '@splitscope/contract';
 import { hashPassword } from '../auth/password';
 import type { Db } from '../db/client';
 import { boardModels, customers, jobs, shops, users } from '../db/schema';
 import { createBoard } from '../features/boards/service';
 import { createJob as createJobService } from '../features/jobs/service';
 import { newId } from '../lib/ids';
+import { DIVIDER_BOARD } from './boards';
 import { CUSTOMER_DEFAULTS, JOB_DEFAULTS } from './requests';
+
+export { DIVIDER_BOARD };
 
 export async function createShop(db: Db, overrides: Partial<typeof shops.$inferInsert> = {}) {
   const row = { id: newId(), name: 'Test Bench Shop', ...overrides };
@@ -30,31 +33,6 @@ export async function createUser(
   await db.insert(users).values(row).onConflictDoNothing();
   return row;
 }
-
-/** A small invented board: a 15 V rail through a 10k/10k divider, two test points. */
-export const DIVIDER_BOARD: BoardModel = boardModelSchema.parse({
-  schemaVersion: BOARD_MODEL_SCHEMA_VERSION,
-  id: 'test-divider',
-  slug: 'test-divider',
-  name: 'Test divider board',
-  family: 'Tests',
-  maker: 'Invented',
-  picture: { width: 400, height: 300, units: 'px' },
-  netlist: '* invented test board\nVS in 0 DC 15\nR1 in mid 10k\nR2 mid 0 10k\n.end\n',
-  parts: [
-    { designator: 'R1', element: 'R1', kind: 'resistor', value: '10k', package: '0805', x: 100, y: 100, section: 'div', pins: [{ pin: '1', net: 'in' }, { pin: '2', net: 'mid' }] },
-    { designator: 'R2', element: 'R2', kind: 'resistor', value: '10k', package: '0805', x: 200, y: 100, section: 'div', pins: [{ pin: '1', net: 'mid' }, { pin: '2', net: '0' }] },
-  ],
-  nets: [
-    { name: 'in', label: '15 V rail', side: 'hot', reference: '0' },
-    { name: 'mid', label: 'divider', side: 'hot', reference: '0' },
-  ],
-  testPoints: [
-    { id: 'TP1', net: 'in', label: '15 V rail', reference: '0', x: 80, y: 150, powerStates: ['on'], modes: ['dcv'], section: 'div', touchesBus: false },
-    { id: 'TP2', net: 'mid', label: 'divider', reference: '0', x: 180, y: 150, powerStates: ['on'], modes: ['dcv'], section: 'div', touchesBus: false },
-  ],
-  faultCodes: [{ code: 'T1', meaning: 'Rail missing (invented)', suspectSections: [] }],
-});
 
 export async function createCustomer(db: Db, overrides: Partial<typeof customers.$inferInsert> & { shopId: string }) {
   const row = { id: newId(), ...CUSTOMER_DEFAULTS, ...overrides };

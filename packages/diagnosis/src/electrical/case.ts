@@ -1,5 +1,5 @@
 /**
- * Diagnosis cases: their shape and validation, and the output shape of a diagnosis (`circuit diagnose`, the
+ * Diagnosis cases: their shape and validation, and the output shape of a diagnosis (`pnpm diagnose`, the
  * server's diagnosis). The diagnoser itself is in diagnoser.ts.
  */
 import type { MeterProfile, Netlist } from '@splitscope/circuit';

@@ -38,3 +38,25 @@ export function upgradeV1InMemory(doc: Json): { document: Json; photo: Buffer | 
 /** A stored document below the current schema version (version 1 has no `schemaVersion`). */
 export const isOlderDocument = (doc: unknown): boolean =>
   isRecord(doc) && (typeof doc.schemaVersion !== 'number' || doc.schemaVersion < BOARD_MODEL_SCHEMA_VERSION);
+
+/** The caution every board without a model carries: its bus is not modelled, so nothing says it is safe. */
+export const BUS_CAUTION =
+  'Mains and the ~300 V DC bus can kill, and the bulk capacitor holds its charge after the board is unplugged. Discharge and measure the bus before any unpowered test; follow local codes and licensed practice.';
+
+/**
+ * What can be shown of a stored document the schema rejects even after the upgrade above: the board as its
+ * picture and the test points that still read, with no sections or parts, so it reads as a board without a model
+ * (readings recorded, not judged) until a lead stores a corrected form. `board` names it when the document cannot.
+ */
+export function photoOnlyForm(doc: unknown, board: { key: string; name: string }, pointOk: (tp: unknown) => boolean): Json {
+  const raw = isRecord(doc) ? (isOlderDocument(doc) ? upgradeV1InMemory(doc).document : doc) : {};
+  const pic = isRecord(raw.picture) ? raw.picture : {};
+  const size = (x: unknown, d: number) => (typeof x === 'number' && x > 0 && x <= 20_000 ? x : d);
+  const slug = /^[a-z0-9][a-z0-9-]{0,63}$/.test(board.key) ? board.key : 'board';
+  return {
+    schemaVersion: BOARD_MODEL_SCHEMA_VERSION, id: board.key.slice(0, 64) || 'board', slug, name: board.name.slice(0, 200) || 'Board', family: '', maker: '',
+    picture: { ...(typeof pic.uploadId === 'string' ? { uploadId: pic.uploadId } : {}), width: size(pic.width, 1000), height: size(pic.height, 750), units: pic.units === 'mm' ? 'mm' : 'px' },
+    sections: [], netlist: '* stored model awaiting a corrected form\n.end\n', params: {}, parts: [], nets: [], connectors: [],
+    testPoints: Array.isArray(raw.testPoints) ? raw.testPoints.filter(pointOk) : [], faultCodes: [], cautions: [BUS_CAUTION],
+  };
+}

@@ -5,9 +5,9 @@
 import { expectedReadings, type BandFn, type ExpectedReadingsInput, type ExpectedReadingsTestPoint } from '@splitscope/boards/readings';
 import { meterProfileById, normNode, refusal, type MeterProfile } from '@splitscope/circuit';
 import { bandOf, CaseError, createDiagnoser, verdictOf, type CasePart, type Diagnoser, type ReadingValue, type TestPoint } from '@splitscope/diagnosis';
-import { boardModelSchema, unitOf, type BoardModel, type BoardPartKind, type ExpectedReadingRow, type MeterModeName, type MeterProfileId, type PowerState, type ReadingVerdict } from '@splitscope/contract';
+import { boardModelSchema, boardTestPointSchema, unitOf, type BoardModel, type BoardPartKind, type ExpectedReadingRow, type MeterModeName, type MeterProfileId, type PowerState, type ReadingVerdict } from '@splitscope/contract';
 import { AppError } from '../../http/errors';
-import { isOlderDocument, upgradeV1InMemory } from './document-form';
+import { isOlderDocument, photoOnlyForm, upgradeV1InMemory } from './document-form';
 import { LRUCache } from 'lru-cache';
 
 export interface BoardTestPoint extends TestPoint {
@@ -25,6 +25,8 @@ export interface BoardEngine {
   diagnoser: Diagnoser;
   /** The expected-readings table, computed on first use. */
   expected?: ExpectedReadingRow[];
+  /** Set when the stored document cannot be read: the schema's complaint and the test points readings go on. */
+  unreadable?: { problem: string; points: string[] };
 }
 
 /**
@@ -80,6 +82,21 @@ export function readBoardModel(doc: unknown): BoardModel {
   throw new AppError('invalid', `The board model does not match the board-model schema: ${path}: ${issue.message}`, { errors: [{ path, message: issue.message }] });
 }
 
+/**
+ * A stored version's document for showing and recording: the model, or, when the schema rejects it even after the
+ * in-memory upgrade, the board as a photo with the test points that still read (no sections, no parts: readings
+ * are recorded, not judged) and the schema's complaint, so a job on it still opens and a lead can correct it.
+ */
+export function readStoredBoardModel(doc: unknown, board: { key: string; name: string }): { model: BoardModel; problem: string | null } {
+  try {
+    return { model: readBoardModel(doc), problem: null };
+  } catch (err) {
+    if (!(err instanceof AppError)) throw err;
+    const form = photoOnlyForm(doc, board, (tp) => boardTestPointSchema.safeParse(tp).success);
+    return { model: boardModelSchema.parse(form), problem: err.message };
+  }
+}
+
 /** Builds the engine view of a board model; a model the engines cannot use is a 422 naming why. */
 export function buildBoardEngine(versionId: string, model: BoardModel): BoardEngine {
   const { netlist, params } = model;
@@ -114,7 +131,14 @@ export function takeDroppedEngines(): string[] {
 export function boardEngine(versionId: string, doc: unknown, storedTable?: unknown): BoardEngine {
   const hit = cachedBoardEngine(versionId);
   if (hit) return hit;
-  const built = buildBoardEngine(versionId, readBoardModel(doc));
+  const stored = readStoredBoardModel(doc, { key: versionId, name: 'board' });
+  if (stored.problem) {
+    // No sections or parts: nothing is judged. Its points are the test points that still read. Not cached, so
+    // the corrected form a lead stores for this version is what the next call builds.
+    const { testPoints, ...rest } = stored.model;
+    return { ...buildBoardEngine(versionId, { ...rest, testPoints: [] }), unreadable: { problem: stored.problem, points: testPoints.map((t) => t.id) } };
+  }
+  const built = buildBoardEngine(versionId, stored.model);
   if (Array.isArray(storedTable) && storedTable.length > 0) built.expected = storedTable as ExpectedReadingRow[];
   cache.set(versionId, built);
   return built;

@@ -4,6 +4,7 @@ import {
   boardDetailSchema,
   boardListResponse,
   boardVersionListResponse,
+  correctBoardVersionRequest,
   createBoardRequest,
   createFaultCodeRequest,
   faultCodeListQuery,
@@ -16,7 +17,7 @@ import {
 import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';
-import { createBoard, createFaultCode, deleteFaultCode, findBoards, findBoardVersions, findFaultCodes, getBoard, getBoardDrawing, updateBoard, updateFaultCode } from './service';
+import { correctBoardVersion, createBoard, createFaultCode, deleteFaultCode, findBoards, findBoardVersions, findFaultCodes, getBoard, getBoardDrawing, updateBoard, updateFaultCode } from './service';
 
 /**
  * `onPublished` runs after a version is stored (app.ts starts the diagnosis feature's fault dictionary there). It
@@ -44,6 +45,14 @@ export function boardRoutes(ctx: AppContext, onPublished: (versionId: string) =>
     const { id } = parse(idParams, req.params);
     const { document, note } = parse(updateBoardRequest, req.body);
     const board = await updateBoard({ db: ctx.db, actor: actorOf(req), id, document, note });
+    res.json(boardDetailSchema.parse(board));
+    onPublished(board.versionId);
+  });
+  // A stored version the schema rejects is corrected in place by a lead (see correctBoardVersion).
+  r.put('/boards/versions/:id/document', requireRole(...ROLES.reviewers), async (req, res) => {
+    const { id } = parse(idParams, req.params);
+    const { document } = parse(correctBoardVersionRequest, req.body);
+    const board = await correctBoardVersion({ db: ctx.db, actor: actorOf(req), versionId: id, document });
     res.json(boardDetailSchema.parse(board));
     onPublished(board.versionId);
   });

@@ -7,7 +7,7 @@ import { boardModels, boardModelVersions, faultCodes, uploads, users } from '../
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { buildBoardEngine, expectedTable, readBoardModel } from './engine';
+import { buildBoardEngine, expectedTable, readBoardModel, readStoredBoardModel } from './engine';
 
 type BoardRow = typeof boardModels.$inferSelect;
 type VersionRow = typeof boardModelVersions.$inferSelect;
@@ -68,6 +68,17 @@ export async function getBoard({ db, shopId, id, version }: { db: Db; shopId: st
   return boardDetail(db, b, v);
 }
 
+/** A board's newest version and its document, read by the one reader; another shop's board is unknown here. */
+export async function currentBoardVersion(db: Pick<Db, 'select'>, shopId: string, boardId: string) {
+  const [row] = await db
+    .select({ b: boardModels, v: boardModelVersions })
+    .from(boardModels)
+    .innerJoin(boardModelVersions, and(eq(boardModelVersions.boardId, boardModels.id), eq(boardModelVersions.version, boardModels.currentVersion)))
+    .where(and(eq(boardModels.id, boardId), eq(boardModels.shopId, shopId)));
+  if (!row) throw new AppError('not_found', `No board model ${boardId}`);
+  return { board: row.b, version: row.v, document: readBoardModel(row.v.document) };
+}
+
 /** A pinned version by its id (for job detail). */
 export async function getBoardVersion({ db, shopId, versionId }: { db: Db; shopId: string; versionId: string }): Promise<BoardDetail> {
   const [row] = await db
@@ -102,14 +113,43 @@ export async function getBoardDrawing({ db, shopId, versionId }: { db: Db; shopI
 }
 
 async function boardDetail(db: Db, b: BoardRow, v: VersionRow): Promise<BoardDetail> {
-  const document = readBoardModel(v.document);
+  const { model: document, problem } = readStoredBoardModel(v.document, { key: b.key, name: b.name });
   return {
     ...summary(b, v),
     document,
     pictureUrl: pictureUrlOf(v.id, document),
-    expectedReadings: v.expectedReadings as ExpectedReadingRow[],
+    expectedReadings: problem ? [] : (v.expectedReadings as ExpectedReadingRow[]),
     faultCodes: await boardFaultCodes(db, b.shopId, b.id),
+    modelProblem: problem ? { message: problem, stored: v.document } : null,
   };
+}
+
+/**
+ * A lead's corrected form of a stored version the schema rejects, stored in place of it, as the start-up upgrade
+ * stores the forms it can make itself. Only an unreadable version is rewritten: nothing was ever judged against
+ * it, so jobs pinned to it keep their version and their readings, and are judged from now on. A version that
+ * reads never changes (edit the board to make a new one).
+ */
+export async function correctBoardVersion({ db, actor, versionId, document }: { db: Db; actor: Actor; versionId: string; document: BoardDocument }) {
+  const { boardId, version } = await db.transaction(async (tx) => {
+    const [row] = await tx
+      .select({ b: boardModels, v: boardModelVersions })
+      .from(boardModelVersions)
+      .innerJoin(boardModels, eq(boardModels.id, boardModelVersions.boardId))
+      .where(and(eq(boardModelVersions.id, versionId), eq(boardModels.shopId, actor.shopId)))
+      .for('update');
+    if (!row) throw new AppError('not_found', `No board model version ${versionId}`);
+    if (!readStoredBoardModel(row.v.document, row.b).problem) {
+      throw new AppError('conflict', `Version ${row.v.version} of ${row.b.name} reads as it is and never changes; edit the board to make a new version`);
+    }
+    const prepared = await prepareVersion(tx, actor.shopId, document);
+    if (prepared.key !== row.b.key) {
+      throw new AppError('invalid', `The document's id "${prepared.key}" is not this board model's ("${row.b.key}")`, { errors: [{ path: 'document.id', message: `must be ${row.b.key}` }] });
+    }
+    await tx.update(boardModelVersions).set({ document, expectedReadings: prepared.expectedReadings }).where(eq(boardModelVersions.id, versionId));
+    return { boardId: row.b.id, version: row.v.version };
+  });
+  return getBoard({ db, shopId: actor.shopId, id: boardId, version });
 }
 
 export async function createBoard({ db, actor, document, note, id }: { db: Db; actor: Pick<Actor, 'id' | 'shopId'>; document: BoardDocument; note?: string | null; id?: string }) {

@@ -8,14 +8,11 @@ import {
 } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
-import { boardDrafts, boardModels, boardModelVersions, uploads, users } from '../../db/schema';
+import { boardDrafts, boardModelVersions, uploads, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
-import { buildBoardEngine, createBoard, expectedTable, readBoardModel, updateBoard } from '../boards';
-
-const CAUTION =
-  'Mains and the ~300 V DC bus can kill, and the bulk capacitor holds its charge after the board is unplugged. Discharge and measure the bus before any unpowered test; follow local codes and licensed practice.';
+import { BUS_CAUTION, buildBoardEngine, createBoard, currentBoardVersion, expectedTable, updateBoard } from '../boards';
 
 
 const slugOf = (text: string) => text.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 40) || 'board';
@@ -36,19 +33,9 @@ export async function createUnlistedBoard({ db, actor, input }: { db: Db; actor:
     description: 'Photographed at intake; no model yet.',
     picture: { uploadId: input.photo.uploadId, width: input.photo.width, height: input.photo.height, units: 'px' },
     sections: [], netlist: `* ${name.replace(/\n/g, ' ')}: photographed at intake, no model yet\n.end\n`, params: {},
-    parts: [], nets: [], connectors: [], testPoints: [], faultCodes: [], cautions: [CAUTION],
+    parts: [], nets: [], connectors: [], testPoints: [], faultCodes: [], cautions: [BUS_CAUTION],
   };
   return createBoard({ db, actor, document, note: 'Board photographed at intake' });
-}
-
-async function boardOf(db: Db, shopId: string, boardId: string) {
-  const [row] = await db
-    .select({ b: boardModels, v: boardModelVersions })
-    .from(boardModels)
-    .innerJoin(boardModelVersions, and(eq(boardModelVersions.boardId, boardModels.id), eq(boardModelVersions.version, boardModels.currentVersion)))
-    .where(and(eq(boardModels.id, boardId), eq(boardModels.shopId, shopId)));
-  if (!row) throw new AppError('not_found', `No board model ${boardId}`);
-  return { board: row.b, document: readBoardModel(row.v.document) };
 }
 
 type DraftResult = Omit<BoardDraft, 'boardId' | 'capture' | 'savedAt' | 'savedByName' | 'publishedModel'>;
@@ -86,7 +73,7 @@ function evaluate(capture: BoardCapture, document: BoardDocument) {
 
 /** The board's draft; before anything is saved, a capture of its photo with nothing marked. */
 export async function getDraft({ db, shopId, boardId }: { db: Db; shopId: string; boardId: string }): Promise<BoardDraft> {
-  const { document } = await boardOf(db, shopId, boardId);
+  const { document } = await currentBoardVersion(db, shopId, boardId);
   const [row] = await db
     .select({ d: boardDrafts, name: users.name })
     .from(boardDrafts)
@@ -105,7 +92,7 @@ export async function getDraft({ db, shopId, boardId }: { db: Db; shopId: string
 
 /** Saving a draft has the engine compute every point on a modelled net; nothing is published. */
 export async function saveDraft({ db, actor, boardId, capture }: { db: Db; actor: Actor; boardId: string; capture: BoardCapture }): Promise<BoardDraft> {
-  const { document } = await boardOf(db, actor.shopId, boardId);
+  const { document } = await currentBoardVersion(db, actor.shopId, boardId);
   await ownUpload(db, actor.shopId, capture.photo.uploadId);
   const ids = new Set<string>();
   for (const p of capture.points) {
@@ -120,7 +107,7 @@ export async function saveDraft({ db, actor, boardId, capture }: { db: Db; actor
 
 /** Publishing the saved draft makes the board's next version; jobs already open keep the version they pinned. */
 export async function publishDraft({ db, actor, boardId, note }: { db: Db; actor: Actor; boardId: string; note?: string | null }) {
-  const { document } = await boardOf(db, actor.shopId, boardId);
+  const { document } = await currentBoardVersion(db, actor.shopId, boardId);
   const [row] = await db.select().from(boardDrafts).where(eq(boardDrafts.boardId, boardId));
   if (!row) throw new AppError('conflict', 'Save a draft before publishing it');
   const { model, result } = evaluate(boardCaptureSchema.parse(row.capture), document);

@@ -8,7 +8,7 @@ import { FAULT_CODE_WEIGHT, measuredBand, type BoardModel } from '@splitscope/co
 import type { FailureCount, FailureHistory, PartKind, PriorAdjustment, ReferenceBand } from '@splitscope/diagnosis';
 import type { Db } from '../../db/client';
 import { boardModelVersions, diagnosisSnapshots, faultCodes, jobs, repairActions } from '../../db/schema';
-import { readBoardModel } from '../boards';
+import { readStoredBoardModel } from '../boards';
 import { measuredPoints } from '../references';
 
 interface JobPriors {
@@ -36,7 +36,11 @@ const documents = new Map<string, BoardModel>();
 async function documentOf(versionId: string, load: () => Promise<unknown>): Promise<BoardModel> {
   let d = documents.get(versionId);
   if (!d) {
-    d = readBoardModel(await load());
+    const stored = readStoredBoardModel(await load(), { key: versionId, name: 'board' });
+    // A document the schema rejects reads as a board without parts (no priors to steer); it is not kept, so the
+    // corrected form a lead stores is what the next call reads.
+    if (stored.problem) return stored.model;
+    d = stored.model;
     documents.set(versionId, d);
     if (documents.size > 50) documents.delete(documents.keys().next().value as string);
   }

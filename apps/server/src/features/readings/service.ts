@@ -239,7 +239,12 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
     engine = boardEngine(versionId, v.document, v.expectedReadings);
   }
   // A board that is its photo only takes readings on the points marked on its photo: recorded, not judged.
-  const photoPoints = engine.testPoints.length === 0 && Object.keys(engine.parts).length === 0 ? await capturedPointIds(db, versionId) : null;
+  // So does a board whose stored model the schema rejects, on the test points of it that still read.
+  const photoPoints = engine.unreadable
+    ? new Set(engine.unreadable.points)
+    : engine.testPoints.length === 0 && Object.keys(engine.parts).length === 0
+      ? await capturedPointIds(db, versionId)
+      : null;
   const onPhoto = (name: string) => (photoPoints?.has(name.trim().toUpperCase()) ? name.trim().toUpperCase() : undefined);
   const redNet = resolveNet(engine, input.red) ?? onPhoto(input.red);
   if (!redNet) throw invalid('red', `Unknown net or test point "${input.red}" on this board model`);

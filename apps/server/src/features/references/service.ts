@@ -4,7 +4,6 @@
 import { alias } from 'drizzle-orm/pg-core';
 import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import {
-  boardModelSchema,
   boardWords,
   measuredBand,
   referenceReview,
@@ -18,10 +17,11 @@ import {
 } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
-import { boardModels, boardModelVersions, jobs, readings, readingStrikes, referenceReadings, referenceSets, repairActions, users } from '../../db/schema';
+import { boardModelVersions, jobs, readings, readingStrikes, referenceReadings, referenceSets, repairActions, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
+import { currentBoardVersion, readBoardModel } from '../boards';
 
 const norm = (n: string) => (n.trim().toLowerCase() === 'gnd' ? '0' : n.trim().toLowerCase());
 
@@ -32,16 +32,6 @@ function netOf(doc: BoardModel, point: string): string | undefined {
   const n = norm(point);
   if (n === '0' || doc.nets.some((x) => norm(x.name) === n)) return n;
   return undefined;
-}
-
-async function boardOf(db: Db, shopId: string, boardId: string) {
-  const [row] = await db
-    .select({ b: boardModels, v: boardModelVersions })
-    .from(boardModels)
-    .innerJoin(boardModelVersions, and(eq(boardModelVersions.boardId, boardModels.id), eq(boardModelVersions.version, boardModels.currentVersion)))
-    .where(and(eq(boardModels.id, boardId), eq(boardModels.shopId, shopId)));
-  if (!row) throw new AppError('not_found', `No board model ${boardId}`);
-  return { board: row.b, version: row.v, doc: boardModelSchema.parse(row.v.document) };
 }
 
 type Reading = CreateReferenceSetRequest['readings'][number];
@@ -65,7 +55,7 @@ async function storeSet(db: Db, o: { actor: Actor; boardId: string; versionId: s
 }
 
 export async function createReferenceSet({ db, actor, boardId, input }: { db: Db; actor: Actor; boardId: string; input: CreateReferenceSetRequest }) {
-  const { version, doc } = await boardOf(db, actor.shopId, boardId);
+  const { version, document: doc } = await currentBoardVersion(db, actor.shopId, boardId);
   const readingsIn = (input.readings ?? []).map((r) => ({ ...r }));
   await storeSet(db, { actor, boardId, versionId: version.id, doc, jobId: null, serial: input.serial ?? null, note: input.note ?? null, readings: readingsIn });
   return getBoardReferences({ db, shopId: actor.shopId, boardId });
@@ -93,7 +83,7 @@ export async function promoteVerification({ db, actor, jobId, note }: { db: Db; 
   ).filter((r) => r.lifted.length === 0 && r.mode !== 'continuity' && (r.overLimit || r.value !== null));
   if (rows.length === 0) throw new AppError('conflict', 'This job has no verification reading to keep as a reference (continuity and readings with a part lifted are not kept)');
   const [v] = await db.select().from(boardModelVersions).where(eq(boardModelVersions.id, job.boardVersionId));
-  const doc = boardModelSchema.parse(v!.document);
+  const doc = readBoardModel(v!.document);
   await storeSet(db, {
     actor,
     boardId: job.boardId,
@@ -127,7 +117,7 @@ export async function measuredPoints(db: Pick<Db, 'select'>, shopId: string, boa
 }
 
 export async function getBoardReferences({ db, shopId, boardId }: { db: Db; shopId: string; boardId: string }): Promise<BoardReferences> {
-  const { version, doc } = await boardOf(db, shopId, boardId);
+  const { version, document: doc } = await currentBoardVersion(db, shopId, boardId);
   const setRows = await db
     .select({ s: referenceSets, name: users.name, number: jobs.number, version: boardModelVersions.version })
     .from(referenceSets)

@@ -42,6 +42,7 @@ import { PointList } from './point-list';
 import { RankingPanel } from './ranking-panel';
 import { JobPhotos } from '@/components/photos/job-photos';
 import { ReadingPanel, type LatestReading } from './reading-panel';
+import { BenchMeter } from './bench-meter';
 import { SafetyGate } from '@/components/safety-gate';
 import { SignalChain, type ChainLink } from './signal-chain';
 import { UnsentList } from './unsent-list';
@@ -192,7 +193,8 @@ function Bench({ job }: { job: JobDetail }) {
   const probeNets = active ? { red: view.pointOf(active.red)?.net ?? active.red, black: view.pointOf(active.black)?.net ?? active.black } : undefined;
   const faultCode = job.faultCode ? job.board.faultCodes.find((f) => f.code.toLowerCase() === job.faultCode!.toLowerCase()) : undefined;
   const before = readings.length === 0 ? { code: job.faultCode, meaning: faultCode?.title ?? null, sections: (faultCode?.sections ?? []).map((id) => view.sections.find((x) => x.id === id)?.name ?? id), firstTest: step?.label ?? null } : null;
-  const entry = panelTarget && canWrite && !gateShown && <ReadingPanel target={panelTarget} latest={latest} onSave={save} error={entryError} />;
+  const meter = active && <BenchMeter jobId={job.id} role={me.data?.role} target={active} label={view.netLabel} busVolts={gateVolts} />;
+  const entry = panelTarget && canWrite && !gateShown && <ReadingPanel target={panelTarget} latest={latest} onSave={save} error={entryError} meter={meter} />;
 
   return (
     <div className="flex flex-col gap-2 lg:h-[calc(100dvh_-_5.25rem_-_var(--banner-h,0px))]">

@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState, type FormEvent } from 'react';
+import { useEffect, useRef, useState, type FormEvent, type ReactNode } from 'react';
 import { Caution } from '@/components/ui/caution';
 import { MARKER, type MarkerState } from '@/lib/map-geometry';
 import { MarkerGlyph } from '@/components/board-map/marker-glyph';
@@ -38,12 +38,15 @@ export function ReadingPanel({
   onSave,
   error,
   busy,
+  meter,
 }: {
   target: ReadingTarget;
   latest?: LatestReading | null;
   onSave: (text: string) => Promise<boolean> | boolean;
   error?: string | null;
   busy?: boolean;
+  /** The bench meter's controls: the reading taken by the meter's trigger instead of typed. */
+  meter?: ReactNode;
 }) {
   const [text, setText] = useState('');
   const field = useRef<HTMLInputElement>(null);
@@ -111,6 +114,7 @@ export function ReadingPanel({
           {continuity ? 'Type b or n and press Enter, or tap Beep / No beep.' : 'Enter saves. Prefixes k, M, m, u and codes like 4k7 work; OL for overload.'}
         </p>
       </form>
+      {meter}
       {error && (
         <p role="alert" className="rounded-md bg-red-50 p-2 text-sm text-high">
           {error}

@@ -1,4 +1,4 @@
-import { canMarkBoards, type JobDetail, type MeterModeName } from '@splitscope/contract';
+import { canMarkBoards, hasRole, ROLES, type JobDetail, type MeterModeName } from '@splitscope/contract';
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { Caution } from '@/components/ui/caution';
@@ -20,8 +20,11 @@ export function UnmodelledBench({ job }: { job: JobDetail }) {
   const me = useMe();
   const draft = useDraft(job.boardId);
   const readings = useReadings(job.id);
-  const points = draft.data?.capture.points ?? [];
-  const photo = draft.data?.capture.photo;
+  // A version whose stored model the schema rejects keeps the test points that still read, on its own picture.
+  const problem = job.board.modelProblem;
+  const doc = job.board.document;
+  const points = problem ? doc.testPoints : (draft.data?.capture.points ?? []);
+  const photo = problem ? (job.board.pictureUrl ? doc.picture : undefined) : draft.data?.capture.photo;
   const [point, setPoint] = useState('');
   const [mode, setMode] = useState<MeterModeName>('dcv');
   const [power, setPower] = useState<'on' | 'off'>('on');
@@ -55,9 +58,14 @@ export function UnmodelledBench({ job }: { job: JobDetail }) {
         <p className="text-sm text-stone-700">{job.faultCode ? `code ${job.faultCode} · ` : ''}{job.symptom} · {job.customerName}</p>
       </div>
       <p role="status" className="rounded-md border border-amber-400 bg-amber-50 p-2 font-semibold">
-        No model for this board yet: readings are recorded, not judged.
+        {problem ? "This board's model needs upgrading by a lead before readings can be judged." : 'No model for this board yet: readings are recorded, not judged.'}
       </p>
-      {canMarkBoards(me.data?.role) && (
+      {problem && hasRole(me.data?.role, ROLES.reviewers) && (
+        <Link className="inline-flex min-h-11 items-center rounded-md bg-board px-4 font-semibold text-white" to={`/boards/${job.boardId}?version=${job.board.version}`}>
+          Correct the board's model
+        </Link>
+      )}
+      {!problem && canMarkBoards(me.data?.role) && (
         <Link className="inline-flex min-h-11 items-center rounded-md bg-board px-4 font-semibold text-white" to={`/boards/${job.boardId}/capture`}>
           Mark test points and sections on the photo
         </Link>
@@ -68,7 +76,7 @@ export function UnmodelledBench({ job }: { job: JobDetail }) {
       <div className="grid gap-3 lg:grid-cols-2">
         {photo && (
           <figure className="relative">
-            <img src={job.board.pictureUrl ?? `/api/uploads/${photo.uploadId}`} alt={`Photo of ${job.boardName}`} className="w-full rounded-md" />
+            <img src={job.board.pictureUrl ?? `/api/uploads/${photo.uploadId ?? ''}`} alt={`Photo of ${job.boardName}`} className="w-full rounded-md" />
             {points.map((p) => (
               <span key={p.id} className="absolute -translate-x-1/2 -translate-y-1/2 rounded-full bg-amber-500 px-1 text-xs font-bold text-black"
                 style={{ left: `${(p.x / photo.width) * 100}%`, top: `${(p.y / photo.height) * 100}%` }}>

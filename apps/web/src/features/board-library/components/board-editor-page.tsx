@@ -1,6 +1,6 @@
 import { hasRole, ROLES, type BoardDetail, type BoardModel } from '@splitscope/contract';
 import { useState } from 'react';
-import { useParams } from 'react-router-dom';
+import { useParams, useSearchParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
 import { QueryState } from '@/components/ui/query-state';
 import { useMe } from '@/lib/api/me';
@@ -11,6 +11,7 @@ import { imageSize } from '@/lib/image-size';
 import { uploadPicture } from '../api/upload-picture';
 import { ComposePanel } from './compose-panel';
 import { FaultCodesPanel } from './fault-codes-panel';
+import { ModelCorrection } from './model-correction';
 import { ReferencesPanel } from './references-panel';
 
 const input = 'min-h-11 rounded-md border border-stone-500 bg-white px-2';
@@ -227,10 +228,16 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
 
 function BoardEditorPage() {
   const { id = '' } = useParams();
-  const board = useBoard(id);
+  // ?version=N opens an older version (a job's bench links to the version the job is pinned to).
+  const version = Number(useSearchParams()[0].get('version')) || undefined;
+  const board = useBoard(id, version);
   // Held here, not in the editor: a saved version remounts the editor, and the "saved" note must survive that.
   const save = useUpdateBoard(id);
-  return <QueryState query={board} label="the board model">{(b) => <Editor key={`${b.id}-${b.version}`} board={b} save={save} />}</QueryState>;
+  return (
+    <QueryState query={board} label="the board model">
+      {(b) => (b.modelProblem ? <ModelCorrection board={{ ...b, modelProblem: b.modelProblem }} /> : <Editor key={`${b.id}-${b.version}`} board={b} save={save} />)}
+    </QueryState>
+  );
 }
 
 export default BoardEditorPage;
