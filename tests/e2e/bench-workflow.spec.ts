@@ -1,5 +1,5 @@
 // The bench as a technician, a lead and a trainee use it: the discharge gate (a reversed −120 V bus refused in
-// words, the verification readings across the bus gated too), continuity as beep / no beep, corrections and
+// words, the verification readings across the bus gated too), the job's meter and the expected values it sets, continuity as beep / no beep, corrections and
 // strikes, a part lifted and its reading shown with the board state on the review and the report, the lead's
 // confirmation and sign-off, and the board's return to the customer.
 import type { JobDetail } from '@splitscope/contract';
@@ -55,6 +55,27 @@ test.describe('technician at the bench', () => {
     const row = page.getByTestId('reading-row').first();
     await expect(row).toContainText('TP1 DC bus +');
     await expect(row.getByTestId('board-state')).toHaveText('unplugged');
+  });
+
+  test('the meter chosen for the job sets the expected Ω through a junction, and the bench names it', async ({ page }) => {
+    await signIn(page, 'tech@demo.test');
+    const job = await newJob(page, 'Meter check: regulator input');
+    await page.goto(`/jobs/${job.id}?mode=free`);
+    const meter = page.getByRole('combobox', { name: 'Meter', exact: true });
+    await meter.selectOption({ label: 'Analog needle meter (20 kΩ/V), battery-and-resistor Ω' });
+    await pickTest(page, /^TP2 Regulator input/, /Ω · unplugged/);
+    await passGateIfAsked(page);
+    await expect(page.getByTestId('expected-meter')).toHaveText('Analog needle meter (20 kΩ/V), battery-and-resistor Ω');
+    const analog = (await page.getByTestId('expected-band').textContent()) ?? '';
+    expect(analog).toMatch(/kΩ/);
+    await meter.selectOption({ label: 'Handheld autoranging (6000 counts), constant-current Ω' });
+    await expect(page.getByTestId('expected-meter')).toHaveText('Handheld autoranging (6000 counts), constant-current Ω');
+    await expect(page.getByTestId('expected-band')).not.toHaveText(analog);
+    // The values are the server's, computed for each meter (the analog meter's 1.5 V forward-biases the junction).
+    const rowOf = async () => (await getJson<JobDetail>(page, `/jobs/${job.id}`)).board.expectedReadings.find((r) => r.id === 'TP2:ohm')!.expected as number;
+    const handheld = await rowOf();
+    await fetchInPage(page, `/jobs/${job.id}`, { method: 'PATCH', body: { meterProfile: 'analog-thevenin-20k' } });
+    expect(await rowOf()).toBeLessThan(0.9 * handheld);
   });
 
   test('continuity is entered as beep / no beep, and a mistyped reading is corrected and another struck out', async ({ page }) => {

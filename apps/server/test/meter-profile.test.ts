@@ -1,12 +1,13 @@
 // A job's meter profile reaches the engine through the server: chosen at intake (POST /api/jobs) or changed on
 // the bench (PATCH), it decides the expected value of a reading through a junction, as the meter model in
-// packages/circuit computes it (meter-profiles.ts: profile values from memory). The shop's default is one column
+// packages/circuit computes it (meter-profiles.ts: profile values from memory), both in the diagnosis and in the
+// expected-readings table the bench draws (GET /api/jobs/:id). The shop's default is one column
 // of the shop, read by the same query (coalesce of the job's and the shop's); it is not changed here, because the
 // demo shop is shared with the other test files.
 import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ANALOG_THEVENIN_20K, applyState, CC_AUTORANGE_6000, measure, parseNetlist, type MeterProfile } from '@splitscope/circuit';
-import type { BoardDetail, BoardModel, Diagnosis, Job } from '@splitscope/contract';
+import { GENERIC_METER_LABEL, meterProfileLabels, type BoardDetail, type BoardModel, type Diagnosis, type Job, type JobDetail } from '@splitscope/contract';
 import type { RunningServer } from '../src/server';
 import { createCustomer, DIVIDER_BOARD } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
@@ -37,6 +38,8 @@ beforeAll(async () => {
       { ...DIVIDER_BOARD.parts[1]!, value: '1M' },
       { designator: 'D1', element: 'D1', kind: 'diode', value: 'signal', package: 'SOD-123', x: 300, y: 100, rotation: 0, section: 'div', pins: [{ pin: 'A', net: 'mid' }, { pin: 'K', net: '0' }] },
     ],
+    // The divider point is also read unpowered in Ω and diode, so the board's table holds junction readings.
+    testPoints: [DIVIDER_BOARD.testPoints[0]!, { ...DIVIDER_BOARD.testPoints[1]!, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'] }],
   };
   const created = await admin.post('/api/boards', { document: doc });
   expect(created.status, JSON.stringify(created.body)).toBe(201);
@@ -78,6 +81,26 @@ describe('a job’s meter profile', () => {
     const analog = await expectedOhm(job.id);
     expect(analog / direct(ANALOG_THEVENIN_20K)).toBeCloseTo(1, 3);
     expect(direct(CC_AUTORANGE_6000)).toBeGreaterThan(3 * analog);
+  }, 120_000);
+
+  it('two jobs on the same board with different meters show different expected junction Ω in the bench’s table', async () => {
+    const [cc, analog, none] = await Promise.all([intake('cc-autorange-6000'), intake('analog-thevenin-20k'), intake()]);
+    const tableOf = async (id: string) => {
+      const r = await tech.get(`/api/jobs/${id}`);
+      expect(r.status, JSON.stringify(r.body)).toBe(200);
+      const detail = r.body as unknown as JobDetail;
+      return { meter: detail.meter, ohm: detail.board.expectedReadings.find((row) => row.id === 'TP2:ohm')!.expected as number };
+    };
+    const [a, b, c] = [await tableOf(cc.id), await tableOf(analog.id), await tableOf(none.id)];
+    expect(a.meter).toEqual({ profile: 'cc-autorange-6000', from: 'job', label: meterProfileLabels['cc-autorange-6000'] });
+    expect(b.meter).toEqual({ profile: 'analog-thevenin-20k', from: 'job', label: meterProfileLabels['analog-thevenin-20k'] });
+    expect(a.ohm / direct(CC_AUTORANGE_6000)).toBeCloseTo(1, 3);
+    expect(b.ohm / direct(ANALOG_THEVENIN_20K)).toBeCloseTo(1, 3);
+    expect(a.ohm).toBeGreaterThan(3 * b.ohm);
+    // The demo shop names no default meter: a job without one reads the board's stored table, said so in words.
+    expect(c.meter).toEqual({ profile: null, from: 'none', label: GENERIC_METER_LABEL });
+    const stored = (await tech.get(`/api/boards/${boardId}`)).body as unknown as BoardDetail;
+    expect(c.ohm).toBe(stored.expectedReadings.find((row) => row.id === 'TP2:ohm')!.expected);
   }, 120_000);
 
   it('refuses a profile the engine does not ship', async () => {

@@ -4,7 +4,7 @@ import { counterSchema } from './bounds';
 import { idSchema, isoDateTime, isoDateTimeInput, optionalText } from './common';
 import { customerSchema } from './customers';
 import { diagnosisSnapshotSchema } from './diagnosis';
-import { meterProfileIdSchema } from './meter-profiles';
+import { jobMeterSchema, meterProfileIdSchema } from './meter-profiles';
 import { returnMethods } from './policy-bench';
 import { reviewSchema } from './reviews';
 
@@ -70,8 +70,13 @@ export type Job = z.infer<typeof jobSchema>;
 
 export const jobDetailSchema = jobSchema.extend({
   customer: customerSchema,
-  /** The pinned board model version: its document and expected-readings table draw the bench map. */
+  /**
+   * The pinned board model version: its document and expected-readings table draw the bench map. The table is
+   * the one computed for the job's meter (`meter`): Ω and diode values through junctions depend on the meter.
+   */
   board: boardDetailSchema,
+  /** The meter the expected values assume (the job's, else the shop's default, else none chosen). */
+  meter: jobMeterSchema,
   /** Status changes the signed-in user may make now (through PATCH, or a review for approve/send back). */
   allowedTransitions: z.array(jobStatusSchema),
   /** Whether the signed-in user takes readings on this job in guided order only (policy: guidedOrderBinds). */

@@ -9,13 +9,33 @@ export const meterProfileIds = ['cc-autorange-6000', 'analog-thevenin-20k'] as c
 export const meterProfileIdSchema = z.enum(meterProfileIds);
 export type MeterProfileId = z.infer<typeof meterProfileIdSchema>;
 
+/** The meters as a technician names them: the kind of meter, then how its Ω function drives the part. */
 export const meterProfileLabels: Record<MeterProfileId, string> = {
-  'cc-autorange-6000': 'Autoranging handheld, 6000 counts (constant-current Ω)',
-  'analog-thevenin-20k': 'Analog-style meter, 20 kΩ/V (battery Ω)',
+  'cc-autorange-6000': 'Handheld autoranging (6000 counts), constant-current Ω',
+  'analog-thevenin-20k': 'Analog needle meter (20 kΩ/V), battery-and-resistor Ω',
 };
 
 /** What a meter without a chosen profile is read as: the engine's generic meter (typical values from memory). */
-export const GENERIC_METER_LABEL = 'Generic meter (typical values)';
+export const GENERIC_METER_LABEL = 'Any meter (typical values, no meter chosen)';
+
+/** Where the meter a job's expected values assume comes from. */
+export const meterSources = ['job', 'shop', 'none'] as const;
+
+/** The meter a job's expected values and bands assume: the job's own, else the shop's default, else none chosen. */
+export const jobMeterSchema = z.object({
+  profile: meterProfileIdSchema.nullable(),
+  from: z.enum(meterSources),
+  /** The meter in the bench's words (meterProfileLabels, or GENERIC_METER_LABEL). */
+  label: z.string(),
+});
+export type JobMeter = z.infer<typeof jobMeterSchema>;
+
+/** The one rule of which meter a job is read with: the job's choice wins over the shop's default. */
+export function jobMeter(job: string | null | undefined, shop: string | null | undefined): JobMeter {
+  const own = readMeterProfileId(job);
+  const profile = own ?? readMeterProfileId(shop);
+  return { profile, from: own ? 'job' : profile ? 'shop' : 'none', label: profile ? meterProfileLabels[profile] : GENERIC_METER_LABEL };
+}
 
 /** A stored profile id as the contract's type: an id no longer shipped reads as none (the default applies). */
 export const readMeterProfileId = (x: string | null | undefined): MeterProfileId | null => {

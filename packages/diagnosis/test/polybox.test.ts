@@ -99,7 +99,7 @@ describe('polybox (de Kleer & Williams 1987)', () => {
     expect(h('X')).toBeCloseTo(1.0, 2);
     expect(h('Y')).toBeCloseTo(0.08, 2);
     expect(h('Z')).toBeCloseTo(0.05, 2);
-    const ranked = rankTests(model, restricted, ['X', 'Y', 'Z'], () => 1, { maxCandidates: 100, massCutoff: 1 }, cache);
+    const ranked = rankTests(model, restricted, ['X', 'Y', 'Z'] as Signal[], () => 1, { maxCandidates: 100, massCutoff: 1 }, cache);
     expect(ranked.map((r) => r.test)).toEqual(['X', 'Y', 'Z']);
     // Deterministic outcomes: expected posterior entropy = H(C) - H(O).
     const hc = -restricted.candidates.reduce((a, c) => a + c.probability * Math.log2(c.probability), 0);

@@ -258,8 +258,7 @@ export function verdictFor(engine: BoardEngine, probe: ProbeState, value: Readin
 }
 
 /** The diagnoser's noise band, so an unsourced row of the table and the verdict of a reading agree. */
-function diagnoserBand(engine: BoardEngine): BandFn {
-  const meter = engine.diagnoser.model.meter;
+function diagnoserBand(engine: BoardEngine, meter: MeterProfile = engine.diagnoser.model.meter): BandFn {
   return (mode, value) => {
     const b = bandOf(mode, { value }, meter);
     return { low: b.low ?? value, high: b.high ?? value };
@@ -272,11 +271,15 @@ function diagnoserBand(engine: BoardEngine): BandFn {
  * readings of the main rails) or the diagnoser's noise model; ohm rows carry the parallel-path note.
  */
 export function expectedTable(engine: BoardEngine): ExpectedReadingRow[] {
-  if (engine.expected) return engine.expected;
+  engine.expected ??= computeTable(engine, engine.diagnoser.model.meter);
+  return engine.expected;
+}
+
+function computeTable(engine: BoardEngine, meter: MeterProfile): ExpectedReadingRow[] {
   const input: ExpectedReadingsInput = { netlist: engine.netlist, testPoints: engine.testPoints.map((t) => t.table), ...(engine.params ? { params: engine.params } : {}) };
   let rows: ReturnType<typeof expectedReadings>;
   try {
-    rows = expectedReadings(input, { meter: engine.diagnoser.model.meter, band: diagnoserBand(engine) });
+    rows = expectedReadings(input, { meter, band: diagnoserBand(engine, meter) });
   } catch (err) {
     // A netlist that reads but does not solve in one of the states the table reads (a deck written elsewhere can
     // do that) is the author's to fix: said in words, not a server error.
@@ -284,11 +287,29 @@ export function expectedTable(engine: BoardEngine): ExpectedReadingRow[] {
     const message = `the netlist does not solve in every state the expected readings need (${err.message}); check the deck's models and values`;
     throw new AppError('invalid', `The board model cannot be used: ${message}`, { errors: [{ path: 'document.netlist', message }] });
   }
-  engine.expected = rows.map((r) => ({
+  return rows.map((r) => ({
     id: r.id, label: r.label, mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted,
     expected: r.expected, low: r.low, high: r.high, unit: r.unit, ...(r.source ? { source: r.source } : {}), ...(r.note ? { note: r.note } : {}),
   }));
-  return engine.expected;
+}
+
+// Tables for a meter profile other than the board's generic meter, per engine (so per version) and profile.
+const tablesByMeter = new WeakMap<BoardEngine, Map<MeterProfileId, ExpectedReadingRow[]>>();
+
+/**
+ * The expected-readings table read with a job's meter profile: a reading through a junction (Ω, diode) depends on
+ * the meter's test current, so the stored table (the board's generic meter) is not the job's. Computed on first
+ * use per version and profile (about a second on a demo board) and kept with the engine; null profile = the
+ * stored table.
+ */
+export function expectedTableFor(engine: BoardEngine, profile: MeterProfileId | null): ExpectedReadingRow[] {
+  const meter = meterOf(profile);
+  if (!profile || !meter) return expectedTable(engine);
+  let byMeter = tablesByMeter.get(engine);
+  if (!byMeter) tablesByMeter.set(engine, (byMeter = new Map()));
+  let rows = byMeter.get(profile);
+  if (!rows) byMeter.set(profile, (rows = computeTable(engine, meter)));
+  return rows;
 }
 
 const probeKey = (mode: string, power: string, red: string, black: string) => `${mode} ${power} ${red} ${black}`;

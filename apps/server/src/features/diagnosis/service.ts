@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
-import { BOUNDS, readableDiagnosis, readMeterProfileId, unitOf, type Diagnosis, type DiagnosisSnapshot, type MeterProfileId, type PriorSource } from '@splitscope/contract';
+import { BOUNDS, readableDiagnosis, jobMeter, unitOf, type Diagnosis, type DiagnosisSnapshot, type MeterProfileId, type PriorSource } from '@splitscope/contract';
 import type { Db } from '../../db/client';
 import { boardModelVersions, diagnosisSnapshots, jobs, readingStrikes, readings, shops } from '../../db/schema';
 import { AppError } from '../../http/errors';
@@ -54,7 +54,7 @@ function prepare(db: Db) {
     rows: db.select().from(readings).where(isCurrent(db)).orderBy(...byTime).prepare('diagnosis_readings'),
     // The meter the job's readings are read with: the job's own profile, else its shop's default.
     meter: db
-      .select({ profile: sql<string | null>`coalesce(${jobs.meterProfile}, ${shops.meterProfile})` })
+      .select({ job: jobs.meterProfile, shop: shops.meterProfile })
       .from(jobs)
       .innerJoin(shops, eq(shops.id, jobs.shopId))
       .where(eq(jobs.id, jobId))
@@ -103,7 +103,7 @@ export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Pr
   const q = queries(db);
   const versionId = job.boardVersionId;
   const [facts, [k], [m], dictionary] = await Promise.all([jobFacts(db, job), q.key.execute({ jobId: job.id }), q.meter.execute({ jobId: job.id }), dictionaryState(db, versionId)]);
-  const meter = readMeterProfileId(m?.profile);
+  const meter = jobMeter(m?.job, m?.shop).profile;
   // The priors are kept with the readings key (priors-cache.ts): a poll or the read after a reading queries nothing.
   const before = await cachedJobPriors(db, facts, `${k?.n ?? 0}|${k?.digest ?? ''}`, () => documentOf(db, versionId));
   // A diagnosis made before the board's dictionary (or a batch of fault pairs) was ready is made again.

@@ -28,6 +28,7 @@ import { newId } from '../../lib/ids';
 import { getBoardVersion } from '../boards';
 import { toCustomer } from '../customers';
 import { computeDiagnosis, toSnapshot } from '../diagnosis';
+import { jobMeterTable } from './meter-table';
 import { toReview } from './review-view';
 import { traineeGuidedLifted } from '../users';
 import { checkMove, moveJob, type MoveRequest } from './flow';
@@ -106,7 +107,9 @@ export async function getJob({ db, shopId, id }: { db: Db; shopId: string; id: s
 export async function getJobDetail({ db, actor, id }: { db: Db; actor: Actor; id: string }): Promise<JobDetail> {
   const job = await getJob({ db, shopId: actor.shopId, id });
   const [customer] = await db.select().from(customers).where(eq(customers.id, job.customerId));
-  const board = await getBoardVersion({ db, shopId: actor.shopId, versionId: job.boardVersionId });
+  const stored = await getBoardVersion({ db, shopId: actor.shopId, versionId: job.boardVersionId });
+  const { meter, expectedReadings } = await jobMeterTable(db, job, stored);
+  const board = { ...stored, expectedReadings };
   const reviewRows = await db
     .select({ r: reviews, name: users.name })
     .from(reviews)
@@ -118,6 +121,7 @@ export async function getJobDetail({ db, actor, id }: { db: Db; actor: Actor; id
     ...job,
     customer: toCustomer(customer!),
     board,
+    meter,
     allowedTransitions: allowedMoves(job.status, actor.role),
     guidedOrderRequired: guidedOrderBinds(actor.role, { job: job.guidedLifted, trainee: actor.role === 'trainee' && (await traineeGuidedLifted(db, actor.id)) }),
     assigneeGuidedLifted: await assigneeLift(db, job.assigneeId),
@@ -223,7 +227,9 @@ async function verificationProblems(db: Db, actor: Actor, job: JobRow): Promise<
   const board = await getBoardVersion({ db, shopId: actor.shopId, versionId: job.boardVersionId });
   const parsed = boardModelSchema.safeParse(board.document);
   const m = parsed.success ? parsed.data : null;
-  const { rows: checklist } = verificationChecklist(m, board.expectedReadings, job.proposedPart);
+  // The checklist's expected values are those the bench showed: computed for the job's meter.
+  const { expectedReadings } = await jobMeterTable(db, job, board);
+  const { rows: checklist } = verificationChecklist(m, expectedReadings, job.proposedPart);
   if (checklist.length === 0) return rows.length === 0 ? 'no verification readings were taken after the last repair action' : null;
   const netOf = (p: string) => m?.testPoints.find((t) => t.id.toLowerCase() === p.toLowerCase())?.net ?? p;
   const open = unprovenRows(checklist, rows, netOf);

@@ -2,7 +2,7 @@ import { createHash } from 'node:crypto';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { LRUCache } from 'lru-cache';
-import { acceptsReadings, correctionRefusal, guidedOrderBinds, readingRefusal, readMeterProfileId, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading, unitOf } from '@splitscope/contract';
+import { acceptsReadings, correctionRefusal, guidedOrderBinds, readingRefusal, jobMeter, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading, unitOf } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
 import { boardModelVersions, jobs, readingStrikes, readings, shops, users } from '../../db/schema';
@@ -130,7 +130,7 @@ function prepare(db: Db) {
     // The meter the job's readings are read with (the job's profile, else the shop's): it can change on the bench,
     // so it is read with every write rather than kept.
     meter: db
-      .select({ profile: sql<string | null>`coalesce(${jobs.meterProfile}, ${shops.meterProfile})` })
+      .select({ job: jobs.meterProfile, shop: shops.meterProfile })
       .from(jobs)
       .innerJoin(shops, eq(shops.id, jobs.shopId))
       .where(and(eq(jobs.id, p('jobId')), eq(jobs.shopId, p('shopId'))))
@@ -277,7 +277,8 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
   await checkSafetyGate(versionId, async () => (await loadVersion()).document, input);
 
   const engineValue = input.mode === 'continuity' ? (input.beep ?? input.value !== 'OL') : input.value;
-  const meter = meterOf(readMeterProfileId((await meterRow)[0]?.profile));
+  const [meterOfJob] = await meterRow;
+  const meter = meterOf(jobMeter(meterOfJob?.job, meterOfJob?.shop).profile);
   const verdict = photoPoints ? null : verdictFor(engine, { ...probe, ...(alone ? { alone } : {}) }, engineValue, meter);
   const row: NewReading = {
     id: newId(),

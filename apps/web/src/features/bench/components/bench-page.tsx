@@ -159,7 +159,7 @@ function Bench({ job }: { job: JobDetail }) {
     lifted: active.lifted.map((p) => liftable.find((x) => x.id === p)?.designator ?? p),
     red: { label: pinLabel(active.red) },
     black: { label: pinLabel(active.black) },
-    expected: expectedRow ? { text: bandText({ ...expectedRow, low: null, high: null }, expectedRow.mode), band: bandText(expectedRow, expectedRow.mode), note: expectedRow.note, source: expectedRow.source } : null,
+    expected: expectedRow ? { text: bandText({ ...expectedRow, low: null, high: null }, expectedRow.mode), band: bandText(expectedRow, expectedRow.mode), note: expectedRow.note, source: expectedRow.source, assumes: job.meter.label } : null,
   };
   const choices = !guided && target?.pointId && lifted.length === 0 ? rowsForPoint(view, rows, target.pointId) : [];
   const proposed = ranked.find((p) => p.part === selectedPart) ?? ranked[0];

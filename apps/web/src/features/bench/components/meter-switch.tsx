@@ -16,7 +16,7 @@ export function MeterSwitch({ job }: { job: JobDetail }) {
         disabled={update.isPending}
         onChange={(e) => update.mutate({ meterProfile: (e.target.value || null) as JobDetail['meterProfile'] })}
       >
-        <option value="">Shop's default meter</option>
+        <option value="">{job.meter.from === 'job' ? "Shop's default meter" : `Shop's default: ${job.meter.label}`}</option>
         {meterProfileIds.map((id) => (
           <option key={id} value={id}>
             {meterProfileLabels[id]}

@@ -15,7 +15,8 @@ export interface ReadingTarget {
   black: { label: string };
   /** What the engine computed for this test on a healthy board. */
   /** `note` says why an in-circuit reading differs from a part's own value (parallel paths). */
-  expected?: { text: string; band: string; note?: string; source?: string } | null;
+  /** `assumes` names the meter the value was computed for (a sourced band stands whatever the meter). */
+  expected?: { text: string; band: string; note?: string; source?: string; assumes?: string } | null;
   touchesBus?: boolean;
   /** Parts lifted for this reading, by designator. */
   lifted?: string[];
@@ -135,11 +136,17 @@ export function ReadingPanel({
       </div>
       <dl className="grid grid-cols-[auto_1fr] gap-x-3 text-sm">
         <dt className="text-stone-700">Expected</dt>
-        <dd className="font-semibold">{target.expected ? target.expected.band : 'computed by the engine when the reading is saved'}</dd>
+        <dd className="font-semibold" data-testid="expected-band">{target.expected ? target.expected.band : 'computed by the engine when the reading is saved'}</dd>
         {target.expected?.note && (
           <>
             <dt className="text-stone-700">In circuit</dt>
             <dd data-testid="expected-note">{target.expected.note}</dd>
+          </>
+        )}
+        {target.expected?.assumes && !target.expected.source && (
+          <>
+            <dt className="text-stone-700">For meter</dt>
+            <dd data-testid="expected-meter">{target.expected.assumes}</dd>
           </>
         )}
         {target.expected?.source && (
