@@ -1,4 +1,4 @@
 // The repair report: its model, the PDF drawn from it, and its route.
-export { getRepairReport, reportPdf } from './service';
+export { reportPdf } from './service';
 export { renderReportPdf } from './pdf';
 export { reportRoutes } from './routes';
