@@ -60,7 +60,12 @@ const boundaries = {
   files: ['apps/*/src/**/*.{ts,tsx}', 'packages/*/src/**/*.ts'],
   plugins: { 'import-x': importX },
   settings: {
-    'import-x/resolver-next': [createTypeScriptImportResolver({ project: ['apps/web/tsconfig.json', 'apps/server/tsconfig.json', 'packages/*/tsconfig.json'], noWarnOnMultipleProjects: true })],
+    'import-x/resolver-next': [
+      createTypeScriptImportResolver({
+        project: ['apps/web/tsconfig.json', 'apps/server/tsconfig.json', 'packages/*/tsconfig.json'],
+        noWarnOnMultipleProjects: true,
+      }),
+    ],
   },
   rules: { 'import-x/no-restricted-paths': ['error', { zones }] },
 };
@@ -80,7 +85,15 @@ const promises = {
   languageOptions: {
     parserOptions: {
       // The lint-fixture paths are where tests/unit/lint-boundaries.test.ts lints its fixtures; no such file is on disk.
-      projectService: { allowDefaultProject: ['vitest.config.ts', 'playwright.config.ts', 'apps/*/src/features/*/lint-fixture.ts', 'apps/web/src/features/*/components/lint-fixture.tsx', 'packages/*/src/lint-fixture.ts'] },
+      projectService: {
+        allowDefaultProject: [
+          'vitest.config.ts',
+          'playwright.config.ts',
+          'apps/*/src/features/*/lint-fixture.ts',
+          'apps/web/src/features/*/components/lint-fixture.tsx',
+          'packages/*/src/lint-fixture.ts',
+        ],
+      },
       tsconfigRootDir: import.meta.dirname,
     },
   },
@@ -105,7 +118,19 @@ const serverWithoutFakes = {
 };
 
 export default tseslint.config(
-  { ignores: ['**/node_modules/**', '**/dist/**', '.tools/**', '.data/**', 'drizzle/**', 'test-results/**', 'playwright-report/**', 'tests/artifacts/**', 'tests/lint-fixtures/**'] },
+  {
+    ignores: [
+      '**/node_modules/**',
+      '**/dist/**',
+      '.tools/**',
+      '.data/**',
+      'drizzle/**',
+      'test-results/**',
+      'playwright-report/**',
+      'tests/artifacts/**',
+      'tests/lint-fixtures/**',
+    ],
+  },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {

@@ -61,7 +61,8 @@ if (task === 'test' && !hasSocat() && process.getuid?.() === 0) {
   const aptEnv = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
   if (run('apt-get', ['install', '-y', '-qq', '--no-upgrade', 'socat'], { env: aptEnv }) !== 0) {
     run('apt-get', ['update', '-qq'], { env: aptEnv, stdio: 'ignore' });
-    if (run('apt-get', ['install', '-y', '-qq', '--no-upgrade', 'socat'], { env: aptEnv }) !== 0) console.warn('splitscope: could not install socat; the bench-meter tests will skip');
+    if (run('apt-get', ['install', '-y', '-qq', '--no-upgrade', 'socat'], { env: aptEnv }) !== 0)
+      console.warn('splitscope: could not install socat; the bench-meter tests will skip');
   }
 }
 const tsx = join(root, 'node_modules', '.bin', 'tsx');

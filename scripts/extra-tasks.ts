@@ -26,7 +26,12 @@ async function fuzz(args: string[]): Promise<number> {
   const n = Number(args.find((a) => a.startsWith('--runs='))?.slice(7) ?? 4000);
   const seedArg = args.find((a) => a.startsWith('--seed='));
   const onlyArg = args.find((a) => a.startsWith('--routes='));
-  const report = await runFuzz({ total: Number.isFinite(n) && n > 0 ? n : 4000, seed: seedArg ? Number(seedArg.slice(7)) : undefined, only: onlyArg ? new RegExp(onlyArg.slice(9)) : undefined, log: console.log });
+  const report = await runFuzz({
+    total: Number.isFinite(n) && n > 0 ? n : 4000,
+    seed: seedArg ? Number(seedArg.slice(7)) : undefined,
+    only: onlyArg ? new RegExp(onlyArg.slice(9)) : undefined,
+    log: console.log,
+  });
   printFuzzReport(report);
   return report.ok ? 0 : 1;
 }

@@ -94,9 +94,16 @@ async function test(): Promise<number> {
   // Dead exports, unused files and dependencies nobody imports (knip.json says where each workspace starts).
   await step('lint: dead code (knip)', bin('knip'), ['--no-progress']);
   const unitJson = join(reports, 'unit.json');
-  await step('unit tests', bin('vitest'), ['run', '--project', 'unit', '--reporter=default', '--reporter=json', `--outputFile.json=${unitJson}`], () => vitestCounts(unitJson));
+  await step('unit tests', bin('vitest'), ['run', '--project', 'unit', '--reporter=default', '--reporter=json', `--outputFile.json=${unitJson}`], () =>
+    vitestCounts(unitJson),
+  );
   const intJson = join(reports, 'integration.json');
-  await step('integration tests (PostgreSQL)', bin('vitest'), ['run', '--project', 'integration', '--reporter=default', '--reporter=json', `--outputFile.json=${intJson}`], () => vitestCounts(intJson));
+  await step(
+    'integration tests (PostgreSQL)',
+    bin('vitest'),
+    ['run', '--project', 'integration', '--reporter=default', '--reporter=json', `--outputFile.json=${intJson}`],
+    () => vitestCounts(intJson),
+  );
 
   // Acknowledged readings survive server kills and database restarts: one pass/fail in the summary.
   console.log('\n── fault injection (short) ──');
@@ -112,7 +119,11 @@ async function test(): Promise<number> {
   // first-run spec. The local mail capture and payment fakes on free ports too, so `npm test` runs beside a
   // running `npm start`.
   // Separate ranges: a server's fakes start just after it answers, so a second search could find their ports free.
-  const free = async (o: number) => ({ PORT: String(await findFreePort(5300 + o)), SMTP_PORT: String(await findFreePort(2600 + o)), PAYMENTS_PORT: String(await findFreePort(12200 + o)) });
+  const free = async (o: number) => ({
+    PORT: String(await findFreePort(5300 + o)),
+    SMTP_PORT: String(await findFreePort(2600 + o)),
+    PAYMENTS_PORT: String(await findFreePort(12200 + o)),
+  });
   // The demo server of the browser tests runs on a database of its own, seeded afresh: the integration tests'
   // leftovers (boards in older forms, odd names made on purpose) are theirs, not a page a spec should walk.
   const e2eUrl = await prepareDatabase('test', 'demo', 'e2e');
@@ -123,7 +134,13 @@ async function test(): Promise<number> {
   try {
     const shopUrl = await prepareDatabase('test', 'shop');
     shopServer = await spawnServer(
-      { DATABASE_URL: shopUrl, SPLITSCOPE_MODE: 'shop', LOGIN_RATE_LIMIT: '1000', MAIL_CAPTURE_DIR: join(root, '.data', 'mail-shop-test'), ...(await free(100)) },
+      {
+        DATABASE_URL: shopUrl,
+        SPLITSCOPE_MODE: 'shop',
+        LOGIN_RATE_LIMIT: '1000',
+        MAIL_CAPTURE_DIR: join(root, '.data', 'mail-shop-test'),
+        ...(await free(100)),
+      },
       { quiet: true },
     );
     env.BASE_URL = server.url;

@@ -4,11 +4,9 @@ import { join } from 'node:path';
 import { runInherit } from './lib/proc';
 
 const root = join(import.meta.dirname, '..');
-const projects = [
-  ...['apps', 'packages'].flatMap((d) => readdirSync(join(root, d)).map((p) => join(d, p))),
-  'tests',
-  'scripts',
-].filter((p) => existsSync(join(root, p, 'tsconfig.json')));
+const projects = [...['apps', 'packages'].flatMap((d) => readdirSync(join(root, d)).map((p) => join(d, p))), 'tests', 'scripts'].filter((p) =>
+  existsSync(join(root, p, 'tsconfig.json')),
+);
 
 const tsc = join(root, 'node_modules', '.bin', 'tsc');
 const queue = [...projects];

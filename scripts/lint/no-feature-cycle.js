@@ -39,7 +39,9 @@ function graphOf(dir) {
   let g = graphs.get(dir);
   if (g) return g;
   g = new Map();
-  for (const feature of readdirSync(dir, { withFileTypes: true }).filter((e) => e.isDirectory()).map((e) => e.name)) {
+  for (const feature of readdirSync(dir, { withFileTypes: true })
+    .filter((e) => e.isDirectory())
+    .map((e) => e.name)) {
     const deps = new Set();
     for (const file of sourceFiles(join(dir, feature))) {
       for (const m of readFileSync(file, 'utf8').matchAll(IMPORT)) {

@@ -45,7 +45,15 @@ export const TARGETS = { writeP95Ms: 20, ratio: 0.5 };
 
 function figures(name: string, times: number[], seconds: number, failed: number): LoadFigures {
   const sorted = [...times].sort((a, b) => a - b);
-  return { name, requests: times.length, perSecond: times.length / seconds, p50: percentile(sorted, 50), p95: percentile(sorted, 95), p99: percentile(sorted, 99), failed };
+  return {
+    name,
+    requests: times.length,
+    perSecond: times.length / seconds,
+    p50: percentile(sorted, 50),
+    p95: percentile(sorted, 95),
+    p99: percentile(sorted, 99),
+    failed,
+  };
 }
 
 /** One autocannon run; latencies come from its per-response event, since its summary has no p95. */
@@ -75,7 +83,9 @@ async function rawInsertLoop(url: string, jobId: string, connections: number, se
     await Promise.all(
       Array.from({ length: connections }, async () => {
         while (Date.now() < end) {
-          const values = columns.map((c) => (c === 'id' || c === 'idempotency_key' ? randomUUID() : c === 'created_at' || c === 'taken_at' ? new Date() : template[c]));
+          const values = columns.map((c) =>
+            c === 'id' || c === 'idempotency_key' ? randomUUID() : c === 'created_at' || c === 'taken_at' ? new Date() : template[c],
+          );
           const s = performance.now();
           try {
             await pool.query(text, values);
@@ -95,7 +105,11 @@ async function rawInsertLoop(url: string, jobId: string, connections: number, se
 /** The write run's requests against `apps/server/bench/http-floor.ts`, a child of its own like the real server. */
 async function httpFloor(connections: number, seconds: number, request: object): Promise<LoadFigures> {
   const port = await findFreePort(6400 + (process.pid % 400));
-  const child = spawn(process.execPath, ['--import', 'tsx', join(root, 'apps', 'server', 'bench', 'http-floor.ts')], { cwd: root, env: { ...process.env, PORT: String(port) }, stdio: ['ignore', 'pipe', 'inherit'] });
+  const child = spawn(process.execPath, ['--import', 'tsx', join(root, 'apps', 'server', 'bench', 'http-floor.ts')], {
+    cwd: root,
+    env: { ...process.env, PORT: String(port) },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
   try {
     await new Promise<void>((resolve, reject) => {
       child.stdout!.on('data', (d: Buffer) => d.toString().includes('listening') && resolve());
@@ -145,7 +159,12 @@ export async function runApiBench(opts: BenchOptions): Promise<ApiBenchReport> {
       const r = await fetch(server.url + readingsPath(readJob), { method: 'POST', headers, body: JSON.stringify(readTarget.body(k, randomUUID())) });
       if (!r.ok) throw new Error(`a reading for the diagnosis run answered ${r.status}: ${await r.text()}`);
     }
-    const diagnosis = await load('GET diagnosis', { url: server.url, connections, duration: seconds, requests: [{ method: 'GET', path: `/api/jobs/${encodeURIComponent(readJob)}/diagnosis`, headers }] });
+    const diagnosis = await load('GET diagnosis', {
+      url: server.url,
+      connections,
+      duration: seconds,
+      requests: [{ method: 'GET', path: `/api/jobs/${encodeURIComponent(readJob)}/diagnosis`, headers }],
+    });
     await server.kill('SIGTERM');
     await sleep(200);
     const rawInserts = await rawInsertLoop(db.url, target.jobId, connections, seconds);
@@ -173,7 +192,9 @@ export function printApiBench(r: ApiBenchReport, log: (line: string) => void = c
   log(`bench:api on ${r.machine}`);
   log('  run                          req/s     p50       p95       p99    requests  failed');
   for (const f of [r.writes, r.diagnosis, r.rawInserts, r.httpFloor]) {
-    log(`  ${f.name.padEnd(27)} ${f.perSecond.toFixed(0).padStart(6)} ${ms(f.p50).padStart(9)} ${ms(f.p95).padStart(9)} ${ms(f.p99).padStart(9)} ${String(f.requests).padStart(9)} ${String(f.failed).padStart(7)}`);
+    log(
+      `  ${f.name.padEnd(27)} ${f.perSecond.toFixed(0).padStart(6)} ${ms(f.p50).padStart(9)} ${ms(f.p95).padStart(9)} ${ms(f.p99).padStart(9)} ${String(f.requests).padStart(9)} ${String(f.failed).padStart(7)}`,
+    );
   }
   log(`  write throughput / raw inserts: ${r.ratio.toFixed(2)} (target ≥ ${TARGETS.ratio}); write p95 ${ms(r.writes.p95)} (target < ${TARGETS.writeP95Ms} ms)`);
   log(`  write throughput / HTTP floor: ${(r.writes.perSecond / r.httpFloor.perSecond).toFixed(2)}; the floor's own p95 ${ms(r.httpFloor.p95)}`);

@@ -32,7 +32,14 @@ export function firstLoad(dist: string): FirstLoad {
   return { files, jsGzip: sum('.js'), cssGzip: sum('.css') };
 }
 
-const TYPES: Record<string, string> = { '.js': 'text/javascript', '.css': 'text/css', '.html': 'text/html', '.svg': 'image/svg+xml', '.woff2': 'font/woff2', '.png': 'image/png' };
+const TYPES: Record<string, string> = {
+  '.js': 'text/javascript',
+  '.css': 'text/css',
+  '.html': 'text/html',
+  '.svg': 'image/svg+xml',
+  '.woff2': 'font/woff2',
+  '.png': 'image/png',
+};
 
 /** A static server for the built app (the perf page needs no API): files as they are, index.html for routes. */
 function serveDist(dist: string): Promise<{ server: Server; url: string }> {
@@ -43,7 +50,9 @@ function serveDist(dist: string): Promise<{ server: Server; url: string }> {
     res.writeHead(200, { 'content-type': TYPES[extname(file)] ?? 'application/octet-stream' });
     res.end(readFileSync(file));
   });
-  return new Promise((resolve) => server.listen(0, '127.0.0.1', () => resolve({ server, url: `http://127.0.0.1:${(server.address() as { port: number }).port}` })));
+  return new Promise((resolve) =>
+    server.listen(0, '127.0.0.1', () => resolve({ server, url: `http://127.0.0.1:${(server.address() as { port: number }).port}` })),
+  );
 }
 
 export interface FrameFigures {
@@ -76,7 +85,10 @@ async function measureFrames(url: string, points: number, seconds: number): Prom
       for (let s = 0; s < 10; s++) await page.mouse.wheel(0, round % 2 ? 120 : -120);
     }
     const times = (await page.evaluate('window.__frames')) as number[];
-    const gaps = times.slice(1).map((t, i) => t - times[i]!).sort((a, b) => a - b);
+    const gaps = times
+      .slice(1)
+      .map((t, i) => t - times[i]!)
+      .sort((a, b) => a - b);
     const span = (times[times.length - 1]! - times[0]!) / 1000;
     return { points, seconds: span, frames: times.length - 1, fps: (times.length - 1) / span, p95FrameMs: percentile(gaps, 95) };
   } finally {
@@ -109,9 +121,13 @@ const kb = (n: number) => `${(n / 1024).toFixed(1)} KB`;
 export function printWebBench(r: WebBenchReport, log: (line: string) => void = console.log): void {
   log(`bench:web on ${r.machine}`);
   for (const f of r.load.files) log(`  ${f.file.padEnd(44)} ${kb(f.bytes).padStart(10)}  gzip ${kb(f.gzip).padStart(9)}`);
-  log(`  first load, gzip: JS ${kb(r.load.jsGzip)} + CSS ${kb(r.load.cssGzip)} = ${kb(r.load.jsGzip + r.load.cssGzip)} (target ≤ ${WEB_TARGETS.firstLoadKb} KB)`);
+  log(
+    `  first load, gzip: JS ${kb(r.load.jsGzip)} + CSS ${kb(r.load.cssGzip)} = ${kb(r.load.jsGzip + r.load.cssGzip)} (target ≤ ${WEB_TARGETS.firstLoadKb} KB)`,
+  );
   const f = r.frames;
-  log(`  board map, ${f.points} test points, pan + zoom for ${f.seconds.toFixed(1)} s: ${f.fps.toFixed(1)} fps (${f.frames} frames, p95 frame ${f.p95FrameMs.toFixed(1)} ms; target ≥ ${WEB_TARGETS.fps} fps)`);
+  log(
+    `  board map, ${f.points} test points, pan + zoom for ${f.seconds.toFixed(1)} s: ${f.fps.toFixed(1)} fps (${f.frames} frames, p95 frame ${f.p95FrameMs.toFixed(1)} ms; target ≥ ${WEB_TARGETS.fps} fps)`,
+  );
   log('  headless Chromium with --disable-gpu draws the canvas on the CPU');
   log(r.ok ? 'bench:web: targets met' : 'bench:web: targets MISSED');
 }

@@ -156,7 +156,9 @@ async function faultRun(opts: FaultOptions, t0: number, fixedSpec: ClusterSpec, 
       }).catch(() => null);
       const h = await fetch(`${server.url}/api/health`, { signal: AbortSignal.timeout(8000) }).catch(() => null);
       if (!r || r.status !== 503 || !r.headers.get('retry-after'))
-        problems.push(`with the database down a reading write answered ${r?.status ?? 'no response'} (retry-after: ${r?.headers.get('retry-after') ?? 'none'}), not 503 with Retry-After`);
+        problems.push(
+          `with the database down a reading write answered ${r?.status ?? 'no response'} (retry-after: ${r?.headers.get('retry-after') ?? 'none'}), not 503 with Retry-After`,
+        );
       if (!h || h.status !== 503) problems.push(`with the database down /api/health answered ${h?.status ?? 'no response'}, not 503`);
       log(`  database down: reading write ${r?.status ?? '-'} retry-after=${r?.headers.get('retry-after') ?? '-'}, health ${h?.status ?? '-'}`);
     };

@@ -40,7 +40,11 @@ const tag = () => randomBytes(4).toString('hex');
 
 async function upload(url: string, session: Session): Promise<{ uploadId: string; width: number; height: number }> {
   const p = await smallPicture(Math.random());
-  const r = await fetch(`${url}/api/uploads?name=fuzz-board.${p.type === 'image/png' ? 'png' : 'jpg'}`, { method: 'POST', headers: { 'content-type': p.type, cookie: session.cookie }, body: p.bytes });
+  const r = await fetch(`${url}/api/uploads?name=fuzz-board.${p.type === 'image/png' ? 'png' : 'jpg'}`, {
+    method: 'POST',
+    headers: { 'content-type': p.type, cookie: session.cookie },
+    body: p.bytes,
+  });
   if (r.status !== 201) throw new Error(`fuzz set-up: an upload answered ${r.status}: ${await r.text()}`);
   const up = (await r.json()) as { id: string; width: number; height: number };
   return { uploadId: up.id, width: up.width, height: up.height };
@@ -54,9 +58,17 @@ async function unlistedBoard(api: Api, url: string, session: Session) {
 
 /** A job of a demo customer (e-mail on file) on the outdoor fan board, with a quote sent: its link token from the mail. */
 async function sentQuote(api: Api) {
-  const board = (await api.db.query<{ id: string }>("SELECT id FROM board_models WHERE shop_id = 'shop-demo' AND current_version > 0 ORDER BY id LIMIT 1")).rows[0]!;
-  const job = await api.call('tech', 'POST', '/api/jobs', { customerId: 'customer-coastline', unitDescription: 'Outdoor unit (fuzz)', boardId: board.id, symptom: 'Outdoor fan never starts' });
-  const quote = await api.call('tech', 'POST', `/api/jobs/${String(job.id)}/quotes`, { lines: [{ kind: 'labour', description: 'Bench diagnosis', quantity: '1', unitCents: 4500 }] });
+  const board = (await api.db.query<{ id: string }>("SELECT id FROM board_models WHERE shop_id = 'shop-demo' AND current_version > 0 ORDER BY id LIMIT 1"))
+    .rows[0]!;
+  const job = await api.call('tech', 'POST', '/api/jobs', {
+    customerId: 'customer-coastline',
+    unitDescription: 'Outdoor unit (fuzz)',
+    boardId: board.id,
+    symptom: 'Outdoor fan never starts',
+  });
+  const quote = await api.call('tech', 'POST', `/api/jobs/${String(job.id)}/quotes`, {
+    lines: [{ kind: 'labour', description: 'Bench diagnosis', quantity: '1', unitCents: 4500 }],
+  });
   await api.call('tech', 'POST', `/api/quotes/${String(quote.id)}/send`, {});
   return { jobId: String(job.id), quoteId: String(quote.id), token: await linkOfMail(api, 'Quote') };
 }
@@ -104,8 +116,18 @@ interface JobOfBoard {
 
 /** A fresh job of the demo shop taken along the flow through the API: received → diagnosing → awaiting-review → approved. */
 async function jobAt(api: Api, status: 'diagnosing' | 'awaiting-review' | 'approved'): Promise<string> {
-  const board = (await api.db.query<{ id: string }>("SELECT id FROM board_models WHERE shop_id = 'shop-demo' AND current_version > 0 ORDER BY id LIMIT 1")).rows[0]!;
-  const id = String((await api.call('tech', 'POST', '/api/jobs', { customerId: 'customer-jun', unitDescription: 'Outdoor unit (fuzz)', boardId: board.id, symptom: 'Fan starts, then stops' })).id);
+  const board = (await api.db.query<{ id: string }>("SELECT id FROM board_models WHERE shop_id = 'shop-demo' AND current_version > 0 ORDER BY id LIMIT 1"))
+    .rows[0]!;
+  const id = String(
+    (
+      await api.call('tech', 'POST', '/api/jobs', {
+        customerId: 'customer-jun',
+        unitDescription: 'Outdoor unit (fuzz)',
+        boardId: board.id,
+        symptom: 'Fan starts, then stops',
+      })
+    ).id,
+  );
   await api.call('tech', 'PATCH', `/api/jobs/${id}`, { status: 'diagnosing' });
   if (status === 'diagnosing') return id;
   // the technician proposes, a lead approves: the shop's duty rules keep the two people apart
@@ -120,7 +142,17 @@ async function jobWithReading(api: Api): Promise<Fresh> {
   const id = await jobAt(api, 'diagnosing');
   const detail = (await api.call('tech', 'GET', `/api/jobs/${id}`)) as JobOfBoard;
   const tp = detail.board?.document?.testPoints?.find((t) => t.modes?.includes('dcv') && t.powerStates?.includes('on'));
-  const reading = await api.call('tech', 'POST', `/api/jobs/${id}/readings`, { idempotencyKey: randomUUID(), mode: 'dcv', red: tp?.id ?? 'GND', black: tp?.reference || 'GND', power: 'on', lifted: [], value: 14.9, raw: '14.90 V', phase: 'diagnosis' });
+  const reading = await api.call('tech', 'POST', `/api/jobs/${id}/readings`, {
+    idempotencyKey: randomUUID(),
+    mode: 'dcv',
+    red: tp?.id ?? 'GND',
+    black: tp?.reference || 'GND',
+    power: 'on',
+    lifted: [],
+    value: 14.9,
+    raw: '14.90 V',
+    phase: 'diagnosis',
+  });
   return { params: { id, readingId: String(reading.id) }, fields: {} };
 }
 
@@ -137,19 +169,37 @@ export function preconditions(url: string): Record<string, Precondition> {
       return { params: { token: q.token, id: q.quoteId }, fields: {} };
     },
   });
-  const unlisted = (once: boolean): Precondition => ({ once, make: async (api) => ({ params: { id: await unlistedBoard(api, url, await api.session('tech')) }, fields: {} }) });
+  const unlisted = (once: boolean): Precondition => ({
+    once,
+    make: async (api) => ({ params: { id: await unlistedBoard(api, url, await api.session('tech')) }, fields: {} }),
+  });
   const faultCode = (once: boolean): Precondition => ({
     once,
-    make: async (api) => ({ params: { id: String((await api.call('lead', 'POST', '/api/fault-codes', { code: `Z${tag().slice(0, 5)}`, title: 'Fuzz code' })).id) }, fields: {} }),
+    make: async (api) => ({
+      params: { id: String((await api.call('lead', 'POST', '/api/fault-codes', { code: `Z${tag().slice(0, 5)}`, title: 'Fuzz code' })).id) },
+      fields: {},
+    }),
   });
   const quoteOf = (send: boolean): Precondition => ({
     once: true,
     make: async (api) => (send ? { params: { id: (await sentQuote(api)).quoteId }, fields: {} } : { params: { id: await draftQuote(api) }, fields: {} }),
   });
   const draftQuote = async (api: Api) => {
-    const board = (await api.db.query<{ id: string }>("SELECT id FROM board_models WHERE shop_id = 'shop-demo' AND current_version > 0 ORDER BY id LIMIT 1")).rows[0]!;
-    const job = await api.call('tech', 'POST', '/api/jobs', { customerId: 'customer-coastline', unitDescription: 'Outdoor unit (fuzz)', boardId: board.id, symptom: 'Fan starts, then stops' });
-    return String((await api.call('tech', 'POST', `/api/jobs/${String(job.id)}/quotes`, { lines: [{ kind: 'part', description: 'Opto coupler', quantity: '1', unitCents: 350 }] })).id);
+    const board = (await api.db.query<{ id: string }>("SELECT id FROM board_models WHERE shop_id = 'shop-demo' AND current_version > 0 ORDER BY id LIMIT 1"))
+      .rows[0]!;
+    const job = await api.call('tech', 'POST', '/api/jobs', {
+      customerId: 'customer-coastline',
+      unitDescription: 'Outdoor unit (fuzz)',
+      boardId: board.id,
+      symptom: 'Fan starts, then stops',
+    });
+    return String(
+      (
+        await api.call('tech', 'POST', `/api/jobs/${String(job.id)}/quotes`, {
+          lines: [{ kind: 'part', description: 'Opto coupler', quantity: '1', unitCents: 350 }],
+        })
+      ).id,
+    );
   };
   return {
     // the reset link's token reaches a person only by e-mail: the fuzzer stores its hash as the reset request does
@@ -158,27 +208,51 @@ export function preconditions(url: string): Record<string, Precondition> {
       once: true,
       make: async (api) => {
         const token = `fuzz-reset-${randomBytes(16).toString('hex')}`;
-        await api.db.query("INSERT INTO password_resets (id, user_id, token_hash, expires_at) VALUES ($1, 'user-fuzz-target', $2, now() + interval '30 minutes')", [randomUUID(), sha256(token)]);
+        await api.db.query(
+          "INSERT INTO password_resets (id, user_id, token_hash, expires_at) VALUES ($1, 'user-fuzz-target', $2, now() + interval '30 minutes')",
+          [randomUUID(), sha256(token)],
+        );
         return { params: {}, fields: { token } };
       },
     },
     'POST /api/auth/accept-invitation': {
       fields: ['token'],
       once: true,
-      make: async (api) => ({ params: {}, fields: { token: (await api.call('admin', 'POST', '/api/users/invitations', { name: 'Fuzz Invitee', email: `invitee-${tag()}@demo.test`, role: 'tech' })).token } }),
+      make: async (api) => ({
+        params: {},
+        fields: {
+          token: (await api.call('admin', 'POST', '/api/users/invitations', { name: 'Fuzz Invitee', email: `invitee-${tag()}@demo.test`, role: 'tech' })).token,
+        },
+      }),
     },
     'POST /api/users/invitations/:id/resend': {
       once: false,
-      make: async (api) => ({ params: { id: String((await api.call('admin', 'POST', '/api/users/invitations', { name: 'Fuzz Invitee', email: `invitee-${tag()}@demo.test`, role: 'trainee' })).id) }, fields: {} }),
+      make: async (api) => ({
+        params: {
+          id: String(
+            (await api.call('admin', 'POST', '/api/users/invitations', { name: 'Fuzz Invitee', email: `invitee-${tag()}@demo.test`, role: 'trainee' })).id,
+          ),
+        },
+        fields: {},
+      }),
     },
     'POST /api/customers/:id/merge': {
       fields: ['duplicateId'],
       once: true,
-      make: async (api) => ({ params: { id: 'customer-northgate' }, fields: { duplicateId: (await api.call('admin', 'POST', '/api/customers', { name: 'Rafael Osei', company: 'Northgate Heating', kind: 'contractor' })).id } }),
+      make: async (api) => ({
+        params: { id: 'customer-northgate' },
+        fields: {
+          duplicateId: (await api.call('admin', 'POST', '/api/customers', { name: 'Rafael Osei', company: 'Northgate Heating', kind: 'contractor' })).id,
+        },
+      }),
     },
     'PUT /api/fault-codes/:id': faultCode(false),
     'DELETE /api/fault-codes/:id': faultCode(true),
-    'POST /api/boards/unlisted': { fields: ['photo'], once: true, make: async (api) => ({ params: {}, fields: { photo: await upload(url, await api.session('tech')) } }) },
+    'POST /api/boards/unlisted': {
+      fields: ['photo'],
+      once: true,
+      make: async (api) => ({ params: {}, fields: { photo: await upload(url, await api.session('tech')) } }),
+    },
     'GET /api/boards/:id/draft': unlisted(false),
     'PUT /api/boards/:id/draft': unlisted(false),
     'POST /api/boards/:id/publish': unlisted(true),
@@ -223,12 +297,18 @@ export const placeholder = (field: string) => `@@fresh:${field}@@`;
 export function fillFields(text: string, fresh: Fresh | null): string {
   if (!fresh) return text;
   let out = text;
-  for (const [k, v] of Object.entries(fresh.fields)) out = out.split(JSON.stringify(placeholder(k))).join(JSON.stringify(v)).split(placeholder(k)).join(String(v));
+  for (const [k, v] of Object.entries(fresh.fields))
+    out = out
+      .split(JSON.stringify(placeholder(k)))
+      .join(JSON.stringify(v))
+      .split(placeholder(k))
+      .join(String(v));
   return out;
 }
 
 /** The route's path with the fresh parameters in place (others as the fuzzer fills them). */
-export const fillPath = (path: string, fresh: Fresh | null) => (fresh ? path.replace(/:(\w+)/g, (m, name: string) => (fresh.params[name] !== undefined ? encodeURIComponent(fresh.params[name]) : m)) : path);
+export const fillPath = (path: string, fresh: Fresh | null) =>
+  fresh ? path.replace(/:(\w+)/g, (m, name: string) => (fresh.params[name] !== undefined ? encodeURIComponent(fresh.params[name]) : m)) : path;
 
 /** Calls the API as a demo person for a set-up step; signs in again when a fuzzed request ended that session. */
 export function setupApi(url: string, db: pg.Client): Api {
@@ -236,7 +316,12 @@ export function setupApi(url: string, db: pg.Client): Api {
   const session = async (who: Who) => sessions.get(who) ?? sessions.set(who, await signIn(url, SETUP_PEOPLE[who])).get(who)!;
   const call = async (who: Who, method: string, path: string, body?: unknown, again = true): Promise<Record<string, unknown>> => {
     const s = await session(who);
-    const r = await fetch(url + path, { method, headers: { cookie: s.cookie, ...(body === undefined ? {} : { 'content-type': 'application/json' }) }, body: body === undefined ? undefined : JSON.stringify(body), signal: AbortSignal.timeout(60_000) });
+    const r = await fetch(url + path, {
+      method,
+      headers: { cookie: s.cookie, ...(body === undefined ? {} : { 'content-type': 'application/json' }) },
+      body: body === undefined ? undefined : JSON.stringify(body),
+      signal: AbortSignal.timeout(60_000),
+    });
     if (r.status === 401 && again) {
       sessions.delete(who);
       return call(who, method, path, body, false);

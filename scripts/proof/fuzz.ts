@@ -72,13 +72,22 @@ async function makeFixtures(client: pg.Client): Promise<{ fixtures: Fixtures }> 
   await client.query(`INSERT INTO users (id, shop_id, email, name, role, password_hash)
     SELECT 'user-fuzz-target', shop_id, 'fuzz-target@demo.test', 'Fuzz Target', 'tech', password_hash FROM users WHERE email = 'tech@demo.test'`);
   for (const [role, email] of Object.entries(SETUP_PEOPLE)) {
-    await client.query(`INSERT INTO users (id, shop_id, email, name, role, password_hash) SELECT $1, shop_id, $2, $3, $4, password_hash FROM users WHERE email = 'tech@demo.test'`, [`user-fuzz-setup-${role}`, email, `Fuzz set-up ${role}`, role]);
+    await client.query(
+      `INSERT INTO users (id, shop_id, email, name, role, password_hash) SELECT $1, shop_id, $2, $3, $4, password_hash FROM users WHERE email = 'tech@demo.test'`,
+      [`user-fuzz-setup-${role}`, email, `Fuzz set-up ${role}`, role],
+    );
   }
-  const q = (await client.query<{ id: string; job_id: string }>("SELECT id, job_id FROM quotes WHERE shop_id = 'shop-demo' ORDER BY (status = 'sent') DESC, id LIMIT 1")).rows[0];
+  const q = (
+    await client.query<{ id: string; job_id: string }>("SELECT id, job_id FROM quotes WHERE shop_id = 'shop-demo' ORDER BY (status = 'sent') DESC, id LIMIT 1")
+  ).rows[0];
   const jobId = q?.job_id ?? (await client.query<{ id: string }>("SELECT id FROM jobs WHERE shop_id = 'shop-demo' ORDER BY id LIMIT 1")).rows[0]!.id;
   const inv = (await client.query<{ id: string }>('SELECT id FROM invoices WHERE job_id = $1 LIMIT 1', [jobId])).rows[0];
   const linkToken = randomBytes(32).toString('base64url'); // the shape of a mailed link's token
-  await client.query("INSERT INTO customer_links (id, shop_id, job_id, token_hash, expires_at) VALUES ($1, 'shop-demo', $2, $3, now() + interval '1 day')", [randomUUID(), jobId, sha256(linkToken)]);
+  await client.query("INSERT INTO customer_links (id, shop_id, job_id, token_hash, expires_at) VALUES ($1, 'shop-demo', $2, $3, now() + interval '1 day')", [
+    randomUUID(),
+    jobId,
+    sha256(linkToken),
+  ]);
   return { fixtures: { linkToken, linkQuoteId: q?.id ?? 'no-such-id', linkInvoiceId: inv?.id ?? 'no-such-id', targetUserId: 'user-fuzz-target' } };
 }
 
@@ -245,7 +254,21 @@ export async function runFuzz({ total, seed, only, log }: { total: number; seed?
     MAIL_CAPTURE_DIR: mailDir,
   });
   const client = new pg.Client({ connectionString: db.url });
-  const report: FuzzReport = { ok: false, tried: 0, routes: routes.length, accepted: 0, refused: 0, serverErrors: [], changes: [], stateErrors: [], setupErrors: [], perRoute: {}, unmapped: [], statuses: {}, seconds: 0 };
+  const report: FuzzReport = {
+    ok: false,
+    tried: 0,
+    routes: routes.length,
+    accepted: 0,
+    refused: 0,
+    serverErrors: [],
+    changes: [],
+    stateErrors: [],
+    setupErrors: [],
+    perRoute: {},
+    unmapped: [],
+    statuses: {},
+    seconds: 0,
+  };
   try {
     await server.start();
     await client.connect();
@@ -303,11 +326,22 @@ export async function runFuzz({ total, seed, only, log }: { total: number; seed?
         }
         const url = server.url + paths[i % 7 === 6 ? 1 : 0];
         // a change of one's own password needs the current one, which an earlier accepted change may have changed
-        const text = fillFields(name === 'POST /api/me/password' ? p.text.replace(`"currentPassword":"${DEMO_PASSWORD}"`, `"currentPassword":${JSON.stringify(passwords[k])}`) : p.text, fresh);
+        const text = fillFields(
+          name === 'POST /api/me/password'
+            ? p.text.replace(`"currentPassword":"${DEMO_PASSWORD}"`, `"currentPassword":${JSON.stringify(passwords[k])}`)
+            : p.text,
+          fresh,
+        );
         // An upload's body is a picture: three in four payloads are a whole small PNG or JPEG, some for a job.
         const picture = name === 'POST /api/uploads' && i % 4 !== 3 ? await smallPicture((i * 0.618) % 1) : null;
         const answer = picture
-          ? await send('POST', `${url}?${new URLSearchParams({ name: `board-${i}.${picture.type === 'image/png' ? 'png' : 'jpg'}`, ...(i % 2 && realIds.jobId?.length ? { jobId: String(realIds.jobId[i % realIds.jobId.length]) } : {}) })}`, { text: '', bytes: picture.bytes, contentType: picture.type, label: 'picture' }, session, false)
+          ? await send(
+              'POST',
+              `${url}?${new URLSearchParams({ name: `board-${i}.${picture.type === 'image/png' ? 'png' : 'jpg'}`, ...(i % 2 && realIds.jobId?.length ? { jobId: String(realIds.jobId[i % realIds.jobId.length]) } : {}) })}`,
+              { text: '', bytes: picture.bytes, contentType: picture.type, label: 'picture' },
+              session,
+              false,
+            )
           : await send(route.method, url, { ...p, text }, session, route.path.includes('/webhooks/'));
         const status = answer.status;
         report.tried++;
@@ -326,8 +360,10 @@ export async function runFuzz({ total, seed, only, log }: { total: number; seed?
           if (name === 'POST /api/me/password') passwords[k] = (JSON.parse(text) as { newPassword: string }).newPassword;
           // State assertions: a read writes nothing of substance, and a 201 stored a row somewhere.
           const stray = route.method === 'GET' ? changed.filter((t) => !READS_MAY_WRITE.includes(t)) : [];
-          if (stray.length && report.stateErrors.length < 20) report.stateErrors.push({ route: name, status, label: p.label, problem: `a read changed ${stray.join(', ')}` });
-          if (status === 201 && inserted.length === 0 && report.stateErrors.length < 20) report.stateErrors.push({ route: name, status, label: p.label, problem: '201 Created but no table has a new row' });
+          if (stray.length && report.stateErrors.length < 20)
+            report.stateErrors.push({ route: name, status, label: p.label, problem: `a read changed ${stray.join(', ')}` });
+          if (status === 201 && inserted.length === 0 && report.stateErrors.length < 20)
+            report.stateErrors.push({ route: name, status, label: p.label, problem: '201 Created but no table has a new row' });
         } else {
           report.refused++;
           stats.refused++;
@@ -342,7 +378,9 @@ export async function runFuzz({ total, seed, only, log }: { total: number; seed?
           await takeWrites(client);
         }
       }
-      log(`fuzz: ${name}: ${stats.accepted} accepted, ${stats.refused} refused of ${samples.length}${schema ? ` from ${route.schemaName}` : ' (no contract schema found)'}`);
+      log(
+        `fuzz: ${name}: ${stats.accepted} accepted, ${stats.refused} refused of ${samples.length}${schema ? ` from ${route.schemaName}` : ' (no contract schema found)'}`,
+      );
     }
     const h = await fetch(`${server.url}/api/health`).catch(() => null);
     if (!h || h.status !== 200) report.serverErrors.push({ route: 'GET /api/health after fuzzing', status: h?.status ?? 0, label: 'health', sample: '' });
@@ -353,11 +391,18 @@ export async function runFuzz({ total, seed, only, log }: { total: number; seed?
     rmSync(mailDir, { recursive: true, force: true });
   }
   report.seconds = (Date.now() - t0) / 1000;
-  report.ok = report.tried > 0 && report.setupErrors.length === 0 && report.serverErrors.length === 0 && report.changes.length === 0 && report.stateErrors.length === 0;
+  report.ok =
+    report.tried > 0 && report.setupErrors.length === 0 && report.serverErrors.length === 0 && report.changes.length === 0 && report.stateErrors.length === 0;
   return report;
 }
 
-async function send(method: string, url: string, p: FuzzPayload & { bytes?: Buffer }, session: Session | null, signed: boolean): Promise<{ status: number; body: string }> {
+async function send(
+  method: string,
+  url: string,
+  p: FuzzPayload & { bytes?: Buffer },
+  session: Session | null,
+  signed: boolean,
+): Promise<{ status: number; body: string }> {
   const headers: Record<string, string> = {};
   if (signed) headers['stripe-signature'] = signWebhook(p.text);
   if (p.contentType) headers['content-type'] = p.contentType;
@@ -394,8 +439,17 @@ export function printFuzzReport(r: FuzzReport, log: (l: string) => void = consol
   for (const e of r.stateErrors) log(`fuzz: FAIL accepted ${e.status} from ${e.route} (${e.label}): ${e.problem}`);
   for (const e of r.setupErrors) log(`fuzz: set-up failed for ${e}`);
   log('fuzz: accepted / refused per route:');
-  for (const [route, s] of Object.entries(r.perRoute)) log(`  ${route.padEnd(52)} ${String(s.accepted).padStart(5)} / ${String(s.refused).padStart(5)}  (${Math.round((100 * s.accepted) / Math.max(1, s.accepted + s.refused))} % accepted)`);
-  log(`fuzz: tried ${r.tried} payloads on ${r.routes} routes (${r.refused} refused, ${r.accepted} accepted) in ${r.seconds.toFixed(1)} s: ${r.serverErrors.length} server errors, ${r.changes.length} refused requests that changed the database, ${r.stateErrors.length} accepted requests with the wrong effect`);
-  log(`fuzz: answers by status: ${Object.entries(r.statuses).map(([k, v]) => `${k}: ${v}`).join(', ')}`);
+  for (const [route, s] of Object.entries(r.perRoute))
+    log(
+      `  ${route.padEnd(52)} ${String(s.accepted).padStart(5)} / ${String(s.refused).padStart(5)}  (${Math.round((100 * s.accepted) / Math.max(1, s.accepted + s.refused))} % accepted)`,
+    );
+  log(
+    `fuzz: tried ${r.tried} payloads on ${r.routes} routes (${r.refused} refused, ${r.accepted} accepted) in ${r.seconds.toFixed(1)} s: ${r.serverErrors.length} server errors, ${r.changes.length} refused requests that changed the database, ${r.stateErrors.length} accepted requests with the wrong effect`,
+  );
+  log(
+    `fuzz: answers by status: ${Object.entries(r.statuses)
+      .map(([k, v]) => `${k}: ${v}`)
+      .join(', ')}`,
+  );
   log(r.ok ? 'fuzz: ok' : 'fuzz: FAILED');
 }

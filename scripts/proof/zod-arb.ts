@@ -26,7 +26,10 @@ export function validArb(schema: Any, depth = 0, ids: Record<string, unknown[]> 
       const format = s.format as string | null;
       if (format === 'datetime') return fc.date({ min: new Date('2020-01-01'), max: new Date('2030-01-01'), noInvalidDate: true }).map((d) => d.toISOString());
       // the contract's e-mail check is stricter than RFC 5322 (no quoted or exotic local parts): addresses it takes
-      if (format === 'email') return fc.tuple(fc.string({ unit: safeLetters, minLength: 1, maxLength: 12 }), fc.string({ unit: safeLetters, minLength: 1, maxLength: 12 })).map(([a, b]) => `${a}@${b}.test`);
+      if (format === 'email')
+        return fc
+          .tuple(fc.string({ unit: safeLetters, minLength: 1, maxLength: 12 }), fc.string({ unit: safeLetters, minLength: 1, maxLength: 12 }))
+          .map(([a, b]) => `${a}@${b}.test`);
       if (format === 'uuid') return fc.uuid();
       if (format === 'url') return fc.webUrl();
       // The schema's own pattern: values a `^\d{1,3}(\.\d{1,3})?$` tax rate or a quantity accepts, not a made-up shape.
@@ -42,7 +45,9 @@ export function validArb(schema: Any, depth = 0, ids: Record<string, unknown[]> 
     case 'number': {
       const min = Number.isFinite(s.minValue as number) ? (s.minValue as number) : -1e6;
       const max = Number.isFinite(s.maxValue as number) ? (s.maxValue as number) : 1e6;
-      return s.isInt ? fc.integer({ min: Math.ceil(Math.max(min, -1e9)), max: Math.floor(Math.min(max, 1e9)) }) : fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
+      return s.isInt
+        ? fc.integer({ min: Math.ceil(Math.max(min, -1e9)), max: Math.floor(Math.min(max, 1e9)) })
+        : fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
     }
     case 'int':
       return fc.integer({ min: 0, max: 1000 });
@@ -60,7 +65,9 @@ export function validArb(schema: Any, depth = 0, ids: Record<string, unknown[]> 
       const required: string[] = [];
       for (const [k, v] of Object.entries(shape)) {
         const real = ids[k];
-        model[k] = real?.length ? fc.oneof({ weight: 4, arbitrary: fc.constantFrom(...real) }, { weight: 1, arbitrary: validArb(v, depth + 1, ids) }) : validArb(v, depth + 1, ids);
+        model[k] = real?.length
+          ? fc.oneof({ weight: 4, arbitrary: fc.constantFrom(...real) }, { weight: 1, arbitrary: validArb(v, depth + 1, ids) })
+          : validArb(v, depth + 1, ids);
         if (!isOptional(v)) required.push(k);
       }
       return fc.record(model, { requiredKeys: required as never[] });
@@ -78,7 +85,9 @@ export function validArb(schema: Any, depth = 0, ids: Record<string, unknown[]> 
     case 'pipe':
       return validArb(def.in as Any, depth, ids);
     case 'record':
-      return depth > 3 ? fc.constant({}) : fc.dictionary(fc.string({ unit: safeChars, minLength: 1, maxLength: 8 }), validArb(def.valueType as Any, depth + 1, ids), { maxKeys: 3 });
+      return depth > 3
+        ? fc.constant({})
+        : fc.dictionary(fc.string({ unit: safeChars, minLength: 1, maxLength: 8 }), validArb(def.valueType as Any, depth + 1, ids), { maxKeys: 3 });
     case 'unknown':
     case 'any':
       return fc.jsonValue({ maxDepth: 2 });
@@ -196,7 +205,12 @@ export function payloadArbOf(valid: fc.Arbitrary<unknown>, keys: string[]): fc.A
       weight: 2,
       arbitrary: fc.tuple(valid, fc.constantFrom(...PROTO_PREFIXES)).map(([v, p]) => ({ value: { __raw: p, v }, label: 'prototype keys' })),
     },
-    { weight: 1, arbitrary: fc.constantFrom('{', '{"a":', '[1,2', 'nul', '\u0000', '{"a":1}{"b":2}', '"\\ud800"').map((t) => ({ value: { __text: t }, label: 'broken JSON' })) },
+    {
+      weight: 1,
+      arbitrary: fc
+        .constantFrom('{', '{"a":', '[1,2', 'nul', '\u0000', '{"a":1}{"b":2}', '"\\ud800"')
+        .map((t) => ({ value: { __text: t }, label: 'broken JSON' })),
+    },
   );
   return fc.tuple(body, contentTypes).map(([b, given]) => {
     const ct = b.label === 'well-formed' ? { type: 'application/json' } : given;
@@ -207,6 +221,11 @@ export function payloadArbOf(valid: fc.Arbitrary<unknown>, keys: string[]): fc.A
       const inner = stringifySafe(raw.v);
       text = inner.startsWith('{') && inner !== '{}' ? `{${raw.__raw},${inner.slice(1)}` : `{${raw.__raw}}`;
     } else text = spliceDeep(stringifySafe(b.value));
-    return { text, contentType: ct.type, contentEncoding: ct.encoding, label: `${b.label}; ${ct.type ?? 'no content type'}${ct.encoding ? ` + ${ct.encoding}` : ''}` };
+    return {
+      text,
+      contentType: ct.type,
+      contentEncoding: ct.encoding,
+      label: `${b.label}; ${ct.type ?? 'no content type'}${ct.encoding ? ` + ${ct.encoding}` : ''}`,
+    };
   });
 }

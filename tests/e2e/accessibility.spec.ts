@@ -7,7 +7,10 @@ async function noSeriousViolations(page: Page, name: string) {
   await page.screenshot({ path: `tests/artifacts/axe-${name}.png`, fullPage: true });
   const r = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']).analyze();
   const bad = r.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical');
-  expect(bad.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`), `${name}: serious or critical violations`).toEqual([]);
+  expect(
+    bad.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`),
+    `${name}: serious or critical violations`,
+  ).toEqual([]);
 }
 
 test('sign-in has no serious accessibility violations', async ({ page }) => {

@@ -26,7 +26,12 @@ test.describe('bench meter', () => {
 
   test('a reading triggered on the meter lands in the open bench within 1 s', async ({ page }) => {
     const setup = await benchSetup();
-    const job = await send<{ id: string }>(setup.tech, 'post', '/jobs', { customerId: setup.customerId, boardId: setup.boardId, unitDescription: 'Outdoor unit', symptom: 'Fan never starts' });
+    const job = await send<{ id: string }>(setup.tech, 'post', '/jobs', {
+      customerId: setup.customerId,
+      boardId: setup.boardId,
+      unitDescription: 'Outdoor unit',
+      symptom: 'Fan never starts',
+    });
     pair = await openPtyPair();
     sim = await ScpiMeterSim.open(pair.simPort);
     sim.noise = 0;

@@ -10,17 +10,26 @@ const DATE = new Date().toISOString().slice(0, 10);
 test('at 1024×768 the bench fits one screen: map, reading entry, ranking and next test', async ({ page }) => {
   await page.setViewportSize({ width: 1024, height: 768 });
   await signIn(page, 'tech@demo.test');
-  const job = (await getJson<JobList>(page, '/jobs?status=diagnosing&assignee=me')).items[0] ?? (await getJson<JobList>(page, '/jobs?status=received,diagnosing')).items[0]!;
+  const job =
+    (await getJson<JobList>(page, '/jobs?status=diagnosing&assignee=me')).items[0] ??
+    (await getJson<JobList>(page, '/jobs?status=received,diagnosing')).items[0]!;
   await page.goto(`/jobs/${job.id}?mode=free`);
   await page.getByRole('tab', { name: 'Test points' }).click();
-  await page.getByRole('navigation', { name: 'Test points' }).getByRole('button', { name: /^TP3 15 V rail/ }).click();
+  await page
+    .getByRole('navigation', { name: 'Test points' })
+    .getByRole('button', { name: /^TP3 15 V rail/ })
+    .click();
   await page.getByRole('tab', { name: 'Board map' }).click();
   await expect(page.getByLabel('Measured value')).toBeVisible();
   await expect(page.getByRole('heading', { name: 'Probable faulty parts' })).toBeVisible({ timeout: 45_000 });
   await expect(page.getByRole('heading', { name: 'Next tests' })).toBeVisible();
   const scroll = await page.evaluate(() => document.documentElement.scrollHeight - window.innerHeight);
   expect(scroll, 'the page itself does not scroll').toBeLessThanOrEqual(1);
-  for (const el of [page.getByLabel('Measured value'), page.getByRole('heading', { name: 'Probable faulty parts' }), page.getByTestId('ranking-area').getByRole('button').first()]) {
+  for (const el of [
+    page.getByLabel('Measured value'),
+    page.getByRole('heading', { name: 'Probable faulty parts' }),
+    page.getByTestId('ranking-area').getByRole('button').first(),
+  ]) {
     const box = (await el.boundingBox())!;
     expect(box.y + box.height).toBeLessThanOrEqual(768);
   }

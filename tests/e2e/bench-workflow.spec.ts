@@ -12,7 +12,14 @@ import { jobsInEachStatus } from './support/job-states';
 async function newJob(page: Page, symptom: string): Promise<JobDetail> {
   const r = await fetchInPage(page, '/jobs', {
     method: 'POST',
-    body: { customerId: 'customer-coastline', boardId: 'board-demo-ofd-220', unitDescription: 'Outdoor unit, bench test', faultCode: 'F7', symptom, assigneeId: 'user-tech' },
+    body: {
+      customerId: 'customer-coastline',
+      boardId: 'board-demo-ofd-220',
+      unitDescription: 'Outdoor unit, bench test',
+      faultCode: 'F7',
+      symptom,
+      assigneeId: 'user-tech',
+    },
   });
   expect(r.status, JSON.stringify(r.body)).toBe(201);
   return getJson<JobDetail>(page, `/jobs/${(r.body as { id: string }).id}`);
@@ -130,7 +137,10 @@ test.describe('technician at the bench', () => {
     await expect(page.getByTestId('reading-row').first().getByTestId('board-state')).toHaveText('unplugged, C10 lifted');
 
     // Propose any candidate, with a note.
-    await page.getByRole('button', { name: /C10 capacitor — shorted/ }).first().click();
+    await page
+      .getByRole('button', { name: /C10 capacitor — shorted/ })
+      .first()
+      .click();
     await page.getByLabel('Note for the lead').fill('TP5 reads 1.3 kΩ with C10 lifted: C10 is the short.');
     await page.getByRole('button', { name: /^Propose C10/ }).click();
     await expect(page.getByText(/waiting for a lead’s review/)).toBeVisible();
@@ -154,11 +164,17 @@ test.describe('technician at the bench', () => {
 });
 
 test.describe('repair, sign-off and return', () => {
-  test('verification is a short checklist; an unpowered reading across the bus waits for the gate; the lead signs off from home; the board leaves by courier', async ({ page, browser }) => {
+  test('verification is a short checklist; an unpowered reading across the bus waits for the gate; the lead signs off from home; the board leaves by courier', async ({
+    page,
+    browser,
+  }) => {
     await signIn(page, 'tech@demo.test');
     const job = await newJob(page, 'Bus bleeder open');
     // Through diagnosis and review by the API: this test is about what follows the repair.
-    await fetchInPage(page, `/jobs/${job.id}/readings`, { method: 'POST', body: { idempotencyKey: crypto.randomUUID(), mode: 'dcv', red: 'TP1', black: '0', power: 'on', value: 310, raw: '310' } });
+    await fetchInPage(page, `/jobs/${job.id}/readings`, {
+      method: 'POST',
+      body: { idempotencyKey: crypto.randomUUID(), mode: 'dcv', red: 'TP1', black: '0', power: 'on', value: 310, raw: '310' },
+    });
     expect((await fetchInPage(page, `/jobs/${job.id}`, { method: 'PATCH', body: { status: 'awaiting-review', proposedPart: 'R1' } })).status).toBe(200);
     const lead = await browser.newPage();
     await signIn(lead, 'lead@demo.test');
@@ -167,7 +183,10 @@ test.describe('repair, sign-off and return', () => {
     await page.getByLabel('Replacement value').fill('470k');
     await page.getByRole('button', { name: 'Save the repair' }).click();
     await expect(page.getByRole('heading', { name: /Verification checklist/ })).toBeVisible();
-    const rows = page.getByRole('heading', { name: /Verification checklist/ }).locator('..').getByRole('listitem');
+    const rows = page
+      .getByRole('heading', { name: /Verification checklist/ })
+      .locator('..')
+      .getByRole('listitem');
     expect(await rows.count()).toBeLessThanOrEqual(8);
 
     const bus = page.getByLabel(/Verification reading: TP1 DC bus \+ · Ω · unplugged/);

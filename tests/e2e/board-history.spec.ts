@@ -11,7 +11,10 @@ test('a warranty return is flagged at intake and on the job, in the bench’s wo
   const earlier = await returnedJob(setup, { serial });
 
   await signIn(page, 'tech@demo.test');
-  for (const viewport of [{ width: 1024, height: 768 }, { width: 390, height: 844 }]) {
+  for (const viewport of [
+    { width: 1024, height: 768 },
+    { width: 390, height: 844 },
+  ]) {
     await page.setViewportSize(viewport);
     await page.goto('/jobs/new');
     await page.getByLabel('Board serial (optional)').fill(serial.toLowerCase());

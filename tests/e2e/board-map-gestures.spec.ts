@@ -57,11 +57,17 @@ async function emptySpot(map: Locator, doc: BoardModel, room = 60): Promise<Pt> 
 }
 
 const pointRow = (page: Page, id: string) =>
-  page.getByRole('region', { name: 'Test points' }).getByRole('listitem').filter({ has: page.getByRole('button', { name: id, exact: true }) });
+  page
+    .getByRole('region', { name: 'Test points' })
+    .getByRole('listitem')
+    .filter({ has: page.getByRole('button', { name: id, exact: true }) });
 
 /** The board position the editor lists for a point. */
 async function listedAt(page: Page, id: string): Promise<Pt> {
-  const text = (await pointRow(page, id).getByText(/^-?\d+, -?\d+$/).textContent()) ?? '';
+  const text =
+    (await pointRow(page, id)
+      .getByText(/^-?\d+, -?\d+$/)
+      .textContent()) ?? '';
   const m = /^(-?\d+), (-?\d+)$/.exec(text);
   expect(m, `coordinates in the row of ${id}: "${text}"`).not.toBeNull();
   return { x: Number(m![1]), y: Number(m![2]) };

@@ -55,7 +55,9 @@ test.describe('the customer page', () => {
     const billing = await getJson<JobBilling>(page, `/jobs/${job.id}/billing`);
     expect(billing.quotes.find((q) => q.id === quote.id)?.status).toBe('approved');
     await page.goto(`/jobs/${job.id}/billing`);
-    await expect(page.getByRole('article').filter({ has: page.getByRole('heading', { name: `Quote ${quote.number}`, exact: true }) })).toContainText('Approved by the customer');
+    await expect(page.getByRole('article').filter({ has: page.getByRole('heading', { name: `Quote ${quote.number}`, exact: true }) })).toContainText(
+      'Approved by the customer',
+    );
     await admin.close();
   });
 });

@@ -18,7 +18,10 @@ test('customers: list, search, add, edit, merge a duplicate, their jobs', async 
   const keep = await made({ name: `Helga Strand ${tag}`, company: 'Fjordline Cooling', email: `helga.${tag}@fjordline.test`, phone: '555-0133' });
   const dup = await made({ name: `H. Strand ${tag}`, company: 'Fjordline Cooling' });
   const board = (await getJson<BoardList>(page, '/boards')).items[0]!;
-  const job = await fetchInPage(page, '/jobs', { method: 'POST', body: { customerId: dup.id, unitDescription: 'Outdoor unit, 3.5 kW', boardId: board.id, symptom: 'Outdoor fan never starts' } });
+  const job = await fetchInPage(page, '/jobs', {
+    method: 'POST',
+    body: { customerId: dup.id, unitDescription: 'Outdoor unit, 3.5 kW', boardId: board.id, symptom: 'Outdoor fan never starts' },
+  });
   expect(job.status).toBe(201);
   const jobNumber = (job.body as { number: number }).number;
 

@@ -15,7 +15,12 @@ const LOG = [
 
 test('a meter log with good and bad rows: preview, bind, import once', async ({ page }) => {
   const setup = await benchSetup();
-  const job = await send<{ id: string }>(setup.tech, 'post', '/jobs', { customerId: setup.customerId, boardId: setup.boardId, unitDescription: 'Outdoor unit', symptom: 'Fan never starts' });
+  const job = await send<{ id: string }>(setup.tech, 'post', '/jobs', {
+    customerId: setup.customerId,
+    boardId: setup.boardId,
+    unitDescription: 'Outdoor unit',
+    symptom: 'Fan never starts',
+  });
 
   await signIn(page, 'tech@demo.test');
   await page.setViewportSize({ width: 1024, height: 768 });

@@ -40,7 +40,8 @@ test('a board not in the library: photo, six points, three template sections, a 
   const box = (await stage.boundingBox())!;
   const at = (fx: number, fy: number) => ({ x: box.x + fx * box.width, y: box.y + fy * box.height });
   const drag = async (from: [number, number], to: [number, number]) => {
-    const a = at(...from), b = at(...to);
+    const a = at(...from),
+      b = at(...to);
     await page.mouse.move(a.x, a.y);
     await page.mouse.down();
     await page.mouse.move((a.x + b.x) / 2, (a.y + b.y) / 2);
@@ -72,7 +73,14 @@ test('a board not in the library: photo, six points, three template sections, a 
 
   // Six test points, then the nets they sit on.
   await page.getByRole('button', { name: 'Place test point' }).click();
-  const spots: [number, number][] = [[0.1, 0.2], [0.3, 0.3], [0.55, 0.2], [0.8, 0.25], [0.2, 0.7], [0.4, 0.8]];
+  const spots: [number, number][] = [
+    [0.1, 0.2],
+    [0.3, 0.3],
+    [0.55, 0.2],
+    [0.8, 0.25],
+    [0.2, 0.7],
+    [0.4, 0.8],
+  ];
   for (const s of spots) {
     const p = at(...s);
     await page.mouse.click(p.x, p.y);
@@ -81,7 +89,11 @@ test('a board not in the library: photo, six points, three template sections, a 
   await page.getByRole('button', { name: 'Save draft' }).click();
   await expect(page.getByText(/Draft saved .*expected values computed/)).toBeVisible({ timeout: 60_000 });
   const nets = ['vbus', 'bus_mid', 'reg15_vin', 'v15', 'v15sw', 'fan-switch_b'];
-  for (const [i, net] of nets.entries()) await page.getByTestId(`point-TP${i + 1}`).getByLabel('Net').fill(net);
+  for (const [i, net] of nets.entries())
+    await page
+      .getByTestId(`point-TP${i + 1}`)
+      .getByLabel('Net')
+      .fill(net);
   await page.getByTestId('point-TP4').getByLabel('Label').fill('15 V rail');
   await page.getByRole('button', { name: 'Save draft' }).click();
   await expect(page.getByText(/Draft saved .*expected values computed/)).toBeVisible({ timeout: 60_000 });
@@ -96,11 +108,15 @@ test('a board not in the library: photo, six points, three template sections, a 
 
   // A second job on the board is judged against the published model; its first ranking (seconds of the engine's
   // time) is asked for now and computed while the known-good board is recorded.
-  const second = await fetchInPage(page, '/jobs', { method: 'POST', body: { customerId, unitDescription: 'Wall unit, indoor', boardId: first.boardId, symptom: 'Fan never starts' } });
+  const second = await fetchInPage(page, '/jobs', {
+    method: 'POST',
+    body: { customerId, unitDescription: 'Wall unit, indoor', boardId: first.boardId, symptom: 'Fan never starts' },
+  });
   expect(second.status).toBe(201);
   const jobId = (second.body as { id: string }).id;
   const reading = await fetchInPage(page, `/jobs/${jobId}/readings`, {
-    method: 'POST', body: { idempotencyKey: `capture-${suffix}`, mode: 'dcv', red: 'TP5', black: 'gnd', power: 'on', value: 0.4, raw: '0.4' },
+    method: 'POST',
+    body: { idempotencyKey: `capture-${suffix}`, mode: 'dcv', red: 'TP5', black: 'gnd', power: 'on', value: 0.4, raw: '0.4' },
   });
   expect(reading.status).toBe(201);
   expect((reading.body as { verdict: { verdict: string } }).verdict.verdict).toBe('low');

@@ -27,7 +27,10 @@ test('a repair takes a part from the bin; the drawer lands on the reorder list; 
   await expect(page.getByText(/R2 replaced with 10k/).first()).toBeVisible();
   await expect(bin.locator('option', { hasText: `drawer ${drawer} · 1 left` })).toHaveCount(1);
 
-  for (const viewport of [{ width: 1024, height: 768 }, { width: 390, height: 844 }]) {
+  for (const viewport of [
+    { width: 1024, height: 768 },
+    { width: 390, height: 844 },
+  ]) {
     await page.setViewportSize(viewport);
     await page.goto('/parts-bin');
     const reorder = page.getByRole('region', { name: 'Reorder list' });

@@ -24,7 +24,7 @@ function chunk(type: string, data: Buffer): Buffer {
 /** An RGB PNG of width × height; 1400 × 1000 is about 4.2 MB. Seeded noise, so runs are alike. */
 export function boardPhoto(width = 1400, height = 1000): Buffer {
   let seed = 1;
-  const rnd = () => ((seed = (seed * 1103515245 + 12345) & 0x7fffffff) / 0x7fffffff);
+  const rnd = () => (seed = (seed * 1103515245 + 12345) & 0x7fffffff) / 0x7fffffff;
   const raw = Buffer.alloc((width * 3 + 1) * height);
   for (let y = 0; y < height; y++) {
     const row = y * (width * 3 + 1);

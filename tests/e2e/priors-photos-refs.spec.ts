@@ -49,7 +49,12 @@ function phonePhoto(): Buffer {
   ihdr.writeUInt32BE(w, 0);
   ihdr.writeUInt32BE(h, 4);
   ihdr.set([8, 2, 0, 0, 0], 8);
-  return Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), chunk('IHDR', ihdr), chunk('IDAT', deflateSync(raw, { level: 1 })), chunk('IEND', Buffer.alloc(0))]);
+  return Buffer.concat([
+    Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]),
+    chunk('IHDR', ihdr),
+    chunk('IDAT', deflateSync(raw, { level: 1 })),
+    chunk('IEND', Buffer.alloc(0)),
+  ]);
 }
 
 test.describe.configure({ timeout: 180_000 });
@@ -93,14 +98,24 @@ test.describe('photos', () => {
 test('known-good references: three labelled sources per point in the board editor', async ({ page }) => {
   await signIn(page, 'admin@demo.test');
   const board = await copyBoard(page, DEMO_BOARD_IDS.outdoorFan);
-  for (const [serial, rail] of [['GOOD-A', 14.96], ['GOOD-B', 14.9], ['GOOD-C', 15.02]] as const) {
-    await api.send(page, 'POST', `/boards/${board.id}/references`, {
-      serial,
-      readings: [
-        { mode: 'dcv', red: 'TP3', black: 'gnd', power: 'on', value: rail },
-        { mode: 'dcv', red: 'TP5', black: 'gnd', power: 'on', value: rail - 0.2 },
-      ],
-    }, 201);
+  for (const [serial, rail] of [
+    ['GOOD-A', 14.96],
+    ['GOOD-B', 14.9],
+    ['GOOD-C', 15.02],
+  ] as const) {
+    await api.send(
+      page,
+      'POST',
+      `/boards/${board.id}/references`,
+      {
+        serial,
+        readings: [
+          { mode: 'dcv', red: 'TP3', black: 'gnd', power: 'on', value: rail },
+          { mode: 'dcv', red: 'TP5', black: 'gnd', power: 'on', value: rail - 0.2 },
+        ],
+      },
+      201,
+    );
   }
   await page.setViewportSize({ width: 1024, height: 768 });
   await page.goto(`/boards/${board.id}`);

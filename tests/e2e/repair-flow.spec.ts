@@ -44,7 +44,9 @@ test('tech diagnoses on the map, lead approves, tech repairs and verifies, the r
     await page.getByLabel('Measured value').press('Enter');
     await expect(page.getByTestId('verdict')).toBeVisible();
     // A new reading can need new fault simulations on the server: allow for a busy 2-core machine.
-    await expect.poll(async () => (await getJson<Diagnosis>(page, `/jobs/${job.id}/diagnosis`)).readings.length, { timeout: 60_000 }).toBe(d.readings.length + 1);
+    await expect
+      .poll(async () => (await getJson<Diagnosis>(page, `/jobs/${job.id}/diagnosis`)).readings.length, { timeout: 60_000 })
+      .toBe(d.readings.length + 1);
     d = await getJson<Diagnosis>(page, `/jobs/${job.id}/diagnosis`);
   }
   expect(gates, 'the flow passed the safety gate before its unpowered steps').toBeGreaterThan(0);

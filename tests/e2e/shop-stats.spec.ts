@@ -9,7 +9,13 @@ test('the statistics page shows failures by part, time to verification, repeat r
   const setup = await benchSetup();
   const serial = `BRD-${randomUUID().slice(0, 8)}`;
   const first = await returnedJob(setup, { serial });
-  const back = await send<{ number: number }>(setup.tech, 'post', '/jobs', { customerId: setup.customerId, boardId: setup.boardId, unitDescription: 'Outdoor unit', serial, symptom: 'Fan stops again' });
+  const back = await send<{ number: number }>(setup.tech, 'post', '/jobs', {
+    customerId: setup.customerId,
+    boardId: setup.boardId,
+    unitDescription: 'Outdoor unit',
+    serial,
+    symptom: 'Fan stops again',
+  });
 
   await signIn(page, 'lead@demo.test');
   await page.setViewportSize({ width: 1024, height: 768 });
@@ -20,7 +26,12 @@ test('the statistics page shows failures by part, time to verification, repeat r
   const repeats = page.getByRole('region', { name: 'First-time fix and repeat returns' });
   await expect(repeats.getByRole('row').filter({ hasText: serial })).toContainText(`#${back.number}`);
   await expect(repeats.getByRole('row').filter({ hasText: serial })).toContainText(`#${first.number}`);
-  await expect(page.getByRole('region', { name: 'Intake to verification readings' }).getByRole('row').filter({ hasText: `Divider test board ${setup.tag}` })).toBeVisible();
+  await expect(
+    page
+      .getByRole('region', { name: 'Intake to verification readings' })
+      .getByRole('row')
+      .filter({ hasText: `Divider test board ${setup.tag}` }),
+  ).toBeVisible();
   await expect(page.getByRole('region', { name: 'Money: quoted, invoiced, paid' }).getByRole('columnheader', { name: 'Invoiced' })).toBeVisible();
   await page.screenshot({ path: 'docs/screens/2026-12-05-stats.png', fullPage: true });
 

@@ -12,7 +12,7 @@ test('a technician signs in and out', async ({ page }) => {
 test.describe('refused sign-in', () => {
   test.use({ expectedConsoleErrors: [/status of 401/] });
   test('a wrong password is refused with a plain message', async ({ page }) => {
-  await signIn(page, 'tech@demo.test', 'not-the-password');
+    await signIn(page, 'tech@demo.test', 'not-the-password');
     await expect(page.getByRole('alert')).toHaveText('E-mail or password is wrong');
   });
 });

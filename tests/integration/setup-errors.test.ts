@@ -33,7 +33,9 @@ describe('database start-up failures are one clear line', () => {
     writeFileSync(join(dir, 'notes.txt'), 'not a cluster');
     const r = setup({ SPLITSCOPE_PG_DIR: dir, SPLITSCOPE_PG_PORT: '54398' });
     expect(r.status).not.toBe(0);
-    expect(r.lines).toEqual([`splitscope: PostgreSQL cannot start: ${dir} exists but is not a PostgreSQL data folder (move it away, or set SPLITSCOPE_PG_DIR)`]);
+    expect(r.lines).toEqual([
+      `splitscope: PostgreSQL cannot start: ${dir} exists but is not a PostgreSQL data folder (move it away, or set SPLITSCOPE_PG_DIR)`,
+    ]);
   });
 
   it('a port that another program holds', async () => {
@@ -43,7 +45,9 @@ describe('database start-up failures are one clear line', () => {
       const r = setup({ SPLITSCOPE_PG_DIR: join(tempDir(), 'pg'), SPLITSCOPE_PG_PORT: String(port) });
       expect(r.status).not.toBe(0);
       const last = r.lines.at(-1);
-      expect(last).toBe(`splitscope: PostgreSQL cannot start: port ${port} on 127.0.0.1 is already taken by another program (set SPLITSCOPE_PG_PORT to a free port)`);
+      expect(last).toBe(
+        `splitscope: PostgreSQL cannot start: port ${port} on 127.0.0.1 is already taken by another program (set SPLITSCOPE_PG_PORT to a free port)`,
+      );
       expect(r.lines.join('\n')).not.toMatch(/\n\s+at /); // no stack trace
     } finally {
       blocker.close();

@@ -22,7 +22,14 @@ const expand = (p: string): string[] => {
   return m ? m[1]!.split(',').flatMap((alt) => expand(p.slice(0, m.index) + alt + p.slice(m.index + m[0].length))) : [p];
 };
 
-const segmentRe = (seg: string) => new RegExp(`^${seg.replace(/[.+?^$()[\]\\]/g, '\\$&').replace(/<[^>]+>/g, '[^/]+').replace(/\*/g, '[^/]*').replace(/NNNN/g, '\\d{4}')}$`);
+const segmentRe = (seg: string) =>
+  new RegExp(
+    `^${seg
+      .replace(/[.+?^$()[\]\\]/g, '\\$&')
+      .replace(/<[^>]+>/g, '[^/]+')
+      .replace(/\*/g, '[^/]*')
+      .replace(/NNNN/g, '\\d{4}')}$`,
+  );
 
 function matches(dir: string, segs: string[]): boolean {
   if (segs.length === 0) return true;

@@ -63,10 +63,27 @@ FCTR  C   E   VSENS  0.8
 .END
 `;
 
-const point = (id: string, net: string) => ({ id, net, label: net, reference: '0', x: 10, y: 10, powerStates: ['on', 'off'], modes: ['dcv', 'ohm'], section: 'aux', touchesBus: false });
+const point = (id: string, net: string) => ({
+  id,
+  net,
+  label: net,
+  reference: '0',
+  x: 10,
+  y: 10,
+  powerStates: ['on', 'off'],
+  modes: ['dcv', 'ohm'],
+  section: 'aux',
+  touchesBus: false,
+});
 const board = (netlist: string) =>
   readBoardModel({
-    schemaVersion: BOARD_MODEL_SCHEMA_VERSION, id: 'foreign', slug: 'foreign', name: 'Foreign deck', family: '', maker: '', picture: { width: 100, height: 100, units: 'px' },
+    schemaVersion: BOARD_MODEL_SCHEMA_VERSION,
+    id: 'foreign',
+    slug: 'foreign',
+    name: 'Foreign deck',
+    family: '',
+    maker: '',
+    picture: { width: 100, height: 100, units: 'px' },
     netlist,
     parts: [{ designator: 'U3', element: 'XREG1', kind: 'regulator', value: '15 V', package: 'TO-220', x: 1, y: 1, section: 'aux', pins: [] }],
     nets: [],

@@ -18,9 +18,13 @@ const fixtures = readdirSync(dir).map((name) => {
 
 describe('lint rules fail on their fixtures', () => {
   const eslint = new ESLint({ cwd: root });
-  it.each(fixtures)('$name fails with $rule', async ({ code, lintAs, rule }) => {
-    const [result] = await eslint.lintText(code, { filePath: join(root, lintAs) });
-    const rules = result!.messages.map((m) => m.ruleId);
-    expect(rules).toContain(rule);
-  }, 120_000);
+  it.each(fixtures)(
+    '$name fails with $rule',
+    async ({ code, lintAs, rule }) => {
+      const [result] = await eslint.lintText(code, { filePath: join(root, lintAs) });
+      const rules = result!.messages.map((m) => m.ruleId);
+      expect(rules).toContain(rule);
+    },
+    120_000,
+  );
 });

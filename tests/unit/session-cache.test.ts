@@ -1,5 +1,13 @@
 import { afterEach, describe, expect, it } from 'vitest';
-import { cachedSession, clearSessionCache, extendCachedSession, forgetSession, forgetUserSessions, keepSession, TTL_MS } from '../../apps/server/src/auth/session-cache';
+import {
+  cachedSession,
+  clearSessionCache,
+  extendCachedSession,
+  forgetSession,
+  forgetUserSessions,
+  keepSession,
+  TTL_MS,
+} from '../../apps/server/src/auth/session-cache';
 
 const session = (id: string, userId: string) => ({ id, userId, expiresAt: new Date(Date.UTC(2030, 0, 1)), attributes: {} });
 const user = (id: string, role: string) => ({ id, attributes: { email: `${id}@x.test`, name: id, role, shopId: 's' } });

@@ -22,7 +22,15 @@ async function password(): Promise<string> {
 }
 
 async function main(): Promise<number> {
-  const { values } = parseArgs({ options: { port: { type: 'string' }, server: { type: 'string' }, email: { type: 'string' }, baud: { type: 'string', default: '9600' }, help: { type: 'boolean' } } });
+  const { values } = parseArgs({
+    options: {
+      port: { type: 'string' },
+      server: { type: 'string' },
+      email: { type: 'string' },
+      baud: { type: 'string', default: '9600' },
+      help: { type: 'boolean' },
+    },
+  });
   if (values.help || !values.port || !values.server || !values.email) {
     console.log(USAGE);
     return values.help ? 0 : 2;

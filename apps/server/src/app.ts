@@ -81,7 +81,9 @@ export function createApp(ctx: AppContext): Express {
   api.use(captureRoutes(ctx));
   // A published version's fault dictionary is built in the background; the version is usable at once.
   const buildDictionary = (versionId: string) =>
-    void ensureDictionary(ctx.db, versionId).catch((err: unknown) => console.error(`splitscope: fault dictionary of ${versionId} not started: ${(err as Error).message}`));
+    void ensureDictionary(ctx.db, versionId).catch((err: unknown) =>
+      console.error(`splitscope: fault dictionary of ${versionId} not started: ${(err as Error).message}`),
+    );
   api.use(boardRoutes(ctx, buildDictionary));
   api.use(jobRoutes(ctx));
   api.use(diagnosisRoutes(ctx));

@@ -18,18 +18,28 @@ const schema = z.object({
    * `0`: build no fault dictionaries (diagnoses simulate as before). The browser-test run sets it, since a build
    * takes a core for a minute per board version and the specs publish board copies by the dozen.
    */
-  FAULT_DICTIONARIES: z.enum(['0', '1']).default('1').transform((v) => v === '1'),
+  FAULT_DICTIONARIES: z
+    .enum(['0', '1'])
+    .default('1')
+    .transform((v) => v === '1'),
   /** Where the built web app lives; served on the same port in production. */
   WEB_DIST: z.string().optional(),
   UPLOAD_DIR: z.string().default('.data/uploads'),
-  UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(20 * 1024 * 1024),
+  UPLOAD_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(20 * 1024 * 1024),
   /** The address people reach the app at; used for links in e-mail and the Origin check. */
   PUBLIC_URL: z.string().url().optional(),
   LOGIN_RATE_LIMIT: z.coerce.number().int().positive().default(10),
   SMTP_HOST: z.string().default('127.0.0.1'),
   SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(2525),
   /** A real relay: `SMTP_SECURE=1` for implicit TLS (port 465); otherwise STARTTLS is used when offered. */
-  SMTP_SECURE: z.enum(['0', '1']).default('0').transform((v) => v === '1'),
+  SMTP_SECURE: z
+    .enum(['0', '1'])
+    .default('0')
+    .transform((v) => v === '1'),
   SMTP_USER: z.string().optional(),
   SMTP_PASS: z.string().optional(),
   MAIL_FROM: z.string().default('Splitscope Demo Repair <bench@demo.test>'),
@@ -74,7 +84,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
   // Against the hosted payment service a forged `checkout.session.completed` would mark invoices paid: the
   // server does not start on a secret anyone could know.
   const missing: string[] = [];
-  if (!c.PAYMENTS_WEBHOOK_SECRET || PUBLISHED.has(c.PAYMENTS_WEBHOOK_SECRET)) missing.push('  PAYMENTS_WEBHOOK_SECRET: the signing secret of the payment webhook (required without LOCAL_FAKES=1)');
+  if (!c.PAYMENTS_WEBHOOK_SECRET || PUBLISHED.has(c.PAYMENTS_WEBHOOK_SECRET))
+    missing.push('  PAYMENTS_WEBHOOK_SECRET: the signing secret of the payment webhook (required without LOCAL_FAKES=1)');
   if (PUBLISHED.has(c.PAYMENTS_SECRET_KEY)) missing.push('  PAYMENTS_SECRET_KEY: the payment service key (required without LOCAL_FAKES=1)');
   if (missing.length) throw new ConfigError(`invalid configuration:\n${missing.join('\n')}`);
   return { ...c, PAYMENTS_WEBHOOK_SECRET: c.PAYMENTS_WEBHOOK_SECRET! };

@@ -8,10 +8,15 @@ try {
   console.log(`splitscope: server listening on ${running.url}`);
   const { upgrade } = running;
   if (upgrade.upgraded) console.log(`splitscope: ${upgrade.upgraded} stored board model version(s) upgraded to the current schema`);
-  for (const f of upgrade.failed) console.error(`splitscope: board model version ${f.versionId} could not be upgraded (${f.message}); jobs on it will refuse to load its board`);
+  for (const f of upgrade.failed)
+    console.error(`splitscope: board model version ${f.versionId} could not be upgraded (${f.message}); jobs on it will refuse to load its board`);
   // The status e-mail sweep, and with LOCAL_FAKES the SMTP capture server and the fake payment API.
   const billing = await startBillingServices(running.ctx, running.url);
-  const stop = () => void billing.stop().then(() => running.close()).then(() => process.exit(0));
+  const stop = () =>
+    void billing
+      .stop()
+      .then(() => running.close())
+      .then(() => process.exit(0));
   process.on('SIGTERM', stop);
   process.on('SIGINT', stop);
 } catch (err) {

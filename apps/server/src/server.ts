@@ -25,10 +25,15 @@ export async function startServer(config: Config): Promise<RunningServer> {
   const { db, pool } = createDatabase(config.DATABASE_URL, config.DB_POOL_SIZE);
   if (config.SPLITSCOPE_MODE === 'shop') {
     // The demo's people sign in with a published password: a real shop never runs on a database that has them.
-    const demo = await db.select({ id: shops.id }).from(shops).where(inArray(shops.id, ['shop-demo', 'shop-other']));
+    const demo = await db
+      .select({ id: shops.id })
+      .from(shops)
+      .where(inArray(shops.id, ['shop-demo', 'shop-other']));
     if (demo.length) {
       await pool.end();
-      throw new ConfigError('SPLITSCOPE_MODE=shop, but this database holds the demo shop; give the real shop its own database (DATABASE_URL or SPLITSCOPE_DB_NAME)');
+      throw new ConfigError(
+        'SPLITSCOPE_MODE=shop, but this database holds the demo shop; give the real shop its own database (DATABASE_URL or SPLITSCOPE_DB_NAME)',
+      );
     }
   }
   const secureCookies = config.PUBLIC_URL?.startsWith('https://') ?? false;

@@ -80,10 +80,22 @@ const TABLE: Entry[] = [
   { method: 'PUT', path: '/api/users/:id/guided-order', roles: REVIEWERS, kind: 'user', body: () => ({ lifted: false }) },
   { method: 'POST', path: '/api/boards/unlisted', roles: BENCH },
   { method: 'GET', path: '/api/boards/:id/draft', roles: ALL, kind: 'board' },
-  { method: 'PUT', path: '/api/boards/:id/draft', roles: BENCH, kind: 'board', body: () => ({ capture: { photo: { uploadId: ids.own.upload, width: 1, height: 1 } } }) },
+  {
+    method: 'PUT',
+    path: '/api/boards/:id/draft',
+    roles: BENCH,
+    kind: 'board',
+    body: () => ({ capture: { photo: { uploadId: ids.own.upload, width: 1, height: 1 } } }),
+  },
   { method: 'POST', path: '/api/boards/:id/publish', roles: REVIEWERS, kind: 'board' },
   { method: 'GET', path: '/api/boards/:id/references', roles: ALL, kind: 'board' },
-  { method: 'POST', path: '/api/boards/:id/references', roles: BENCH, kind: 'board', body: () => ({ readings: [{ mode: 'dcv', red: 'TP1', black: '0', power: 'on', value: 310 }] }) },
+  {
+    method: 'POST',
+    path: '/api/boards/:id/references',
+    roles: BENCH,
+    kind: 'board',
+    body: () => ({ readings: [{ mode: 'dcv', red: 'TP1', black: '0', power: 'on', value: 310 }] }),
+  },
   { method: 'POST', path: '/api/jobs/:id/reference', roles: REVIEWERS, kind: 'job' },
   { method: 'GET', path: '/api/jobs/:id/upload-refusals', roles: ALL, kind: 'job' },
   { method: 'GET', path: '/api/service-terms', roles: ALL },
@@ -105,7 +117,13 @@ const TABLE: Entry[] = [
   { method: 'DELETE', path: '/api/jobs/:id/bench-meter', roles: ALL, kind: 'job' },
   { method: 'GET', path: '/api/bench-meter/next', roles: ALL },
   // A bridge sends answers only for requests of its own person: no request has the id `:armId`.
-  { method: 'POST', path: '/api/bench-meter/requests/:armId/reading', roles: ALL, body: () => ({ answer: '+1.5E+01' }), own: { admin: 404, lead: 404, tech: 404, trainee: 404 } },
+  {
+    method: 'POST',
+    path: '/api/bench-meter/requests/:armId/reading',
+    roles: ALL,
+    body: () => ({ answer: '+1.5E+01' }),
+    own: { admin: 404, lead: 404, tech: 404, trainee: 404 },
+  },
   { method: 'GET', path: '/api/jobs', roles: ALL },
   { method: 'POST', path: '/api/jobs', roles: BENCH },
   { method: 'GET', path: '/api/jobs/:id', roles: ALL, kind: 'job' },
@@ -184,7 +202,16 @@ beforeAll(async () => {
     expect([quote.status, invoice.status]).toEqual([201, 201]);
     const [inv] = await db
       .insert(invitations)
-      .values({ id: crypto.randomUUID(), shopId, email: `matrix-${side}-${crypto.randomUUID()}@matrix.test`, name: 'Matrix Invitee', role: 'tech', tokenHash: crypto.randomUUID(), invitedBy: side === 'own' ? 'user-admin' : author, expiresAt: new Date(Date.now() + 86_400_000) })
+      .values({
+        id: crypto.randomUUID(),
+        shopId,
+        email: `matrix-${side}-${crypto.randomUUID()}@matrix.test`,
+        name: 'Matrix Invitee',
+        role: 'tech',
+        tokenHash: crypto.randomUUID(),
+        invitedBy: side === 'own' ? 'user-admin' : author,
+        expiresAt: new Date(Date.now() + 86_400_000),
+      })
       .returning();
     ids[side] = {
       invitation: inv!.id,
@@ -192,7 +219,12 @@ beforeAll(async () => {
       customer: customer.id,
       board: board.id,
       // A composed demo board's version: its drawing is served.
-      drawnVersion: (await db.select({ id: boardModelVersions.id }).from(boardModelVersions).where(eq(boardModelVersions.boardId, side === 'own' ? 'board-demo-ofd-220' : 'board-other-ofd-220')))[0]!.id,
+      drawnVersion: (
+        await db
+          .select({ id: boardModelVersions.id })
+          .from(boardModelVersions)
+          .where(eq(boardModelVersions.boardId, side === 'own' ? 'board-demo-ofd-220' : 'board-other-ofd-220'))
+      )[0]!.id,
       upload,
       user: side === 'own' ? 'user-trainee' : 'user-other-tech',
       quote: String(quote.body.id),
@@ -203,7 +235,11 @@ beforeAll(async () => {
 });
 afterAll(() => server.close());
 
-const fill = (e: Entry, side: 'own' | 'other') => e.path.replace(':id', e.kind ? ids[side][e.kind] : 'unknown-id').replace(':jobId', ids[side].job).replace(':token', 'no-such-token');
+const fill = (e: Entry, side: 'own' | 'other') =>
+  e.path
+    .replace(':id', e.kind ? ids[side][e.kind] : 'unknown-id')
+    .replace(':jobId', ids[side].job)
+    .replace(':token', 'no-such-token');
 // Empty bodies: they pass or fail the guard exactly like real ones, and never change anything.
 const call = (c: Client, e: Entry, side: 'own' | 'other') => c.request(e.method, fill(e, side), e.method === 'GET' ? undefined : (e.body?.() ?? {}));
 

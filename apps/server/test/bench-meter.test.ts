@@ -40,7 +40,12 @@ async function until<T>(what: string, get: () => Promise<T> | T, ok: (v: T) => b
 }
 
 const status = async (job = jobId): Promise<BenchMeterStatus> => benchMeterStatusResponse.parse((await tech.get(`/api/jobs/${job}/bench-meter`)).body);
-const settled = (job = jobId) => until('the request to end', () => status(job), (s) => s.arm?.state !== 'waiting');
+const settled = (job = jobId) =>
+  until(
+    'the request to end',
+    () => status(job),
+    (s) => s.arm?.state !== 'waiting',
+  );
 const readingsOf = async (job: string) => readingListResponse.parse((await tech.get(`/api/jobs/${job}/readings`)).body).items;
 
 async function arm(body: Record<string, unknown>, job = jobId) {
@@ -48,7 +53,11 @@ async function arm(body: Record<string, unknown>, job = jobId) {
   expect(res.status, JSON.stringify(res.body)).toBe(201);
   await until('the meter to wait for its trigger', () => sim.armed, Boolean);
   // The bench says "press its trigger" once the server has the test's expected value at hand.
-  await until('the request to be ready', () => status(job), (s) => s.arm?.ready === true);
+  await until(
+    'the request to be ready',
+    () => status(job),
+    (s) => s.arm?.ready === true,
+  );
   return String(res.body.id);
 }
 
@@ -59,7 +68,11 @@ describe.skipIf(!socat)('bench meter over SCPI', () => {
     const customer = await createCustomer(db, { shopId: 'shop-demo', name: 'Bench Meter Test Cooling' });
     const board = await createBoardModel(db, { shopId: 'shop-demo', createdBy: 'user-admin' });
     // The same divider with its section marked as touching the bus, so unpowered readings there pass the gate.
-    const busDoc = { ...DIVIDER_BOARD, id: `test-bus-divider-${crypto.randomUUID()}`, testPoints: DIVIDER_BOARD.testPoints.map((t) => ({ ...t, touchesBus: true })) };
+    const busDoc = {
+      ...DIVIDER_BOARD,
+      id: `test-bus-divider-${crypto.randomUUID()}`,
+      testPoints: DIVIDER_BOARD.testPoints.map((t) => ({ ...t, touchesBus: true })),
+    };
     const gated = await createBoardModel(db, { shopId: 'shop-demo', createdBy: 'user-admin', document: busDoc });
     jobId = (await createJob(db, { shopId: 'shop-demo', createdBy: 'user-tech', customerId: customer.id, boardId: board.id })).id;
     gatedJobId = (await createJob(db, { shopId: 'shop-demo', createdBy: 'user-tech', customerId: customer.id, boardId: gated.id })).id;
@@ -85,7 +98,11 @@ describe.skipIf(!socat)('bench meter over SCPI', () => {
   });
 
   it('identifies the meter (*IDN?) and shows the bench which meter is connected', async () => {
-    const s = await until('the bridge to check in', () => status(), (x) => x.bridge !== null);
+    const s = await until(
+      'the bridge to check in',
+      () => status(),
+      (x) => x.bridge !== null,
+    );
     expect(sim.received[0]).toBe('*IDN?');
     expect(s.bridge).toMatchObject({ instrument: 'Invented Instruments BM-2300', connected: true });
     expect(s.arm).toBeNull();
@@ -98,7 +115,15 @@ describe.skipIf(!socat)('bench meter over SCPI', () => {
     expect(await sim.press()).toBe(true);
     const s = await settled();
     expect(s.arm).toMatchObject({ id, state: 'taken', refusal: null });
-    expect(s.arm!.reading).toMatchObject({ mode: 'dcv', red: 'TP1', value: 15.02, unit: 'V', raw: '+1.5020E+01', instrument: 'Invented Instruments BM-2300', authorName: expect.any(String) });
+    expect(s.arm!.reading).toMatchObject({
+      mode: 'dcv',
+      red: 'TP1',
+      value: 15.02,
+      unit: 'V',
+      raw: '+1.5020E+01',
+      instrument: 'Invented Instruments BM-2300',
+      authorName: expect.any(String),
+    });
     expect(s.arm!.reading!.verdict).toMatchObject({ verdict: 'ok', expected: 15 });
     expect((await readingsOf(jobId)).map((r) => r.id)).toContain(s.arm!.reading!.id);
   });
@@ -122,7 +147,11 @@ describe.skipIf(!socat)('bench meter over SCPI', () => {
     expect(s.arm).toMatchObject({ id, state: 'refused', reading: null });
     expect((await readingsOf(jobId)).length).toBe(before);
     // The bridge hears the request ended and stops the meter waiting for its trigger.
-    await until('the meter to stop waiting', () => sim.armed, (a) => !a);
+    await until(
+      'the meter to stop waiting',
+      () => sim.armed,
+      (a) => !a,
+    );
     expect(sim.received.at(-1)).toBe('ABOR');
   });
 
@@ -148,7 +177,11 @@ describe.skipIf(!socat)('bench meter over SCPI', () => {
     const res = await tech.request('DELETE', `/api/jobs/${jobId}/bench-meter`);
     expect(res.status).toBe(200);
     expect(benchMeterStatusResponse.parse(res.body).arm!.state).toBe('cancelled');
-    await until('the meter to stop waiting', () => sim.armed, (a) => !a);
+    await until(
+      'the meter to stop waiting',
+      () => sim.armed,
+      (a) => !a,
+    );
     expect(await sim.press()).toBe(false);
     expect((await readingsOf(jobId)).length).toBe(before);
   });

@@ -22,7 +22,16 @@ beforeAll(async () => {
 afterAll(() => server.close());
 
 const newJob = (assigneeId = 'user-tech') => bench.newJob({ createdBy: 'user-tech', assigneeId });
-const reading = (over: Record<string, unknown>) => ({ idempotencyKey: randomUUID(), mode: 'ohm', red: 'TP1', black: '0', power: 'off', value: 220000, raw: '220k', ...over });
+const reading = (over: Record<string, unknown>) => ({
+  idempotencyKey: randomUUID(),
+  mode: 'ohm',
+  red: 'TP1',
+  black: '0',
+  power: 'off',
+  value: 220000,
+  raw: '220k',
+  ...over,
+});
 
 describe('the discharge gate for every role and phase', () => {
   it('refuses a technician’s unpowered bus reading without the gate, and a reversed −120 V bus in words', async () => {

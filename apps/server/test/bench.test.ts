@@ -21,7 +21,16 @@ beforeAll(async () => {
 });
 afterAll(() => server.close());
 
-const reading = (over: Record<string, unknown> = {}) => ({ idempotencyKey: randomUUID(), mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', value: 7.5, raw: '7.5', ...over });
+const reading = (over: Record<string, unknown> = {}) => ({
+  idempotencyKey: randomUUID(),
+  mode: 'dcv',
+  red: 'TP2',
+  black: 'gnd',
+  power: 'on',
+  value: 7.5,
+  raw: '7.5',
+  ...over,
+});
 const count = async () => (await server.ctx.db.select({ id: readings.id }).from(readings).where(eq(readings.jobId, jobId))).length;
 
 describe('readings', () => {
@@ -61,7 +70,12 @@ describe('readings', () => {
   it.each([
     ['dcv sent as unpowered', reading({ power: 'off' }), 422, /powered/],
     ['"abc" as the value', reading({ value: 'abc' }), 422, /value/],
-    ['Infinity (1e400 in JSON)', '{"idempotencyKey":"k-1e400-aaaa","mode":"dcv","red":"TP2","black":"0","power":"on","value":1e400,"raw":"x"}', 422, /must be a number/],
+    [
+      'Infinity (1e400 in JSON)',
+      '{"idempotencyKey":"k-1e400-aaaa","mode":"dcv","red":"TP2","black":"0","power":"on","value":1e400,"raw":"x"}',
+      422,
+      /must be a number/,
+    ],
     ['NaN', '{"idempotencyKey":"k-nan-aaaaaa","mode":"dcv","red":"TP2","black":"0","power":"on","value":NaN,"raw":"x"}', 400, /JSON/],
     ['a negative resistance', reading({ mode: 'ohm', power: 'off', value: -5, raw: '-5' }), 422, /negative/],
     ['an unknown net', reading({ red: 'TP99' }), 422, /TP99/],

@@ -42,7 +42,11 @@ export interface BillingRig {
   admin: Client;
   webhookSecret: string;
   /** A job of the demo shop with its own customer and board (billing reads them; it never writes jobs' own data). */
-  makeJob(opts: { status?: (typeof jobs.$inferInsert)['status']; customerName: string; email: string | null }): Promise<{ id: string; number: number; customerId: string }>;
+  makeJob(opts: {
+    status?: (typeof jobs.$inferInsert)['status'];
+    customerName: string;
+    email: string | null;
+  }): Promise<{ id: string; number: number; customerId: string }>;
   setStatus(id: string, status: (typeof jobs.$inferInsert)['status']): Promise<unknown>;
   close(): Promise<void>;
 }
@@ -75,10 +79,14 @@ export async function startBillingRig(): Promise<BillingRig> {
     const tag = newId().slice(0, 8);
     const boardId = newId();
     const versionId = newId();
-    await db.insert(boardModels).values({ id: boardId, shopId: SHOP, key: `billing-test-${tag}`, name: `Outdoor fan board ${tag.toUpperCase()}`, currentVersion: 1 });
+    await db
+      .insert(boardModels)
+      .values({ id: boardId, shopId: SHOP, key: `billing-test-${tag}`, name: `Outdoor fan board ${tag.toUpperCase()}`, currentVersion: 1 });
     await db.insert(boardModelVersions).values({ id: versionId, boardId, version: 1, document: {}, expectedReadings: [] });
     const customerId = newId();
-    await db.insert(customers).values({ id: customerId, shopId: SHOP, name: opts.customerName, company: 'Tidewater Mechanical (invented)', email: opts.email, kind: 'contractor' });
+    await db
+      .insert(customers)
+      .values({ id: customerId, shopId: SHOP, name: opts.customerName, company: 'Tidewater Mechanical (invented)', email: opts.email, kind: 'contractor' });
     const id = newId();
     const number = 900_000 + Math.floor(Math.random() * 90_000) + ++jobCounter;
     await db.insert(jobs).values({

@@ -92,7 +92,10 @@ describe('customer links go to the address on file (hole 5)', () => {
     const [stored] = await db.select().from(quotes).where(eq(quotes.id, q.id));
     expect(stored).toMatchObject({ customerApproval: 'approved', decidedViaLinkId: link!.id, decidedByEmail: email });
     expect((await admin.get(`/api/quotes/${q.id}`)).body).toMatchObject({ decidedByEmail: email });
-    const [audit] = await db.select().from(auditLog).where(and(eq(auditLog.subject, q.id), eq(auditLog.action, 'quote.customer-approved')));
+    const [audit] = await db
+      .select()
+      .from(auditLog)
+      .where(and(eq(auditLog.subject, q.id), eq(auditLog.action, 'quote.customer-approved')));
     expect(audit!.detail).toContain(`Lena Onfile <${email}>`);
   });
 });
@@ -134,7 +137,10 @@ describe('one open checkout per invoice (hole 6)', () => {
     expect(rows.find((r) => r.refundDue)).toMatchObject({ checkoutSessionId: stray.id, amountCents: inv.totalCents });
     const events = await db.select().from(paymentEvents).where(eq(paymentEvents.invoiceId, inv.id));
     expect(events.map((e) => e.outcome).sort()).toEqual(['paid', 'refund-due']);
-    const [flag] = await db.select().from(auditLog).where(and(eq(auditLog.subject, inv.id), eq(auditLog.action, 'invoice.refund-due')));
+    const [flag] = await db
+      .select()
+      .from(auditLog)
+      .where(and(eq(auditLog.subject, inv.id), eq(auditLog.action, 'invoice.refund-due')));
     expect(flag!.detail).toContain(stray.id);
     const [after] = await db.select().from(invoices).where(eq(invoices.id, inv.id));
     expect(after).toMatchObject({ status: 'paid', paidCents: inv.totalCents });

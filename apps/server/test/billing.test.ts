@@ -40,13 +40,23 @@ describe('quote → customer page → invoice → payment', () => {
     const email = `dana.${newId().slice(0, 6)}@contractor.example.test`;
     const job = await makeJob({ customerName: 'Dana Whitcombe', email });
     const other = await makeJob({ customerName: 'Ravi Castellano', email: 'ravi@fieldtech.example.test' });
-    const otherQuote = await admin.post(`/api/jobs/${other.id}/quotes`, { lines: [{ kind: 'part', description: 'Secret other-job part', quantity: '1', unitCents: 999 }] });
+    const otherQuote = await admin.post(`/api/jobs/${other.id}/quotes`, {
+      lines: [{ kind: 'part', description: 'Secret other-job part', quantity: '1', unitCents: 999 }],
+    });
     expect(otherQuote.status).toBe(201);
 
     // the shop writes the quote: totals in integer cents, tax once on the taxable lines
     const created = await admin.post(`/api/jobs/${job.id}/quotes`, { lines: QUOTE_LINES, note: 'Parts in stock; two working days.' });
     expect(created.status).toBe(201);
-    const quote = created.body as unknown as { id: string; number: string; subtotalCents: number; taxCents: number; totalCents: number; status: string; lines: { amountCents: number }[] };
+    const quote = created.body as unknown as {
+      id: string;
+      number: string;
+      subtotalCents: number;
+      taxCents: number;
+      totalCents: number;
+      status: string;
+      lines: { amountCents: number }[];
+    };
     expect(quote.lines.map((l) => l.amountCents)).toEqual([450, 3975, 9750]);
     // 44.25 taxable × 8.25 % = 3.650625 → 3.65 (round half away from zero, once per document)
     expect([quote.subtotalCents, quote.taxCents, quote.totalCents]).toEqual([14175, 365, 14540]);
@@ -57,13 +67,18 @@ describe('quote → customer page → invoice → payment', () => {
     expect(sent.status).toBe(200);
     expect(sent.body).toMatchObject({ to: email });
     const quoteMail = await smtp.waitFor((m) => m.to.some((t) => t.includes(email)) && m.subject.includes(quote.number));
-    expect(quoteMail.subject).toBe(`Quote ${quote.number} for job ${job.number}: ${(await db.select().from(boardModels).innerJoin(jobs, eq(jobs.boardId, boardModels.id)).where(eq(jobs.id, job.id)))[0]!.board_models.name}`);
+    expect(quoteMail.subject).toBe(
+      `Quote ${quote.number} for job ${job.number}: ${(await db.select().from(boardModels).innerJoin(jobs, eq(jobs.boardId, boardModels.id)).where(eq(jobs.id, job.id)))[0]!.board_models.name}`,
+    );
     expect(quoteMail.text).toContain('USD 145.40');
     expect(quoteMail.text).toContain('Tax (8.25 %)');
     const token = linkIn(quoteMail);
     expect(quoteMail.html).toContain(`/c/${token}`);
     // only the hash is stored
-    const [stored] = await db.select().from(customerLinks).where(eq(customerLinks.tokenHash, hashToken(token)));
+    const [stored] = await db
+      .select()
+      .from(customerLinks)
+      .where(eq(customerLinks.tokenHash, hashToken(token)));
     expect(stored).toMatchObject({ jobId: job.id, shopId: SHOP });
     expect(JSON.stringify(await db.select().from(customerLinks).where(eq(customerLinks.jobId, job.id)))).not.toContain(token);
 
@@ -84,7 +99,10 @@ describe('quote → customer page → invoice → payment', () => {
     // approve: recorded on the quote, the shop is told, the job moves on from received to diagnosing
     const approved = await customer.post(`/api/public/links/${token}/quotes/${quote.id}/approve`);
     expect(approved.status).toBe(200);
-    expect((approved.body as unknown as { quotes: { customerApproval: string; status: string }[] }).quotes[0]).toMatchObject({ customerApproval: 'approved', status: 'approved' });
+    expect((approved.body as unknown as { quotes: { customerApproval: string; status: string }[] }).quotes[0]).toMatchObject({
+      customerApproval: 'approved',
+      status: 'approved',
+    });
     expect((await db.select({ status: jobs.status }).from(jobs).where(eq(jobs.id, job.id)))[0]!.status).toBe('diagnosing');
     await smtp.waitFor((m) => m.subject === `Quote ${quote.number} approved by Dana Whitcombe (job ${job.number})`);
     expect((await customer.post(`/api/public/links/${token}/quotes/${quote.id}/approve`)).status).toBe(409);
@@ -151,7 +169,11 @@ describe('quote → customer page → invoice → payment', () => {
       [forged, delivery.signature],
       [forged, 't=1,v1=deadbeef'],
     ] as const) {
-      const r = await fetch(`${server.url}/api/webhooks/payments`, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': sig }, body });
+      const r = await fetch(`${server.url}/api/webhooks/payments`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json', 'stripe-signature': sig },
+        body,
+      });
       expect(r.status).toBe(400);
       expect(r.headers.get('content-type')).toMatch(/problem\+json/);
     }
@@ -178,7 +200,10 @@ describe('customer links', () => {
       .set({ expiresAt: new Date(Date.now() - 1000) })
       .where(eq(customerLinks.tokenHash, hashToken(expired.token)));
     const revoked = await createCustomerLink({ db, config: server.ctx.config, shopId: SHOP, jobId: job.id, validDays: 30, createdBy: null });
-    await db.update(customerLinks).set({ revokedAt: new Date() }).where(eq(customerLinks.tokenHash, hashToken(revoked.token)));
+    await db
+      .update(customerLinks)
+      .set({ revokedAt: new Date() })
+      .where(eq(customerLinks.tokenHash, hashToken(revoked.token)));
     for (const t of [altered, expired.token, revoked.token, 'short', `${link.token}x`]) {
       const r = await c.get(`/api/public/links/${encodeURIComponent(t)}`);
       expect(r.status).toBe(404);
@@ -195,9 +220,15 @@ describe('customer links', () => {
     const quote = q.body as unknown as { id: string; number: string };
     await admin.post(`/api/quotes/${quote.id}/send`);
     const token = linkIn(await smtp.waitFor((m) => m.to.some((t) => t.includes(email)) && m.subject.includes(quote.number)));
-    const r = await new Client(server.url).post(`/api/public/links/${token}/quotes/${quote.id}/decline`, { reason: 'Replacing the whole outdoor unit instead.' });
+    const r = await new Client(server.url).post(`/api/public/links/${token}/quotes/${quote.id}/decline`, {
+      reason: 'Replacing the whole outdoor unit instead.',
+    });
     expect(r.status).toBe(200);
-    expect((r.body as unknown as { quotes: unknown[] }).quotes[0]).toMatchObject({ status: 'declined', customerApproval: 'declined', declineReason: 'Replacing the whole outdoor unit instead.' });
+    expect((r.body as unknown as { quotes: unknown[] }).quotes[0]).toMatchObject({
+      status: 'declined',
+      customerApproval: 'declined',
+      declineReason: 'Replacing the whole outdoor unit instead.',
+    });
     // a declined job does not move
     expect((await db.select({ status: jobs.status }).from(jobs).where(eq(jobs.id, job.id)))[0]!.status).toBe('received');
     const told = await smtp.waitFor((m) => m.subject === `Quote ${quote.number} declined by Sol Brandvold (job ${job.number})`);

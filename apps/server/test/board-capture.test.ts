@@ -48,9 +48,26 @@ const points = [
 ];
 const region = (x: number, y: number) => ({ x, y, w: 300, h: 200 });
 const sections: NonNullable<BoardCaptureInput['sections']> = [
-  { id: 'bus', template: 'dc-bus', base: 100, region: region(0, 0), nets: { bus: 'vbus' }, params: { mainsRms: 230 }, values: { C101: 470e-6 }, markings: { C101: '470µF 400V' } },
+  {
+    id: 'bus',
+    template: 'dc-bus',
+    base: 100,
+    region: region(0, 0),
+    nets: { bus: 'vbus' },
+    params: { mainsRms: 230 },
+    values: { C101: 470e-6 },
+    markings: { C101: '470µF 400V' },
+  },
   { id: 'reg15', template: 'regulator-15v', base: 200, region: region(400, 0), nets: { out: 'v15' } },
-  { id: 'fan-switch', template: 'fan-switch', base: 300, region: region(0, 400), nets: { in: 'v15', out: 'v15sw' }, values: { R303: 10e3 }, markings: { R303: '103' } },
+  {
+    id: 'fan-switch',
+    template: 'fan-switch',
+    base: 300,
+    region: region(0, 400),
+    nets: { in: 'v15', out: 'v15sw' },
+    values: { R303: 10e3 },
+    markings: { R303: '103' },
+  },
 ];
 
 describe('a board not in the library', () => {
@@ -69,12 +86,23 @@ describe('a board not in the library', () => {
   it('records readings on points marked on the photo without a verdict; unpowered ones wait for the discharge gate', async () => {
     const d = await saveDraft({ photo: photo(), points: points.slice(0, 2).map(({ net: _net, ...p }) => p) });
     expect(d.status).toBe(200);
-    expect((d.body as unknown as BoardDraft).points.map((p) => p.unmodelled)).toEqual(['no section is marked on this board yet', 'no section is marked on this board yet']);
+    expect((d.body as unknown as BoardDraft).points.map((p) => p.unmodelled)).toEqual([
+      'no section is marked on this board yet',
+      'no section is marked on this board yet',
+    ]);
     const r = await read(firstJob, 'TP1', 312.4);
     expect(r.status).toBe(201);
     expect(r.body.verdict).toBeNull();
     expect((await read(firstJob, 'TP9', 1)).status).toBe(422);
-    const off = await tech.post(`/api/jobs/${firstJob}/readings`, { idempotencyKey: randomUUID(), mode: 'ohm', red: 'TP2', black: 'gnd', power: 'off', value: 1000, raw: '1k' });
+    const off = await tech.post(`/api/jobs/${firstJob}/readings`, {
+      idempotencyKey: randomUUID(),
+      mode: 'ohm',
+      red: 'TP2',
+      black: 'gnd',
+      power: 'off',
+      value: 1000,
+      raw: '1k',
+    });
     expect(off.status).toBe(422);
     expect(JSON.stringify(off.body)).toMatch(/unplugged/);
     const dx = await tech.get(`/api/jobs/${firstJob}/diagnosis`);
@@ -98,7 +126,7 @@ describe('a board not in the library', () => {
     expect(board.version).toBe(1);
   });
 
-  it('publishing is a lead\'s; it makes version 2 and a second job on it gets verdicts and a ranking', async () => {
+  it("publishing is a lead's; it makes version 2 and a second job on it gets verdicts and a ranking", async () => {
     expect((await tech.post(`/api/boards/${boardId}/publish`, {})).status).toBe(403);
     const p = await lead.post(`/api/boards/${boardId}/publish`, {});
     expect(p.status).toBe(201);

@@ -64,7 +64,12 @@ describe('board history by serial', () => {
     const atIntake = await history(tech, `/api/board-history?serial=${serial.toLowerCase()}`);
     expect(atIntake.jobs.map((j) => j.number)).toEqual([first.number]);
     const [earlier] = atIntake.jobs;
-    expect(earlier).toMatchObject({ matchedBy: 'board serial', status: 'returned', proposedPart: 'R2', repairs: [{ part: 'R2', action: 'replaced', replacementValue: '10k', byName: expect.any(String) }] });
+    expect(earlier).toMatchObject({
+      matchedBy: 'board serial',
+      status: 'returned',
+      proposedPart: 'R2',
+      repairs: [{ part: 'R2', action: 'replaced', replacementValue: '10k', byName: expect.any(String) }],
+    });
     expect(earlier!.repairs[0]!.byName).not.toBe('');
     // Readings in the bench's words: the test point and its label, the meter function, the board's state.
     expect(earlier!.readings.map((r) => r.where)).toContain('TP2 divider to bus negative, DC V, powered');

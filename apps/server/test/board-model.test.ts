@@ -27,7 +27,19 @@ afterAll(() => server.close());
 function capacitorBoard(): BoardModel {
   const key = `caps-${randomUUID().slice(0, 8)}`;
   const cap = (designator: string, kind: BoardModel['parts'][number]['kind'], x: number) => ({
-    designator, element: designator, kind, value: '22u', package: '1206', x, y: 200, rotation: 0, section: 'div', pins: [{ pin: '1', net: 'in' }, { pin: '2', net: '0' }],
+    designator,
+    element: designator,
+    kind,
+    value: '22u',
+    package: '1206',
+    x,
+    y: 200,
+    rotation: 0,
+    section: 'div',
+    pins: [
+      { pin: '1', net: 'in' },
+      { pin: '2', net: '0' },
+    ],
   });
   return {
     ...DIVIDER_BOARD,
@@ -46,7 +58,12 @@ function capacitorBoard(): BoardModel {
 
 describe('board documents are board models', () => {
   it('refuses a create request whose document is not a board model, naming the field', async () => {
-    const old = { ...DIVIDER_BOARD, id: 'old-form', schemaVersion: 1, picture: { url: `data:image/png;base64,${'A'.repeat(30_000)}`, width: 10, height: 10, units: 'px' } };
+    const old = {
+      ...DIVIDER_BOARD,
+      id: 'old-form',
+      schemaVersion: 1,
+      picture: { url: `data:image/png;base64,${'A'.repeat(30_000)}`, width: 10, height: 10, units: 'px' },
+    };
     const r = await admin.post('/api/boards', { document: old });
     expect(r.status).toBe(422);
     expect(JSON.stringify(r.body)).toMatch(/document\.schemaVersion/);
@@ -100,7 +117,10 @@ describe('start-time upgrade of version 1 documents', () => {
     const id = `v1-${randomUUID().slice(0, 8)}`;
     const { picture: _picture, parts, ...rest } = DIVIDER_BOARD;
     const v1 = {
-      ...rest, id, slug: id, schemaVersion: 1,
+      ...rest,
+      id,
+      slug: id,
+      schemaVersion: 1,
       picture: { url: `data:image/png;base64,${PNG.toString('base64')}`, width: 1, height: 1, units: 'px' },
       parts: parts.map(({ priors: _p, ...q }) => q),
       priors: { R2: { open: 0.02 } },
@@ -127,7 +147,10 @@ describe('start-time upgrade of version 1 documents', () => {
     const id = `v1-late-${randomUUID().slice(0, 8)}`;
     const { picture: _picture, parts, ...rest } = DIVIDER_BOARD;
     const v1 = {
-      ...rest, id, slug: id, schemaVersion: 1,
+      ...rest,
+      id,
+      slug: id,
+      schemaVersion: 1,
       picture: { url: `data:image/png;base64,${PNG.toString('base64')}`, width: 1, height: 1, units: 'px' },
       parts: parts.map(({ priors: _p, ...q }) => q),
       priors: { R2: { open: 0.02 } },
@@ -153,7 +176,15 @@ describe('versions', () => {
     const doc = capacitorBoard();
     const board = (await admin.post('/api/boards', { document: doc })).body as unknown as BoardDetail;
     const job = await createJob(server.ctx.db, { shopId: 'shop-demo', createdBy: 'user-tech', customerId, boardId: board.id });
-    const taken = await tech.post(`/api/jobs/${job.id}/readings`, { idempotencyKey: randomUUID(), mode: 'dcv', red: 'TP2', black: '0', power: 'on', value: 7.5, raw: '7.5' });
+    const taken = await tech.post(`/api/jobs/${job.id}/readings`, {
+      idempotencyKey: randomUUID(),
+      mode: 'dcv',
+      red: 'TP2',
+      black: '0',
+      power: 'on',
+      value: 7.5,
+      raw: '7.5',
+    });
     expect(taken.status, JSON.stringify(taken.body)).toBe(201);
     // Version 2 halves the top resistor: the divider would read 10 V.
     const next = await admin.patch(`/api/boards/${board.id}`, { document: { ...doc, netlist: doc.netlist.replace('R1 in mid 10k', 'R1 in mid 5k') } });

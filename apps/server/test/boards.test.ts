@@ -16,7 +16,9 @@ let jobId: string;
 beforeAll(async () => {
   server = await startTestServer();
   const customer = await createCustomer(server.ctx.db, { shopId: 'shop-demo', name: 'Indoor Board Contracting' });
-  jobId = (await createJob(server.ctx.db, { shopId: 'shop-demo', createdBy: 'user-tech', customerId: customer.id, boardId: 'board-demo-idf-310', faultCode: 'E1' })).id;
+  jobId = (
+    await createJob(server.ctx.db, { shopId: 'shop-demo', createdBy: 'user-tech', customerId: customer.id, boardId: 'board-demo-idf-310', faultCode: 'E1' })
+  ).id;
   tech = await new Client(server.url).signIn('tech@demo.test');
   admin = await new Client(server.url).signIn('admin@demo.test');
 }, 120_000);
@@ -56,7 +58,15 @@ describe('demo board library', () => {
 });
 
 describe('readings on the indoor board', () => {
-  const reading = (value: number) => ({ idempotencyKey: randomUUID(), mode: 'dcv', red: tpOf('vcc5_c'), black: 'gnd_c', power: 'on', value, raw: String(value) });
+  const reading = (value: number) => ({
+    idempotencyKey: randomUUID(),
+    mode: 'dcv',
+    red: tpOf('vcc5_c'),
+    black: 'gnd_c',
+    power: 'on',
+    value,
+    raw: String(value),
+  });
 
   it('judges the 5 V rail against the LM7805 band 4.75–5.25 V (LM78xx datasheet, Fairchild DS400018)', async () => {
     const ok = await tech.post(`/api/jobs/${jobId}/readings`, reading(5.2));
@@ -70,7 +80,13 @@ describe('readings on the indoor board', () => {
 describe('a board composed from templates', () => {
   it('is stored by the admin and gets its expected table', async () => {
     const doc = composeBoard({
-      id: `composed-${randomUUID().slice(0, 8)}`, slug: 'composed-test', name: 'Composed test board', family: 'Tests', maker: 'Invented', width: 500, height: 300,
+      id: `composed-${randomUUID().slice(0, 8)}`,
+      slug: 'composed-test',
+      name: 'Composed test board',
+      family: 'Tests',
+      maker: 'Invented',
+      width: 500,
+      height: 300,
       sections: [{ id: 'reg15', template: 'regulator-15v', base: 200, nets: { out: 'v15' }, region: { x: 10, y: 10, w: 480, h: 280 } }],
     });
     const r = await admin.post('/api/boards', { document: doc });

@@ -15,7 +15,13 @@ afterAll(() => server.close());
 describe('customers', () => {
   it('merges a duplicate: its jobs move, empty fields are filled, the duplicate is gone', async () => {
     const keep = await lead.post('/api/customers', { name: 'Odile Farrow', company: 'Farrow Cooling', kind: 'contractor', notes: 'Pays on delivery.' });
-    const dup = await lead.post('/api/customers', { name: 'O. Farrow', email: 'odile@farrow.test', phone: '555-0133', kind: 'contractor', notes: 'Prefers e-mail.' });
+    const dup = await lead.post('/api/customers', {
+      name: 'O. Farrow',
+      email: 'odile@farrow.test',
+      phone: '555-0133',
+      kind: 'contractor',
+      notes: 'Prefers e-mail.',
+    });
     expect([keep.status, dup.status]).toEqual([201, 201]);
     const keepId = String(keep.body.id);
     const dupId = String(dup.body.id);
@@ -27,7 +33,14 @@ describe('customers', () => {
     const merged = await lead.post(`/api/customers/${keepId}/merge`, { duplicateId: dupId });
     expect(merged.status).toBe(200);
     expect(merged.body).toMatchObject({
-      customer: { id: keepId, name: 'Odile Farrow', company: 'Farrow Cooling', email: 'odile@farrow.test', phone: '555-0133', notes: 'Pays on delivery.\nPrefers e-mail.' },
+      customer: {
+        id: keepId,
+        name: 'Odile Farrow',
+        company: 'Farrow Cooling',
+        email: 'odile@farrow.test',
+        phone: '555-0133',
+        notes: 'Pays on delivery.\nPrefers e-mail.',
+      },
       moved: { jobs: 2, quotes: 0, invoices: 0 },
     });
     expect((await lead.get(`/api/customers/${dupId}`)).status).toBe(404);

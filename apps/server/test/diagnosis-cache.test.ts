@@ -15,7 +15,16 @@ let jobId: string;
 // How many times the engine ran since the last reset: a wrapper around the call to the diagnosis thread.
 const runs = { count: 0, restore: () => {} };
 
-const reading = (over: Record<string, unknown> = {}) => ({ idempotencyKey: randomUUID(), mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', value: 7.5, raw: '7.5', ...over });
+const reading = (over: Record<string, unknown> = {}) => ({
+  idempotencyKey: randomUUID(),
+  mode: 'dcv',
+  red: 'TP2',
+  black: 'gnd',
+  power: 'on',
+  value: 7.5,
+  raw: '7.5',
+  ...over,
+});
 const diagnosis = async () => {
   const r = await tech.get(`/api/jobs/${jobId}/diagnosis`);
   expect(r.status).toBe(200);

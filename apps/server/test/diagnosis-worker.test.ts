@@ -34,7 +34,15 @@ beforeAll(async () => {
   expect(rails.length).toBe(6);
   for (const [i, row] of rails.entries()) {
     const value = i === 3 ? 0.2 : (row.expected as number);
-    const r = await tech.post(`/api/jobs/${jobId}/readings`, { idempotencyKey: randomUUID(), mode: 'dcv', red: row.red, black: row.black, power: 'on', value, raw: String(value) });
+    const r = await tech.post(`/api/jobs/${jobId}/readings`, {
+      idempotencyKey: randomUUID(),
+      mode: 'dcv',
+      red: row.red,
+      black: row.black,
+      power: 'on',
+      value,
+      raw: String(value),
+    });
     expect(r.status, JSON.stringify(r.body)).toBe(201);
   }
 }, 120_000);
@@ -66,7 +74,9 @@ describe('diagnosis in a worker thread', () => {
     const diagnosisMs = performance.now() - started;
     expect(d.status, JSON.stringify(d.body)).toBe(200);
     const slowest = Math.max(...health);
-    console.log(`cold diagnosis ${diagnosisMs.toFixed(0)} ms; ${health.length} health checks meanwhile, slowest ${slowest.toFixed(0)} ms, median ${health.sort((a, b) => a - b)[health.length >> 1]!.toFixed(0)} ms`);
+    console.log(
+      `cold diagnosis ${diagnosisMs.toFixed(0)} ms; ${health.length} health checks meanwhile, slowest ${slowest.toFixed(0)} ms, median ${health.sort((a, b) => a - b)[health.length >> 1]!.toFixed(0)} ms`,
+    );
     // The figures above depend on the machine and are printed, not asserted. What does not: health was answered
     // while the diagnosis was pending, and the server thread's engine for this board never ran a diagnosis, so the
     // computation ran in the worker thread.
@@ -76,7 +86,11 @@ describe('diagnosis in a worker thread', () => {
     // The server copies the engine's words into the answer (designators, probe places): the same here.
     // With the job's priors as the server makes them (fault code, the shop's verified history, references).
     const before = await jobPriors(db, job!, () => Promise.resolve(document));
-    const options = { priors: before.priors, ...(before.history ? { history: before.history } : {}), ...(before.references ? { references: before.references } : {}) };
+    const options = {
+      priors: before.priors,
+      ...(before.history ? { history: before.history } : {}),
+      ...(before.references ? { references: before.references } : {}),
+    };
     const local = shapeDiagnosis(wordDiagnosis(buildBoardEngine(job!.boardVersionId, document).diagnoser.update(toCaseReadings(rows), options)), job!, rows);
     expect(d.body).toEqual(JSON.parse(JSON.stringify(diagnosisResponse.parse(local))));
     expect((d.body as unknown as Diagnosis).candidates.length).toBeGreaterThan(0);

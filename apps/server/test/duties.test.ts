@@ -22,7 +22,16 @@ afterAll(async () => {
 
 const newJob = (assigneeId = 'user-trainee') => bench.newJob({ createdBy: 'user-lead', assigneeId });
 // The divider board: 15 V over 10k/10k reads about 7.5 V at TP2.
-const reading = (over: Record<string, unknown> = {}) => ({ idempotencyKey: randomUUID(), mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', value: 7.5, raw: '7.5', ...over });
+const reading = (over: Record<string, unknown> = {}) => ({
+  idempotencyKey: randomUUID(),
+  mode: 'dcv',
+  red: 'TP2',
+  black: 'gnd',
+  power: 'on',
+  value: 7.5,
+  raw: '7.5',
+  ...over,
+});
 
 describe('separation of duties', () => {
   it('reads the defaults, and only an admin changes them', async () => {

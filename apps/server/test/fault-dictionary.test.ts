@@ -35,7 +35,10 @@ beforeAll(async () => {
   board = created.body as unknown as BoardDetail;
   // Publishing queued the build; it is ready when its row says so.
   for (let i = 0; i < 600; i++) {
-    const [row] = await server.ctx.db.select().from(faultDictionaries).where(and(eq(faultDictionaries.versionId, board.versionId), eq(faultDictionaries.engineVersion, DICTIONARY_ENGINE)));
+    const [row] = await server.ctx.db
+      .select()
+      .from(faultDictionaries)
+      .where(and(eq(faultDictionaries.versionId, board.versionId), eq(faultDictionaries.engineVersion, DICTIONARY_ENGINE)));
     if (row?.state === 'ready' || row?.state === 'failed') break;
     await new Promise((r) => setTimeout(r, 200));
   }

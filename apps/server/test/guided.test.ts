@@ -28,18 +28,43 @@ type Step = Diagnosis['nextTests'][number];
 const next = async (): Promise<Step> => ((await trainee.get(`/api/jobs/${jobId}/diagnosis`)).body as unknown as Diagnosis).nextTests[0]!;
 const netOf = (p: string) => (OUTDOOR_FAN_BOARD.testPoints.find((t) => t.id.toLowerCase() === p.toLowerCase())?.net ?? p).toLowerCase();
 const healthy = (s: Step) => {
-  const row = expected.find((r) => r.mode === s.mode && r.power === s.power && netOf(r.red) === netOf(s.red) && netOf(r.black) === netOf(s.black) && [...r.lifted].sort().join() === [...s.lifted].sort().join());
+  const row = expected.find(
+    (r) =>
+      r.mode === s.mode &&
+      r.power === s.power &&
+      netOf(r.red) === netOf(s.red) &&
+      netOf(r.black) === netOf(s.black) &&
+      [...r.lifted].sort().join() === [...s.lifted].sort().join(),
+  );
   const v = row?.expected ?? 0;
   return typeof v === 'boolean' ? { value: v ? 0.2 : ('OL' as const), beep: v } : { value: v };
 };
 const post = (s: Step, over: Record<string, unknown> = {}) =>
-  trainee.post(`/api/jobs/${jobId}/readings`, { idempotencyKey: randomUUID(), mode: s.mode, red: s.red, black: s.black, power: s.power, lifted: s.lifted, raw: 'typed', ...healthy(s), ...over });
+  trainee.post(`/api/jobs/${jobId}/readings`, {
+    idempotencyKey: randomUUID(),
+    mode: s.mode,
+    red: s.red,
+    black: s.black,
+    power: s.power,
+    lifted: s.lifted,
+    raw: 'typed',
+    ...healthy(s),
+    ...over,
+  });
 
 describe('guided order for trainees', () => {
   it('refuses a reading that is not one of the steps the engine gives next, naming the next step', async () => {
     const step = await next();
     const other = expected.find((r) => r.power === 'on' && !(netOf(r.red) === netOf(step.red) && r.mode === step.mode))!;
-    const r = await trainee.post(`/api/jobs/${jobId}/readings`, { idempotencyKey: randomUUID(), mode: other.mode, red: other.red, black: other.black, power: 'on', value: 1, raw: '1' });
+    const r = await trainee.post(`/api/jobs/${jobId}/readings`, {
+      idempotencyKey: randomUUID(),
+      mode: other.mode,
+      red: other.red,
+      black: other.black,
+      power: 'on',
+      value: 1,
+      raw: '1',
+    });
     expect(r.status).toBe(409);
     expect(String(r.body.detail)).toContain(`Next step: ${step.instruction}`);
   }, 60_000);
@@ -70,13 +95,33 @@ describe('guided order for trainees', () => {
     const items = (await trainee.get(`/api/jobs/${jobId}/readings`)).body.items as StoredReading[];
     const first = items.find((x) => x.id === firstId)!;
     const gate = first.power === 'off' ? { safetyCheck: { unplugged: true, busVolts: 1.2 } } : {};
-    const fix = await trainee.post(`/api/jobs/${jobId}/readings`, { idempotencyKey: randomUUID(), mode: first.mode, red: first.red, black: first.black, power: first.power, lifted: first.lifted, value: first.value, raw: 'retyped', supersedes: firstId, ...gate });
+    const fix = await trainee.post(`/api/jobs/${jobId}/readings`, {
+      idempotencyKey: randomUUID(),
+      mode: first.mode,
+      red: first.red,
+      black: first.black,
+      power: first.power,
+      lifted: first.lifted,
+      value: first.value,
+      raw: 'retyped',
+      supersedes: firstId,
+      ...gate,
+    });
     expect(fix.status, JSON.stringify(fix.body)).toBe(201);
-    const moved = await trainee.post(`/api/jobs/${jobId}/readings`, { idempotencyKey: randomUUID(), mode: 'dcv', red: 'TP1', black: '0', power: 'on', value: 1, raw: '1', supersedes: fix.body.id });
+    const moved = await trainee.post(`/api/jobs/${jobId}/readings`, {
+      idempotencyKey: randomUUID(),
+      mode: 'dcv',
+      red: 'TP1',
+      black: '0',
+      power: 'on',
+      value: 1,
+      raw: '1',
+      supersedes: fix.body.id,
+    });
     if (netOf(first.red) !== netOf('TP1')) expect(moved.status).toBe(409);
   }, 180_000);
 
-  it('refuses a trainee verification reading: those follow a repair and are a technician\'s', async () => {
+  it("refuses a trainee verification reading: those follow a repair and are a technician's", async () => {
     const step = await next();
     const r = await post(step, { phase: 'verification' });
     expect(r.status).toBe(403);

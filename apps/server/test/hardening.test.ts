@@ -23,7 +23,9 @@ describe('payment webhook secret (hole 1)', () => {
       expect(() => loadConfig(env)).toThrow(/PAYMENTS_WEBHOOK_SECRET/);
     }
     expect(() => loadConfig({ ...DB, LOCAL_FAKES: '0', PAYMENTS_WEBHOOK_SECRET: 'whsec_real' })).toThrow(/PAYMENTS_SECRET_KEY/);
-    expect(loadConfig({ ...DB, LOCAL_FAKES: '0', PAYMENTS_SECRET_KEY: 'sk_live_shop', PAYMENTS_WEBHOOK_SECRET: 'whsec_real' }).PAYMENTS_WEBHOOK_SECRET).toBe('whsec_real');
+    expect(loadConfig({ ...DB, LOCAL_FAKES: '0', PAYMENTS_SECRET_KEY: 'sk_live_shop', PAYMENTS_WEBHOOK_SECRET: 'whsec_real' }).PAYMENTS_WEBHOOK_SECRET).toBe(
+      'whsec_real',
+    );
   });
 
   it('makes a random secret per run with the local fakes', () => {
@@ -58,15 +60,34 @@ beforeAll(async () => {
   admin = await new Client(server.url).signIn('admin@demo.test');
   const db = server.ctx.db;
   const customer = await createCustomer(db, { shopId: 'shop-demo', name: 'Hardening Test Customer', kind: 'contractor' });
-  jobId = (await createJob(db, { shopId: 'shop-demo', createdBy: 'user-tech', boardId: 'board-demo-ofd-220', customerId: customer.id, unitDescription: 'Outdoor unit', symptom: 'Fan never starts', assigneeId: 'user-tech' })).id;
+  jobId = (
+    await createJob(db, {
+      shopId: 'shop-demo',
+      createdBy: 'user-tech',
+      boardId: 'board-demo-ofd-220',
+      customerId: customer.id,
+      unitDescription: 'Outdoor unit',
+      symptom: 'Fan never starts',
+      assigneeId: 'user-tech',
+    })
+  ).id;
 });
 afterAll(() => server?.close());
 
 describe('the webhook with the published secret (hole 1)', () => {
   it('refuses an event signed with the value printed in the repository', async () => {
-    const payload = JSON.stringify({ id: 'evt_forged', type: 'checkout.session.completed', created: 1, data: { object: { id: 'cs_x', metadata: { invoiceId: 'x' } } } });
+    const payload = JSON.stringify({
+      id: 'evt_forged',
+      type: 'checkout.session.completed',
+      created: 1,
+      data: { object: { id: 'cs_x', metadata: { invoiceId: 'x' } } },
+    });
     const signature = new Stripe('sk_test_local_fake').webhooks.generateTestHeaderString({ payload, secret: 'whsec_local_fake' });
-    const r = await fetch(`${server.url}/api/webhooks/payments`, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': signature }, body: payload });
+    const r = await fetch(`${server.url}/api/webhooks/payments`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json', 'stripe-signature': signature },
+      body: payload,
+    });
     expect(r.status).toBe(400);
   });
 
@@ -74,7 +95,11 @@ describe('the webhook with the published secret (hole 1)', () => {
     const signer = new Stripe('sk_test_local_fake');
     for (const payload of ['{}', '{"id":"evt_x","type":"checkout.session.completed","created":1}', '{"type":"x","created":1,"data":{"object":{}}}']) {
       const signature = signer.webhooks.generateTestHeaderString({ payload, secret: server.ctx.config.PAYMENTS_WEBHOOK_SECRET });
-      const r = await fetch(`${server.url}/api/webhooks/payments`, { method: 'POST', headers: { 'content-type': 'application/json', 'stripe-signature': signature }, body: payload });
+      const r = await fetch(`${server.url}/api/webhooks/payments`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json', 'stripe-signature': signature },
+        body: payload,
+      });
       expect(r.status, payload).toBe(400);
     }
   });
@@ -111,7 +136,16 @@ describe('headers and host names (hole 8)', () => {
   });
 });
 
-const reading = (over: Record<string, unknown> = {}) => ({ idempotencyKey: crypto.randomUUID(), mode: 'dcv', red: 'TP2', black: '0', power: 'on', value: 15.1, raw: '15.1', ...over });
+const reading = (over: Record<string, unknown> = {}) => ({
+  idempotencyKey: crypto.randomUUID(),
+  mode: 'dcv',
+  red: 'TP2',
+  black: '0',
+  power: 'on',
+  value: 15.1,
+  raw: '15.1',
+  ...over,
+});
 
 describe('input the database cannot store (hole 9)', () => {
   it('answers a NUL character anywhere with a 422 naming the field', async () => {
@@ -150,7 +184,13 @@ describe('input the database cannot store (hole 9)', () => {
 
 describe('numbers within physical ranges (hole 3)', () => {
   it('refuses readings outside what a meter can show, per mode', async () => {
-    for (const over of [{ value: 1e308 }, { value: 1001 }, { value: -1001 }, { mode: 'ohm', power: 'off', value: 2e9, raw: '2G' }, { mode: 'ohm', power: 'off', value: -1, raw: '-1' }]) {
+    for (const over of [
+      { value: 1e308 },
+      { value: 1001 },
+      { value: -1001 },
+      { mode: 'ohm', power: 'off', value: 2e9, raw: '2G' },
+      { mode: 'ohm', power: 'off', value: -1, raw: '-1' },
+    ]) {
       const r = await tech.post(`/api/jobs/${jobId}/readings`, reading(over));
       expect(r.status, JSON.stringify(over)).toBe(422);
       expect(JSON.stringify(r.body)).toMatch(/value/);
@@ -163,13 +203,36 @@ describe('stored numbers out of range (hole 3)', () => {
   it('keeps every page of a job readable with a 1e308 reading and a snapshot holding nulls for numbers', async () => {
     const db = server.ctx.db;
     const customer = await createCustomer(db, { shopId: 'shop-demo', name: 'Stored Range Customer', kind: 'contractor' });
-    const job = (await createJob(db, { shopId: 'shop-demo', createdBy: 'user-tech', boardId: 'board-demo-ofd-220', customerId: customer.id, unitDescription: 'Outdoor unit', symptom: 'Fan never starts', assigneeId: 'user-tech' })).id;
+    const job = (
+      await createJob(db, {
+        shopId: 'shop-demo',
+        createdBy: 'user-tech',
+        boardId: 'board-demo-ofd-220',
+        customerId: customer.id,
+        unitDescription: 'Outdoor unit',
+        symptom: 'Fan never starts',
+        assigneeId: 'user-tech',
+      })
+    ).id;
     expect((await tech.post(`/api/jobs/${job}/readings`, reading())).status).toBe(201);
     // as stored before the bounds: a reading of 1e308 V, and a snapshot the engine wrote from it
     const [good] = await db.select().from(readings).where(eq(readings.jobId, job));
     await db.insert(readings).values({ ...good!, id: crypto.randomUUID(), idempotencyKey: crypto.randomUUID(), requestHash: null, value: 1e308, raw: '1e308' });
-    const output = { jobId: job, boardVersionId: good!.jobId, engineVersion: 'old', readings: [], candidates: [{ faults: [{ part: 'Q1', mode: 'open' }], probability: null, evidence: [] }], parts: [{ part: 'Q1', mode: 'open', probability: 0.5 }], restProbability: null, minimalDiagnoses: [['Q1']], nextTests: [], entropy: null };
-    await db.insert(diagnosisSnapshots).values({ id: crypto.randomUUID(), shopId: 'shop-demo', jobId: job, engineVersion: 'old', proposedPart: 'Q1', output, createdBy: 'user-tech' });
+    const output = {
+      jobId: job,
+      boardVersionId: good!.jobId,
+      engineVersion: 'old',
+      readings: [],
+      candidates: [{ faults: [{ part: 'Q1', mode: 'open' }], probability: null, evidence: [] }],
+      parts: [{ part: 'Q1', mode: 'open', probability: 0.5 }],
+      restProbability: null,
+      minimalDiagnoses: [['Q1']],
+      nextTests: [],
+      entropy: null,
+    };
+    await db
+      .insert(diagnosisSnapshots)
+      .values({ id: crypto.randomUUID(), shopId: 'shop-demo', jobId: job, engineVersion: 'old', proposedPart: 'Q1', output, createdBy: 'user-tech' });
 
     const diagnosis = await tech.get(`/api/jobs/${job}/diagnosis`);
     expect(diagnosis.status).toBe(200);

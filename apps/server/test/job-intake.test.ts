@@ -13,7 +13,13 @@ beforeAll(async () => {
 afterAll(() => server.close());
 
 it('opens one job for two sends of the same intake, at the same moment', async () => {
-  const body = { idempotencyKey: randomUUID(), customerId: 'customer-jun', boardId: 'board-demo-ofd-220', unitDescription: 'Outdoor unit', symptom: 'Fan never starts' };
+  const body = {
+    idempotencyKey: randomUUID(),
+    customerId: 'customer-jun',
+    boardId: 'board-demo-ofd-220',
+    unitDescription: 'Outdoor unit',
+    symptom: 'Fan never starts',
+  };
   const [a, b] = await Promise.all([tech.post('/api/jobs', body), tech.post('/api/jobs', body)]);
   expect(a.status, JSON.stringify(a.body)).toBe(201);
   expect(b.status, JSON.stringify(b.body)).toBe(201);

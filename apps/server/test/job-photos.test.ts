@@ -27,14 +27,20 @@ async function phonePhoto(): Promise<Buffer> {
     raw[i] = ((i % 3) * 60 + (x >> 24)) & 0xff;
   }
   for (const quality of [60, 50, 40, 30, 70, 80]) {
-    const jpeg = await sharp(raw, { raw: { width: w, height: h, channels: 3 } }).jpeg({ quality }).toBuffer();
+    const jpeg = await sharp(raw, { raw: { width: w, height: h, channels: 3 } })
+      .jpeg({ quality })
+      .toBuffer();
     if (jpeg.length >= 3.5e6 && jpeg.length <= 6e6) return jpeg;
   }
   throw new Error('could not make a 4 MB test photo');
 }
 
 const send = (bytes: Buffer | string, name: string, type = 'image/jpeg') =>
-  fetch(`${server.url}/api/uploads?${new URLSearchParams({ jobId, name })}`, { method: 'POST', headers: { 'content-type': type, cookie: tech.cookie }, body: bytes });
+  fetch(`${server.url}/api/uploads?${new URLSearchParams({ jobId, name })}`, {
+    method: 'POST',
+    headers: { 'content-type': type, cookie: tech.cookie },
+    body: bytes,
+  });
 
 beforeAll(async () => {
   server = await startTestServer();
@@ -65,7 +71,9 @@ describe('photos on the job', () => {
   }, 120_000);
 
   it('a small picture is stored as sent', async () => {
-    const small = await sharp({ create: { width: 640, height: 480, channels: 3, background: '#2a6' } }).png().toBuffer();
+    const small = await sharp({ create: { width: 640, height: 480, channels: 3, background: '#2a6' } })
+      .png()
+      .toBuffer();
     expect(small.length).toBeLessThan(KEEP_BYTES);
     const res = await send(small, 'small.png', 'image/png');
     expect(res.status).toBe(201);

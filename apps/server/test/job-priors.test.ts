@@ -34,7 +34,8 @@ const diagnosis = async (jobId: string): Promise<Diagnosis> => {
   expect(r.status).toBe(200);
   return r.body as unknown as Diagnosis;
 };
-const newJob = async (faultCode?: string) => (await createJob(server.ctx.db, { shopId, createdBy: techId, customerId, boardId, ...(faultCode ? { faultCode } : {}) })).id;
+const newJob = async (faultCode?: string) =>
+  (await createJob(server.ctx.db, { shopId, createdBy: techId, customerId, boardId, ...(faultCode ? { faultCode } : {}) })).id;
 const topParts = (d: Diagnosis, n: number) => [...new Set(d.parts.map((p) => p.designator as string))].slice(0, n);
 
 beforeAll(async () => {
@@ -75,7 +76,9 @@ describe('a fault code steers the ranking before any reading', () => {
   it('each moved prior says which code and section moved it, in words', () => {
     const q1 = coded.priors.find((p) => p.designator === 'Q1');
     expect(q1?.steps[0]?.source).toBe('fault-code');
-    expect(q1?.steps[0]?.note).toBe('fault code F7 (Outdoor fan motor: no speed feedback after start command (invented code)) points at the Fan supply switch section: ×8');
+    expect(q1?.steps[0]?.note).toBe(
+      'fault code F7 (Outdoor fan motor: no speed feedback after start command (invented code)) points at the Fan supply switch section: ×8',
+    );
     expect(q1?.label).toMatch(/^Q1 transistor — /);
     expect(q1!.after).toBeGreaterThan(q1!.before);
     // Parts outside the suspect sections keep their priors.
@@ -83,8 +86,7 @@ describe('a fault code steers the ranking before any reading', () => {
   });
 
   it('the next tests start in the suspect sections', () => {
-    const firstSuspect = (d: Diagnosis) =>
-      d.nextTests.findIndex((t) => [t.red, t.black].some((n) => SUSPECT.has(netSection.get(n.toLowerCase()) ?? '')));
+    const firstSuspect = (d: Diagnosis) => d.nextTests.findIndex((t) => [t.red, t.black].some((n) => SUSPECT.has(netSection.get(n.toLowerCase()) ?? '')));
     const coded3 = firstSuspect(coded);
     expect(coded3).toBeGreaterThanOrEqual(0);
     expect(coded3).toBeLessThan(3);
@@ -132,7 +134,17 @@ describe('ten verified boards whose C8 shorted move C8 on a new job', () => {
       await db.update(jobs).set({ status: 'verified', proposedPart: 'C8' }).where(eq(jobs.id, id));
       await db.insert(repairActions).values({ id: newId(), shopId, jobId: id, part: 'C8', action: 'replaced', replacementValue: '220u 35V', authorId: techId });
       // What the engine said when the tech proposed C8: its mode is what the history counts.
-      await db.insert(diagnosisSnapshots).values({ id: newId(), shopId, jobId: id, engineVersion: 'test', proposedPart: 'C8', createdBy: techId, output: { parts: [{ part: 'C8', designator: 'C8', mode: 'short', probability: 0.8 }] } });
+      await db
+        .insert(diagnosisSnapshots)
+        .values({
+          id: newId(),
+          shopId,
+          jobId: id,
+          engineVersion: 'test',
+          proposedPart: 'C8',
+          createdBy: techId,
+          output: { parts: [{ part: 'C8', designator: 'C8', mode: 'short', probability: 0.8 }] },
+        });
     }
 
     const after = await newJob();

@@ -41,7 +41,11 @@ const readingsOfJob = async () => readingListResponse.parse((await tech.get(`/ap
 
 describe('CSV import of meter-logged readings', () => {
   it('saves a column mapping per meter profile (the same name replaces it)', async () => {
-    const profile = { name: `Bench meter ${randomUUID().slice(0, 6)}`, mapping: { point: 'Point', value: 'Reading', unit: 'Unit', function: 'Function', time: 'Time' }, power: 'on' };
+    const profile = {
+      name: `Bench meter ${randomUUID().slice(0, 6)}`,
+      mapping: { point: 'Point', value: 'Reading', unit: 'Unit', function: 'Function', time: 'Time' },
+      power: 'on',
+    };
     const first = await tech.request('PUT', '/api/meter-profiles', { ...profile, mapping: { point: 'TP', value: 'Value' } });
     expect(first.status).toBe(200);
     const saved = await tech.request('PUT', '/api/meter-profiles', profile);

@@ -36,7 +36,21 @@ beforeAll(async () => {
     parts: [
       DIVIDER_BOARD.parts[0]!,
       { ...DIVIDER_BOARD.parts[1]!, value: '1M' },
-      { designator: 'D1', element: 'D1', kind: 'diode', value: 'signal', package: 'SOD-123', x: 300, y: 100, rotation: 0, section: 'div', pins: [{ pin: 'A', net: 'mid' }, { pin: 'K', net: '0' }] },
+      {
+        designator: 'D1',
+        element: 'D1',
+        kind: 'diode',
+        value: 'signal',
+        package: 'SOD-123',
+        x: 300,
+        y: 100,
+        rotation: 0,
+        section: 'div',
+        pins: [
+          { pin: 'A', net: 'mid' },
+          { pin: 'K', net: '0' },
+        ],
+      },
     ],
     // The divider point is also read unpowered in Ω and diode, so the board's table holds junction readings.
     testPoints: [DIVIDER_BOARD.testPoints[0]!, { ...DIVIDER_BOARD.testPoints[1]!, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'] }],
@@ -55,7 +69,15 @@ const intake = async (meterProfile?: string) => {
 
 /** The expected value the engine gives for an unpowered Ω reading mid–0 on this job. */
 async function expectedOhm(jobId: string): Promise<number> {
-  const w = await tech.post(`/api/jobs/${jobId}/readings`, { idempotencyKey: randomUUID(), mode: 'ohm', red: 'mid', black: '0', power: 'off', value: 200000, raw: '200k' });
+  const w = await tech.post(`/api/jobs/${jobId}/readings`, {
+    idempotencyKey: randomUUID(),
+    mode: 'ohm',
+    red: 'mid',
+    black: '0',
+    power: 'off',
+    value: 200000,
+    raw: '200k',
+  });
   expect(w.status, JSON.stringify(w.body)).toBe(201);
   const d = await tech.get(`/api/jobs/${jobId}/diagnosis`);
   expect(d.status, JSON.stringify(d.body)).toBe(200);
@@ -63,13 +85,14 @@ async function expectedOhm(jobId: string): Promise<number> {
 }
 
 /** The same reading from the circuit package directly, with the profile named. */
-const direct = (meter: MeterProfile) => measure(applyState(parseNetlist(NETLIST), { power: 'off' }), { mode: 'ohm', red: 'mid', black: '0' }, meter).value as number;
+const direct = (meter: MeterProfile) =>
+  measure(applyState(parseNetlist(NETLIST), { power: 'off' }), { mode: 'ohm', red: 'mid', black: '0' }, meter).value as number;
 
 describe('a job’s meter profile', () => {
   it('chosen at intake, gives the constant-current meter’s expected value of a junction Ω reading', async () => {
     const job = await intake('cc-autorange-6000');
     expect(job.meterProfile).toBe('cc-autorange-6000');
-    expect(await expectedOhm(job.id) / direct(CC_AUTORANGE_6000)).toBeCloseTo(1, 3);
+    expect((await expectedOhm(job.id)) / direct(CC_AUTORANGE_6000)).toBeCloseTo(1, 3);
   }, 120_000);
 
   it('changed on the bench to the analog meter, the same reading expects the analog meter’s (far lower) value', async () => {

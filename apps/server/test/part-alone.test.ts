@@ -20,7 +20,19 @@ afterAll(() => bench.server.close());
 
 const gate = { safetyCheck: { unplugged: true, busVolts: 1.1 } };
 // C10 sits between the fan supply and bus negative (outdoor-sections.ts: "C10 vfan 0 10n").
-const alone = (over: Record<string, unknown> = {}) => ({ idempotencyKey: randomUUID(), mode: 'ohm', red: 'vfan', black: '0', power: 'off', lifted: ['C10'], alone: 'C10', value: 2, raw: '2', ...gate, ...over });
+const alone = (over: Record<string, unknown> = {}) => ({
+  idempotencyKey: randomUUID(),
+  mode: 'ohm',
+  red: 'vfan',
+  black: '0',
+  power: 'off',
+  lifted: ['C10'],
+  alone: 'C10',
+  value: 2,
+  raw: '2',
+  ...gate,
+  ...over,
+});
 const post = (jobId: string, body: unknown) => tech.post(`/api/jobs/${jobId}/readings`, body);
 
 describe('a part measured on its own pins', () => {

@@ -34,7 +34,13 @@ beforeAll(async () => {
   dir = mkdtempSync(join(tmpdir(), 'splitscope-people-'));
   smtp = await startSmtpCapture({ port: 0, dir });
   const port = await freePort();
-  server = await startTestServer({ PORT: String(port), PUBLIC_URL: `http://127.0.0.1:${port}`, SMTP_PORT: String(smtp.port), MAIL_CAPTURE_DIR: dir, LOCAL_FAKES: '1' });
+  server = await startTestServer({
+    PORT: String(port),
+    PUBLIC_URL: `http://127.0.0.1:${port}`,
+    SMTP_PORT: String(smtp.port),
+    MAIL_CAPTURE_DIR: dir,
+    LOCAL_FAKES: '1',
+  });
   admin = await new Client(server.url).signIn('admin@demo.test');
 });
 afterAll(async () => {
@@ -154,7 +160,10 @@ describe('password reset by e-mail', () => {
     const user = await createUser(server.ctx.db, { shopId: 'shop-demo', role: 'tech', password: PASSWORD });
     await new Client(server.url).post('/api/auth/password-reset', { email: user.email });
     const token = linkIn(await smtp.waitFor((m) => m.to.some((t) => t.includes(user.email))), '/reset-password');
-    await server.ctx.db.update(passwordResets).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(passwordResets.userId, user.id));
+    await server.ctx.db
+      .update(passwordResets)
+      .set({ expiresAt: new Date(Date.now() - 1000) })
+      .where(eq(passwordResets.userId, user.id));
     expect((await new Client(server.url).post('/api/auth/password-reset/confirm', { token, password: 'flux-pen-bench-22' })).status).toBe(404);
     await new Client(server.url).signIn(user.email, PASSWORD);
   });

@@ -6,4 +6,7 @@ import sharp from 'sharp';
 export const TINY_PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==', 'base64');
 
 /** A 4×3 grey JPEG. */
-export const tinyJpeg = (): Promise<Buffer> => sharp({ create: { width: 4, height: 3, channels: 3, background: '#808080' } }).jpeg().toBuffer();
+export const tinyJpeg = (): Promise<Buffer> =>
+  sharp({ create: { width: 4, height: 3, channels: 3, background: '#808080' } })
+    .jpeg()
+    .toBuffer();

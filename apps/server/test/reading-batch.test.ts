@@ -28,7 +28,16 @@ beforeAll(async () => {
 afterAll(() => server.close());
 
 const newJob = async () => (await createJob(server.ctx.db, { shopId: 'shop-demo', createdBy: 'user-tech', customerId, boardId })).id;
-const reading = (over: Record<string, unknown> = {}) => ({ idempotencyKey: randomUUID(), mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', value: 7.5, raw: '7.5', ...over });
+const reading = (over: Record<string, unknown> = {}) => ({
+  idempotencyKey: randomUUID(),
+  mode: 'dcv',
+  red: 'TP2',
+  black: 'gnd',
+  power: 'on',
+  value: 7.5,
+  raw: '7.5',
+  ...over,
+});
 const rowsOf = (jobId: string) => server.ctx.db.select().from(readings).where(eq(readings.jobId, jobId));
 const statusOf = async (jobId: string) => (await server.ctx.db.select({ s: jobs.status }).from(jobs).where(eq(jobs.id, jobId)))[0]!.s;
 
@@ -55,7 +64,14 @@ describe('readings sent together', () => {
     expect(answers.map((a) => a.status)).toEqual(bodies.map(() => 201));
     // The route writes the answer without parsing it again: the contract must still accept every one.
     for (const a of answers) expect(createReadingResponse.safeParse(a.body).error).toBeUndefined();
-    answers.forEach((a, i) => expect(a.body).toMatchObject({ idempotencyKey: bodies[i]!.idempotencyKey, value: bodies[i]!.value, authorName: expect.any(String), verdict: { unit: 'V' } }));
+    answers.forEach((a, i) =>
+      expect(a.body).toMatchObject({
+        idempotencyKey: bodies[i]!.idempotencyKey,
+        value: bodies[i]!.value,
+        authorName: expect.any(String),
+        verdict: { unit: 'V' },
+      }),
+    );
     const rows = await rowsOf(jobId);
     expect(rows).toHaveLength(40);
     expect(new Set(rows.map((r) => r.idempotencyKey))).toEqual(new Set(bodies.map((b) => b.idempotencyKey)));
@@ -113,7 +129,10 @@ describe('readings sent together', () => {
   it('keeps lifted parts, OL, a continuity beep and the safety-gate voltage as sent', async () => {
     const jobId = await newJob();
     const [ohm, cont] = await Promise.all([
-      tech.post(`/api/jobs/${jobId}/readings`, reading({ mode: 'ohm', power: 'off', value: 'OL', raw: 'OL', lifted: ['R2'], safetyCheck: { unplugged: true, busVolts: 1.2 } })),
+      tech.post(
+        `/api/jobs/${jobId}/readings`,
+        reading({ mode: 'ohm', power: 'off', value: 'OL', raw: 'OL', lifted: ['R2'], safetyCheck: { unplugged: true, busVolts: 1.2 } }),
+      ),
       tech.post(`/api/jobs/${jobId}/readings`, reading({ mode: 'continuity', power: 'off', value: 'OL', raw: 'no beep', beep: false })),
     ]);
     expect(ohm!.status).toBe(201);

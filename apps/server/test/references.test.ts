@@ -50,7 +50,11 @@ afterAll(async () => {
 describe('known-good references', () => {
   it('three labelled sources per point; the model flagged where the good boards disagree', async () => {
     let refs: BoardReferences | undefined;
-    for (const [serial, v] of [['GOOD-1', 2.4], ['GOOD-2', 2.45], ['GOOD-3', 2.38]] as const) {
+    for (const [serial, v] of [
+      ['GOOD-1', 2.4],
+      ['GOOD-2', 2.45],
+      ['GOOD-3', 2.38],
+    ] as const) {
       const r = await tech.post(`/api/boards/${boardId}/references`, goodBoard(serial, v));
       expect(r.status).toBe(201);
       refs = r.body as unknown as BoardReferences;
@@ -71,7 +75,10 @@ describe('known-good references', () => {
     // The flag follows the rule (contract: referenceReview): both bands miss the other's value.
     const disagree = (modelValue < cmd.measured!.low || modelValue > cmd.measured!.high) && (2.4 < cmd.model!.low || 2.4 > cmd.model!.high);
     expect(cmd.review !== null).toBe(disagree);
-    if (disagree) expect(cmd.review).toMatch(/^The model gives .* V \(.*\); 3 known-good boards read 2\.4 V \(median\): check the model's parts and values around this point\.$/);
+    if (disagree)
+      expect(cmd.review).toMatch(
+        /^The model gives .* V \(.*\); 3 known-good boards read 2\.4 V \(median\): check the model's parts and values around this point\.$/,
+      );
   });
 
   it('a point that is not on the board is refused in words', async () => {
@@ -87,8 +94,19 @@ describe('known-good references', () => {
     expect(early.status).toBe(409);
     expect(JSON.stringify(early.body)).toContain('Only a repaired board signed off as verified is a known-good reference');
     await db.update(jobs).set({ status: 'repaired', proposedPart: 'C9' }).where(eq(jobs.id, jobId));
-    await db.insert(repairActions).values({ id: newId(), shopId, jobId, part: 'C9', action: 'replaced', authorId: techId, createdAt: new Date(Date.now() - 60_000) });
-    const v = await tech.post(`/api/jobs/${jobId}/readings`, { idempotencyKey: randomUUID(), phase: 'verification', mode: 'dcv', red: 'TP5', black: 'gnd', power: 'on', value: 14.72, raw: '14.72' });
+    await db
+      .insert(repairActions)
+      .values({ id: newId(), shopId, jobId, part: 'C9', action: 'replaced', authorId: techId, createdAt: new Date(Date.now() - 60_000) });
+    const v = await tech.post(`/api/jobs/${jobId}/readings`, {
+      idempotencyKey: randomUUID(),
+      phase: 'verification',
+      mode: 'dcv',
+      red: 'TP5',
+      black: 'gnd',
+      power: 'on',
+      value: 14.72,
+      raw: '14.72',
+    });
     expect(v.status).toBe(201);
     await db.update(jobs).set({ status: 'verified' }).where(eq(jobs.id, jobId));
     expect((await tech.post(`/api/jobs/${jobId}/reference`, {})).status).toBe(403);

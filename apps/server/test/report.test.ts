@@ -29,7 +29,16 @@ beforeAll(async () => {
 afterAll(() => server.close());
 
 // The divider board: 15 V over 10k/10k reads about 7.5 V at TP2 (see bench.test.ts for the loading figure).
-const reading = (over: Record<string, unknown> = {}) => ({ idempotencyKey: randomUUID(), mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', value: 7.5, raw: '7.5', ...over });
+const reading = (over: Record<string, unknown> = {}) => ({
+  idempotencyKey: randomUUID(),
+  mode: 'dcv',
+  red: 'TP2',
+  black: 'gnd',
+  power: 'on',
+  value: 7.5,
+  raw: '7.5',
+  ...over,
+});
 const statusOf = async () => (await server.ctx.db.select({ s: jobs.status }).from(jobs).where(eq(jobs.id, jobId)))[0]!.s;
 
 describe('job flow and repair report', () => {
@@ -40,7 +49,9 @@ describe('job flow and repair report', () => {
     const asEdit = await lead.patch(`/api/jobs/${jobId}`, { status: 'approved' });
     expect(asEdit.status).toBe(409);
     expect(String(asEdit.body.detail)).toMatch(/review decision/);
-    await expect(moveJob(server.ctx.db, { jobId, shopId: 'shop-demo', from: 'awaiting-review', to: 'returned', by: { event: 'quote-approval' } })).rejects.toThrow(/cannot move/);
+    await expect(
+      moveJob(server.ctx.db, { jobId, shopId: 'shop-demo', from: 'awaiting-review', to: 'returned', by: { event: 'quote-approval' } }),
+    ).rejects.toThrow(/cannot move/);
     expect(await statusOf()).toBe('awaiting-review');
     expect((await lead.post(`/api/jobs/${jobId}/reviews`, { decision: 'approve', comment: 'R2 open' })).status).toBe(201);
     expect(await statusOf()).toBe('approved');

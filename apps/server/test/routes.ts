@@ -20,7 +20,8 @@ export function apiRoutes(app: Express): RegisteredRoute[] {
   const walk = (stack: LayerLike[], prefix: string) => {
     for (const layer of stack) {
       if (layer.route) {
-        for (const [m, on] of Object.entries(layer.route.methods)) if (on && m !== '_all') out.push({ method: m.toUpperCase(), path: prefix + layer.route.path });
+        for (const [m, on] of Object.entries(layer.route.methods))
+          if (on && m !== '_all') out.push({ method: m.toUpperCase(), path: prefix + layer.route.path });
       } else if (layer.handle?.stack) walk(layer.handle.stack, prefix);
     }
   };

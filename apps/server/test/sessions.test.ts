@@ -77,7 +77,11 @@ describe('caching', () => {
 
 describe('session lifetime', () => {
   it('the cookie lasts the shop’s absolute lifetime (30 days by default), not 400 days', async () => {
-    const res = await fetch(server.url + '/api/auth/sign-in', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: 'trainee@demo.test', password: 'splitscope-demo' }) });
+    const res = await fetch(server.url + '/api/auth/sign-in', {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: JSON.stringify({ email: 'trainee@demo.test', password: 'splitscope-demo' }),
+    });
     expect(res.headers.get('set-cookie')).toMatch(/Max-Age=2592000/);
   });
 
@@ -88,12 +92,18 @@ describe('session lifetime', () => {
     expect(row!.expiresAt.getTime() - row!.createdAt.getTime()).toBeGreaterThan(11.9 * 3_600_000);
     expect(row!.expiresAt.getTime() - row!.createdAt.getTime()).toBeLessThanOrEqual(12 * 3_600_000 + 1000);
     // 5 h left: past half the idle time, so the next request moves the expiry to 12 h from now.
-    await server.ctx.db.update(sessions).set({ expiresAt: new Date(Date.now() + 5 * 3_600_000) }).where(eq(sessions.id, id));
+    await server.ctx.db
+      .update(sessions)
+      .set({ expiresAt: new Date(Date.now() + 5 * 3_600_000) })
+      .where(eq(sessions.id, id));
     server.ctx.auth.forgetKept();
     expect((await c.get('/api/me')).status).toBe(200);
     const [moved] = await server.ctx.db.select().from(sessions).where(eq(sessions.id, id));
     expect(moved!.expiresAt.getTime()).toBeGreaterThan(Date.now() + 11.9 * 3_600_000);
-    await server.ctx.db.update(sessions).set({ expiresAt: new Date(Date.now() - 1000) }).where(eq(sessions.id, id));
+    await server.ctx.db
+      .update(sessions)
+      .set({ expiresAt: new Date(Date.now() - 1000) })
+      .where(eq(sessions.id, id));
     server.ctx.auth.forgetKept();
     expect((await c.get('/api/me')).status).toBe(401);
   });
@@ -103,7 +113,10 @@ describe('session lifetime', () => {
     const user = await createUser(server.ctx.db, { shopId: shop.id, role: 'admin', password: PASSWORD });
     const c = await new Client(server.url).signIn(user.email, PASSWORD);
     const id = sessionIdOf(c);
-    await server.ctx.db.update(sessions).set({ createdAt: new Date(Date.now() - 2 * 86_400_000) }).where(eq(sessions.id, id));
+    await server.ctx.db
+      .update(sessions)
+      .set({ createdAt: new Date(Date.now() - 2 * 86_400_000) })
+      .where(eq(sessions.id, id));
     server.ctx.auth.forgetKept();
     expect((await c.get('/api/me')).status).toBe(200);
     const r = await c.patch('/api/shop', { sessionMaxDays: 1 });

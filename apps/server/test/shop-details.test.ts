@@ -18,7 +18,14 @@ import { linkIn } from './billing-fixture';
 import sharp from 'sharp';
 import { LOGO_BOX } from '../src/features/shops';
 
-const SHOP = { name: 'Kestrel Row Electronics', address: '12 Kestrel Row\nMillbrook', phone: '555-0142', email: 'desk@kestrelrow.test', taxNumber: 'VAT-778812', currency: 'EUR' };
+const SHOP = {
+  name: 'Kestrel Row Electronics',
+  address: '12 Kestrel Row\nMillbrook',
+  phone: '555-0142',
+  email: 'desk@kestrelrow.test',
+  taxNumber: 'VAT-778812',
+  currency: 'EUR',
+};
 const DEMO_WORDS = /Harbour Lane|Splitscope Demo/;
 
 let server: RunningServer;
@@ -32,7 +39,14 @@ beforeAll(async () => {
   dir = mkdtempSync(join(tmpdir(), 'splitscope-shop-mail-'));
   smtp = await startSmtpCapture({ port: 0, dir });
   empty = await createEmptyDatabase(`splitscope_shopdetails_${process.pid}`);
-  server = await startTestServer({ DATABASE_URL: empty.url, SPLITSCOPE_MODE: 'shop', SMTP_PORT: String(smtp.port), MAIL_CAPTURE_DIR: dir, LOCAL_FAKES: '1', PAYMENTS_WEBHOOK_SECRET: `whsec_${randomBytes(24).toString('base64url')}` });
+  server = await startTestServer({
+    DATABASE_URL: empty.url,
+    SPLITSCOPE_MODE: 'shop',
+    SMTP_PORT: String(smtp.port),
+    MAIL_CAPTURE_DIR: dir,
+    LOCAL_FAKES: '1',
+    PAYMENTS_WEBHOOK_SECRET: `whsec_${randomBytes(24).toString('base64url')}`,
+  });
   admin = new Client(server.url);
   const setup = await admin.post('/api/setup', { shop: SHOP, admin: { name: 'Ines Varga', email: 'ines@kestrelrow.test', password: 'kestrel-row-bench-4' } });
   expect(setup.status).toBe(204);
@@ -56,7 +70,20 @@ async function customerJob(email: string) {
   await db.insert(boardModelVersions).values({ id: versionId, boardId, version: 1, document: {}, expectedReadings: [] });
   const id = newId();
   jobNumber++;
-  await db.insert(jobs).values({ id, shopId, number: jobNumber, customerId: String(customer.body.id), unitDescription: 'Wall split outdoor unit', boardId, boardVersionId: versionId, symptom: 'fan never starts', status: 'received', createdBy: (await admin.get('/api/me')).body.id as string });
+  await db
+    .insert(jobs)
+    .values({
+      id,
+      shopId,
+      number: jobNumber,
+      customerId: String(customer.body.id),
+      unitDescription: 'Wall split outdoor unit',
+      boardId,
+      boardVersionId: versionId,
+      symptom: 'fan never starts',
+      status: 'received',
+      createdBy: (await admin.get('/api/me')).body.id as string,
+    });
   return { id, db };
 }
 
@@ -64,7 +91,9 @@ describe("the shop's details where customers see them", () => {
   it('signs the quote and invoice e-mails, heads the report PDF and the customer page', async () => {
     const email = 'oda.lindqvist@contractor.example.test';
     const { id: jobId, db } = await customerJob(email);
-    const quote = await admin.post(`/api/jobs/${jobId}/quotes`, { lines: [{ kind: 'labour', description: 'Bench diagnosis', quantity: '1', unitCents: 4500 }] });
+    const quote = await admin.post(`/api/jobs/${jobId}/quotes`, {
+      lines: [{ kind: 'labour', description: 'Bench diagnosis', quantity: '1', unitCents: 4500 }],
+    });
     expect(quote.status).toBe(201);
     expect((await admin.post(`/api/quotes/${quote.body.id as string}/send`)).status).toBe(200);
     const quoteMail = await smtp.waitFor((m) => m.to.some((t) => t.includes(email)) && m.subject.startsWith('Quote'));
@@ -80,7 +109,14 @@ describe("the shop's details where customers see them", () => {
     // the customer page, through the link in the mail
     const page = await new Client(server.url).get(`/api/public/links/${linkIn(quoteMail)}`);
     expect(page.status).toBe(200);
-    expect((page.body as unknown as PublicJob).shop).toEqual({ name: SHOP.name, address: SHOP.address, phone: SHOP.phone, email: SHOP.email, taxNumber: SHOP.taxNumber, hasLogo: false });
+    expect((page.body as unknown as PublicJob).shop).toEqual({
+      name: SHOP.name,
+      address: SHOP.address,
+      phone: SHOP.phone,
+      email: SHOP.email,
+      taxNumber: SHOP.taxNumber,
+      hasLogo: false,
+    });
     expect(JSON.stringify(page.body)).not.toMatch(DEMO_WORDS);
 
     // approved by the customer, repaired and verified: the invoice e-mail carries the shop's details and the report PDF
@@ -97,7 +133,14 @@ describe("the shop's details where customers see them", () => {
     // the PDF's lines: the shop's name, address, phone, e-mail and tax number at the top
     const report = (await admin.get(`/api/jobs/${jobId}/report`)).body as unknown as RepairReport;
     const lines = reportLines(report).map((l) => l.text);
-    expect(lines.slice(0, 6)).toEqual(['Kestrel Row Electronics', '12 Kestrel Row', 'Millbrook', 'Phone 555-0142', 'desk@kestrelrow.test', 'Tax number VAT-778812']);
+    expect(lines.slice(0, 6)).toEqual([
+      'Kestrel Row Electronics',
+      '12 Kestrel Row',
+      'Millbrook',
+      'Phone 555-0142',
+      'desk@kestrelrow.test',
+      'Tax number VAT-778812',
+    ]);
     expect(lines.join('\n')).not.toMatch(DEMO_WORDS);
   });
 
@@ -105,7 +148,9 @@ describe("the shop's details where customers see them", () => {
     expect((await admin.patch('/api/shop', { phone: '555-0199', taxNumber: 'VAT-990001' })).status).toBe(200);
     const email = 'pim.achterberg@contractor.example.test';
     const { id: jobId } = await customerJob(email);
-    const quote = await admin.post(`/api/jobs/${jobId}/quotes`, { lines: [{ kind: 'labour', description: 'Bench diagnosis', quantity: '1', unitCents: 4500 }] });
+    const quote = await admin.post(`/api/jobs/${jobId}/quotes`, {
+      lines: [{ kind: 'labour', description: 'Bench diagnosis', quantity: '1', unitCents: 4500 }],
+    });
     expect((await admin.post(`/api/quotes/${quote.body.id as string}/send`)).status).toBe(200);
     const mail = await smtp.waitFor((m) => m.to.some((t) => t.includes(email)));
     expect(mail.text).toContain('Phone 555-0199');
@@ -115,9 +160,12 @@ describe("the shop's details where customers see them", () => {
   });
 
   it("heads the report PDF and the customer page with the shop's logo, fitted to a header; refuses a file that is not a picture in words", async () => {
-    const upload = (bytes: Buffer, type: string) => fetch(`${server.url}/api/uploads?name=logo`, { method: 'POST', headers: { 'content-type': type, cookie: admin.cookie }, body: bytes });
+    const upload = (bytes: Buffer, type: string) =>
+      fetch(`${server.url}/api/uploads?name=logo`, { method: 'POST', headers: { 'content-type': type, cookie: admin.cookie }, body: bytes });
     // a 1600 × 1200 photo-sized JPEG: kept as a copy at most LOGO_BOX
-    const big = await sharp({ create: { width: 1600, height: 1200, channels: 3, background: '#1d6f42' } }).jpeg().toBuffer();
+    const big = await sharp({ create: { width: 1600, height: 1200, channels: 3, background: '#1d6f42' } })
+      .jpeg()
+      .toBuffer();
     const up = await upload(big, 'image/jpeg');
     expect(up.status).toBe(201);
     const set = await admin.patch('/api/shop', { logoUploadId: ((await up.json()) as { id: string }).id });
@@ -138,7 +186,9 @@ describe("the shop's details where customers see them", () => {
     // the customer page says there is a logo and fetches it through its link; the PDF draws it at its head
     const email = 'wren.soto@contractor.example.test';
     const { id: jobId, db } = await customerJob(email);
-    const quote = await admin.post(`/api/jobs/${jobId}/quotes`, { lines: [{ kind: 'labour', description: 'Bench diagnosis', quantity: '1', unitCents: 4500 }] });
+    const quote = await admin.post(`/api/jobs/${jobId}/quotes`, {
+      lines: [{ kind: 'labour', description: 'Bench diagnosis', quantity: '1', unitCents: 4500 }],
+    });
     expect((await admin.post(`/api/quotes/${quote.body.id as string}/send`)).status).toBe(200);
     const token = linkIn(await smtp.waitFor((m) => m.to.some((t) => t.includes(email))));
     const customer = new Client(server.url);

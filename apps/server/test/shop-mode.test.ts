@@ -9,7 +9,14 @@ let server: RunningServer;
 let empty: Awaited<ReturnType<typeof createEmptyDatabase>>;
 
 const firstRun = (email = 'owner@northbench.test') => ({
-  shop: { name: 'North Bench Electronics', address: '4 Kiln Yard, Eastport', phone: '555-0100', email: 'desk@northbench.test', taxNumber: 'TX-0042', currency: 'EUR' },
+  shop: {
+    name: 'North Bench Electronics',
+    address: '4 Kiln Yard, Eastport',
+    phone: '555-0100',
+    email: 'desk@northbench.test',
+    taxNumber: 'TX-0042',
+    currency: 'EUR',
+  },
   admin: { name: 'Maren Holt', email, password: 'kiln-yard-bench-7' },
 });
 
@@ -47,7 +54,13 @@ describe('shop mode', () => {
     const me = await winner.get('/api/me');
     expect(me.body).toMatchObject({ role: 'admin', shopName: 'North Bench Electronics' });
     const shop = await winner.get('/api/shop');
-    expect(shop.body).toMatchObject({ name: 'North Bench Electronics', address: '4 Kiln Yard, Eastport', taxNumber: 'TX-0042', sessionIdleHours: 12, sessionMaxDays: 30 });
+    expect(shop.body).toMatchObject({
+      name: 'North Bench Electronics',
+      address: '4 Kiln Yard, Eastport',
+      taxNumber: 'TX-0042',
+      sessionIdleHours: 12,
+      sessionMaxDays: 30,
+    });
     expect((await winner.get('/api/billing/settings')).body).toMatchObject({ currency: 'eur' });
     expect((await winner.get('/api/users')).body.items).toHaveLength(1);
     // Closed for good: a third try is refused and the status says so.

@@ -9,9 +9,7 @@ import { unit as mathUnit } from 'mathjs';
 
 export type ReadingUnit = 'V' | 'ohm' | 'F' | 'A' | 'Hz';
 
-export type ParsedReading =
-  | { ok: true; value: number | 'OL'; unit?: ReadingUnit; text: string }
-  | { ok: false; error: string; text: string };
+export type ParsedReading = { ok: true; value: number | 'OL'; unit?: ReadingUnit; text: string } | { ok: false; error: string; text: string };
 
 const PREFIX: Record<string, number> = { p: 1e-12, n: 1e-9, u: 1e-6, m: 1e-3, '': 1, k: 1e3, K: 1e3, M: 1e6, G: 1e9 };
 

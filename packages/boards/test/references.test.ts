@@ -1,7 +1,20 @@
 import { describe, expect, it } from 'vitest';
 import {
-  bleedTime, busSafety, decodeColourBands, decodeSmdCode, E24, E96, eia96CodeFor, isPreferred, nearestPreferred,
-  storedEnergy, timeConstant, voltageAfter, SAFE_THRESHOLDS, DEFAULT_SAFE_THRESHOLD, colourBandsFor,
+  bleedTime,
+  busSafety,
+  decodeColourBands,
+  decodeSmdCode,
+  E24,
+  E96,
+  eia96CodeFor,
+  isPreferred,
+  nearestPreferred,
+  storedEnergy,
+  timeConstant,
+  voltageAfter,
+  SAFE_THRESHOLDS,
+  DEFAULT_SAFE_THRESHOLD,
+  colourBandsFor,
 } from '../src/references';
 
 describe('bus safety', () => {
@@ -59,8 +72,18 @@ describe('IEC 60062 colour bands', () => {
 
 describe('SMD codes', () => {
   it.each([
-    ['103', 10000], ['220', 22], ['4R7', 4.7], ['R47', 0.47], ['1002', 10000], ['10R0', 10], ['000', 0],
-    ['01C', 10000], ['68X', 49.9], ['24A', 174], ['48B', 3090], ['01Z', 0.1],
+    ['103', 10000],
+    ['220', 22],
+    ['4R7', 4.7],
+    ['R47', 0.47],
+    ['1002', 10000],
+    ['10R0', 10],
+    ['000', 0],
+    ['01C', 10000],
+    ['68X', 49.9],
+    ['24A', 174],
+    ['48B', 3090],
+    ['01Z', 0.1],
   ])('%s = %d Ω', (c, v) => expect(decodeSmdCode(c as string).ohms).toBeCloseTo(v as number, 9));
   it('names the code system', () => {
     expect(decodeSmdCode('01C').system).toBe('EIA-96');

@@ -109,7 +109,12 @@ function clamp(r: R): Base {
     res('RV', 'vcc', '0', logU(r, 100, 1e4)),
   ];
   const bv = 3 + 12 * r();
-  return { kind: 'clamp', parts, models: [diodeModel(r, 'DS'), `.model DZ D(IS=1e-14 N=1 BV=${fmt(bv)} IBV=1m RS=${fmt(logU(r, 0.5, 20))})`], nodes: ['in', 'vcc', 'a', 'out'] };
+  return {
+    kind: 'clamp',
+    parts,
+    models: [diodeModel(r, 'DS'), `.model DZ D(IS=1e-14 N=1 BV=${fmt(bv)} IBV=1m RS=${fmt(logU(r, 0.5, 20))})`],
+    nodes: ['in', 'vcc', 'a', 'out'],
+  };
 }
 
 function stage(r: R): Base {
@@ -183,7 +188,12 @@ function bridge(r: R): Base {
     res('RL15', 'v15', '0', logU(r, 1e3, 1e4)),
   ];
   if (r() < 0.5) parts.push(res('RX', 'l', 'n', logU(r, 1e6, 1e9)));
-  return { kind: 'bridge', parts, models: [diodeModel(r, 'DR'), '.model DZ D(IS=1e-14 N=1 BV=15.6 IBV=1m)', bjtModel(r, 'QN', 'NPN')], nodes: ['l', 'n', 'busp', 'zb', 'v15'] };
+  return {
+    kind: 'bridge',
+    parts,
+    models: [diodeModel(r, 'DR'), '.model DZ D(IS=1e-14 N=1 BV=15.6 IBV=1m)', bjtModel(r, 'QN', 'NPN')],
+    nodes: ['l', 'n', 'busp', 'zb', 'v15'],
+  };
 }
 
 const KINDS = [mesh, clamp, stage, optoStage, regulator, bridge];
@@ -191,7 +201,13 @@ const KINDS = [mesh, clamp, stage, optoStage, regulator, bridge];
 /** The meter of an unpowered reading, or a voltmeter of a powered one, between two random nodes. */
 function meter(r: R, nodes: readonly string[], powered: boolean): Part {
   const red = pick(r, nodes);
-  const black = r() < 0.5 ? '0' : pick(r, nodes.filter((n) => n !== red));
+  const black =
+    r() < 0.5
+      ? '0'
+      : pick(
+          r,
+          nodes.filter((n) => n !== red),
+        );
   if (powered) return { name: 'RMETER', lines: [`RMETER ${red} ${black} 10MEG`] };
   const [v, rs] = pick(r, [
     [0.5, 10e3],

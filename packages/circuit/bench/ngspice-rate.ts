@@ -36,7 +36,7 @@ export function ngspicePerSecond(decks: string[], minMs = 800): number {
     run(1); // warm the file cache
     const base = Math.min(run(1), run(1));
     // grow the repetitions until the difference is long enough for the clock's resolution (10 ms ticks)
-    for (let reps = 20; ; ) {
+    for (let reps = 20; ;) {
       const t = Math.min(run(reps + 1), run(reps + 1)) - base;
       if (t >= minMs || reps > 1e6) return (1000 * reps * decks.length) / Math.max(t, 1e-6);
       reps = t > 50 ? Math.ceil((reps * 1.2 * minMs) / t) : reps * 4;

@@ -175,14 +175,22 @@ async function main(): Promise<void> {
   console.log(`robustness corpus: ${s.cases} decks (${bases} circuits × 4 states, seed ${seed}) against ${ngspiceVersion()}`);
   for (const k of kinds) {
     const sub = summarise(outcomes.filter((o, i) => cases[i]?.kind === k));
-    console.log(`  ${k.padEnd(10)} ${String(sub.converged).padStart(4)}/${String(sub.reference).padEnd(4)} converged, ${sub.withinTolerance} within tolerance, worst ${sub.worst.toFixed(3)}× tolerance`);
+    console.log(
+      `  ${k.padEnd(10)} ${String(sub.converged).padStart(4)}/${String(sub.reference).padEnd(4)} converged, ${sub.withinTolerance} within tolerance, worst ${sub.worst.toFixed(3)}× tolerance`,
+    );
   }
   const unstable = outcomes.filter((o) => o.unstable).length;
   const ill = outcomes.filter((o) => o.illConditioned).map((o) => o.name);
-  console.log(`ngspice solved ${s.reference} of ${s.cases} to an answer that does not move with its tolerances (${unstable} more moved by over 1× tolerance between RELTOL 1e-3 and 1e-6: no reference, not counted)`);
-  console.log(`${ill.length} more had an ngspice answer set by rounding (it moved onto this package's with sub-ohm series resistances raised to 1 Ω): not counted${ill.length ? ` (${ill.join(', ')})` : ''}`);
+  console.log(
+    `ngspice solved ${s.reference} of ${s.cases} to an answer that does not move with its tolerances (${unstable} more moved by over 1× tolerance between RELTOL 1e-3 and 1e-6: no reference, not counted)`,
+  );
+  console.log(
+    `${ill.length} more had an ngspice answer set by rounding (it moved onto this package's with sub-ohm series resistances raised to 1 Ω): not counted${ill.length ? ` (${ill.join(', ')})` : ''}`,
+  );
   console.log(`convergence: ${((100 * s.converged) / Math.max(1, s.reference)).toFixed(2)} % (${s.converged}/${s.reference} of the decks ngspice solves)`);
-  console.log(`within max(1 mV, 0.1 %): ${s.withinTolerance}/${s.reference}; worst error ${s.worst.toFixed(3)}× tolerance${s.worstCase ? ` (${s.worstCase})` : ''}`);
+  console.log(
+    `within max(1 mV, 0.1 %): ${s.withinTolerance}/${s.reference}; worst error ${s.worst.toFixed(3)}× tolerance${s.worstCase ? ` (${s.worstCase})` : ''}`,
+  );
   const ours = outcomes.reduce((a, o) => a + o.ms, 0);
   console.log(`time: ${((performance.now() - t0) / 1000).toFixed(1)} s in all, ${ours.toFixed(0)} ms in this package's solves`);
   const bad = outcomes.filter((o) => o.reference && (!o.converged || o.worst > 1)).slice(0, 15);

@@ -12,10 +12,7 @@ const file = (name: string, text: string) => {
   return p;
 };
 
-const FAN = file(
-  'fan.cir',
-  'fan section (invented)\n.param FAN_ON=1\nVBUS p 0 {15*FAN_ON}\nR1 p vfan 1k\nR2 vfan 0 2k\nC2 vfan 0 10u\nC3 vfan 0 100n\n.end\n',
-);
+const FAN = file('fan.cir', 'fan section (invented)\n.param FAN_ON=1\nVBUS p 0 {15*FAN_ON}\nR1 p vfan 1k\nR2 vfan 0 2k\nC2 vfan 0 10u\nC3 vfan 0 100n\n.end\n');
 
 async function run(args: string[], entry: (argv: string[]) => Promise<number> = main): Promise<{ code: number; out: string; err: string }> {
   let out = '';

@@ -96,7 +96,12 @@ const readCmd: Command = (args) => {
   if (!flags.red || !flags.black) throw new UsageError('--red and --black are required');
   const power = flags.power ?? (mode === 'dcv' ? 'on' : 'off');
   if (power !== 'on' && power !== 'off') throw new UsageError('--power must be on or off');
-  const lifted = flags.lift ? flags.lift.split(',').map((s) => s.trim()).filter(Boolean) : [];
+  const lifted = flags.lift
+    ? flags.lift
+        .split(',')
+        .map((s) => s.trim())
+        .filter(Boolean)
+    : [];
   const params = parseParams(flags.param);
   return withExpressions(() => {
     const reading = read(nl, { mode, red: flags.red as string, black: flags.black as string, power, lifted, params });
@@ -115,7 +120,9 @@ export const commands: Record<string, Command> = {
     const power = flags.power ?? 'off';
     if (power !== 'on' && power !== 'off') throw new UsageError('--power must be on or off');
     const params = parseParams(flags.param);
-    return withExpressions(() => ({ elements: applyState(nl, { power, lifted: flags.lift ? flags.lift.split(',') : [], params }).elements.map((e) => e.name) }));
+    return withExpressions(() => ({
+      elements: applyState(nl, { power, lifted: flags.lift ? flags.lift.split(',') : [], params }).elements.map((e) => e.name),
+    }));
   },
 };
 

@@ -42,9 +42,13 @@ const netArb: fc.Arbitrary<Net> = fc
     fc.record({
       nodes: fc.constant(nodes),
       tree: fc.tuple(...Array.from({ length: nodes - 1 }, (_, i) => fc.tuple(fc.integer({ min: 0, max: i }), fc.double({ min: 1, max: 1e5, noNaN: true })))),
-      extra: fc.array(fc.tuple(fc.integer({ min: 0, max: nodes - 1 }), fc.integer({ min: 0, max: nodes - 1 }), fc.double({ min: 1, max: 1e5, noNaN: true })), { maxLength: 20 }),
+      extra: fc.array(fc.tuple(fc.integer({ min: 0, max: nodes - 1 }), fc.integer({ min: 0, max: nodes - 1 }), fc.double({ min: 1, max: 1e5, noNaN: true })), {
+        maxLength: 20,
+      }),
       source: fc.double({ min: -300, max: 300, noNaN: true }),
-      injections: fc.array(fc.record({ node: fc.integer({ min: 1, max: nodes - 1 }), amps: fc.double({ min: -0.1, max: 0.1, noNaN: true }) }), { maxLength: 4 }),
+      injections: fc.array(fc.record({ node: fc.integer({ min: 1, max: nodes - 1 }), amps: fc.double({ min: -0.1, max: 0.1, noNaN: true }) }), {
+        maxLength: 4,
+      }),
     }),
   )
   .map(({ nodes, tree, extra, source, injections }) => ({
@@ -67,8 +71,17 @@ type Fault = { kind: 'open' | 'short' | 'drift'; edge: number; k: number } | { k
 
 const faultArb = (net: Net): fc.Arbitrary<Fault> =>
   fc.oneof(
-    fc.record({ kind: fc.constantFrom('open' as const, 'short' as const, 'drift' as const), edge: fc.integer({ min: 0, max: net.edges.length - 1 }), k: fc.double({ min: 0.05, max: 20, noNaN: true }) }),
-    fc.record({ kind: fc.constant('bridge' as const), a: fc.integer({ min: 0, max: net.nodes - 1 }), b: fc.integer({ min: 0, max: net.nodes - 1 }), ohms: fc.double({ min: 0.1, max: 1e6, noNaN: true }) }),
+    fc.record({
+      kind: fc.constantFrom('open' as const, 'short' as const, 'drift' as const),
+      edge: fc.integer({ min: 0, max: net.edges.length - 1 }),
+      k: fc.double({ min: 0.05, max: 20, noNaN: true }),
+    }),
+    fc.record({
+      kind: fc.constant('bridge' as const),
+      a: fc.integer({ min: 0, max: net.nodes - 1 }),
+      b: fc.integer({ min: 0, max: net.nodes - 1 }),
+      ohms: fc.double({ min: 0.1, max: 1e6, noNaN: true }),
+    }),
   );
 
 /** The fault written into the circuit as the diagnosis does (faults.ts): the element replaced or a part added. */
@@ -99,7 +112,13 @@ describe('fast fault simulation (Sherman–Morrison–Woodbury from the healthy 
   it('continues Newton from the healthy solution on a diode circuit and matches the full solve', () => {
     const healthy: Circuit = {
       title: 'diode divider',
-      elements: [vsource('V1', 'in', '0', 15), resistor('R1', 'in', 'a', 1e3), diode('D1', 'a', 'b'), resistor('R2', 'b', '0', 2.2e3), resistor('R3', 'a', '0', 10e3)],
+      elements: [
+        vsource('V1', 'in', '0', 15),
+        resistor('R1', 'in', 'a', 1e3),
+        diode('D1', 'a', 'b'),
+        resistor('R2', 'b', '0', 2.2e3),
+        resistor('R3', 'a', '0', 10e3),
+      ],
       nets: ['0', 'in', 'a', 'b'],
       params: {},
     };
@@ -111,7 +130,12 @@ describe('fast fault simulation (Sherman–Morrison–Woodbury from the healthy 
   });
 
   it('refuses changes that are not conductance stamps (a diode removed, a new net)', () => {
-    const c: Circuit = { title: 't', elements: [vsource('V1', 'a', '0', 1), resistor('R1', 'a', 'b', 1e3), diode('D1', 'b', '0')], nets: ['0', 'a', 'b'], params: {} };
+    const c: Circuit = {
+      title: 't',
+      elements: [vsource('V1', 'a', '0', 1), resistor('R1', 'a', 'b', 1e3), diode('D1', 'b', '0')],
+      nets: ['0', 'a', 'b'],
+      params: {},
+    };
     expect(rubberStamps(c, { ...c, elements: c.elements.filter((e) => e.name !== 'D1') })).toBeUndefined();
     expect(rubberStamps(c, { ...c, elements: [...c.elements, resistor('R9', 'b', 'new', 1)] })).toBeUndefined();
     expect(rubberStamps(c, { ...c, elements: c.elements.map((e) => (e.name === 'R1' ? { ...e, value: 2e3 } : e)) })).toEqual([

@@ -182,7 +182,10 @@ export function flatten(netlist: Netlist, params?: Record<string, number>, optio
           }
           for (const d of sub.params) {
             const given = inst[d.name];
-            childParams.set(d.name, given ? value(given, p, raw.line, `${raw.name} ${d.name}`) : value(d.value, childParams, d.line, `.subckt ${sub.name} ${d.name}`));
+            childParams.set(
+              d.name,
+              given ? value(given, p, raw.line, `${raw.name} ${d.name}`) : value(d.value, childParams, d.line, `.subckt ${sub.name} ${d.name}`),
+            );
           }
           const portMap = new Map<string, string>();
           sub.ports.forEach((port, i) => portMap.set(port, n[i] as string));

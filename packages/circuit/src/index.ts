@@ -10,19 +10,7 @@ export { NetlistError } from './netlist-types';
 export type { Netlist, RawElement, RawValue, ModelDef, ParamDef, SubcktDef, ElementLetter } from './netlist-types';
 export { flatten } from './flatten';
 export type { FlattenOptions } from './flatten';
-export {
-  cloneCircuit,
-  cloneElement,
-  resistor,
-  vsource,
-  isource,
-  diode,
-  withoutParts,
-  normNode,
-  REFERENCE,
-  DEFAULT_DIODE,
-  DEFAULT_BJT,
-} from './circuit';
+export { cloneCircuit, cloneElement, resistor, vsource, isource, diode, withoutParts, normNode, REFERENCE, DEFAULT_DIODE, DEFAULT_BJT } from './circuit';
 export type {
   Circuit,
   Element,

@@ -7,7 +7,7 @@ describe('sparse LU program', () => {
     fc.assert(
       fc.property(fc.integer({ min: 1, max: 12 }), fc.integer({ min: 0, max: 1e6 }), (n, seed) => {
         let s = seed + 1;
-        const rand = () => ((s = (s * 16807) % 2147483647) / 2147483647);
+        const rand = () => (s = (s * 16807) % 2147483647) / 2147483647;
         const dense = new Float64Array(n * n);
         const nz = new Uint8Array(n * n);
         for (let i = 0; i < n; i++) {

@@ -110,18 +110,18 @@ export function minimumDegreeOrder(n: number, adj: Set<number>[], after?: (reado
     let best = -1;
     let bestDeg = Infinity;
     for (let pass = 0; pass < 2 && best < 0; pass++) {
-    for (let i = 0; i < n; i++) {
-      if (done[i]) continue;
-      // `after[i]`: i (a voltage-source branch, zero diagonal) waits until one of these nodes is eliminated,
-      // which gives it a non-zero diagonal by fill-in (second pass: no constraint, only if nothing is eligible).
-      const need = after?.[i];
-      if (pass === 0 && need && need.length > 0 && !need.some((j) => done[j])) continue;
-      const d = (adj[i] as Set<number>).size;
-      if (d < bestDeg) {
-        bestDeg = d;
-        best = i;
+      for (let i = 0; i < n; i++) {
+        if (done[i]) continue;
+        // `after[i]`: i (a voltage-source branch, zero diagonal) waits until one of these nodes is eliminated,
+        // which gives it a non-zero diagonal by fill-in (second pass: no constraint, only if nothing is eligible).
+        const need = after?.[i];
+        if (pass === 0 && need && need.length > 0 && !need.some((j) => done[j])) continue;
+        const d = (adj[i] as Set<number>).size;
+        if (d < bestDeg) {
+          bestDeg = d;
+          best = i;
+        }
       }
-    }
     }
     order[step] = best;
     done[best] = 1;

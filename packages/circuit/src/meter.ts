@@ -215,7 +215,11 @@ function withMeter(circuit: Circuit, extra: Element[], red: string, black: strin
 }
 
 /** The Thevenin source a single-range function describes (DEFAULT_METER's style). */
-const thevenin = (f: { openCircuitVoltage: number; sourceResistance: number }): TestSource => ({ kind: 'thevenin', voc: f.openCircuitVoltage, rs: f.sourceResistance });
+const thevenin = (f: { openCircuitVoltage: number; sourceResistance: number }): TestSource => ({
+  kind: 'thevenin',
+  voc: f.openCircuitVoltage,
+  rs: f.sourceResistance,
+});
 
 /**
  * The compliance clamp of a constant-current source: a diode across the probes whose knee sits at the compliance
@@ -267,7 +271,13 @@ const rangeFor = (ranges: readonly MeterRange[], r: number, from: number) => ran
  * combination of concave, resp. convex-in-V, branches stays so), so V/I is non-increasing in I and a lower range
  * (more current) can only read less. Two solves for a linear path, one when the lowest range holds it.
  */
-function autorangeOhm(circuit: Circuit, red: string, black: string, ranges: readonly MeterRange[], solve: MeasureOptions['solve']): { reading: number | 'OL'; s: NodeSolution; range: number } {
+function autorangeOhm(
+  circuit: Circuit,
+  red: string,
+  black: string,
+  ranges: readonly MeterRange[],
+  solve: MeasureOptions['solve'],
+): { reading: number | 'OL'; s: NodeSolution; range: number } {
   let k = 0;
   let guess = solve?.initialGuess;
   for (;;) {
@@ -337,7 +347,8 @@ export function measureDetailed(circuit: Circuit, probe: Probe, meter: MeterProf
  * range that holds the value to the lowest range that still holds it (each lower range loads the node more).
  */
 function dcvReading(circuit: Circuit, red: string, black: string, meter: MeterProfile, solve: MeasureOptions['solve']): MeasuredReading {
-  const load = (rin: number): Element[] => (Number.isFinite(rin) && rin > 0 ? [{ kind: 'R', name: 'meter#rin', part: 'meter#', nodes: [red, black], value: rin }] : []);
+  const load = (rin: number): Element[] =>
+    Number.isFinite(rin) && rin > 0 ? [{ kind: 'R', name: 'meter#rin', part: 'meter#', nodes: [red, black], value: rin }] : [];
   const ranges = meter.dcv.ranges;
   if (!ranges?.some((r) => r.inputResistance !== undefined)) {
     const s = withMeter(circuit, load(meter.dcv.inputResistance), red, black, solve);

@@ -79,9 +79,7 @@ describe('netlist syntax (SPICE3 user manual §1.3: title line, * comments, + co
     expect(v1off && 'value' in v1off ? v1off.value : NaN).toBe(0);
   });
   it('names subcircuit elements and nodes by instance path (nested)', () => {
-    const nl = parseNetlist(
-      't\n.subckt leg p q\nRa p m 1k\nRb m q 1k\n.ends\n.subckt pair x y\nXL1 x y leg\nXL2 x y leg\n.ends\nV1 a 0 1\nXP a 0 pair\n',
-    );
+    const nl = parseNetlist('t\n.subckt leg p q\nRa p m 1k\nRb m q 1k\n.ends\n.subckt pair x y\nXL1 x y leg\nXL2 x y leg\n.ends\nV1 a 0 1\nXP a 0 pair\n');
     const c = flatten(nl);
     expect(c.elements.map((e) => e.name)).toEqual(['V1', 'XP.XL1.Ra', 'XP.XL1.Rb', 'XP.XL2.Ra', 'XP.XL2.Rb']);
     expect(c.elements[1]?.part).toBe('XP');

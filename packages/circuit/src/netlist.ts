@@ -140,7 +140,10 @@ export function parseNetlist(text: string, options: ParseOptions = {}): Netlist 
         const n = card.tokens[1]?.toLowerCase();
         if (n !== undefined && n !== def.name) throw new NetlistError(card.line, `.ends ${card.tokens[1]} does not match .subckt ${def.name}`);
       } else {
-        throw new NetlistError(card.line, `unsupported command "${card.tokens[0]}" (DC operating point subset: .model .subckt .ends .param .options .temp .end; analyses and outputs are ignored)`);
+        throw new NetlistError(
+          card.line,
+          `unsupported command "${card.tokens[0]}" (DC operating point subset: .model .subckt .ends .param .options .temp .end; analyses and outputs are ignored)`,
+        );
       }
       continue;
     }

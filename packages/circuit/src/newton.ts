@@ -43,7 +43,9 @@ function assemble(top: Topology, w: Work, cfg: AttemptConfig, first: boolean): b
     const g = cfg.gshunt;
     for (let i = 0; i < top.shuntPos.length; i++) a[top.shuntPos[i] as number] = (a[top.shuntPos[i] as number] as number) + g;
     const ref = cfg.ptcRef;
-    if (ref) for (let i = 0; i < top.shuntRow.length; i++) b[top.shuntRow[i] as number] = (b[top.shuntRow[i] as number] as number) + g * (ref[top.shuntX[i] as number] as number);
+    if (ref)
+      for (let i = 0; i < top.shuntRow.length; i++)
+        b[top.shuntRow[i] as number] = (b[top.shuntRow[i] as number] as number) + g * (ref[top.shuntX[i] as number] as number);
   }
   return stampJunctions(top, w, first);
 }
@@ -136,11 +138,11 @@ function residual(a: Float64Array, x: Float64Array, b: Float64Array, posRow: Int
       t = SPLIT * xv;
       const xh = t - (t - xv);
       const xl = xv - xh;
-      const perr = al * xl - (((prod - ah * xh) - al * xh) - ah * xl);
+      const perr = al * xl - (prod - ah * xh - al * xh - ah * xl);
       // TwoSum: s + (−prod) = z + serr exactly
       const z = s - prod;
       const bb = z - s;
-      const serr = (s - (z - bb)) + (-prod - bb);
+      const serr = s - (z - bb) + (-prod - bb);
       s = z;
       c += serr - perr;
     }

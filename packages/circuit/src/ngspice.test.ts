@@ -12,7 +12,9 @@ import { flatten, parseNetlist, solveOp } from './index';
 
 const dir = join(dirname(fileURLToPath(import.meta.url)), '..', 'ngspice');
 const expected = JSON.parse(readFileSync(join(dir, 'expected.json'), 'utf8')) as { decks: Record<string, SpiceOp> };
-const decks = readdirSync(join(dir, 'decks')).filter((f) => f.endsWith('.cir')).sort();
+const decks = readdirSync(join(dir, 'decks'))
+  .filter((f) => f.endsWith('.cir'))
+  .sort();
 
 function compare(ours: ReturnType<typeof solveOp>, ref: SpiceOp) {
   expect(ours.converged, ours.message).toBe(true);

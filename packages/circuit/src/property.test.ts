@@ -20,8 +20,13 @@ const netArb: fc.Arbitrary<Net> = fc
       nodes: fc.constant(nodes),
       // a spanning tree keeps every node connected to the reference (node 0)
       tree: fc.tuple(...Array.from({ length: nodes - 1 }, (_, i) => fc.tuple(fc.integer({ min: 0, max: i }), fc.double({ min: 1, max: 1e4, noNaN: true })))),
-      extra: fc.array(fc.tuple(fc.integer({ min: 0, max: nodes - 1 }), fc.integer({ min: 0, max: nodes - 1 }), fc.double({ min: 1, max: 1e4, noNaN: true })), { maxLength: 20 }),
-      injections: fc.array(fc.record({ node: fc.integer({ min: 1, max: nodes - 1 }), amps: fc.double({ min: -1, max: 1, noNaN: true }) }), { minLength: 1, maxLength: 5 }),
+      extra: fc.array(fc.tuple(fc.integer({ min: 0, max: nodes - 1 }), fc.integer({ min: 0, max: nodes - 1 }), fc.double({ min: 1, max: 1e4, noNaN: true })), {
+        maxLength: 20,
+      }),
+      injections: fc.array(fc.record({ node: fc.integer({ min: 1, max: nodes - 1 }), amps: fc.double({ min: -1, max: 1, noNaN: true }) }), {
+        minLength: 1,
+        maxLength: 5,
+      }),
     }),
   )
   .map(({ nodes, tree, extra, injections }) => ({

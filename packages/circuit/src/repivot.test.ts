@@ -8,7 +8,7 @@ import { clearTopologyCache, topologyOf } from './structure-cache';
 /** Random sparse systems with weak diagonals, so dense pivoting swaps rows. */
 function system(n: number, seed: number) {
   let s = seed + 1;
-  const rand = () => ((s = (s * 16807) % 2147483647) / 2147483647);
+  const rand = () => (s = (s * 16807) % 2147483647) / 2147483647;
   const nz = new Uint8Array(n * n);
   const dense = new Float64Array(n * n);
   for (let i = 0; i < n; i++) {

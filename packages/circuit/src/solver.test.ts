@@ -41,7 +41,9 @@ describe('linear MNA', () => {
   });
 
   it('E, F, G, H sources (SPICE3 user manual §3.2.3–3.2.6 definitions; hand calculation)', () => {
-    const r = op('t\nV1 a 0 2\nR1 a 0 1k\nVS a s 0\nRS s 0 2k\nE1 e 0 a 0 3\nRE e 0 10k\nG1 0 g a 0 1m\nRG g 0 1k\nF1 0 f VS 4\nRF f 0 500\nH1 h 0 VS 2k\nRH h 0 1k\n');
+    const r = op(
+      't\nV1 a 0 2\nR1 a 0 1k\nVS a s 0\nRS s 0 2k\nE1 e 0 a 0 3\nRE e 0 10k\nG1 0 g a 0 1m\nRG g 0 1k\nF1 0 f VS 4\nRF f 0 500\nH1 h 0 VS 2k\nRH h 0 1k\n',
+    );
     expect(r.nodes.e).toBeCloseTo(6, 12); // 3 × 2 V
     expect(r.nodes.g).toBeCloseTo(2, 12); // 1 mS × 2 V into 1 kΩ
     expect(r.nodes.f).toBeCloseTo(2, 12); // 4 × 1 mA into 500 Ω
@@ -104,7 +106,9 @@ describe('nonlinear devices', () => {
   });
 
   it('warm start from a previous solution converges in fewer iterations to the same point', () => {
-    const c = flatten(parseNetlist('t\nV1 in 0 12\nR1 in a 4.7k\nD1 a b dm\nD2 b 0 dm\nQ1 in a e qn\nRE e 0 1k\n.model dm D(IS=4e-9 N=1.9)\n.model qn NPN(IS=1e-14 BF=200)\n'));
+    const c = flatten(
+      parseNetlist('t\nV1 in 0 12\nR1 in a 4.7k\nD1 a b dm\nD2 b 0 dm\nQ1 in a e qn\nRE e 0 1k\n.model dm D(IS=4e-9 N=1.9)\n.model qn NPN(IS=1e-14 BF=200)\n'),
+    );
     const cold = solveOp(c);
     const warm = solveOp(c, { initialGuess: cold.x });
     expect(warm.converged).toBe(true);

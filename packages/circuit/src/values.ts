@@ -38,11 +38,8 @@ export function parseSpiceNumber(token: string): number | undefined {
  * can evaluate it. Identifiers such as "r1k" are left alone.
  */
 export function rewriteSuffixedNumbers(expr: string): string {
-  return expr.replace(
-    /(?<![A-Za-z_\d.])((?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)(meg|mil|[fpnumkgtµ])[a-zA-Z]*(?![\w])/gi,
-    (_all, num: string, suf: string) => {
-      const v = parseSpiceNumber(num + suf);
-      return v === undefined ? _all : `(${String(v)})`;
-    },
-  );
+  return expr.replace(/(?<![A-Za-z_\d.])((?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)(meg|mil|[fpnumkgtµ])[a-zA-Z]*(?![\w])/gi, (_all, num: string, suf: string) => {
+    const v = parseSpiceNumber(num + suf);
+    return v === undefined ? _all : `(${String(v)})`;
+  });
 }

@@ -107,7 +107,14 @@ export const benchMeterNextQuery = z.object({
   /** The meter's *IDN? answer, so the bench can say which meter is connected. */
   instrument: z.string().trim().max(200).optional(),
 });
-export const benchMeterJobSchema = z.object({ id: idSchema, mode: benchMeterModeSchema, configure: z.string(), triggerSource: z.string(), trigger: benchMeterTriggerSchema, label: z.string() });
+export const benchMeterJobSchema = z.object({
+  id: idSchema,
+  mode: benchMeterModeSchema,
+  configure: z.string(),
+  triggerSource: z.string(),
+  trigger: benchMeterTriggerSchema,
+  label: z.string(),
+});
 export type BenchMeterJob = z.infer<typeof benchMeterJobSchema>;
 export const benchMeterNextResponse = z.object({ request: benchMeterJobSchema.nullable() });
 

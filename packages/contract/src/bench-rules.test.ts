@@ -30,11 +30,22 @@ describe('the discharge gate', () => {
     expect(needsDischargeGate(model, { power: 'on', red: 'TP1', black: '0' })).toBe(false);
     expect(needsDischargeGate(null, { power: 'off', red: 'TP3', black: '0' })).toBe(true);
     expect(dischargeGateRefusal(model, { power: 'off', red: 'TP1', black: '0' }, SELV)).toMatch(/confirm the board is unplugged/);
-    expect(dischargeGateRefusal(model, { power: 'off', red: 'TP1', black: '0', safetyCheck: { unplugged: true, busVolts: -120 } }, SELV)).toMatch(/Probes reversed/);
+    expect(dischargeGateRefusal(model, { power: 'off', red: 'TP1', black: '0', safetyCheck: { unplugged: true, busVolts: -120 } }, SELV)).toMatch(
+      /Probes reversed/,
+    );
     expect(dischargeGateRefusal(model, { power: 'off', red: 'TP1', black: '0', safetyCheck: { unplugged: true, busVolts: 3.1 } }, SELV)).toBeNull();
   });
   it('lets a reversed reading through the schema so the gate can answer it in words', () => {
-    const r = createReadingRequest.safeParse({ idempotencyKey: 'k-12345678', mode: 'ohm', red: 'TP1', black: '0', power: 'off', value: 1, raw: '1', safetyCheck: { unplugged: true, busVolts: -120 } });
+    const r = createReadingRequest.safeParse({
+      idempotencyKey: 'k-12345678',
+      mode: 'ohm',
+      red: 'TP1',
+      black: '0',
+      power: 'off',
+      value: 1,
+      raw: '1',
+      safetyCheck: { unplugged: true, busVolts: -120 },
+    });
     expect(r.success).toBe(true);
   });
 });
@@ -90,7 +101,13 @@ describe('validation messages for people', () => {
 describe('the verification checklist', () => {
   const row = (id: string, red: string, mode: 'dcv' | 'ohm', power: 'on' | 'off', lifted: string[] = []) =>
     ({ id, red, black: '0', mode, power, lifted, expected: 1, low: 0.9, high: 1.1, unit: mode === 'dcv' ? 'V' : 'ohm' }) as ExpectedReadingRow;
-  const table = [row('a', 'TP5', 'dcv', 'on'), row('b', 'TP5', 'ohm', 'off'), row('c', 'TP5', 'ohm', 'off', ['C10']), row('d', 'TP1', 'dcv', 'on'), row('e', 'TP11', 'dcv', 'on')];
+  const table = [
+    row('a', 'TP5', 'dcv', 'on'),
+    row('b', 'TP5', 'ohm', 'off'),
+    row('c', 'TP5', 'ohm', 'off', ['C10']),
+    row('d', 'TP1', 'dcv', 'on'),
+    row('e', 'TP11', 'dcv', 'on'),
+  ];
   it('takes the repaired section’s points and the rails with a sourced band, and a functional check', () => {
     const c = verificationChecklist(OUTDOOR_FAN_BOARD, table, 'C10');
     expect(c.rows.map((r) => r.id)).toEqual(['a', 'b', 'd']);

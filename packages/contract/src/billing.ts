@@ -89,7 +89,9 @@ export function parseTaxRate(percent: string): number {
 /** 8875 → "8.875", 8000 → "8". */
 export function formatTaxRate(milliPercent: number): string {
   const whole = Math.trunc(milliPercent / 1000);
-  const frac = String(milliPercent % 1000).padStart(3, '0').replace(/0+$/, '');
+  const frac = String(milliPercent % 1000)
+    .padStart(3, '0')
+    .replace(/0+$/, '');
   return frac ? `${whole}.${frac}` : String(whole);
 }
 
@@ -103,7 +105,9 @@ export function parseQuantity(text: string): number {
 /** 150 → "1.5", 200 → "2". */
 export function formatQuantity(hundredths: number): string {
   const whole = Math.trunc(hundredths / 100);
-  const frac = String(hundredths % 100).padStart(2, '0').replace(/0+$/, '');
+  const frac = String(hundredths % 100)
+    .padStart(2, '0')
+    .replace(/0+$/, '');
   return frac ? `${whole}.${frac}` : String(whole);
 }
 

@@ -10,7 +10,11 @@ import { hasRole, ROLES } from './policy';
  * engine compute the expected values of every point on a modelled net; publishing it makes a board-model version.
  * Coordinates are photo pixels, origin top left.
  */
-const netName = z.string().trim().regex(/^[A-Za-z0-9_.+-]+$/, 'a net name is letters, digits and _ . + -').max(64);
+const netName = z
+  .string()
+  .trim()
+  .regex(/^[A-Za-z0-9_.+-]+$/, 'a net name is letters, digits and _ . + -')
+  .max(64);
 const coord = z.number().finite().min(0).max(100_000);
 
 export const captureRegionSchema = z.object({ x: coord, y: coord, w: z.number().positive().max(100_000), h: z.number().positive().max(100_000) });
@@ -26,11 +30,19 @@ export const capturePointSchema = z.object({
 export type CapturePoint = z.infer<typeof capturePointSchema>;
 
 export const captureConnectorSchema = z.object({
-  name: z.string().trim().regex(/^[A-Z]{1,4}\d{0,4}$/, 'a connector name as printed, e.g. CN3').max(16),
+  name: z
+    .string()
+    .trim()
+    .regex(/^[A-Z]{1,4}\d{0,4}$/, 'a connector name as printed, e.g. CN3')
+    .max(16),
   title: z.string().trim().max(200).optional(),
   x: coord,
   y: coord,
-  pins: z.array(z.object({ pin: z.string().trim().min(1).max(16), net: z.union([netName, z.literal('')]).default(''), function: z.string().trim().max(200).default('') })).max(64),
+  pins: z
+    .array(
+      z.object({ pin: z.string().trim().min(1).max(16), net: z.union([netName, z.literal('')]).default(''), function: z.string().trim().max(200).default('') }),
+    )
+    .max(64),
 });
 export type CaptureConnector = z.infer<typeof captureConnectorSchema>;
 
@@ -39,7 +51,10 @@ export const captureTemplates = ['dc-bus', 'regulator-15v', 'regulator-5v', 'fan
 export const captureTemplateSchema = z.enum(captureTemplates);
 
 export const captureSectionSchema = z.object({
-  id: z.string().trim().regex(/^[a-z][a-z0-9-]{0,31}$/, 'a section id is lower-case letters, digits and -'),
+  id: z
+    .string()
+    .trim()
+    .regex(/^[a-z][a-z0-9-]{0,31}$/, 'a section id is lower-case letters, digits and -'),
   template: captureTemplateSchema,
   title: z.string().trim().max(200).optional(),
   /** Designator base: 100 → R101, C101 … */
@@ -68,15 +83,17 @@ export type BoardCaptureInput = z.input<typeof boardCaptureSchema>;
 export const capturePointResultSchema = z.object({
   id: z.string(),
   /** Expected rows of this point (powered DC V, unpowered Ω / diode / continuity), from the engine. */
-  expected: z.array(z.object({
-    mode: z.enum(['dcv', 'ohm', 'diode', 'continuity']),
-    power: z.enum(['on', 'off']),
-    expected: z.union([z.number(), z.literal('OL'), z.boolean()]),
-    low: z.number().nullable(),
-    high: z.number().nullable(),
-    unit: z.enum(['V', 'ohm']),
-    source: z.string().optional(),
-  })),
+  expected: z.array(
+    z.object({
+      mode: z.enum(['dcv', 'ohm', 'diode', 'continuity']),
+      power: z.enum(['on', 'off']),
+      expected: z.union([z.number(), z.literal('OL'), z.boolean()]),
+      low: z.number().nullable(),
+      high: z.number().nullable(),
+      unit: z.enum(['V', 'ohm']),
+      source: z.string().optional(),
+    }),
+  ),
   /** Why there is no expected value: no net named, or a net no section models. */
   unmodelled: z.string().optional(),
 });

@@ -15,8 +15,21 @@ export const boardMeterModeSchema = z.enum(['dcv', 'ohm', 'diode', 'continuity']
 export type BoardMeterMode = z.infer<typeof boardMeterModeSchema>;
 
 export const boardPartKinds = [
-  'resistor', 'ceramic-capacitor', 'electrolytic-capacitor', 'film-capacitor', 'diode', 'led', 'zener', 'bjt',
-  'opto-coupler', 'regulator', 'connector', 'fuse', 'thermistor', 'ic', 'other',
+  'resistor',
+  'ceramic-capacitor',
+  'electrolytic-capacitor',
+  'film-capacitor',
+  'diode',
+  'led',
+  'zener',
+  'bjt',
+  'opto-coupler',
+  'regulator',
+  'connector',
+  'fuse',
+  'thermistor',
+  'ic',
+  'other',
 ] as const;
 export const boardPartKindSchema = z.enum(boardPartKinds);
 export type BoardPartKind = z.infer<typeof boardPartKindSchema>;
@@ -131,7 +144,10 @@ export const boardMotorSchema = z.object({
 export const boardModelSchema = z.object({
   schemaVersion: z.literal(BOARD_MODEL_SCHEMA_VERSION),
   id: z.string().min(1).max(64),
-  slug: z.string().regex(/^[a-z0-9][a-z0-9-]*$/).max(64),
+  slug: z
+    .string()
+    .regex(/^[a-z0-9][a-z0-9-]*$/)
+    .max(64),
   name: z.string().min(1).max(200),
   family: z.string().max(200),
   maker: z.string().max(200),

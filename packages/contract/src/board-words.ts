@@ -59,7 +59,12 @@ export function modeWords(mode: string, kind?: string): string {
   if (i < 0) return MODE_WORDS[mode] ?? mode.replace(/-/g, ' ');
   const inner = innerWord(mode.slice(0, i), kind);
   const rest = mode.slice(i + 1);
-  if (inner === 'current transfer') return rest === 'open' ? 'no output (current transfer lost)' : rest === 'drift' ? 'weak (current transfer low)' : `current transfer ${MODE_WORDS[rest] ?? rest}`;
+  if (inner === 'current transfer')
+    return rest === 'open'
+      ? 'no output (current transfer lost)'
+      : rest === 'drift'
+        ? 'weak (current transfer low)'
+        : `current transfer ${MODE_WORDS[rest] ?? rest}`;
   return `${inner} ${MODE_WORDS[rest] ?? rest.replace(/-/g, ' ')}`;
 }
 
@@ -119,7 +124,9 @@ export function boardWords(model: WordsModel | null): BoardWords {
   const pinByNet = new Map<string, string>();
   for (const c of model?.connectors ?? []) for (const p of c.pins) if (!pinByNet.has(lower(p.net))) pinByNet.set(lower(p.net), `${c.name} pin ${p.pin}`);
   const partPinByNet = new Map<string, string>();
-  for (const p of parts) for (const pin of p.pins) if (!partPinByNet.has(lower(pin.net))) partPinByNet.set(lower(pin.net), `${designator(p.designator)} ${pinWord(p.kind, pin.pin)}`);
+  for (const p of parts)
+    for (const pin of p.pins)
+      if (!partPinByNet.has(lower(pin.net))) partPinByNet.set(lower(pin.net), `${designator(p.designator)} ${pinWord(p.kind, pin.pin)}`);
   // A net's label only when someone wrote one: a label that repeats the net name is the net name.
   const netLabels = new Map((model?.nets ?? []).filter((n) => n.label.trim() && lower(n.label) !== lower(n.name)).map((n) => [lower(n.name), n.label]));
 
@@ -156,7 +163,8 @@ export function boardWords(model: WordsModel | null): BoardWords {
   };
 }
 
-const arr = (x: unknown): Record<string, unknown>[] => (Array.isArray(x) ? x.filter((v): v is Record<string, unknown> => typeof v === 'object' && v !== null) : []);
+const arr = (x: unknown): Record<string, unknown>[] =>
+  Array.isArray(x) ? x.filter((v): v is Record<string, unknown> => typeof v === 'object' && v !== null) : [];
 const text = (x: unknown) => (typeof x === 'string' ? x : '');
 
 /**
@@ -174,8 +182,17 @@ export function wordsModelOf(document: unknown): WordsModel | null {
       kind: text(p.kind) as BoardModel['parts'][number]['kind'],
       pins: arr(p.pins).map((x) => ({ pin: text(x.pin), net: text(x.net) })),
     })) as BoardModel['parts'],
-    testPoints: arr(d.testPoints).map((t) => ({ ...(t as object), id: text(t.id) || text(t.net), label: text(t.label), net: text(t.net) })) as BoardModel['testPoints'],
-    connectors: arr(d.connectors).map((c) => ({ ...(c as object), name: text(c.name), pins: arr(c.pins).map((x) => ({ pin: text(x.pin), net: text(x.net), function: text(x.function) })) })) as BoardModel['connectors'],
+    testPoints: arr(d.testPoints).map((t) => ({
+      ...(t as object),
+      id: text(t.id) || text(t.net),
+      label: text(t.label),
+      net: text(t.net),
+    })) as BoardModel['testPoints'],
+    connectors: arr(d.connectors).map((c) => ({
+      ...(c as object),
+      name: text(c.name),
+      pins: arr(c.pins).map((x) => ({ pin: text(x.pin), net: text(x.net), function: text(x.function) })),
+    })) as BoardModel['connectors'],
     nets: arr(d.nets).map((n) => ({ ...(n as object), name: text(n.name), label: text(n.label) })) as BoardModel['nets'],
   };
 }

@@ -102,7 +102,10 @@ export const faultCodeListQuery = z.object({ boardId: idSchema.optional() });
 export const faultCodeListResponse = z.object({ items: z.array(faultCodeSchema) });
 export type FaultCodeList = z.infer<typeof faultCodeListResponse>;
 
-const faultCodeWeights = z.record(z.string().trim().min(1).max(50), z.number({ error: 'Weight must be a number' }).min(1, { error: 'A weight is at least 1 (1 = no steer)' }).max(50, { error: 'A weight is at most 50' }));
+const faultCodeWeights = z.record(
+  z.string().trim().min(1).max(50),
+  z.number({ error: 'Weight must be a number' }).min(1, { error: 'A weight is at least 1 (1 = no steer)' }).max(50, { error: 'A weight is at most 50' }),
+);
 
 export const createFaultCodeRequest = z.object({
   boardId: idSchema.nullable().optional(),

@@ -77,7 +77,16 @@ export const priorReasonSchema = z.object({
   label: z.string(),
   before: z.number(),
   after: z.number(),
-  steps: z.array(z.object({ source: priorSourceSchema, note: z.string().optional(), factor: z.number().optional(), prior: z.number().optional(), before: z.number(), after: z.number() })),
+  steps: z.array(
+    z.object({
+      source: priorSourceSchema,
+      note: z.string().optional(),
+      factor: z.number().optional(),
+      prior: z.number().optional(),
+      before: z.number(),
+      after: z.number(),
+    }),
+  ),
 });
 export type PriorReason = z.infer<typeof priorReasonSchema>;
 

@@ -26,13 +26,21 @@ export const meterProfileInput = z.object({
   power: powerStateSchema.default('on'),
 });
 export type MeterProfileInput = z.input<typeof meterProfileInput>;
-export const meterProfileSchema = meterProfileInput.extend({ id: idSchema, defaultMode: meterModeSchema, defaultReference: z.string(), power: powerStateSchema });
+export const meterProfileSchema = meterProfileInput.extend({
+  id: idSchema,
+  defaultMode: meterModeSchema,
+  defaultReference: z.string(),
+  power: powerStateSchema,
+});
 export type MeterProfile = z.infer<typeof meterProfileSchema>;
 export const meterProfileListResponse = z.object({ items: z.array(meterProfileSchema) });
 
 /** A meter function as logged ("DCV", "VOLT:DC", "OHM", "RES", "DIODE", "CONT") → the bench's meter function. */
 export function meterFunctionOf(text: string): MeterModeName | null {
-  const t = text.trim().toLowerCase().replace(/[\s_:-]+/g, '');
+  const t = text
+    .trim()
+    .toLowerCase()
+    .replace(/[\s_:-]+/g, '');
   if (['dcv', 'vdc', 'voltdc', 'dcvolts', 'voltage', 'v'].includes(t)) return 'dcv';
   if (['ohm', 'ohms', 'ω', 'res', 'resistance', 'fres'].includes(t)) return 'ohm';
   if (['diode', 'diod', 'dio'].includes(t)) return 'diode';

@@ -52,7 +52,7 @@ describe('job status transitions', () => {
 
   it('every status is reachable from received and every non-final status has a way on', () => {
     const reached = new Set<JobStatus>(['received']);
-    for (let grew = true; grew; ) {
+    for (let grew = true; grew;) {
       grew = false;
       for (const m of JOB_MOVES) if (reached.has(m.from) && !reached.has(m.to)) grew = !!reached.add(m.to);
     }

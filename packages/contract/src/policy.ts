@@ -153,4 +153,5 @@ export const mayUseBenchMeter = (role: Role | null | undefined): boolean => hasR
  * A request is served only by a bridge signed in as the person who asked for it, in their shop: the reading is
  * theirs, under their role's rules. Anyone else's bridge is told there is no such request.
  */
-export const mayServeBenchMeterArm = (actor: { id: string; shopId: string }, arm: { userId: string; shopId: string }): boolean => actor.id === arm.userId && actor.shopId === arm.shopId;
+export const mayServeBenchMeterArm = (actor: { id: string; shopId: string }, arm: { userId: string; shopId: string }): boolean =>
+  actor.id === arm.userId && actor.shopId === arm.shopId;

@@ -49,47 +49,50 @@ export function aloneRefusal(r: { alone?: string; mode: MeterModeName; power: Po
   const part = r.alone?.trim();
   if (!part) return null;
   if (r.mode === 'dcv' || r.power !== 'off') return `${part} on its own pins is measured unpowered with Ω, diode or continuity, not DC V`;
-  if (!r.lifted.some((p) => p.trim().toLowerCase() === part.toLowerCase())) return `Lift ${part} first: a part is measured on its own pins only when it is off the board`;
+  if (!r.lifted.some((p) => p.trim().toLowerCase() === part.toLowerCase()))
+    return `Lift ${part} first: a part is measured on its own pins only when it is off the board`;
   return null;
 }
 
-export const createReadingRequest = z.object({
-  /** Chosen by the client once per reading; a retried POST with the same key returns the stored reading. */
-  idempotencyKey: z.string().trim().min(8).max(100),
-  mode: meterModeSchema,
-  /** A net name or a test point id of the pinned board model. */
-  red: netName,
-  black: netName,
-  power: powerStateSchema,
-  /** Top-level part names lifted from the board for this reading. */
-  lifted: z.array(z.string().trim().min(1).max(50)).max(20).default([]),
-  /**
-   * A lifted part measured on its own pins ("C10 lifted, Ω across its pins"): red and black are two of its pins'
-   * nets, the board is unplugged, the part is one of `lifted`. The reading is evidence about that part alone.
-   */
-  alone: z.string().trim().min(1).max(50).optional(),
-  value: meterValueSchema,
-  /** Continuity: whether the meter beeped. */
-  beep: z.boolean().optional(),
-  /** What the technician typed ("4.7k", "0.61 V", "OL"). */
-  raw: z.string().trim().min(1).max(100),
-  instrument: optionalText(100),
-  phase: readingPhaseSchema.default('diagnosis'),
-  /** The id of a reading this one corrects; the corrected one stays in the history, marked superseded. */
-  supersedes: idSchema.optional(),
-  /** When it was read at the bench, if queued offline; defaults to the time the server stored it. */
-  takenAt: isoDateTimeInput.optional(),
-  /** The bus-discharge gate passed before an unpowered reading on a section that touches the bus. */
-  safetyCheck: safetyCheckSchema.optional(),
-}).superRefine((r, ctx) => {
-  if (r.alone !== undefined) {
-    const why = aloneRefusal(r);
-    if (why) ctx.addIssue({ code: 'custom', path: ['alone'], message: why });
-  }
-  if (r.value === 'OL') return;
-  const checked = valueForMode(r.mode).safeParse(r.value);
-  if (!checked.success) ctx.addIssue({ code: 'custom', path: ['value'], message: checked.error.issues[0]!.message });
-});
+export const createReadingRequest = z
+  .object({
+    /** Chosen by the client once per reading; a retried POST with the same key returns the stored reading. */
+    idempotencyKey: z.string().trim().min(8).max(100),
+    mode: meterModeSchema,
+    /** A net name or a test point id of the pinned board model. */
+    red: netName,
+    black: netName,
+    power: powerStateSchema,
+    /** Top-level part names lifted from the board for this reading. */
+    lifted: z.array(z.string().trim().min(1).max(50)).max(20).default([]),
+    /**
+     * A lifted part measured on its own pins ("C10 lifted, Ω across its pins"): red and black are two of its pins'
+     * nets, the board is unplugged, the part is one of `lifted`. The reading is evidence about that part alone.
+     */
+    alone: z.string().trim().min(1).max(50).optional(),
+    value: meterValueSchema,
+    /** Continuity: whether the meter beeped. */
+    beep: z.boolean().optional(),
+    /** What the technician typed ("4.7k", "0.61 V", "OL"). */
+    raw: z.string().trim().min(1).max(100),
+    instrument: optionalText(100),
+    phase: readingPhaseSchema.default('diagnosis'),
+    /** The id of a reading this one corrects; the corrected one stays in the history, marked superseded. */
+    supersedes: idSchema.optional(),
+    /** When it was read at the bench, if queued offline; defaults to the time the server stored it. */
+    takenAt: isoDateTimeInput.optional(),
+    /** The bus-discharge gate passed before an unpowered reading on a section that touches the bus. */
+    safetyCheck: safetyCheckSchema.optional(),
+  })
+  .superRefine((r, ctx) => {
+    if (r.alone !== undefined) {
+      const why = aloneRefusal(r);
+      if (why) ctx.addIssue({ code: 'custom', path: ['alone'], message: why });
+    }
+    if (r.value === 'OL') return;
+    const checked = valueForMode(r.mode).safeParse(r.value);
+    if (!checked.success) ctx.addIssue({ code: 'custom', path: ['value'], message: checked.error.issues[0]!.message });
+  });
 export type CreateReadingRequest = z.input<typeof createReadingRequest>;
 export type CreateReadingInput = z.output<typeof createReadingRequest>;
 

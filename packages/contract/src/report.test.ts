@@ -1,7 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { verificationReadings } from './report';
 
-const r = (id: string, phase: 'diagnosis' | 'verification', createdAt: string, supersededBy: string | null = null, struck: { reason: string } | null = null) => ({
+const r = (
+  id: string,
+  phase: 'diagnosis' | 'verification',
+  createdAt: string,
+  supersededBy: string | null = null,
+  struck: { reason: string } | null = null,
+) => ({
   id,
   phase,
   createdAt,

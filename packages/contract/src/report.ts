@@ -7,7 +7,21 @@ import { repairSchema } from './repairs';
 
 /** A reading as the report shows it: where the probes were, the meter function, what it read against the band. */
 export const reportReadingSchema = readingSchema
-  .pick({ id: true, red: true, black: true, mode: true, power: true, lifted: true, alone: true, beep: true, value: true, unit: true, raw: true, verdict: true, takenAt: true })
+  .pick({
+    id: true,
+    red: true,
+    black: true,
+    mode: true,
+    power: true,
+    lifted: true,
+    alone: true,
+    beep: true,
+    value: true,
+    unit: true,
+    raw: true,
+    verdict: true,
+    takenAt: true,
+  })
   .extend({
     /** Where the probes were, in the bench's words ("TP5 Fan control supply to bus negative"). */
     probes: z.string(),
@@ -37,7 +51,9 @@ export const repairReportSchema = z.object({
   finding: z.object({ part: z.string().nullable(), reviewedBy: z.string().nullable(), reviewedAt: isoDateTime.nullable() }),
   /** Current diagnosis readings outside their healthy band, and those taken with a part lifted to isolate it: what found the fault. */
   foundBy: z.array(reportReadingSchema),
-  repairs: z.array(repairSchema.pick({ id: true, part: true, action: true, replacementValue: true, marking: true, notes: true, authorName: true, createdAt: true })),
+  repairs: z.array(
+    repairSchema.pick({ id: true, part: true, action: true, replacementValue: true, marking: true, notes: true, authorName: true, createdAt: true }),
+  ),
   /** See `verificationReadings`. */
   verification: z.array(reportReadingSchema),
   /** Signed off: the report may go to the customer. */
@@ -51,7 +67,10 @@ export type RepairReport = z.infer<typeof repairReportSchema>;
  * redone). The sign-off check and the report both use it, so the customer never sees a reading the shop struck
  * out or corrected.
  */
-export function verificationReadings<R extends { phase: ReadingPhase; supersededBy: string | null; struck: unknown; createdAt: string }>(readings: readonly R[], lastRepairAt: string | null): R[] {
+export function verificationReadings<R extends { phase: ReadingPhase; supersededBy: string | null; struck: unknown; createdAt: string }>(
+  readings: readonly R[],
+  lastRepairAt: string | null,
+): R[] {
   if (!lastRepairAt) return [];
   const after = Date.parse(lastRepairAt);
   return readings.filter((r) => r.phase === 'verification' && r.supersededBy === null && r.struck == null && Date.parse(r.createdAt) > after);

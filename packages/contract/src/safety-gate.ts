@@ -51,7 +51,8 @@ const volts = (v: number) => `${Number(v.toPrecision(4))} V`.replace('-', '\u221
  * value it does not understand.
  */
 export function judgeBusVolts(busVolts: unknown, thresholdVolts: number): BusJudgement {
-  if (typeof busVolts !== 'number' || !Number.isFinite(busVolts)) return { ok: false, message: 'Enter the bus voltage in volts as the meter shows it (e.g. 3.2), measured across the bulk capacitor.' };
+  if (typeof busVolts !== 'number' || !Number.isFinite(busVolts))
+    return { ok: false, message: 'Enter the bus voltage in volts as the meter shows it (e.g. 3.2), measured across the bulk capacitor.' };
   const magnitude = Math.abs(busVolts);
   if (magnitude < thresholdVolts) return { ok: true, magnitude };
   if (busVolts < 0)

@@ -16,7 +16,11 @@ export const updateServiceTermsRequest = z
   .object({
     warrantyDays: z.number().int().min(0).max(3650),
     labourRateCents: z.number().int().min(0).max(1_000_000),
-    repairMinutes: z.number().int().min(1).max(24 * 60),
+    repairMinutes: z
+      .number()
+      .int()
+      .min(1)
+      .max(24 * 60),
   })
   .partial();
 export type UpdateServiceTermsRequest = z.input<typeof updateServiceTermsRequest>;
@@ -136,7 +140,8 @@ export function binPartFits(part: FitSide & { designator: string }, bin: FitSide
   if (!samePackage(part.package, bin.package)) return { ok: false, reason: `${part.designator} is ${part.package}; this drawer holds ${bin.package}` };
   if (part.nominal !== null) {
     if (bin.nominal === null) return { ok: false, reason: `${part.designator} is ${part.value}; "${bin.value}" is not a value` };
-    if (Math.abs(part.nominal - bin.nominal) > Math.abs(part.nominal) * 1e-6) return { ok: false, reason: `${part.designator} is ${part.value}; this drawer holds ${bin.value}` };
+    if (Math.abs(part.nominal - bin.nominal) > Math.abs(part.nominal) * 1e-6)
+      return { ok: false, reason: `${part.designator} is ${part.value}; this drawer holds ${bin.value}` };
     return { ok: true };
   }
   const norm = (s: string) => s.toLowerCase().replace(/\s+/g, '');

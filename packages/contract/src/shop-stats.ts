@@ -9,7 +9,9 @@ export const shopStatsResponse = z.object({
   /** Signed-off jobs whose board did not come back within the warranty days, of all signed-off jobs with a serial. */
   firstTimeFix: z.object({ fixed: z.number().int(), total: z.number().int(), warrantyDays: z.number().int() }),
   /** Jobs that were warranty returns of an earlier job. */
-  repeatReturns: z.array(z.object({ jobNumber: z.number().int(), earlierJobNumber: z.number().int(), serial: z.string(), boardName: z.string(), daysSince: z.number().int() })),
+  repeatReturns: z.array(
+    z.object({ jobNumber: z.number().int(), earlierJobNumber: z.number().int(), serial: z.string(), boardName: z.string(), daysSince: z.number().int() }),
+  ),
   /** Money per month (integer cents, the shop's currency): quoted (sent or answered quotes), invoiced (not void), paid. */
   money: z.array(z.object({ month: z.string(), quotedCents: z.number().int(), invoicedCents: z.number().int(), paidCents: z.number().int() })),
   currency: z.string(),

@@ -74,7 +74,10 @@ export type ShopCard = z.infer<typeof shopCardSchema>;
 /** The card's contact lines in reading order: the address (one line per line typed), phone, e-mail, tax number. */
 export function shopCardLines(s: ShopCard): string[] {
   return [
-    ...(s.address ?? '').split(/\r?\n/).map((l) => l.trim()).filter(Boolean),
+    ...(s.address ?? '')
+      .split(/\r?\n/)
+      .map((l) => l.trim())
+      .filter(Boolean),
     ...(s.phone ? [`Phone ${s.phone}`] : []),
     ...(s.email ? [s.email] : []),
     ...(s.taxNumber ? [`Tax number ${s.taxNumber}`] : []),
@@ -86,7 +89,12 @@ export const updateShopRequest = shopDetailsFields
   .partial()
   .extend({
     logoUploadId: idSchema.nullable().optional(),
-    sessionIdleHours: z.number().int().min(1).max(24 * 7).optional(),
+    sessionIdleHours: z
+      .number()
+      .int()
+      .min(1)
+      .max(24 * 7)
+      .optional(),
     sessionMaxDays: z.number().int().min(1).max(90).optional(),
     meterProfile: meterProfileIdSchema.nullable().optional(),
   })

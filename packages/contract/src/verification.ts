@@ -24,7 +24,8 @@ const lower = (s: string) => s.trim().toLowerCase();
  */
 export function verificationChecklist(model: ChecklistModel | null, table: readonly ExpectedReadingRow[], part: string | null): VerificationChecklist {
   // Proposed by designator as printed ("U1") or by netlist element ("XU1"): either finds the part.
-  const named = (x: ChecklistModel['parts'][number]) => [x.designator, x.element ?? '', boardWords({ parts: [x], testPoints: [], connectors: [], nets: [] }).designator(x.designator)].map(lower);
+  const named = (x: ChecklistModel['parts'][number]) =>
+    [x.designator, x.element ?? '', boardWords({ parts: [x], testPoints: [], connectors: [], nets: [] }).designator(x.designator)].map(lower);
   const p = part ? model?.parts.find((x) => named(x).includes(lower(part))) : undefined;
   const points = model?.testPoints ?? [];
   const inSection = new Set(points.filter((t) => p && t.section === p.section).map((t) => lower(t.id)));
@@ -60,12 +61,23 @@ interface VerificationReading {
  * repair, newest last). A row is proven by its newest matching reading being healthy. `netOf` resolves a row's
  * test point id to its net.
  */
-export function unprovenRows<R extends VerificationReading>(rows: readonly ExpectedReadingRow[], readings: readonly R[], netOf: (p: string) => string): { row: ExpectedReadingRow; latest: R | undefined }[] {
+export function unprovenRows<R extends VerificationReading>(
+  rows: readonly ExpectedReadingRow[],
+  readings: readonly R[],
+  netOf: (p: string) => string,
+): { row: ExpectedReadingRow; latest: R | undefined }[] {
   return rows
     .map((row) => {
-      const latest = [...readings].reverse().find(
-        (r) => r.mode === row.mode && r.power === row.power && r.lifted.length === 0 && lower(r.redNet) === lower(netOf(row.red)) && lower(r.blackNet) === lower(netOf(row.black)),
-      );
+      const latest = [...readings]
+        .reverse()
+        .find(
+          (r) =>
+            r.mode === row.mode &&
+            r.power === row.power &&
+            r.lifted.length === 0 &&
+            lower(r.redNet) === lower(netOf(row.red)) &&
+            lower(r.blackNet) === lower(netOf(row.black)),
+        );
       return { row, latest };
     })
     .filter((x) => x.latest?.verdict?.verdict !== 'ok');

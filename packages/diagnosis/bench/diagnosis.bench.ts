@@ -44,5 +44,9 @@ const modes = d.model.components.reduce((a, c) => a + c.modes.length, 0);
 const points = d.model.components.reduce((a, c) => a + c.modes.reduce((b, m) => b + (m.points?.length ?? 1), 0), 0);
 console.log(`board: ${parts} parts, ${d.model.components.length} that can fail, ${modes} fault modes, ${points} sweep points`);
 console.log(`cold update (parse + build ${tBuild.toFixed(0)} ms, ${coldSolves} meter solves): ${cold.toFixed(0)} ms`);
-console.log(`  top candidate ${first.candidates[0]?.faults.map((f) => `${f.part}:${f.mode}`).join('+')} p=${first.candidates[0]?.probability.toFixed(3)}; next: ${first.nextTests[0]?.instruction}`);
-console.log(`warm full update (${times.length} runs, ${d.cache.size} cached predictions): median ${q(0.5).toFixed(1)} ms, p95 ${q(0.95).toFixed(1)} ms (target ≤ 50 ms median)`);
+console.log(
+  `  top candidate ${first.candidates[0]?.faults.map((f) => `${f.part}:${f.mode}`).join('+')} p=${first.candidates[0]?.probability.toFixed(3)}; next: ${first.nextTests[0]?.instruction}`,
+);
+console.log(
+  `warm full update (${times.length} runs, ${d.cache.size} cached predictions): median ${q(0.5).toFixed(1)} ms, p95 ${q(0.95).toFixed(1)} ms (target ≤ 50 ms median)`,
+);

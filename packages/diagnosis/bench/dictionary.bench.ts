@@ -18,7 +18,9 @@ const builder = board();
 let parts = 0;
 const dict = buildDictionary(builder, { onProgress: (_done, total) => void (parts = total) });
 const build = performance.now() - t0;
-console.log(`dictionary build: ${parts} parts, ${dict.tests.length} tests × ${dict.faults.length} columns, ${builder.model.solves} meter solves, ${build.toFixed(0)} ms (load average ${load()})`);
+console.log(
+  `dictionary build: ${parts} parts, ${dict.tests.length} tests × ${dict.faults.length} columns, ${builder.model.solves} meter solves, ${build.toFixed(0)} ms (load average ${load()})`,
+);
 
 // A job's readings as a technician takes them: the rails powered, then unpowered checks of the fan supply.
 const sequence: CaseReading[] = [
@@ -45,4 +47,6 @@ for (let job = 0; job < 8; job++) {
   }
 }
 const q = (xs: number[], p: number) => [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(p * xs.length))]!;
-console.log(`update from the dictionary (${times.length} updates, 8 fresh jobs): median ${q(times, 0.5).toFixed(1)} ms, p95 ${q(times, 0.95).toFixed(1)} ms; first update of a job: median ${q(firsts, 0.5).toFixed(1)} ms, max ${Math.max(...firsts).toFixed(1)} ms (target ≤ 20 ms p95; load average ${load()})`);
+console.log(
+  `update from the dictionary (${times.length} updates, 8 fresh jobs): median ${q(times, 0.5).toFixed(1)} ms, p95 ${q(times, 0.95).toFixed(1)} ms; first update of a job: median ${q(firsts, 0.5).toFixed(1)} ms, max ${Math.max(...firsts).toFixed(1)} ms (target ≤ 20 ms p95; load average ${load()})`,
+);

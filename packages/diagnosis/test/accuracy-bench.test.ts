@@ -27,7 +27,10 @@ describe('accuracy bench: deck edits', () => {
     expect(off).not.toMatch(/^VPIN /m);
     expect(off).toMatch(/^R401 /m);
     // A shorted part lifted from the board takes its short with it.
-    const shorted = injectFaults(board.netlist({ FANON: 1 }), [{ part: 'C401', injection: { do: 'short', ohms: 0.2 } }, { part: 'Q401', injection: { do: 'ce-short', ohms: 1 } }]);
+    const shorted = injectFaults(board.netlist({ FANON: 1 }), [
+      { part: 'C401', injection: { do: 'short', ohms: 0.2 } },
+      { part: 'Q401', injection: { do: 'ce-short', ohms: 1 } },
+    ]);
     expect(shorted).toMatch(/^RFLT_C401 vf 0 0.2$/m);
     const lifted = boardState(shorted, { power: 'off', lifted: ['C401', 'Q401'] });
     expect(lifted).not.toMatch(/C401|Q401/);

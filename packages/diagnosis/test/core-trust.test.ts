@@ -15,7 +15,11 @@ const UNKNOWN = Number.NaN;
 const gaussLL = (v: number, p: number) => -0.5 * ((v - p) / 0.1) ** 2 - Math.log(0.1 * Math.sqrt(2 * Math.PI));
 
 /** A toy system: predictions from a table per fault set; NaN = the model could not compute it. */
-function toy(components: Component[], table: (faults: readonly SubFault[], test: string) => number, extra: Partial<SystemModel<string, number, number>> = {}): SystemModel<string, number, number> {
+function toy(
+  components: Component[],
+  table: (faults: readonly SubFault[], test: string) => number,
+  extra: Partial<SystemModel<string, number, number>> = {},
+): SystemModel<string, number, number> {
   return {
     components,
     predict: (faults, tests) => tests.map((t) => table(faults, t)),
@@ -82,20 +86,31 @@ describe('candidates from conflicts', () => {
   // Rail r1 and source s2. C (a rail capacitor) short kills r1 but the switch S limits the current, so s2 holds;
   // S alone (C–E short on a conducting switch) changes nothing; C and S together pull s2 down as well.
   const fillers = Array.from({ length: 10 }, (_, i) => comp(`X${i}`, 0.02));
-  const model = toy([...fillers, comp('C', 0.004), comp('S', 0.003)], (f, t) => {
-    const c = has(f, 'C');
-    const s = has(f, 'S');
-    if (t === 'r1') return c ? 0 : 15;
-    if (t === 's2') return c && s ? 3 : 15;
-    // Each filler moves its own test point only.
-    const i = Number(t.slice(1));
-    return has(f, `X${i}`) ? 9 : 1;
-  }, { suspects: (t) => (t === 'r1' ? ['C', 'S'] : t === 's2' ? ['S', 'X0'] : []) });
+  const model = toy(
+    [...fillers, comp('C', 0.004), comp('S', 0.003)],
+    (f, t) => {
+      const c = has(f, 'C');
+      const s = has(f, 'S');
+      if (t === 'r1') return c ? 0 : 15;
+      if (t === 's2') return c && s ? 3 : 15;
+      // Each filler moves its own test point only.
+      const i = Number(t.slice(1));
+      return has(f, `X${i}`) ? 9 : 1;
+    },
+    { suspects: (t) => (t === 'r1' ? ['C', 'S'] : t === 's2' ? ['S', 'X0'] : []) },
+  );
   const readings = [
     { test: 'r1', value: 0 },
     { test: 's2', value: 3 },
   ];
-  const pairOf = (post: ReturnType<typeof diagnose>) => post.candidates.find((c) => c.faults.map((f) => f.part).sort().join('+') === 'C+S');
+  const pairOf = (post: ReturnType<typeof diagnose>) =>
+    post.candidates.find(
+      (c) =>
+        c.faults
+          .map((f) => f.part)
+          .sort()
+          .join('+') === 'C+S',
+    );
 
   it('without conflicts the top-k rule never forms the masked pair (S is no strong single)', () => {
     const post = diagnose(model, readings, { pairTopK: 3, conflicts: false });

@@ -26,12 +26,18 @@ describe('fault dictionary and meter profiles', () => {
   const withDictionary = createDiagnoser({ netlist: NETLIST, testPoints: POINTS });
   attachDictionary(withDictionary, buildDictionary(withDictionary));
 
-  it.each([CC_AUTORANGE_6000, ANALOG_THEVENIN_20K])('a diagnosis with the $name profile equals a fresh solve for that meter, not the dictionary', (meter) => {
-    const fresh = createDiagnoser({ netlist: NETLIST, testPoints: POINTS }).update(READINGS, { meter });
-    const out = withDictionary.update(READINGS, { meter });
-    expect(out.readings.map((r) => r.expected)).toEqual(fresh.readings.map((r) => r.expected));
-    expect(out.candidates.slice(0, 5).map((c) => [c.faults, c.probability.toFixed(6)])).toEqual(fresh.candidates.slice(0, 5).map((c) => [c.faults, c.probability.toFixed(6)]));
-  }, 120_000);
+  it.each([CC_AUTORANGE_6000, ANALOG_THEVENIN_20K])(
+    'a diagnosis with the $name profile equals a fresh solve for that meter, not the dictionary',
+    (meter) => {
+      const fresh = createDiagnoser({ netlist: NETLIST, testPoints: POINTS }).update(READINGS, { meter });
+      const out = withDictionary.update(READINGS, { meter });
+      expect(out.readings.map((r) => r.expected)).toEqual(fresh.readings.map((r) => r.expected));
+      expect(out.candidates.slice(0, 5).map((c) => [c.faults, c.probability.toFixed(6)])).toEqual(
+        fresh.candidates.slice(0, 5).map((c) => [c.faults, c.probability.toFixed(6)]),
+      );
+    },
+    120_000,
+  );
 
   it('the board’s own meter reads the dictionary, and its junction Ω differs from the constant-current meter’s', () => {
     const own = withDictionary.update(READINGS).readings[0]!.expected as number;

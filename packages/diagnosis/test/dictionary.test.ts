@@ -7,7 +7,19 @@
  */
 import { describe, expect, it, vi } from 'vitest';
 import { measure } from '@splitscope/circuit';
-import { applyFaults, attachDictionary, buildDictionary, computePairs, addPairs, createDiagnoser, decodePrediction, encodePrediction, fromBytes, takeWantedPairs, toBytes } from '../src/index.js';
+import {
+  applyFaults,
+  attachDictionary,
+  buildDictionary,
+  computePairs,
+  addPairs,
+  createDiagnoser,
+  decodePrediction,
+  encodePrediction,
+  fromBytes,
+  takeWantedPairs,
+  toBytes,
+} from '../src/index.js';
 import { singleFaultsByPart } from '../src/electrical/dictionary.js';
 import { DEFAULT_METER } from '@splitscope/circuit';
 
@@ -61,7 +73,8 @@ describe('fault dictionary', () => {
           full = NaN;
         }
         const stored = dict.rows[r]![c]!;
-        if (Number.isFinite(full) && Number.isFinite(stored)) expect(close(stored, full), `${t.mode} ${t.red}-${t.black} ${t.lifted.join(',')} ${dict.faults[c]}: ${stored} vs ${full}`).toBe(true);
+        if (Number.isFinite(full) && Number.isFinite(stored))
+          expect(close(stored, full), `${t.mode} ${t.red}-${t.black} ${t.lifted.join(',')} ${dict.faults[c]}: ${stored} vs ${full}`).toBe(true);
         else expect(stored).toBe(full);
         compared++;
       });
@@ -72,7 +85,12 @@ describe('fault dictionary', () => {
   it('stores float64 values exactly (OL, no solve and mains included) and decodes continuity beeps from the threshold', () => {
     const xs = Float64Array.from([14.98, -0.6, Infinity, NaN, -Infinity, 0, 12.5]);
     expect(Array.from(fromBytes(toBytes(xs)))).toEqual(Array.from(xs));
-    for (const p of [{ value: 'OL' as const }, { value: 3.3 }, { value: 'unknown' as const, reason: 'ac-mains' as const }, { value: 'unknown' as const, reason: 'no-solve' as const }]) {
+    for (const p of [
+      { value: 'OL' as const },
+      { value: 3.3 },
+      { value: 'unknown' as const, reason: 'ac-mains' as const },
+      { value: 'unknown' as const, reason: 'no-solve' as const },
+    ]) {
       expect(decodePrediction(encodePrediction(p), 'dcv', DEFAULT_METER)).toEqual(p);
     }
     expect(decodePrediction(12, 'continuity', DEFAULT_METER)).toEqual({ value: 12, beep: true });
@@ -106,7 +124,8 @@ describe('fault dictionary', () => {
     const reference = board().update(readings);
     // Candidates tied in probability (C1 or C2 shorted) may list in either order: compared by name.
     const byText = new Map(second.candidates.map((c) => [c.words.text, c.probability]));
-    for (const c of reference.candidates.filter((x) => x.probability > 1e-4)) expect(Math.abs((byText.get(c.words.text) ?? 0) - c.probability), c.words.text).toBeLessThan(1e-3);
+    for (const c of reference.candidates.filter((x) => x.probability > 1e-4))
+      expect(Math.abs((byText.get(c.words.text) ?? 0) - c.probability), c.words.text).toBeLessThan(1e-3);
     expect(Math.abs(second.nextTests[0]!.expectedEntropy - reference.nextTests[0]!.expectedEntropy)).toBeLessThan(1e-3);
   }, 60_000);
 });

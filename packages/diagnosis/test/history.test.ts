@@ -5,7 +5,15 @@
  * C9 and C10 on readings that cannot tell them apart, and the output says why in the bench's words.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { createDiagnoser, HISTORY_WEIGHT, historyAdjustments, type CaseReading, type Diagnoser, type DiagnosisOutput, type ElectricalPart } from '../src/index.js';
+import {
+  createDiagnoser,
+  HISTORY_WEIGHT,
+  historyAdjustments,
+  type CaseReading,
+  type Diagnoser,
+  type DiagnosisOutput,
+  type ElectricalPart,
+} from '../src/index.js';
 import { FAN_DRIVE_NETLIST, FAN_DRIVE_TEST_POINTS } from '../fixtures/fan-drive.js';
 
 const part = (name: string, kind: ElectricalPart['kind'], modes: [string, number][]): ElectricalPart => ({
@@ -13,12 +21,23 @@ const part = (name: string, kind: ElectricalPart['kind'], modes: [string, number
   kind,
   elements: [name.toLowerCase()],
   nets: [],
-  modes: modes.map(([m, prior]) => ({ name: m, prior, action: 'open', source: 'override', sweep: [], weights: [] }) as unknown as ElectricalPart['modes'][number]),
+  modes: modes.map(
+    ([m, prior]) => ({ name: m, prior, action: 'open', source: 'override', sweep: [], weights: [] }) as unknown as ElectricalPart['modes'][number],
+  ),
 });
-const words = { board: (p: string, m: string, n: number, j: number) => `${p} ${m}: ${n} of ${j}`, kind: (p: string, m: string, k: string, n: number, j: number) => `${k} ${m}: ${n} of ${j}` };
+const words = {
+  board: (p: string, m: string, n: number, j: number) => `${p} ${m}: ${n} of ${j}`,
+  kind: (p: string, m: string, k: string, n: number, j: number) => `${k} ${m}: ${n} of ${j}`,
+};
 
 describe('history adjustments by hand', () => {
-  const parts = [part('C1', 'electrolytic-capacitor', [['short', 0.02], ['open', 0.02]]), part('R1', 'resistor', [['open', 0.01]])];
+  const parts = [
+    part('C1', 'electrolytic-capacitor', [
+      ['short', 0.02],
+      ['open', 0.02],
+    ]),
+    part('R1', 'resistor', [['open', 0.01]]),
+  ];
   const byName = (k: string) => (k === 'C1' || k === 'R1' ? k : undefined);
 
   it('posterior mean (α q + n) / (α + N) per mode, the total fault prior kept', () => {
@@ -37,7 +56,20 @@ describe('history adjustments by hand', () => {
   });
 
   it('a failure without a mode is spread over the part modes by their priors; unknown parts are skipped', () => {
-    const adj = historyAdjustments(parts, { board: { jobs: 2, failures: [{ key: 'C1', count: 2 }, { key: 'Q9', count: 1 }] } }, byName, words);
+    const adj = historyAdjustments(
+      parts,
+      {
+        board: {
+          jobs: 2,
+          failures: [
+            { key: 'C1', count: 2 },
+            { key: 'Q9', count: 1 },
+          ],
+        },
+      },
+      byName,
+      words,
+    );
     expect(adj.find((a) => a.mode === 'short')?.note).toBe('C1 short: 1 of 2');
     expect(adj.find((a) => a.mode === 'open' && a.part === 'C1')?.prior).toBeCloseTo(adj.find((a) => a.mode === 'short')?.prior as number, 12);
   });

@@ -30,7 +30,11 @@ describe('masked double fault: Q1 collector–emitter short + C10 short', () => 
     const out = fan.update(readings);
     expect(out.generated.pairs).toBeGreaterThan(0);
     const top3 = names(out, 3).sort();
-    expect(top3).toEqual(['C10 capacitor — shorted + Q1 transistor — collector–emitter short', 'C8 capacitor — shorted + Q1 transistor — collector–emitter short', 'C9 capacitor — shorted + Q1 transistor — collector–emitter short']);
+    expect(top3).toEqual([
+      'C10 capacitor — shorted + Q1 transistor — collector–emitter short',
+      'C8 capacitor — shorted + Q1 transistor — collector–emitter short',
+      'C9 capacitor — shorted + Q1 transistor — collector–emitter short',
+    ]);
     expect(out.candidates[0]!.probability).toBeLessThan(0.9);
     const q1 = out.parts.filter((p) => p.part === 'Q1' && p.mode === 'ce-short').reduce((a, p) => a + p.probability, 0);
     expect(q1).toBeGreaterThan(0.9);

@@ -61,14 +61,24 @@ describe('polybox (de Kleer & Williams 1987)', () => {
 
   it('the healthy system is inconsistent and the single faults M2, M3, A2 are ruled out', () => {
     const post = diagnose(polybox(0.01), readings);
-    const find = (names: string[]) => post.candidates.find((c) => c.faults.map((f) => f.part).sort().join() === names.sort().join());
+    const find = (names: string[]) =>
+      post.candidates.find(
+        (c) =>
+          c.faults
+            .map((f) => f.part)
+            .sort()
+            .join() === names.sort().join(),
+      );
     expect(find([])?.consistent).toBe(false);
     expect(find(['M2'])?.consistent).toBe(false);
     expect(find(['M3'])?.consistent).toBe(false);
     expect(find(['A2'])?.consistent).toBe(false);
     expect(find(['M1'])?.consistent).toBe(true);
     // M1 and A1 are the likeliest and equally likely.
-    const top = post.candidates.slice(0, 2).map((c) => c.faults[0]?.part).sort();
+    const top = post.candidates
+      .slice(0, 2)
+      .map((c) => c.faults[0]?.part)
+      .sort();
     expect(top).toEqual(['A1', 'M1']);
     expect(post.candidates[0]?.probability).toBeCloseTo(post.candidates[1]?.probability ?? 0, 9);
     // Under M1 the readings force X = 4.
@@ -89,12 +99,23 @@ describe('polybox (de Kleer & Williams 1987)', () => {
     const model = polybox(p);
     const post = diagnose(model, readings);
     const minimal = new Set(post.minimalDiagnoses.map((s) => [...s].sort().join()));
-    const kept = post.candidates.filter((c) => minimal.has(c.faults.map((f) => f.part).sort().join()));
+    const kept = post.candidates.filter((c) =>
+      minimal.has(
+        c.faults
+          .map((f) => f.part)
+          .sort()
+          .join(),
+      ),
+    );
     const weights = kept.map((c) => p ** c.faults.length * (1 - p) ** (5 - c.faults.length));
     const z = weights.reduce((a, b) => a + b, 0);
     const restricted: Posterior = { ...post, candidates: kept.map((c, i) => ({ ...c, probability: (weights[i] as number) / z })) };
     const cache = new PredictionCache(model);
-    const active = restricted.candidates.map((c) => ({ cand: c, p: c.probability, combos: c.combos.filter((k) => k.weight > 1e-6).map((k) => ({ faults: k.faults, w: k.weight })) }));
+    const active = restricted.candidates.map((c) => ({
+      cand: c,
+      p: c.probability,
+      combos: c.combos.filter((k) => k.weight > 1e-6).map((k) => ({ faults: k.faults, w: k.weight })),
+    }));
     const h = (t: Signal) => testEntropy(model, cache, active, t).outcomeEntropy;
     expect(h('X')).toBeCloseTo(1.0, 2);
     expect(h('Y')).toBeCloseTo(0.08, 2);

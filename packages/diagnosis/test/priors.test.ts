@@ -13,7 +13,13 @@ const has = (faults: readonly SubFault[], c: string) => faults.some((f) => f.com
 const components: Component[] = [
   { name: 'A', modes: [{ name: 'short', prior: 0.01 }] },
   { name: 'B', modes: [{ name: 'short', prior: 0.01 }] },
-  { name: 'C', modes: [{ name: 'open', prior: 0.02 }, { name: 'short', prior: 0.01 }] },
+  {
+    name: 'C',
+    modes: [
+      { name: 'open', prior: 0.02 },
+      { name: 'short', prior: 0.01 },
+    ],
+  },
 ];
 let predictions = 0;
 const model: SystemModel<string, number, number> = {

@@ -8,8 +8,17 @@ import { describe, expect, it } from 'vitest';
 import { createDiagnoser, oddsUpdate, REFERENCE_OK_FACTOR, type CaseReading } from '../src/index.js';
 
 // Mains-side fuse resistor RF into the bus; a divider on the bus.
-const NETLIST = ['* invented: mains into a bus through a fuse resistor', 'V1 ac 0 DC 310', 'RF ac bus 2.2', 'R1 bus mid 100k', 'R2 mid 0 10k', '.end'].join('\n');
-const board = { netlist: NETLIST, acMains: ['ac'], testPoints: [{ id: 'TP1', label: 'Mains in', net: 'ac', ref: '0' }, { id: 'TP2', label: 'Divider', net: 'mid', ref: '0' }] };
+const NETLIST = ['* invented: mains into a bus through a fuse resistor', 'V1 ac 0 DC 310', 'RF ac bus 2.2', 'R1 bus mid 100k', 'R2 mid 0 10k', '.end'].join(
+  '\n',
+);
+const board = {
+  netlist: NETLIST,
+  acMains: ['ac'],
+  testPoints: [
+    { id: 'TP1', label: 'Mains in', net: 'ac', ref: '0' },
+    { id: 'TP2', label: 'Divider', net: 'mid', ref: '0' },
+  ],
+};
 const mains: CaseReading = { mode: 'dcv', red: 'ac', black: '0', power: 'on', value: 311 };
 const band = { mode: 'dcv' as const, red: 'ac', black: '0', power: 'on' as const, low: 300, high: 322, boards: 3 };
 
@@ -30,7 +39,9 @@ describe('references where the model is silent', () => {
     for (const p of rf) {
       expect(p.after).toBeCloseTo(oddsUpdate(p.before, REFERENCE_OK_FACTOR), 12);
       expect(p.steps[0]?.source).toBe('reference');
-      expect(p.steps[0]?.note).toBe('TP1 DC V 311 V is within 3 known-good boards (300 V – 322 V) where the model gives no value: the parts on it are likelier sound');
+      expect(p.steps[0]?.note).toBe(
+        'TP1 DC V 311 V is within 3 known-good boards (300 V – 322 V) where the model gives no value: the parts on it are likelier sound',
+      );
     }
     // R1 has no pin on the mains net: untouched.
     expect(out.priors.some((p) => p.part === 'R1')).toBe(false);

@@ -8,14 +8,23 @@
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import { DEFAULT_METER, MeasurementError, meterProfile } from '@splitscope/circuit';
-import { createDiagnoser, groupLogLikelihood, isSolveFailure, readingLogLikelihood, type CaseReading, type DiagnosisOutput, type Diagnoser } from '../src/index.js';
+import {
+  createDiagnoser,
+  groupLogLikelihood,
+  isSolveFailure,
+  readingLogLikelihood,
+  type CaseReading,
+  type DiagnosisOutput,
+  type Diagnoser,
+} from '../src/index.js';
 import { FAN_DRIVE_NETLIST, FAN_DRIVE_TEST_POINTS } from '../fixtures/fan-drive.js';
 
 const v15: CaseReading = { mode: 'dcv', red: 'v15', black: '0', power: 'on', value: 14.98 };
 const vfan: CaseReading = { mode: 'dcv', red: 'vfan', black: '0', power: 'on', value: 0.05 };
 const beep: CaseReading = { mode: 'continuity', red: 'vfan', black: '0', power: 'off', value: true };
 const INTERNAL = [/\b[a-z]{1,3}\d?:(open|short|ce-short|be-open|drift)\b/, /\bX[A-Z]+\d*\b/];
-const key = (t: { mode: string; red: string; black: string; power: string; lifted: string[] }) => `${t.mode}|${t.red}|${t.black}|${t.power}|${t.lifted.join(',')}`;
+const key = (t: { mode: string; red: string; black: string; power: string; lifted: string[] }) =>
+  `${t.mode}|${t.red}|${t.black}|${t.power}|${t.lifted.join(',')}`;
 
 let d: Diagnoser;
 let once: DiagnosisOutput;
@@ -40,7 +49,11 @@ describe('repeats are not new evidence', () => {
   });
 
   it('three readings of VFAN leave the ranking and the probabilities about where one left them', () => {
-    const top = (o: DiagnosisOutput) => o.candidates.slice(0, 3).map((c) => c.words.text).sort();
+    const top = (o: DiagnosisOutput) =>
+      o.candidates
+        .slice(0, 3)
+        .map((c) => c.words.text)
+        .sort();
     expect(top(thrice)).toEqual(top(once));
     const p = (o: DiagnosisOutput) => o.candidates[0]!.probability;
     expect(Math.abs(p(thrice) - p(once))).toBeLessThan(0.05);

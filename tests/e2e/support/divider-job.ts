@@ -41,11 +41,18 @@ export async function benchSetup() {
 }
 
 type Setup = Awaited<ReturnType<typeof benchSetup>>;
-const reading = (o: { value: number; raw: string; phase?: 'verification'; red?: string }) => readingRequest({ mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', ...o });
+const reading = (o: { value: number; raw: string; phase?: 'verification'; red?: string }) =>
+  readingRequest({ mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', ...o });
 
 /** A job on the spec's board taken to approved: R2 found (TP2 reads 2.1 V instead of 7.5 V), the lead approves. */
 export async function approvedJob(s: Setup, extra: Record<string, unknown> = {}) {
-  const job = await send<{ id: string; number: number }>(s.tech, 'post', '/jobs', { customerId: s.customerId, boardId: s.boardId, unitDescription: 'Outdoor unit', symptom: 'Fan never starts', ...extra });
+  const job = await send<{ id: string; number: number }>(s.tech, 'post', '/jobs', {
+    customerId: s.customerId,
+    boardId: s.boardId,
+    unitDescription: 'Outdoor unit',
+    symptom: 'Fan never starts',
+    ...extra,
+  });
   await send(s.tech, 'post', `/jobs/${job.id}/readings`, reading({ value: 2.1, raw: '2.1' }));
   await send(s.tech, 'patch', `/jobs/${job.id}`, { status: 'awaiting-review', proposedPart: 'R2' });
   await send(s.lead, 'post', `/jobs/${job.id}/reviews`, { decision: 'approve', comment: 'R2 open' });

@@ -47,7 +47,12 @@ export async function jobsInEachStatus(statuses: readonly JobStatus[] = jobStatu
   ];
   const jobs = new Map<JobStatus, string>();
   for (const status of statuses) {
-    const job = await send<{ id: string }>(tech, 'post', '/jobs', { customerId: customer.id, boardId, unitDescription: 'Outdoor unit', symptom: 'Fan never starts' });
+    const job = await send<{ id: string }>(tech, 'post', '/jobs', {
+      customerId: customer.id,
+      boardId,
+      unitDescription: 'Outdoor unit',
+      symptom: 'Fan never starts',
+    });
     // steps[i] takes a job into the status after jobStatuses[i]: a job in status s has taken the steps before it.
     for (const [, step] of steps.slice(0, jobStatuses.indexOf(status))) await step(job.id);
     jobs.set(status, job.id);

@@ -19,7 +19,17 @@
  * is about a trainee.
  */
 import type { Page } from '@playwright/test';
-import type { BoardDetail, CreateCustomerRequest, CreateJobRequest, CreateReadingRequest, CreateReadingResponse, Customer, JobDetail, UpdateJobRequest, Job } from '@splitscope/contract';
+import type {
+  BoardDetail,
+  CreateCustomerRequest,
+  CreateJobRequest,
+  CreateReadingRequest,
+  CreateReadingResponse,
+  Customer,
+  JobDetail,
+  UpdateJobRequest,
+  Job,
+} from '@splitscope/contract';
 import { CUSTOMER_DEFAULTS, DEMO_BOARD_IDS, JOB_DEFAULTS, readingRequest } from '../../../apps/server/src/testing/requests';
 import { expect } from '../fixtures';
 
@@ -59,11 +69,7 @@ export async function createJob(page: Page, overrides: Partial<CreateJobRequest>
   return api.get<JobDetail>(page, `/jobs/${created.id}`);
 }
 
-export function recordReading(
-  page: Page,
-  jobId: string,
-  reading: Parameters<typeof readingRequest>[0],
-): Promise<CreateReadingResponse> {
+export function recordReading(page: Page, jobId: string, reading: Parameters<typeof readingRequest>[0]): Promise<CreateReadingResponse> {
   const body: CreateReadingRequest = readingRequest(reading);
   return api.send<CreateReadingResponse>(page, 'POST', `/jobs/${jobId}/readings`, body, 201);
 }

@@ -82,9 +82,7 @@ export function decodeWords(value: string): string {
   return value
     .replace(/\?=\s+=\?/g, '?==?')
     .replace(/=\?([^?]+)\?([QqBb])\?([^?]*)\?=/g, (_m, _charset: string, enc: string, text: string) =>
-      enc.toUpperCase() === 'B'
-        ? Buffer.from(text, 'base64').toString('utf8')
-        : decodeQuotedPrintable(text.replace(/_/g, ' ')).toString('utf8'),
+      enc.toUpperCase() === 'B' ? Buffer.from(text, 'base64').toString('utf8') : decodeQuotedPrintable(text.replace(/_/g, ' ')).toString('utf8'),
     );
 }
 

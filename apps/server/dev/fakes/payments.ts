@@ -60,8 +60,7 @@ interface Options {
   webhookUrl?: string;
 }
 
-const stripeError = (res: Response, status: number, type: string, message: string) =>
-  res.status(status).json({ error: { type, message } });
+const stripeError = (res: Response, status: number, type: string, message: string) => res.status(status).json({ error: { type, message } });
 
 const newId = (prefix: string) => `${prefix}_test_${randomBytes(12).toString('hex')}`;
 

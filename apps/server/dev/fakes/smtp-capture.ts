@@ -81,7 +81,7 @@ export async function startSmtpCapture(opts: { host?: string; port?: number; dir
   });
   // smtp-server logs socket errors of clients that hang up; a capture server has nothing to do about them
   server.on('error', () => {});
-  const port = ((server as unknown as { server: { address(): AddressInfo } }).server.address()).port;
+  const port = (server as unknown as { server: { address(): AddressInfo } }).server.address().port;
 
   return {
     host,

@@ -49,7 +49,10 @@ class SessionAdapter extends DrizzlePostgreSQLAdapter {
     const [r] = await this.sessionAndUser.execute({ id: sessionId });
     if (!r || r.deactivatedAt) return [null, null];
     const session: DatabaseSession = { id: r.id, userId: r.userId, expiresAt: r.expiresAt, attributes: { createdAt: r.createdAt } };
-    const user: DatabaseUser = { id: r.userId, attributes: { email: r.email, name: r.name, role: r.role, shopId: r.shopId, idleHours: r.idleHours, maxDays: r.maxDays } };
+    const user: DatabaseUser = {
+      id: r.userId,
+      attributes: { email: r.email, name: r.name, role: r.role, shopId: r.shopId, idleHours: r.idleHours, maxDays: r.maxDays },
+    };
     keepSession(session, user);
     return [session, user];
   }

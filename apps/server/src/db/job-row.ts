@@ -10,7 +10,10 @@ export type JobRow = typeof jobs.$inferSelect;
 
 /** A job of the actor's shop, or 404: another shop's ids look exactly like unknown ones. */
 export async function getJobRow(db: Db, shopId: string, id: string, lock = false): Promise<JobRow> {
-  const q = db.select().from(jobs).where(and(eq(jobs.id, id), eq(jobs.shopId, shopId)));
+  const q = db
+    .select()
+    .from(jobs)
+    .where(and(eq(jobs.id, id), eq(jobs.shopId, shopId)));
   const [row] = lock ? await q.for('update') : await q;
   if (!row) throw new AppError('not_found', `No job ${id}`);
   return row;

@@ -20,8 +20,28 @@ const TECH: Actor = { id: 'user-tech', email: 'tech@demo.test', name: 'Priya Nai
 const READINGS: (Omit<CreateReadingRequest, 'idempotencyKey'> & { key: string })[] = [
   { key: 'seed-review-1', mode: 'dcv', red: 'TP3', black: '0', power: 'on', value: 14.98, raw: '14.98' },
   { key: 'seed-review-2', mode: 'dcv', red: 'TP5', black: '0', power: 'on', value: 0.05, raw: '0.05' },
-  { key: 'seed-review-3', mode: 'continuity', red: 'TP5', black: '0', power: 'off', value: 0.4, beep: true, raw: '0.4', safetyCheck: { unplugged: true, busVolts: 3.1 } },
-  { key: 'seed-review-4', mode: 'ohm', red: 'TP5', black: '0', power: 'off', lifted: ['C9'], value: 1310, raw: '1.31k', safetyCheck: { unplugged: true, busVolts: 1.8 } },
+  {
+    key: 'seed-review-3',
+    mode: 'continuity',
+    red: 'TP5',
+    black: '0',
+    power: 'off',
+    value: 0.4,
+    beep: true,
+    raw: '0.4',
+    safetyCheck: { unplugged: true, busVolts: 3.1 },
+  },
+  {
+    key: 'seed-review-4',
+    mode: 'ohm',
+    red: 'TP5',
+    black: '0',
+    power: 'off',
+    lifted: ['C9'],
+    value: 1310,
+    raw: '1.31k',
+    safetyCheck: { unplugged: true, busVolts: 1.8 },
+  },
 ];
 
 export async function seedReviewJob(db: Db): Promise<void> {
@@ -40,6 +60,7 @@ export async function seedReviewJob(db: Db): Promise<void> {
     assigneeId: 'user-tech',
   });
   // Idempotency keys make a half-finished earlier seed safe to run again.
-  for (const { key, ...r } of READINGS) await createReading({ db, actor: TECH, jobId: REVIEW_JOB_ID, input: createReadingRequest.parse({ ...r, idempotencyKey: key }) });
+  for (const { key, ...r } of READINGS)
+    await createReading({ db, actor: TECH, jobId: REVIEW_JOB_ID, input: createReadingRequest.parse({ ...r, idempotencyKey: key }) });
   await updateJob({ db, actor: TECH, id: REVIEW_JOB_ID, input: { status: 'awaiting-review', proposedPart: 'C9' } });
 }

@@ -26,10 +26,46 @@ export const DEMO_USERS: { id: string; shopId: string; email: string; name: stri
 
 /** Invented customers: contracting firms and field technicians who send boards in. */
 export const DEMO_CUSTOMERS = [
-  { id: 'customer-coastline', shopId: DEMO_SHOP.id, name: 'Marta Keel', company: 'Coastline Comfort Contractors', email: 'service@coastline.test', phone: '555-0141', kind: 'contractor' as const, notes: 'Sends boards in batches on Mondays.' },
-  { id: 'customer-northgate', shopId: DEMO_SHOP.id, name: 'Rafael Osei', company: 'Northgate Heating & Cooling', email: 'rafael@northgate.test', phone: '555-0172', kind: 'contractor' as const, notes: null },
-  { id: 'customer-jun', shopId: DEMO_SHOP.id, name: 'Jun Halvorsen', company: null, email: 'jun.h@fieldmail.test', phone: '555-0119', kind: 'field-technician' as const, notes: 'Works alone; prefers a call before a quote.' },
-  { id: 'customer-other', shopId: OTHER_SHOP.id, name: 'Ada Brennan', company: 'Ridge Air Services', email: 'ada@ridgeair.test', phone: '555-0190', kind: 'contractor' as const, notes: null },
+  {
+    id: 'customer-coastline',
+    shopId: DEMO_SHOP.id,
+    name: 'Marta Keel',
+    company: 'Coastline Comfort Contractors',
+    email: 'service@coastline.test',
+    phone: '555-0141',
+    kind: 'contractor' as const,
+    notes: 'Sends boards in batches on Mondays.',
+  },
+  {
+    id: 'customer-northgate',
+    shopId: DEMO_SHOP.id,
+    name: 'Rafael Osei',
+    company: 'Northgate Heating & Cooling',
+    email: 'rafael@northgate.test',
+    phone: '555-0172',
+    kind: 'contractor' as const,
+    notes: null,
+  },
+  {
+    id: 'customer-jun',
+    shopId: DEMO_SHOP.id,
+    name: 'Jun Halvorsen',
+    company: null,
+    email: 'jun.h@fieldmail.test',
+    phone: '555-0119',
+    kind: 'field-technician' as const,
+    notes: 'Works alone; prefers a call before a quote.',
+  },
+  {
+    id: 'customer-other',
+    shopId: OTHER_SHOP.id,
+    name: 'Ada Brennan',
+    company: 'Ridge Air Services',
+    email: 'ada@ridgeair.test',
+    phone: '555-0190',
+    kind: 'contractor' as const,
+    notes: null,
+  },
 ];
 
 /** Seeds the demo; returns how many users it created (0 on a second run). */
@@ -56,8 +92,42 @@ async function seedDemoBench(db: Db): Promise<void> {
   await createBoardModel(db, { shopId: OTHER_SHOP.id, createdBy: 'user-other-tech', id: 'board-other-ofd-220', document: OUTDOOR_FAN_BOARD });
   await createBoardModel(db, { shopId: DEMO_SHOP.id, createdBy: 'user-admin', id: DEMO_BOARD_IDS.indoorFan, document: INDOOR_FAN_BOARD });
   const base = { shopId: DEMO_SHOP.id, createdBy: 'user-tech', boardId: board.id, faultCode: 'F7' };
-  await createJob(db, { ...base, id: 'job-demo-fan-1', customerId: 'customer-coastline', unitDescription: 'Outdoor unit, 3.5 kW heat pump', serial: 'DEMO-0001', symptom: 'Outdoor fan never starts; compressor stops after a minute', assigneeId: 'user-tech' });
-  await createJob(db, { ...base, id: 'job-demo-fan-2', customerId: 'customer-jun', unitDescription: 'Outdoor unit, 2.5 kW', serial: 'DEMO-0002', symptom: 'Fan starts, then the unit stops with F7', assigneeId: 'user-trainee' });
-  await createJob(db, { ...base, id: 'job-demo-fan-3', customerId: 'customer-northgate', unitDescription: 'Outdoor unit, 5 kW', serial: 'DEMO-0003', symptom: 'Outdoor fan never starts', assigneeId: 'user-tech' });
-  await createJob(db, { shopId: OTHER_SHOP.id, createdBy: 'user-other-tech', boardId: 'board-other-ofd-220', customerId: 'customer-other', id: 'job-other-1', unitDescription: 'Outdoor unit', serial: 'OTHER-0001', symptom: 'Fan never starts', faultCode: 'F7' });
+  await createJob(db, {
+    ...base,
+    id: 'job-demo-fan-1',
+    customerId: 'customer-coastline',
+    unitDescription: 'Outdoor unit, 3.5 kW heat pump',
+    serial: 'DEMO-0001',
+    symptom: 'Outdoor fan never starts; compressor stops after a minute',
+    assigneeId: 'user-tech',
+  });
+  await createJob(db, {
+    ...base,
+    id: 'job-demo-fan-2',
+    customerId: 'customer-jun',
+    unitDescription: 'Outdoor unit, 2.5 kW',
+    serial: 'DEMO-0002',
+    symptom: 'Fan starts, then the unit stops with F7',
+    assigneeId: 'user-trainee',
+  });
+  await createJob(db, {
+    ...base,
+    id: 'job-demo-fan-3',
+    customerId: 'customer-northgate',
+    unitDescription: 'Outdoor unit, 5 kW',
+    serial: 'DEMO-0003',
+    symptom: 'Outdoor fan never starts',
+    assigneeId: 'user-tech',
+  });
+  await createJob(db, {
+    shopId: OTHER_SHOP.id,
+    createdBy: 'user-other-tech',
+    boardId: 'board-other-ofd-220',
+    customerId: 'customer-other',
+    id: 'job-other-1',
+    unitDescription: 'Outdoor unit',
+    serial: 'OTHER-0001',
+    symptom: 'Fan never starts',
+    faultCode: 'F7',
+  });
 }

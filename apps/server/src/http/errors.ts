@@ -47,7 +47,10 @@ const titles: Record<ErrorCode, string> = {
 /** Validates input against a contract schema; failures become one 422 that lists the failing fields. */
 export function parse<S extends z.ZodType>(schema: S, value: unknown): z.infer<S> {
   const nul = nulPath(value);
-  if (nul) throw new AppError('invalid', `Invalid input: ${nul}: must not contain the NUL character`, { errors: [{ path: nul, message: 'must not contain the NUL character' }] });
+  if (nul)
+    throw new AppError('invalid', `Invalid input: ${nul}: must not contain the NUL character`, {
+      errors: [{ path: nul, message: 'must not contain the NUL character' }],
+    });
   const r = schema.safeParse(value);
   if (r.success) return r.data;
   const errors = r.error.issues.map((i) => ({ path: i.path.map(String).join('.') || '(body)', message: i.message }));

@@ -14,8 +14,34 @@ export const DIVIDER_BOARD: BoardModel = boardModelSchema.parse({
   picture: { width: 400, height: 300, units: 'px' },
   netlist: '* invented test board\nVS in 0 DC 15\nR1 in mid 10k\nR2 mid 0 10k\n.end\n',
   parts: [
-    { designator: 'R1', element: 'R1', kind: 'resistor', value: '10k', package: '0805', x: 100, y: 100, section: 'div', pins: [{ pin: '1', net: 'in' }, { pin: '2', net: 'mid' }] },
-    { designator: 'R2', element: 'R2', kind: 'resistor', value: '10k', package: '0805', x: 200, y: 100, section: 'div', pins: [{ pin: '1', net: 'mid' }, { pin: '2', net: '0' }] },
+    {
+      designator: 'R1',
+      element: 'R1',
+      kind: 'resistor',
+      value: '10k',
+      package: '0805',
+      x: 100,
+      y: 100,
+      section: 'div',
+      pins: [
+        { pin: '1', net: 'in' },
+        { pin: '2', net: 'mid' },
+      ],
+    },
+    {
+      designator: 'R2',
+      element: 'R2',
+      kind: 'resistor',
+      value: '10k',
+      package: '0805',
+      x: 200,
+      y: 100,
+      section: 'div',
+      pins: [
+        { pin: '1', net: 'mid' },
+        { pin: '2', net: '0' },
+      ],
+    },
   ],
   nets: [
     { name: 'in', label: '15 V rail', side: 'hot', reference: '0' },

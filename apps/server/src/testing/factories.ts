@@ -18,10 +18,7 @@ export async function createShop(db: Db, overrides: Partial<typeof shops.$inferI
   return row;
 }
 
-export async function createUser(
-  db: Db,
-  overrides: { shopId: string; email?: string; name?: string; role?: Role; password?: string; id?: string },
-) {
+export async function createUser(db: Db, overrides: { shopId: string; email?: string; name?: string; role?: Role; password?: string; id?: string }) {
   const row = {
     id: overrides.id ?? newId(),
     shopId: overrides.shopId,
@@ -50,7 +47,10 @@ export async function createBoardModel(db: Db, o: { shopId: string; createdBy: s
   return { id };
 }
 
-export async function createJob(db: Db, o: { shopId: string; createdBy: string; customerId: string; boardId: string } & Partial<CreateJobRequest> & { id?: string }) {
+export async function createJob(
+  db: Db,
+  o: { shopId: string; createdBy: string; customerId: string; boardId: string } & Partial<CreateJobRequest> & { id?: string },
+) {
   if (o.id) {
     const [exists] = await db.select({ id: jobs.id }).from(jobs).where(eq(jobs.id, o.id));
     if (exists) return { id: o.id };

@@ -7,5 +7,7 @@ export async function smallPicture(seed: number): Promise<{ bytes: Buffer; type:
   const width = 8 + Math.floor(seed * 120);
   const height = 6 + Math.floor(((seed * 7919) % 1) * 90);
   const img = sharp({ create: { width, height, channels: 3, background: { r: Math.floor(seed * 255), g: 120, b: 60 } } });
-  return seed < 0.5 ? { bytes: await img.png().toBuffer(), type: 'image/png', width, height } : { bytes: await img.jpeg().toBuffer(), type: 'image/jpeg', width, height };
+  return seed < 0.5
+    ? { bytes: await img.png().toBuffer(), type: 'image/png', width, height }
+    : { bytes: await img.jpeg().toBuffer(), type: 'image/jpeg', width, height };
 }

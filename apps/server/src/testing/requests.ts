@@ -12,6 +12,8 @@ export const JOB_DEFAULTS = { unitDescription: 'Test outdoor unit', symptom: 'ou
 export const DEMO_BOARD_IDS = { outdoorFan: 'board-demo-ofd-220', indoorFan: 'board-demo-idf-310' } as const;
 
 /** A reading as the bench sends it: a fresh idempotency key, and the typed text made from the value. */
-export function readingRequest(r: Omit<CreateReadingRequest, 'idempotencyKey' | 'raw'> & Partial<Pick<CreateReadingRequest, 'idempotencyKey' | 'raw'>>): CreateReadingRequest {
+export function readingRequest(
+  r: Omit<CreateReadingRequest, 'idempotencyKey' | 'raw'> & Partial<Pick<CreateReadingRequest, 'idempotencyKey' | 'raw'>>,
+): CreateReadingRequest {
   return { idempotencyKey: crypto.randomUUID(), raw: String(r.value), ...r };
 }

@@ -4,7 +4,6 @@ import { hasRole, roleLabels, ROLES } from '@splitscope/contract';
 import { useMe } from '@/lib/api/me';
 import { useSignOut } from '@/features/auth/api/sign-in';
 
-
 /** A link's shorter words below 1280 px, so the admin's row of links fits at 1024 px. */
 const Short = ({ short, long }: { short: string; long: string }) => (
   <>
@@ -55,12 +54,32 @@ export function AppLayout() {
           <NavLink to="/references" className={link}>
             <Short short="References" long="Bench references" />
           </NavLink>
-          {hasRole(me.data.role, ROLES.admins) && <NavLink to="/people" className={link}>People</NavLink>}
-          {hasRole(me.data.role, ROLES.admins) && <NavLink to="/shop" className={link}>Shop</NavLink>}
-          {hasRole(me.data.role, ROLES.admins) && <NavLink to="/billing/settings" className={link}>Billing</NavLink>}
-          {hasRole(me.data.role, ROLES.admins) && <NavLink to="/dev/mail" className={link}><Short short="Mail" long="Mail outbox" /></NavLink>}
+          {hasRole(me.data.role, ROLES.admins) && (
+            <NavLink to="/people" className={link}>
+              People
+            </NavLink>
+          )}
+          {hasRole(me.data.role, ROLES.admins) && (
+            <NavLink to="/shop" className={link}>
+              Shop
+            </NavLink>
+          )}
+          {hasRole(me.data.role, ROLES.admins) && (
+            <NavLink to="/billing/settings" className={link}>
+              Billing
+            </NavLink>
+          )}
+          {hasRole(me.data.role, ROLES.admins) && (
+            <NavLink to="/dev/mail" className={link}>
+              <Short short="Mail" long="Mail outbox" />
+            </NavLink>
+          )}
         </nav>
-        <NavLink to="/account" className="ml-auto flex min-h-11 items-center whitespace-nowrap rounded-md px-2 text-sm hover:bg-white/10" title={`${me.data.name} · ${me.data.shopName}: your account`}>
+        <NavLink
+          to="/account"
+          className="ml-auto flex min-h-11 items-center whitespace-nowrap rounded-md px-2 text-sm hover:bg-white/10"
+          title={`${me.data.name} · ${me.data.shopName}: your account`}
+        >
           <span className="hidden xl:inline">{me.data.name} · </span>
           {roleLabels[me.data.role]}
           {/* The shop's name only where there is room: on a tablet the main links come first. */}

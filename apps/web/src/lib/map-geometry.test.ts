@@ -48,7 +48,17 @@ describe('board-map geometry', () => {
 
   it('pinches: spreading the fingers twice as far doubles the scale', () => {
     const v = { scale: 1, x: 0, y: 0 };
-    const p = pinchView(v, [{ x: 100, y: 100 }, { x: 200, y: 100 }], [{ x: 50, y: 100 }, { x: 250, y: 100 }]);
+    const p = pinchView(
+      v,
+      [
+        { x: 100, y: 100 },
+        { x: 200, y: 100 },
+      ],
+      [
+        { x: 50, y: 100 },
+        { x: 250, y: 100 },
+      ],
+    );
     expect(p.scale).toBeCloseTo(2);
     // the midpoint (150, 100) stays over the same board point
     expect(toBoard(p, { x: 150, y: 100 }).x).toBeCloseTo(150);

@@ -13,7 +13,10 @@ const NO_BEEP = /^(n|no|no ?beep|silent|none)$/i;
  * none: "beep" / "b" and "no beep" / "n" are taken as such (a beep is stored as 0 Ω, no beep as OL); ohms typed
  * from the display are taken too.
  */
-export async function parseTyped(text: string, mode: MeterModeName): Promise<{ ok: true; value: number | 'OL'; beep?: boolean } | { ok: false; error: string }> {
+export async function parseTyped(
+  text: string,
+  mode: MeterModeName,
+): Promise<{ ok: true; value: number | 'OL'; beep?: boolean } | { ok: false; error: string }> {
   if (mode === 'continuity') {
     const t = text.trim();
     if (BEEP.test(t)) return { ok: true, value: 0, beep: true };

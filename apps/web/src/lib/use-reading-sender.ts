@@ -25,8 +25,7 @@ const store: KeyValueStore = {
   },
 };
 
-const newKey = () =>
-  typeof crypto !== 'undefined' && 'randomUUID' in crypto ? crypto.randomUUID() : `r-${Date.now()}-${Math.random().toString(36).slice(2)}`;
+const newKey = () => (typeof crypto !== 'undefined' && 'randomUUID' in crypto ? crypto.randomUUID() : `r-${Date.now()}-${Math.random().toString(36).slice(2)}`);
 
 /**
  * Optimistic reading entry: every reading is written to the device first, then sent; while the network is down it

@@ -13,12 +13,27 @@ const capture = (over: Partial<BoardCapture> = {}): BoardCapture => ({
   photo: { uploadId: 'photo-1', width: 2000, height: 1500 },
   connectors: [{ name: 'CN5', x: 40, y: 1400, pins: [{ pin: '3', net: 'v15sw', function: '15 V to the motor' }] }],
   sections: [
-    { id: 'bus', template: 'dc-bus', base: 100, region: region(0, 0), nets: { bus: 'vbus' }, params: { mainsRms: 230 },
+    {
+      id: 'bus',
+      template: 'dc-bus',
+      base: 100,
+      region: region(0, 0),
+      nets: { bus: 'vbus' },
+      params: { mainsRms: 230 },
       values: { C101: decodeMarking('electrolytic-capacitor', '470µF 400V').nominal, R101: decodeMarking('resistor', 'brown green yellow gold').nominal },
-      markings: { C101: '470µF 400V', R101: 'brown green yellow gold' } },
+      markings: { C101: '470µF 400V', R101: 'brown green yellow gold' },
+    },
     { id: 'reg15', template: 'regulator-15v', base: 200, region: region(400, 0), nets: { out: 'v15' }, params: {}, values: {}, markings: {} },
-    { id: 'fan-switch', template: 'fan-switch', base: 300, region: region(0, 400), nets: { in: 'v15', out: 'v15sw' }, params: {},
-      values: { R303: decodeMarking('resistor', '103').nominal, R302: decodeMarking('resistor', '472').nominal }, markings: { R303: '103', R302: '472' } },
+    {
+      id: 'fan-switch',
+      template: 'fan-switch',
+      base: 300,
+      region: region(0, 400),
+      nets: { in: 'v15', out: 'v15sw' },
+      params: {},
+      values: { R303: decodeMarking('resistor', '103').nominal, R302: decodeMarking('resistor', '472').nominal },
+      markings: { R303: '103', R302: '472' },
+    },
   ],
   points: [
     { id: 'TP1', label: 'Bus +', x: 120, y: 80, net: 'vbus' },
@@ -41,7 +56,12 @@ describe('composeCapture', () => {
     expect(out.problem).toBeNull();
     expect(out.model!.picture).toEqual({ uploadId: 'photo-1', width: 2000, height: 1500, units: 'px' });
     expect(out.model!.testPoints.map((t) => [t.id, t.x, t.y])).toEqual([
-      ['TP1', 120, 80], ['TP2', 180, 90], ['TP3', 450, 60], ['TP4', 520, 60], ['TP5', 60, 450], ['TP6', 90, 470],
+      ['TP1', 120, 80],
+      ['TP2', 180, 90],
+      ['TP3', 450, 60],
+      ['TP4', 520, 60],
+      ['TP5', 60, 450],
+      ['TP6', 90, 470],
     ]);
     expect(out.unmodelled).toEqual({ TP7: 'no net named for this point' });
     expect(out.model!.parts.find((p) => p.designator === 'C101')).toMatchObject({ nominal: 470e-6, marking: '470µF 400V' });

@@ -34,7 +34,14 @@ function specOf(capture: BoardCapture, meta: CaptureMeta, testPoints: BoardSpec[
     height: capture.photo.height,
     coldGround: COLD_GROUND,
     sections: capture.sections.map((s) => ({
-      id: s.id, template: s.template, base: s.base, region: s.region, nets: s.nets, params: s.params, values: s.values, markings: s.markings,
+      id: s.id,
+      template: s.template,
+      base: s.base,
+      region: s.region,
+      nets: s.nets,
+      params: s.params,
+      values: s.values,
+      markings: s.markings,
       ...(s.title ? { title: s.title } : {}),
     })),
     connectors: capture.connectors.map((c) => ({ name: c.name, x: c.x, y: c.y, ...(c.title ? { title: c.title } : {}), pins: c.pins })),
@@ -64,7 +71,13 @@ export function composeCapture(capture: BoardCapture, meta: CaptureMeta): Compos
     else if (!touched.has(p.net)) unmodelled[p.id] = `net "${p.net}" is not on any marked section`;
     return p.net && touched.has(p.net);
   });
-  const composed = composeBoard(specOf(capture, meta, bound.map((p) => ({ id: p.id, net: p.net!, ...(p.label ? { label: p.label } : {}) }))));
+  const composed = composeBoard(
+    specOf(
+      capture,
+      meta,
+      bound.map((p) => ({ id: p.id, net: p.net!, ...(p.label ? { label: p.label } : {}) })),
+    ),
+  );
   const at = new Map(bound.map((p) => [p.id, p]));
   const model = boardModelSchema.parse({
     ...composed,

@@ -9,7 +9,13 @@ import { composeBoard, drawBoard } from './compose';
 import type { BoardSpec } from './types';
 
 const small: BoardSpec = {
-  id: 'test-small', slug: 'test-small', name: 'Test board', family: 'Tests', maker: 'Invented', width: 600, height: 400,
+  id: 'test-small',
+  slug: 'test-small',
+  name: 'Test board',
+  family: 'Tests',
+  maker: 'Invented',
+  width: 600,
+  height: 400,
   sections: [
     { id: 'reg15', template: 'regulator-15v', base: 200, nets: { out: 'v15' }, region: { x: 20, y: 20, w: 360, h: 200 } },
     { id: 'reg5', template: 'regulator-5v', base: 250, region: { x: 20, y: 220, w: 360, h: 160 } },
@@ -22,7 +28,10 @@ describe('composeBoard', () => {
     expect(boardModelSchema.safeParse(b).success).toBe(true);
     expect(b.netlist.split('\n')[0]).toMatch(/^\* Test board/);
     expect(b.netlist.trimEnd().endsWith('.end')).toBe(true);
-    expect(b.sections.map((s) => [s.id, s.template, s.side])).toEqual([['reg15', 'regulator-15v', 'hot'], ['reg5', 'regulator-5v', 'cold']]);
+    expect(b.sections.map((s) => [s.id, s.template, s.side])).toEqual([
+      ['reg15', 'regulator-15v', 'hot'],
+      ['reg5', 'regulator-5v', 'cold'],
+    ]);
   });
 
   it('gives the cold ground a DC path to bus negative through the isolation resistor, only when it is used', () => {
@@ -33,7 +42,10 @@ describe('composeBoard', () => {
   it('suggests test points from the templates with their reference nets and sourced bands', () => {
     const b = composeBoard(small);
     expect(b.testPoints.map((t) => [t.id, t.net, t.reference])).toEqual([
-      ['TP1', 'reg15_vin', '0'], ['TP2', 'v15', '0'], ['TP3', 'reg5_vin', 'gnd_c'], ['TP4', 'vcc5_c', 'gnd_c'],
+      ['TP1', 'reg15_vin', '0'],
+      ['TP2', 'v15', '0'],
+      ['TP3', 'reg5_vin', 'gnd_c'],
+      ['TP4', 'vcc5_c', 'gnd_c'],
     ]);
     expect(b.testPoints[1]!.band?.source).toMatch(/MC7800/);
     // Hot points carry the bus caution; cold ones do not.
@@ -43,7 +55,9 @@ describe('composeBoard', () => {
 
   it('names what is wrong with a spec', () => {
     expect(() => composeBoard({ ...small, sections: [{ ...small.sections[0]!, template: 'nope' } as never] })).toThrow(/unknown template "nope"/);
-    expect(() => composeBoard({ ...small, sections: [small.sections[0]!, { ...small.sections[1]!, base: 200, template: 'regulator-15v', id: 'x' } as never] })).toThrow(/designator D201 is used twice/);
+    expect(() =>
+      composeBoard({ ...small, sections: [small.sections[0]!, { ...small.sections[1]!, base: 200, template: 'regulator-15v', id: 'x' } as never] }),
+    ).toThrow(/designator D201 is used twice/);
     expect(() => composeBoard({ ...small, testPoints: [{ id: 'TP1', net: 'nowhere' }] })).toThrow(/no part on net "nowhere"/);
   });
 

@@ -42,17 +42,36 @@ function resolve(inst: SectionInstance, templates: Record<string, SectionTemplat
   if ('spice' in inst) {
     const { parts } = spiceParts(inst.spice, inst.offBoard, inst.kinds);
     return {
-      ...common, title: inst.title ?? inst.id, template: 'spice', params: {}, side: inst.side, touchesBus: inst.touchesBus,
-      fragment: `* ${inst.id}: ${inst.title ?? inst.id}\n${inst.spice.trim()}`, parts, nets: inst.nets ?? [],
-      suggestions: inst.testPoints ?? [], sourceParams: {}, uses: [],
+      ...common,
+      title: inst.title ?? inst.id,
+      template: 'spice',
+      params: {},
+      side: inst.side,
+      touchesBus: inst.touchesBus,
+      fragment: `* ${inst.id}: ${inst.title ?? inst.id}\n${inst.spice.trim()}`,
+      parts,
+      nets: inst.nets ?? [],
+      suggestions: inst.testPoints ?? [],
+      sourceParams: {},
+      uses: [],
     };
   }
   const template = templates[inst.template];
   if (!template) throw new ComposeError(`section "${inst.id}": unknown template "${inst.template}" (known: ${Object.keys(templates).join(', ')})`);
   const out = withValues(inst, template({ id: inst.id, base: inst.base, nets: inst.nets ?? {}, params: inst.params ?? {} }));
   return {
-    ...common, title: inst.title ?? out.title, template: out.template, params: inst.params ?? {}, side: out.side, touchesBus: out.touchesBus,
-    fragment: out.netlist, parts: out.parts, nets: out.nets, suggestions: out.testPoints, sourceParams: out.params, uses: out.uses,
+    ...common,
+    title: inst.title ?? out.title,
+    template: out.template,
+    params: inst.params ?? {},
+    side: out.side,
+    touchesBus: out.touchesBus,
+    fragment: out.netlist,
+    parts: out.parts,
+    nets: out.nets,
+    suggestions: out.testPoints,
+    sourceParams: out.params,
+    uses: out.uses,
   };
 }
 
@@ -62,7 +81,8 @@ function withValues(inst: TemplateSectionInstance, out: ReturnType<SectionTempla
   const markings = inst.markings ?? {};
   for (const d of Object.keys(values)) {
     const part = out.parts.find((p) => p.designator === d);
-    if (!part) throw new ComposeError(`section "${inst.id}": no part ${d} in the ${out.title} template (its parts: ${out.parts.map((p) => p.designator).join(', ')})`);
+    if (!part)
+      throw new ComposeError(`section "${inst.id}": no part ${d} in the ${out.title} template (its parts: ${out.parts.map((p) => p.designator).join(', ')})`);
     const isR = part.kind === 'resistor';
     if (!isR && part.kind !== 'ceramic-capacitor' && part.kind !== 'electrolytic-capacitor') {
       throw new ComposeError(`section "${inst.id}": ${d} is a ${part.kind}; only resistor and capacitor values are typed in`);
@@ -115,7 +135,13 @@ function composeNetlist(spec: BoardSpec, secs: Resolved[], params: Record<string
   const uses = [...new Set(secs.flatMap((s) => s.uses))];
   const models = uses.filter((u) => MODELS[u]).map((u) => MODELS[u]!);
   const subckts = uses.filter((u) => SUBCKTS[u]).map((u) => SUBCKTS[u]!());
-  const paramLine = Object.keys(params).length ? [`.param ${Object.entries(params).map(([k, v]) => `${k}=${v}`).join(' ')}`] : [];
+  const paramLine = Object.keys(params).length
+    ? [
+        `.param ${Object.entries(params)
+          .map(([k, v]) => `${k}=${v}`)
+          .join(' ')}`,
+      ]
+    : [];
   // The parser takes the first line as the title, so it must be a comment naming the board.
   const lines = [`* ${spec.name} (composed board model, ${secs.length} sections)`, ...paramLine, ...models, ...subckts];
   if (spec.header) lines.push(spec.header.trim());
@@ -163,8 +189,7 @@ function composeWithDrawing(spec: BoardSpec, templates: Record<string, SectionTe
   const coldGround = spec.coldGround ?? 'gnd_c';
   const usesCold = secs.some((s) => s.parts.some((p) => p.pins.some((pin) => pin.net === coldGround)) || s.nets.some((n) => n.name === coldGround));
   const groundOf = (side: BoardSide) => (side === 'cold' ? coldGround : '0');
-  const sideOfNet = (net: string, fallback: BoardSide): BoardSide =>
-    netInfo.get(net)?.side ?? (net === '0' ? 'hot' : net === coldGround ? 'cold' : fallback);
+  const sideOfNet = (net: string, fallback: BoardSide): BoardSide => netInfo.get(net)?.side ?? (net === '0' ? 'hot' : net === coldGround ? 'cold' : fallback);
 
   const parts: BoardModel['parts'] = [];
   const dup = new Set<string>();
@@ -200,18 +225,31 @@ function composeWithDrawing(spec: BoardSpec, templates: Record<string, SectionTe
   const svg =
     spec.svg ??
     renderBoardSvg({
-      width: spec.width, height: spec.height, colours: spec.colours, title: spec.silkTitle ?? spec.name,
+      width: spec.width,
+      height: spec.height,
+      colours: spec.colours,
+      title: spec.silkTitle ?? spec.name,
       sections: secs.map((s) => ({ id: s.id, title: s.title, side: s.side, touchesBus: s.touchesBus, region: s.region })),
-      parts, connectors: spec.connectors ?? [], testPoints, grounds: ['0', coldGround],
+      parts,
+      connectors: spec.connectors ?? [],
+      testPoints,
+      grounds: ['0', coldGround],
     });
   const model = boardModelSchema.parse({
     schemaVersion: BOARD_MODEL_SCHEMA_VERSION,
     // The drawing is made again from the layout when asked for; a given svg is not kept in the document.
     composition: { ...spec, svg: undefined },
-    id: spec.id, slug: spec.slug, name: spec.name, family: spec.family, maker: spec.maker,
+    id: spec.id,
+    slug: spec.slug,
+    name: spec.name,
+    family: spec.family,
+    maker: spec.maker,
     ...(spec.description ? { description: spec.description } : {}),
     picture: { width: spec.width, height: spec.height, units: 'px' },
-    sections, netlist, params, parts,
+    sections,
+    netlist,
+    params,
+    parts,
     nets: [...netInfo.values()],
     connectors: spec.connectors ?? [],
     testPoints,

@@ -27,7 +27,13 @@ const esc = (s: string) => s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replac
 /** Where pin i of a part sits on the picture. */
 export function pinPosition(p: Part, i: number): Pt {
   const n = p.pins.length;
-  if (p.kind === 'opto-coupler' && n === 4) return [{ x: p.x - 18, y: p.y - 7 }, { x: p.x - 18, y: p.y + 7 }, { x: p.x + 18, y: p.y + 7 }, { x: p.x + 18, y: p.y - 7 }][i]!;
+  if (p.kind === 'opto-coupler' && n === 4)
+    return [
+      { x: p.x - 18, y: p.y - 7 },
+      { x: p.x - 18, y: p.y + 7 },
+      { x: p.x + 18, y: p.y + 7 },
+      { x: p.x + 18, y: p.y - 7 },
+    ][i]!;
   if (n === 3) return { x: p.x + (i - 1) * (p.kind === 'regulator' ? 12 : 10), y: p.y + (p.kind === 'regulator' ? 22 : 15) };
   if (n === 2) return { x: p.x + (i === 0 ? -24 : 24), y: p.y };
   return { x: p.x - 12 * (n - 1) + 24 * i, y: p.y + 16 };
@@ -79,7 +85,8 @@ function traces(input: RenderInput, copper: string): string {
   for (const list of pts.values()) {
     const sorted = [...list].sort((a, b) => a.x - b.x || a.y - b.y);
     for (let i = 1; i < sorted.length; i++) {
-      const a = sorted[i - 1]!, b = sorted[i]!;
+      const a = sorted[i - 1]!,
+        b = sorted[i]!;
       // Manhattan routing: down/up from the first pin to a lane, across, then to the second pin.
       const lane = Math.round((a.y + b.y) / 2);
       out += `<path d="M${a.x} ${a.y}V${lane}H${b.x}V${b.y}" fill="none" stroke="${copper}" stroke-width="3" stroke-linejoin="round" stroke-opacity="0.85"/>`;
@@ -118,7 +125,9 @@ export function renderBoardSvg(input: RenderInput): string {
   const { mask, silk, copper } = input.colours ?? { mask: '#1f5a3a', silk: '#f3f7ef', copper: '#c58b3a' };
   const sections = input.sections
     .map(({ region: r, title, touchesBus, side }) => {
-      const warn = touchesBus ? `<path d="M${r.x + r.w - 30} ${r.y + 28}l10 -18l10 18z" fill="none" stroke="${silk}" stroke-width="2"/><text x="${r.x + r.w - 20}" y="${r.y + 25}" text-anchor="middle" font-family="sans-serif" font-size="10" font-weight="bold" fill="${silk}">!</text>` : '';
+      const warn = touchesBus
+        ? `<path d="M${r.x + r.w - 30} ${r.y + 28}l10 -18l10 18z" fill="none" stroke="${silk}" stroke-width="2"/><text x="${r.x + r.w - 20}" y="${r.y + 25}" text-anchor="middle" font-family="sans-serif" font-size="10" font-weight="bold" fill="${silk}">!</text>`
+        : '';
       return (
         `<rect x="${r.x}" y="${r.y}" width="${r.w}" height="${r.h}" rx="8" fill="none" stroke="${silk}" stroke-opacity="0.45" stroke-dasharray="${side === 'hot' ? '8 5' : '2 4'}"/>` +
         `<text x="${r.x + 10}" y="${r.y + 22}" font-family="sans-serif" font-size="15" fill="${silk}">${esc(title)}${side === 'cold' ? ' (cold side)' : ''}</text>` +
@@ -127,15 +136,28 @@ export function renderBoardSvg(input: RenderInput): string {
     })
     .join('');
   const labels = input.parts
-    .map((p) => `<text x="${p.x}" y="${p.y + (p.pins.length === 3 ? 40 : 27)}" text-anchor="middle" font-family="sans-serif" font-size="11" fill="${silk}">${esc(p.designator)}</text>`)
+    .map(
+      (p) =>
+        `<text x="${p.x}" y="${p.y + (p.pins.length === 3 ? 40 : 27)}" text-anchor="middle" font-family="sans-serif" font-size="11" fill="${silk}">${esc(p.designator)}</text>`,
+    )
     .join('');
   const tps = input.testPoints
-    .map((t) => `<circle cx="${t.x}" cy="${t.y}" r="6" fill="#e3c27a" stroke="${silk}" stroke-width="1.5"/><text x="${t.x + 9}" y="${t.y - 6}" font-family="sans-serif" font-size="10" fill="${silk}">${esc(t.id)}</text>`)
+    .map(
+      (t) =>
+        `<circle cx="${t.x}" cy="${t.y}" r="6" fill="#e3c27a" stroke="${silk}" stroke-width="1.5"/><text x="${t.x + 9}" y="${t.y - 6}" font-family="sans-serif" font-size="10" fill="${silk}">${esc(t.id)}</text>`,
+    )
     .join('');
   return (
     `<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}">` +
     `<rect width="${W}" height="${H}" rx="22" fill="${mask}"/>` +
-    [[24, 24], [W - 24, 24], [24, H - 24], [W - 24, H - 24]].map(([x, y]) => `<circle cx="${x}" cy="${y}" r="9" fill="#0d2418" stroke="#d8b36a" stroke-width="3"/>`).join('') +
+    [
+      [24, 24],
+      [W - 24, 24],
+      [24, H - 24],
+      [W - 24, H - 24],
+    ]
+      .map(([x, y]) => `<circle cx="${x}" cy="${y}" r="9" fill="#0d2418" stroke="#d8b36a" stroke-width="3"/>`)
+      .join('') +
     traces(input, copper) +
     sections +
     pads(input, (n) => input.grounds.includes(n)) +

@@ -19,10 +19,19 @@ describe('SPICE sections', () => {
     );
     expect(elements).toEqual(['VCMD', 'R6', 'XU1', 'Q1', 'D2', 'C8', 'RLOAD', 'RTH1']);
     expect(parts.map((p) => [p.designator, p.kind])).toEqual([
-      ['R6', 'resistor'], ['XU1', 'opto-coupler'], ['Q1', 'bjt'], ['D2', 'led'], ['C8', 'electrolytic-capacitor'], ['RTH1', 'thermistor'],
+      ['R6', 'resistor'],
+      ['XU1', 'opto-coupler'],
+      ['Q1', 'bjt'],
+      ['D2', 'led'],
+      ['C8', 'electrolytic-capacitor'],
+      ['RTH1', 'thermistor'],
     ]);
     expect(parts[1]!.pins.map((p) => p.net)).toEqual(['la', '0', 'oc', '0']);
-    expect(parts[2]!.pins).toEqual([{ pin: 'C', net: 'vfan' }, { pin: 'B', net: 'b1' }, { pin: 'E', net: 'v15' }]);
+    expect(parts[2]!.pins).toEqual([
+      { pin: 'C', net: 'vfan' },
+      { pin: 'B', net: 'b1' },
+      { pin: 'E', net: 'v15' },
+    ]);
     expect(parts[0]).toMatchObject({ nominal: 470, value: '470 Ω', tolerance: 0.05 });
   });
 });

@@ -6,7 +6,19 @@
 import type { BoardPartKind } from '@splitscope/contract';
 import type { TemplatePart } from '../sections/types';
 
-const SCALE: [string, number][] = [['meg', 1e6], ['mil', 25.4e-6], ['f', 1e-15], ['p', 1e-12], ['n', 1e-9], ['u', 1e-6], ['µ', 1e-6], ['m', 1e-3], ['k', 1e3], ['g', 1e9], ['t', 1e12]];
+const SCALE: [string, number][] = [
+  ['meg', 1e6],
+  ['mil', 25.4e-6],
+  ['f', 1e-15],
+  ['p', 1e-12],
+  ['n', 1e-9],
+  ['u', 1e-6],
+  ['µ', 1e-6],
+  ['m', 1e-3],
+  ['k', 1e3],
+  ['g', 1e9],
+  ['t', 1e12],
+];
 
 /** A SPICE value token ("2.2k", "100n", "10meg", "1.5e3") as a number (SPICE3 scale suffixes), else undefined. */
 export function spiceValue(token: string | undefined): number | undefined {
@@ -19,7 +31,15 @@ export function spiceValue(token: string | undefined): number | undefined {
 
 /** Engineering notation for a part label: 4700 → "4.7 kΩ", 1e-7 → "100 nF". */
 export function formatValue(v: number, unit: string): string {
-  const steps: [number, string][] = [[1e6, 'M'], [1e3, 'k'], [1, ''], [1e-3, 'm'], [1e-6, 'µ'], [1e-9, 'n'], [1e-12, 'p']];
+  const steps: [number, string][] = [
+    [1e6, 'M'],
+    [1e3, 'k'],
+    [1, ''],
+    [1e-3, 'm'],
+    [1e-6, 'µ'],
+    [1e-9, 'n'],
+    [1e-12, 'p'],
+  ];
   for (const [s, p] of steps) if (Math.abs(v) >= s) return `${Number((v / s).toPrecision(3))} ${p}${unit}`;
   return `${v} ${unit}`;
 }
@@ -37,7 +57,13 @@ function kindOf(name: string, letter: string, value: number | undefined, model: 
 
 function packageOf(kind: BoardPartKind): string {
   const by: Partial<Record<BoardPartKind, string>> = {
-    'electrolytic-capacitor': 'radial-e', 'opto-coupler': 'dip-4', bjt: 'to-92', regulator: 'to-220', diode: 'do-41', led: 'led-3mm', thermistor: 'disc-7',
+    'electrolytic-capacitor': 'radial-e',
+    'opto-coupler': 'dip-4',
+    bjt: 'to-92',
+    regulator: 'to-220',
+    diode: 'do-41',
+    led: 'led-3mm',
+    thermistor: 'disc-7',
   };
   return by[kind] ?? '0805';
 }

@@ -6,7 +6,16 @@
  * cached per model object.
  */
 import {
-  DEFAULT_METER, flatten, measure, MeasurementError, normNode, parseNetlist, stateOf, type Circuit, type MeterMode, type MeterProfile,
+  DEFAULT_METER,
+  flatten,
+  measure,
+  MeasurementError,
+  normNode,
+  parseNetlist,
+  stateOf,
+  type Circuit,
+  type MeterMode,
+  type MeterProfile,
 } from '@splitscope/circuit';
 import type { SourcedBand } from '../sections/bands';
 import { parallelNote, resistorsByNets } from './parallel';
@@ -132,8 +141,16 @@ function reading(circuit: Circuit, a: RowArgs, meter: MeterProfile, band: BandFn
     throw err;
   }
   const base = {
-    id: `${a.tp.id}:${a.mode}`, testPoint: a.tp.id, label: a.tp.label ?? a.tp.id, mode: a.mode, red: a.tp.id, black: a.black, redNet: a.red,
-    power: a.power, lifted: [], unit: r.unit,
+    id: `${a.tp.id}:${a.mode}`,
+    testPoint: a.tp.id,
+    label: a.tp.label ?? a.tp.id,
+    mode: a.mode,
+    red: a.tp.id,
+    black: a.black,
+    redNet: a.red,
+    power: a.power,
+    lifted: [],
+    unit: r.unit,
   };
   if (a.mode === 'continuity') return { ...base, expected: r.beep === true, low: null, high: null };
   if (r.value === 'OL') return { ...base, expected: 'OL', low: null, high: null };

@@ -12,15 +12,27 @@ describe('parallel resistors', () => {
   });
 
   it('a pair across the probes gets the parallel note; other paths that pull it further are named', () => {
-    const by = new Map([[pairKey('vsp', '0'), [{ name: 'R405', ohms: 12e3 }, { name: 'R406', ohms: 6.8e3 }]]]);
-    expect(parallelNote(by, '0', 'vsp', 4340)).toBe('reads 12k ∥ 6.8k ≈ 4.34 kΩ in circuit: parallel path through R405 and R406. Lift one end to read a single part.');
+    const by = new Map([
+      [
+        pairKey('vsp', '0'),
+        [
+          { name: 'R405', ohms: 12e3 },
+          { name: 'R406', ohms: 6.8e3 },
+        ],
+      ],
+    ]);
+    expect(parallelNote(by, '0', 'vsp', 4340)).toBe(
+      'reads 12k ∥ 6.8k ≈ 4.34 kΩ in circuit: parallel path through R405 and R406. Lift one end to read a single part.',
+    );
     expect(parallelNote(by, 'vsp', '0', 2000)).toMatch(/the rest of the board pulls it to 2 kΩ/);
   });
 
   it('one resistor: a note only when the board pulls the reading more than 10 % away', () => {
     const by = new Map([[pairKey('a', 'b'), [{ name: 'R1', ohms: 10e3 }]]]);
     expect(parallelNote(by, 'a', 'b', 9800)).toBeUndefined();
-    expect(parallelNote(by, 'a', 'b', 5000)).toBe('R1 is 10k but reads 5 kΩ in circuit: parallel paths through the rest of the board. Lift one end to read R1 alone.');
+    expect(parallelNote(by, 'a', 'b', 5000)).toBe(
+      'R1 is 10k but reads 5 kΩ in circuit: parallel paths through the rest of the board. Lift one end to read R1 alone.',
+    );
     expect(parallelNote(by, 'a', 'c', 5000)).toBeUndefined();
   });
 });

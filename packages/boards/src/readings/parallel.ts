@@ -38,7 +38,13 @@ export function ohmsText(r: number): string {
 
 export const parallelOf = (rs: readonly number[]) => 1 / rs.reduce((a, r) => a + 1 / r, 0);
 
-const names = (rs: Resistor[]) => (rs.length === 2 ? `${rs[0]!.name} and ${rs[1]!.name}` : `${rs.slice(0, -1).map((r) => r.name).join(', ')} and ${rs.at(-1)!.name}`);
+const names = (rs: Resistor[]) =>
+  rs.length === 2
+    ? `${rs[0]!.name} and ${rs[1]!.name}`
+    : `${rs
+        .slice(0, -1)
+        .map((r) => r.name)
+        .join(', ')} and ${rs.at(-1)!.name}`;
 
 /**
  * The note for an ohm reading between two nets, or undefined when the reading is the plain value of one part.

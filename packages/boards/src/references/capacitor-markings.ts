@@ -11,8 +11,14 @@
 import { MarkingError } from './markings';
 
 const TOLERANCE_LETTER: Record<string, { relative?: number; absolutePf?: number; asymmetric?: [number, number] }> = {
-  B: { absolutePf: 0.1 }, C: { absolutePf: 0.25 }, D: { absolutePf: 0.5 },
-  F: { relative: 0.01 }, G: { relative: 0.02 }, J: { relative: 0.05 }, K: { relative: 0.1 }, M: { relative: 0.2 },
+  B: { absolutePf: 0.1 },
+  C: { absolutePf: 0.25 },
+  D: { absolutePf: 0.5 },
+  F: { relative: 0.01 },
+  G: { relative: 0.02 },
+  J: { relative: 0.05 },
+  K: { relative: 0.1 },
+  M: { relative: 0.2 },
   Z: { asymmetric: [-0.2, 0.8] },
 };
 

@@ -35,7 +35,12 @@ export function decodeMarking(kind: MarkedKind, marking: string): DecodedMarking
   }
   if (kind === 'ceramic-capacitor') {
     const c = decodeCeramicCode(text);
-    return { nominal: c.farads, ...(c.tolerance !== undefined ? { tolerance: c.tolerance } : {}), ...(c.volts ? { volts: c.volts } : {}), how: 'capacitor code in pF (IEC 60062)' };
+    return {
+      nominal: c.farads,
+      ...(c.tolerance !== undefined ? { tolerance: c.tolerance } : {}),
+      ...(c.volts ? { volts: c.volts } : {}),
+      how: 'capacitor code in pF (IEC 60062)',
+    };
   }
   const e = decodeElectrolyticRating(text);
   return { nominal: e.farads, volts: e.volts, how: 'sleeve rating' };
@@ -43,7 +48,15 @@ export function decodeMarking(kind: MarkedKind, marking: string): DecodedMarking
 
 /** A value in SI units with its prefix, as a part list prints it: 4700 Ω → "4.7 kΩ", 1e-7 F → "100 nF". */
 export function formatSi(v: number, unit: string): string {
-  const steps: [number, string][] = [[1e6, 'M'], [1e3, 'k'], [1, ''], [1e-3, 'm'], [1e-6, 'µ'], [1e-9, 'n'], [1e-12, 'p']];
+  const steps: [number, string][] = [
+    [1e6, 'M'],
+    [1e3, 'k'],
+    [1, ''],
+    [1e-3, 'm'],
+    [1e-6, 'µ'],
+    [1e-9, 'n'],
+    [1e-12, 'p'],
+  ];
   const [scale, prefix] = steps.find(([s]) => Math.abs(v) >= s * 0.9999) ?? steps[steps.length - 1]!;
   return `${Number((v / scale).toPrecision(3))} ${prefix}${unit}`;
 }

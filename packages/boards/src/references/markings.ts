@@ -13,11 +13,32 @@ export type Colour = (typeof COLOURS)[number];
 
 const DIGIT: Partial<Record<Colour, number>> = { black: 0, brown: 1, red: 2, orange: 3, yellow: 4, green: 5, blue: 6, violet: 7, grey: 8, white: 9 };
 const MULTIPLIER_EXP: Partial<Record<Colour, number>> = {
-  pink: -3, silver: -2, gold: -1, black: 0, brown: 1, red: 2, orange: 3, yellow: 4, green: 5, blue: 6, violet: 7, grey: 8, white: 9,
+  pink: -3,
+  silver: -2,
+  gold: -1,
+  black: 0,
+  brown: 1,
+  red: 2,
+  orange: 3,
+  yellow: 4,
+  green: 5,
+  blue: 6,
+  violet: 7,
+  grey: 8,
+  white: 9,
 };
 /** Tolerance as a fraction. */
 const TOLERANCE: Partial<Record<Colour, number>> = {
-  brown: 0.01, red: 0.02, orange: 0.0005, yellow: 0.0002, green: 0.005, blue: 0.0025, violet: 0.001, gold: 0.05, silver: 0.1, none: 0.2,
+  brown: 0.01,
+  red: 0.02,
+  orange: 0.0005,
+  yellow: 0.0002,
+  green: 0.005,
+  blue: 0.0025,
+  violet: 0.001,
+  gold: 0.05,
+  silver: 0.1,
+  none: 0.2,
 };
 /** Temperature coefficient, ppm/K. */
 const TEMPCO: Partial<Record<Colour, number>> = { black: 250, brown: 100, red: 50, orange: 15, yellow: 25, green: 20, blue: 10, violet: 5, grey: 1 };
@@ -101,7 +122,18 @@ export function colourBandsFor(ohms: number, tolerance = 0.05): Colour[] {
 }
 
 export const EIA96_MULTIPLIER: Record<string, number> = {
-  Z: 0.001, Y: 0.01, R: 0.01, X: 0.1, S: 0.1, A: 1, B: 10, H: 10, C: 100, D: 1e3, E: 1e4, F: 1e5,
+  Z: 0.001,
+  Y: 0.01,
+  R: 0.01,
+  X: 0.1,
+  S: 0.1,
+  A: 1,
+  B: 10,
+  H: 10,
+  C: 100,
+  D: 1e3,
+  E: 1e4,
+  F: 1e5,
 };
 
 export interface SmdCode {
@@ -119,7 +151,11 @@ export function decodeSmdCode(code: string): SmdCode {
   if (eia) {
     const idx = Number(eia[1]);
     if (idx < 1 || idx > 96) throw new MarkingError(`EIA-96 code ${idx} out of range 01–96`);
-    return { ohms: Number(((E96[idx - 1] as number) * (EIA96_MULTIPLIER[eia[2] as string] as number)).toPrecision(6)), system: 'EIA-96', typicalTolerance: 0.01 };
+    return {
+      ohms: Number(((E96[idx - 1] as number) * (EIA96_MULTIPLIER[eia[2] as string] as number)).toPrecision(6)),
+      system: 'EIA-96',
+      typicalTolerance: 0.01,
+    };
   }
   if (/^\d*R\d*$/.test(c) && c.length >= 2 && c.length <= 4 && c !== 'R') {
     return { ohms: Number(c.replace('R', '.')), system: 'R-notation', typicalTolerance: c.length === 4 ? 0.01 : 0.05 };

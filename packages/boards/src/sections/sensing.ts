@@ -14,10 +14,15 @@ export function ntcResistance(r25: number, beta: number, celsius: number): numbe
 }
 
 export const thermistorSense: SectionTemplate = (ctx) => {
-  const b = ctx.base, s = ctx.id;
-  const vcc = net(ctx, 'coldVcc', 'vcc5_c'), gc = net(ctx, 'coldGnd', 'gnd_c');
-  const th = net(ctx, 'sensor', `${s}_th`), adc = net(ctx, 'mcuInput', `${s}_adc`);
-  const r25 = num(ctx, 'r25', 10e3), beta = num(ctx, 'beta', 3950), celsius = num(ctx, 'celsius', 25);
+  const b = ctx.base,
+    s = ctx.id;
+  const vcc = net(ctx, 'coldVcc', 'vcc5_c'),
+    gc = net(ctx, 'coldGnd', 'gnd_c');
+  const th = net(ctx, 'sensor', `${s}_th`),
+    adc = net(ctx, 'mcuInput', `${s}_adc`);
+  const r25 = num(ctx, 'r25', 10e3),
+    beta = num(ctx, 'beta', 3950),
+    celsius = num(ctx, 'celsius', 25);
   const pull = num(ctx, 'pullUpOhms', 10e3);
   const rows: [TemplatePart, string][] = [
     R(`R${b + 1}`, vcc, th, pull, `${pull / 1e3}k 1%`, 0.01, '0805'),
@@ -28,13 +33,17 @@ export const thermistorSense: SectionTemplate = (ctx) => {
   const { parts, lines } = collect(rows);
   const rt = ntcResistance(r25, beta, celsius);
   return {
-    template: 'thermistor-sense', title: 'Thermistor input', side: 'cold', touchesBus: false,
+    template: 'thermistor-sense',
+    title: 'Thermistor input',
+    side: 'cold',
+    touchesBus: false,
     netlist: [
       `* ${s}: NTC sensor on a lead (${(r25 / 1e3).toPrecision(3)}k at 25 °C, β ${beta} K) at ${celsius} °C = ${rt.toPrecision(4)} Ω, pull-up to the 5 V rail`,
       `RSENS${b + 1} ${th} ${gc} ${rt.toPrecision(6)}`,
       ...lines,
     ].join('\n'),
-    parts, params: {},
+    parts,
+    params: {},
     nets: [
       { name: th, label: 'Thermistor divider', side: 'cold', reference: gc },
       { name: adc, label: 'Thermistor ADC input', side: 'cold', reference: gc },

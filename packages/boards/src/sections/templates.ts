@@ -20,29 +20,79 @@ export const dcBus: SectionTemplate = (ctx) => {
   const bleed = num(ctx, 'bleederOhms', 150e3);
   const rms = num(ctx, 'mainsRms', 230);
   const tol = num(ctx, 'mainsTolerance', 0.1);
-  const acl = `${s}_acl`, acn = `${s}_acn`, bl = `${s}_l`, bn = `${s}_n`, mid = `${s}_mid`;
+  const acl = `${s}_acl`,
+    acn = `${s}_acn`,
+    bl = `${s}_l`,
+    bn = `${s}_n`,
+    mid = `${s}_mid`;
   const rows: [TemplatePart, string][] = [
-    [mk(`F${b + 1}`, `RF${b + 1}`, 'fuse', 'T3.15A 250V', 0.05, undefined, 'fuse-5x20', [['1', acl], ['2', bl]]), `RF${b + 1} ${acl} ${bl} 0.05`],
-    [mk(`TH${b + 1}`, `RTH${b + 1}`, 'thermistor', 'NTC 10R', 10, 0.2, 'disc-7', [['1', acn], ['2', bn]]), `RTH${b + 1} ${acn} ${bn} 10`],
-    [mk(`D${b + 1}`, `D${b + 1}`, 'diode', '1 A 1000 V rectifier', undefined, undefined, 'do-41', [['A', bl], ['K', vbus]]), `D${b + 1} ${bl} ${vbus} DRECT`],
-    [mk(`D${b + 2}`, `D${b + 2}`, 'diode', '1 A 1000 V rectifier', undefined, undefined, 'do-41', [['A', bn], ['K', vbus]]), `D${b + 2} ${bn} ${vbus} DRECT`],
-    [mk(`D${b + 3}`, `D${b + 3}`, 'diode', '1 A 1000 V rectifier', undefined, undefined, 'do-41', [['A', gnd], ['K', bl]]), `D${b + 3} ${gnd} ${bl} DRECT`],
-    [mk(`D${b + 4}`, `D${b + 4}`, 'diode', '1 A 1000 V rectifier', undefined, undefined, 'do-41', [['A', gnd], ['K', bn]]), `D${b + 4} ${gnd} ${bn} DRECT`],
+    [
+      mk(`F${b + 1}`, `RF${b + 1}`, 'fuse', 'T3.15A 250V', 0.05, undefined, 'fuse-5x20', [
+        ['1', acl],
+        ['2', bl],
+      ]),
+      `RF${b + 1} ${acl} ${bl} 0.05`,
+    ],
+    [
+      mk(`TH${b + 1}`, `RTH${b + 1}`, 'thermistor', 'NTC 10R', 10, 0.2, 'disc-7', [
+        ['1', acn],
+        ['2', bn],
+      ]),
+      `RTH${b + 1} ${acn} ${bn} 10`,
+    ],
+    [
+      mk(`D${b + 1}`, `D${b + 1}`, 'diode', '1 A 1000 V rectifier', undefined, undefined, 'do-41', [
+        ['A', bl],
+        ['K', vbus],
+      ]),
+      `D${b + 1} ${bl} ${vbus} DRECT`,
+    ],
+    [
+      mk(`D${b + 2}`, `D${b + 2}`, 'diode', '1 A 1000 V rectifier', undefined, undefined, 'do-41', [
+        ['A', bn],
+        ['K', vbus],
+      ]),
+      `D${b + 2} ${bn} ${vbus} DRECT`,
+    ],
+    [
+      mk(`D${b + 3}`, `D${b + 3}`, 'diode', '1 A 1000 V rectifier', undefined, undefined, 'do-41', [
+        ['A', gnd],
+        ['K', bl],
+      ]),
+      `D${b + 3} ${gnd} ${bl} DRECT`,
+    ],
+    [
+      mk(`D${b + 4}`, `D${b + 4}`, 'diode', '1 A 1000 V rectifier', undefined, undefined, 'do-41', [
+        ['A', gnd],
+        ['K', bn],
+      ]),
+      `D${b + 4} ${gnd} ${bn} DRECT`,
+    ],
     C(`C${b + 1}`, vbus, gnd, cap, `${Math.round(cap * 1e6)}µ 400V`, true),
-    [mk(`C${b + 2}`, `C${b + 2}`, 'film-capacitor', '100n 630V', 100e-9, 0.1, 'film-box', [['1', vbus], ['2', gnd]]), `C${b + 2} ${vbus} ${gnd} 100n`],
+    [
+      mk(`C${b + 2}`, `C${b + 2}`, 'film-capacitor', '100n 630V', 100e-9, 0.1, 'film-box', [
+        ['1', vbus],
+        ['2', gnd],
+      ]),
+      `C${b + 2} ${vbus} ${gnd} 100n`,
+    ],
     R(`R${b + 1}`, vbus, mid, bleed, `${bleed / 1e3}k 1W`, 0.05, 'axial-0414'),
     R(`R${b + 2}`, mid, gnd, bleed, `${bleed / 1e3}k 1W`, 0.05, 'axial-0414'),
   ];
   const { parts, lines } = collect(rows);
   const vpk = Math.SQRT2 * rms;
   return {
-    template: 'dc-bus', title: 'DC bus', side: 'hot', touchesBus: true,
+    template: 'dc-bus',
+    title: 'DC bus',
+    side: 'hot',
+    touchesBus: true,
     netlist: [
       `* ${s}: DC bus — mains (${rms} V rms) as its DC peak equivalent √2·Vrms = ${vpk.toFixed(1)} V through the bridge`,
       `VAC${b + 1} ${acl} ${acn} {sqrt(2)*MAINS_RMS}`,
       ...lines,
     ].join('\n'),
-    parts, params: { MAINS_RMS: rms },
+    parts,
+    params: { MAINS_RMS: rms },
     nets: [
       { name: vbus, label: 'DC bus +', side: 'hot', reference: gnd },
       { name: acl, label: 'Mains L (after CN)', side: 'hot', reference: gnd },
@@ -51,7 +101,11 @@ export const dcBus: SectionTemplate = (ctx) => {
     ],
     testPoints: [
       {
-        label: 'DC bus + (bulk capacitor)', net: vbus, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'],
+        label: 'DC bus + (bulk capacitor)',
+        net: vbus,
+        reference: gnd,
+        powerStates: ['on', 'off'],
+        modes: ['dcv', 'ohm', 'diode'],
         band: busBand(rms, tol),
       },
       { label: 'Bleeder midpoint', net: mid, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm'] },
@@ -67,32 +121,59 @@ export const regulator15: SectionTemplate = (ctx) => regulator(ctx, 15);
 export const regulator5: SectionTemplate = (ctx) => regulator(ctx, 5);
 
 function regulator(ctx: SectionContext, vout: 15 | 5): SectionOutput {
-  const b = ctx.base, s = ctx.id;
+  const b = ctx.base,
+    s = ctx.id;
   const cold = vout === 5;
   const gnd = net(ctx, 'gnd', cold ? 'gnd_c' : '0');
   const out = net(ctx, 'out', cold ? 'vcc5_c' : 'v15');
-  const aux = `${s}_aux`, vin = `${s}_vin`, led = `${s}_led`;
+  const aux = `${s}_aux`,
+    vin = `${s}_vin`,
+    led = `${s}_led`;
   const auxParam = cold ? 'AUX5_V' : 'AUX15_V';
   const auxV = num(ctx, 'auxVolts', cold ? 9 : 19);
   const rows: [TemplatePart, string][] = [
-    [mk(`D${b + 1}`, `D${b + 1}`, 'diode', 'fast rectifier', undefined, undefined, 'do-41', [['A', aux], ['K', vin]]), `D${b + 1} ${aux} ${vin} DSIG`],
+    [
+      mk(`D${b + 1}`, `D${b + 1}`, 'diode', 'fast rectifier', undefined, undefined, 'do-41', [
+        ['A', aux],
+        ['K', vin],
+      ]),
+      `D${b + 1} ${aux} ${vin} DSIG`,
+    ],
     C(`C${b + 1}`, vin, gnd, cold ? 220e-6 : 100e-6, cold ? '220µ 25V' : '100µ 35V', true),
     C(`C${b + 2}`, vin, gnd, 330e-9, '330n', false),
-    [mk(`U${b + 1}`, `XU${b + 1}`, 'regulator', `78${String(vout).padStart(2, '0')} ${vout} V regulator`, vout, 0.04, 'to-220', [['1', vin], ['2', gnd], ['3', out]]),
-      `XU${b + 1} ${vin} ${out} ${gnd} REG78${String(vout).padStart(2, '0')}`],
+    [
+      mk(`U${b + 1}`, `XU${b + 1}`, 'regulator', `78${String(vout).padStart(2, '0')} ${vout} V regulator`, vout, 0.04, 'to-220', [
+        ['1', vin],
+        ['2', gnd],
+        ['3', out],
+      ]),
+      `XU${b + 1} ${vin} ${out} ${gnd} REG78${String(vout).padStart(2, '0')}`,
+    ],
     C(`C${b + 3}`, out, gnd, 100e-9, '100n', false),
     C(`C${b + 4}`, out, gnd, 47e-6, cold ? '47µ 16V' : '47µ 25V', true),
     R(`R${b + 1}`, out, led, cold ? 1e3 : 3.3e3, cold ? '1k' : '3k3'),
-    [mk(`LED${b + 1}`, `DLED${b + 1}`, 'led', 'red LED', undefined, undefined, 'led-3mm', [['A', led], ['K', gnd]]), `DLED${b + 1} ${led} ${gnd} DLED_R`],
+    [
+      mk(`LED${b + 1}`, `DLED${b + 1}`, 'led', 'red LED', undefined, undefined, 'led-3mm', [
+        ['A', led],
+        ['K', gnd],
+      ]),
+      `DLED${b + 1} ${led} ${gnd} DLED_R`,
+    ],
   ];
   const { parts, lines } = collect(rows);
   const inBand = cold ? REG5_INPUT : REG15_INPUT;
   return {
     template: cold ? 'regulator-5v' : 'regulator-15v',
     title: cold ? '5 V regulator (microcontroller supply)' : '15 V regulator (motor control supply)',
-    side: cold ? 'cold' : 'hot', touchesBus: false,
-    netlist: [`* ${s}: ${vout} V 78xx regulator from the auxiliary winding (${auxV} V DC equivalent)`, `VAUX${b + 1} ${aux} ${gnd} {${auxParam}}`, ...lines].join('\n'),
-    parts, params: { [auxParam]: auxV },
+    side: cold ? 'cold' : 'hot',
+    touchesBus: false,
+    netlist: [
+      `* ${s}: ${vout} V 78xx regulator from the auxiliary winding (${auxV} V DC equivalent)`,
+      `VAUX${b + 1} ${aux} ${gnd} {${auxParam}}`,
+      ...lines,
+    ].join('\n'),
+    parts,
+    params: { [auxParam]: auxV },
     nets: [
       { name: aux, label: `Aux winding ${cold ? '(cold)' : '(hot)'}`, side: cold ? 'cold' : 'hot', reference: gnd },
       { name: vin, label: `${vout} V regulator input`, side: cold ? 'cold' : 'hot', reference: gnd },
@@ -100,7 +181,14 @@ function regulator(ctx: SectionContext, vout: 15 | 5): SectionOutput {
     ],
     testPoints: [
       { label: `U${b + 1} input`, net: vin, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'], band: inBand },
-      { label: `${vout} V rail (U${b + 1} output)`, net: out, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'], band: cold ? RAIL_5V : RAIL_15V },
+      {
+        label: `${vout} V rail (U${b + 1} output)`,
+        net: out,
+        reference: gnd,
+        powerStates: ['on', 'off'],
+        modes: ['dcv', 'ohm', 'diode'],
+        band: cold ? RAIL_5V : RAIL_15V,
+      },
     ],
     externals: [{ element: `VAUX${b + 1}`, description: 'Auxiliary winding of the switch-mode supply (rectified DC equivalent)' }],
     uses: ['DSIG', 'DLED_R', cold ? 'REG7805' : 'REG7815'],
@@ -109,17 +197,33 @@ function regulator(ctx: SectionContext, vout: 15 | 5): SectionOutput {
 
 /** 3. High-side PNP switch for the motor's 15 V supply, opto-driven, with a second opto reporting the rail. */
 export const fanSwitch: SectionTemplate = (ctx) => {
-  const b = ctx.base, s = ctx.id;
-  const v15 = net(ctx, 'in', 'v15'), sw = net(ctx, 'out', 'v15sw'), gnd = net(ctx, 'hotGnd', '0');
-  const gc = net(ctx, 'coldGnd', 'gnd_c'), vcc = net(ctx, 'coldVcc', 'vcc5_c');
-  const drv = net(ctx, 'mcuDrive', `${s}_mcu_on`), fbk = net(ctx, 'mcuSense', `${s}_mcu_sense`);
-  const la = `${s}_la`, oc = `${s}_oc`, base = `${s}_b`, fa = `${s}_fa`, fc = `${s}_fc`;
+  const b = ctx.base,
+    s = ctx.id;
+  const v15 = net(ctx, 'in', 'v15'),
+    sw = net(ctx, 'out', 'v15sw'),
+    gnd = net(ctx, 'hotGnd', '0');
+  const gc = net(ctx, 'coldGnd', 'gnd_c'),
+    vcc = net(ctx, 'coldVcc', 'vcc5_c');
+  const drv = net(ctx, 'mcuDrive', `${s}_mcu_on`),
+    fbk = net(ctx, 'mcuSense', `${s}_mcu_sense`);
+  const la = `${s}_la`,
+    oc = `${s}_oc`,
+    base = `${s}_b`,
+    fa = `${s}_fa`,
+    fc = `${s}_fc`;
   const rows: [TemplatePart, string][] = [
     R(`R${b + 1}`, drv, la, 330, '330R'),
     OPTO(`PC${b + 1}`, la, gc, oc, gnd),
     R(`R${b + 2}`, oc, base, 4.7e3, '4k7'),
     R(`R${b + 3}`, v15, base, 10e3, '10k'),
-    [mk(`Q${b + 1}`, `Q${b + 1}`, 'bjt', 'PNP 0.5 A', undefined, undefined, 'to-92', [['E', v15], ['B', base], ['C', sw]]), `Q${b + 1} ${sw} ${base} ${v15} QPNP`],
+    [
+      mk(`Q${b + 1}`, `Q${b + 1}`, 'bjt', 'PNP 0.5 A', undefined, undefined, 'to-92', [
+        ['E', v15],
+        ['B', base],
+        ['C', sw],
+      ]),
+      `Q${b + 1} ${sw} ${base} ${v15} QPNP`,
+    ],
     C(`C${b + 1}`, sw, gnd, 100e-9, '100n', false),
     C(`C${b + 2}`, sw, gnd, 47e-6, '47µ 25V', true),
     R(`R${b + 4}`, sw, fa, 3.3e3, '3k3'),
@@ -130,10 +234,17 @@ export const fanSwitch: SectionTemplate = (ctx) => {
   ];
   const { parts, lines } = collect(rows);
   return {
-    template: 'fan-switch', title: 'Fan 15 V high-side switch', side: 'hot', touchesBus: false,
-    netlist: [`* ${s}: high-side PNP switch, opto-driven from the MCU (FAN_ON), rail reported back by a second opto`,
-      `VMCU${b + 1} ${drv} ${gc} {5*FAN_ON}`, ...lines].join('\n'),
-    parts, params: { FAN_ON: 1 },
+    template: 'fan-switch',
+    title: 'Fan 15 V high-side switch',
+    side: 'hot',
+    touchesBus: false,
+    netlist: [
+      `* ${s}: high-side PNP switch, opto-driven from the MCU (FAN_ON), rail reported back by a second opto`,
+      `VMCU${b + 1} ${drv} ${gc} {5*FAN_ON}`,
+      ...lines,
+    ].join('\n'),
+    parts,
+    params: { FAN_ON: 1 },
     nets: [
       { name: sw, label: 'Switched 15 V (motor Vcc)', side: 'hot', reference: gnd },
       { name: base, label: `Q${b + 1} base`, side: 'hot', reference: gnd },
@@ -143,8 +254,7 @@ export const fanSwitch: SectionTemplate = (ctx) => {
       { name: fc, label: `PC${b + 2} collector (rail sense to MCU)`, side: 'cold', reference: gc },
     ],
     testPoints: [
-      { label: 'Switched 15 V rail (motor Vcc)', net: sw, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'],
-        band: SWITCHED_15V },
+      { label: 'Switched 15 V rail (motor Vcc)', net: sw, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'], band: SWITCHED_15V },
       { label: `Q${b + 1} base`, net: base, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'] },
       { label: `PC${b + 1} LED anode (MCU side)`, net: la, reference: gc, powerStates: ['on', 'off'], modes: ['dcv', 'diode'] },
       { label: 'Rail sense to MCU', net: fc, reference: gc, powerStates: ['on', 'off'], modes: ['dcv', 'ohm'] },
@@ -156,10 +266,17 @@ export const fanSwitch: SectionTemplate = (ctx) => {
 
 /** 4. Opto-isolated speed command: PWM duty → opto current → PNP stage → motor speed-command voltage. */
 export const speedCommand: SectionTemplate = (ctx) => {
-  const b = ctx.base, s = ctx.id;
-  const sup = net(ctx, 'supply', 'v15sw'), gnd = net(ctx, 'hotGnd', '0'), gc = net(ctx, 'coldGnd', 'gnd_c');
+  const b = ctx.base,
+    s = ctx.id;
+  const sup = net(ctx, 'supply', 'v15sw'),
+    gnd = net(ctx, 'hotGnd', '0'),
+    gc = net(ctx, 'coldGnd', 'gnd_c');
   const vsp = net(ctx, 'out', 'vsp');
-  const pwm = `${s}_pwm`, la = `${s}_la`, oc = `${s}_oc`, base = `${s}_b`, em = `${s}_e`;
+  const pwm = `${s}_pwm`,
+    la = `${s}_la`,
+    oc = `${s}_oc`,
+    base = `${s}_b`,
+    em = `${s}_e`;
   const rLed = 680;
   const ifMax = (5 - 1.2) / rLed; // MCU pin high 5 V, LED VF 1.2 V (PC817 datasheet typical)
   const rows: [TemplatePart, string][] = [
@@ -168,19 +285,39 @@ export const speedCommand: SectionTemplate = (ctx) => {
     R(`R${b + 2}`, sup, em, 4.7e3, '4k7'),
     R(`R${b + 3}`, sup, base, 1e3, '1k'),
     R(`R${b + 4}`, base, oc, 470, '470R'),
-    [mk(`Q${b + 1}`, `Q${b + 1}`, 'bjt', 'PNP small-signal', undefined, undefined, 'to-92', [['E', em], ['B', base], ['C', vsp]]), `Q${b + 1} ${vsp} ${base} ${em} QPNP`],
+    [
+      mk(`Q${b + 1}`, `Q${b + 1}`, 'bjt', 'PNP small-signal', undefined, undefined, 'to-92', [
+        ['E', em],
+        ['B', base],
+        ['C', vsp],
+      ]),
+      `Q${b + 1} ${vsp} ${base} ${em} QPNP`,
+    ],
     R(`R${b + 5}`, vsp, gnd, 12e3, '12k'),
     R(`R${b + 6}`, vsp, gnd, 6.8e3, '6k8'),
     C(`C${b + 1}`, vsp, gnd, 1e-6, '1µ', false),
     C(`C${b + 2}`, base, sup, 10e-9, '10n', false),
-    [mk(`ZD${b + 1}`, `DZ${b + 1}`, 'zener', '8V2 zener', 8.2, 0.05, 'do-35', [['A', gnd], ['K', vsp]]), `DZ${b + 1} ${gnd} ${vsp} DZ8V2`],
+    [
+      mk(`ZD${b + 1}`, `DZ${b + 1}`, 'zener', '8V2 zener', 8.2, 0.05, 'do-35', [
+        ['A', gnd],
+        ['K', vsp],
+      ]),
+      `DZ${b + 1} ${gnd} ${vsp} DZ8V2`,
+    ],
   ];
   const { parts, lines } = collect(rows);
   return {
-    template: 'speed-command', title: 'Speed command (Vsp)', side: 'hot', touchesBus: false,
-    netlist: [`* ${s}: speed command — MCU PWM averaged: LED current = DUTY·(5 V − VF)/R${b + 1} (common practice)`,
-      `IMCU${b + 1} ${gc} ${pwm} {DUTY*${ifMax.toPrecision(6)}}`, ...lines].join('\n'),
-    parts, params: { DUTY: 0.6 },
+    template: 'speed-command',
+    title: 'Speed command (Vsp)',
+    side: 'hot',
+    touchesBus: false,
+    netlist: [
+      `* ${s}: speed command — MCU PWM averaged: LED current = DUTY·(5 V − VF)/R${b + 1} (common practice)`,
+      `IMCU${b + 1} ${gc} ${pwm} {DUTY*${ifMax.toPrecision(6)}}`,
+      ...lines,
+    ].join('\n'),
+    parts,
+    params: { DUTY: 0.6 },
     nets: [
       { name: vsp, label: 'Speed command Vsp', side: 'hot', reference: gnd },
       { name: base, label: `Q${b + 1} base`, side: 'hot', reference: gnd },
@@ -188,8 +325,7 @@ export const speedCommand: SectionTemplate = (ctx) => {
       { name: la, label: `PC${b + 1} LED anode (PWM)`, side: 'cold', reference: gc },
     ],
     testPoints: [
-      { label: 'Speed command Vsp', net: vsp, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'],
-        band: SPEED_COMMAND },
+      { label: 'Speed command Vsp', net: vsp, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm', 'diode'], band: SPEED_COMMAND },
       { label: `PC${b + 1} collector`, net: oc, reference: gnd, powerStates: ['on', 'off'], modes: ['dcv', 'ohm'] },
       { label: `PC${b + 1} LED anode (MCU PWM side)`, net: la, reference: gc, powerStates: ['on', 'off'], modes: ['dcv', 'diode'] },
     ],
@@ -200,15 +336,27 @@ export const speedCommand: SectionTemplate = (ctx) => {
 
 /** 5. Speed feedback: the motor's FG output, pull-up, opto back to the MCU. RPM = 60·f/PPR. */
 export const speedFeedback: SectionTemplate = (ctx) => {
-  const b = ctx.base, s = ctx.id;
-  const sup = net(ctx, 'supply', 'v15sw'), gnd = net(ctx, 'hotGnd', '0'), gc = net(ctx, 'coldGnd', 'gnd_c');
-  const vcc = net(ctx, 'coldVcc', 'vcc5_c'), fg = net(ctx, 'fg', 'fg');
-  const a = `${s}_a`, oc = `${s}_oc`, mcu = net(ctx, 'mcuInput', `${s}_mcu_fg`);
+  const b = ctx.base,
+    s = ctx.id;
+  const sup = net(ctx, 'supply', 'v15sw'),
+    gnd = net(ctx, 'hotGnd', '0'),
+    gc = net(ctx, 'coldGnd', 'gnd_c');
+  const vcc = net(ctx, 'coldVcc', 'vcc5_c'),
+    fg = net(ctx, 'fg', 'fg');
+  const a = `${s}_a`,
+    oc = `${s}_oc`,
+    mcu = net(ctx, 'mcuInput', `${s}_mcu_fg`);
   const rows: [TemplatePart, string][] = [
     R(`R${b + 1}`, sup, a, 4.7e3, '4k7'),
     R(`R${b + 2}`, a, fg, 10e3, '10k'),
     OPTO(`PC${b + 1}`, a, fg, oc, gc),
-    [mk(`D${b + 1}`, `D${b + 1}`, 'diode', 'small-signal diode', undefined, undefined, 'do-35', [['A', fg], ['K', a]]), `D${b + 1} ${fg} ${a} DSIG`],
+    [
+      mk(`D${b + 1}`, `D${b + 1}`, 'diode', 'small-signal diode', undefined, undefined, 'do-35', [
+        ['A', fg],
+        ['K', a],
+      ]),
+      `D${b + 1} ${fg} ${a} DSIG`,
+    ],
     R(`R${b + 3}`, vcc, oc, 10e3, '10k'),
     C(`C${b + 1}`, oc, gc, 1e-9, '1n', false),
     R(`R${b + 4}`, oc, mcu, 1e3, '1k'),
@@ -216,9 +364,17 @@ export const speedFeedback: SectionTemplate = (ctx) => {
   const { parts, lines } = collect(rows);
   const ppr = num(ctx, 'pulsesPerRevolution', 4);
   return {
-    template: 'speed-feedback', title: 'Speed feedback (FG)', side: 'hot', touchesBus: false,
-    netlist: [`* ${s}: speed feedback — motor FG open-collector output (FG_LOW = 1: output transistor on) through an opto to the MCU`,
-      `VMFG${b + 1} ${s}_mfg_d ${gnd} {5*FG_LOW}`, `RMFG${b + 1} ${s}_mfg_d ${s}_mfg_b 10k`, `QMFG${b + 1} ${fg} ${s}_mfg_b ${gnd} QNPN`, ...lines].join('\n'),
+    template: 'speed-feedback',
+    title: 'Speed feedback (FG)',
+    side: 'hot',
+    touchesBus: false,
+    netlist: [
+      `* ${s}: speed feedback — motor FG open-collector output (FG_LOW = 1: output transistor on) through an opto to the MCU`,
+      `VMFG${b + 1} ${s}_mfg_d ${gnd} {5*FG_LOW}`,
+      `RMFG${b + 1} ${s}_mfg_d ${s}_mfg_b 10k`,
+      `QMFG${b + 1} ${fg} ${s}_mfg_b ${gnd} QNPN`,
+      ...lines,
+    ].join('\n'),
     parts: parts.map((p) => (p.designator === `PC${b + 1}` ? { ...p, params: { ...p.params, pulsesPerRevolution: ppr } } : p)),
     params: { FG_LOW: 1 },
     nets: [

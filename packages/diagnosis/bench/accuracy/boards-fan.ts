@@ -19,8 +19,18 @@ ${speedCommand(p.DUTY ?? 0.5, 'la5')}
 ${feedback('vf')}
 .end`,
   testPoints: [
-    tp('TP1', 'v15'), tp('TP2', 'vf'), tp('TP3', 'b4'), tp('TP4', 'oc'), tp('TP5', 'la', 'gc'), tp('TP6', 'vcc', 'gc'),
-    tp('TP7', 'pc'), tp('TP8', 'vsp'), tp('TP9', 'la5', 'gc'), tp('TP10', 'fa'), tp('TP11', 'fo', 'gc'), tp('TP12', 'fin', 'gc'),
+    tp('TP1', 'v15'),
+    tp('TP2', 'vf'),
+    tp('TP3', 'b4'),
+    tp('TP4', 'oc'),
+    tp('TP5', 'la', 'gc'),
+    tp('TP6', 'vcc', 'gc'),
+    tp('TP7', 'pc'),
+    tp('TP8', 'vsp'),
+    tp('TP9', 'la5', 'gc'),
+    tp('TP10', 'fa'),
+    tp('TP11', 'fo', 'gc'),
+    tp('TP12', 'fin', 'gc'),
     tp('CN4-1', 's15'),
   ],
 };

@@ -26,11 +26,18 @@ export function engineMeter(style: MeterStyle = 'constant-current'): MeterProfil
     });
   }
   const ranges: MeterRange[] = METER.ohm.map((r) => ({
-    full: r.full, resolution: r.resolution, accuracy: accuracy(r), source: { kind: 'current', current: r.current!, compliance: clampAt(r.current!) },
+    full: r.full,
+    resolution: r.resolution,
+    accuracy: accuracy(r),
+    source: { kind: 'current', current: r.current!, compliance: clampAt(r.current!) },
   }));
   const lowest = at(METER.ohm, 0);
   return meterProfile({
-    dcv: { inputResistance: METER.dcvInput, ranges: METER.dcv.map((r) => ({ full: r.full, resolution: r.resolution, accuracy: accuracy(r) })), accuracy: accuracy(at(METER.dcv, 0)) },
+    dcv: {
+      inputResistance: METER.dcvInput,
+      ranges: METER.dcv.map((r) => ({ full: r.full, resolution: r.resolution, accuracy: accuracy(r) })),
+      accuracy: accuracy(at(METER.dcv, 0)),
+    },
     ohm: { overRange: at(METER.ohm, METER.ohm.length - 1).full, ranges, accuracy: accuracy(lowest) },
     diode: {
       overRange: METER.diode.full,

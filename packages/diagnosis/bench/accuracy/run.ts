@@ -45,12 +45,21 @@ const confidentWrong = (r: CaseResult) => r.topProbability >= CONFIDENT && r.ran
 
 const cols = ['case', 'true fault', 'engine top answer', 'p', 'rank', 'part rank', 'rounds', 'repeats', 'errors', 'end', 'unexpl.', 'ok'];
 const rows = results.map((r) => [
-  r.id, r.truth, r.top, r.topProbability.toFixed(2), r.rank ? String(r.rank) : '—', r.partRank ? String(r.partRank) : '—',
-  String(r.rounds), String(r.repeats), String(r.engineErrors.length + (r.groundTruthError ? 1 : 0)), r.end, r.unexplained ? 'yes' : '', passed(r) ? 'yes' : 'NO',
+  r.id,
+  r.truth,
+  r.top,
+  r.topProbability.toFixed(2),
+  r.rank ? String(r.rank) : '—',
+  r.partRank ? String(r.partRank) : '—',
+  String(r.rounds),
+  String(r.repeats),
+  String(r.engineErrors.length + (r.groundTruthError ? 1 : 0)),
+  r.end,
+  r.unexplained ? 'yes' : '',
+  passed(r) ? 'yes' : 'NO',
 ]);
 const width = cols.map((c, i) => Math.min(48, Math.max(c.length, ...rows.map((r) => at(r, i).length))));
-const line = (cells: string[]) =>
-  cells.map((c, i) => (c.length > at(width, i) ? `${c.slice(0, at(width, i) - 1)}…` : c.padEnd(at(width, i)))).join('  ');
+const line = (cells: string[]) => cells.map((c, i) => (c.length > at(width, i) ? `${c.slice(0, at(width, i) - 1)}…` : c.padEnd(at(width, i)))).join('  ');
 console.log(`\nSplitscope accuracy bench — seed ${seed}, ${meter} meter, ${cases.length} cases, confident at ≥ ${CONFIDENT}`);
 console.log(line(cols));
 console.log(width.map((w) => '-'.repeat(w)).join('  '));

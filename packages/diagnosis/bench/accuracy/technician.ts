@@ -72,13 +72,36 @@ export async function runCase(c: BenchCase, seed = 'bench-1', meter: MeterStyle 
   const params = { ...c.board.defaults, ...c.params };
   const noise = new Noise(`${seed}/${c.id}`);
   const result: CaseResult = {
-    id: c.id, truth: c.faults.length ? c.faults.map((f) => f.words).join(' + ') : 'no fault', top: '-', topProbability: 0, rank: 0, partRank: 0, rounds: 0,
-    repeats: 0, engineErrors: [], end: 'error', readings: [], seconds: 0, engineSeconds: 0, outOfBand: 0, minimalDiagnoses: 0, verdicts: [], leaders: [],
+    id: c.id,
+    truth: c.faults.length ? c.faults.map((f) => f.words).join(' + ') : 'no fault',
+    top: '-',
+    topProbability: 0,
+    rank: 0,
+    partRank: 0,
+    rounds: 0,
+    repeats: 0,
+    engineErrors: [],
+    end: 'error',
+    readings: [],
+    seconds: 0,
+    engineSeconds: 0,
+    outOfBand: 0,
+    minimalDiagnoses: 0,
+    verdicts: [],
+    leaders: [],
   };
   const taken = new Set<string>();
   const take = async (p: Probe) => {
     const r = await readMeter(c.board, params, c.faults, p, noise, meter);
-    result.readings.push({ mode: p.mode, red: p.red, black: p.black, power: p.power, ...(p.lifted?.length ? { lifted: [...p.lifted] } : {}), value: r.value, ideal: r.ideal });
+    result.readings.push({
+      mode: p.mode,
+      red: p.red,
+      black: p.black,
+      power: p.power,
+      ...(p.lifted?.length ? { lifted: [...p.lifted] } : {}),
+      value: r.value,
+      ideal: r.ideal,
+    });
     taken.add(key(p));
   };
   try {
@@ -152,7 +175,8 @@ function score(r: CaseResult, out: DiagnosisOutput, c: BenchCase) {
     // ngspice solved every deck of this bench: a healthy reading the engine cannot compute is a solver failure
     // (DC V on the mains input excepted: the engine leaves it unscored on purpose).
     const mains = reading?.mode === 'dcv' && c.board.acMains?.some((n) => n === reading.red || n === reading.black);
-    if (reading && x.expected === null && !mains) error(`could not compute the healthy ${reading.mode} ${reading.red}–${reading.black} (${reading.power}) that ngspice solves`);
+    if (reading && x.expected === null && !mains)
+      error(`could not compute the healthy ${reading.mode} ${reading.red}–${reading.black} (${reading.power}) that ngspice solves`);
   }
   r.unexplained = out.unexplained?.message;
   r.rank = out.candidates.findIndex((x) => matches(x.faults, truth)) + 1;

@@ -192,12 +192,17 @@ export function extendByConflicts(input: ConflictInput, options: ConflictOptions
     const pb = heaviest(b.s).perReading;
     return pa.every((x, r) => Math.abs(x - (pb[r] as number)) < TWIN_NATS);
   };
-  const strong = generated.filter((g) => heaviest(g.s).bad.length === 0).sort((a, b) => b.logPost - a.logPost).slice(0, nTriples);
+  const strong = generated
+    .filter((g) => heaviest(g.s).bad.length === 0)
+    .sort((a, b) => b.logPost - a.logPost)
+    .slice(0, nTriples);
   for (const g of strong) {
     for (let k = 0; k < g.members.length; k++) {
       const m = singleOf.get(g.members[k] as ModeChoice);
       if (!m) continue;
-      const twins = input.singles.filter((x) => x !== m && x.ch.ref.mode === m.ch.ref.mode && !g.members.some((y) => y.ref.part === x.ch.ref.part) && sameEvidence(m, x));
+      const twins = input.singles.filter(
+        (x) => x !== m && x.ch.ref.mode === m.ch.ref.mode && !g.members.some((y) => y.ref.part === x.ch.ref.part) && sameEvidence(m, x),
+      );
       for (const t of twins.slice(0, 2 * TWINS)) {
         const members = g.members.map((y, j) => (j === k ? t.ch : y));
         const sc = tryScore(members.map((y) => (invisible(y) || y === t.ch ? y : trunc(y, points))));

@@ -14,4 +14,13 @@ export {
 } from './engine.js';
 export { extendByConflicts, SUPPORT_LLR, type ConflictOptions } from './conflicts.js';
 export { rankTests, testEntropy, activeSet, type ProbeOptions, type TestScore, type ActiveCandidate } from './probe.js';
-export { adjustComponents, adjustedChoices, oddsUpdate, MAX_FAULT_SUM, PriorAdjustmentError, type PriorAdjustment, type PriorChange, type PriorStep } from './priors.js';
+export {
+  adjustComponents,
+  adjustedChoices,
+  oddsUpdate,
+  MAX_FAULT_SUM,
+  PriorAdjustmentError,
+  type PriorAdjustment,
+  type PriorChange,
+  type PriorStep,
+} from './priors.js';

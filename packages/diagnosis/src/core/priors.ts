@@ -63,15 +63,20 @@ function checkAdjustment(a: PriorAdjustment, i: number, components: ReadonlyMap<
   if (!c) throw new PriorAdjustmentError(`prior adjustment ${i}: unknown part ${a.part}`);
   if (a.mode !== undefined && !c.modes.some((m) => m.name === a.mode)) throw new PriorAdjustmentError(`prior adjustment ${i}: ${a.part} has no mode ${a.mode}`);
   if ((a.factor === undefined) === (a.prior === undefined)) throw new PriorAdjustmentError(`prior adjustment ${i}: give exactly one of factor or prior`);
-  if (a.factor !== undefined && !(Number.isFinite(a.factor) && a.factor > 0)) throw new PriorAdjustmentError(`prior adjustment ${i}: factor must be a positive number`);
-  if (a.prior !== undefined && !(Number.isFinite(a.prior) && a.prior >= 0 && a.prior < 1)) throw new PriorAdjustmentError(`prior adjustment ${i}: prior must be in [0, 1)`);
+  if (a.factor !== undefined && !(Number.isFinite(a.factor) && a.factor > 0))
+    throw new PriorAdjustmentError(`prior adjustment ${i}: factor must be a positive number`);
+  if (a.prior !== undefined && !(Number.isFinite(a.prior) && a.prior >= 0 && a.prior < 1))
+    throw new PriorAdjustmentError(`prior adjustment ${i}: prior must be in [0, 1)`);
 }
 
 /** p after a likelihood ratio f on its odds. */
 export const oddsUpdate = (p: number, f: number): number => (p <= 0 ? 0 : (f * p) / (1 - p + f * p));
 
 /** The components with their adjusted mode priors (untouched components are the same objects) and the changes. */
-export function adjustComponents(components: readonly Component[], adjustments: readonly PriorAdjustment[]): { components: Component[]; changes: PriorChange[] } {
+export function adjustComponents(
+  components: readonly Component[],
+  adjustments: readonly PriorAdjustment[],
+): { components: Component[]; changes: PriorChange[] } {
   const byName = new Map(components.map((c) => [c.name, c]));
   adjustments.forEach((a, i) => checkAdjustment(a, i, byName));
   const touched = new Map<string, Map<string, PriorChange>>();
@@ -87,7 +92,14 @@ export function adjustComponents(components: readonly Component[], adjustments: 
       const before = ch.after;
       const after = a.prior !== undefined ? a.prior : oddsUpdate(before, a.factor as number);
       ch.after = after;
-      ch.steps.push({ source: a.source, ...(a.note ? { note: a.note } : {}), ...(a.factor !== undefined ? { factor: a.factor } : {}), ...(a.prior !== undefined ? { prior: a.prior } : {}), before, after });
+      ch.steps.push({
+        source: a.source,
+        ...(a.note ? { note: a.note } : {}),
+        ...(a.factor !== undefined ? { factor: a.factor } : {}),
+        ...(a.prior !== undefined ? { prior: a.prior } : {}),
+        before,
+        after,
+      });
     }
   }
   const changes: PriorChange[] = [];
@@ -109,7 +121,11 @@ const MEMO_PER_MODEL = 16;
  * The model's mode choices under the adjustments: the unadjusted choices (the same objects, so the engine's
  * memos keep hitting) for untouched parts, new ones for adjusted parts. Memoised per model and adjustment set.
  */
-export function adjustedChoices(model: { components: readonly Component[] }, base: readonly ModeChoice[], adjustments: readonly PriorAdjustment[]): { choices: ModeChoice[]; changes: PriorChange[] } {
+export function adjustedChoices(
+  model: { components: readonly Component[] },
+  base: readonly ModeChoice[],
+  adjustments: readonly PriorAdjustment[],
+): { choices: ModeChoice[]; changes: PriorChange[] } {
   if (adjustments.length === 0) return { choices: [...base], changes: [] };
   const key = JSON.stringify(adjustments.map((a) => [a.part, a.mode ?? '', a.factor ?? null, a.prior ?? null, a.source, a.note ?? '']));
   let perModel = memo.get(model);

@@ -184,7 +184,7 @@ function isRecord(x: unknown): x is Record<string, unknown> {
   return typeof x === 'object' && x !== null && !Array.isArray(x);
 }
 
-const show = (v: unknown) => (typeof v === 'string' ? `"${v}"` : JSON.stringify(v) ?? String(v));
+const show = (v: unknown) => (typeof v === 'string' ? `"${v}"` : (JSON.stringify(v) ?? String(v)));
 
 /** Structural check of a case (no netlist knowledge). Throws CaseError. */
 export function validateCaseShape(input: unknown): DiagnosisCase {
@@ -192,16 +192,19 @@ export function validateCaseShape(input: unknown): DiagnosisCase {
   if (typeof input.netlist !== 'string' || input.netlist.trim() === '') throw new CaseError('netlist: must be the SPICE text');
   if (input.params !== undefined) {
     if (!isRecord(input.params)) throw new CaseError('params: must be an object of numbers');
-    for (const [k, v] of Object.entries(input.params)) if (typeof v !== 'number' || !Number.isFinite(v)) throw new CaseError(`params.${k}: must be a number, got ${show(v)}`);
+    for (const [k, v] of Object.entries(input.params))
+      if (typeof v !== 'number' || !Number.isFinite(v)) throw new CaseError(`params.${k}: must be a number, got ${show(v)}`);
   }
   if (input.parts !== undefined) {
     if (!isRecord(input.parts)) throw new CaseError('parts: must be an object keyed by part name');
     for (const [k, v] of Object.entries(input.parts)) {
       if (!isRecord(v)) throw new CaseError(`parts.${k}: must be an object`);
-      if (v.kind !== undefined && !PART_KINDS.includes(v.kind as PartKind)) throw new CaseError(`parts.${k}: unknown kind ${show(v.kind)} (${PART_KINDS.join(', ')})`);
+      if (v.kind !== undefined && !PART_KINDS.includes(v.kind as PartKind))
+        throw new CaseError(`parts.${k}: unknown kind ${show(v.kind)} (${PART_KINDS.join(', ')})`);
       if (v.priors !== undefined) {
         if (!isRecord(v.priors)) throw new CaseError(`parts.${k}.priors: must be an object of numbers`);
-        for (const [m, p] of Object.entries(v.priors)) if (typeof p !== 'number' || !(p >= 0 && p < 1)) throw new CaseError(`parts.${k}.priors.${m}: must be a number in [0, 1), got ${show(p)}`);
+        for (const [m, p] of Object.entries(v.priors))
+          if (typeof p !== 'number' || !(p >= 0 && p < 1)) throw new CaseError(`parts.${k}.priors.${m}: must be a number in [0, 1), got ${show(p)}`);
       }
     }
   }
@@ -229,8 +232,10 @@ export function checkReadingShape(r: unknown, i: number): asserts r is CaseReadi
   if (typeof r.black !== 'string' || r.black === '') throw new CaseError(`${at}: black must be a net name`);
   if (r.power !== 'on' && r.power !== 'off') throw new CaseError(`${at}: power must be "on" or "off", got ${show(r.power)}`);
   if (mode === 'dcv' && r.power !== 'on') throw new CaseError(`${at}: dcv is read with the board powered (power "on"), not "off"`);
-  if (mode !== 'dcv' && r.power !== 'off') throw new CaseError(`${at}: ${mode} is read with the board unplugged and the bus discharged (power "off"), not "on"`);
-  if (r.lifted !== undefined && (!Array.isArray(r.lifted) || r.lifted.some((p) => typeof p !== 'string'))) throw new CaseError(`${at}: lifted must be a list of part names`);
+  if (mode !== 'dcv' && r.power !== 'off')
+    throw new CaseError(`${at}: ${mode} is read with the board unplugged and the bus discharged (power "off"), not "on"`);
+  if (r.lifted !== undefined && (!Array.isArray(r.lifted) || r.lifted.some((p) => typeof p !== 'string')))
+    throw new CaseError(`${at}: lifted must be a list of part names`);
   if (r.alone !== undefined && (typeof r.alone !== 'string' || r.alone === '')) throw new CaseError(`${at}: alone must be the name of a lifted part`);
   const v = r.value;
   if (mode === 'continuity') {
@@ -243,4 +248,3 @@ export function checkReadingShape(r: unknown, i: number): asserts r is CaseReadi
     throw new CaseError(`${at}: a resistance cannot be negative (${v})`);
   }
 }
-

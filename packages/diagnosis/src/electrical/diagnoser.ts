@@ -84,7 +84,16 @@ export class Diagnoser {
       const part = this.model.partsByName.get(raw.name);
       if (!part) return [];
       const sub = raw.letter === 'X' ? Object.values(netlist.subckts).find((x) => x.name.toLowerCase() === raw.model?.toLowerCase()) : undefined;
-      return [{ part, designator: designator(raw.name), letter: raw.letter, nodes: raw.nodes.map(normNode), ports: sub?.ports, value: valueOf.get(raw.name.toLowerCase()) }];
+      return [
+        {
+          part,
+          designator: designator(raw.name),
+          letter: raw.letter,
+          nodes: raw.nodes.map(normNode),
+          ports: sub?.ports,
+          value: valueOf.get(raw.name.toLowerCase()),
+        },
+      ];
     });
     const connectors: ConnectorInput[] = (board.connectors ?? []).map((c) => ({ ...c, pins: c.pins.map((p) => ({ ...p, net: normNode(p.net) })) }));
     const points = (this.testPoints ?? []).map((tp) => ({ ...tp }));
@@ -171,10 +180,21 @@ export class Diagnoser {
       (groups[g] as (typeof groups)[number]).values.push(o.value);
       return g;
     });
-    const gobs: Observation<ElectricalTest, ObservedValue>[] = groups.map((g) => ({ test: g.test, value: g.values.length === 1 ? (g.values[0] as ReadingValue) : { repeats: g.values } }));
+    const gobs: Observation<ElectricalTest, ObservedValue>[] = groups.map((g) => ({
+      test: g.test,
+      value: g.values.length === 1 ? (g.values[0] as ReadingValue) : { repeats: g.values },
+    }));
     let post: ReturnType<typeof diagnose>;
     try {
-      post = diagnose(model, gobs, { pairTopK: options.pairTopK ?? 12, priors: [...this.historyPriors(model, options), ...this.resolvePriors(options.priors ?? []), ...this.referencePriors(model, obs, options)] }, cache);
+      post = diagnose(
+        model,
+        gobs,
+        {
+          pairTopK: options.pairTopK ?? 12,
+          priors: [...this.historyPriors(model, options), ...this.resolvePriors(options.priors ?? []), ...this.referencePriors(model, obs, options)],
+        },
+        cache,
+      );
     } catch (err) {
       if (err instanceof PriorAdjustmentError) throw new CaseError(err.message);
       throw err;
@@ -186,10 +206,16 @@ export class Diagnoser {
       const hazard = this.hazardOf(model, o.test);
       const base = { index, function: METER_FUNCTION[o.test.mode], probes, ...(hazard ? { hazard } : {}) };
       const first = (groups[groupOf[index] as number] as (typeof groups)[number]).first;
-      const repeat = first !== index ? { repeatOf: first, note: `repeats reading ${first + 1}: the same quantity, counted once (the readings are averaged)` } : {};
+      const repeat =
+        first !== index ? { repeatOf: first, note: `repeats reading ${first + 1}: the same quantity, counted once (the readings are averaged)` } : {};
       if (!isPredicted(healthy)) return { ...base, expected: null, verdict: 'ok' as const, ...repeat, note: unpredictedNote(healthy) };
       const band = bandOf(o.test.mode, healthy, model.meter);
-      const rep: ReadingReport = { ...base, expected: typeof band.expected === 'number' ? sig(band.expected) : band.expected, verdict: verdictOf(o.test.mode, o.value, band), ...repeat };
+      const rep: ReadingReport = {
+        ...base,
+        expected: typeof band.expected === 'number' ? sig(band.expected) : band.expected,
+        verdict: verdictOf(o.test.mode, o.value, band),
+        ...repeat,
+      };
       if (band.low !== undefined) rep.low = sig(band.low);
       if (band.high !== undefined) rep.high = sig(band.high);
       return rep;
@@ -253,7 +279,8 @@ export class Diagnoser {
     const count = (n: number) => (Math.abs(n - Math.round(n)) < 0.05 ? String(Math.round(n)) : `about ${n.toFixed(1)}`);
     return historyAdjustments(model.parts, options.history, (key) => this.partNamed(key), {
       board: (part, mode, n, jobs) => `${faultWords(model, names, part, mode).text}: ${count(n)} of the last ${jobs} verified boards of this model`,
-      kind: (part, mode, kind, n, jobs) => `${faultWords(model, names, part, mode).words} on ${kind.replace(/-/g, ' ')}s of the shop's other models: ${count(n)} of ${jobs} verified boards`,
+      kind: (part, mode, kind, n, jobs) =>
+        `${faultWords(model, names, part, mode).words} on ${kind.replace(/-/g, ' ')}s of the shop's other models: ${count(n)} of ${jobs} verified boards`,
     });
   }
 
@@ -312,7 +339,14 @@ export class Diagnoser {
       (t) => (options.confirm || !taken.has(testKey(t))) && isPredicted(model.healthyPrediction(t)),
     );
     const hazards = new Map(tests.map((t) => [t, this.hazardOf(model, t)]));
-    const ranked = rankTests(model, post, tests, (t) => testCost(t, cur, hazards.get(t)), { maxCandidates: options.probeCandidates ?? 30, comboCutoff: 0.02, maxCombos: 3 }, cache);
+    const ranked = rankTests(
+      model,
+      post,
+      tests,
+      (t) => testCost(t, cur, hazards.get(t)),
+      { maxCandidates: options.probeCandidates ?? 30, comboCutoff: 0.02, maxCombos: 3 },
+      cache,
+    );
     const names = this.names;
     return ranked.slice(0, options.nextTests ?? 10).map((r) => {
       const hazard = hazards.get(r.test);
@@ -352,7 +386,14 @@ export function createDiagnoser(board: BoardInput): Diagnoser {
 /** Validate a case and diagnose it in one call. Throws CaseError on a bad case. */
 export function diagnoseCase(caseInput: unknown, options: UpdateOptions = {}): DiagnosisOutput {
   const c = validateCaseShape(caseInput);
-  const d = new Diagnoser({ netlist: c.netlist, params: c.params, parts: c.parts, testPoints: c.testPoints, connectors: c.connectors, meter: options.meter ?? c.meter });
+  const d = new Diagnoser({
+    netlist: c.netlist,
+    params: c.params,
+    parts: c.parts,
+    testPoints: c.testPoints,
+    connectors: c.connectors,
+    meter: options.meter ?? c.meter,
+  });
   return d.update(c.readings, options);
 }
 

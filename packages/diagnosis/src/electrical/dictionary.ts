@@ -50,7 +50,9 @@ const LIFTED_KINDS = new Set(['ceramic-capacitor', 'electrolytic-capacitor', 'di
 export function dictionaryTests(d: Diagnoser): ElectricalTest[] {
   const points = d.testPoints ?? [];
   const railNets = new Set(points.map((p) => p.net));
-  const lift: PartNets[] = d.model.parts.filter((p) => LIFTED_KINDS.has(p.kind) && p.nets.some((n) => railNets.has(n))).map((p) => ({ name: p.name, nets: p.nets }));
+  const lift: PartNets[] = d.model.parts
+    .filter((p) => LIFTED_KINDS.has(p.kind) && p.nets.some((n) => railNets.has(n)))
+    .map((p) => ({ name: p.name, nets: p.nets }));
   const tests = candidateTests({ points, cur: { power: 'off', lifted: [] }, liftParts: lift });
   return tests.filter((t) => d.model.nets.has(t.red) && d.model.nets.has(t.black));
 }

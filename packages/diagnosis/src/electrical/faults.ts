@@ -53,7 +53,6 @@ export interface ElectricalPart {
   modes: ElectricalMode[];
 }
 
-
 function findSubckt(netlist: Netlist, name: string | undefined): SubcktDef | undefined {
   if (!name) return undefined;
   return netlist.subckts[name.toLowerCase()] ?? Object.values(netlist.subckts).find((s) => s.name.toLowerCase() === name.toLowerCase());
@@ -154,7 +153,13 @@ export function buildParts(netlist: Netlist, circuit: Circuit, overrides: Record
         });
         part.ports = ports;
         part.modes = part.modes.filter((m) =>
-          m.action === 'out-short' ? ports.out && ports.gnd : m.action === 'in-out-short' ? ports.in && ports.out : m.action === 'current-limit' ? ports.out : true,
+          m.action === 'out-short'
+            ? ports.out && ports.gnd
+            : m.action === 'in-out-short'
+              ? ports.in && ports.out
+              : m.action === 'current-limit'
+                ? ports.out
+                : true,
         );
       } else {
         part.modes = part.modes.filter((m) => m.action === 'dead');
@@ -277,7 +282,9 @@ export function applyFaults(circuit: Circuit, faults: readonly SubFault[], parts
       const set = new Set(part.elements);
       if (!out || !elements.some((e) => set.has(e.name.toLowerCase()))) continue; // lifted
       const inner = `${part.name.toLowerCase()}#out`;
-      elements = elements.map((e) => (set.has(e.name.toLowerCase()) && e.nodes.includes(out) ? ({ ...e, nodes: e.nodes.map((n) => (n === out ? inner : n)) } as Element) : e));
+      elements = elements.map((e) =>
+        set.has(e.name.toLowerCase()) && e.nodes.includes(out) ? ({ ...e, nodes: e.nodes.map((n) => (n === out ? inner : n)) } as Element) : e,
+      );
       added.push(res(tag, part.name, inner, out, v));
       continue;
     }

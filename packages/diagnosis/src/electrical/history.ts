@@ -81,7 +81,12 @@ export interface HistoryWords {
  * Prior adjustments from the history: kind factors first (source "history-kind"), then this model's own history
  * as replacement priors (source "history"). `resolve` maps a count's key to the part's netlist name.
  */
-export function historyAdjustments(parts: readonly ElectricalPart[], h: FailureHistory, resolve: (key: string) => string | undefined, words: HistoryWords): PriorAdjustment[] {
+export function historyAdjustments(
+  parts: readonly ElectricalPart[],
+  h: FailureHistory,
+  resolve: (key: string) => string | undefined,
+  words: HistoryWords,
+): PriorAdjustment[] {
   const out: PriorAdjustment[] = [];
   const priors = new Map<string, number>();
   for (const p of parts) for (const m of p.modes) priors.set(`${p.name}\u0000${m.name}`, m.prior);
@@ -99,7 +104,8 @@ export function historyAdjustments(parts: readonly ElectricalPart[], h: FailureH
     for (const f of h.kinds.failures) {
       for (const [k, c] of cats) {
         const [kind, mode] = k.split('\u0000') as [string, string];
-        if (kind === f.key && (f.mode === undefined || f.mode === mode)) c.n += f.mode === undefined ? f.count / [...cats.keys()].filter((x) => x.startsWith(`${kind}\u0000`)).length : f.count;
+        if (kind === f.key && (f.mode === undefined || f.mode === mode))
+          c.n += f.mode === undefined ? f.count / [...cats.keys()].filter((x) => x.startsWith(`${kind}\u0000`)).length : f.count;
       }
     }
     for (const [k, f] of factors(cats, h.kindWeight ?? KIND_WEIGHT)) {
@@ -123,7 +129,12 @@ export function historyAdjustments(parts: readonly ElectricalPart[], h: FailureH
       for (const [mode, c] of spread(part, f.mode, f.count, priors)) n.set(`${part.name}\u0000${mode}`, (n.get(`${part.name}\u0000${mode}`) ?? 0) + c);
     }
     const cats = new Map<string, Category>();
-    for (const p of parts) for (const m of p.modes) cats.set(`${p.name}\u0000${m.name}`, { members: [{ part: p.name, mode: m.name, prior: priors.get(`${p.name}\u0000${m.name}`) ?? m.prior }], n: n.get(`${p.name}\u0000${m.name}`) ?? 0 });
+    for (const p of parts)
+      for (const m of p.modes)
+        cats.set(`${p.name}\u0000${m.name}`, {
+          members: [{ part: p.name, mode: m.name, prior: priors.get(`${p.name}\u0000${m.name}`) ?? m.prior }],
+          n: n.get(`${p.name}\u0000${m.name}`) ?? 0,
+        });
     const fs = factors(cats, h.weight ?? HISTORY_WEIGHT);
     // Every mode moves (the ones that failed up, the others down a little); only the failed ones carry words.
     for (const [k, f] of fs) {

@@ -21,17 +21,7 @@
  */
 
 export type PartKind =
-  | 'resistor'
-  | 'ceramic-capacitor'
-  | 'electrolytic-capacitor'
-  | 'inductor'
-  | 'diode'
-  | 'led'
-  | 'bjt'
-  | 'opto-coupler'
-  | 'regulator'
-  | 'subcircuit'
-  | 'source';
+  'resistor' | 'ceramic-capacitor' | 'electrolytic-capacitor' | 'inductor' | 'diode' | 'led' | 'bjt' | 'opto-coupler' | 'regulator' | 'subcircuit' | 'source';
 
 export const PART_KINDS: readonly PartKind[] = [
   'resistor',

@@ -64,7 +64,13 @@ export type NetNamer = (net: string) => ProbePoint;
 
 function namerOf(points: readonly TestPoint[] | NetNamer): NetNamer {
   if (typeof points === 'function') return points;
-  return (net) => probePoint(net, points.map((p) => ({ ...p, net: p.net.toLowerCase() })), [], []);
+  return (net) =>
+    probePoint(
+      net,
+      points.map((p) => ({ ...p, net: p.net.toLowerCase() })),
+      [],
+      [],
+    );
 }
 
 const said = (p: ProbePoint) => (p.description ? `${p.label} (${p.description})` : p.label);
@@ -92,7 +98,8 @@ export function instruction(t: ElectricalTest, cur: BenchState, points: readonly
   }
   const probe = `put the red probe on ${said(name(t.red))} and the black on ${name(t.black).label} and ${READ[t.mode]}`;
   const s = steps.length > 0 ? `${steps.join(', ')}, then ${probe}` : probe;
-  const warn = t.power !== 'on' ? '' : hazard ? ` (${hazard === 'mains' ? 'mains' : 'DC bus'} live: see the caution)` : ' (board live: keep one hand away from the bus)';
+  const warn =
+    t.power !== 'on' ? '' : hazard ? ` (${hazard === 'mains' ? 'mains' : 'DC bus'} live: see the caution)` : ' (board live: keep one hand away from the bus)';
   return s.charAt(0).toUpperCase() + s.slice(1) + warn;
 }
 
@@ -101,11 +108,7 @@ export interface PartNets {
   nets: readonly string[];
 }
 
-export function candidateTests(opts: {
-  points: readonly TestPoint[];
-  cur: BenchState;
-  liftParts: readonly PartNets[];
-}): ElectricalTest[] {
+export function candidateTests(opts: { points: readonly TestPoint[]; cur: BenchState; liftParts: readonly PartNets[] }): ElectricalTest[] {
   const out = new Map<string, ElectricalTest>();
   const add = (t: ElectricalTest) => {
     if (t.red === t.black) return;

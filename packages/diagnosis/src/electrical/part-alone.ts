@@ -18,7 +18,11 @@ import type { ElectricalModel, ElectricalTest } from './model.js';
 import type { MeterMode, Prediction } from './noise.js';
 
 /** Why a reading cannot be a part measured on its own pins, or null when it can (the diagnoser's case check). */
-export function partAloneRefusal(test: Pick<ElectricalTest, 'mode' | 'red' | 'black' | 'power' | 'lifted'>, part: string, nets: readonly string[]): string | null {
+export function partAloneRefusal(
+  test: Pick<ElectricalTest, 'mode' | 'red' | 'black' | 'power' | 'lifted'>,
+  part: string,
+  nets: readonly string[],
+): string | null {
   if (test.power !== 'off' || test.mode === 'dcv') return `${part} is measured on its own pins unpowered (Ω, diode or continuity), not with DC V`;
   if (!test.lifted.some((p) => p.toLowerCase() === part.toLowerCase())) return `${part} is measured on its own pins only when it is lifted`;
   if (test.red === test.black) return `the probes are on the same pin of ${part}`;
@@ -40,7 +44,12 @@ export function partAloneCircuit(circuit: Circuit, part: string): Circuit {
 }
 
 /** The reading of the part alone under some faults (only the part's own faults change it). */
-export function partAlonePrediction(model: ElectricalModel, part: string, probe: { mode: MeterMode; red: string; black: string }, faults: readonly SubFault[] = []): Prediction {
+export function partAlonePrediction(
+  model: ElectricalModel,
+  part: string,
+  probe: { mode: MeterMode; red: string; black: string },
+  faults: readonly SubFault[] = [],
+): Prediction {
   const own = faults.filter((f) => f.component.toLowerCase() === part.toLowerCase());
   const c = applyFaults(partAloneCircuit(model.circuit, part), own, model.partsByName);
   try {

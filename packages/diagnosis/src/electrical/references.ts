@@ -38,12 +38,15 @@ export function referenceAdjustments(
   for (const o of obs) {
     if (o.test.lifted.length > 0 || typeof o.value !== 'number') continue;
     if (isPredicted(model.healthyPrediction(o.test))) continue;
-    const band = bands.find((b) => b.mode === o.test.mode && b.power === o.test.power && b.red.toLowerCase() === o.test.red && b.black.toLowerCase() === o.test.black);
+    const band = bands.find(
+      (b) => b.mode === o.test.mode && b.power === o.test.power && b.red.toLowerCase() === o.test.red && b.black.toLowerCase() === o.test.black,
+    );
     if (!band || band.boards < MIN_REFERENCE_BOARDS || o.value < band.low || o.value > band.high) continue;
     // Ground touches nearly every part: only the probed signal nets speak for their parts.
     const parts = new Set([o.test.red, o.test.black].filter((n) => n !== '0').flatMap((n) => model.partsOn(n)));
     const note = words(o.test, o.value, band);
-    for (const part of parts) if ((model.partsByName.get(part)?.modes.length ?? 0) > 0) out.push({ part, factor: REFERENCE_OK_FACTOR, source: 'reference', note });
+    for (const part of parts)
+      if ((model.partsByName.get(part)?.modes.length ?? 0) > 0) out.push({ part, factor: REFERENCE_OK_FACTOR, source: 'reference', note });
   }
   return out;
 }

@@ -184,5 +184,10 @@ export function probePoint(
     const pin = c.pins.find((p) => p.net.toLowerCase() === net);
     if (pin) return { label: `${c.name} pin ${pin.pin}`, ...(pin.function ? { description: pin.function } : {}) };
   }
-  return nearestPin(net, parts, net === '0' ? prefer : undefined) ?? { label: net === '0' ? 'ground' : 'an unlabelled point', description: 'no test point or part pin on this net' };
+  return (
+    nearestPin(net, parts, net === '0' ? prefer : undefined) ?? {
+      label: net === '0' ? 'ground' : 'an unlabelled point',
+      description: 'no test point or part pin on this net',
+    }
+  );
 }

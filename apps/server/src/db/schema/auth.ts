@@ -51,15 +51,19 @@ export const authorColumns = () => ({
 });
 
 // lucia's session table: id, user_id, expires_at are the columns its Drizzle adapter expects.
-export const sessions = pgTable('sessions', {
-  id: text('id').primaryKey(),
-  userId: text('user_id')
-    .notNull()
-    .references(() => users.id, { onDelete: 'cascade' }),
-  /** Idle expiry: moved forward while the session is used, never past created_at + the shop's longest lifetime. */
-  expiresAt: timestamp('expires_at', { withTimezone: true, mode: 'date' }).notNull(),
-  createdAt: timestamp('created_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow(),
-}, (t) => [index('sessions_user_idx').on(t.userId)]);
+export const sessions = pgTable(
+  'sessions',
+  {
+    id: text('id').primaryKey(),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    /** Idle expiry: moved forward while the session is used, never past created_at + the shop's longest lifetime. */
+    expiresAt: timestamp('expires_at', { withTimezone: true, mode: 'date' }).notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true, mode: 'date' }).notNull().defaultNow(),
+  },
+  (t) => [index('sessions_user_idx').on(t.userId)],
+);
 
 export const auditLog = pgTable(
   'audit_log',

@@ -19,7 +19,10 @@ export function authRoutes(ctx: AppContext): Router {
   const perAccount = rateLimit({
     ...common,
     limit: ctx.config.LOGIN_RATE_LIMIT,
-    keyGenerator: (req) => String((req.body as { email?: unknown })?.email ?? '').trim().toLowerCase() || 'none',
+    keyGenerator: (req) =>
+      String((req.body as { email?: unknown })?.email ?? '')
+        .trim()
+        .toLowerCase() || 'none',
     handler: tooMany('for this account'),
     validate: { keyGeneratorIpFallback: false },
   });

@@ -57,7 +57,10 @@ export async function changePassword({ db, auth, userId, input }: { db: Db; auth
     throw new AppError('forbidden', 'The current password is wrong', { errors: [{ path: 'currentPassword', message: 'wrong password' }] });
   }
   assertPasswordAllowed(input.newPassword, user.email);
-  await db.update(users).set({ passwordHash: await hashPassword(input.newPassword) }).where(eq(users.id, userId));
+  await db
+    .update(users)
+    .set({ passwordHash: await hashPassword(input.newPassword) })
+    .where(eq(users.id, userId));
   await auth.invalidateUserSessions(userId);
   await audit(db, { shopId: user.shopId, userId, action: 'password-changed', subject: user.email });
   return { cookie: await auth.createSession(userId) };
@@ -77,7 +80,9 @@ export function requestPasswordReset({ db, config, email }: { db: Db; config: Co
     if (!user) return false;
     const token = newToken();
     const now = new Date();
-    await db.insert(passwordResets).values({ id: newId(), userId: user.id, tokenHash: tokenHash(token), createdAt: now, expiresAt: new Date(now.getTime() + RESET_MINUTES * 60_000) });
+    await db
+      .insert(passwordResets)
+      .values({ id: newId(), userId: user.id, tokenHash: tokenHash(token), createdAt: now, expiresAt: new Date(now.getTime() + RESET_MINUTES * 60_000) });
     await audit(db, { shopId: user.shopId, userId: user.id, action: 'password-reset-requested', subject: user.email });
     const content = passwordResetMail(user.shopName, user.name, { url: `${publicBase(config)}/reset-password/${token}`, minutes: RESET_MINUTES });
     await sendMail({ config, db, mail: { shopId: user.shopId, jobId: null, kind: 'password-reset', to: user.email, ...content } });
@@ -105,10 +110,17 @@ export async function confirmPasswordReset({ db, auth, input }: { db: Db; auth: 
       .where(and(eq(passwordResets.tokenHash, hash), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, new Date())))
       .for('update');
     if (!reset) throw new AppError('not_found', 'This reset link is unknown, used or expired; ask for a new one');
-    const [user] = await tx.update(users).set({ passwordHash }).where(and(eq(users.id, reset.userId), isNull(users.deactivatedAt))).returning();
+    const [user] = await tx
+      .update(users)
+      .set({ passwordHash })
+      .where(and(eq(users.id, reset.userId), isNull(users.deactivatedAt)))
+      .returning();
     if (!user) throw new AppError('not_found', 'This reset link is unknown, used or expired; ask for a new one');
     // Every open link of the person ends with this one.
-    await tx.update(passwordResets).set({ usedAt: new Date() }).where(and(eq(passwordResets.userId, reset.userId), isNull(passwordResets.usedAt)));
+    await tx
+      .update(passwordResets)
+      .set({ usedAt: new Date() })
+      .where(and(eq(passwordResets.userId, reset.userId), isNull(passwordResets.usedAt)));
     await tx.insert(auditLog).values({ id: newId(), shopId: user.shopId, userId: user.id, action: 'password-reset', subject: user.email });
     return user.id;
   });

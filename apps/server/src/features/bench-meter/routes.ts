@@ -1,5 +1,17 @@
 import { Router } from 'express';
-import { armBenchMeterRequest, benchMeterArmParams, benchMeterArmSchema, benchMeterNextQuery, benchMeterNextResponse, benchMeterReadingRequest, benchMeterRoles, benchMeterStatusQuery, benchMeterStatusResponse, idParams, type CreateReadingResponse } from '@splitscope/contract';
+import {
+  armBenchMeterRequest,
+  benchMeterArmParams,
+  benchMeterArmSchema,
+  benchMeterNextQuery,
+  benchMeterNextResponse,
+  benchMeterReadingRequest,
+  benchMeterRoles,
+  benchMeterStatusQuery,
+  benchMeterStatusResponse,
+  idParams,
+  type CreateReadingResponse,
+} from '@splitscope/contract';
 import { actorOf, requireRole } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';

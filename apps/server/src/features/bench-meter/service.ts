@@ -51,14 +51,40 @@ const shown = (a: Arm): BenchMeterArm => ({
  * would refuse it for the job or the meter function alone; the rest (guided order, the discharge gate, the value)
  * is judged when the meter answers, by the reading write itself.
  */
-export async function armBenchMeter({ db, desk, actor, jobId, input }: { db: Db; desk: MeterDesk; actor: Actor; jobId: string; input: ArmBenchMeterInput }): Promise<BenchMeterArm> {
+export async function armBenchMeter({
+  db,
+  desk,
+  actor,
+  jobId,
+  input,
+}: {
+  db: Db;
+  desk: MeterDesk;
+  actor: Actor;
+  jobId: string;
+  input: ArmBenchMeterInput;
+}): Promise<BenchMeterArm> {
   const job = await getJobRow(db, actor.shopId, jobId);
   if (!acceptsReadings(job.status, input.phase)) {
-    throw new AppError('conflict', `A ${input.phase} reading is taken while the job is ${statusesTakingReadings(input.phase).join(' or ')}; this job is ${jobStatusLabels[job.status].toLowerCase()}`);
+    throw new AppError(
+      'conflict',
+      `A ${input.phase} reading is taken while the job is ${statusesTakingReadings(input.phase).join(' or ')}; this job is ${jobStatusLabels[job.status].toLowerCase()}`,
+    );
   }
   const why = powerRefusal(input.mode, input.power);
   if (why) throw new AppError('invalid', why, { errors: [{ path: 'power', message: why }] });
-  const arm: Arm = { id: newId(), jobId, userId: actor.id, shopId: actor.shopId, ...input, armedAt: iso(new Date()), state: 'waiting', ready: false, reading: null, refusal: null };
+  const arm: Arm = {
+    id: newId(),
+    jobId,
+    userId: actor.id,
+    shopId: actor.shopId,
+    ...input,
+    armedAt: iso(new Date()),
+    state: 'waiting',
+    ready: false,
+    reading: null,
+    refusal: null,
+  };
   desk.arm(arm);
   void prepareVerdict(db, job.boardVersionId, arm)
     .catch(() => undefined)
@@ -78,7 +104,10 @@ export async function armBenchMeter({ db, desk, actor, jobId, input }: { db: Db;
 async function prepareVerdict(db: Db, versionId: string, arm: Arm): Promise<void> {
   let engine = cachedBoardEngine(versionId);
   if (!engine) {
-    const [v] = await db.select({ document: boardModelVersions.document, expectedReadings: boardModelVersions.expectedReadings }).from(boardModelVersions).where(eq(boardModelVersions.id, versionId));
+    const [v] = await db
+      .select({ document: boardModelVersions.document, expectedReadings: boardModelVersions.expectedReadings })
+      .from(boardModelVersions)
+      .where(eq(boardModelVersions.id, versionId));
     if (!v) return;
     engine = boardEngine(versionId, v.document, v.expectedReadings);
   }
@@ -98,7 +127,23 @@ export async function cancelBenchMeter({ db, desk, actor, jobId }: { db: Db; des
  * (`since`: its id and state) is still as shown, the answer waits up to `wait` ms for it to change: the bench hears
  * of the meter's reading the moment it is stored, not at its next poll.
  */
-export async function benchMeterStatus({ db, desk, actor, jobId, since, waitMs = 0, signal }: { db: Db; desk: MeterDesk; actor: Actor; jobId: string; since?: string; waitMs?: number; signal?: AbortSignal }): Promise<BenchMeterStatus> {
+export async function benchMeterStatus({
+  db,
+  desk,
+  actor,
+  jobId,
+  since,
+  waitMs = 0,
+  signal,
+}: {
+  db: Db;
+  desk: MeterDesk;
+  actor: Actor;
+  jobId: string;
+  since?: string;
+  waitMs?: number;
+  signal?: AbortSignal;
+}): Promise<BenchMeterStatus> {
   await getJobRow(db, actor.shopId, jobId);
   const shownNow = (a: Arm | undefined) => (a ? `${a.id}:${a.state}:${a.ready}` : 'none');
   if (waitMs > 0 && signal && since === shownNow(desk.latestOnJob(actor.id, jobId))) await desk.changed(actor.id, waitMs, signal);
@@ -108,7 +153,21 @@ export async function benchMeterStatus({ db, desk, actor, jobId, since, waitMs =
 }
 
 /** The request the person's bridge is to serve next, in the SCPI commands that set the meter up for it. */
-export async function nextBenchMeterJob({ desk, actor, after, waitMs, instrument, signal }: { desk: MeterDesk; actor: Actor; after?: string; waitMs: number; instrument?: string; signal: AbortSignal }): Promise<BenchMeterJob | null> {
+export async function nextBenchMeterJob({
+  desk,
+  actor,
+  after,
+  waitMs,
+  instrument,
+  signal,
+}: {
+  desk: MeterDesk;
+  actor: Actor;
+  after?: string;
+  waitMs: number;
+  instrument?: string;
+  signal: AbortSignal;
+}): Promise<BenchMeterJob | null> {
   desk.seen(actor.id, instrument ? instrumentName(instrument) : undefined);
   const arm = await desk.next(actor.id, after, waitMs, signal);
   if (!arm) return null;

@@ -31,7 +31,10 @@ export function priceLines(values: readonly BillingLineValues[], rate: number) {
 }
 
 /** Inside the caller's transaction: the next number of the kind, and the priced lines with the money columns. */
-export async function openDocument(tx: Tx, { shopId, kind, lines, rate }: { shopId: string; kind: 'quote' | 'invoice'; lines: readonly BillingLineValues[]; rate: number }) {
+export async function openDocument(
+  tx: Tx,
+  { shopId, kind, lines, rate }: { shopId: string; kind: 'quote' | 'invoice'; lines: readonly BillingLineValues[]; rate: number },
+) {
   const number = await takeNumber(tx, shopId, kind);
   return { number, ...priceLines(lines, rate) };
 }

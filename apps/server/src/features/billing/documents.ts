@@ -65,9 +65,19 @@ export async function findJobQuotes(db: Db, jobId: string): Promise<Quote[]> {
   const lines = await db
     .select()
     .from(quoteLines)
-    .where(inArray(quoteLines.quoteId, rows.map((r) => r.id)))
+    .where(
+      inArray(
+        quoteLines.quoteId,
+        rows.map((r) => r.id),
+      ),
+    )
     .orderBy(asc(quoteLines.position));
-  return rows.map((q) => toQuote(q, lines.filter((l) => l.quoteId === q.id)));
+  return rows.map((q) =>
+    toQuote(
+      q,
+      lines.filter((l) => l.quoteId === q.id),
+    ),
+  );
 }
 
 /** All invoices of a job with their lines, oldest first. */
@@ -77,7 +87,17 @@ export async function findJobInvoices(db: Db, jobId: string): Promise<Invoice[]>
   const lines = await db
     .select()
     .from(invoiceLines)
-    .where(inArray(invoiceLines.invoiceId, rows.map((r) => r.id)))
+    .where(
+      inArray(
+        invoiceLines.invoiceId,
+        rows.map((r) => r.id),
+      ),
+    )
     .orderBy(asc(invoiceLines.position));
-  return rows.map((i) => toInvoice(i, lines.filter((l) => l.invoiceId === i.id)));
+  return rows.map((i) =>
+    toInvoice(
+      i,
+      lines.filter((l) => l.invoiceId === i.id),
+    ),
+  );
 }

@@ -27,15 +27,7 @@ export async function getBillingSettings({ db, shopId }: { db: Db; shopId: strin
   return toSettings(await getSettingsRow(db, shopId));
 }
 
-export async function updateBillingSettings({
-  db,
-  shopId,
-  input,
-}: {
-  db: Db;
-  shopId: string;
-  input: z.output<typeof updateBillingSettingsRequest>;
-}) {
+export async function updateBillingSettings({ db, shopId, input }: { db: Db; shopId: string; input: z.output<typeof updateBillingSettingsRequest> }) {
   const before = await getSettingsRow(db, shopId);
   const notifyOn = input.notifyOn ? [...new Set(input.notifyOn)] : undefined;
   // Milestones switched on now mail only status changes from now on, not the shop's history.

@@ -9,7 +9,11 @@ export function boardHistoryRoutes(ctx: AppContext): Router {
   const r = Router();
   r.get('/board-history', requireRole(...ROLES.everyone), async (req, res) => {
     const q = parse(serialQuery, req.query);
-    res.json(boardHistoryResponse.parse(await findBoardHistory({ db: ctx.db, shopId: actorOf(req).shopId, serial: q.serial || undefined, unitSerial: q.unitSerial || undefined })));
+    res.json(
+      boardHistoryResponse.parse(
+        await findBoardHistory({ db: ctx.db, shopId: actorOf(req).shopId, serial: q.serial || undefined, unitSerial: q.unitSerial || undefined }),
+      ),
+    );
   });
   r.get('/jobs/:id/history', requireRole(...ROLES.everyone), async (req, res) => {
     const { id } = parse(idParams, req.params);

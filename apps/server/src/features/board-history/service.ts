@@ -11,7 +11,12 @@ const same = (column: typeof jobs.serial | typeof jobs.unitSerial, value: string
 /** How many readings of an earlier job the history shows: the verification set and the last diagnosis ones fit. */
 const READINGS_PER_JOB = 40;
 
-async function historyJobs(db: Db, shopId: string, serials: { serial?: string | null; unitSerial?: string | null }, exclude?: { id: string; before: Date }): Promise<HistoryJob[]> {
+async function historyJobs(
+  db: Db,
+  shopId: string,
+  serials: { serial?: string | null; unitSerial?: string | null },
+  exclude?: { id: string; before: Date },
+): Promise<HistoryJob[]> {
   const match: SQL[] = [];
   if (serials.serial) match.push(same(jobs.serial, serials.serial));
   if (serials.unitSerial) match.push(same(jobs.unitSerial, serials.unitSerial));
@@ -37,7 +42,10 @@ async function historyJobs(db: Db, shopId: string, serials: { serial?: string | 
     .orderBy(asc(repairActions.createdAt));
   // Struck readings and readings corrected by a later one are not what the board measured.
   const struck = db.select({ id: readingStrikes.readingId }).from(readingStrikes).where(inArray(readingStrikes.jobId, ids));
-  const corrected = db.select({ id: readings.supersedes }).from(readings).where(and(inArray(readings.jobId, ids), isNotNull(readings.supersedes)));
+  const corrected = db
+    .select({ id: readings.supersedes })
+    .from(readings)
+    .where(and(inArray(readings.jobId, ids), isNotNull(readings.supersedes)));
   const measured = await db
     .select({ r: readings, byName: users.name })
     .from(readings)
@@ -64,7 +72,14 @@ async function historyJobs(db: Db, shopId: string, serials: { serial?: string | 
       closedAt: isoOrNull(j.closedAt),
       repairs: repairs
         .filter(({ r }) => r.jobId === j.id)
-        .map(({ r, byName }) => ({ part: words.designator(r.part), action: r.action, replacementValue: r.replacementValue, marking: r.marking, byName, at: iso(r.createdAt) })),
+        .map(({ r, byName }) => ({
+          part: words.designator(r.part),
+          action: r.action,
+          replacementValue: r.replacementValue,
+          marking: r.marking,
+          byName,
+          at: iso(r.createdAt),
+        })),
       readings: measured
         .filter(({ r }) => r.jobId === j.id)
         .slice(0, READINGS_PER_JOB)
@@ -81,7 +96,17 @@ async function historyJobs(db: Db, shopId: string, serials: { serial?: string | 
 }
 
 /** At intake: the jobs a board (or unit) serial had before, and whether a board received now is a warranty return. */
-export async function findBoardHistory({ db, shopId, serial, unitSerial }: { db: Db; shopId: string; serial?: string; unitSerial?: string }): Promise<BoardHistory> {
+export async function findBoardHistory({
+  db,
+  shopId,
+  serial,
+  unitSerial,
+}: {
+  db: Db;
+  shopId: string;
+  serial?: string;
+  unitSerial?: string;
+}): Promise<BoardHistory> {
   const { warrantyDays } = await getServiceTerms(db, shopId);
   const earlier = await historyJobs(db, shopId, { serial, unitSerial });
   return { warrantyDays, warranty: warrantyReturn(earlier, new Date().toISOString(), warrantyDays), jobs: earlier };

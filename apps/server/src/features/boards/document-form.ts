@@ -54,9 +54,26 @@ export function photoOnlyForm(doc: unknown, board: { key: string; name: string }
   const size = (x: unknown, d: number) => (typeof x === 'number' && x > 0 && x <= 20_000 ? x : d);
   const slug = /^[a-z0-9][a-z0-9-]{0,63}$/.test(board.key) ? board.key : 'board';
   return {
-    schemaVersion: BOARD_MODEL_SCHEMA_VERSION, id: board.key.slice(0, 64) || 'board', slug, name: board.name.slice(0, 200) || 'Board', family: '', maker: '',
-    picture: { ...(typeof pic.uploadId === 'string' ? { uploadId: pic.uploadId } : {}), width: size(pic.width, 1000), height: size(pic.height, 750), units: pic.units === 'mm' ? 'mm' : 'px' },
-    sections: [], netlist: '* stored model awaiting a corrected form\n.end\n', params: {}, parts: [], nets: [], connectors: [],
-    testPoints: Array.isArray(raw.testPoints) ? raw.testPoints.filter(pointOk) : [], faultCodes: [], cautions: [BUS_CAUTION],
+    schemaVersion: BOARD_MODEL_SCHEMA_VERSION,
+    id: board.key.slice(0, 64) || 'board',
+    slug,
+    name: board.name.slice(0, 200) || 'Board',
+    family: '',
+    maker: '',
+    picture: {
+      ...(typeof pic.uploadId === 'string' ? { uploadId: pic.uploadId } : {}),
+      width: size(pic.width, 1000),
+      height: size(pic.height, 750),
+      units: pic.units === 'mm' ? 'mm' : 'px',
+    },
+    sections: [],
+    netlist: '* stored model awaiting a corrected form\n.end\n',
+    params: {},
+    parts: [],
+    nets: [],
+    connectors: [],
+    testPoints: Array.isArray(raw.testPoints) ? raw.testPoints.filter(pointOk) : [],
+    faultCodes: [],
+    cautions: [BUS_CAUTION],
   };
 }

@@ -4,8 +4,29 @@
 // process.
 import { expectedReadings, type BandFn, type ExpectedReadingsInput, type ExpectedReadingsTestPoint } from '@splitscope/boards/readings';
 import { meterProfileById, normNode, refusal, type MeterProfile } from '@splitscope/circuit';
-import { bandOf, CaseError, createDiagnoser, partAloneRefusal, verdictOf, type CasePart, type Diagnoser, type ReadingValue, type TestPoint } from '@splitscope/diagnosis';
-import { boardModelSchema, boardTestPointSchema, unitOf, type BoardModel, type BoardPartKind, type ExpectedReadingRow, type MeterModeName, type MeterProfileId, type PowerState, type ReadingVerdict } from '@splitscope/contract';
+import {
+  bandOf,
+  CaseError,
+  createDiagnoser,
+  partAloneRefusal,
+  verdictOf,
+  type CasePart,
+  type Diagnoser,
+  type ReadingValue,
+  type TestPoint,
+} from '@splitscope/diagnosis';
+import {
+  boardModelSchema,
+  boardTestPointSchema,
+  unitOf,
+  type BoardModel,
+  type BoardPartKind,
+  type ExpectedReadingRow,
+  type MeterModeName,
+  type MeterProfileId,
+  type PowerState,
+  type ReadingVerdict,
+} from '@splitscope/contract';
 import { AppError } from '../../http/errors';
 import { isOlderDocument, photoOnlyForm, upgradeV1InMemory } from './document-form';
 import { LRUCache } from 'lru-cache';
@@ -62,7 +83,13 @@ export function partsOf(model: BoardModel): Record<string, CasePart> {
 function testPointsOf(model: BoardModel): BoardTestPoint[] {
   return model.testPoints.map((tp) => {
     const table: ExpectedReadingsTestPoint = {
-      id: tp.id, label: tp.label, net: tp.net, reference: tp.reference, powerStates: tp.powerStates, modes: tp.modes, ...(tp.band ? { band: tp.band } : {}),
+      id: tp.id,
+      label: tp.label,
+      net: tp.net,
+      reference: tp.reference,
+      powerStates: tp.powerStates,
+      modes: tp.modes,
+      ...(tp.band ? { band: tp.band } : {}),
     };
     return { id: tp.id, net: tp.net, label: tp.label, ref: tp.reference, table };
   });
@@ -79,7 +106,9 @@ export function readBoardModel(doc: unknown): BoardModel {
   if (parsed.success) return parsed.data;
   const issue = parsed.error.issues[0]!;
   const path = ['document', ...issue.path.map(String)].join('.');
-  throw new AppError('invalid', `The board model does not match the board-model schema: ${path}: ${issue.message}`, { errors: [{ path, message: issue.message }] });
+  throw new AppError('invalid', `The board model does not match the board-model schema: ${path}: ${issue.message}`, {
+    errors: [{ path, message: issue.message }],
+  });
 }
 
 /**
@@ -163,7 +192,6 @@ export function cachedBoardEngine(versionId: string): BoardEngine | undefined {
   return cache.get(versionId);
 }
 
-
 /** A probe name as typed (a test point id or a net name) → the net, or undefined when the board has neither. */
 const pointIds = new WeakMap<BoardEngine, Map<string, BoardTestPoint>>();
 export function resolveNet(engine: BoardEngine, name: string): string | undefined {
@@ -243,7 +271,14 @@ export function verdictFor(engine: BoardEngine, probe: ProbeState, value: Readin
     return { expected: row.expected, low: row.low, high: row.high, unit: row.unit, verdict: value === null ? 'ok' : verdictOf(probe.mode, value, band) };
   }
   const model = engine.diagnoser.modelFor(meter);
-  const test = { mode: probe.mode, red: probe.red, black: probe.black, power: probe.power, lifted: probe.lifted, ...(probe.alone ? { alone: probe.alone } : {}) };
+  const test = {
+    mode: probe.mode,
+    red: probe.red,
+    black: probe.black,
+    power: probe.power,
+    lifted: probe.lifted,
+    ...(probe.alone ? { alone: probe.alone } : {}),
+  };
   const healthy = model.healthyPrediction(test);
   if (healthy.value === 'unknown') return null;
   const band = bandOf(probe.mode, healthy, model.meter);
@@ -276,7 +311,11 @@ export function expectedTable(engine: BoardEngine): ExpectedReadingRow[] {
 }
 
 function computeTable(engine: BoardEngine, meter: MeterProfile): ExpectedReadingRow[] {
-  const input: ExpectedReadingsInput = { netlist: engine.netlist, testPoints: engine.testPoints.map((t) => t.table), ...(engine.params ? { params: engine.params } : {}) };
+  const input: ExpectedReadingsInput = {
+    netlist: engine.netlist,
+    testPoints: engine.testPoints.map((t) => t.table),
+    ...(engine.params ? { params: engine.params } : {}),
+  };
   let rows: ReturnType<typeof expectedReadings>;
   try {
     rows = expectedReadings(input, { meter, band: diagnoserBand(engine, meter) });
@@ -288,8 +327,19 @@ function computeTable(engine: BoardEngine, meter: MeterProfile): ExpectedReading
     throw new AppError('invalid', `The board model cannot be used: ${message}`, { errors: [{ path: 'document.netlist', message }] });
   }
   return rows.map((r) => ({
-    id: r.id, label: r.label, mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted,
-    expected: r.expected, low: r.low, high: r.high, unit: r.unit, ...(r.source ? { source: r.source } : {}), ...(r.note ? { note: r.note } : {}),
+    id: r.id,
+    label: r.label,
+    mode: r.mode,
+    red: r.red,
+    black: r.black,
+    power: r.power,
+    lifted: r.lifted,
+    expected: r.expected,
+    low: r.low,
+    high: r.high,
+    unit: r.unit,
+    ...(r.source ? { source: r.source } : {}),
+    ...(r.note ? { note: r.note } : {}),
   }));
 }
 

@@ -17,7 +17,19 @@ import {
 import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';
-import { correctBoardVersion, createBoard, createFaultCode, deleteFaultCode, findBoards, findBoardVersions, findFaultCodes, getBoard, getBoardDrawing, updateBoard, updateFaultCode } from './service';
+import {
+  correctBoardVersion,
+  createBoard,
+  createFaultCode,
+  deleteFaultCode,
+  findBoards,
+  findBoardVersions,
+  findFaultCodes,
+  getBoard,
+  getBoardDrawing,
+  updateBoard,
+  updateFaultCode,
+} from './service';
 
 /**
  * `onPublished` runs after a version is stored (app.ts starts the diagnosis feature's fault dictionary there). It

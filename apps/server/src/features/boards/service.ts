@@ -1,5 +1,13 @@
 import { and, asc, desc, eq, isNull, or } from 'drizzle-orm';
-import type { BoardDetail, BoardDocument, BoardSummary, CreateFaultCodeRequest, ExpectedReadingRow, FaultCode, UpdateFaultCodeRequest } from '@splitscope/contract';
+import type {
+  BoardDetail,
+  BoardDocument,
+  BoardSummary,
+  CreateFaultCodeRequest,
+  ExpectedReadingRow,
+  FaultCode,
+  UpdateFaultCodeRequest,
+} from '@splitscope/contract';
 import { ComposeError, drawBoard, type BoardSpec } from '@splitscope/boards';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
@@ -22,13 +30,28 @@ const summary = (b: BoardRow, v: Pick<VersionRow, 'id' | 'version'>): BoardSumma
   updatedAt: iso(b.updatedAt),
 });
 
-const faultCode = (f: typeof faultCodes.$inferSelect): FaultCode => ({ id: f.id, boardId: f.boardId, code: f.code, title: f.title, description: f.description, sections: f.sections, weights: f.weights });
+const faultCode = (f: typeof faultCodes.$inferSelect): FaultCode => ({
+  id: f.id,
+  boardId: f.boardId,
+  code: f.code,
+  title: f.title,
+  description: f.description,
+  sections: f.sections,
+  weights: f.weights,
+});
 
 /** Checks a model and computes what a stored version keeps beside it. A picture upload must be the shop's own. */
-export async function prepareVersion(db: Pick<Db, 'select'>, shopId: string, document: BoardDocument): Promise<{ key: string; name: string; expectedReadings: ExpectedReadingRow[] }> {
+export async function prepareVersion(
+  db: Pick<Db, 'select'>,
+  shopId: string,
+  document: BoardDocument,
+): Promise<{ key: string; name: string; expectedReadings: ExpectedReadingRow[] }> {
   const uploadId = document.picture.uploadId;
   if (uploadId) {
-    const [u] = await db.select({ id: uploads.id }).from(uploads).where(and(eq(uploads.id, uploadId), eq(uploads.shopId, shopId)));
+    const [u] = await db
+      .select({ id: uploads.id })
+      .from(uploads)
+      .where(and(eq(uploads.id, uploadId), eq(uploads.shopId, shopId)));
     if (!u) throw new AppError('invalid', `No picture upload ${uploadId}`, { errors: [{ path: 'document.picture.uploadId', message: 'unknown upload' }] });
   }
   const engine = buildBoardEngine('unsaved', document);
@@ -59,7 +82,10 @@ async function boardFaultCodes(db: Db, shopId: string, boardId: string) {
 
 /** One board at its newest version, or at `version`; another shop's board is unknown here. */
 export async function getBoard({ db, shopId, id, version }: { db: Db; shopId: string; id: string; version?: number }): Promise<BoardDetail> {
-  const [b] = await db.select().from(boardModels).where(and(eq(boardModels.id, id), eq(boardModels.shopId, shopId)));
+  const [b] = await db
+    .select()
+    .from(boardModels)
+    .where(and(eq(boardModels.id, id), eq(boardModels.shopId, shopId)));
   if (!b) throw new AppError('not_found', `No board model ${id}`);
   const [v] = await db
     .select()
@@ -145,7 +171,9 @@ export async function correctBoardVersion({ db, actor, versionId, document }: { 
     }
     const prepared = await prepareVersion(tx, actor.shopId, document);
     if (prepared.key !== row.b.key) {
-      throw new AppError('invalid', `The document's id "${prepared.key}" is not this board model's ("${row.b.key}")`, { errors: [{ path: 'document.id', message: `must be ${row.b.key}` }] });
+      throw new AppError('invalid', `The document's id "${prepared.key}" is not this board model's ("${row.b.key}")`, {
+        errors: [{ path: 'document.id', message: `must be ${row.b.key}` }],
+      });
     }
     await tx.update(boardModelVersions).set({ document, expectedReadings: prepared.expectedReadings }).where(eq(boardModelVersions.id, versionId));
     return { boardId: row.b.id, version: row.v.version };
@@ -153,17 +181,47 @@ export async function correctBoardVersion({ db, actor, versionId, document }: { 
   return getBoard({ db, shopId: actor.shopId, id: boardId, version });
 }
 
-export async function createBoard({ db, actor, document, note, id }: { db: Db; actor: Pick<Actor, 'id' | 'shopId'>; document: BoardDocument; note?: string | null; id?: string }) {
+export async function createBoard({
+  db,
+  actor,
+  document,
+  note,
+  id,
+}: {
+  db: Db;
+  actor: Pick<Actor, 'id' | 'shopId'>;
+  document: BoardDocument;
+  note?: string | null;
+  id?: string;
+}) {
   const prepared = await prepareVersion(db, actor.shopId, document);
   const boardId = id ?? newId();
   await db.transaction(async (tx) => {
-    const [clash] = await tx.select({ id: boardModels.id }).from(boardModels).where(and(eq(boardModels.shopId, actor.shopId), eq(boardModels.key, prepared.key)));
+    const [clash] = await tx
+      .select({ id: boardModels.id })
+      .from(boardModels)
+      .where(and(eq(boardModels.shopId, actor.shopId), eq(boardModels.key, prepared.key)));
     if (clash) throw new AppError('conflict', `The library already has a board model "${prepared.key}"; edit it to make a new version`);
     await tx.insert(boardModels).values({ id: boardId, shopId: actor.shopId, key: prepared.key, name: prepared.name, currentVersion: 1 });
-    await tx.insert(boardModelVersions).values({ id: newId(), boardId, version: 1, document, expectedReadings: prepared.expectedReadings, note: note ?? null, createdBy: actor.id });
+    await tx
+      .insert(boardModelVersions)
+      .values({ id: newId(), boardId, version: 1, document, expectedReadings: prepared.expectedReadings, note: note ?? null, createdBy: actor.id });
     const codes = documentFaultCodes(document);
     if (codes.length) {
-      await tx.insert(faultCodes).values(codes.map((c) => ({ id: newId(), shopId: actor.shopId, boardId, code: c.code, title: c.title, description: c.description ?? null, sections: c.sections ?? [], weights: c.weights ?? {} })));
+      await tx
+        .insert(faultCodes)
+        .values(
+          codes.map((c) => ({
+            id: newId(),
+            shopId: actor.shopId,
+            boardId,
+            code: c.code,
+            title: c.title,
+            description: c.description ?? null,
+            sections: c.sections ?? [],
+            weights: c.weights ?? {},
+          })),
+        );
     }
   });
   return getBoard({ db, shopId: actor.shopId, id: boardId });
@@ -172,14 +230,22 @@ export async function createBoard({ db, actor, document, note, id }: { db: Db; a
 /** Editing stores a new version; jobs pinned to older versions keep theirs. */
 export async function updateBoard({ db, actor, id, document, note }: { db: Db; actor: Actor; id: string; document: BoardDocument; note?: string | null }) {
   const version = await db.transaction(async (tx) => {
-    const [b] = await tx.select().from(boardModels).where(and(eq(boardModels.id, id), eq(boardModels.shopId, actor.shopId))).for('update');
+    const [b] = await tx
+      .select()
+      .from(boardModels)
+      .where(and(eq(boardModels.id, id), eq(boardModels.shopId, actor.shopId)))
+      .for('update');
     if (!b) throw new AppError('not_found', `No board model ${id}`);
     const prepared = await prepareVersion(tx, actor.shopId, document);
     if (prepared.key !== b.key) {
-      throw new AppError('invalid', `The document's id "${prepared.key}" is not this board model's ("${b.key}")`, { errors: [{ path: 'document.id', message: `must be ${b.key}` }] });
+      throw new AppError('invalid', `The document's id "${prepared.key}" is not this board model's ("${b.key}")`, {
+        errors: [{ path: 'document.id', message: `must be ${b.key}` }],
+      });
     }
     const next = b.currentVersion + 1;
-    await tx.insert(boardModelVersions).values({ id: newId(), boardId: id, version: next, document, expectedReadings: prepared.expectedReadings, note: note ?? null, createdBy: actor.id });
+    await tx
+      .insert(boardModelVersions)
+      .values({ id: newId(), boardId: id, version: next, document, expectedReadings: prepared.expectedReadings, note: note ?? null, createdBy: actor.id });
     await tx.update(boardModels).set({ currentVersion: next, name: prepared.name, updatedAt: new Date() }).where(eq(boardModels.id, id));
     return next;
   });
@@ -187,7 +253,10 @@ export async function updateBoard({ db, actor, id, document, note }: { db: Db; a
 }
 
 export async function findBoardVersions({ db, shopId, id }: { db: Db; shopId: string; id: string }) {
-  const [b] = await db.select({ id: boardModels.id }).from(boardModels).where(and(eq(boardModels.id, id), eq(boardModels.shopId, shopId)));
+  const [b] = await db
+    .select({ id: boardModels.id })
+    .from(boardModels)
+    .where(and(eq(boardModels.id, id), eq(boardModels.shopId, shopId)));
   if (!b) throw new AppError('not_found', `No board model ${id}`);
   const rows = await db
     .select({ v: boardModelVersions, name: users.name })
@@ -196,13 +265,23 @@ export async function findBoardVersions({ db, shopId, id }: { db: Db; shopId: st
     .where(eq(boardModelVersions.boardId, id))
     .orderBy(desc(boardModelVersions.version));
   return {
-    items: rows.map(({ v, name }) => ({ versionId: v.id, version: v.version, note: v.note, createdBy: v.createdBy, createdByName: name, createdAt: iso(v.createdAt) })),
+    items: rows.map(({ v, name }) => ({
+      versionId: v.id,
+      version: v.version,
+      note: v.note,
+      createdBy: v.createdBy,
+      createdByName: name,
+      createdAt: iso(v.createdAt),
+    })),
   };
 }
 
 export async function findFaultCodes({ db, shopId, boardId }: { db: Db; shopId: string; boardId?: string }) {
   if (boardId) {
-    const [b] = await db.select({ id: boardModels.id }).from(boardModels).where(and(eq(boardModels.id, boardId), eq(boardModels.shopId, shopId)));
+    const [b] = await db
+      .select({ id: boardModels.id })
+      .from(boardModels)
+      .where(and(eq(boardModels.id, boardId), eq(boardModels.shopId, shopId)));
     if (!b) throw new AppError('not_found', `No board model ${boardId}`);
     return { items: await boardFaultCodes(db, shopId, boardId) };
   }
@@ -212,19 +291,32 @@ export async function findFaultCodes({ db, shopId, boardId }: { db: Db; shopId: 
 
 export async function createFaultCode({ db, shopId, input }: { db: Db; shopId: string; input: CreateFaultCodeRequest }) {
   if (input.boardId) {
-    const [b] = await db.select({ id: boardModels.id }).from(boardModels).where(and(eq(boardModels.id, input.boardId), eq(boardModels.shopId, shopId)));
+    const [b] = await db
+      .select({ id: boardModels.id })
+      .from(boardModels)
+      .where(and(eq(boardModels.id, input.boardId), eq(boardModels.shopId, shopId)));
     if (!b) throw new AppError('not_found', `No board model ${input.boardId}`);
   }
   const [row] = await db
     .insert(faultCodes)
-    .values({ id: newId(), shopId, boardId: input.boardId ?? null, code: input.code, title: input.title, description: input.description ?? null, sections: input.sections ?? [], weights: onlySuspects(input) })
+    .values({
+      id: newId(),
+      shopId,
+      boardId: input.boardId ?? null,
+      code: input.code,
+      title: input.title,
+      description: input.description ?? null,
+      sections: input.sections ?? [],
+      weights: onlySuspects(input),
+    })
     .returning();
   priorsChanged();
   return faultCode(row!);
 }
 
 /** Weights are kept for the code's suspect sections only. */
-const onlySuspects = (input: Pick<CreateFaultCodeRequest, 'sections' | 'weights'>) => Object.fromEntries(Object.entries(input.weights ?? {}).filter(([s]) => (input.sections ?? []).includes(s)));
+const onlySuspects = (input: Pick<CreateFaultCodeRequest, 'sections' | 'weights'>) =>
+  Object.fromEntries(Object.entries(input.weights ?? {}).filter(([s]) => (input.sections ?? []).includes(s)));
 
 export async function updateFaultCode({ db, shopId, id, input }: { db: Db; shopId: string; id: string; input: UpdateFaultCodeRequest }) {
   const [row] = await db
@@ -238,7 +330,10 @@ export async function updateFaultCode({ db, shopId, id, input }: { db: Db; shopI
 }
 
 export async function deleteFaultCode({ db, shopId, id }: { db: Db; shopId: string; id: string }) {
-  const [row] = await db.delete(faultCodes).where(and(eq(faultCodes.id, id), eq(faultCodes.shopId, shopId))).returning({ id: faultCodes.id });
+  const [row] = await db
+    .delete(faultCodes)
+    .where(and(eq(faultCodes.id, id), eq(faultCodes.shopId, shopId)))
+    .returning({ id: faultCodes.id });
   if (!row) throw new AppError('not_found', `No fault code ${id}`);
   priorsChanged();
 }

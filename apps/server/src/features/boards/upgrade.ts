@@ -33,7 +33,13 @@ export async function upgradeV1(doc: Json, storePhoto: (bytes: Buffer) => Promis
 /** Upgrades every stored version below the current schema version; idempotent (upgraded rows are not selected again). */
 export async function upgradeBoardDocuments({ db, storage }: { db: Db; storage: Storage }): Promise<UpgradeOutcome> {
   const rows = await db
-    .select({ id: boardModelVersions.id, document: boardModelVersions.document, createdBy: boardModelVersions.createdBy, shopId: boardModels.shopId, name: boardModels.name })
+    .select({
+      id: boardModelVersions.id,
+      document: boardModelVersions.document,
+      createdBy: boardModelVersions.createdBy,
+      shopId: boardModels.shopId,
+      name: boardModels.name,
+    })
     .from(boardModelVersions)
     .innerJoin(boardModels, eq(boardModels.id, boardModelVersions.boardId))
     .where(sql`coalesce((${boardModelVersions.document}->>'schemaVersion')::int, 1) < ${BOARD_MODEL_SCHEMA_VERSION}`);

@@ -1,5 +1,13 @@
 import { Router } from 'express';
-import { boardDetailSchema, CAPTURE_ROLES, boardDraftSchema, createUnlistedBoardRequest, idParams, publishDraftRequest, saveDraftRequest } from '@splitscope/contract';
+import {
+  boardDetailSchema,
+  CAPTURE_ROLES,
+  boardDraftSchema,
+  createUnlistedBoardRequest,
+  idParams,
+  publishDraftRequest,
+  saveDraftRequest,
+} from '@splitscope/contract';
 import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';

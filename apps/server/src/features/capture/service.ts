@@ -4,7 +4,13 @@
 import { and, eq } from 'drizzle-orm';
 import { composeCapture } from '@splitscope/boards';
 import {
-  BOARD_MODEL_SCHEMA_VERSION, boardCaptureSchema, isPhotoOnlyBoard, type BoardCapture, type BoardDocument, type BoardDraft, type CreateUnlistedBoardRequest,
+  BOARD_MODEL_SCHEMA_VERSION,
+  boardCaptureSchema,
+  isPhotoOnlyBoard,
+  type BoardCapture,
+  type BoardDocument,
+  type BoardDraft,
+  type CreateUnlistedBoardRequest,
 } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
@@ -14,11 +20,18 @@ import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
 import { BUS_CAUTION, buildBoardEngine, createBoard, currentBoardVersion, expectedTable, updateBoard } from '../boards';
 
-
-const slugOf = (text: string) => text.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 40) || 'board';
+const slugOf = (text: string) =>
+  text
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 40) || 'board';
 
 async function ownUpload(db: Db, shopId: string, uploadId: string) {
-  const [u] = await db.select({ id: uploads.id }).from(uploads).where(and(eq(uploads.id, uploadId), eq(uploads.shopId, shopId)));
+  const [u] = await db
+    .select({ id: uploads.id })
+    .from(uploads)
+    .where(and(eq(uploads.id, uploadId), eq(uploads.shopId, shopId)));
   if (!u) throw new AppError('invalid', `No photo upload ${uploadId}`, { errors: [{ path: 'photo.uploadId', message: 'unknown upload' }] });
 }
 
@@ -27,13 +40,28 @@ export async function createUnlistedBoard({ db, actor, input }: { db: Db; actor:
   await ownUpload(db, actor.shopId, input.photo.uploadId);
   const name = `${input.maker} ${input.model}`;
   // A short random tail keeps two boards of the same printed name apart until someone merges them.
-  const key = `${slugOf(name)}-${newId().slice(-6).toLowerCase().replace(/[^a-z0-9]/g, '0')}`;
+  const key = `${slugOf(name)}-${newId()
+    .slice(-6)
+    .toLowerCase()
+    .replace(/[^a-z0-9]/g, '0')}`;
   const document: BoardDocument = {
-    schemaVersion: BOARD_MODEL_SCHEMA_VERSION, id: key, slug: key, name, family: '', maker: input.maker,
+    schemaVersion: BOARD_MODEL_SCHEMA_VERSION,
+    id: key,
+    slug: key,
+    name,
+    family: '',
+    maker: input.maker,
     description: 'Photographed at intake; no model yet.',
     picture: { uploadId: input.photo.uploadId, width: input.photo.width, height: input.photo.height, units: 'px' },
-    sections: [], netlist: `* ${name.replace(/\n/g, ' ')}: photographed at intake, no model yet\n.end\n`, params: {},
-    parts: [], nets: [], connectors: [], testPoints: [], faultCodes: [], cautions: [BUS_CAUTION],
+    sections: [],
+    netlist: `* ${name.replace(/\n/g, ' ')}: photographed at intake, no model yet\n.end\n`,
+    params: {},
+    parts: [],
+    nets: [],
+    connectors: [],
+    testPoints: [],
+    faultCodes: [],
+    cautions: [BUS_CAUTION],
   };
   return createBoard({ db, actor, document, note: 'Board photographed at intake' });
 }
@@ -63,7 +91,17 @@ function evaluate(capture: BoardCapture, document: BoardDocument) {
       const why = composed.unmodelled[p.id] ?? (problem ? 'the draft does not compute yet' : undefined);
       return {
         id: p.id,
-        expected: problem ? [] : own.map((r) => ({ mode: r.mode, power: r.power, expected: r.expected, low: r.low, high: r.high, unit: r.unit, ...(r.source ? { source: r.source } : {}) })),
+        expected: problem
+          ? []
+          : own.map((r) => ({
+              mode: r.mode,
+              power: r.power,
+              expected: r.expected,
+              low: r.low,
+              high: r.high,
+              unit: r.unit,
+              ...(r.source ? { source: r.source } : {}),
+            })),
         ...(why ? { unmodelled: why } : {}),
       };
     }),
@@ -86,7 +124,12 @@ export async function getDraft({ db, shopId, boardId }: { db: Db; shopId: string
   }
   const uploadId = document.picture.uploadId;
   if (!uploadId) throw new AppError('conflict', `${document.name} has no photo to mark: its picture is drawn from its sections. Edit it in the board editor.`);
-  const capture: BoardCapture = { photo: { uploadId, width: document.picture.width, height: document.picture.height }, points: [], connectors: [], sections: [] };
+  const capture: BoardCapture = {
+    photo: { uploadId, width: document.picture.width, height: document.picture.height },
+    points: [],
+    connectors: [],
+    sections: [],
+  };
   return { boardId, capture, savedAt: iso(new Date()), savedByName: null, publishedModel, ...evaluate(capture, document).result };
 }
 
@@ -101,7 +144,10 @@ export async function saveDraft({ db, actor, boardId, capture }: { db: Db; actor
   }
   const { result } = evaluate(capture, document);
   const values = { boardId, capture, result, savedBy: actor.id, savedAt: new Date() };
-  await db.insert(boardDrafts).values(values).onConflictDoUpdate({ target: boardDrafts.boardId, set: { capture, result, savedBy: actor.id, savedAt: values.savedAt } });
+  await db
+    .insert(boardDrafts)
+    .values(values)
+    .onConflictDoUpdate({ target: boardDrafts.boardId, set: { capture, result, savedBy: actor.id, savedAt: values.savedAt } });
   return getDraft({ db, shopId: actor.shopId, boardId });
 }
 
@@ -111,7 +157,11 @@ export async function publishDraft({ db, actor, boardId, note }: { db: Db; actor
   const [row] = await db.select().from(boardDrafts).where(eq(boardDrafts.boardId, boardId));
   if (!row) throw new AppError('conflict', 'Save a draft before publishing it');
   const { model, result } = evaluate(boardCaptureSchema.parse(row.capture), document);
-  if (!model) throw new AppError('conflict', result.problem ? `The draft does not compute: ${result.problem}` : 'Mark at least one section on the photo before publishing a model');
+  if (!model)
+    throw new AppError(
+      'conflict',
+      result.problem ? `The draft does not compute: ${result.problem}` : 'Mark at least one section on the photo before publishing a model',
+    );
   return updateBoard({ db, actor, id: boardId, document: model, note: note ?? 'Published from the board capture' });
 }
 

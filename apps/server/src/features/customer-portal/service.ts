@@ -64,7 +64,10 @@ export async function decideQuote({
   reason: string | null;
 }) {
   const link = await resolveCustomerLink(db, token);
-  const [q] = await db.select().from(quotes).where(and(eq(quotes.id, quoteId), eq(quotes.jobId, link.jobId), eq(quotes.shopId, link.shopId)));
+  const [q] = await db
+    .select()
+    .from(quotes)
+    .where(and(eq(quotes.id, quoteId), eq(quotes.jobId, link.jobId), eq(quotes.shopId, link.shopId)));
   if (!q || q.status === 'draft') throw new AppError('not_found', 'No such quote on this job');
   if (q.customerApproval) throw new AppError('conflict', `This quote was already ${q.customerApproval}`);
   // A quote sent after this one replaces it: the customer answers only the one they were sent last, so an old

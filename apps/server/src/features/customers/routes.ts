@@ -1,5 +1,14 @@
 import { Router } from 'express';
-import { createCustomerRequest, customerListQuery, customerListResponse, customerSchema, idParams, mergeCustomerRequest, mergeCustomerResponse, updateCustomerRequest } from '@splitscope/contract';
+import {
+  createCustomerRequest,
+  customerListQuery,
+  customerListResponse,
+  customerSchema,
+  idParams,
+  mergeCustomerRequest,
+  mergeCustomerResponse,
+  updateCustomerRequest,
+} from '@splitscope/contract';
 import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';

@@ -30,12 +30,19 @@ export async function findCustomers({ db, shopId, query }: { db: Db; shopId: str
     const like = `%${escapeLike(query.q)}%`;
     where.push(or(ilike(customers.name, like), ilike(customers.company, like), ilike(customers.email, like))!);
   }
-  const rows = await db.select().from(customers).where(and(...where)).orderBy(asc(customers.name));
+  const rows = await db
+    .select()
+    .from(customers)
+    .where(and(...where))
+    .orderBy(asc(customers.name));
   return { items: rows.map(toCustomer) };
 }
 
 export async function getCustomer({ db, shopId, id }: { db: Db; shopId: string; id: string }): Promise<Customer> {
-  const [row] = await db.select().from(customers).where(and(eq(customers.id, id), eq(customers.shopId, shopId)));
+  const [row] = await db
+    .select()
+    .from(customers)
+    .where(and(eq(customers.id, id), eq(customers.shopId, shopId)));
   if (!row) throw new AppError('not_found', `No customer ${id}`);
   return toCustomer(row);
 }
@@ -43,7 +50,16 @@ export async function getCustomer({ db, shopId, id }: { db: Db; shopId: string; 
 export async function createCustomer({ db, shopId, input }: { db: Db; shopId: string; input: CreateCustomerRequest }) {
   const [row] = await db
     .insert(customers)
-    .values({ id: newId(), shopId, name: input.name, company: input.company ?? null, email: input.email ?? null, phone: input.phone ?? null, kind: input.kind, notes: input.notes ?? null })
+    .values({
+      id: newId(),
+      shopId,
+      name: input.name,
+      company: input.company ?? null,
+      email: input.email ?? null,
+      phone: input.phone ?? null,
+      kind: input.kind,
+      notes: input.notes ?? null,
+    })
     .returning();
   return toCustomer(row!);
 }
@@ -73,7 +89,8 @@ export async function mergeCustomers({ db, actor, keepId, duplicateId }: { db: D
     const keep = rows.find((r) => r.id === keepId);
     const dup = rows.find((r) => r.id === duplicateId);
     if (!keep) throw new AppError('not_found', `No customer ${keepId}`);
-    if (keepId === duplicateId) throw new AppError('invalid', 'Choose another customer to merge into this one', { errors: [{ path: 'duplicateId', message: 'the same customer' }] });
+    if (keepId === duplicateId)
+      throw new AppError('invalid', 'Choose another customer to merge into this one', { errors: [{ path: 'duplicateId', message: 'the same customer' }] });
     if (!dup) throw new AppError('not_found', `No customer ${duplicateId}`);
     const moved = {
       jobs: (await tx.update(jobs).set({ customerId: keepId }).where(eq(jobs.customerId, duplicateId)).returning({ id: jobs.id })).length,

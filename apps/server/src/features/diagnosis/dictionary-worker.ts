@@ -12,7 +12,10 @@ parentPort!.on('message', ({ versionId, document }: { versionId: string; documen
   try {
     const engine = buildBoardEngine(versionId, readBoardModel(document));
     const dict = buildDictionary(engine.diagnoser, { onProgress: (done, total) => post({ kind: 'progress', versionId, done, total }) });
-    post({ kind: 'done', versionId, tests: dict.tests, faults: dict.faults, rows: dict.rows }, dict.rows.map((r) => r.buffer as ArrayBuffer));
+    post(
+      { kind: 'done', versionId, tests: dict.tests, faults: dict.faults, rows: dict.rows },
+      dict.rows.map((r) => r.buffer as ArrayBuffer),
+    );
   } catch (err) {
     post({ kind: 'failed', versionId, message: err instanceof Error ? err.message : String(err) });
   }

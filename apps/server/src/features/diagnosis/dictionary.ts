@@ -76,9 +76,9 @@ export async function readStoredDictionary(db: Db, versionId: string): Promise<S
 /** Stores pair columns a diagnosis thread computed, for every later process, and re-ranks this one's jobs. */
 export async function savePairs(db: Db, versionId: string, columns: readonly PairColumn[]): Promise<void> {
   if (columns.length === 0) return;
-  await db.insert(faultDictionaryPairs).values(
-    columns.map((c) => ({ versionId, engineVersion: DICTIONARY_ENGINE, faultKey: c.key, testKeys: c.testKeys, predictions: toBytes(c.values) })),
-  );
+  await db
+    .insert(faultDictionaryPairs)
+    .values(columns.map((c) => ({ versionId, engineVersion: DICTIONARY_ENGINE, faultKey: c.key, testKeys: c.testKeys, predictions: toBytes(c.values) })));
   ready.get(versionId)?.pairs.push(...columns);
   generation.set(versionId, (generation.get(versionId) ?? 0) + 1);
 }
@@ -104,7 +104,15 @@ async function claim(db: Db, versionId: string): Promise<boolean> {
   const taken = await db
     .update(faultDictionaries)
     .set({ state: 'building', partsDone: 0, updatedAt: new Date(), error: null })
-    .where(and(byVersion(versionId), or(eq(faultDictionaries.state, 'failed'), and(eq(faultDictionaries.state, 'building'), lt(faultDictionaries.updatedAt, sql`now() - interval '2 minutes'`)))))
+    .where(
+      and(
+        byVersion(versionId),
+        or(
+          eq(faultDictionaries.state, 'failed'),
+          and(eq(faultDictionaries.state, 'building'), lt(faultDictionaries.updatedAt, sql`now() - interval '2 minutes'`)),
+        ),
+      ),
+    )
     .returning({ v: faultDictionaries.versionId });
   return taken.length > 0;
 }
@@ -172,10 +180,15 @@ async function drain(): Promise<void> {
 function buildOne(worker: Worker, { db, versionId, document }: (typeof queue)[number]): Promise<void> {
   return new Promise((resolve) => {
     let writes = Promise.resolve();
-    const write = (f: () => Promise<unknown>) => void (writes = writes.then(f).then(() => undefined, () => undefined));
+    const write = (f: () => Promise<unknown>) =>
+      void (writes = writes.then(f).then(
+        () => undefined,
+        () => undefined,
+      ));
     const onMessage = (m: BuilderMessage) => {
       if (m.versionId !== versionId) return;
-      if (m.kind === 'progress') write(() => db.update(faultDictionaries).set({ partsDone: m.done, partsTotal: m.total, updatedAt: new Date() }).where(byVersion(versionId)));
+      if (m.kind === 'progress')
+        write(() => db.update(faultDictionaries).set({ partsDone: m.done, partsTotal: m.total, updatedAt: new Date() }).where(byVersion(versionId)));
       else {
         worker.off('message', onMessage);
         worker.off('error', onError);

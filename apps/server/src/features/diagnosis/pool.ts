@@ -62,7 +62,10 @@ export class DiagnosisPool {
     options?: Pick<UpdateOptions, 'priors' | 'history' | 'references'>,
     meter: MeterProfileId | null = null,
   ): Promise<DiagnosisOutput> {
-    return new Promise((resolve, reject) => void this.dispatch({ versionId, readings, meter, loadDocument, ...dictionary, resolve, reject, ...(options ? { options } : {}) }, false));
+    return new Promise(
+      (resolve, reject) =>
+        void this.dispatch({ versionId, readings, meter, loadDocument, ...dictionary, resolve, reject, ...(options ? { options } : {}) }, false),
+    );
   }
 
   /**
@@ -97,7 +100,15 @@ export class DiagnosisPool {
       thread.pending.set(id, call);
       // Referenced only while it owes an answer, so an idle thread never keeps the process alive.
       thread.worker.ref();
-      const message: WorkerRequest = { id, versionId: call.versionId, readings: call.readings, meter: call.meter, ...(call.options ? { options: call.options } : {}), ...(withDocument ? { document } : {}), ...(dictionary ? { dictionary } : {}) };
+      const message: WorkerRequest = {
+        id,
+        versionId: call.versionId,
+        readings: call.readings,
+        meter: call.meter,
+        ...(call.options ? { options: call.options } : {}),
+        ...(withDocument ? { document } : {}),
+        ...(dictionary ? { dictionary } : {}),
+      };
       thread.worker.postMessage(message);
     } catch (err) {
       call.reject(err);
@@ -120,7 +131,9 @@ export class DiagnosisPool {
     const worker = (this.options.spawn ?? spawnDiagnosisWorker)();
     worker.unref();
     const thread: Thread = { worker, known: new Set(), pending: new Map(), dictionaries: new Set(), pairSinks: new Map() };
-    worker.on('message', (reply: WorkerReply | PairsMessage) => ('pairs' in reply ? thread.pairSinks.get(reply.versionId)?.(reply.columns) : this.answered(thread, reply)));
+    worker.on('message', (reply: WorkerReply | PairsMessage) =>
+      'pairs' in reply ? thread.pairSinks.get(reply.versionId)?.(reply.columns) : this.answered(thread, reply),
+    );
     worker.on('error', (err) => void (thread.crash = err));
     worker.on('exit', (code) => {
       this.threads = this.threads.filter((t) => t !== thread);

@@ -54,7 +54,13 @@ async function faultCodePriors(db: Db, job: JobFacts, doc: BoardModel): Promise<
   const rows = await db
     .select()
     .from(faultCodes)
-    .where(and(eq(faultCodes.shopId, job.shopId), or(eq(faultCodes.boardId, job.boardId), isNull(faultCodes.boardId)), sql`lower(${faultCodes.code}) = lower(${code})`));
+    .where(
+      and(
+        eq(faultCodes.shopId, job.shopId),
+        or(eq(faultCodes.boardId, job.boardId), isNull(faultCodes.boardId)),
+        sql`lower(${faultCodes.code}) = lower(${code})`,
+      ),
+    );
   // The board's own entry wins over a shop-wide one with the same code.
   const row = rows.find((r) => r.boardId === job.boardId) ?? rows[0];
   if (!row) return [];
@@ -65,7 +71,12 @@ async function faultCodePriors(db: Db, job: JobFacts, doc: BoardModel): Promise<
     if (!p.element || !row.sections.includes(p.section)) continue;
     const w = weightOf(p.section);
     if (!(w > 1)) continue;
-    out.push({ part: p.element, factor: w, source: 'fault-code', note: `fault code ${row.code} (${row.title}) points at the ${title.get(p.section) ?? p.section} section: ×${w}` });
+    out.push({
+      part: p.element,
+      factor: w,
+      source: 'fault-code',
+      note: `fault code ${row.code} (${row.title}) points at the ${title.get(p.section) ?? p.section} section: ×${w}`,
+    });
   }
   return out;
 }
@@ -105,7 +116,14 @@ async function historyOf(db: Db, job: JobFacts): Promise<FailureHistory | undefi
     .select({ jobId: jobs.id, boardId: jobs.boardId, versionId: jobs.boardVersionId, part: repairActions.part, updatedAt: jobs.updatedAt })
     .from(jobs)
     .innerJoin(repairActions, eq(repairActions.jobId, jobs.id))
-    .where(and(eq(jobs.shopId, job.shopId), inArray(jobs.status, ['verified', 'returned']), ne(jobs.id, job.id), inArray(repairActions.action, ['replaced', 'removed'])))
+    .where(
+      and(
+        eq(jobs.shopId, job.shopId),
+        inArray(jobs.status, ['verified', 'returned']),
+        ne(jobs.id, job.id),
+        inArray(repairActions.action, ['replaced', 'removed']),
+      ),
+    )
     .orderBy(desc(jobs.updatedAt));
   if (rows.length === 0) return undefined;
   // One failure per part per job (a part replaced twice on one job failed once); the model's last HISTORY_JOBS jobs.
@@ -143,9 +161,14 @@ async function historyOf(db: Db, job: JobFacts): Promise<FailureHistory | undefi
   if (own.length) history.board = { jobs: jobsOf.get(job.boardId)?.length ?? 0, failures: count(own.map((f) => ({ key: f.part, mode: mode(f) }))) };
   if (others.length) {
     const versions = [...new Set(others.map((f) => f.versionId))];
-    const docs = await db.select({ id: boardModelVersions.id, parts: sql<unknown>`${boardModelVersions.document}->'parts'` }).from(boardModelVersions).where(inArray(boardModelVersions.id, versions));
+    const docs = await db
+      .select({ id: boardModelVersions.id, parts: sql<unknown>`${boardModelVersions.document}->'parts'` })
+      .from(boardModelVersions)
+      .where(inArray(boardModelVersions.id, versions));
     const kindOf = new Map<string, string>();
-    for (const d of docs) for (const p of Array.isArray(d.parts) ? (d.parts as { designator?: string; kind?: string }[]) : []) if (p.designator && p.kind) kindOf.set(`${d.id}\u0000${p.designator.toLowerCase()}`, p.kind);
+    for (const d of docs)
+      for (const p of Array.isArray(d.parts) ? (d.parts as { designator?: string; kind?: string }[]) : [])
+        if (p.designator && p.kind) kindOf.set(`${d.id}\u0000${p.designator.toLowerCase()}`, p.kind);
     const kinds = others.flatMap((f) => {
       const k = kindOf.get(`${f.versionId}\u0000${f.part.toLowerCase()}`);
       return k && ENGINE_KINDS.has(k) ? [{ key: k as PartKind, mode: mode(f) }] : [];

@@ -32,4 +32,6 @@ export interface PairsMessage {
   columns: PairColumn[];
 }
 
-export type WorkerReply = { id: number; dropped: string[] } & ({ ok: true; output: DiagnosisOutput } | { ok: false; missing: true } | { ok: false; error: WorkerFailure });
+export type WorkerReply = { id: number; dropped: string[] } & (
+  { ok: true; output: DiagnosisOutput } | { ok: false; missing: true } | { ok: false; error: WorkerFailure }
+);

@@ -1,7 +1,16 @@
 import { createHash } from 'node:crypto';
 import { and, asc, desc, eq, sql } from 'drizzle-orm';
 import type { CaseReading, DiagnosisOutput } from '@splitscope/diagnosis';
-import { BOUNDS, readableDiagnosis, jobMeter, unitOf, type Diagnosis, type DiagnosisSnapshot, type MeterProfileId, type PriorSource } from '@splitscope/contract';
+import {
+  BOUNDS,
+  readableDiagnosis,
+  jobMeter,
+  unitOf,
+  type Diagnosis,
+  type DiagnosisSnapshot,
+  type MeterProfileId,
+  type PriorSource,
+} from '@splitscope/contract';
 import type { Db } from '../../db/client';
 import { boardModelVersions, diagnosisSnapshots, jobs, readingStrikes, readings, shops } from '../../db/schema';
 import { AppError } from '../../http/errors';
@@ -13,10 +22,10 @@ import { diagnosisPool } from './pool';
 import { cachedJobPriors } from './priors-cache';
 import { wordDiagnosis } from './words';
 
-
 /** The same digest PostgreSQL's md5() gives, so a key computed here matches the one the database computes. */
 const md5 = (text: string) => createHash('md5').update(text).digest('hex');
-const keyOf = (versionId: string, meter: MeterProfileId | null, n: number, digest: string | null, priorsKey: string) => `${versionId}|${meter ?? ''}|${n}|${digest ?? ''}|${priorsKey}`;
+const keyOf = (versionId: string, meter: MeterProfileId | null, n: number, digest: string | null, priorsKey: string) =>
+  `${versionId}|${meter ?? ''}|${n}|${digest ?? ''}|${priorsKey}`;
 
 type ReadingRow = typeof readings.$inferSelect;
 type JobRef = Pick<typeof jobs.$inferSelect, 'id' | 'boardVersionId'> & Partial<Pick<typeof jobs.$inferSelect, 'shopId' | 'boardId' | 'faultCode'>>;
@@ -24,7 +33,11 @@ type JobRef = Pick<typeof jobs.$inferSelect, 'id' | 'boardVersionId'> & Partial<
 const jobId = sql.placeholder('jobId');
 // The readings the diagnosis works from: diagnosis-phase rows that no later row of the same job corrects
 // (`readings` in the subquery is its own table, not the outer one).
-const correctedIds = (db: Db) => db.select({ id: readings.supersedes }).from(readings).where(and(eq(readings.jobId, jobId), sql`${readings.supersedes} is not null`));
+const correctedIds = (db: Db) =>
+  db
+    .select({ id: readings.supersedes })
+    .from(readings)
+    .where(and(eq(readings.jobId, jobId), sql`${readings.supersedes} is not null`));
 const struckIds = (db: Db) => db.select({ id: readingStrikes.readingId }).from(readingStrikes).where(eq(readingStrikes.jobId, jobId));
 // A value outside the contract's physical bounds (stored before they were enforced, such as 1e308) is not one
 // the engine is asked to reason about: it stays in the history for a correction, and out of the diagnosis.
@@ -32,7 +45,13 @@ const inBounds = sql`(${readings.value} is null or case when ${readings.mode} in
   then ${readings.value} between ${sql.raw(String(BOUNDS.volts.min))} and ${sql.raw(String(BOUNDS.volts.max))}
   else ${readings.value} between ${sql.raw(String(BOUNDS.ohms.min))} and ${sql.raw(String(BOUNDS.ohms.max))} end)`;
 const isCurrent = (db: Db) =>
-  and(eq(readings.jobId, jobId), eq(readings.phase, 'diagnosis'), sql`${readings.id} not in (${correctedIds(db)})`, sql`${readings.id} not in (${struckIds(db)})`, inBounds);
+  and(
+    eq(readings.jobId, jobId),
+    eq(readings.phase, 'diagnosis'),
+    sql`${readings.id} not in (${correctedIds(db)})`,
+    sql`${readings.id} not in (${struckIds(db)})`,
+    inBounds,
+  );
 // The id breaks ties of equal timestamps, so the same readings always reach the engine in the same order.
 const byTime = [asc(readings.takenAt), asc(readings.createdAt), asc(readings.id)];
 
@@ -47,11 +66,19 @@ function prepare(db: Db) {
       .prepare('diagnosis_job'),
     // What the cache key is made of: how many current readings and a digest of their ids in engine order.
     key: db
-      .select({ n: sql<number>`count(*)::int`, digest: sql<string | null>`md5(string_agg(${readings.id}, ',' order by ${readings.takenAt}, ${readings.createdAt}, ${readings.id}))` })
+      .select({
+        n: sql<number>`count(*)::int`,
+        digest: sql<string | null>`md5(string_agg(${readings.id}, ',' order by ${readings.takenAt}, ${readings.createdAt}, ${readings.id}))`,
+      })
       .from(readings)
       .where(isCurrent(db))
       .prepare('diagnosis_readings_key'),
-    rows: db.select().from(readings).where(isCurrent(db)).orderBy(...byTime).prepare('diagnosis_readings'),
+    rows: db
+      .select()
+      .from(readings)
+      .where(isCurrent(db))
+      .orderBy(...byTime)
+      .prepare('diagnosis_readings'),
     // The meter the job's readings are read with: the job's own profile, else its shop's default.
     meter: db
       .select({ job: jobs.meterProfile, shop: shops.meterProfile })
@@ -59,7 +86,11 @@ function prepare(db: Db) {
       .innerJoin(shops, eq(shops.id, jobs.shopId))
       .where(eq(jobs.id, jobId))
       .prepare('diagnosis_job_meter'),
-    document: db.select({ document: boardModelVersions.document }).from(boardModelVersions).where(eq(boardModelVersions.id, sql.placeholder('versionId'))).prepare('diagnosis_board_document'),
+    document: db
+      .select({ document: boardModelVersions.document })
+      .from(boardModelVersions)
+      .where(eq(boardModelVersions.id, sql.placeholder('versionId')))
+      .prepare('diagnosis_board_document'),
   };
 }
 function queries(db: Db) {
@@ -82,7 +113,8 @@ const caseValue = (r: ReadingRow): CaseReading['value'] => {
 
 /** What the job's priors are made of; callers that hold only the job's id and version have the rest read here. */
 async function jobFacts(db: Db, job: JobRef) {
-  if (job.shopId !== undefined && job.boardId !== undefined && job.faultCode !== undefined) return { ...job, shopId: job.shopId, boardId: job.boardId, faultCode: job.faultCode };
+  if (job.shopId !== undefined && job.boardId !== undefined && job.faultCode !== undefined)
+    return { ...job, shopId: job.shopId, boardId: job.boardId, faultCode: job.faultCode };
   const [row] = await db.select({ shopId: jobs.shopId, boardId: jobs.boardId, faultCode: jobs.faultCode }).from(jobs).where(eq(jobs.id, job.id));
   if (!row) throw new AppError('not_found', `No job ${job.id}`);
   return { ...job, ...row };
@@ -102,7 +134,12 @@ export async function getDiagnosis({ db, shopId, jobId: id }: { db: Db; shopId: 
 export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Promise<Diagnosis> {
   const q = queries(db);
   const versionId = job.boardVersionId;
-  const [facts, [k], [m], dictionary] = await Promise.all([jobFacts(db, job), q.key.execute({ jobId: job.id }), q.meter.execute({ jobId: job.id }), dictionaryState(db, versionId)]);
+  const [facts, [k], [m], dictionary] = await Promise.all([
+    jobFacts(db, job),
+    q.key.execute({ jobId: job.id }),
+    q.meter.execute({ jobId: job.id }),
+    dictionaryState(db, versionId),
+  ]);
   const meter = jobMeter(m?.job, m?.shop).profile;
   // The priors are kept with the readings key (priors-cache.ts): a poll or the read after a reading queries nothing.
   const before = await cachedJobPriors(db, facts, `${k?.n ?? 0}|${k?.digest ?? ''}`, () => documentOf(db, versionId));
@@ -111,7 +148,11 @@ export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Pr
   const out = await diagnosisFor(job.id, `${keyOf(versionId, meter, k?.n ?? 0, k?.digest ?? null, before.key)}|${stamp}`, async () => {
     const rows = await currentReadings(db, job.id);
     // A worker thread runs the engine (seconds on a first run), so the server answers other requests meanwhile.
-    const options = { priors: before.priors, ...(before.history ? { history: before.history } : {}), ...(before.references ? { references: before.references } : {}) };
+    const options = {
+      priors: before.priors,
+      ...(before.history ? { history: before.history } : {}),
+      ...(before.references ? { references: before.references } : {}),
+    };
     const out = await diagnosisPool().run(
       versionId,
       toCaseReadings(rows),
@@ -124,7 +165,10 @@ export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Pr
       meter,
     );
     // Kept under the key of the rows it ran on: a reading stored since the key query makes that key differ.
-    return { key: `${keyOf(versionId, meter, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null, before.key)}|${stamp}`, output: shapeDiagnosis(wordDiagnosis(out), job, rows) };
+    return {
+      key: `${keyOf(versionId, meter, rows.length, rows.length ? md5(rows.map((r) => r.id).join(',')) : null, before.key)}|${stamp}`,
+      output: shapeDiagnosis(wordDiagnosis(out), job, rows),
+    };
   });
   // The build's progress changes while the answer does not: it is added per request, outside the kept answer.
   return dictionary.state === 'building' ? { ...out, preparing: { partsDone: dictionary.partsDone, partsTotal: dictionary.partsTotal } } : out;
@@ -134,7 +178,15 @@ export async function computeDiagnosis({ db, job }: { db: Db; job: JobRef }): Pr
 export const currentReadings = (db: Db, id: string): Promise<ReadingRow[]> => queries(db).rows.execute({ jobId: id });
 
 export const toCaseReadings = (rows: ReadingRow[]): CaseReading[] =>
-  rows.map((r) => ({ mode: r.mode, red: r.redNet, black: r.blackNet, power: r.power, lifted: r.lifted, ...(r.alone ? { alone: r.alone } : {}), value: caseValue(r) }));
+  rows.map((r) => ({
+    mode: r.mode,
+    red: r.redNet,
+    black: r.blackNet,
+    power: r.power,
+    lifted: r.lifted,
+    ...(r.alone ? { alone: r.alone } : {}),
+    value: caseValue(r),
+  }));
 
 /** The engine's output as the API tells it: each reading report joined back to its stored row. */
 export function shapeDiagnosis(out: DiagnosisOutput, job: JobRef, rows: ReadingRow[]): Diagnosis {

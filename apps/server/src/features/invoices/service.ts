@@ -9,12 +9,28 @@ import { invoiceLines, invoices, paymentEvents, payments, quoteLines, quotes } f
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
 import type { Storage } from '../../storage/storage';
-import { auditBilling, createCustomerLink, getBillingJob, getSettingsRow, jobSummary, linesFromInput, linesFromRows, mailDocument, openDocument, paymentsFor, publicBase, toInvoice } from '../billing';
+import {
+  auditBilling,
+  createCustomerLink,
+  getBillingJob,
+  getSettingsRow,
+  jobSummary,
+  linesFromInput,
+  linesFromRows,
+  mailDocument,
+  openDocument,
+  paymentsFor,
+  publicBase,
+  toInvoice,
+} from '../billing';
 import { reportPdf } from '../reports';
 import { invoiceMail, paidMail, sendMail } from '../mail';
 
 async function loadInvoice(db: Db, shopId: string, id: string) {
-  const [inv] = await db.select().from(invoices).where(and(eq(invoices.id, id), eq(invoices.shopId, shopId)));
+  const [inv] = await db
+    .select()
+    .from(invoices)
+    .where(and(eq(invoices.id, id), eq(invoices.shopId, shopId)));
   if (!inv) throw new AppError('not_found', `No invoice ${id}`);
   const lines = await db.select().from(invoiceLines).where(eq(invoiceLines.invoiceId, id)).orderBy(asc(invoiceLines.position));
   return { inv, lines };
@@ -61,7 +77,11 @@ export async function createInvoice({
       ? and(eq(quotes.id, input.quoteId), eq(quotes.jobId, jobId), eq(quotes.shopId, actor.shopId))
       : and(eq(quotes.jobId, jobId), eq(quotes.status, 'approved'));
     const [q] = await db.select().from(quotes).where(where).orderBy(desc(quotes.decidedAt)).limit(1);
-    if (!q) throw new AppError('invalid', input.quoteId ? `No quote ${input.quoteId} on this job` : `Job ${job.number} has no approved quote; give the invoice lines`);
+    if (!q)
+      throw new AppError(
+        'invalid',
+        input.quoteId ? `No quote ${input.quoteId} on this job` : `Job ${job.number} has no approved quote; give the invoice lines`,
+      );
     if (q.status !== 'approved') throw new AppError('conflict', `Quote ${q.number} is ${q.status}, not approved by the customer`);
     quoteId = q.id;
     quoteRate = q.taxRateMilliPercent;
@@ -105,7 +125,13 @@ export async function sendInvoice({ db, config, storage, actor, id, to }: { db: 
     to,
     render: async (job, link) => ({
       ...invoiceMail(jobSummary(job), toInvoice(inv, lines), link, true),
-      attachments: [{ filename: `repair-report-job-${job.number}.pdf`, content: await reportPdf({ db, storage, shopId: job.shopId, jobId: job.id }), contentType: 'application/pdf' }],
+      attachments: [
+        {
+          filename: `repair-report-job-${job.number}.pdf`,
+          content: await reportPdf({ db, storage, shopId: job.shopId, jobId: job.id }),
+          contentType: 'application/pdf',
+        },
+      ],
     }),
   });
   await db.update(invoices).set({ sentAt: sent.sentAt }).where(eq(invoices.id, id));
@@ -129,13 +155,31 @@ async function openCheckout(config: Config, sessionId: string): Promise<{ url: s
  * checkout per invoice: while the last one is open its address is given again, so two tabs (or two people with
  * the link) cannot both pay. The invoice row stays locked meanwhile, so two requests at once open one checkout.
  */
-export async function startCheckout({ db, config, shopId, jobId, invoiceId, token }: { db: Db; config: Config; shopId: string; jobId: string; invoiceId: string; token: string }) {
+export async function startCheckout({
+  db,
+  config,
+  shopId,
+  jobId,
+  invoiceId,
+  token,
+}: {
+  db: Db;
+  config: Config;
+  shopId: string;
+  jobId: string;
+  invoiceId: string;
+  token: string;
+}) {
   const { inv } = await loadInvoice(db, shopId, invoiceId);
   if (inv.jobId !== jobId) throw new AppError('not_found', `No invoice ${invoiceId}`);
   const job = await getBillingJob(db, shopId, jobId);
   const page = `${publicBase(config)}/c/${token}`;
   return db.transaction(async (tx) => {
-    const [locked] = await tx.select({ status: invoices.status, checkoutSessionId: invoices.checkoutSessionId }).from(invoices).where(eq(invoices.id, inv.id)).for('update');
+    const [locked] = await tx
+      .select({ status: invoices.status, checkoutSessionId: invoices.checkoutSessionId })
+      .from(invoices)
+      .where(eq(invoices.id, inv.id))
+      .for('update');
     if (locked!.status !== 'issued') throw new AppError('conflict', `Invoice ${inv.number} is ${locked!.status}`);
     if (locked!.checkoutSessionId) {
       const open = await openCheckout(config, locked!.checkoutSessionId);

@@ -24,7 +24,14 @@ export function paymentWebhookRoutes(ctx: AppContext): Router {
     // before any is stored (a signed `{}` or a completed checkout without its session is a 400, not a 500).
     const e = event as unknown as { id?: unknown; type?: unknown; created?: unknown; data?: { object?: unknown } };
     const wellFormed =
-      typeof e.id === 'string' && e.id.length > 0 && e.id.length <= 255 && typeof e.type === 'string' && Number.isFinite(e.created) && !!e.data && typeof e.data.object === 'object' && e.data.object !== null;
+      typeof e.id === 'string' &&
+      e.id.length > 0 &&
+      e.id.length <= 255 &&
+      typeof e.type === 'string' &&
+      Number.isFinite(e.created) &&
+      !!e.data &&
+      typeof e.data.object === 'object' &&
+      e.data.object !== null;
     if (!wellFormed) throw new AppError('bad_request', 'The webhook event lacks its id, type, time or object');
     const outcome = await applyPaymentEvent({ db: ctx.db, config: ctx.config, event });
     res.json({ received: true, outcome });

@@ -20,7 +20,11 @@ function refuseMove(from: JobStatus, to: JobStatus, actor: Actor | undefined, vi
   const list = viaPatch.length ? viaPatch.join(', ') : 'nowhere by an edit';
   const move = jobMove(from, to);
   if (move?.via === 'review' && via === 'patch') {
-    throw new AppError('conflict', `${capitalised(move.name)} is a review decision: POST /api/jobs/:id/reviews. From ${from} an edit can move the job to: ${list}`, { allowed: viaPatch });
+    throw new AppError(
+      'conflict',
+      `${capitalised(move.name)} is a review decision: POST /api/jobs/:id/reviews. From ${from} an edit can move the job to: ${list}`,
+      { allowed: viaPatch },
+    );
   }
   throw new AppError('conflict', `A job cannot move from ${from} to ${to}. From ${from} it can move to: ${list}`, { allowed: viaPatch });
 }

@@ -13,7 +13,11 @@ interface JobMeterFields {
 }
 
 /** The job's meter and its board's expected table for that meter (the stored one when no meter is chosen). */
-export async function jobMeterTable(db: Db, job: JobMeterFields, board: Pick<BoardDetail, 'document' | 'expectedReadings' | 'modelProblem'>): Promise<{ meter: JobMeter; expectedReadings: ExpectedReadingRow[] }> {
+export async function jobMeterTable(
+  db: Db,
+  job: JobMeterFields,
+  board: Pick<BoardDetail, 'document' | 'expectedReadings' | 'modelProblem'>,
+): Promise<{ meter: JobMeter; expectedReadings: ExpectedReadingRow[] }> {
   const [shop] = await db.select({ meterProfile: shops.meterProfile }).from(shops).where(eq(shops.id, job.shopId));
   const meter = jobMeter(job.meterProfile, shop?.meterProfile);
   // A version whose stored model cannot be read judges nothing: it has no table to compute for any meter.

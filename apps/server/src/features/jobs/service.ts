@@ -21,7 +21,19 @@ import {
 import { assertRole, type Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
 import { getJobRow, type JobRow } from '../../db/job-row';
-import { boardModels, boardModelVersions, customers, diagnosisSnapshots, jobs, readingStrikes, readings, repairActions, reviews, shops, users } from '../../db/schema';
+import {
+  boardModels,
+  boardModelVersions,
+  customers,
+  diagnosisSnapshots,
+  jobs,
+  readingStrikes,
+  readings,
+  repairActions,
+  reviews,
+  shops,
+  users,
+} from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso, isoOrNull } from '../../lib/dates';
 import { newId } from '../../lib/ids';
@@ -82,14 +94,33 @@ const toJob = ({ j, customerName, assigneeName, boardName, boardVersion }: JobQu
 
 const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 
-export async function findJobs({ db, actor, query }: { db: Db; actor: Actor; query: { status?: JobStatus[]; assignee?: string; customerId?: string; q?: string } }) {
+export async function findJobs({
+  db,
+  actor,
+  query,
+}: {
+  db: Db;
+  actor: Actor;
+  query: { status?: JobStatus[]; assignee?: string; customerId?: string; q?: string };
+}) {
   const where: SQL[] = [eq(jobs.shopId, actor.shopId)];
   if (query.status?.length) where.push(inArray(jobs.status, query.status));
-  if (query.assignee) where.push(query.assignee === 'none' ? sql`${jobs.assigneeId} is null` : eq(jobs.assigneeId, query.assignee === 'me' ? actor.id : query.assignee));
+  if (query.assignee)
+    where.push(query.assignee === 'none' ? sql`${jobs.assigneeId} is null` : eq(jobs.assigneeId, query.assignee === 'me' ? actor.id : query.assignee));
   if (query.customerId) where.push(eq(jobs.customerId, query.customerId));
   if (query.q) {
     const like = `%${escapeLike(query.q)}%`;
-    where.push(or(ilike(jobs.unitDescription, like), ilike(jobs.serial, like), ilike(jobs.unitSerial, like), ilike(jobs.symptom, like), ilike(jobs.faultCode, like), ilike(customers.name, like), sql`${jobs.number}::text = ${query.q}`)!);
+    where.push(
+      or(
+        ilike(jobs.unitDescription, like),
+        ilike(jobs.serial, like),
+        ilike(jobs.unitSerial, like),
+        ilike(jobs.symptom, like),
+        ilike(jobs.faultCode, like),
+        ilike(customers.name, like),
+        sql`${jobs.number}::text = ${query.q}`,
+      )!,
+    );
   }
   const priorityOrder = sql`case ${jobs.priority} when 'high' then 0 when 'normal' then 1 else 2 end`;
   const rows = await jobQuery(db)
@@ -123,7 +154,10 @@ export async function getJobDetail({ db, actor, id }: { db: Db; actor: Actor; id
     board,
     meter,
     allowedTransitions: allowedMoves(job.status, actor.role),
-    guidedOrderRequired: guidedOrderBinds(actor.role, { job: job.guidedLifted, trainee: actor.role === 'trainee' && (await traineeGuidedLifted(db, actor.id)) }),
+    guidedOrderRequired: guidedOrderBinds(actor.role, {
+      job: job.guidedLifted,
+      trainee: actor.role === 'trainee' && (await traineeGuidedLifted(db, actor.id)),
+    }),
     assigneeGuidedLifted: await assigneeLift(db, job.assigneeId),
     reviews: reviewRows.map(({ r, name }) => toReview(r, name)),
     latestSnapshot: snap ? toSnapshot(snap) : null,
@@ -139,15 +173,30 @@ async function assigneeLift(db: Db, assigneeId: string | null): Promise<boolean 
 
 async function checkAssignee(db: Db, shopId: string, assigneeId: string | null | undefined) {
   if (!assigneeId) return;
-  const [u] = await db.select({ id: users.id }).from(users).where(and(eq(users.id, assigneeId), eq(users.shopId, shopId)));
-  if (!u) throw new AppError('invalid', `No member ${assigneeId} in this shop to assign`, { errors: [{ path: 'assigneeId', message: 'not a member of this shop' }] });
+  const [u] = await db
+    .select({ id: users.id })
+    .from(users)
+    .where(and(eq(users.id, assigneeId), eq(users.shopId, shopId)));
+  if (!u)
+    throw new AppError('invalid', `No member ${assigneeId} in this shop to assign`, { errors: [{ path: 'assigneeId', message: 'not a member of this shop' }] });
 }
 
-export async function createJob({ db, actor, input }: { db: Db; actor: Pick<Actor, 'id' | 'shopId'>; input: CreateJobRequest & { id?: string } }): Promise<Job> {
+export async function createJob({
+  db,
+  actor,
+  input,
+}: {
+  db: Db;
+  actor: Pick<Actor, 'id' | 'shopId'>;
+  input: CreateJobRequest & { id?: string };
+}): Promise<Job> {
   const key = input.idempotencyKey;
   const made = async () => {
     if (!key) return undefined;
-    const [row] = await db.select({ id: jobs.id }).from(jobs).where(and(eq(jobs.shopId, actor.shopId), eq(jobs.idempotencyKey, key)));
+    const [row] = await db
+      .select({ id: jobs.id })
+      .from(jobs)
+      .where(and(eq(jobs.shopId, actor.shopId), eq(jobs.idempotencyKey, key)));
     return row ? getJob({ db, shopId: actor.shopId, id: row.id }) : undefined;
   };
   const earlier = await made();
@@ -163,15 +212,24 @@ export async function createJob({ db, actor, input }: { db: Db; actor: Pick<Acto
 }
 
 async function insertJob({ db, actor, input }: { db: Db; actor: Pick<Actor, 'id' | 'shopId'>; input: CreateJobRequest & { id?: string } }): Promise<Job> {
-  const [customer] = await db.select({ id: customers.id }).from(customers).where(and(eq(customers.id, input.customerId), eq(customers.shopId, actor.shopId)));
+  const [customer] = await db
+    .select({ id: customers.id })
+    .from(customers)
+    .where(and(eq(customers.id, input.customerId), eq(customers.shopId, actor.shopId)));
   if (!customer) throw new AppError('invalid', `No customer ${input.customerId}`, { errors: [{ path: 'customerId', message: 'unknown customer' }] });
-  const [board] = await db.select().from(boardModels).where(and(eq(boardModels.id, input.boardId), eq(boardModels.shopId, actor.shopId)));
+  const [board] = await db
+    .select()
+    .from(boardModels)
+    .where(and(eq(boardModels.id, input.boardId), eq(boardModels.shopId, actor.shopId)));
   if (!board) throw new AppError('invalid', `No board model ${input.boardId}`, { errors: [{ path: 'boardId', message: 'unknown board model' }] });
   const [version] = await db
     .select({ id: boardModelVersions.id })
     .from(boardModelVersions)
     .where(and(eq(boardModelVersions.boardId, board.id), eq(boardModelVersions.version, input.boardVersion ?? board.currentVersion)));
-  if (!version) throw new AppError('invalid', `Board model ${board.name} has no version ${input.boardVersion}`, { errors: [{ path: 'boardVersion', message: 'unknown version' }] });
+  if (!version)
+    throw new AppError('invalid', `Board model ${board.name} has no version ${input.boardVersion}`, {
+      errors: [{ path: 'boardVersion', message: 'unknown version' }],
+    });
   await checkAssignee(db, actor.shopId, input.assigneeId);
   const id = input.id ?? newId();
   await db.transaction(async (tx) => {
@@ -210,7 +268,12 @@ async function insertJob({ db, actor, input }: { db: Db; actor: Pick<Actor, 'id'
  * no healthy verification reading (contract: verificationReadings) proves, or no repair.
  */
 async function verificationProblems(db: Db, actor: Actor, job: JobRow): Promise<string | null> {
-  const [last] = await db.select({ at: repairActions.createdAt }).from(repairActions).where(eq(repairActions.jobId, job.id)).orderBy(desc(repairActions.createdAt)).limit(1);
+  const [last] = await db
+    .select({ at: repairActions.createdAt })
+    .from(repairActions)
+    .where(eq(repairActions.jobId, job.id))
+    .orderBy(desc(repairActions.createdAt))
+    .limit(1);
   if (!last) return 'no repair action is recorded';
   const later = alias(readings, 'later');
   const taken = await db
@@ -269,7 +332,10 @@ export async function updateJob({ db, actor, id, input }: { db: Db; actor: Actor
     checkMove(move);
     if (status === 'awaiting-review') {
       const part = fields.proposedPart ?? current.proposedPart;
-      if (!part) throw new AppError('invalid', 'Name the part you propose (proposedPart) before asking for a review', { errors: [{ path: 'proposedPart', message: 'required to move to awaiting-review' }] });
+      if (!part)
+        throw new AppError('invalid', 'Name the part you propose (proposedPart) before asking for a review', {
+          errors: [{ path: 'proposedPart', message: 'required to move to awaiting-review' }],
+        });
       set.sentBack = false;
       const output = await computeDiagnosis({ db, job: current });
       snapshot = { id: newId(), shopId: actor.shopId, jobId: id, engineVersion: output.engineVersion, proposedPart: part, output, createdBy: actor.id };
@@ -288,7 +354,10 @@ export async function updateJob({ db, actor, id, input }: { db: Db; actor: Actor
       move.audit = { action: 'sign-off', detail: `job ${current.number}` };
     }
     if (status === 'returned') {
-      if (!fields.returnedVia) throw new AppError('invalid', 'Say how the board left: sent by courier or collected by the customer', { errors: [{ path: 'returnedVia', message: 'choose courier or collected' }] });
+      if (!fields.returnedVia)
+        throw new AppError('invalid', 'Say how the board left: sent by courier or collected by the customer', {
+          errors: [{ path: 'returnedVia', message: 'choose courier or collected' }],
+        });
       set.returnedVia = fields.returnedVia;
       set.closedAt = fields.returnedAt ? new Date(fields.returnedAt) : new Date();
     }
@@ -298,7 +367,13 @@ export async function updateJob({ db, actor, id, input }: { db: Db; actor: Actor
     // Compare-and-set on the status we read, so two people moving the same job cannot both win.
     const done = move
       ? await moveJob(tx, move)
-      : (await tx.update(jobs).set(set).where(and(eq(jobs.id, id), eq(jobs.status, current.status))).returning({ id: jobs.id })).length > 0;
+      : (
+          await tx
+            .update(jobs)
+            .set(set)
+            .where(and(eq(jobs.id, id), eq(jobs.status, current.status)))
+            .returning({ id: jobs.id })
+        ).length > 0;
     if (!done) throw new AppError('conflict', 'The job changed while you were editing it; reload and try again');
     if (snapshot) await tx.insert(diagnosisSnapshots).values(snapshot);
   });

@@ -1,6 +1,14 @@
 import { and, asc, eq, like } from 'drizzle-orm';
 import { parse as parseCsv, CsvError } from 'csv-parse/sync';
-import { createReadingRequest, meterColumnMapping, meterFunctionOf, type ImportRow, type MeterImportResult, type MeterProfile, type MeterProfileInput } from '@splitscope/contract';
+import {
+  createReadingRequest,
+  meterColumnMapping,
+  meterFunctionOf,
+  type ImportRow,
+  type MeterImportResult,
+  type MeterProfile,
+  type MeterProfileInput,
+} from '@splitscope/contract';
 import { parseReadingInput } from '@splitscope/boards/units';
 import type { z } from 'zod';
 import type { Actor } from '../../auth/guards';
@@ -14,7 +22,14 @@ import { getJobRow } from '../../db/job-row';
 import { createReading } from '../readings';
 
 type ProfileRow = typeof meterProfiles.$inferSelect;
-const toProfile = (r: ProfileRow): MeterProfile => ({ id: r.id, name: r.name, mapping: meterColumnMapping.parse(r.mapping), defaultMode: r.defaultMode, defaultReference: r.defaultReference, power: r.power });
+const toProfile = (r: ProfileRow): MeterProfile => ({
+  id: r.id,
+  name: r.name,
+  mapping: meterColumnMapping.parse(r.mapping),
+  defaultMode: r.defaultMode,
+  defaultReference: r.defaultReference,
+  power: r.power,
+});
 
 export async function findMeterProfiles({ db, shopId }: { db: Db; shopId: string }) {
   const rows = await db.select().from(meterProfiles).where(eq(meterProfiles.shopId, shopId)).orderBy(asc(meterProfiles.name));
@@ -23,7 +38,13 @@ export async function findMeterProfiles({ db, shopId }: { db: Db; shopId: string
 
 /** Saves a meter's column mapping under its name: the same name again replaces the mapping. */
 export async function saveMeterProfile({ db, shopId, input }: { db: Db; shopId: string; input: Required<MeterProfileInput> }): Promise<MeterProfile> {
-  const values = { mapping: input.mapping, defaultMode: input.defaultMode, defaultReference: input.defaultReference, power: input.power, updatedAt: new Date() };
+  const values = {
+    mapping: input.mapping,
+    defaultMode: input.defaultMode,
+    defaultReference: input.defaultReference,
+    power: input.power,
+    updatedAt: new Date(),
+  };
   const [row] = await db
     .insert(meterProfiles)
     .values({ id: newId(), shopId, name: input.name, ...values })
@@ -56,11 +77,15 @@ function delimiterOf(csv: string): string {
 function readCsv(csv: string): { columns: string[]; records: { line: number; cells: Record<string, string> }[] } {
   const delimiter = delimiterOf(csv);
   try {
-    const out = parseCsv(csv, { columns: true, skip_empty_lines: true, trim: true, bom: true, relax_column_count: true, delimiter, info: true }) as { record: Record<string, string>; info: { lines: number } }[];
+    const out = parseCsv(csv, { columns: true, skip_empty_lines: true, trim: true, bom: true, relax_column_count: true, delimiter, info: true }) as {
+      record: Record<string, string>;
+      info: { lines: number };
+    }[];
     const columns = out[0] ? Object.keys(out[0].record) : (csv.split(/\r?\n/, 1)[0] ?? '').split(delimiter).map((c) => c.trim());
     return { columns, records: out.map((r) => ({ line: r.info.lines, cells: r.record })) };
   } catch (err) {
-    if (err instanceof CsvError) throw new AppError('invalid', `The file is not a CSV table the import can read: ${err.message}`, { errors: [{ path: 'csv', message: err.message }] });
+    if (err instanceof CsvError)
+      throw new AppError('invalid', `The file is not a CSV table the import can read: ${err.message}`, { errors: [{ path: 'csv', message: err.message }] });
     throw err;
   }
 }
@@ -68,7 +93,10 @@ function readCsv(csv: string): { columns: string[]; records: { line: number; cel
 /** Every row of the log as the reading it would be, or the reason it cannot be one. Stores nothing. */
 async function analyse(db: Db, actor: Actor, jobId: string, body: ImportBody) {
   const job = await getJobRow(db, actor.shopId, jobId);
-  const [profileRow] = await db.select().from(meterProfiles).where(and(eq(meterProfiles.id, body.profileId), eq(meterProfiles.shopId, actor.shopId)));
+  const [profileRow] = await db
+    .select()
+    .from(meterProfiles)
+    .where(and(eq(meterProfiles.id, body.profileId), eq(meterProfiles.shopId, actor.shopId)));
   if (!profileRow) throw new AppError('invalid', `No meter profile ${body.profileId}`, { errors: [{ path: 'profileId', message: 'unknown meter profile' }] });
   const profile = toProfile(profileRow);
   const [version] = await db.select({ document: boardModelVersions.document }).from(boardModelVersions).where(eq(boardModelVersions.id, job.boardVersionId));
@@ -77,9 +105,13 @@ async function analyse(db: Db, actor: Actor, jobId: string, body: ImportBody) {
   const mapped = Object.entries(profile.mapping).filter((e): e is [string, string] => typeof e[1] === 'string');
   const missing = mapped.filter(([, c]) => !columns.includes(c));
   if (missing.length) {
-    throw new AppError('invalid', `The file has no column ${missing.map(([, c]) => `"${c}"`).join(', ')} of the profile "${profile.name}"; its columns are ${columns.map((c) => `"${c}"`).join(', ')}`, {
-      errors: [{ path: 'csv', message: 'columns do not match the meter profile' }],
-    });
+    throw new AppError(
+      'invalid',
+      `The file has no column ${missing.map(([, c]) => `"${c}"`).join(', ')} of the profile "${profile.name}"; its columns are ${columns.map((c) => `"${c}"`).join(', ')}`,
+      {
+        errors: [{ path: 'csv', message: 'columns do not match the meter profile' }],
+      },
+    );
   }
   const m = profile.mapping;
   const rows = records.map(({ line, cells }): ImportRow & { input?: z.output<typeof createReadingRequest> } => {
@@ -123,7 +155,17 @@ async function analyse(db: Db, actor: Actor, jobId: string, body: ImportBody) {
 
 const result = (columns: string[], rows: ImportRow[], stored: number): MeterImportResult => ({
   columns,
-  rows: rows.map(({ line, point, reference, mode, raw, value, takenAt, error, readingId }) => ({ line, point, reference, mode, raw, value, takenAt, error, readingId })),
+  rows: rows.map(({ line, point, reference, mode, raw, value, takenAt, error, readingId }) => ({
+    line,
+    point,
+    reference,
+    mode,
+    raw,
+    value,
+    takenAt,
+    error,
+    readingId,
+  })),
   good: rows.filter((r) => !r.error).length,
   bad: rows.filter((r) => r.error).length,
   stored,

@@ -11,7 +11,9 @@ export function valueOf(value: string, path = 'value'): number | null {
   if (parsed.ok && typeof parsed.value === 'number') return parsed.value;
   if (looksLikePartNumber(value)) return null;
   const why = parsed.ok ? 'OL is a meter reading, not a part value' : parsed.error;
-  throw new AppError('invalid', `"${value}" is not a part value or a part number (${why})`, { errors: [{ path, message: `not a value like 4k7, 100uF or 16 V, nor a part number like 1N4148` }] });
+  throw new AppError('invalid', `"${value}" is not a part value or a part number (${why})`, {
+    errors: [{ path, message: `not a value like 4k7, 100uF or 16 V, nor a part number like 1N4148` }],
+  });
 }
 
 interface DocPart {
@@ -27,7 +29,9 @@ export function boardPartOf(document: unknown, designator: string): (FitSide & {
   const parts = (document as { parts?: unknown } | null)?.parts;
   if (!Array.isArray(parts)) return null;
   const printed = boardWords(wordsModelOf(document)).designator(designator).toLowerCase();
-  const found = (parts as DocPart[]).find((p) => typeof p?.designator === 'string' && (p.designator.toLowerCase() === printed || p.element?.toLowerCase() === designator.toLowerCase()));
+  const found = (parts as DocPart[]).find(
+    (p) => typeof p?.designator === 'string' && (p.designator.toLowerCase() === printed || p.element?.toLowerCase() === designator.toLowerCase()),
+  );
   if (!found || typeof found.value !== 'string') return null;
   let nominal: number | null = typeof found.nominal === 'number' ? found.nominal : null;
   if (nominal === null) {

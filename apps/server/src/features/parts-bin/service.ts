@@ -26,7 +26,10 @@ const toBinPart = (r: BinRow): BinPart => ({
 });
 
 async function binRow(db: Db | Tx, shopId: string, id: string): Promise<BinRow> {
-  const [row] = await db.select().from(binParts).where(and(eq(binParts.id, id), eq(binParts.shopId, shopId)));
+  const [row] = await db
+    .select()
+    .from(binParts)
+    .where(and(eq(binParts.id, id), eq(binParts.shopId, shopId)));
   if (!row) throw new AppError('not_found', `No drawer ${id} in the parts bin`);
   return row;
 }
@@ -82,7 +85,9 @@ export async function takeFromBin(tx: Tx, o: { shopId: string; jobId: string; re
     const bin = await binRow(tx, o.shopId, o.binPartId);
     throw new AppError('conflict', `Drawer ${bin.drawer} holds ${bin.quantity} of ${bin.value} ${bin.package}; the repair asks for ${o.quantity}`);
   }
-  await tx.insert(binTakes).values({ id: newId(), shopId: o.shopId, binPartId: o.binPartId, jobId: o.jobId, repairId: o.repairId, quantity: o.quantity, takenBy: o.takenBy });
+  await tx
+    .insert(binTakes)
+    .values({ id: newId(), shopId: o.shopId, binPartId: o.binPartId, jobId: o.jobId, repairId: o.repairId, quantity: o.quantity, takenBy: o.takenBy });
 }
 
 /**
@@ -98,7 +103,10 @@ export async function quoteDraft({ db, shopId, jobId }: { db: Db; shopId: string
     .innerJoin(repairActions, eq(repairActions.id, binTakes.repairId))
     .where(eq(binTakes.jobId, jobId))
     .orderBy(asc(binTakes.createdAt));
-  const [repairs] = await db.select({ n: sql<number>`count(*)::int` }).from(repairActions).where(eq(repairActions.jobId, jobId));
+  const [repairs] = await db
+    .select({ n: sql<number>`count(*)::int` })
+    .from(repairActions)
+    .where(eq(repairActions.jobId, jobId));
   const terms = await getServiceTerms(db, shopId);
   const parts = taken.map(({ part, quantity, bin }) => ({
     kind: 'part' as const,
@@ -108,6 +116,17 @@ export async function quoteDraft({ db, shopId, jobId }: { db: Db; shopId: string
     taxable: true,
   }));
   const hours = ((repairs?.n ?? 0) * terms.repairMinutes) / 60;
-  const labour = hours > 0 ? [{ kind: 'labour' as const, description: `Bench labour (${repairs!.n} ${repairs!.n === 1 ? 'repair' : 'repairs'})`, quantity: centsToDecimal(Math.round(hours * 100)).replace(/\.?0+$/, ''), unitCents: terms.labourRateCents, taxable: true }] : [];
+  const labour =
+    hours > 0
+      ? [
+          {
+            kind: 'labour' as const,
+            description: `Bench labour (${repairs!.n} ${repairs!.n === 1 ? 'repair' : 'repairs'})`,
+            quantity: centsToDecimal(Math.round(hours * 100)).replace(/\.?0+$/, ''),
+            unitCents: terms.labourRateCents,
+            taxable: true,
+          },
+        ]
+      : [];
   return { lines: [...parts, ...labour] };
 }

@@ -7,11 +7,26 @@ import type { Db } from '../../db/client';
 import { quoteLines, quotes } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { newId } from '../../lib/ids';
-import { auditBilling, getBillingJob, getSettingsRow, jobSummary, linesFromInput, linesFromRows, mailDocument, openDocument, priceLines, revokeEarlierLinks, toQuote } from '../billing';
+import {
+  auditBilling,
+  getBillingJob,
+  getSettingsRow,
+  jobSummary,
+  linesFromInput,
+  linesFromRows,
+  mailDocument,
+  openDocument,
+  priceLines,
+  revokeEarlierLinks,
+  toQuote,
+} from '../billing';
 import { quoteMail } from '../mail';
 
 async function loadQuote(db: Db, shopId: string, id: string) {
-  const [q] = await db.select().from(quotes).where(and(eq(quotes.id, id), eq(quotes.shopId, shopId)));
+  const [q] = await db
+    .select()
+    .from(quotes)
+    .where(and(eq(quotes.id, id), eq(quotes.shopId, shopId)));
   if (!q) throw new AppError('not_found', `No quote ${id}`);
   const lines = await db.select().from(quoteLines).where(eq(quoteLines.quoteId, id)).orderBy(asc(quoteLines.position));
   return { q, lines };
@@ -86,10 +101,7 @@ export async function sendQuote({ db, config, actor, id, to }: { db: Db; config:
     render: async (job, link) => quoteMail(jobSummary(job), toQuote(q, lines), link),
   });
   const address = sent.to;
-  await db
-    .update(quotes)
-    .set({ status: 'sent', sentAt: sent.sentAt, sentTo: address, updatedAt: new Date() })
-    .where(eq(quotes.id, id));
+  await db.update(quotes).set({ status: 'sent', sentAt: sent.sentAt, sentTo: address, updatedAt: new Date() }).where(eq(quotes.id, id));
   // The links mailed before this quote offered what it replaces: only the link in this mail stays open.
   const revoked = await revokeEarlierLinks(db, q.jobId, sent.linkId);
   await auditBilling(db, actor.shopId, actor, 'quote.send', id, `${address}${revoked ? `; ${revoked} earlier link(s) revoked` : ''}`);

@@ -51,13 +51,26 @@ interface Probe {
   lifted: string[];
 }
 type Test = Probe & { mode: string; power: string };
-const sameTest = (a: Test, b: Test) => a.mode === b.mode && a.power === b.power && norm(a.redNet) === norm(b.redNet) && norm(a.blackNet) === norm(b.blackNet) && sameSet(a.lifted, b.lifted);
+const sameTest = (a: Test, b: Test) =>
+  a.mode === b.mode && a.power === b.power && norm(a.redNet) === norm(b.redNet) && norm(a.blackNet) === norm(b.blackNet) && sameSet(a.lifted, b.lifted);
 
 /**
  * Refuses a trainee's reading that is not one of the engine's next steps for this job. A correction of a step
  * already taken (same probes, same meter function, same state) is allowed: fixing a typo is not skipping ahead.
  */
-export async function checkGuidedStep({ db, job, input, probe, corrects }: { db: Db; job: Pick<typeof jobs.$inferSelect, 'id' | 'boardVersionId'>; input: CreateReadingInput; probe: Probe; corrects?: Test }): Promise<void> {
+export async function checkGuidedStep({
+  db,
+  job,
+  input,
+  probe,
+  corrects,
+}: {
+  db: Db;
+  job: Pick<typeof jobs.$inferSelect, 'id' | 'boardVersionId'>;
+  input: CreateReadingInput;
+  probe: Probe;
+  corrects?: Test;
+}): Promise<void> {
   const taken: Test = { ...probe, mode: input.mode, power: input.power };
   if (corrects) {
     if (sameTest(taken, corrects)) return;

@@ -1,5 +1,14 @@
 import { Router } from 'express';
-import { createReadingRequest, idParams, readingListQuery, readingListResponse, readingParams, readingSchema, strikeReadingRequest, type CreateReadingResponse } from '@splitscope/contract';
+import {
+  createReadingRequest,
+  idParams,
+  readingListQuery,
+  readingListResponse,
+  readingParams,
+  readingSchema,
+  strikeReadingRequest,
+  type CreateReadingResponse,
+} from '@splitscope/contract';
 import { actorOf, requireRole, ROLES } from '../../auth/guards';
 import type { AppContext } from '../../context';
 import { parse } from '../../http/errors';

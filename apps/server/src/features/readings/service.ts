@@ -2,7 +2,20 @@ import { createHash } from 'node:crypto';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { LRUCache } from 'lru-cache';
-import { acceptsReadings, correctionRefusal, guidedOrderBinds, readingRefusal, jobMeter, statusesTakingReadings, type CreateReadingInput, type CreateReadingResponse, type JobStatus, type ReadingVerdict, type StoredReading, unitOf } from '@splitscope/contract';
+import {
+  acceptsReadings,
+  correctionRefusal,
+  guidedOrderBinds,
+  readingRefusal,
+  jobMeter,
+  statusesTakingReadings,
+  type CreateReadingInput,
+  type CreateReadingResponse,
+  type JobStatus,
+  type ReadingVerdict,
+  type StoredReading,
+  unitOf,
+} from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
 import { boardModelVersions, jobs, readingStrikes, readings, shops, users } from '../../db/schema';
@@ -66,14 +79,30 @@ function rowsQuery(db: Db) {
 }
 
 /** The full history (or only current rows), oldest first. */
-export async function findReadings({ db, shopId, jobId, view, phase }: { db: Db; shopId: string; jobId: string; view: 'all' | 'current'; phase?: 'diagnosis' | 'verification' }) {
+export async function findReadings({
+  db,
+  shopId,
+  jobId,
+  view,
+  phase,
+}: {
+  db: Db;
+  shopId: string;
+  jobId: string;
+  view: 'all' | 'current';
+  phase?: 'diagnosis' | 'verification';
+}) {
   await getJobRow(db, shopId, jobId);
   const where = [eq(readings.jobId, jobId)];
   if (phase) where.push(eq(readings.phase, phase));
   if (view === 'current') where.push(sql`${later.id} is null and ${readingStrikes.id} is null`);
-  const rows = await rowsQuery(db).where(and(...where)).orderBy(asc(readings.takenAt), asc(readings.createdAt));
+  const rows = await rowsQuery(db)
+    .where(and(...where))
+    .orderBy(asc(readings.takenAt), asc(readings.createdAt));
   return {
-    items: rows.map((x) => toReading(x.r, x.authorName, x.supersededBy, x.strike ? { reason: x.strike.reason, authorName: x.strikerName ?? '', at: iso(x.strike.createdAt) } : null)),
+    items: rows.map((x) =>
+      toReading(x.r, x.authorName, x.supersededBy, x.strike ? { reason: x.strike.reason, authorName: x.strikerName ?? '', at: iso(x.strike.createdAt) } : null),
+    ),
   };
 }
 
@@ -81,7 +110,19 @@ export async function findReadings({ db, shopId, jobId, view, phase }: { db: Db;
  * Strikes a reading out with a reason. Nothing is updated or deleted: the strike is a row of its own, and the
  * diagnosis and the sign-off leave struck readings out. A trainee strikes only on a job assigned to them.
  */
-export async function strikeReading({ db, actor, jobId, readingId, reason }: { db: Db; actor: Actor; jobId: string; readingId: string; reason: string }): Promise<StoredReading> {
+export async function strikeReading({
+  db,
+  actor,
+  jobId,
+  readingId,
+  reason,
+}: {
+  db: Db;
+  actor: Actor;
+  jobId: string;
+  readingId: string;
+  reason: string;
+}): Promise<StoredReading> {
   const job = await getJobRow(db, actor.shopId, jobId);
   if (actor.role === 'trainee' && job.assigneeId !== actor.id) throw new AppError('forbidden', 'Trainees strike readings only on jobs assigned to them');
   const [row] = await rowsQuery(db).where(and(eq(readings.id, readingId), eq(readings.jobId, jobId)));
@@ -96,10 +137,19 @@ export async function strikeReading({ db, actor, jobId, readingId, reason }: { d
     throw err;
   }
   const [after] = await rowsQuery(db).where(eq(readings.id, readingId));
-  return toReading(after!.r, after!.authorName, after!.supersededBy, { reason, authorName: after!.strikerName ?? actor.name, at: iso(after!.strike!.createdAt) });
+  return toReading(after!.r, after!.authorName, after!.supersededBy, {
+    reason,
+    authorName: after!.strikerName ?? actor.name,
+    at: iso(after!.strike!.createdAt),
+  });
 }
 
-const withVerdict = (r: StoredReading): CreateReadingResponse => ({ ...r, expected: r.verdict?.expected ?? null, low: r.verdict?.low ?? null, high: r.verdict?.high ?? null });
+const withVerdict = (r: StoredReading): CreateReadingResponse => ({
+  ...r,
+  expected: r.verdict?.expected ?? null,
+  low: r.verdict?.low ?? null,
+  high: r.verdict?.high ?? null,
+});
 
 const p = sql.placeholder;
 const stored = alias(readings, 'stored');
@@ -141,7 +191,14 @@ function prepare(db: Db) {
       .where(eq(boardModelVersions.id, p('versionId')))
       .prepare('reading_board_version'),
     corrects: db
-      .select({ mode: readings.mode, redNet: readings.redNet, blackNet: readings.blackNet, power: readings.power, lifted: readings.lifted, authorId: readings.authorId })
+      .select({
+        mode: readings.mode,
+        redNet: readings.redNet,
+        blackNet: readings.blackNet,
+        power: readings.power,
+        lifted: readings.lifted,
+        authorId: readings.authorId,
+      })
       .from(readings)
       .where(and(eq(readings.id, p('id')), eq(readings.jobId, p('jobId'))))
       .prepare('reading_corrects'),
@@ -169,17 +226,29 @@ async function boardVersionOf(db: Db, shopId: string, jobId: string): Promise<st
 const invalid = (path: string, message: string) => new AppError('invalid', message, { errors: [{ path, message }] });
 
 function checkOpen(status: JobStatus, phase: CreateReadingInput['phase']): void {
-  if (!acceptsReadings(status, phase)) throw new AppError('conflict', `A ${phase} reading is taken while the job is ${statusesTakingReadings(phase).join(' or ')}; this job is ${status}`);
+  if (!acceptsReadings(status, phase))
+    throw new AppError('conflict', `A ${phase} reading is taken while the job is ${statusesTakingReadings(phase).join(' or ')}; this job is ${status}`);
 }
 
 type JobState = { id: string; status: JobStatus; assigneeId: string | null; boardVersionId: string; guidedLiftedBy: string | null };
 
 /** Object keys in a fixed order at every depth, so two equal requests serialise to the same text. */
 const canonical = (v: unknown): unknown =>
-  Array.isArray(v) ? v.map(canonical) : v && typeof v === 'object' ? Object.fromEntries(Object.keys(v).sort().map((k) => [k, canonical((v as Record<string, unknown>)[k])])) : v;
+  Array.isArray(v)
+    ? v.map(canonical)
+    : v && typeof v === 'object'
+      ? Object.fromEntries(
+          Object.keys(v)
+            .sort()
+            .map((k) => [k, canonical((v as Record<string, unknown>)[k])]),
+        )
+      : v;
 
 /** What a retry must repeat: the request as parsed (defaults filled in, text trimmed), hashed. */
-export const requestHashOf = (input: CreateReadingInput) => createHash('sha256').update(JSON.stringify(canonical(input))).digest('base64url');
+export const requestHashOf = (input: CreateReadingInput) =>
+  createHash('sha256')
+    .update(JSON.stringify(canonical(input)))
+    .digest('base64url');
 
 /** The job as a checked write sees it first: of this shop, open to this actor, and any row this key stored. */
 async function jobAndReplay(db: Db, actor: Actor, jobId: string, input: CreateReadingInput): Promise<{ job: JobState; replay: CreateReadingResponse | null }> {
@@ -191,7 +260,10 @@ async function jobAndReplay(db: Db, actor: Actor, jobId: string, input: CreateRe
   // A key names one reading: the same key with another body is a client bug (or two readings sharing a key),
   // and answering the stored row as if it were this one would lose the new reading without a word.
   if (found.r?.requestHash && found.r.requestHash !== requestHashOf(input)) {
-    throw new AppError('conflict', `Idempotency key ${input.idempotencyKey} was already used for a different reading (key reused with a different reading); send this reading with a new key`);
+    throw new AppError(
+      'conflict',
+      `Idempotency key ${input.idempotencyKey} was already used for a different reading (key reused with a different reading); send this reading with a new key`,
+    );
   }
   return { job, replay: found.r ? withVerdict(toReading(found.r, found.authorName!, found.supersededBy)) : null };
 }
@@ -204,7 +276,17 @@ async function jobAndReplay(db: Db, actor: Actor, jobId: string, input: CreateRe
  * checked by the statement that stores it (the job's shop and status, the key not used yet), and only when that
  * stores nothing does a second look say why: a replay, a closed job or no such job.
  */
-export async function createReading({ db, actor, jobId, input }: { db: Db; actor: Actor; jobId: string; input: CreateReadingInput }): Promise<CreateReadingResponse> {
+export async function createReading({
+  db,
+  actor,
+  jobId,
+  input,
+}: {
+  db: Db;
+  actor: Actor;
+  jobId: string;
+  input: CreateReadingInput;
+}): Promise<CreateReadingResponse> {
   const q = queries(db);
   // Started now, read when the verdict is computed: it overlaps the checks below.
   const meterRow = q.meter.execute({ jobId, shopId: actor.shopId });
@@ -311,7 +393,8 @@ export async function createReading({ db, actor, jobId, input }: { db: Db; actor
   try {
     inserted = await insertReading(db, row);
   } catch (err) {
-    if ((err as { code?: string }).code === '23505') throw new AppError('conflict', `Reading ${input.supersedes} is already corrected; correct the newer reading instead`);
+    if ((err as { code?: string }).code === '23505')
+      throw new AppError('conflict', `Reading ${input.supersedes} is already corrected; correct the newer reading instead`);
     throw err;
   }
   // The answer is the row as stored; the author is the signed-in actor and nothing corrects it yet.

@@ -16,10 +16,31 @@ export type NewReading = Omit<ReadingRow, 'createdAt'>;
 // into rows), so the statement text and its plan are the same for a batch of one or of hundreds and pg prepares
 // it once; and one JSON.stringify costs the busy event loop less than pg's escaping of one array per column.
 const COLUMNS = [
-  ['id', 'text'], ['shop_id', 'text'], ['job_id', 'text'], ['idempotency_key', 'text'], ['request_hash', 'text'], ['mode', 'meter_mode'], ['red', 'text'],
-  ['black', 'text'], ['red_net', 'text'], ['black_net', 'text'], ['power', 'power_state'], ['lifted', 'jsonb'], ['alone', 'text'], ['value', 'float8'],
-  ['over_limit', 'boolean'], ['unit', 'text'], ['beep', 'boolean'], ['raw', 'text'], ['instrument', 'text'], ['phase', 'reading_phase'],
-  ['supersedes', 'text'], ['verdict', 'jsonb'], ['safety_bus_volts', 'float8'], ['author_id', 'text'], ['taken_at', 'timestamptz'],
+  ['id', 'text'],
+  ['shop_id', 'text'],
+  ['job_id', 'text'],
+  ['idempotency_key', 'text'],
+  ['request_hash', 'text'],
+  ['mode', 'meter_mode'],
+  ['red', 'text'],
+  ['black', 'text'],
+  ['red_net', 'text'],
+  ['black_net', 'text'],
+  ['power', 'power_state'],
+  ['lifted', 'jsonb'],
+  ['alone', 'text'],
+  ['value', 'float8'],
+  ['over_limit', 'boolean'],
+  ['unit', 'text'],
+  ['beep', 'boolean'],
+  ['raw', 'text'],
+  ['instrument', 'text'],
+  ['phase', 'reading_phase'],
+  ['supersedes', 'text'],
+  ['verdict', 'jsonb'],
+  ['safety_bus_volts', 'float8'],
+  ['author_id', 'text'],
+  ['taken_at', 'timestamptz'],
 ] as const;
 
 const names = COLUMNS.map(([c]) => c).join(', ');

@@ -37,19 +37,55 @@ function netOf(doc: BoardModel, point: string): string | undefined {
 
 type Reading = CreateReferenceSetRequest['readings'][number];
 
-async function storeSet(db: Db, o: { actor: Actor; boardId: string; versionId: string; doc: BoardModel; jobId: string | null; serial: string | null; note: string | null; readings: Reading[] }) {
+async function storeSet(
+  db: Db,
+  o: {
+    actor: Actor;
+    boardId: string;
+    versionId: string;
+    doc: BoardModel;
+    jobId: string | null;
+    serial: string | null;
+    note: string | null;
+    readings: Reading[];
+  },
+) {
   const rows = o.readings.map((r, i) => {
     const red = netOf(o.doc, r.red);
     const black = netOf(o.doc, r.black);
     if (!red || !black) {
       const which = !red ? r.red : r.black;
-      throw new AppError('invalid', `Reading ${i + 1}: ${which} is not a test point or net of this board`, { errors: [{ path: `readings.${i}`, message: `${which} is not a test point or net of this board` }] });
+      throw new AppError('invalid', `Reading ${i + 1}: ${which} is not a test point or net of this board`, {
+        errors: [{ path: `readings.${i}`, message: `${which} is not a test point or net of this board` }],
+      });
     }
-    return { id: newId(), setId: '', mode: r.mode, power: r.power, red: r.red, black: r.black, redNet: red, blackNet: black, value: r.value === 'OL' ? null : r.value, overLimit: r.value === 'OL' };
+    return {
+      id: newId(),
+      setId: '',
+      mode: r.mode,
+      power: r.power,
+      red: r.red,
+      black: r.black,
+      redNet: red,
+      blackNet: black,
+      value: r.value === 'OL' ? null : r.value,
+      overLimit: r.value === 'OL',
+    };
   });
   const id = newId();
   await db.transaction(async (tx) => {
-    await tx.insert(referenceSets).values({ id, shopId: o.actor.shopId, boardId: o.boardId, versionId: o.versionId, jobId: o.jobId, serial: o.serial, note: o.note, createdBy: o.actor.id });
+    await tx
+      .insert(referenceSets)
+      .values({
+        id,
+        shopId: o.actor.shopId,
+        boardId: o.boardId,
+        versionId: o.versionId,
+        jobId: o.jobId,
+        serial: o.serial,
+        note: o.note,
+        createdBy: o.actor.id,
+      });
     await tx.insert(referenceReadings).values(rows.map((r) => ({ ...r, setId: id })));
   });
   priorsChanged();
@@ -65,12 +101,21 @@ export async function createReferenceSet({ db, actor, boardId, input }: { db: Db
 
 /** A verified job's verification readings (the contract's definition) become a reference set of its board model. */
 export async function promoteVerification({ db, actor, jobId, note }: { db: Db; actor: Actor; jobId: string; note: string | null }) {
-  const [job] = await db.select().from(jobs).where(and(eq(jobs.id, jobId), eq(jobs.shopId, actor.shopId)));
+  const [job] = await db
+    .select()
+    .from(jobs)
+    .where(and(eq(jobs.id, jobId), eq(jobs.shopId, actor.shopId)));
   if (!job) throw new AppError('not_found', `No job ${jobId}`);
-  if (job.status !== 'verified' && job.status !== 'returned') throw new AppError('conflict', 'Only a repaired board signed off as verified is a known-good reference');
+  if (job.status !== 'verified' && job.status !== 'returned')
+    throw new AppError('conflict', 'Only a repaired board signed off as verified is a known-good reference');
   const [dup] = await db.select({ id: referenceSets.id }).from(referenceSets).where(eq(referenceSets.jobId, jobId));
   if (dup) throw new AppError('conflict', `Job #${job.number}'s verification readings are already a reference`);
-  const [last] = await db.select({ at: repairActions.createdAt }).from(repairActions).where(eq(repairActions.jobId, jobId)).orderBy(desc(repairActions.createdAt)).limit(1);
+  const [last] = await db
+    .select({ at: repairActions.createdAt })
+    .from(repairActions)
+    .where(eq(repairActions.jobId, jobId))
+    .orderBy(desc(repairActions.createdAt))
+    .limit(1);
   const later = alias(readings, 'later');
   const taken = await db
     .select({ r: readings, supersededBy: later.id, struck: readingStrikes.id })
@@ -83,7 +128,8 @@ export async function promoteVerification({ db, actor, jobId, note }: { db: Db; 
     taken.map(({ r, supersededBy, struck }) => ({ ...r, supersededBy, struck, createdAt: iso(r.createdAt) })),
     last ? iso(last.at) : null,
   ).filter((r) => r.lifted.length === 0 && r.mode !== 'continuity' && (r.overLimit || r.value !== null));
-  if (rows.length === 0) throw new AppError('conflict', 'This job has no verification reading to keep as a reference (continuity and readings with a part lifted are not kept)');
+  if (rows.length === 0)
+    throw new AppError('conflict', 'This job has no verification reading to keep as a reference (continuity and readings with a part lifted are not kept)');
   const [v] = await db.select().from(boardModelVersions).where(eq(boardModelVersions.id, job.boardVersionId));
   const doc = readBoardModel(v!.document);
   await storeSet(db, {
@@ -102,7 +148,14 @@ export async function promoteVerification({ db, actor, jobId, note }: { db: Db; 
 /** One value per board and point: the numeric readings of each set, their median when a point was read twice. */
 export async function measuredPoints(db: Pick<Db, 'select'>, shopId: string, boardId: string) {
   const rows = await db
-    .select({ setId: referenceReadings.setId, mode: referenceReadings.mode, power: referenceReadings.power, red: referenceReadings.redNet, black: referenceReadings.blackNet, value: referenceReadings.value })
+    .select({
+      setId: referenceReadings.setId,
+      mode: referenceReadings.mode,
+      power: referenceReadings.power,
+      red: referenceReadings.redNet,
+      black: referenceReadings.blackNet,
+      value: referenceReadings.value,
+    })
     .from(referenceReadings)
     .innerJoin(referenceSets, eq(referenceSets.id, referenceReadings.setId))
     .where(and(eq(referenceSets.shopId, shopId), eq(referenceSets.boardId, boardId), eq(referenceReadings.overLimit, false)));
@@ -115,7 +168,13 @@ export async function measuredPoints(db: Pick<Db, 'select'>, shopId: string, boa
     p.perSet.set(r.setId, [...(p.perSet.get(r.setId) ?? []), r.value]);
   }
   const mid = (xs: number[]) => [...xs].sort((a, b) => a - b)[xs.length >> 1] as number;
-  return [...byPoint.values()].map((p) => ({ mode: p.mode as 'dcv' | 'ohm' | 'diode', power: p.power as 'on' | 'off', red: p.red, black: p.black, values: [...p.perSet.values()].map(mid) }));
+  return [...byPoint.values()].map((p) => ({
+    mode: p.mode as 'dcv' | 'ohm' | 'diode',
+    power: p.power as 'on' | 'off',
+    red: p.red,
+    black: p.black,
+    values: [...p.perSet.values()].map(mid),
+  }));
 }
 
 export async function getBoardReferences({ db, shopId, boardId }: { db: Db; shopId: string; boardId: string }): Promise<BoardReferences> {
@@ -129,7 +188,15 @@ export async function getBoardReferences({ db, shopId, boardId }: { db: Db; shop
     .where(and(eq(referenceSets.shopId, shopId), eq(referenceSets.boardId, boardId)))
     .orderBy(desc(referenceSets.createdAt));
   const counts = setRows.length
-    ? await db.select({ setId: referenceReadings.setId }).from(referenceReadings).where(inArray(referenceReadings.setId, setRows.map((r) => r.s.id)))
+    ? await db
+        .select({ setId: referenceReadings.setId })
+        .from(referenceReadings)
+        .where(
+          inArray(
+            referenceReadings.setId,
+            setRows.map((r) => r.s.id),
+          ),
+        )
     : [];
   const sets: ReferenceSet[] = setRows.map(({ s, name, number, version: v }) => ({
     id: s.id,
@@ -161,12 +228,34 @@ export async function getBoardReferences({ db, shopId, boardId }: { db: Db; shop
     seen.add(key);
     const model = row.low !== null && row.high !== null ? { expected: row.expected, low: row.low, high: row.high } : null;
     const mb = m ? measuredBand(m.mode, m.values) : null;
-    bands.push({ mode: row.mode, power: row.power, red: row.red, black: row.black, label: words.probe(row.red), unit: row.unit, model, measured: mb, published, review: referenceReview(row.unit === 'ohm' ? 'Ω' : 'V', model, mb, published) });
+    bands.push({
+      mode: row.mode,
+      power: row.power,
+      red: row.red,
+      black: row.black,
+      label: words.probe(row.red),
+      unit: row.unit,
+      model,
+      measured: mb,
+      published,
+      review: referenceReview(row.unit === 'ohm' ? 'Ω' : 'V', model, mb, published),
+    });
   }
   // Points the good boards were read on that the model's table does not hold: measured only.
   for (const p of measured) {
     if (seen.has(`${p.mode} ${p.power} ${p.red} ${p.black}`)) continue;
-    bands.push({ mode: p.mode, power: p.power, red: p.red, black: p.black, label: words.probe(p.red), unit: p.mode === 'ohm' ? 'ohm' : 'V', model: null, measured: measuredBand(p.mode, p.values), published: null, review: null });
+    bands.push({
+      mode: p.mode,
+      power: p.power,
+      red: p.red,
+      black: p.black,
+      label: words.probe(p.red),
+      unit: p.mode === 'ohm' ? 'ohm' : 'V',
+      model: null,
+      measured: measuredBand(p.mode, p.values),
+      published: null,
+      review: null,
+    });
   }
   return { sets, bands };
 }

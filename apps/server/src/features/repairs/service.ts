@@ -45,14 +45,20 @@ export async function createRepair({
   };
 }): Promise<Repair> {
   const job = await getJobRow(db, actor.shopId, jobId);
-  if (job.status !== 'approved' && job.status !== 'repaired') throw new AppError('conflict', `Repairs are recorded once the diagnosis is approved; this job is ${job.status}`);
+  if (job.status !== 'approved' && job.status !== 'repaired')
+    throw new AppError('conflict', `Repairs are recorded once the diagnosis is approved; this job is ${job.status}`);
   if (input.uploadIds.length) {
-    const found = await db.select({ id: uploads.id }).from(uploads).where(and(eq(uploads.shopId, actor.shopId), inArray(uploads.id, input.uploadIds)));
+    const found = await db
+      .select({ id: uploads.id })
+      .from(uploads)
+      .where(and(eq(uploads.shopId, actor.shopId), inArray(uploads.id, input.uploadIds)));
     const missing = input.uploadIds.filter((id) => !found.some((f) => f.id === id));
-    if (missing.length) throw new AppError('invalid', `Unknown uploads: ${missing.join(', ')}`, { errors: [{ path: 'uploadIds', message: `unknown: ${missing.join(', ')}` }] });
+    if (missing.length)
+      throw new AppError('invalid', `Unknown uploads: ${missing.join(', ')}`, { errors: [{ path: 'uploadIds', message: `unknown: ${missing.join(', ')}` }] });
   }
   const { binPartId } = input;
-  if (binPartId && input.action !== 'replaced') throw new AppError('invalid', 'Only a replaced part comes from the parts bin', { errors: [{ path: 'binPartId', message: 'only with action replaced' }] });
+  if (binPartId && input.action !== 'replaced')
+    throw new AppError('invalid', 'Only a replaced part comes from the parts bin', { errors: [{ path: 'binPartId', message: 'only with action replaced' }] });
   // A part from the bin is the board model's part (value and package checked); it records the drawer's value.
   const fitted = binPartId ? await checkBinTake({ db, shopId: actor.shopId, jobId, part: input.part, binPartId }) : null;
   const row = await db.transaction(async (tx) => {
@@ -81,6 +87,11 @@ export async function createRepair({
 
 export async function findRepairs({ db, shopId, jobId }: { db: Db; shopId: string; jobId: string }) {
   await getJobRow(db, shopId, jobId);
-  const rows = await db.select({ r: repairActions, name: users.name }).from(repairActions).innerJoin(users, eq(users.id, repairActions.authorId)).where(eq(repairActions.jobId, jobId)).orderBy(asc(repairActions.createdAt));
+  const rows = await db
+    .select({ r: repairActions, name: users.name })
+    .from(repairActions)
+    .innerJoin(users, eq(users.id, repairActions.authorId))
+    .where(eq(repairActions.jobId, jobId))
+    .orderBy(asc(repairActions.createdAt));
   return { items: rows.map(({ r, name }) => toRepair(r, name)) };
 }

@@ -15,7 +15,9 @@ const readingLine = (r: ReportReading): Line => ({
 /** What the PDF says, line by line. */
 export function reportLines(r: RepairReport): Line[] {
   const field = (label: string, value: string | null): Line[] => (value ? [{ style: 'field', label, text: value }] : []);
-  const finding = r.finding.part ? `Faulty part: ${r.finding.part}${r.finding.reviewedBy ? ` (diagnosis reviewed by ${r.finding.reviewedBy})` : ''}` : 'No finding recorded.';
+  const finding = r.finding.part
+    ? `Faulty part: ${r.finding.part}${r.finding.reviewedBy ? ` (diagnosis reviewed by ${r.finding.reviewedBy})` : ''}`
+    : 'No finding recorded.';
   return [
     { style: 'title', text: r.shop.name },
     ...shopCardLines(r.shop).map((text): Line => ({ style: 'shop', text })),
@@ -31,10 +33,18 @@ export function reportLines(r: RepairReport): Line[] {
     { style: 'heading', text: 'Finding' },
     { style: 'text', text: finding },
     { style: 'heading', text: 'Work done' },
-    ...(r.repairs.length ? r.repairs.map((a): Line => ({ style: 'text', text: `• ${a.part}: ${a.action}${a.replacementValue ? `, new part ${a.replacementValue}` : ''}${a.notes ? `. ${a.notes}` : ''}` })) : [{ style: 'text' as const, text: 'No repair actions recorded.' }]),
+    ...(r.repairs.length
+      ? r.repairs.map((a): Line => ({
+          style: 'text',
+          text: `• ${a.part}: ${a.action}${a.replacementValue ? `, new part ${a.replacementValue}` : ''}${a.notes ? `. ${a.notes}` : ''}`,
+        }))
+      : [{ style: 'text' as const, text: 'No repair actions recorded.' }]),
     { style: 'heading', text: 'Verification readings' },
     ...(r.verification.length ? r.verification.map(readingLine) : [{ style: 'text' as const, text: 'No verification readings recorded.' }]),
-    { style: 'caution', text: 'Mains wiring and the DC bus of these boards are dangerous. Have the board installed by a qualified technician, under your local electrical codes.' },
+    {
+      style: 'caution',
+      text: 'Mains wiring and the DC bus of these boards are dangerous. Have the board installed by a qualified technician, under your local electrical codes.',
+    },
   ];
 }
 
@@ -57,7 +67,11 @@ export function renderReportPdf(r: RepairReport, logo?: Buffer | null): Promise<
     if (line.style === 'caution') doc.moveDown(2);
     if (line.style === 'title') doc.fontSize(18).text(line.text);
     else if (line.style === 'shop') doc.fontSize(9).fillColor('#555').text(line.text).fillColor('black');
-    else if (line.style === 'subtitle') doc.moveDown(previous === 'shop' ? 0.5 : 0).fontSize(14).text(line.text);
+    else if (line.style === 'subtitle')
+      doc
+        .moveDown(previous === 'shop' ? 0.5 : 0)
+        .fontSize(14)
+        .text(line.text);
     else if (line.style === 'heading') doc.fontSize(12).font('Helvetica-Bold').text(line.text).font('Helvetica').fontSize(10);
     else if (line.style === 'field') doc.fontSize(10).font('Helvetica-Bold').text(`${line.label}: `, { continued: true }).font('Helvetica').text(line.text);
     else if (line.style === 'caution') doc.fontSize(8).fillColor('#555').text(line.text);

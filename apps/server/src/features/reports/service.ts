@@ -1,7 +1,16 @@
 // The repair report's one model. The web's report page, the customer's PDF and the invoice e-mail that carries
 // the PDF all render what this returns; none of them reads the job's rows on its own.
 import { and, desc, eq } from 'drizzle-orm';
-import { boardWords, wordsModelOf, reportReady, verificationReadings, type BoardWords, type RepairReport, type ReportReading, type StoredReading } from '@splitscope/contract';
+import {
+  boardWords,
+  wordsModelOf,
+  reportReady,
+  verificationReadings,
+  type BoardWords,
+  type RepairReport,
+  type ReportReading,
+  type StoredReading,
+} from '@splitscope/contract';
 import type { Db } from '../../db/client';
 import { boardModels, boardModelVersions, customers, jobs, reviews, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
@@ -16,14 +25,33 @@ import { renderReportPdf } from './pdf';
 const asReportReading =
   (w: BoardWords) =>
   ({ id, red, black, mode, power, lifted, alone, beep, value, unit, raw, verdict, takenAt }: StoredReading): ReportReading => ({
-    id, red, black, mode, power, lifted, alone, beep, value, unit, raw, verdict, takenAt,
+    id,
+    red,
+    black,
+    mode,
+    power,
+    lifted,
+    alone,
+    beep,
+    value,
+    unit,
+    raw,
+    verdict,
+    takenAt,
     probes: w.probes({ red, black, alone }),
     boardState: `${power === 'on' ? 'powered' : 'unplugged'}${lifted.length ? `, ${lifted.map(w.designator).join(', ')} lifted` : ''}`,
   });
 
 export async function getRepairReport({ db, shopId, jobId }: { db: Db; shopId: string; jobId: string }): Promise<RepairReport> {
   const [row] = await db
-    .select({ job: jobs, customer: customers, shop: shops, board: boardModels.name, boardVersion: boardModelVersions.version, document: boardModelVersions.document })
+    .select({
+      job: jobs,
+      customer: customers,
+      shop: shops,
+      board: boardModels.name,
+      boardVersion: boardModelVersions.version,
+      document: boardModelVersions.document,
+    })
     .from(jobs)
     .innerJoin(customers, eq(customers.id, jobs.customerId))
     .innerJoin(shops, eq(shops.id, jobs.shopId))
@@ -57,9 +85,22 @@ export async function getRepairReport({ db, shopId, jobId }: { db: Db; shopId: s
     symptom: job.symptom,
     status: job.status,
     receivedAt: iso(job.receivedAt),
-    finding: { part: (approval?.part ?? job.proposedPart) === null ? null : words.designator((approval?.part ?? job.proposedPart)!), reviewedBy: approval?.name ?? null, reviewedAt: isoOrNull(approval?.at) },
+    finding: {
+      part: (approval?.part ?? job.proposedPart) === null ? null : words.designator((approval?.part ?? job.proposedPart)!),
+      reviewedBy: approval?.name ?? null,
+      reviewedAt: isoOrNull(approval?.at),
+    },
     foundBy: counting.filter((r) => r.phase === 'diagnosis' && ((r.verdict && r.verdict.verdict !== 'ok') || r.lifted.length > 0)).map(asReportReading(words)),
-    repairs: repairs.map(({ id, part, action, replacementValue, marking, notes, authorName, createdAt }) => ({ id, part, action, replacementValue, marking, notes, authorName, createdAt })),
+    repairs: repairs.map(({ id, part, action, replacementValue, marking, notes, authorName, createdAt }) => ({
+      id,
+      part,
+      action,
+      replacementValue,
+      marking,
+      notes,
+      authorName,
+      createdAt,
+    })),
     verification: verificationReadings(counting, lastRepairAt).map(asReportReading(words)),
     verified: reportReady(job.status),
   };

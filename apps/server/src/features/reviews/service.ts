@@ -10,9 +10,20 @@ import { getJobRow } from '../../db/job-row';
 import { checkMove, moveJob, toReview, type MoveRequest } from '../jobs';
 
 /** Approve → approved; send back → diagnosing, marked sent back. Only from awaiting review. */
-export async function createReview({ db, actor, jobId, input }: { db: Db; actor: Actor; jobId: string; input: { decision: 'approve' | 'send-back'; comment: string; proposedPart?: string | null } }): Promise<Review> {
+export async function createReview({
+  db,
+  actor,
+  jobId,
+  input,
+}: {
+  db: Db;
+  actor: Actor;
+  jobId: string;
+  input: { decision: 'approve' | 'send-back'; comment: string; proposedPart?: string | null };
+}): Promise<Review> {
   const job = await getJobRow(db, actor.shopId, jobId);
-  if (job.status !== 'awaiting-review') throw new AppError('conflict', `Only a job awaiting review can be reviewed; this job is ${job.status}`, { allowed: [] });
+  if (job.status !== 'awaiting-review')
+    throw new AppError('conflict', `Only a job awaiting review can be reviewed; this job is ${job.status}`, { allowed: [] });
   const part = input.proposedPart ?? job.proposedPart;
   const move: MoveRequest = {
     jobId,
@@ -37,7 +48,18 @@ export async function createReview({ db, actor, jobId, input }: { db: Db; actor:
   const id = newId();
   await db.transaction(async (tx) => {
     if (!(await moveJob(tx, move))) throw new AppError('conflict', 'Someone reviewed this job a moment ago; reload it');
-    await tx.insert(reviews).values({ id, shopId: actor.shopId, jobId, reviewerId: actor.id, decision: input.decision, comment: input.comment, proposedPart: part, snapshotId: snap?.id ?? null });
+    await tx
+      .insert(reviews)
+      .values({
+        id,
+        shopId: actor.shopId,
+        jobId,
+        reviewerId: actor.id,
+        decision: input.decision,
+        comment: input.comment,
+        proposedPart: part,
+        snapshotId: snap?.id ?? null,
+      });
   });
   const [row] = await db.select({ r: reviews, name: users.name }).from(reviews).innerJoin(users, eq(users.id, reviews.reviewerId)).where(eq(reviews.id, id));
   return toReview(row!.r, row!.name);
@@ -45,6 +67,11 @@ export async function createReview({ db, actor, jobId, input }: { db: Db; actor:
 
 export async function findReviews({ db, shopId, jobId }: { db: Db; shopId: string; jobId: string }) {
   await getJobRow(db, shopId, jobId);
-  const rows = await db.select({ r: reviews, name: users.name }).from(reviews).innerJoin(users, eq(users.id, reviews.reviewerId)).where(eq(reviews.jobId, jobId)).orderBy(asc(reviews.createdAt));
+  const rows = await db
+    .select({ r: reviews, name: users.name })
+    .from(reviews)
+    .innerJoin(users, eq(users.id, reviews.reviewerId))
+    .where(eq(reviews.jobId, jobId))
+    .orderBy(asc(reviews.createdAt));
   return { items: rows.map(({ r, name }) => toReview(r, name)) };
 }

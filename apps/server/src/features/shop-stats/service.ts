@@ -21,7 +21,15 @@ export async function shopStats({ db, shopId }: { db: Db; shopId: string }): Pro
     .orderBy(desc(sql`count(distinct ${jobs.id})`), boardModels.name, repairActions.part);
 
   const done = await db
-    .select({ id: jobs.id, number: jobs.number, serial: jobs.serial, boardName: boardModels.name, receivedAt: jobs.receivedAt, closedAt: jobs.closedAt, verifiedAt: sql<Date | null>`max(${readings.takenAt})` })
+    .select({
+      id: jobs.id,
+      number: jobs.number,
+      serial: jobs.serial,
+      boardName: boardModels.name,
+      receivedAt: jobs.receivedAt,
+      closedAt: jobs.closedAt,
+      verifiedAt: sql<Date | null>`max(${readings.takenAt})`,
+    })
     .from(jobs)
     .innerJoin(boardModels, eq(boardModels.id, jobs.boardId))
     .leftJoin(readings, and(eq(readings.jobId, jobs.id), eq(readings.phase, 'verification')))
@@ -34,7 +42,9 @@ export async function shopStats({ db, shopId }: { db: Db; shopId: string }): Pro
     hoursByBoard.set(j.boardName, [...(hoursByBoard.get(j.boardName) ?? []), h]);
   }
   const round1 = (n: number) => Math.round(n * 10) / 10;
-  const intakeToVerified = [...hoursByBoard].map(([boardName, hs]) => ({ boardName, jobs: hs.length, medianHours: round1(median(hs)), longestHours: round1(Math.max(...hs)) })).sort((a, b) => a.boardName.localeCompare(b.boardName));
+  const intakeToVerified = [...hoursByBoard]
+    .map(([boardName, hs]) => ({ boardName, jobs: hs.length, medianHours: round1(median(hs)), longestHours: round1(Math.max(...hs)) }))
+    .sort((a, b) => a.boardName.localeCompare(b.boardName));
 
   // Every job with a serial (any status): a board back within the warranty days of an earlier visit is a repeat.
   const all = await db
@@ -49,7 +59,8 @@ export async function shopStats({ db, shopId }: { db: Db; shopId: string }): Pro
     for (const j of visits) {
       const earlier = visits.filter((v) => v.receivedAt < j.receivedAt).map((v) => ({ number: v.number, closedAt: isoOrNull(v.closedAt) }));
       const flag = warrantyReturn(earlier, iso(j.receivedAt), warrantyDays);
-      if (flag) repeatReturns.push({ jobNumber: j.number, earlierJobNumber: flag.jobNumber, serial: j.serial!, boardName: j.boardName, daysSince: flag.daysSince });
+      if (flag)
+        repeatReturns.push({ jobNumber: j.number, earlierJobNumber: flag.jobNumber, serial: j.serial!, boardName: j.boardName, daysSince: flag.daysSince });
     }
   }
   repeatReturns.sort((a, b) => b.jobNumber - a.jobNumber);

@@ -15,15 +15,34 @@ export const LOGO_BOX = { width: 600, height: 200 } as const;
 /** The picture fitted inside LOGO_BOX as PNG (transparency kept); words for a file that is not a picture. */
 async function fitLogo(bytes: Buffer): Promise<Buffer> {
   try {
-    return await sharp(bytes, { limitInputPixels: 100_000_000 }).rotate().resize({ ...LOGO_BOX, fit: 'inside', withoutEnlargement: true }).png().toBuffer();
+    return await sharp(bytes, { limitInputPixels: 100_000_000 })
+      .rotate()
+      .resize({ ...LOGO_BOX, fit: 'inside', withoutEnlargement: true })
+      .png()
+      .toBuffer();
   } catch {
     throw new AppError('unsupported_media_type', 'The logo could not be read: choose a PNG or JPEG picture');
   }
 }
 
 /** Stores the fitted copy of an upload of the shop as a new upload; its id is what the shop row keeps. */
-export async function logoFromUpload({ db, storage, shopId, userId, uploadId }: { db: Db; storage: Storage; shopId: string; userId: string; uploadId: string }): Promise<string> {
-  const [up] = await db.select().from(uploads).where(and(eq(uploads.id, uploadId), eq(uploads.shopId, shopId)));
+export async function logoFromUpload({
+  db,
+  storage,
+  shopId,
+  userId,
+  uploadId,
+}: {
+  db: Db;
+  storage: Storage;
+  shopId: string;
+  userId: string;
+  uploadId: string;
+}): Promise<string> {
+  const [up] = await db
+    .select()
+    .from(uploads)
+    .where(and(eq(uploads.id, uploadId), eq(uploads.shopId, shopId)));
   if (!up) throw new AppError('not_found', `No upload ${uploadId}`);
   const bytes = await storage.get(up.storageKey);
   if (!bytes) throw new AppError('not_found', `The picture ${uploadId} is missing from storage`);

@@ -1,5 +1,14 @@
 import { count, eq, sql } from 'drizzle-orm';
-import { readMeterProfileId, shopCardSchema, shopSchema, type AppMode, type FirstRunRequest, type Shop, type ShopCard, type UpdateShopRequest } from '@splitscope/contract';
+import {
+  readMeterProfileId,
+  shopCardSchema,
+  shopSchema,
+  type AppMode,
+  type FirstRunRequest,
+  type Shop,
+  type ShopCard,
+  type UpdateShopRequest,
+} from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Auth } from '../../auth/lucia';
 import { hashPassword } from '../../auth/password';
@@ -63,9 +72,13 @@ export async function getShop({ db, shopId }: { db: Db; shopId: string }) {
 
 /** Admin only. A logo given as an upload of the shop is kept as a copy fitted to a header (logo.ts). */
 export async function updateShop({ db, storage, actor, input }: { db: Db; storage: Storage; actor: Actor; input: UpdateShopRequest }) {
-  const values = input.logoUploadId ? { ...input, logoUploadId: await logoFromUpload({ db, storage, shopId: actor.shopId, userId: actor.id, uploadId: input.logoUploadId }) } : input;
+  const values = input.logoUploadId
+    ? { ...input, logoUploadId: await logoFromUpload({ db, storage, shopId: actor.shopId, userId: actor.id, uploadId: input.logoUploadId }) }
+    : input;
   const [row] = await db.update(shops).set(values).where(eq(shops.id, actor.shopId)).returning();
   if (!row) throw new AppError('not_found', `No shop ${actor.shopId}`);
-  await db.insert(auditLog).values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: 'shop-details', subject: row.name, detail: Object.keys(input).join(', ') });
+  await db
+    .insert(auditLog)
+    .values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: 'shop-details', subject: row.name, detail: Object.keys(input).join(', ') });
   return toShop(row);
 }

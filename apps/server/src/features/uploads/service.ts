@@ -36,14 +36,30 @@ const toUpload = (u: typeof uploads.$inferSelect): Upload => ({
   createdAt: iso(u.createdAt),
 });
 
-export async function createUpload({ db, storage, actor, bytes, jobId, name }: { db: Db; storage: Storage; actor: Actor; bytes: Buffer; jobId?: string; name?: string | null }) {
+export async function createUpload({
+  db,
+  storage,
+  actor,
+  bytes,
+  jobId,
+  name,
+}: {
+  db: Db;
+  storage: Storage;
+  actor: Actor;
+  bytes: Buffer;
+  jobId?: string;
+  name?: string | null;
+}) {
   if (jobId) await getJobRow(db, actor.shopId, jobId);
   try {
     return await storeUpload({ db, storage, shopId: actor.shopId, createdBy: actor.id, bytes, jobId, name });
   } catch (err) {
     // A picture refused for a job is kept on the job's record: the job shows it, where it can be sent again.
     if (jobId && err instanceof AppError && (err.code === 'unsupported_media_type' || err.code === 'invalid' || err.code === 'too_large')) {
-      await db.insert(uploadRefusals).values({ id: newId(), shopId: actor.shopId, jobId, name: name ?? null, size: bytes.length, reason: err.detail, createdBy: actor.id });
+      await db
+        .insert(uploadRefusals)
+        .values({ id: newId(), shopId: actor.shopId, jobId, name: name ?? null, size: bytes.length, reason: err.detail, createdBy: actor.id });
     }
     throw err;
   }
@@ -51,12 +67,34 @@ export async function createUpload({ db, storage, actor, bytes, jobId, name }: {
 
 export async function findUploadRefusals({ db, shopId, jobId }: { db: Db; shopId: string; jobId: string }) {
   await getJobRow(db, shopId, jobId);
-  const rows = await db.select().from(uploadRefusals).where(and(eq(uploadRefusals.shopId, shopId), eq(uploadRefusals.jobId, jobId))).orderBy(asc(uploadRefusals.createdAt));
-  return { items: rows.map((r) => ({ id: r.id, jobId: r.jobId, name: r.name, size: r.size, reason: r.reason, createdBy: r.createdBy, createdAt: iso(r.createdAt) })) };
+  const rows = await db
+    .select()
+    .from(uploadRefusals)
+    .where(and(eq(uploadRefusals.shopId, shopId), eq(uploadRefusals.jobId, jobId)))
+    .orderBy(asc(uploadRefusals.createdAt));
+  return {
+    items: rows.map((r) => ({ id: r.id, jobId: r.jobId, name: r.name, size: r.size, reason: r.reason, createdBy: r.createdBy, createdAt: iso(r.createdAt) })),
+  };
 }
 
 /** Stores a picture's bytes and its row; the type comes from the bytes, and a refused type stores nothing. */
-export async function storeUpload({ db, storage, shopId, createdBy, bytes, jobId, name }: { db: Db; storage: Storage; shopId: string; createdBy: string; bytes: Buffer; jobId?: string | null; name?: string | null }): Promise<Upload> {
+export async function storeUpload({
+  db,
+  storage,
+  shopId,
+  createdBy,
+  bytes,
+  jobId,
+  name,
+}: {
+  db: Db;
+  storage: Storage;
+  shopId: string;
+  createdBy: string;
+  bytes: Buffer;
+  jobId?: string | null;
+  name?: string | null;
+}): Promise<Upload> {
   if (bytes.length === 0) throw new AppError('invalid', 'The upload is empty');
   const type = sniffImage(bytes);
   if (!type) throw new AppError('unsupported_media_type', 'Only PNG and JPEG pictures are accepted (checked from the file contents; SVG is refused)');
@@ -91,7 +129,10 @@ export async function storeUpload({ db, storage, shopId, createdBy, bytes, jobId
 }
 
 export async function getUploadBytes({ db, storage, shopId, id }: { db: Db; storage: Storage; shopId: string; id: string }) {
-  const [row] = await db.select().from(uploads).where(and(eq(uploads.id, id), eq(uploads.shopId, shopId)));
+  const [row] = await db
+    .select()
+    .from(uploads)
+    .where(and(eq(uploads.id, id), eq(uploads.shopId, shopId)));
   if (!row) throw new AppError('not_found', `No upload ${id}`);
   const bytes = await storage.get(row.storageKey);
   if (!bytes) throw new AppError('not_found', `The picture ${id} is missing from storage`);
@@ -100,6 +141,9 @@ export async function getUploadBytes({ db, storage, shopId, id }: { db: Db; stor
 
 export async function findUploads({ db, shopId, jobId }: { db: Db; shopId: string; jobId: string }) {
   await getJobRow(db, shopId, jobId);
-  const rows = await db.select().from(uploads).where(and(eq(uploads.shopId, shopId), eq(uploads.jobId, jobId)));
+  const rows = await db
+    .select()
+    .from(uploads)
+    .where(and(eq(uploads.shopId, shopId), eq(uploads.jobId, jobId)));
   return { items: rows.map(toUpload) };
 }

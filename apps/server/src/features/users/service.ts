@@ -1,6 +1,13 @@
 import { createHash } from 'node:crypto';
 import { and, asc, count, desc, eq, gt, isNull } from 'drizzle-orm';
-import { traineeLiftRefusal, type AcceptInvitationRequest, type CreateInvitationRequest, type Invitation, type Role, type ShopMember } from '@splitscope/contract';
+import {
+  traineeLiftRefusal,
+  type AcceptInvitationRequest,
+  type CreateInvitationRequest,
+  type Invitation,
+  type Role,
+  type ShopMember,
+} from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Auth } from '../../auth/lucia';
 import { hashPassword } from '../../auth/password';
@@ -48,14 +55,26 @@ export async function findMembers({ db, shopId }: { db: Db; shopId: string }) {
 export async function updateMember({ db, auth, actor, id, role, active }: { db: Db; auth: Auth; actor: Actor; id: string; role?: Role; active?: boolean }) {
   const updated = await db.transaction(async (tx) => {
     // Every admin row of the shop locked in one order: two admins demoting each other at once cannot both pass.
-    await tx.select({ id: users.id }).from(users).where(and(eq(users.shopId, actor.shopId), eq(users.role, 'admin'))).orderBy(asc(users.id)).for('update');
-    const [target] = await tx.select().from(users).where(and(eq(users.id, id), eq(users.shopId, actor.shopId))).for('update');
+    await tx
+      .select({ id: users.id })
+      .from(users)
+      .where(and(eq(users.shopId, actor.shopId), eq(users.role, 'admin')))
+      .orderBy(asc(users.id))
+      .for('update');
+    const [target] = await tx
+      .select()
+      .from(users)
+      .where(and(eq(users.id, id), eq(users.shopId, actor.shopId)))
+      .for('update');
     if (!target) throw new AppError('not_found', `No user ${id}`);
     const nextRole = role ?? target.role;
     const nextActive = active ?? !target.deactivatedAt;
     if (nextRole === target.role && nextActive === !target.deactivatedAt) return member(target);
     if (target.role === 'admin' && !target.deactivatedAt && (nextRole !== 'admin' || !nextActive)) {
-      const [admins] = await tx.select({ n: count() }).from(users).where(and(eq(users.shopId, actor.shopId), eq(users.role, 'admin'), isNull(users.deactivatedAt)));
+      const [admins] = await tx
+        .select({ n: count() })
+        .from(users)
+        .where(and(eq(users.shopId, actor.shopId), eq(users.role, 'admin'), isNull(users.deactivatedAt)));
       if ((admins?.n ?? 0) <= 1) throw new AppError('conflict', 'A shop keeps at least one admin: make someone else admin first');
     }
     const [row] = await tx
@@ -63,7 +82,8 @@ export async function updateMember({ db, auth, actor, id, role, active }: { db: 
       .set({ role: nextRole, deactivatedAt: nextActive ? null : (target.deactivatedAt ?? new Date()) })
       .where(eq(users.id, id))
       .returning();
-    const audit = (action: string, detail: string) => tx.insert(auditLog).values({ id: newId(), shopId: actor.shopId, userId: actor.id, action, subject: target.email, detail });
+    const audit = (action: string, detail: string) =>
+      tx.insert(auditLog).values({ id: newId(), shopId: actor.shopId, userId: actor.id, action, subject: target.email, detail });
     if (nextRole !== target.role) await audit('role-change', `${target.role} → ${nextRole}`);
     if (nextActive !== !target.deactivatedAt) await audit(nextActive ? 'reactivated' : 'deactivated', target.name);
     return member(row!);
@@ -79,12 +99,28 @@ export async function updateMember({ db, auth, actor, id, role, active }: { db: 
  * log; the readings service asks the policy with this flag beside the job's own.
  */
 export async function setTraineeGuidedOrder({ db, actor, id, lifted }: { db: Db; actor: Actor; id: string; lifted: boolean }): Promise<ShopMember> {
-  const [target] = await db.select().from(users).where(and(eq(users.id, id), eq(users.shopId, actor.shopId)));
+  const [target] = await db
+    .select()
+    .from(users)
+    .where(and(eq(users.id, id), eq(users.shopId, actor.shopId)));
   if (!target) throw new AppError('not_found', `No user ${id}`);
   const refused = traineeLiftRefusal(target.role);
   if (refused) throw new AppError('conflict', refused);
-  const [row] = await db.update(users).set({ guidedLiftedBy: lifted ? actor.id : null }).where(eq(users.id, id)).returning();
-  await db.insert(auditLog).values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: lifted ? 'guided-order-lifted' : 'guided-order-restored', subject: target.email, detail: `${target.name}, all jobs` });
+  const [row] = await db
+    .update(users)
+    .set({ guidedLiftedBy: lifted ? actor.id : null })
+    .where(eq(users.id, id))
+    .returning();
+  await db
+    .insert(auditLog)
+    .values({
+      id: newId(),
+      shopId: actor.shopId,
+      userId: actor.id,
+      action: lifted ? 'guided-order-lifted' : 'guided-order-restored',
+      subject: target.email,
+      detail: `${target.name}, all jobs`,
+    });
   return member(row!);
 }
 
@@ -113,9 +149,20 @@ export async function createInvitation({ db, config, actor, input }: { db: Db; c
   const token = newToken();
   const [row] = await db
     .insert(invitations)
-    .values({ id: newId(), shopId: actor.shopId, email: input.email, name: input.name, role: input.role, tokenHash: tokenHash(token), invitedBy: actor.id, expiresAt: new Date(Date.now() + INVITATION_DAYS * 86_400_000) })
+    .values({
+      id: newId(),
+      shopId: actor.shopId,
+      email: input.email,
+      name: input.name,
+      role: input.role,
+      tokenHash: tokenHash(token),
+      invitedBy: actor.id,
+      expiresAt: new Date(Date.now() + INVITATION_DAYS * 86_400_000),
+    })
     .returning();
-  await db.insert(auditLog).values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: 'invitation', subject: input.email, detail: `role ${input.role}` });
+  await db
+    .insert(auditLog)
+    .values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: 'invitation', subject: input.email, detail: `role ${input.role}` });
   await mailInvitation({ db, config, row: row!, token });
   return { ...invitation(row!), token, acceptPath: `/invitation/${token}` };
 }
@@ -129,7 +176,9 @@ export async function resendInvitation({ db, config, actor, id }: { db: Db; conf
     .where(and(eq(invitations.id, id), eq(invitations.shopId, actor.shopId), isNull(invitations.acceptedAt)))
     .returning();
   if (!row) throw new AppError('not_found', `No open invitation ${id}`);
-  await db.insert(auditLog).values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: 'invitation-resent', subject: row.email, detail: `role ${row.role}` });
+  await db
+    .insert(auditLog)
+    .values({ id: newId(), shopId: actor.shopId, userId: actor.id, action: 'invitation-resent', subject: row.email, detail: `role ${row.role}` });
   await mailInvitation({ db, config, row, token });
   return { ...invitation(row), token, acceptPath: `/invitation/${token}` };
 }
@@ -154,7 +203,9 @@ export async function acceptInvitation({ db, auth, input }: { db: Db; auth: Auth
     const id = newId();
     await tx.insert(users).values({ id, shopId: inv.shopId, email: inv.email, name: inv.name, role: inv.role, passwordHash });
     await tx.update(invitations).set({ acceptedAt: new Date() }).where(eq(invitations.id, inv.id));
-    await tx.insert(auditLog).values({ id: newId(), shopId: inv.shopId, userId: id, action: 'invitation-accepted', subject: inv.email, detail: `role ${inv.role}` });
+    await tx
+      .insert(auditLog)
+      .values({ id: newId(), shopId: inv.shopId, userId: id, action: 'invitation-accepted', subject: inv.email, detail: `role ${inv.role}` });
     return id;
   });
   return { cookie: await auth.createSession(userId) };

@@ -10,7 +10,9 @@ export function WarrantyFlag({ history }: { history: BoardHistory }) {
   const w = history.warranty;
   if (!w) return null;
   const earlier = history.jobs.find((j) => j.number === w.jobNumber);
-  const fitted = earlier?.repairs.filter((r) => r.action === 'replaced').map((r) => `${r.part}${r.replacementValue ? ` (${r.replacementValue})` : ''} replaced by ${r.byName}`);
+  const fitted = earlier?.repairs
+    .filter((r) => r.action === 'replaced')
+    .map((r) => `${r.part}${r.replacementValue ? ` (${r.replacementValue})` : ''} replaced by ${r.byName}`);
   return (
     <div data-testid="warranty-flag">
       <Caution tone="warn" title={`Warranty return — back ${w.daysSince} ${w.daysSince === 1 ? 'day' : 'days'} after job #${w.jobNumber} left the shop`}>
@@ -46,7 +48,11 @@ function EarlierJob({ job }: { job: HistoryJob }) {
             {job.faultCode ? `Code ${job.faultCode} · ` : ''}
             {job.symptom} · {job.customerName}
           </p>
-          {job.proposedPart && <p>Faulty part found: <strong>{job.proposedPart}</strong></p>}
+          {job.proposedPart && (
+            <p>
+              Faulty part found: <strong>{job.proposedPart}</strong>
+            </p>
+          )}
           <div>
             <p className="font-medium">Repairs</p>
             {job.repairs.length ? (
@@ -65,9 +71,15 @@ function EarlierJob({ job }: { job: HistoryJob }) {
                 <caption className="text-left font-medium">Readings</caption>
                 <thead>
                   <tr className="border-b border-stone-300">
-                    <th scope="col" className="pr-2">Where, meter function</th>
-                    <th scope="col" className="pr-2">Read</th>
-                    <th scope="col" className="pr-2">Verdict</th>
+                    <th scope="col" className="pr-2">
+                      Where, meter function
+                    </th>
+                    <th scope="col" className="pr-2">
+                      Read
+                    </th>
+                    <th scope="col" className="pr-2">
+                      Verdict
+                    </th>
                     <th scope="col">Taken</th>
                   </tr>
                 </thead>

@@ -58,7 +58,22 @@ export function BoardMap(props: BoardMapProps) {
   // What the pointer is over: found by the gestures, drawn by the scene.
   const [hover, setHover] = useState<Hover>(null);
   const { overlay, sceneFunc, setDrag, dragAt } = useMapScene({ board, picture, points, parts, connectors, selectedId, highlightPart, probes, hover });
-  const gestures = useMapGestures({ stage, read, apply, board, stageSize, points, connectors, onSelect, onPointMove, onBoardClick, setDrag, dragAt, hover, setHover });
+  const gestures = useMapGestures({
+    stage,
+    read,
+    apply,
+    board,
+    stageSize,
+    points,
+    connectors,
+    onSelect,
+    onPointMove,
+    onBoardClick,
+    setDrag,
+    dragAt,
+    hover,
+    setHover,
+  });
 
   useEffect(() => {
     // Bring a part the user picked in the ranking into view.
@@ -84,14 +99,7 @@ export function BoardMap(props: BoardMapProps) {
         className="absolute inset-0 touch-none"
       >
         {ready && (
-          <Stage
-            ref={stage}
-            width={stageSize.width}
-            height={stageSize.height}
-            draggable
-            onDragEnd={dragged}
-            {...gestures.stageHandlers}
-          >
+          <Stage ref={stage} width={stageSize.width} height={stageSize.height} draggable onDragEnd={dragged} {...gestures.stageHandlers}>
             <Layer ref={overlay} listening={false}>
               <Shape sceneFunc={sceneFunc} listening={false} perfectDrawEnabled={false} shadowForStrokeEnabled={false} />
             </Layer>

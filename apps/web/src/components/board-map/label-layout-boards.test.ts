@@ -16,7 +16,12 @@ type Box = [number, number, number, number];
 const overlap = (a: Box, b: Box) => a[0] < b[0] + b[2] && b[0] < a[0] + a[2] && a[1] < b[1] + b[3] && b[1] < a[1] + a[3];
 const measure = (text: string) => text.length * 8;
 
-function inputOf(points: MapPoint[], connectors: MapConnector[], board: { width: number; height: number }, probes: { red?: string; black?: string } = {}): LabelInput {
+function inputOf(
+  points: MapPoint[],
+  connectors: MapConnector[],
+  board: { width: number; height: number },
+  probes: { red?: string; black?: string } = {},
+): LabelInput {
   return {
     xs: Float32Array.from(points, (p) => p.x),
     ys: Float32Array.from(points, (p) => p.y),
@@ -33,7 +38,8 @@ function inputOf(points: MapPoint[], connectors: MapConnector[], board: { width:
 function check(input: LabelInput, scale: number): { hidden: number; placed: number } {
   const { dx, dy, led } = layoutLabels(input, scale);
   const n = input.xs.length;
-  const label = (i: number): Box | null => (Number.isNaN(dx[i]!) ? null : [input.xs[i]! * scale + dx[i]!, input.ys[i]! * scale + dy[i]!, input.widths[i]!, input.heights[i]!]);
+  const label = (i: number): Box | null =>
+    Number.isNaN(dx[i]!) ? null : [input.xs[i]! * scale + dx[i]!, input.ys[i]! * scale + dy[i]!, input.widths[i]!, input.heights[i]!];
   const marker = (i: number): Box => [input.xs[i]! * scale - 12, input.ys[i]! * scale - 12, 24, 24];
   const obstacles = (input.obstacles ?? []).map((o): Box => [o.x * scale + o.dx, o.y * scale + o.dy, o.w, o.h]);
   const labels = Array.from({ length: n }, (_, i) => label(i));
@@ -47,7 +53,8 @@ function check(input: LabelInput, scale: number): { hidden: number; placed: numb
       continue;
     }
     // Float32 offsets: a hundredth of a pixel of rounding.
-    if (b[0] < -0.01 || b[1] < -0.01 || b[0] + b[2] > input.board.width * scale + 0.01 || b[1] + b[3] > input.board.height * scale + 0.01) problems.push(`label ${i} outside the picture`);
+    if (b[0] < -0.01 || b[1] < -0.01 || b[0] + b[2] > input.board.width * scale + 0.01 || b[1] + b[3] > input.board.height * scale + 0.01)
+      problems.push(`label ${i} outside the picture`);
     for (let j = 0; j < n; j++) {
       if (overlap(b, markers[j]!)) problems.push(`label ${i} over marker ${j}`);
       const o = j > i ? labels[j] : null;
@@ -91,14 +98,32 @@ describe('labels on whole boards never overlap', () => {
   it('a generated board with crowded points: clusters of ten within 40 px and a dense grid', () => {
     // A fixed linear congruential sequence (Numerical Recipes' constants), so the board is the same every run.
     let seed = 12345;
-    const rand = () => ((seed = (seed * 1664525 + 1013904223) >>> 0) / 2 ** 32);
+    const rand = () => (seed = (seed * 1664525 + 1013904223) >>> 0) / 2 ** 32;
     const points: MapPoint[] = [];
     for (let c = 0; c < 12; c++) {
       const [cx, cy] = [60 + rand() * 1080, 60 + rand() * 810];
-      for (let k = 0; k < 10; k++) points.push({ id: `TP${points.length + 1}`, label: `TP${points.length + 1} ${['Fan supply', 'Speed command', '15 V rail', 'Feedback'][k % 4]}`, net: `n${points.length}`, x: cx + rand() * 40, y: cy + rand() * 40, state: 'unmeasured' });
+      for (let k = 0; k < 10; k++)
+        points.push({
+          id: `TP${points.length + 1}`,
+          label: `TP${points.length + 1} ${['Fan supply', 'Speed command', '15 V rail', 'Feedback'][k % 4]}`,
+          net: `n${points.length}`,
+          x: cx + rand() * 40,
+          y: cy + rand() * 40,
+          state: 'unmeasured',
+        });
     }
-    for (let k = 0; k < 60; k++) points.push({ id: `TP${points.length + 1}`, label: `TP${points.length + 1}`, net: `g${k}`, x: 400 + (k % 10) * 30, y: 300 + Math.floor(k / 10) * 30, state: 'unmeasured' });
-    const connectors: MapConnector[] = [{ id: 'CN1', x: 80, y: 880, pins: [1, 2, 3, 4].map((n) => ({ label: String(n), net: `cn${n}`, x: 80 + n * 24, y: 880 })) }];
+    for (let k = 0; k < 60; k++)
+      points.push({
+        id: `TP${points.length + 1}`,
+        label: `TP${points.length + 1}`,
+        net: `g${k}`,
+        x: 400 + (k % 10) * 30,
+        y: 300 + Math.floor(k / 10) * 30,
+        state: 'unmeasured',
+      });
+    const connectors: MapConnector[] = [
+      { id: 'CN1', x: 80, y: 880, pins: [1, 2, 3, 4].map((n) => ({ label: String(n), net: `cn${n}`, x: 80 + n * 24, y: 880 })) },
+    ];
     const input = inputOf(points, connectors, { width: 1200, height: 930 });
     const shown = SCALES.map((s) => check(input, s).placed);
     // Closer zoom shows more labels, never fewer.

@@ -182,11 +182,25 @@ export function useMapGestures(g: GestureInput) {
   };
 
   /** What the pointer is over, in the bench's words: the test point's label, or the connector pin ("CN3 pin 3"). */
-  const hoverText = !hover ? null : hover.point >= 0 ? (points[hover.point]?.label ?? null) : (() => {
-    const pin = pins.find((p) => p.net === hover.net);
-    return pin ? `${pin.connector} pin ${pin.label}` : null;
-  })();
+  const hoverText = !hover
+    ? null
+    : hover.point >= 0
+      ? (points[hover.point]?.label ?? null)
+      : (() => {
+          const pin = pins.find((p) => p.net === hover.net);
+          return pin ? `${pin.connector} pin ${pin.label}` : null;
+        })();
 
-  const stageHandlers = { onWheel, onMouseMove: onPointerMove, onPointerDown, onMouseLeave: () => hover && setHover(null), onClick, onTap, onTouchStart, onTouchMove, onTouchEnd };
+  const stageHandlers = {
+    onWheel,
+    onMouseMove: onPointerMove,
+    onPointerDown,
+    onMouseLeave: () => hover && setHover(null),
+    onClick,
+    onTap,
+    onTouchStart,
+    onTouchMove,
+    onTouchEnd,
+  };
   return { hoverText, onKeyDown, stageHandlers };
 }

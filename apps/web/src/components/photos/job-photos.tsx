@@ -4,7 +4,9 @@ import { useAddJobPhotos, useJobPhotos, usePhotoRefusals } from '@/lib/api/job-p
 
 const mb = (n: number) => `${(n / 1_000_000).toFixed(1)} MB`;
 const sizeText = (u: Upload) =>
-  [u.width && u.height ? `${u.width}×${u.height}` : null, u.originalSize ? `stored ${mb(u.size)} (sent ${mb(u.originalSize)})` : mb(u.size)].filter(Boolean).join(' · ');
+  [u.width && u.height ? `${u.width}×${u.height}` : null, u.originalSize ? `stored ${mb(u.size)} (sent ${mb(u.originalSize)})` : mb(u.size)]
+    .filter(Boolean)
+    .join(' · ');
 
 /**
  * The job's photos: a gallery (each opens full size), the pictures that were sent and not stored with the reason,

@@ -10,7 +10,17 @@ type Model = Parameters<typeof boardWords>[0];
  * function, the board's state (power, parts lifted), the value and the verdict. The same test taken again shows
  * as one row with its values; a corrected or struck reading stays listed, struck through, with who and when.
  */
-export function ReadingsTable({ readings, model, actions, caption }: { readings: StoredReading[]; model: Model; actions?: (r: StoredReading) => ReactNode; caption?: string }) {
+export function ReadingsTable({
+  readings,
+  model,
+  actions,
+  caption,
+}: {
+  readings: StoredReading[];
+  model: Model;
+  actions?: (r: StoredReading) => ReactNode;
+  caption?: string;
+}) {
   const words = useMemo(() => boardWords(model), [model]);
   const groups = useMemo(() => groupRepeats(readings), [readings]);
   if (readings.length === 0) return <p className="text-sm text-stone-700">No reading yet.</p>;
@@ -34,7 +44,9 @@ export function ReadingsTable({ readings, model, actions, caption }: { readings:
           return (
             <tr key={r.id} className="border-b border-stone-200 align-top" data-testid="reading-row">
               <td className="py-1">
-                {r.alone ? words.probes(r) : (
+                {r.alone ? (
+                  words.probes(r)
+                ) : (
                   <>
                     {words.probe(r.red)} <span className="text-stone-600">to</span> {words.probe(r.black)}
                   </>
@@ -53,8 +65,14 @@ export function ReadingsTable({ readings, model, actions, caption }: { readings:
                           struck by {x.struck.authorName}, {dateTime(x.struck.at)}: “{x.struck.reason}”
                         </span>
                       )}
-                      {x.supersededBy && <span className="ml-1 font-sans text-xs text-stone-700">corrected ({x.authorName}, {dateTime(x.createdAt)})</span>}
-                      {!gone && g.items.length > 1 && i === g.items.length - 1 && <span className="ml-1 font-sans text-xs text-stone-700">×{g.current} taken</span>}
+                      {x.supersededBy && (
+                        <span className="ml-1 font-sans text-xs text-stone-700">
+                          corrected ({x.authorName}, {dateTime(x.createdAt)})
+                        </span>
+                      )}
+                      {!gone && g.items.length > 1 && i === g.items.length - 1 && (
+                        <span className="ml-1 font-sans text-xs text-stone-700">×{g.current} taken</span>
+                      )}
                     </span>
                   );
                 })}

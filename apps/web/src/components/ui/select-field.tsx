@@ -1,5 +1,15 @@
 /** A labelled drop-down with a 44 px touch target; the label may be for screen readers only (a row's own select). */
-export function SelectField<T extends string>({ label, value, options, labels, onChange, hint, hideLabel = false, disabled, className = '' }: {
+export function SelectField<T extends string>({
+  label,
+  value,
+  options,
+  labels,
+  onChange,
+  hint,
+  hideLabel = false,
+  disabled,
+  className = '',
+}: {
   label: string;
   value: T;
   options: readonly T[];
@@ -13,7 +23,12 @@ export function SelectField<T extends string>({ label, value, options, labels, o
   return (
     <label className={`block ${className}`}>
       <span className={hideLabel ? 'sr-only' : 'text-sm font-medium'}>{label}</span>
-      <select className={`${hideLabel ? '' : 'mt-1 '}block min-h-11 w-full rounded-md border border-stone-500 bg-white px-2`} value={value} disabled={disabled} onChange={(e) => onChange(e.target.value as T)}>
+      <select
+        className={`${hideLabel ? '' : 'mt-1 '}block min-h-11 w-full rounded-md border border-stone-500 bg-white px-2`}
+        value={value}
+        disabled={disabled}
+        onChange={(e) => onChange(e.target.value as T)}
+      >
         {options.map((o) => (
           <option key={o} value={o}>
             {labels[o]}

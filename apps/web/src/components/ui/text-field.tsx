@@ -1,7 +1,13 @@
 import type { InputHTMLAttributes } from 'react';
 
 /** A labelled input with a 44 px touch target and an optional hint or error under it. */
-export function TextField({ label, hint, error, className = '', ...rest }: InputHTMLAttributes<HTMLInputElement> & { label: string; hint?: string; error?: string }) {
+export function TextField({
+  label,
+  hint,
+  error,
+  className = '',
+  ...rest
+}: InputHTMLAttributes<HTMLInputElement> & { label: string; hint?: string; error?: string }) {
   return (
     <label className={`block ${className}`}>
       <span className="text-sm font-medium">{label}</span>

@@ -29,4 +29,6 @@ export const useBoardHistory = (q: { serial?: string; unitSerial?: string }) => 
 
 /** A job's earlier visits (by its board and unit serial) and its warranty flag, as of the day it was received. */
 export const useJobHistory = (jobId: string) =>
-  useQuery(queryOptions({ queryKey: ['jobs', jobId, 'history'], queryFn: () => api(`/jobs/${encodeURIComponent(jobId)}/history`, { schema: boardHistoryResponse }) }));
+  useQuery(
+    queryOptions({ queryKey: ['jobs', jobId, 'history'], queryFn: () => api(`/jobs/${encodeURIComponent(jobId)}/history`, { schema: boardHistoryResponse }) }),
+  );

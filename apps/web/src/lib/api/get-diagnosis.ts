@@ -3,11 +3,9 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 
 /** The diagnosis engine's ranking and next tests for the job's current readings. */
-export const getDiagnosis = (jobId: string) =>
-  api(`/jobs/${encodeURIComponent(jobId)}/diagnosis`, { schema: diagnosisResponse });
+export const getDiagnosis = (jobId: string) => api(`/jobs/${encodeURIComponent(jobId)}/diagnosis`, { schema: diagnosisResponse });
 
-export const getDiagnosisQueryOptions = (jobId: string) =>
-  queryOptions({ queryKey: ['jobs', jobId, 'diagnosis'], queryFn: () => getDiagnosis(jobId) });
+export const getDiagnosisQueryOptions = (jobId: string) => queryOptions({ queryKey: ['jobs', jobId, 'diagnosis'], queryFn: () => getDiagnosis(jobId) });
 
 /**
  * While the board's expected values are still being prepared, or fault pairs are still being checked, the

@@ -7,7 +7,6 @@ export const getJobs = (query: JobListQuery = {}) => {
   return api(`/jobs${qs.size ? `?${qs}` : ''}`, { schema: jobListResponse });
 };
 
-export const getJobsQueryOptions = (query: JobListQuery = {}) =>
-  queryOptions({ queryKey: ['jobs', 'list', query], queryFn: () => getJobs(query) });
+export const getJobsQueryOptions = (query: JobListQuery = {}) => queryOptions({ queryKey: ['jobs', 'list', query], queryFn: () => getJobs(query) });
 
 export const useJobs = (query: JobListQuery = {}) => useQuery(getJobsQueryOptions(query));

@@ -33,6 +33,7 @@ export function useAddJobPhotos(jobId: string) {
       }
       return { failed };
     },
-    onSettled: () => Promise.all([qc.invalidateQueries({ queryKey: ['jobs', jobId, 'photos'] }), qc.invalidateQueries({ queryKey: ['jobs', jobId, 'photo-refusals'] })]),
+    onSettled: () =>
+      Promise.all([qc.invalidateQueries({ queryKey: ['jobs', jobId, 'photos'] }), qc.invalidateQueries({ queryKey: ['jobs', jobId, 'photo-refusals'] })]),
   });
 }

@@ -25,4 +25,10 @@ export const useUpdateBinPart = () => {
 
 /** Quote lines pre-filled from the parts the job's repairs took from the bin and the shop's labour rate. */
 export const useQuoteDraft = (jobId: string, enabled: boolean) =>
-  useQuery(queryOptions({ queryKey: ['jobs', jobId, 'quote-draft'], queryFn: () => api(`/jobs/${encodeURIComponent(jobId)}/quote-draft`, { schema: quoteDraftResponse }), enabled }));
+  useQuery(
+    queryOptions({
+      queryKey: ['jobs', jobId, 'quote-draft'],
+      queryFn: () => api(`/jobs/${encodeURIComponent(jobId)}/quote-draft`, { schema: quoteDraftResponse }),
+      enabled,
+    }),
+  );

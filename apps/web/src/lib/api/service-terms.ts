@@ -3,7 +3,8 @@ import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/r
 import { api } from '@/lib/api-client';
 
 /** The shop's warranty days and labour rate (the parts bin's quote pre-fill and the settings page read them). */
-export const serviceTermsQueryOptions = () => queryOptions({ queryKey: ['service-terms'], queryFn: () => api('/service-terms', { schema: serviceTermsSchema }) });
+export const serviceTermsQueryOptions = () =>
+  queryOptions({ queryKey: ['service-terms'], queryFn: () => api('/service-terms', { schema: serviceTermsSchema }) });
 export const useServiceTerms = () => useQuery(serviceTermsQueryOptions());
 
 export const useUpdateServiceTerms = () => {

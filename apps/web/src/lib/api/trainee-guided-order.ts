@@ -10,6 +10,7 @@ export const useTraineeGuidedOrder = () => {
       api(`/users/${encodeURIComponent(id)}/guided-order`, { method: 'PUT', body: JSON.stringify({ lifted }), schema: shopMemberSchema }),
     // The jobs' own records carry the lift (guidedOrderRequired, assigneeGuidedLifted); their readings and
     // diagnosis do not change, so they are not fetched again.
-    onSettled: () => Promise.all([qc.invalidateQueries({ queryKey: ['jobs'], predicate: (q) => q.queryKey.length === 2 }), qc.invalidateQueries({ queryKey: ['users'] })]),
+    onSettled: () =>
+      Promise.all([qc.invalidateQueries({ queryKey: ['jobs'], predicate: (q) => q.queryKey.length === 2 }), qc.invalidateQueries({ queryKey: ['users'] })]),
   });
 };

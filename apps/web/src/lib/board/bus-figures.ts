@@ -31,7 +31,9 @@ export function busFigures(view: BoardView, rows: ExpectedReadingRow[]): BusFigu
   );
   const busPoints = new Set(view.points.filter((p) => capNets.has(p.net.toLowerCase())).map((p) => p.id.toLowerCase()));
   const onCap = (probe: string) => busPoints.has(probe.toLowerCase()) || capNets.has(probe.toLowerCase());
-  const ohmRow = rows.find((r) => r.mode === 'ohm' && r.power === 'off' && r.lifted.length === 0 && onCap(r.red) && onCap(r.black) && typeof r.expected === 'number');
+  const ohmRow = rows.find(
+    (r) => r.mode === 'ohm' && r.power === 'off' && r.lifted.length === 0 && onCap(r.red) && onCap(r.black) && typeof r.expected === 'number',
+  );
   const volts = rows
     .filter((r) => r.mode === 'dcv' && r.power === 'on' && (busPoints.has(r.red.toLowerCase()) || capNets.has(r.red.toLowerCase())))
     .map((r) => Math.max(typeof r.expected === 'number' ? Math.abs(r.expected) : 0, Math.abs(r.high ?? 0)));
@@ -39,7 +41,13 @@ export function busFigures(view: BoardView, rows: ExpectedReadingRow[]): BusFigu
   if (!(busVolts > 0)) return null;
   if (ohmRow) {
     const ohms = ohmRow.expected as number;
-    return { capacitanceF: cap.nominal!, bleederOhms: ohms, busVolts, capacitor: cap.designator, bleeder: `the in-circuit discharge path (${Math.round(ohms / 1000)} kΩ computed)` };
+    return {
+      capacitanceF: cap.nominal!,
+      bleederOhms: ohms,
+      busVolts,
+      capacitor: cap.designator,
+      bleeder: `the in-circuit discharge path (${Math.round(ohms / 1000)} kΩ computed)`,
+    };
   }
   return { capacitanceF: cap.nominal!, bleederOhms: bleeder?.nominal, busVolts, capacitor: cap.designator, bleeder: bleeder?.designator };
 }

@@ -27,4 +27,3 @@ export function gateFigures(view: BoardView, rows: ExpectedReadingRow[]): GateFi
     cautions: s.cautions,
   };
 }
-

@@ -31,7 +31,13 @@ export default function AccountPage() {
       </p>
       <form onSubmit={submit} noValidate aria-label="Change password" className="space-y-4 rounded-lg border border-stone-300 bg-white p-4">
         <h2 className="text-lg font-semibold">Change password</h2>
-        <TextField label="Current password" type="password" autoComplete="current-password" value={f.currentPassword} onChange={(e) => setF({ ...f, currentPassword: e.target.value })} />
+        <TextField
+          label="Current password"
+          type="password"
+          autoComplete="current-password"
+          value={f.currentPassword}
+          onChange={(e) => setF({ ...f, currentPassword: e.target.value })}
+        />
         <TextField
           label="New password"
           type="password"

@@ -28,7 +28,9 @@ export default function ForgotPasswordPage() {
         </form>
       )}
       <p className="mt-4 text-sm">
-        <Link to="/sign-in" className="underline">Back to sign-in</Link>
+        <Link to="/sign-in" className="underline">
+          Back to sign-in
+        </Link>
       </p>
     </AuthCard>
   );

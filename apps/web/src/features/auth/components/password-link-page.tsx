@@ -19,10 +19,19 @@ export default function PasswordLinkPage({ link }: { link: PasswordLink }) {
   const w = WORDS[link];
   return (
     <AuthCard title={w.title} subtitle={w.subtitle}>
-      <SetPasswordForm submitLabel={w.submit} pending={save.isPending} error={save.error} onSubmit={(password) => save.mutate({ token, password }, { onSuccess: () => void navigate('/', { replace: true }) })} />
+      <SetPasswordForm
+        submitLabel={w.submit}
+        pending={save.isPending}
+        error={save.error}
+        onSubmit={(password) => save.mutate({ token, password }, { onSuccess: () => void navigate('/', { replace: true }) })}
+      />
       {link === 'reset' && (
         <p className="mt-4 text-sm">
-          Link expired? <Link to="/forgot-password" className="underline">Ask for a new one</Link>.
+          Link expired?{' '}
+          <Link to="/forgot-password" className="underline">
+            Ask for a new one
+          </Link>
+          .
         </p>
       )}
     </AuthCard>

@@ -13,7 +13,8 @@ export interface MeterTarget {
 }
 
 const isMeterMode = (m: string): m is BenchMeterMode => (benchMeterModes as readonly string[]).includes(m);
-const sameTest = (a: BenchMeterArm, t: MeterTarget) => a.mode === t.mode && a.red === t.red && a.black === t.black && a.power === t.power && a.lifted.join() === t.lifted.join();
+const sameTest = (a: BenchMeterArm, t: MeterTarget) =>
+  a.mode === t.mode && a.red === t.red && a.black === t.black && a.power === t.power && a.lifted.join() === t.lifted.join();
 const button = 'min-h-11 rounded-md border-2 border-board bg-white px-3 text-sm font-semibold disabled:opacity-60';
 
 /**
@@ -21,7 +22,19 @@ const button = 'min-h-11 rounded-md border-2 border-board bg-white px-3 text-sm 
  * (or read at once). The reading is stored by the server through the same write as a typed one; this shows it in
  * the bench's words once it lands, or the server's refusal. Continuity stays on the keyboard: its beep is heard.
  */
-export function BenchMeter({ jobId, role, target, label, busVolts }: { jobId: string; role?: Role; target: MeterTarget; label: (netOrPoint: string) => string; busVolts: number | null }) {
+export function BenchMeter({
+  jobId,
+  role,
+  target,
+  label,
+  busVolts,
+}: {
+  jobId: string;
+  role?: Role;
+  target: MeterTarget;
+  label: (netOrPoint: string) => string;
+  busVolts: number | null;
+}) {
   const usable = mayUseBenchMeter(role) && isMeterMode(target.mode);
   const status = useBenchMeter(jobId, usable);
   const armMeter = useArmBenchMeter(jobId);
@@ -44,13 +57,23 @@ export function BenchMeter({ jobId, role, target, label, busVolts }: { jobId: st
   const point = label(target.red);
   const waiting = arm?.state === 'waiting';
   const ask = (trigger: 'meter' | 'now') =>
-    armMeter.mutate({ mode, red: target.red, black: target.black, power: target.power, lifted: target.lifted, trigger, ...(target.power === 'off' && busVolts !== null ? { safetyCheck: { unplugged: true, busVolts } } : {}) });
+    armMeter.mutate({
+      mode,
+      red: target.red,
+      black: target.black,
+      power: target.power,
+      lifted: target.lifted,
+      trigger,
+      ...(target.power === 'off' && busVolts !== null ? { safetyCheck: { unplugged: true, busVolts } } : {}),
+    });
   const words = (a: BenchMeterArm) => `${label(a.red)} ${METER_LABEL[a.mode] ?? a.mode}`;
 
   return (
     <div className="space-y-2 rounded-md border border-stone-300 bg-stone-50 p-2" aria-label="Bench meter" role="group">
       <p className="text-xs text-stone-700" data-testid="bridge-line">
-        {bridge?.connected ? `Bench meter: ${bridge.instrument ?? 'connected'}, connected.` : 'No bench meter connected: start the meter bridge beside it (see the README, “Bench meter”).'}
+        {bridge?.connected
+          ? `Bench meter: ${bridge.instrument ?? 'connected'}, connected.`
+          : 'No bench meter connected: start the meter bridge beside it (see the README, “Bench meter”).'}
       </p>
       {waiting ? (
         <div className="flex flex-wrap items-center gap-2">

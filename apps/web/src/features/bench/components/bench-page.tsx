@@ -1,4 +1,12 @@
-import { acceptsReadings, canPropose, isPhotoOnlyBoard, jobStatusLabels, type ExpectedReadingRow, type JobDetail, type StoredReading } from '@splitscope/contract';
+import {
+  acceptsReadings,
+  canPropose,
+  isPhotoOnlyBoard,
+  jobStatusLabels,
+  type ExpectedReadingRow,
+  type JobDetail,
+  type StoredReading,
+} from '@splitscope/contract';
 import { useEffect, useMemo, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
@@ -127,7 +135,20 @@ function Bench({ job }: { job: JobDetail }) {
       return 'Pass the discharge gate first: this reading is unpowered on the DC bus.';
     }
     const { mode, red, black, power } = probe;
-    await sender.save({ mode, red, black, power, lifted: probe.lifted, ...(probe.alone ? { alone: probe.alone } : {}), value: parsed.value, ...(parsed.beep !== undefined ? { beep: parsed.beep } : {}), raw: text.trim(), phase: 'diagnosis', ...safetyCheck, ...(extra.supersedes ? { supersedes: extra.supersedes } : {}) });
+    await sender.save({
+      mode,
+      red,
+      black,
+      power,
+      lifted: probe.lifted,
+      ...(probe.alone ? { alone: probe.alone } : {}),
+      value: parsed.value,
+      ...(parsed.beep !== undefined ? { beep: parsed.beep } : {}),
+      raw: text.trim(),
+      phase: 'diagnosis',
+      ...safetyCheck,
+      ...(extra.supersedes ? { supersedes: extra.supersedes } : {}),
+    });
     return null;
   };
   const save = async (text: string) => {
@@ -137,7 +158,8 @@ function Bench({ job }: { job: JobDetail }) {
     return err === null;
   };
   // A correction re-enters the value of a measurement already taken, under the gate that reading passed.
-  const correct = (r: StoredReading, text: string) => send({ mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted, alone: r.alone }, text, { supersedes: r.id, gate: r.safetyBusVolts });
+  const correct = (r: StoredReading, text: string) =>
+    send({ mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted, alone: r.alone }, text, { supersedes: r.id, gate: r.safetyBusVolts });
 
   const latest: LatestReading | null = (() => {
     if (!active) return null;
@@ -145,7 +167,11 @@ function Bench({ job }: { job: JobDetail }) {
     if (unsent) return { text: unsent.body.raw, state: 'unsent' };
     const r = latestFor(view, readings, active);
     if (!r) return null;
-    return { text: readingText(r), state: stateOf(r.verdict?.verdict), detail: r.verdict ? `expected ${bandText(r.verdict, r.mode)}` : 'no expected value for this test' };
+    return {
+      text: readingText(r),
+      state: stateOf(r.verdict?.verdict),
+      detail: r.verdict ? `expected ${bandText(r.verdict, r.mode)}` : 'no expected value for this test',
+    };
   })();
 
   const expectedRow = active ? expectedFor(view, rows, active) : undefined;
@@ -159,7 +185,15 @@ function Bench({ job }: { job: JobDetail }) {
     lifted: active.lifted.map((p) => liftable.find((x) => x.id === p)?.designator ?? p),
     red: { label: pinLabel(active.red) },
     black: { label: pinLabel(active.black) },
-    expected: expectedRow ? { text: bandText({ ...expectedRow, low: null, high: null }, expectedRow.mode), band: bandText(expectedRow, expectedRow.mode), note: expectedRow.note, source: expectedRow.source, assumes: job.meter.label } : null,
+    expected: expectedRow
+      ? {
+          text: bandText({ ...expectedRow, low: null, high: null }, expectedRow.mode),
+          band: bandText(expectedRow, expectedRow.mode),
+          note: expectedRow.note,
+          source: expectedRow.source,
+          assumes: job.meter.label,
+        }
+      : null,
   };
   const choices = !guided && target?.pointId && lifted.length === 0 ? rowsForPoint(view, rows, target.pointId) : [];
   const proposed = ranked.find((p) => p.part === selectedPart) ?? ranked[0];
@@ -177,7 +211,15 @@ function Bench({ job }: { job: JobDetail }) {
   const safetyGate = <SafetyGate key={gateRefusal ?? 'gate'} figures={gateFigures(view, rows)} check={checkBus} onPass={passGate} refusal={gateRefusal} />;
   const probeNets = active ? { red: view.pointOf(active.red)?.net ?? active.red, black: view.pointOf(active.black)?.net ?? active.black } : undefined;
   const faultCode = job.faultCode ? job.board.faultCodes.find((f) => f.code.toLowerCase() === job.faultCode!.toLowerCase()) : undefined;
-  const before = readings.length === 0 ? { code: job.faultCode, meaning: faultCode?.title ?? null, sections: (faultCode?.sections ?? []).map((id) => view.sections.find((x) => x.id === id)?.name ?? id), firstTest: step?.label ?? null } : null;
+  const before =
+    readings.length === 0
+      ? {
+          code: job.faultCode,
+          meaning: faultCode?.title ?? null,
+          sections: (faultCode?.sections ?? []).map((id) => view.sections.find((x) => x.id === id)?.name ?? id),
+          firstTest: step?.label ?? null,
+        }
+      : null;
   const meter = active && <BenchMeter jobId={job.id} role={me.data?.role} target={active} label={view.netLabel} busVolts={gateVolts} />;
   const entry = panelTarget && canWrite && !gateShown && <ReadingPanel target={panelTarget} latest={latest} onSave={save} error={entryError} meter={meter} />;
 
@@ -258,7 +300,13 @@ function Bench({ job }: { job: JobDetail }) {
             {tab === 'chain' && <SignalChain links={chainLinks(view, rows, readings)} />}
             {tab === 'points' && (
               <PointList
-                items={points.map((p) => ({ id: p.id, label: p.label, section: view.sections.find((s) => s.id === p.section)?.name ?? p.section, state: p.state, reading: p.reading ? readingText(p.reading) : undefined }))}
+                items={points.map((p) => ({
+                  id: p.id,
+                  label: p.label,
+                  section: view.sections.find((s) => s.id === p.section)?.name ?? p.section,
+                  state: p.state,
+                  reading: p.reading ? readingText(p.reading) : undefined,
+                }))}
                 selectedId={target?.pointId}
                 onSelect={bench.selectPoint}
               />
@@ -298,7 +346,11 @@ function Bench({ job }: { job: JobDetail }) {
           </div>
         </div>
         <div className="order-1 min-h-0 space-y-3 lg:order-2 lg:overflow-y-auto lg:pr-1" data-testid="bench-side">
-          {readingsQ.isError && <p role="alert" className="text-high">Readings could not be loaded: {readingsQ.error.message}</p>}
+          {readingsQ.isError && (
+            <p role="alert" className="text-high">
+              Readings could not be loaded: {readingsQ.error.message}
+            </p>
+          )}
           {guided ? (
             <GuidedOrder view={view} step={step} done={readings} pending={diagnosisQ.isPending}>
               {diagnosisQ.isPending && <p role="status">Asking the engine for the next step…</p>}
@@ -307,7 +359,15 @@ function Bench({ job }: { job: JobDetail }) {
             </GuidedOrder>
           ) : (
             <>
-              {canWrite && <LiftedParts parts={liftable} lifted={lifted} onChange={bench.changeLifted} onMeasurePads={bench.measurePads} onMeasureAlone={(p) => bench.measureAlone(p)} />}
+              {canWrite && (
+                <LiftedParts
+                  parts={liftable}
+                  lifted={lifted}
+                  onChange={bench.changeLifted}
+                  onMeasurePads={bench.measurePads}
+                  onMeasureAlone={(p) => bench.measureAlone(p)}
+                />
+              )}
               {alonePart && target ? (
                 <AloneChoices part={alonePart} mode={target.mode} red={target.red} black={target.black} onChange={(c) => bench.measureAlone(alonePart.id, c)} />
               ) : (
@@ -316,7 +376,9 @@ function Bench({ job }: { job: JobDetail }) {
               {gateShown && active && safetyGate}
               {entry}
               {!active && <p className="rounded-md bg-board-light p-3 text-sm">Pick a test point on the map, or a next test below.</p>}
-              {!canWrite && <p className="rounded-md bg-board-light p-2 text-sm">This job is {jobStatusLabels[job.status].toLowerCase()}: diagnosis readings are closed.</p>}
+              {!canWrite && (
+                <p className="rounded-md bg-board-light p-2 text-sm">This job is {jobStatusLabels[job.status].toLowerCase()}: diagnosis readings are closed.</p>
+              )}
             </>
           )}
           {proposed && readings.length > 0 && canPropose(job.status, me.data?.role) && <ProposePanel job={job} proposed={proposed} picked={!!selectedPart} />}

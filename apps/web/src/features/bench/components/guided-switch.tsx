@@ -20,7 +20,10 @@ export function GuidedSwitch({ job, guided, onToggle }: { job: JobDetail; guided
   return (
     <div className="flex flex-wrap items-center gap-2">
       {job.guidedOrderRequired ? (
-        <span className="inline-flex min-h-11 items-center rounded-md border border-board bg-board-light px-3 text-sm font-semibold" data-testid="guided-locked">
+        <span
+          className="inline-flex min-h-11 items-center rounded-md border border-board bg-board-light px-3 text-sm font-semibold"
+          data-testid="guided-locked"
+        >
           Guided order: on · a lead can lift it
         </span>
       ) : (

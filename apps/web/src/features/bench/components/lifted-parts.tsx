@@ -26,24 +26,26 @@ export function LiftedParts({
       <h2 id="lifted-h" className="sr-only">
         Parts lifted
       </h2>
-      {lifted.length > 0 && <ul className="mb-1 flex flex-wrap gap-1">
-        {lifted.map((p) => (
-          <li key={p} className="flex items-center gap-1 rounded-md bg-amber-100 px-2 text-sm">
-            <strong>{label(p)}</strong> lifted
-            {(parts.find((x) => x.id === p)?.pins.length ?? 0) === 2 && (
-              <button type="button" className="min-h-11 px-1 underline" onClick={() => onMeasurePads(p)}>
-                measure its pads
+      {lifted.length > 0 && (
+        <ul className="mb-1 flex flex-wrap gap-1">
+          {lifted.map((p) => (
+            <li key={p} className="flex items-center gap-1 rounded-md bg-amber-100 px-2 text-sm">
+              <strong>{label(p)}</strong> lifted
+              {(parts.find((x) => x.id === p)?.pins.length ?? 0) === 2 && (
+                <button type="button" className="min-h-11 px-1 underline" onClick={() => onMeasurePads(p)}>
+                  measure its pads
+                </button>
+              )}
+              <button type="button" className="min-h-11 px-1 underline" onClick={() => onMeasureAlone(p)}>
+                measure {parts.find((x) => x.id === p)?.designator ?? p} alone
               </button>
-            )}
-            <button type="button" className="min-h-11 px-1 underline" onClick={() => onMeasureAlone(p)}>
-              measure {parts.find((x) => x.id === p)?.designator ?? p} alone
-            </button>
-            <button type="button" className="min-h-11 px-1 underline" onClick={() => onChange(lifted.filter((x) => x !== p))}>
-              put back
-            </button>
-          </li>
-        ))}
-      </ul>}
+              <button type="button" className="min-h-11 px-1 underline" onClick={() => onChange(lifted.filter((x) => x !== p))}>
+                put back
+              </button>
+            </li>
+          ))}
+        </ul>
+      )}
       <form
         className="flex gap-1"
         onSubmit={(e) => {
@@ -55,7 +57,12 @@ export function LiftedParts({
         <label className="sr-only" htmlFor="lift-pick">
           Part to lift
         </label>
-        <select id="lift-pick" value={pick} onChange={(e) => setPick(e.target.value)} className="min-h-11 flex-1 rounded-md border border-stone-500 bg-white px-2 text-sm">
+        <select
+          id="lift-pick"
+          value={pick}
+          onChange={(e) => setPick(e.target.value)}
+          className="min-h-11 flex-1 rounded-md border border-stone-500 bg-white px-2 text-sm"
+        >
           <option value="">{lifted.length ? 'Lift another part…' : 'Parts lifted: none. Lift a part…'}</option>
           {parts
             .filter((p) => !lifted.includes(p.id))

@@ -5,7 +5,15 @@ import { METER_LABEL } from '@/lib/format';
  * The tests the expected table holds at the chosen point. The point is already chosen: what tells these apart is
  * the meter function and the power state.
  */
-export function ProbeChoices({ rows, isChosen, onChoose }: { rows: ExpectedReadingRow[]; isChosen: (r: ExpectedReadingRow) => boolean; onChoose: (r: ExpectedReadingRow) => void }) {
+export function ProbeChoices({
+  rows,
+  isChosen,
+  onChoose,
+}: {
+  rows: ExpectedReadingRow[];
+  isChosen: (r: ExpectedReadingRow) => boolean;
+  onChoose: (r: ExpectedReadingRow) => void;
+}) {
   if (rows.length < 2) return null;
   return (
     <fieldset className="flex flex-wrap gap-1">

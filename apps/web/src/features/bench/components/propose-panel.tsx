@@ -26,7 +26,13 @@ export function ProposePanel({ job, proposed, picked }: { job: JobDetail; propos
       </p>
       <label className="block">
         <span className="text-sm font-medium">Note for the lead</span>
-        <textarea rows={2} value={note} onChange={(e) => setNote(e.target.value)} className="mt-1 block w-full rounded-md border border-stone-500 p-2 text-sm" placeholder="What you saw, what you lifted, why this part" />
+        <textarea
+          rows={2}
+          value={note}
+          onChange={(e) => setNote(e.target.value)}
+          className="mt-1 block w-full rounded-md border border-stone-500 p-2 text-sm"
+          placeholder="What you saw, what you lifted, why this part"
+        />
       </label>
       <Button onClick={() => void propose()} disabled={update.isPending}>
         Propose {proposed.designator} for review

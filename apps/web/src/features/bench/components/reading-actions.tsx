@@ -7,7 +7,15 @@ import { formSubmit } from '@/lib/form-submit';
  * Correct (enter the value again: the old reading stays, struck through, with who and when) or strike out with a
  * reason. Both append: nothing stored is changed.
  */
-export function ReadingActions({ reading, jobId, onCorrect }: { reading: StoredReading; jobId: string; onCorrect: (r: StoredReading, text: string) => Promise<string | null> }) {
+export function ReadingActions({
+  reading,
+  jobId,
+  onCorrect,
+}: {
+  reading: StoredReading;
+  jobId: string;
+  onCorrect: (r: StoredReading, text: string) => Promise<string | null>;
+}) {
   const [mode, setMode] = useState<'idle' | 'correct' | 'strike'>('idle');
   const [text, setText] = useState('');
   const [error, setError] = useState<string | null>(null);
@@ -31,10 +39,18 @@ export function ReadingActions({ reading, jobId, onCorrect }: { reading: StoredR
   if (mode === 'idle')
     return (
       <span className="flex gap-1">
-        <button type="button" className="min-h-11 rounded border border-stone-400 bg-white px-2 text-xs font-semibold" onClick={() => (setText(''), setError(null), setMode('correct'))}>
+        <button
+          type="button"
+          className="min-h-11 rounded border border-stone-400 bg-white px-2 text-xs font-semibold"
+          onClick={() => (setText(''), setError(null), setMode('correct'))}
+        >
           Correct
         </button>
-        <button type="button" className="min-h-11 rounded border border-stone-400 bg-white px-2 text-xs font-semibold" onClick={() => (setText(''), setError(null), setMode('strike'))}>
+        <button
+          type="button"
+          className="min-h-11 rounded border border-stone-400 bg-white px-2 text-xs font-semibold"
+          onClick={() => (setText(''), setError(null), setMode('strike'))}
+        >
           Strike
         </button>
       </span>

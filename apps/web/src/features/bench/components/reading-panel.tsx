@@ -5,7 +5,6 @@ import { MarkerGlyph } from '@/components/board-map/marker-glyph';
 import { METER_LABEL } from '@/lib/format';
 import { formSubmit } from '@/lib/form-submit';
 
-
 export interface ReadingTarget {
   pointId: string;
   pointLabel: string;
@@ -136,7 +135,9 @@ export function ReadingPanel({
       </div>
       <dl className="grid grid-cols-[auto_1fr] gap-x-3 text-sm">
         <dt className="text-stone-700">Expected</dt>
-        <dd className="font-semibold" data-testid="expected-band">{target.expected ? target.expected.band : 'computed by the engine when the reading is saved'}</dd>
+        <dd className="font-semibold" data-testid="expected-band">
+          {target.expected ? target.expected.band : 'computed by the engine when the reading is saved'}
+        </dd>
         {target.expected?.note && (
           <>
             <dt className="text-stone-700">In circuit</dt>
@@ -152,7 +153,9 @@ export function ReadingPanel({
         {target.expected?.source && (
           <>
             <dt className="text-stone-700">Band from</dt>
-            <dd className="line-clamp-2 text-xs" title={target.expected.source}>{target.expected.source}</dd>
+            <dd className="line-clamp-2 text-xs" title={target.expected.source}>
+              {target.expected.source}
+            </dd>
           </>
         )}
       </dl>

@@ -68,7 +68,14 @@ export function SignalChain({ links }: { links: ChainLink[] }) {
           const my = typeof l.measured === 'number' && l.nominal ? y(l.measured / l.nominal) : null;
           return (
             <g key={l.id}>
-              <rect x={cx - step * 0.3} width={step * 0.6} y={y(Math.max(lo, hi))} height={Math.max(2, y(Math.min(lo, hi)) - y(Math.max(lo, hi)))} fill="#cfe6dc" stroke="#1d6b3a" />
+              <rect
+                x={cx - step * 0.3}
+                width={step * 0.6}
+                y={y(Math.max(lo, hi))}
+                height={Math.max(2, y(Math.min(lo, hi)) - y(Math.max(lo, hi)))}
+                fill="#cfe6dc"
+                stroke="#1d6b3a"
+              />
               {my !== null && (
                 <g transform={`translate(${cx},${my})`}>
                   <circle r={8} fill="#fff" stroke={m.colour} strokeWidth={2.5} />
@@ -91,7 +98,8 @@ export function SignalChain({ links }: { links: ChainLink[] }) {
         {measuredPts && <polyline points={measuredPts} fill="none" stroke="#b8742a" strokeWidth={2} strokeDasharray="5 3" />}
       </svg>
       <figcaption id="chain-cap" className="text-sm text-stone-700">
-        Signal chain, bus first: each test point against its own healthy value (100 %). The green band is what the engine expects on a healthy board; markers are your readings.
+        Signal chain, bus first: each test point against its own healthy value (100 %). The green band is what the engine expects on a healthy board; markers
+        are your readings.
       </figcaption>
       <table className="w-full text-sm">
         <caption className="sr-only">Signal chain readings</caption>

@@ -1,7 +1,12 @@
 import type { UnsentReading } from '@/lib/use-reading-sender';
 
 /** Readings kept on this device that the server does not have yet. */
-export function UnsentList({ unsent, rejected, onRetry, onDismiss }: {
+export function UnsentList({
+  unsent,
+  rejected,
+  onRetry,
+  onDismiss,
+}: {
   unsent: UnsentReading[];
   rejected: { raw: string; message: string }[];
   onRetry: () => void;

@@ -47,7 +47,12 @@ export function latestFor(view: BoardView, readings: StoredReading[], t: Target)
  * A point's marker: the verdict of the newest reading with the red probe on its net, taken in the board's
  * present state (the same parts lifted): a value read with C10 lifted says nothing about the board as built.
  */
-export function pointState(view: BoardView, readings: StoredReading[], pointNet: string, lifted: readonly string[] = []): { state: MarkerState; reading?: StoredReading } {
+export function pointState(
+  view: BoardView,
+  readings: StoredReading[],
+  pointNet: string,
+  lifted: readonly string[] = [],
+): { state: MarkerState; reading?: StoredReading } {
   const same = [...lifted].sort().join();
   // A part measured on its own pins is off the board: its reading says nothing about the point its pad is on.
   const r = [...readings].reverse().find((x) => !x.alone && norm(x.redNet) === norm(pointNet) && [...x.lifted].sort().join() === same);

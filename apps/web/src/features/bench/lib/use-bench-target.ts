@@ -20,7 +20,17 @@ export interface LiftablePart {
 
 const DIODE_KINDS = new Set(['diode', 'led', 'zener']);
 
-export function useBenchTarget({ view, rows, guided, step }: { view: BoardView; rows: ExpectedReadingRow[]; guided: boolean; step?: { target: Target; pointId?: string } }) {
+export function useBenchTarget({
+  view,
+  rows,
+  guided,
+  step,
+}: {
+  view: BoardView;
+  rows: ExpectedReadingRow[];
+  guided: boolean;
+  step?: { target: Target; pointId?: string };
+}) {
   const [target, setTarget] = useState<BenchTarget | null>(null);
   const [selectedPart, setSelectedPart] = useState<string | null>(null);
   const [lifted, setLifted] = useState<string[]>([]);
@@ -47,8 +57,14 @@ export function useBenchTarget({ view, rows, guided, step }: { view: BoardView; 
     const p = view.pointOf(id)!;
     const row = choices.find((r) => r.power === 'on') ?? choices[0];
     // With parts lifted the board is not as built: the test keeps the point's probes and takes the lifted set.
-    const base = row ? { mode: row.mode, red: row.red, black: row.black, power: row.power } : { mode: 'dcv' as const, red: p.id, black: '0', power: 'on' as const };
-    setTarget(lifted.length ? { ...base, mode: base.mode === 'dcv' ? 'ohm' : base.mode, power: 'off', lifted, pointId: id } : { ...base, lifted: row?.lifted ?? [], pointId: id });
+    const base = row
+      ? { mode: row.mode, red: row.red, black: row.black, power: row.power }
+      : { mode: 'dcv' as const, red: p.id, black: '0', power: 'on' as const };
+    setTarget(
+      lifted.length
+        ? { ...base, mode: base.mode === 'dcv' ? 'ohm' : base.mode, power: 'off', lifted, pointId: id }
+        : { ...base, lifted: row?.lifted ?? [], pointId: id },
+    );
   };
   /** A lifted two-pin part's pads on the board (the circuit without the part). */
   const measurePads = (part: string) => {
@@ -70,7 +86,14 @@ export function useBenchTarget({ view, rows, guided, step }: { view: BoardView; 
     const anode = p.pins.find((x) => x.word === 'anode') ?? p.pins[0]!;
     const other = p.pins.find((x) => x.net !== anode.net) ?? p.pins[1]!;
     const mode = change.mode ?? same?.mode ?? (diode ? 'diode' : 'ohm');
-    setTarget({ mode: mode === 'dcv' ? 'ohm' : mode, red: change.red ?? same?.red ?? anode.net, black: change.black ?? same?.black ?? other.net, power: 'off', lifted: withPart, alone: part });
+    setTarget({
+      mode: mode === 'dcv' ? 'ohm' : mode,
+      red: change.red ?? same?.red ?? anode.net,
+      black: change.black ?? same?.black ?? other.net,
+      power: 'off',
+      lifted: withPart,
+      alone: part,
+    });
   };
   const changeLifted = (next: string[]) => {
     setLifted(next);
@@ -79,7 +102,8 @@ export function useBenchTarget({ view, rows, guided, step }: { view: BoardView; 
     if (target.alone && !next.includes(target.alone)) return setTarget(null);
     setTarget({ ...target, lifted: next, ...(next.length ? { power: 'off' as const, mode: target.mode === 'dcv' ? ('ohm' as const) : target.mode } : {}) });
   };
-  const chooseRow = (r: ExpectedReadingRow) => setTarget({ mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted, pointId: target?.pointId });
+  const chooseRow = (r: ExpectedReadingRow) =>
+    setTarget({ mode: r.mode, red: r.red, black: r.black, power: r.power, lifted: r.lifted, pointId: target?.pointId });
   const chooseTest = (t: { target: Target; pointId?: string }) => setTarget({ ...t.target, pointId: t.pointId });
   const pickPart = (p: string) => setSelectedPart((s) => (s === p ? null : p));
 

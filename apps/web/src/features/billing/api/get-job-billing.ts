@@ -10,7 +10,8 @@ export const getJobBillingQueryOptions = (jobId: string) =>
     queryKey: ['job-billing', jobId],
     queryFn: () => getJobBilling(jobId),
     // the customer answers on their own page: poll gently so a sent quote's answer shows up without a reload
-    refetchInterval: (q) => (q.state.data?.quotes.some((x) => x.status === 'sent') || q.state.data?.invoices.some((i) => i.status === 'issued') ? 10_000 : false),
+    refetchInterval: (q) =>
+      q.state.data?.quotes.some((x) => x.status === 'sent') || q.state.data?.invoices.some((i) => i.status === 'issued') ? 10_000 : false,
   });
 
 export const useJobBilling = (jobId: string) => useQuery(getJobBillingQueryOptions(jobId));

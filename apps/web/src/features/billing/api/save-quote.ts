@@ -13,7 +13,8 @@ export const updateQuote = (quoteId: string, input: CreateQuoteRequest) =>
 export const useSaveQuote = (jobId: string) => {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: ({ quoteId, input }: { quoteId: string | null; input: CreateQuoteRequest }) => (quoteId ? updateQuote(quoteId, input) : createQuote(jobId, input)),
+    mutationFn: ({ quoteId, input }: { quoteId: string | null; input: CreateQuoteRequest }) =>
+      quoteId ? updateQuote(quoteId, input) : createQuote(jobId, input),
     onSuccess: () => qc.invalidateQueries({ queryKey: getJobBillingQueryOptions(jobId).queryKey }),
   });
 };

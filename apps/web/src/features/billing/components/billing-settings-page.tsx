@@ -14,9 +14,17 @@ const field = 'block min-h-11 w-full rounded-md border border-stone-500 bg-white
 
 function SettingsForm({ settings }: { settings: BillingSettings }) {
   const update = useUpdateBillingSettings();
-  const form = useForm<SettingsFormValues, unknown, SettingsFormValues>({ resolver: zodResolver(settingsFormSchema), defaultValues: settingsFormValues(settings) });
+  const form = useForm<SettingsFormValues, unknown, SettingsFormValues>({
+    resolver: zodResolver(settingsFormSchema),
+    defaultValues: settingsFormValues(settings),
+  });
   const errs = form.formState.errors;
-  const submit = form.handleSubmit((v) => update.mutateAsync(v).then((s) => form.reset(settingsFormValues(s)), () => undefined));
+  const submit = form.handleSubmit((v) =>
+    update.mutateAsync(v).then(
+      (s) => form.reset(settingsFormValues(s)),
+      () => undefined,
+    ),
+  );
   return (
     <form onSubmit={formSubmit(submit)} noValidate className="max-w-3xl space-y-4 rounded-lg border border-stone-300 bg-white p-4">
       <div className="grid gap-4 sm:grid-cols-2">
@@ -34,12 +42,26 @@ function SettingsForm({ settings }: { settings: BillingSettings }) {
         </label>
         <label>
           <span className="font-medium">Customer links stay valid for (days)</span>
-          <input type="number" min={1} max={365} className={field} {...form.register('linkValidDays', { valueAsNumber: true })} aria-invalid={!!errs.linkValidDays} />
+          <input
+            type="number"
+            min={1}
+            max={365}
+            className={field}
+            {...form.register('linkValidDays', { valueAsNumber: true })}
+            aria-invalid={!!errs.linkValidDays}
+          />
           {errs.linkValidDays && <span className="block text-sm text-high">{errs.linkValidDays.message}</span>}
         </label>
         <label>
           <span className="font-medium">Replies go to (optional)</span>
-          <input type="email" className={field} autoComplete="off" placeholder="office@example.com" {...form.register('replyTo')} aria-invalid={!!errs.replyTo} />
+          <input
+            type="email"
+            className={field}
+            autoComplete="off"
+            placeholder="office@example.com"
+            {...form.register('replyTo')}
+            aria-invalid={!!errs.replyTo}
+          />
           {errs.replyTo && <span className="block text-sm text-high">{errs.replyTo.message}</span>}
         </label>
       </div>
@@ -80,7 +102,14 @@ function ReadOnly({ s }: { s: BillingSettings }) {
       <dt className="font-medium">Link validity</dt>
       <dd>{s.linkValidDays} days</dd>
       <dt className="font-medium">Status e-mails</dt>
-      <dd>{s.notifyOn.length ? milestoneOptions.filter((m) => s.notifyOn.includes(m.value)).map((m) => m.label).join(', ') : 'none'}</dd>
+      <dd>
+        {s.notifyOn.length
+          ? milestoneOptions
+              .filter((m) => s.notifyOn.includes(m.value))
+              .map((m) => m.label)
+              .join(', ')
+          : 'none'}
+      </dd>
     </dl>
   );
 }

@@ -12,7 +12,6 @@ import { InvoiceStatus } from './document-status';
 import { LinesEditor } from './lines-editor';
 import { SendForm } from './send-form';
 
-
 function InvoiceCard({ invoice, ctx }: { invoice: Invoice; ctx: BillingCtx }) {
   const send = useSendDocument(ctx.job.id, 'invoices');
   return (

@@ -35,7 +35,9 @@ function Billing({ job, billing, settings, role }: { job: JobDetail; billing: Jo
           </Link>
         )}
       </nav>
-      {!ctx.canEdit && <p className="rounded bg-stone-200 p-2 text-sm">Trainees see the billing of a job; a technician, lead or shop admin quotes and invoices.</p>}
+      {!ctx.canEdit && (
+        <p className="rounded bg-stone-200 p-2 text-sm">Trainees see the billing of a job; a technician, lead or shop admin quotes and invoices.</p>
+      )}
       <QuotesSection quotes={billing.quotes} ctx={ctx} />
       <InvoicesSection invoices={billing.invoices} quotes={billing.quotes} ctx={ctx} />
       <StatusMailSection job={job} settings={settings} canEdit={ctx.canEdit} />
@@ -54,7 +56,11 @@ export default function JobBillingPage() {
     <QueryState query={job} label="the job">
       {(j) => (
         <QueryState query={settings} label="the billing settings">
-          {(s) => <QueryState query={billing} label="the job’s quotes and invoices">{(b) => <Billing job={j} billing={b} settings={s} role={me.data?.role} />}</QueryState>}
+          {(s) => (
+            <QueryState query={billing} label="the job’s quotes and invoices">
+              {(b) => <Billing job={j} billing={b} settings={s} role={me.data?.role} />}
+            </QueryState>
+          )}
         </QueryState>
       )}
     </QueryState>

@@ -30,13 +30,18 @@ export function LinesEditor({ title, currency, defaultValues, submitLabel, pendi
   const errs = form.formState.errors;
   const cur = currency.toUpperCase();
   return (
-    <form onSubmit={formSubmit(form.handleSubmit(onSubmit))} noValidate aria-labelledby={`${id}-h`} className="space-y-3 rounded-lg border border-stone-300 bg-white p-3">
+    <form
+      onSubmit={formSubmit(form.handleSubmit(onSubmit))}
+      noValidate
+      aria-labelledby={`${id}-h`}
+      className="space-y-3 rounded-lg border border-stone-300 bg-white p-3"
+    >
       <h3 id={`${id}-h`} className="text-lg font-semibold">
         {title}
       </h3>
       <p className="text-sm text-stone-700">
-        Prices in {cur}, typed like 12.50. Quantities like 1 or 1.5 (hours of labour). The totals and the tax are worked out by the server when
-        you save, rounded half away from zero once per document.
+        Prices in {cur}, typed like 12.50. Quantities like 1 or 1.5 (hours of labour). The totals and the tax are worked out by the server when you save,
+        rounded half away from zero once per document.
       </p>
       <ol className="space-y-3">
         {lines.fields.map((f, i) => {
@@ -60,7 +65,13 @@ export function LinesEditor({ title, currency, defaultValues, submitLabel, pendi
               </label>
               <label>
                 <span className="text-sm font-medium">Quantity</span>
-                <input className={`${field} text-right tabular-nums`} inputMode="decimal" autoComplete="off" {...form.register(`lines.${i}.quantity`)} aria-invalid={!!e?.quantity} />
+                <input
+                  className={`${field} text-right tabular-nums`}
+                  inputMode="decimal"
+                  autoComplete="off"
+                  {...form.register(`lines.${i}.quantity`)}
+                  aria-invalid={!!e?.quantity}
+                />
                 {e?.quantity && <span className="text-sm text-high">{e.quantity.message}</span>}
               </label>
               <label>
@@ -79,7 +90,13 @@ export function LinesEditor({ title, currency, defaultValues, submitLabel, pendi
                 <input type="checkbox" className="h-5 w-5" {...form.register(`lines.${i}.taxable`)} />
                 <span className="text-sm">Taxed</span>
               </label>
-              <Button variant="ghost" className="sm:mt-5" aria-label={`Remove line ${i + 1}`} disabled={lines.fields.length === 1} onClick={() => lines.remove(i)}>
+              <Button
+                variant="ghost"
+                className="sm:mt-5"
+                aria-label={`Remove line ${i + 1}`}
+                disabled={lines.fields.length === 1}
+                onClick={() => lines.remove(i)}
+              >
                 Remove
               </Button>
             </li>
@@ -98,7 +115,13 @@ export function LinesEditor({ title, currency, defaultValues, submitLabel, pendi
       <div className="grid gap-3 sm:grid-cols-[10rem_minmax(0,1fr)]">
         <label>
           <span className="text-sm font-medium">Tax rate (%)</span>
-          <input className={`${field} text-right tabular-nums`} inputMode="decimal" autoComplete="off" {...form.register('taxRate')} aria-invalid={!!errs.taxRate} />
+          <input
+            className={`${field} text-right tabular-nums`}
+            inputMode="decimal"
+            autoComplete="off"
+            {...form.register('taxRate')}
+            aria-invalid={!!errs.taxRate}
+          />
           {errs.taxRate && <span className="text-sm text-high">{errs.taxRate.message}</span>}
         </label>
         {withNote && (

@@ -12,7 +12,6 @@ import { QuoteStatus } from './document-status';
 import { LinesEditor } from './lines-editor';
 import { SendForm } from './send-form';
 
-
 function QuoteCard({ quote, ctx, onEdit, current, replaced }: { quote: Quote; ctx: BillingCtx; onEdit: () => void; current: boolean; replaced: boolean }) {
   const send = useSendDocument(ctx.job.id, 'quotes');
   const open = quote.status === 'draft' || (quote.status === 'sent' && !replaced);
@@ -61,7 +60,9 @@ export function QuotesSection({ quotes, ctx }: { quotes: Quote[]; ctx: BillingCt
   const draft = editing && editing !== 'new' ? (quotes.find((q) => q.id === editing) ?? null) : null;
   // A new quote starts from the parts the repairs took from the bin and the shop's labour rate.
   const prefill = useQuoteDraft(ctx.job.id, editing === 'new' && ctx.canEdit);
-  const prefilled = prefill.data?.lines.length ? { lines: prefill.data.lines.map(({ unitCents, ...l }) => ({ ...l, unitPrice: centsToDecimal(unitCents) })), taxRate: ctx.defaultRate, note: '' } : null;
+  const prefilled = prefill.data?.lines.length
+    ? { lines: prefill.data.lines.map(({ unitCents, ...l }) => ({ ...l, unitPrice: centsToDecimal(unitCents) })), taxRate: ctx.defaultRate, note: '' }
+    : null;
   const [latest, ...earlier] = [...quotes].reverse();
   // the server's rule: once a newer quote went out, the customer answers only that one
   const replaced = (q: Quote) => quotes.some((o) => o.status !== 'draft' && o.createdAt > q.createdAt);
@@ -83,7 +84,12 @@ export function QuotesSection({ quotes, ctx }: { quotes: Quote[]; ctx: BillingCt
           pending={save.isPending}
           error={save.error}
           // the error shows from the mutation state; swallowing the rejection keeps it out of the console
-          onSubmit={(input) => save.mutateAsync({ quoteId: draft?.id ?? null, input }).then(() => setEditing(null), () => undefined)}
+          onSubmit={(input) =>
+            save.mutateAsync({ quoteId: draft?.id ?? null, input }).then(
+              () => setEditing(null),
+              () => undefined,
+            )
+          }
           onCancel={quotes.length ? () => setEditing(null) : undefined}
         />
       )}

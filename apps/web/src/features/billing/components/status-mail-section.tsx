@@ -14,7 +14,9 @@ export function StatusMailSection({ job, settings, canEdit }: { job: JobDetail; 
         Status e-mail
       </h2>
       <p className="text-sm text-stone-700">
-        {auto ? `Sent on their own when the job reaches: ${auto}.` : 'No status e-mails go out on their own; a shop admin switches them on in the billing settings.'}
+        {auto
+          ? `Sent on their own when the job reaches: ${auto}.`
+          : 'No status e-mails go out on their own; a shop admin switches them on in the billing settings.'}
       </p>
       {canEdit && isMilestone(job.status) && (
         <SendForm

@@ -5,7 +5,11 @@ const line = { kind: 'part' as const, description: 'Opto-coupler', quantity: '2'
 
 describe('quote and invoice form', () => {
   it('turns typed prices into integer cents without a float', () => {
-    const out = linesFormSchema.parse({ lines: [line, { ...line, kind: 'labour', quantity: '1.5', unitPrice: '0.29', taxable: false }], taxRate: '8.25', note: '' });
+    const out = linesFormSchema.parse({
+      lines: [line, { ...line, kind: 'labour', quantity: '1.5', unitPrice: '0.29', taxable: false }],
+      taxRate: '8.25',
+      note: '',
+    });
     expect(out.lines.map((l) => l.unitCents)).toEqual([450, 29]);
     expect(out.lines[1]).toMatchObject({ kind: 'labour', quantity: '1.5', taxable: false });
     expect(out.taxRate).toBe('8.25');

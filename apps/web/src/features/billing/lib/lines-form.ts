@@ -31,13 +31,11 @@ export const linesFormSchema = z
     taxRate: z.string().trim().regex(taxRatePattern, 'A rate in percent, like 8.25'),
     note: z.string().max(2000, 'At most 2,000 characters'),
   })
-  .transform(
-    (v): CreateQuoteRequest => ({
-      lines: v.lines.map(({ unitPrice, ...l }) => ({ ...l, unitCents: unitPrice })),
-      taxRate: v.taxRate,
-      note: v.note,
-    }),
-  );
+  .transform((v): CreateQuoteRequest => ({
+    lines: v.lines.map(({ unitPrice, ...l }) => ({ ...l, unitCents: unitPrice })),
+    taxRate: v.taxRate,
+    note: v.note,
+  }));
 
 export type LinesFormValues = z.input<typeof linesFormSchema>;
 
@@ -54,7 +52,13 @@ export const blankLine = (kind: 'part' | 'labour' = 'part'): LinesFormValues['li
 export function formValuesOf(doc: { lines: BillingLine[]; taxRate: string; note?: string | null } | null, defaultRate: string): LinesFormValues {
   if (!doc) return { lines: [blankLine('part')], taxRate: defaultRate, note: '' };
   return {
-    lines: doc.lines.map((l) => ({ kind: l.kind, description: l.description, quantity: l.quantity, unitPrice: centsToDecimal(l.unitCents), taxable: l.taxable })),
+    lines: doc.lines.map((l) => ({
+      kind: l.kind,
+      description: l.description,
+      quantity: l.quantity,
+      unitPrice: centsToDecimal(l.unitCents),
+      taxable: l.taxable,
+    })),
     taxRate: doc.taxRate,
     note: doc.note ?? '',
   };

@@ -7,7 +7,13 @@ const input = 'min-h-11 min-w-0 rounded-md border border-stone-500 bg-white px-2
  * The test points placed on the photo: a label, the net each sits on (a net a section models gets expected
  * values when the draft is saved), and what the engine computed for it.
  */
-export function PointList({ capture, draft, nets, readOnly, onChange }: {
+export function PointList({
+  capture,
+  draft,
+  nets,
+  readOnly,
+  onChange,
+}: {
   capture: BoardCapture;
   draft: BoardDraft | undefined;
   nets: BoardDraft['nets'];
@@ -18,10 +24,16 @@ export function PointList({ capture, draft, nets, readOnly, onChange }: {
     onChange({ ...capture, points: capture.points.map((p, j) => (j === i ? { ...p, ...patch } : p)) });
   return (
     <section aria-labelledby="points-h" className="space-y-2">
-      <h2 id="points-h" className="text-lg font-semibold">Test points ({capture.points.length})</h2>
+      <h2 id="points-h" className="text-lg font-semibold">
+        Test points ({capture.points.length})
+      </h2>
       {capture.points.length === 0 && <p className="text-sm">Choose “Place test point” and click the photo where the probe goes.</p>}
       <datalist id="capture-nets">
-        {nets.map((n) => <option key={n.name} value={n.name}>{n.label}</option>)}
+        {nets.map((n) => (
+          <option key={n.name} value={n.name}>
+            {n.label}
+          </option>
+        ))}
       </datalist>
       <ul className="space-y-2">
         {capture.points.map((p, i) => {
@@ -36,11 +48,21 @@ export function PointList({ capture, draft, nets, readOnly, onChange }: {
                 </label>
                 <label className="flex min-w-0 flex-1 flex-col">
                   Net
-                  <input className={input} list="capture-nets" value={p.net ?? ''} readOnly={readOnly} placeholder="e.g. v15"
-                    onChange={(e) => set(i, e.target.value.trim() ? { net: e.target.value.trim() } : { net: undefined })} />
+                  <input
+                    className={input}
+                    list="capture-nets"
+                    value={p.net ?? ''}
+                    readOnly={readOnly}
+                    placeholder="e.g. v15"
+                    onChange={(e) => set(i, e.target.value.trim() ? { net: e.target.value.trim() } : { net: undefined })}
+                  />
                 </label>
                 {!readOnly && (
-                  <button type="button" className="min-h-11 px-2 text-red-800 underline" onClick={() => onChange({ ...capture, points: capture.points.filter((_, j) => j !== i) })}>
+                  <button
+                    type="button"
+                    className="min-h-11 px-2 text-red-800 underline"
+                    onClick={() => onChange({ ...capture, points: capture.points.filter((_, j) => j !== i) })}
+                  >
                     Remove {p.id}
                   </button>
                 )}
@@ -70,7 +92,9 @@ export function ConnectorList({ capture, readOnly, onChange }: { capture: BoardC
   const setC = (i: number, c: BoardCapture['connectors'][number]) => onChange({ ...capture, connectors: capture.connectors.map((x, j) => (j === i ? c : x)) });
   return (
     <section aria-labelledby="connectors-h" className="space-y-2">
-      <h2 id="connectors-h" className="text-lg font-semibold">Connectors ({capture.connectors.length})</h2>
+      <h2 id="connectors-h" className="text-lg font-semibold">
+        Connectors ({capture.connectors.length})
+      </h2>
       {capture.connectors.map((c, i) => (
         <fieldset key={i} className="space-y-1 rounded-md border border-stone-300 p-2 text-sm">
           <legend className="px-1 font-semibold">{c.name}</legend>
@@ -84,16 +108,43 @@ export function ConnectorList({ capture, readOnly, onChange }: { capture: BoardC
               return (
                 <li key={k} className="grid grid-cols-[3.5rem_1fr_1fr] gap-1">
                   <input aria-label={`${c.name} pin`} className={input} value={pin.pin} readOnly={readOnly} onChange={(e) => setPin({ pin: e.target.value })} />
-                  <input aria-label={`${c.name} pin ${pin.pin} net`} className={input} list="capture-nets" value={pin.net} readOnly={readOnly} placeholder="net" onChange={(e) => setPin({ net: e.target.value.trim() })} />
-                  <input aria-label={`${c.name} pin ${pin.pin} function`} className={input} value={pin.function} readOnly={readOnly} placeholder="e.g. 15 V to the motor" onChange={(e) => setPin({ function: e.target.value })} />
+                  <input
+                    aria-label={`${c.name} pin ${pin.pin} net`}
+                    className={input}
+                    list="capture-nets"
+                    value={pin.net}
+                    readOnly={readOnly}
+                    placeholder="net"
+                    onChange={(e) => setPin({ net: e.target.value.trim() })}
+                  />
+                  <input
+                    aria-label={`${c.name} pin ${pin.pin} function`}
+                    className={input}
+                    value={pin.function}
+                    readOnly={readOnly}
+                    placeholder="e.g. 15 V to the motor"
+                    onChange={(e) => setPin({ function: e.target.value })}
+                  />
                 </li>
               );
             })}
           </ul>
           {!readOnly && (
             <div className="flex gap-2">
-              <button type="button" className="min-h-11 underline" onClick={() => setC(i, { ...c, pins: [...c.pins, { pin: String(c.pins.length + 1), net: '', function: '' }] })}>Add pin</button>
-              <button type="button" className="min-h-11 text-red-800 underline" onClick={() => onChange({ ...capture, connectors: capture.connectors.filter((_, j) => j !== i) })}>Remove {c.name}</button>
+              <button
+                type="button"
+                className="min-h-11 underline"
+                onClick={() => setC(i, { ...c, pins: [...c.pins, { pin: String(c.pins.length + 1), net: '', function: '' }] })}
+              >
+                Add pin
+              </button>
+              <button
+                type="button"
+                className="min-h-11 text-red-800 underline"
+                onClick={() => onChange({ ...capture, connectors: capture.connectors.filter((_, j) => j !== i) })}
+              >
+                Remove {c.name}
+              </button>
             </div>
           )}
         </fieldset>

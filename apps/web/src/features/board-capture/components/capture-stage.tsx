@@ -15,7 +15,15 @@ export function poweredText(draft: BoardDraft | undefined, id: string): string |
  * The photo with what is marked on it. A click places a test point or a connector; a drag marks a section's
  * region. Coordinates are photo pixels: the stage scales the photo to the width it is given.
  */
-export function CaptureStage({ capture, draft, tool, width, onPlace, onRegion, selected }: {
+export function CaptureStage({
+  capture,
+  draft,
+  tool,
+  width,
+  onPlace,
+  onRegion,
+  selected,
+}: {
   capture: BoardCapture;
   draft: BoardDraft | undefined;
   tool: Tool;
@@ -59,18 +67,37 @@ export function CaptureStage({ capture, draft, tool, width, onPlace, onRegion, s
   const fs = 14 / scale;
   // Text width estimated from the character count (the stage's font is about 0.6 em per character).
   const labelX = (x: number, text: string) => {
-    const w = (text.length * 0.6 * fs) + 4 / scale;
+    const w = text.length * 0.6 * fs + 4 / scale;
     return x + 12 / scale + w > photo.width ? x - 12 / scale - w : x + 12 / scale;
   };
 
   return (
-    <Stage width={width} height={photo.height * scale} scaleX={scale} scaleY={scale} onMouseDown={down} onMouseMove={move} onMouseUp={up} onTouchStart={down} onTouchMove={move} onTouchEnd={up}
-      style={{ cursor: tool === 'look' ? 'default' : 'crosshair' }}>
+    <Stage
+      width={width}
+      height={photo.height * scale}
+      scaleX={scale}
+      scaleY={scale}
+      onMouseDown={down}
+      onMouseMove={move}
+      onMouseUp={up}
+      onTouchStart={down}
+      onTouchMove={move}
+      onTouchEnd={up}
+      style={{ cursor: tool === 'look' ? 'default' : 'crosshair' }}
+    >
       <Layer listening={false}>
         {img ? <KImage image={img} width={photo.width} height={photo.height} /> : <Rect width={photo.width} height={photo.height} fill="#e7e5e4" />}
         {capture.sections.map((s) => (
           <Group key={s.id}>
-            <Rect x={s.region.x} y={s.region.y} width={s.region.w} height={s.region.h} stroke={selected === s.id ? '#b45309' : '#0f766e'} strokeWidth={3 / scale} dash={[10 / scale, 6 / scale]} />
+            <Rect
+              x={s.region.x}
+              y={s.region.y}
+              width={s.region.w}
+              height={s.region.h}
+              stroke={selected === s.id ? '#b45309' : '#0f766e'}
+              strokeWidth={3 / scale}
+              dash={[10 / scale, 6 / scale]}
+            />
             {/* Kept inside its own region (cut short with an ellipsis), so neighbouring sections' titles never overlap. */}
             <Label x={s.region.x + 4 / scale} y={s.region.y + 4 / scale}>
               <Tag fill="rgba(0,0,0,0.7)" />
@@ -89,7 +116,14 @@ export function CaptureStage({ capture, draft, tool, width, onPlace, onRegion, s
           const v = poweredText(draft, p.id);
           return (
             <Group key={p.id}>
-              <Circle x={p.x} y={p.y} radius={9 / scale} fill={v ? '#15803d' : '#f59e0b'} stroke={selected === p.id ? '#000' : '#fff'} strokeWidth={2 / scale} />
+              <Circle
+                x={p.x}
+                y={p.y}
+                radius={9 / scale}
+                fill={v ? '#15803d' : '#f59e0b'}
+                stroke={selected === p.id ? '#000' : '#fff'}
+                strokeWidth={2 / scale}
+              />
               {/* White on a dark tag reads on any board colour; a label that would leave the photo goes left of its point. */}
               <Label x={labelX(p.x, v ? `${p.id} ${v}` : p.id)} y={p.y - 9 / scale}>
                 <Tag fill="rgba(0,0,0,0.75)" />

@@ -11,7 +11,13 @@ const HINT: Record<MarkedKind, string> = {
 };
 
 /** One part value: what is printed on it, decoded as the part's kind, or why it cannot be read. */
-function PartValue({ designator, kind, preset, marking, onValue }: {
+function PartValue({
+  designator,
+  kind,
+  preset,
+  marking,
+  onValue,
+}: {
   designator: string;
   kind: MarkedKind;
   preset: string;
@@ -30,13 +36,26 @@ function PartValue({ designator, kind, preset, marking, onValue }: {
   }, [kind, text]);
   return (
     <li className="grid grid-cols-[4.5rem_1fr] items-center gap-x-2 gap-y-0.5">
-      <label htmlFor={`mk-${designator}`} className="font-semibold">{designator}</label>
-      <input id={`mk-${designator}`} className={input} value={text} placeholder={`${preset} · ${HINT[kind]}`}
+      <label htmlFor={`mk-${designator}`} className="font-semibold">
+        {designator}
+      </label>
+      <input
+        id={`mk-${designator}`}
+        className={input}
+        value={text}
+        placeholder={`${preset} · ${HINT[kind]}`}
         onChange={(e) => setText(e.target.value)}
-        onBlur={() => onValue(text.trim(), decoded?.ok ? decoded.d.nominal : null)} />
+        onBlur={() => onValue(text.trim(), decoded?.ok ? decoded.d.nominal : null)}
+      />
       <span />
       <span className="text-xs text-stone-700" aria-live="polite">
-        {decoded === null ? `template value ${preset}` : decoded.ok ? `= ${formatSi(decoded.d.nominal, kind === 'resistor' ? 'Ω' : 'F')}${decoded.d.volts ? ` ${decoded.d.volts} V` : ''} (${decoded.d.how})` : <span className="text-red-800">{decoded.message}</span>}
+        {decoded === null ? (
+          `template value ${preset}`
+        ) : decoded.ok ? (
+          `= ${formatSi(decoded.d.nominal, kind === 'resistor' ? 'Ω' : 'F')}${decoded.d.volts ? ` ${decoded.d.volts} V` : ''} (${decoded.d.how})`
+        ) : (
+          <span className="text-red-800">{decoded.message}</span>
+        )}
       </span>
     </li>
   );
@@ -60,24 +79,38 @@ export function SectionForm({ section, onChange, onRemove }: { section: CaptureS
   };
   return (
     <fieldset className="space-y-2 rounded-md border border-stone-300 p-2">
-      <legend className="px-1 font-semibold">{section.title || info.title} ({section.id})</legend>
+      <legend className="px-1 font-semibold">
+        {section.title || info.title} ({section.id})
+      </legend>
       <label className="flex flex-col text-sm">
         Template
-        <select className={input} value={section.template} onChange={(e) => onChange({ ...section, template: e.target.value as CaptureSection['template'], nets: {}, values: {}, markings: {} })}>
-          {TEMPLATE_INFO.map((t) => <option key={t.template} value={t.template}>{t.title}</option>)}
+        <select
+          className={input}
+          value={section.template}
+          onChange={(e) => onChange({ ...section, template: e.target.value as CaptureSection['template'], nets: {}, values: {}, markings: {} })}
+        >
+          {TEMPLATE_INFO.map((t) => (
+            <option key={t.template} value={t.template}>
+              {t.title}
+            </option>
+          ))}
         </select>
       </label>
       <div className="grid grid-cols-2 gap-2">
         {info.ports.map((p) => (
           <label key={p.port} className="flex flex-col text-sm">
             Net: {p.label}
-            <input className={input} value={section.nets[p.port] ?? ''} placeholder={p.default}
+            <input
+              className={input}
+              value={section.nets[p.port] ?? ''}
+              placeholder={p.default}
               onChange={(e) => {
                 const nets = { ...section.nets };
                 if (e.target.value.trim()) nets[p.port] = e.target.value.trim();
                 else delete nets[p.port];
                 onChange({ ...section, nets });
-              }} />
+              }}
+            />
           </label>
         ))}
       </div>
@@ -85,11 +118,19 @@ export function SectionForm({ section, onChange, onRemove }: { section: CaptureS
       <h4 className="text-sm font-semibold">Part values, as printed</h4>
       <ul className="space-y-1 text-sm">
         {parts.map((p) => (
-          <PartValue key={`${section.template}-${p.designator}`} designator={p.designator} kind={p.kind as MarkedKind} preset={p.value}
-            marking={section.markings[p.designator] ?? ''} onValue={(m, v) => setValue(p.designator, m, v)} />
+          <PartValue
+            key={`${section.template}-${p.designator}`}
+            designator={p.designator}
+            kind={p.kind as MarkedKind}
+            preset={p.value}
+            marking={section.markings[p.designator] ?? ''}
+            onValue={(m, v) => setValue(p.designator, m, v)}
+          />
         ))}
       </ul>
-      <button type="button" className="min-h-11 rounded-md border border-red-800 px-3 text-sm text-red-800" onClick={onRemove}>Remove section</button>
+      <button type="button" className="min-h-11 rounded-md border border-red-800 px-3 text-sm text-red-800" onClick={onRemove}>
+        Remove section
+      </button>
     </fieldset>
   );
 }

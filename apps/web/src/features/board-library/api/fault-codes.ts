@@ -4,7 +4,10 @@ import { api } from '@/lib/api-client';
 
 /** The shop's fault-code table for a board model (the board's own codes and the shop-wide ones). */
 export const getBoardFaultCodesQueryOptions = (boardId: string) =>
-  queryOptions({ queryKey: ['fault-codes', boardId], queryFn: () => api(`/fault-codes?boardId=${encodeURIComponent(boardId)}`, { schema: faultCodeListResponse }) });
+  queryOptions({
+    queryKey: ['fault-codes', boardId],
+    queryFn: () => api(`/fault-codes?boardId=${encodeURIComponent(boardId)}`, { schema: faultCodeListResponse }),
+  });
 export const useBoardFaultCodes = (boardId: string) => useQuery(getBoardFaultCodesQueryOptions(boardId));
 
 export const useSaveFaultCode = (boardId: string) => {

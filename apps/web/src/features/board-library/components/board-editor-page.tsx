@@ -26,8 +26,7 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
   const [note, setNote] = useState('');
   const canEdit = hasRole(me.data?.role, ROLES.reviewers);
 
-  const movePoint = (id: string, x: number, y: number) =>
-    setDoc({ ...doc, testPoints: doc.testPoints.map((t) => (t.id === id ? { ...t, x, y } : t)) });
+  const movePoint = (id: string, x: number, y: number) => setDoc({ ...doc, testPoints: doc.testPoints.map((t) => (t.id === id ? { ...t, x, y } : t)) });
   const place = (x: number, y: number) => {
     if (!selected) return;
     if (placing === 'point') movePoint(selected, x, y);
@@ -43,7 +42,18 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
       ...doc,
       testPoints: [
         ...doc.testPoints,
-        { id: `TP${n}`, label: 'new point', net, reference: '0', x: doc.picture.width / 2, y: doc.picture.height / 2, powerStates: ['on'], modes: ['dcv'], section: doc.sections[0]?.id ?? '', touchesBus: false },
+        {
+          id: `TP${n}`,
+          label: 'new point',
+          net,
+          reference: '0',
+          x: doc.picture.width / 2,
+          y: doc.picture.height / 2,
+          powerStates: ['on'],
+          modes: ['dcv'],
+          section: doc.sections[0]?.id ?? '',
+          touchesBus: false,
+        },
       ],
     });
     setSelected(`TP${n}`);
@@ -75,14 +85,27 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
               <span className="block text-sm font-medium">Note for this version</span>
               <input className={input} value={note} onChange={(e) => setNote(e.target.value)} />
             </label>
-            <button type="button" className="min-h-11 rounded-md bg-board px-4 font-semibold text-white" disabled={save.isPending} onClick={() => save.mutate({ document: doc, note })}>
+            <button
+              type="button"
+              className="min-h-11 rounded-md bg-board px-4 font-semibold text-white"
+              disabled={save.isPending}
+              onClick={() => save.mutate({ document: doc, note })}
+            >
               {save.isPending ? 'Saving…' : 'Save as a new version'}
             </button>
           </div>
         )}
       </div>
-      {save.error && <p role="alert" className="text-high">{save.error.message}</p>}
-      {save.isSuccess && <p role="status" className="text-ok">Saved: the expected-readings table below was recomputed by the server.</p>}
+      {save.error && (
+        <p role="alert" className="text-high">
+          {save.error.message}
+        </p>
+      )}
+      {save.isSuccess && (
+        <p role="status" className="text-ok">
+          Saved: the expected-readings table below was recomputed by the server.
+        </p>
+      )}
       <div className="grid gap-3 lg:grid-cols-[minmax(0,1fr)_22rem]">
         <div className="space-y-2">
           <div className="h-[55vh] min-h-80">
@@ -91,7 +114,12 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
               size={{ width: doc.picture.width, height: doc.picture.height }}
               points={doc.testPoints.map((t) => ({ id: t.id, label: t.id, x: t.x, y: t.y, net: t.net, state: 'unmeasured' }))}
               parts={doc.parts.map((p) => ({ id: p.designator, x: p.x - unit, y: p.y - unit * 0.6, width: unit * 2, height: unit * 1.2 }))}
-              connectors={doc.connectors.map((c) => ({ id: c.name, x: c.x, y: c.y, pins: c.pins.map((p, i) => ({ label: p.pin, net: p.net, x: c.x + i * unit * 1.4, y: c.y })) }))}
+              connectors={doc.connectors.map((c) => ({
+                id: c.name,
+                x: c.x,
+                y: c.y,
+                pins: c.pins.map((p, i) => ({ label: p.pin, net: p.net, x: c.x + i * unit * 1.4, y: c.y })),
+              }))}
               selectedId={placing === 'point' ? selected : null}
               highlightPart={placing === 'part' ? selected : null}
               onSelect={(id) => {
@@ -109,39 +137,71 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
               <input type="file" accept="image/png,image/jpeg" className="mt-1 block min-h-11" onChange={(e) => void upload(e.target.files?.[0])} />
             </label>
           )}
-          {pictureError && <p role="alert" className="text-high">{pictureError}</p>}
+          {pictureError && (
+            <p role="alert" className="text-high">
+              {pictureError}
+            </p>
+          )}
         </div>
         <div className="space-y-3">
           <section aria-labelledby="tp-h">
             <div className="flex items-center justify-between">
-              <h2 id="tp-h" className="text-lg font-semibold">Test points</h2>
-              {canEdit && <button type="button" onClick={addPoint} className="min-h-11 rounded-md border border-stone-400 bg-white px-3 font-semibold">Add a point</button>}
+              <h2 id="tp-h" className="text-lg font-semibold">
+                Test points
+              </h2>
+              {canEdit && (
+                <button type="button" onClick={addPoint} className="min-h-11 rounded-md border border-stone-400 bg-white px-3 font-semibold">
+                  Add a point
+                </button>
+              )}
             </div>
             <ul className="max-h-64 space-y-1 overflow-auto">
               {doc.testPoints.map((t) => (
-                <li key={t.id} className={`flex flex-wrap items-center gap-2 rounded-md border p-1 ${selected === t.id && placing === 'point' ? 'border-copper bg-amber-50' : 'border-stone-300 bg-white'}`}>
-                  <button type="button" className="min-h-11 min-w-16 font-semibold" onClick={() => (setPlacing('point'), setSelected(t.id))} aria-pressed={selected === t.id && placing === 'point'}>
+                <li
+                  key={t.id}
+                  className={`flex flex-wrap items-center gap-2 rounded-md border p-1 ${selected === t.id && placing === 'point' ? 'border-copper bg-amber-50' : 'border-stone-300 bg-white'}`}
+                >
+                  <button
+                    type="button"
+                    className="min-h-11 min-w-16 font-semibold"
+                    onClick={() => (setPlacing('point'), setSelected(t.id))}
+                    aria-pressed={selected === t.id && placing === 'point'}
+                  >
                     {t.id}
                   </button>
                   <label className="flex items-center gap-1 text-sm">
                     net
                     <select className={input} value={t.net} disabled={!canEdit} onChange={(e) => setPointNet(t.id, e.target.value)}>
                       {doc.nets.map((n) => (
-                        <option key={n.name} value={n.name}>{n.name}</option>
+                        <option key={n.name} value={n.name}>
+                          {n.name}
+                        </option>
                       ))}
                     </select>
                   </label>
-                  <span className="text-xs tabular-nums text-stone-700">{Math.round(t.x)}, {Math.round(t.y)}</span>
+                  <span className="text-xs tabular-nums text-stone-700">
+                    {Math.round(t.x)}, {Math.round(t.y)}
+                  </span>
                 </li>
               ))}
             </ul>
           </section>
           <section aria-labelledby="parts-h">
-            <h2 id="parts-h" className="text-lg font-semibold">Parts</h2>
+            <h2 id="parts-h" className="text-lg font-semibold">
+              Parts
+            </h2>
             <ul className="max-h-64 space-y-1 overflow-auto">
               {doc.parts.map((p) => (
-                <li key={p.designator} className={`rounded-md border p-1 ${selected === p.designator && placing === 'part' ? 'border-copper bg-amber-50' : 'border-stone-300 bg-white'}`}>
-                  <button type="button" className="min-h-11 font-semibold" onClick={() => (setPlacing('part'), setSelected(p.designator))} aria-pressed={selected === p.designator && placing === 'part'}>
+                <li
+                  key={p.designator}
+                  className={`rounded-md border p-1 ${selected === p.designator && placing === 'part' ? 'border-copper bg-amber-50' : 'border-stone-300 bg-white'}`}
+                >
+                  <button
+                    type="button"
+                    className="min-h-11 font-semibold"
+                    onClick={() => (setPlacing('part'), setSelected(p.designator))}
+                    aria-pressed={selected === p.designator && placing === 'part'}
+                  >
                     {p.designator} <span className="font-normal">{p.value}</span>
                   </button>
                   <div className="flex flex-wrap gap-1">
@@ -150,7 +210,9 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
                         pin {q.pin}
                         <select className={input} value={q.net} disabled={!canEdit} onChange={(e) => setPartPinNet(p.designator, q.pin, e.target.value)}>
                           {doc.nets.map((n) => (
-                            <option key={n.name} value={n.name}>{n.name}</option>
+                            <option key={n.name} value={n.name}>
+                              {n.name}
+                            </option>
                           ))}
                         </select>
                       </label>
@@ -174,9 +236,13 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
         />
       )}
       <section aria-labelledby="netlist-h" className="space-y-1">
-        <h2 id="netlist-h" className="text-lg font-semibold">Netlist (SPICE subset)</h2>
+        <h2 id="netlist-h" className="text-lg font-semibold">
+          Netlist (SPICE subset)
+        </h2>
         <p className="text-sm text-stone-700">
-          {doc.sections.length > 0 ? `Composed from ${doc.sections.length} section templates: ${doc.sections.map((s) => s.title || s.template).join(', ')}. ` : ''}
+          {doc.sections.length > 0
+            ? `Composed from ${doc.sections.length} section templates: ${doc.sections.map((s) => s.title || s.template).join(', ')}. `
+            : ''}
           Paste a netlist to replace it; the server checks it and recomputes the expected readings when you save.
         </p>
         <textarea
@@ -192,7 +258,9 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
       <FaultCodesPanel boardId={board.id} doc={board.document} canEdit={canEdit} />
       <ReferencesPanel board={board} canRecord={hasRole(me.data?.role, ROLES.bench)} />
       <section aria-labelledby="exp-h">
-        <h2 id="exp-h" className="text-lg font-semibold">Expected readings (computed from the netlist)</h2>
+        <h2 id="exp-h" className="text-lg font-semibold">
+          Expected readings (computed from the netlist)
+        </h2>
         <div className="overflow-x-auto rounded-lg border border-stone-300 bg-white">
           <table className="w-full text-left text-sm">
             <thead className="bg-stone-100">
@@ -212,7 +280,9 @@ function Editor({ board, save }: { board: BoardDetail; save: ReturnType<typeof u
                   <td className="p-1 font-semibold">{r.label ?? r.id}</td>
                   <td>{METER_LABEL[r.mode]}</td>
                   <td>{r.power}</td>
-                  <td>{r.red} → {r.black}</td>
+                  <td>
+                    {r.red} → {r.black}
+                  </td>
                   <td className="tabular-nums">{meterText(r.expected, r.unit)}</td>
                   <td className="tabular-nums">{r.low !== null && r.high !== null ? `${meterText(r.low, r.unit)} – ${meterText(r.high, r.unit)}` : '—'}</td>
                   <td className="max-w-md text-xs">{[r.note, r.source && `band: ${r.source}`].filter(Boolean).join(' · ')}</td>
@@ -235,7 +305,9 @@ function BoardEditorPage() {
   const save = useUpdateBoard(id);
   return (
     <QueryState query={board} label="the board model">
-      {(b) => (b.modelProblem ? <ModelCorrection board={{ ...b, modelProblem: b.modelProblem }} /> : <Editor key={`${b.id}-${b.version}`} board={b} save={save} />)}
+      {(b) =>
+        b.modelProblem ? <ModelCorrection board={{ ...b, modelProblem: b.modelProblem }} /> : <Editor key={`${b.id}-${b.version}`} board={b} save={save} />
+      }
     </QueryState>
   );
 }

@@ -16,16 +16,35 @@ interface Section {
 type Spec = Record<string, unknown> & { sections: Section[]; height: number; width: number };
 
 const input = 'min-h-11 rounded-md border border-stone-500 bg-white px-2';
-const bindingsText = (nets: Record<string, string> = {}) => Object.entries(nets).map(([k, v]) => `${k}=${v}`).join(' ');
-const parseBindings = (text: string) => Object.fromEntries(text.split(/\s+/).filter(Boolean).map((kv) => kv.split('=') as [string, string]).filter(([k, v]) => k && v));
-const paramValue = (old: unknown, text: string) => (typeof old === 'number' && text.trim() !== '' && Number.isFinite(Number(text)) ? Number(text) : typeof old === 'boolean' ? text === 'true' : text);
+const bindingsText = (nets: Record<string, string> = {}) =>
+  Object.entries(nets)
+    .map(([k, v]) => `${k}=${v}`)
+    .join(' ');
+const parseBindings = (text: string) =>
+  Object.fromEntries(
+    text
+      .split(/\s+/)
+      .filter(Boolean)
+      .map((kv) => kv.split('=') as [string, string])
+      .filter(([k, v]) => k && v),
+  );
+const paramValue = (old: unknown, text: string) =>
+  typeof old === 'number' && text.trim() !== '' && Number.isFinite(Number(text)) ? Number(text) : typeof old === 'boolean' ? text === 'true' : text;
 
 /**
  * Compose from section templates: change a section's parameters, port nets or SPICE lines, add a template
  * section, and compose the board again in the browser (the board library's composeBoard). Saving sends the
  * result to the server, which checks the netlist and recomputes the expected readings.
  */
-export function ComposePanel({ composition, canEdit, onComposed }: { composition: Record<string, unknown>; canEdit: boolean; onComposed: (doc: BoardModel, drawingUrl: string) => void }) {
+export function ComposePanel({
+  composition,
+  canEdit,
+  onComposed,
+}: {
+  composition: Record<string, unknown>;
+  canEdit: boolean;
+  onComposed: (doc: BoardModel, drawingUrl: string) => void;
+}) {
   const [spec, setSpec] = useState<Spec>(() => structuredClone(composition) as Spec);
   const [templates, setTemplates] = useState<string[] | null>(null);
   const [adding, setAdding] = useState('');
@@ -38,7 +57,10 @@ export function ComposePanel({ composition, canEdit, onComposed }: { composition
     const { composeBoard, drawBoard } = await library();
     try {
       onComposed(composeBoard(spec as never), `data:image/svg+xml;charset=utf-8,${encodeURIComponent(drawBoard(spec as never))}`);
-      setMessage({ ok: true, text: 'Composed: netlist, parts, nets, test points and picture replaced. Save to have the server check it and recompute the expected readings.' });
+      setMessage({
+        ok: true,
+        text: 'Composed: netlist, parts, nets, test points and picture replaced. Save to have the server check it and recompute the expected readings.',
+      });
     } catch (err) {
       setMessage({ ok: false, text: (err as Error).message });
     }
@@ -48,22 +70,33 @@ export function ComposePanel({ composition, canEdit, onComposed }: { composition
     const bottom = Math.max(0, ...spec.sections.map((s) => s.region.y + s.region.h));
     const base = Math.max(0, ...spec.sections.map((s) => s.base ?? 0)) + 100;
     const region = { x: 40, y: bottom + 20, w: Math.min(600, spec.width - 80), h: 240 };
-    setSpec({ ...spec, height: Math.max(spec.height, region.y + region.h + 120), sections: [...spec.sections, { id: `${adding}-${base}`, template: adding, base, nets: {}, params: {}, region }] });
+    setSpec({
+      ...spec,
+      height: Math.max(spec.height, region.y + region.h + 120),
+      sections: [...spec.sections, { id: `${adding}-${base}`, template: adding, base, nets: {}, params: {}, region }],
+    });
     setAdding('');
   };
 
   return (
     <section aria-labelledby="compose-h" className="space-y-2 rounded-lg border border-stone-300 bg-white p-3">
-      <h2 id="compose-h" className="text-lg font-semibold">Compose from section templates</h2>
+      <h2 id="compose-h" className="text-lg font-semibold">
+        Compose from section templates
+      </h2>
       <ol className="space-y-2">
         {spec.sections.map((s, i) => (
           <li key={s.id} className="space-y-1 rounded-md border border-stone-200 p-2">
             <div className="flex flex-wrap items-center justify-between gap-2">
               <p className="font-semibold">
-                {s.title ?? s.id} <span className="font-normal text-stone-700">· {s.template ? `template ${s.template}, designators from ${s.base}` : 'SPICE lines'}</span>
+                {s.title ?? s.id}{' '}
+                <span className="font-normal text-stone-700">· {s.template ? `template ${s.template}, designators from ${s.base}` : 'SPICE lines'}</span>
               </p>
               {canEdit && (
-                <button type="button" className="min-h-11 rounded-md border border-stone-400 px-3 text-sm" onClick={() => setSpec({ ...spec, sections: spec.sections.filter((_, j) => j !== i) })}>
+                <button
+                  type="button"
+                  className="min-h-11 rounded-md border border-stone-400 px-3 text-sm"
+                  onClick={() => setSpec({ ...spec, sections: spec.sections.filter((_, j) => j !== i) })}
+                >
                   Remove {s.id}
                 </button>
               )}
@@ -72,17 +105,35 @@ export function ComposePanel({ composition, canEdit, onComposed }: { composition
               <div className="flex flex-wrap gap-2">
                 <label className="text-sm">
                   <span className="block">Port nets (port=net)</span>
-                  <input className={`${input} w-72 font-mono`} disabled={!canEdit} defaultValue={bindingsText(s.nets)} onBlur={(e) => setSection(i, { ...s, nets: parseBindings(e.target.value) })} />
+                  <input
+                    className={`${input} w-72 font-mono`}
+                    disabled={!canEdit}
+                    defaultValue={bindingsText(s.nets)}
+                    onBlur={(e) => setSection(i, { ...s, nets: parseBindings(e.target.value) })}
+                  />
                 </label>
                 {Object.entries(s.params ?? {}).map(([k, v]) => (
                   <label key={k} className="text-sm">
                     <span className="block">{k}</span>
-                    <input className={`${input} w-28 font-mono`} disabled={!canEdit} defaultValue={String(v)} onBlur={(e) => setSection(i, { ...s, params: { ...s.params, [k]: paramValue(v, e.target.value) } })} />
+                    <input
+                      className={`${input} w-28 font-mono`}
+                      disabled={!canEdit}
+                      defaultValue={String(v)}
+                      onBlur={(e) => setSection(i, { ...s, params: { ...s.params, [k]: paramValue(v, e.target.value) } })}
+                    />
                   </label>
                 ))}
               </div>
             ) : (
-              <textarea aria-label={`SPICE lines of ${s.id}`} className="block w-full rounded-md border border-stone-500 p-2 font-mono text-xs" rows={4} spellCheck={false} readOnly={!canEdit} defaultValue={s.spice} onBlur={(e) => setSection(i, { ...s, spice: e.target.value })} />
+              <textarea
+                aria-label={`SPICE lines of ${s.id}`}
+                className="block w-full rounded-md border border-stone-500 p-2 font-mono text-xs"
+                rows={4}
+                spellCheck={false}
+                readOnly={!canEdit}
+                defaultValue={s.spice}
+                onBlur={(e) => setSection(i, { ...s, spice: e.target.value })}
+              />
             )}
           </li>
         ))}
@@ -91,10 +142,17 @@ export function ComposePanel({ composition, canEdit, onComposed }: { composition
         <div className="flex flex-wrap items-end gap-2">
           <label className="text-sm">
             <span className="block">Add a section from a template</span>
-            <select className={input} value={adding} onFocus={() => void library().then((m) => setTemplates(Object.keys(m.TEMPLATES)))} onChange={(e) => setAdding(e.target.value)}>
+            <select
+              className={input}
+              value={adding}
+              onFocus={() => void library().then((m) => setTemplates(Object.keys(m.TEMPLATES)))}
+              onChange={(e) => setAdding(e.target.value)}
+            >
               <option value="">Choose a template…</option>
               {(templates ?? []).map((t) => (
-                <option key={t} value={t}>{t}</option>
+                <option key={t} value={t}>
+                  {t}
+                </option>
               ))}
             </select>
           </label>

@@ -3,7 +3,12 @@ import { FAULT_CODE_WEIGHT, type BoardModel, type FaultCode } from '@splitscope/
 import { useBoardFaultCodes, useSaveFaultCode } from '../api/fault-codes';
 
 type Draft = { id: string | null; code: string; title: string; weights: Record<string, string> };
-const draftOf = (f: FaultCode): Draft => ({ id: f.id, code: f.code, title: f.title, weights: Object.fromEntries(f.sections.map((s) => [s, String(f.weights[s] ?? FAULT_CODE_WEIGHT)])) });
+const draftOf = (f: FaultCode): Draft => ({
+  id: f.id,
+  code: f.code,
+  title: f.title,
+  weights: Object.fromEntries(f.sections.map((s) => [s, String(f.weights[s] ?? FAULT_CODE_WEIGHT)])),
+});
 
 /**
  * The shop's fault-code table for this board: code → what it means → the sections it points at, each with how
@@ -28,7 +33,9 @@ export function FaultCodesPanel({ boardId, doc, canEdit }: { boardId: string; do
       <h2 id="codes-h" className="text-lg font-semibold">
         Fault codes
       </h2>
-      <p className="text-sm text-stone-700">A code the unit shows makes a fault in its sections likelier: ×{FAULT_CODE_WEIGHT} unless a weight says otherwise.</p>
+      <p className="text-sm text-stone-700">
+        A code the unit shows makes a fault in its sections likelier: ×{FAULT_CODE_WEIGHT} unless a weight says otherwise.
+      </p>
       <ul className="space-y-1 text-sm">
         {codes.data?.items.map((f) => (
           <li key={f.id} className="rounded-md border border-stone-300 bg-white p-2">
@@ -42,7 +49,11 @@ export function FaultCodesPanel({ boardId, doc, canEdit }: { boardId: string; do
         ))}
       </ul>
       {canEdit && !draft && (
-        <button type="button" className="min-h-11 rounded-md border border-stone-400 bg-white px-3 text-sm font-semibold" onClick={() => setDraft({ id: null, code: '', title: '', weights: {} })}>
+        <button
+          type="button"
+          className="min-h-11 rounded-md border border-stone-400 bg-white px-3 text-sm font-semibold"
+          onClick={() => setDraft({ id: null, code: '', title: '', weights: {} })}
+        >
           Add a fault code
         </button>
       )}
@@ -50,10 +61,20 @@ export function FaultCodesPanel({ boardId, doc, canEdit }: { boardId: string; do
         <fieldset className="rounded-md border border-stone-400 bg-white p-2 text-sm">
           <legend className="font-semibold">{draft.id ? `Edit ${draft.code}` : 'New fault code'}</legend>
           <label className="block">
-            Code <input className="ml-1 min-h-11 w-24 rounded-md border border-stone-500 px-2" value={draft.code} onChange={(e) => setDraft({ ...draft, code: e.target.value })} />
+            Code{' '}
+            <input
+              className="ml-1 min-h-11 w-24 rounded-md border border-stone-500 px-2"
+              value={draft.code}
+              onChange={(e) => setDraft({ ...draft, code: e.target.value })}
+            />
           </label>
           <label className="mt-1 block">
-            What it means <input className="ml-1 min-h-11 w-full rounded-md border border-stone-500 px-2" value={draft.title} onChange={(e) => setDraft({ ...draft, title: e.target.value })} />
+            What it means{' '}
+            <input
+              className="ml-1 min-h-11 w-full rounded-md border border-stone-500 px-2"
+              value={draft.title}
+              onChange={(e) => setDraft({ ...draft, title: e.target.value })}
+            />
           </label>
           <p className="mt-2 font-medium">Suspect sections and weights</p>
           <div className="grid gap-1 sm:grid-cols-2">

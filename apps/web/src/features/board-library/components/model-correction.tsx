@@ -38,14 +38,30 @@ export function ModelCorrection({ board }: { board: BoardDetail & { modelProblem
       </h1>
       <div role="alert" className="rounded-md border border-amber-600 bg-amber-50 p-3">
         <p className="font-semibold">This version's model needs upgrading by a lead before readings can be judged.</p>
-        <p className="text-sm">The stored model does not match the board-model form: {board.modelProblem.message.replace(/^The board model does not match the board-model schema: /, '')}.</p>
-        <p className="text-sm">Jobs on this version open on the photo and its test points; their readings are recorded, not judged, until the corrected model is stored.</p>
+        <p className="text-sm">
+          The stored model does not match the board-model form:{' '}
+          {board.modelProblem.message.replace(/^The board model does not match the board-model schema: /, '')}.
+        </p>
+        <p className="text-sm">
+          Jobs on this version open on the photo and its test points; their readings are recorded, not judged, until the corrected model is stored.
+        </p>
       </div>
       {canFix ? (
         <section aria-labelledby="fix-h" className="space-y-2">
-          <h2 id="fix-h" className="text-lg font-semibold">Correct the stored model</h2>
-          <p className="text-sm text-stone-700">Edit the field named above and store the corrected model in place of version {board.version}. Jobs keep this version and their readings.</p>
-          <textarea aria-label="Stored model" value={text} onChange={(e) => setText(e.target.value)} rows={16} spellCheck={false} className="block w-full rounded-md border border-stone-500 bg-white p-2 font-mono text-xs" />
+          <h2 id="fix-h" className="text-lg font-semibold">
+            Correct the stored model
+          </h2>
+          <p className="text-sm text-stone-700">
+            Edit the field named above and store the corrected model in place of version {board.version}. Jobs keep this version and their readings.
+          </p>
+          <textarea
+            aria-label="Stored model"
+            value={text}
+            onChange={(e) => setText(e.target.value)}
+            rows={16}
+            spellCheck={false}
+            className="block w-full rounded-md border border-stone-500 bg-white p-2 font-mono text-xs"
+          />
           {error && (
             <p role="alert" className="rounded-md bg-red-50 p-2 text-sm text-high">
               {error}

@@ -42,12 +42,21 @@ export function ReferencesPanel({ board, canRecord }: { board: BoardDetail; canR
         Known-good references
       </h2>
       <p className="text-sm text-stone-700">
-        {refs.data ? `${refs.data.sets.length} known-good board${refs.data.sets.length === 1 ? '' : 's'} recorded` : refs.isError ? `The references could not be loaded: ${refs.error.message}` : 'Loading…'}
-        {refs.data?.sets.length ? `: ${refs.data.sets.map((s) => (s.origin === 'verification' ? `job #${s.jobNumber} after repair` : (s.serial ?? 'a good board'))).join(', ')}` : ''}.
+        {refs.data
+          ? `${refs.data.sets.length} known-good board${refs.data.sets.length === 1 ? '' : 's'} recorded`
+          : refs.isError
+            ? `The references could not be loaded: ${refs.error.message}`
+            : 'Loading…'}
+        {refs.data?.sets.length
+          ? `: ${refs.data.sets.map((s) => (s.origin === 'verification' ? `job #${s.jobNumber} after repair` : (s.serial ?? 'a good board'))).join(', ')}`
+          : ''}
+        .
       </p>
       {flagged.length > 0 && (
         <div role="alert" className="rounded-md border border-amber-600 bg-amber-50 p-2 text-sm" data-testid="reference-flags">
-          <p className="font-semibold">Check the model at {flagged.length} point{flagged.length === 1 ? '' : 's'}:</p>
+          <p className="font-semibold">
+            Check the model at {flagged.length} point{flagged.length === 1 ? '' : 's'}:
+          </p>
           <ul className="list-disc pl-5">
             {flagged.map((b) => (
               <li key={`${b.mode}-${b.power}-${b.red}-${b.black}`}>
@@ -81,7 +90,9 @@ export function ReferencesPanel({ board, canRecord }: { board: BoardDetail; canR
                   </td>
                   <td className="tabular-nums">{b.model ? `${meterText(b.model.expected, b.unit)} (${bandText(b.model, b.unit)})` : 'no value'}</td>
                   <td className="tabular-nums">
-                    {b.measured ? `median ${meterText(b.measured.median, b.unit)} ± ${meterText(b.measured.spread, b.unit)} (${bandText(b.measured, b.unit)}), ${b.measured.boards} board${b.measured.boards === 1 ? '' : 's'}` : '—'}
+                    {b.measured
+                      ? `median ${meterText(b.measured.median, b.unit)} ± ${meterText(b.measured.spread, b.unit)} (${bandText(b.measured, b.unit)}), ${b.measured.boards} board${b.measured.boards === 1 ? '' : 's'}`
+                      : '—'}
                   </td>
                   <td className="max-w-xs text-xs">{b.published ? `${bandText(b.published, b.unit)} — ${b.published.source}` : '—'}</td>
                 </tr>
@@ -93,7 +104,9 @@ export function ReferencesPanel({ board, canRecord }: { board: BoardDetail; canR
       {canRecord && (
         <details className="rounded-md border border-stone-300 bg-white p-2">
           <summary className="cursor-pointer font-semibold">Record a known-good board</summary>
-          <p className="mt-1 text-sm">Type what the good board reads; leave a point empty to skip it. Unplug the board and discharge the bus before any unpowered reading.</p>
+          <p className="mt-1 text-sm">
+            Type what the good board reads; leave a point empty to skip it. Unplug the board and discharge the bus before any unpowered reading.
+          </p>
           <label className="mt-2 block text-sm">
             Board serial
             <input className="ml-2 min-h-11 rounded-md border border-stone-500 px-2" value={serial} onChange={(e) => setSerial(e.target.value)} />
@@ -104,7 +117,12 @@ export function ReferencesPanel({ board, canRecord }: { board: BoardDetail; canR
                 <span>
                   {r.label ?? r.red} · {METER_LABEL[r.mode]} · {r.power === 'on' ? 'powered' : 'unplugged'}
                 </span>
-                <input aria-label={`${r.label ?? r.red} ${METER_LABEL[r.mode]} ${r.power === 'on' ? 'powered' : 'unplugged'}`} className="min-h-11 w-28 rounded-md border border-stone-500 px-2" value={values[r.id] ?? ''} onChange={(e) => setValues({ ...values, [r.id]: e.target.value })} />
+                <input
+                  aria-label={`${r.label ?? r.red} ${METER_LABEL[r.mode]} ${r.power === 'on' ? 'powered' : 'unplugged'}`}
+                  className="min-h-11 w-28 rounded-md border border-stone-500 px-2"
+                  value={values[r.id] ?? ''}
+                  onChange={(e) => setValues({ ...values, [r.id]: e.target.value })}
+                />
               </label>
             ))}
           </div>
@@ -113,7 +131,12 @@ export function ReferencesPanel({ board, canRecord }: { board: BoardDetail; canR
               {error}
             </p>
           )}
-          <button type="button" onClick={() => void submit()} disabled={record.isPending} className="mt-2 min-h-11 rounded-md bg-board px-4 font-semibold text-white">
+          <button
+            type="button"
+            onClick={() => void submit()}
+            disabled={record.isPending}
+            className="mt-2 min-h-11 rounded-md bg-board px-4 font-semibold text-white"
+          >
             {record.isPending ? 'Saving…' : 'Save as a known-good reference'}
           </button>
         </details>

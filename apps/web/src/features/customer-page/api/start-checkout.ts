@@ -3,7 +3,11 @@ import { useMutation } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 
 export const startCheckout = (token: string, invoiceId: string) =>
-  api(`/public/links/${encodeURIComponent(token)}/invoices/${encodeURIComponent(invoiceId)}/checkout`, { method: 'POST', body: '{}', schema: checkoutResponse });
+  api(`/public/links/${encodeURIComponent(token)}/invoices/${encodeURIComponent(invoiceId)}/checkout`, {
+    method: 'POST',
+    body: '{}',
+    schema: checkoutResponse,
+  });
 
 /** Opens the hosted checkout: the browser leaves for the payment service and comes back to this page. */
 export const useStartCheckout = (token: string) =>

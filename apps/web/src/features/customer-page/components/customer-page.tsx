@@ -33,9 +33,7 @@ function QuoteCard({ token, quote, replacedBy }: { token: string; quote: PublicJ
       <div className="mt-4" aria-live="polite">
         {quote.customerApproval === 'approved' && <p className="font-semibold text-ok">You approved this quote. Thank you, the repair goes ahead.</p>}
         {quote.customerApproval === 'declined' && (
-          <p className="font-semibold">
-            You declined this quote{quote.declineReason ? `: “${quote.declineReason}”` : ''}. The shop has been told.
-          </p>
+          <p className="font-semibold">You declined this quote{quote.declineReason ? `: “${quote.declineReason}”` : ''}. The shop has been told.</p>
         )}
         {quote.status === 'sent' && replacedBy && <p className="font-semibold">Replaced by quote {replacedBy}; nothing to answer here.</p>}
         {quote.status === 'sent' && !replacedBy && !declining && (
@@ -57,7 +55,13 @@ function QuoteCard({ token, quote, replacedBy }: { token: string; quote: PublicJ
             }}
           >
             <label htmlFor={`reason-${quote.id}`}>Reason (optional)</label>
-            <textarea id={`reason-${quote.id}`} className="rounded-md border border-stone-400 p-2" maxLength={2000} value={reason} onChange={(e) => setReason(e.target.value)} />
+            <textarea
+              id={`reason-${quote.id}`}
+              className="rounded-md border border-stone-400 p-2"
+              maxLength={2000}
+              value={reason}
+              onChange={(e) => setReason(e.target.value)}
+            />
             <div className="flex gap-2">
               <Button type="submit" variant="danger" disabled={decide.isPending}>
                 Decline the quote
@@ -130,7 +134,13 @@ export default function CustomerPage() {
     <div className="min-h-full bg-stone-100">
       <header className="flex flex-wrap items-center gap-x-4 gap-y-2 bg-board px-4 py-3 text-white">
         {/* the logo on a white ground: it is drawn for paper, as on the report PDF */}
-        {d.shop.hasLogo && <img src={`/api/public/links/${encodeURIComponent(token)}/logo`} alt={`${d.shop.name} logo`} className="h-14 max-w-48 rounded bg-white object-contain p-1" />}
+        {d.shop.hasLogo && (
+          <img
+            src={`/api/public/links/${encodeURIComponent(token)}/logo`}
+            alt={`${d.shop.name} logo`}
+            className="h-14 max-w-48 rounded bg-white object-contain p-1"
+          />
+        )}
         <div>
           <p className="text-lg font-semibold">{d.shop.name}</p>
           {shopCardLines(d.shop).length > 0 && <p className="text-sm text-white/85">{shopCardLines(d.shop).join(' · ')}</p>}

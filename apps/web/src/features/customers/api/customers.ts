@@ -22,7 +22,8 @@ export const getCustomersQueryOptions = (query: CustomerListQuery = {}) =>
   });
 export const useCustomerList = (query: CustomerListQuery = {}) => useQuery(getCustomersQueryOptions(query));
 
-export const useCustomer = (id: string) => useQuery(queryOptions({ queryKey: [KEY, 'one', id], queryFn: () => api(`/customers/${encodeURIComponent(id)}`, { schema: customerSchema }) }));
+export const useCustomer = (id: string) =>
+  useQuery(queryOptions({ queryKey: [KEY, 'one', id], queryFn: () => api(`/customers/${encodeURIComponent(id)}`, { schema: customerSchema }) }));
 
 /** Every change to customers invalidates them all; a merge also moves jobs, so the job lists too. */
 function useCustomerMutation<I, O>(fn: (input: I) => Promise<O>, alsoJobs = false) {
@@ -36,13 +37,17 @@ function useCustomerMutation<I, O>(fn: (input: I) => Promise<O>, alsoJobs = fals
   });
 }
 
-export const useCreateCustomer = () => useCustomerMutation((input: CreateCustomerRequest) => api('/customers', { method: 'POST', body: JSON.stringify(input), schema: customerSchema }));
+export const useCreateCustomer = () =>
+  useCustomerMutation((input: CreateCustomerRequest) => api('/customers', { method: 'POST', body: JSON.stringify(input), schema: customerSchema }));
 
 export const useUpdateCustomer = (id: string) =>
-  useCustomerMutation((input: UpdateCustomerRequest) => api(`/customers/${encodeURIComponent(id)}`, { method: 'PATCH', body: JSON.stringify(input), schema: customerSchema }));
+  useCustomerMutation((input: UpdateCustomerRequest) =>
+    api(`/customers/${encodeURIComponent(id)}`, { method: 'PATCH', body: JSON.stringify(input), schema: customerSchema }),
+  );
 
 export const useMergeCustomer = (keepId: string) =>
   useCustomerMutation(
-    (duplicateId: string) => api(`/customers/${encodeURIComponent(keepId)}/merge`, { method: 'POST', body: JSON.stringify({ duplicateId }), schema: mergeCustomerResponse }),
+    (duplicateId: string) =>
+      api(`/customers/${encodeURIComponent(keepId)}/merge`, { method: 'POST', body: JSON.stringify({ duplicateId }), schema: mergeCustomerResponse }),
     true,
   );

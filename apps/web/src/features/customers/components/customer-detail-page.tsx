@@ -16,7 +16,9 @@ function CustomerJobs({ id }: { id: string }) {
   const jobs = useJobs({ customerId: id });
   return (
     <section aria-labelledby="customer-jobs" className="rounded-lg border border-stone-300 bg-white p-4">
-      <h2 id="customer-jobs" className="text-lg font-semibold">Jobs</h2>
+      <h2 id="customer-jobs" className="text-lg font-semibold">
+        Jobs
+      </h2>
       <QueryState query={jobs} label="the jobs">
         {(d) =>
           d.items.length ? (
@@ -26,7 +28,9 @@ function CustomerJobs({ id }: { id: string }) {
                   <Link to={`/jobs/${j.id}`} className="min-h-11 content-center font-semibold text-board underline">
                     Job {j.number}: {j.boardName}
                   </Link>
-                  <span className="text-sm text-stone-700">{j.unitDescription} · received {j.receivedAt.slice(0, 10)}</span>
+                  <span className="text-sm text-stone-700">
+                    {j.unitDescription} · received {j.receivedAt.slice(0, 10)}
+                  </span>
                   <StatusBadge status={j.status} sentBack={j.sentBack} />
                 </li>
               ))}
@@ -49,14 +53,19 @@ function MergeDuplicate({ keep }: { keep: Customer }) {
   const chosen = candidates.find((c) => c.id === duplicateId);
   return (
     <section aria-labelledby="merge" className="space-y-2 rounded-lg border border-stone-300 bg-white p-4">
-      <h2 id="merge" className="text-lg font-semibold">Merge a duplicate into {keep.name}</h2>
+      <h2 id="merge" className="text-lg font-semibold">
+        Merge a duplicate into {keep.name}
+      </h2>
       <p className="text-sm text-stone-700">The duplicate's jobs, quotes and invoices move here; then the duplicate is removed. This cannot be undone.</p>
       <div className="flex flex-wrap items-end gap-3">
         <SelectField
           label="Duplicate customer"
           value={duplicateId}
           options={['', ...candidates.map((c) => c.id)]}
-          labels={Object.fromEntries([['', 'Choose the duplicate'], ...candidates.map((c) => [c.id, [c.name, c.company, c.email].filter(Boolean).join(' · ')])])}
+          labels={Object.fromEntries([
+            ['', 'Choose the duplicate'],
+            ...candidates.map((c) => [c.id, [c.name, c.company, c.email].filter(Boolean).join(' · ')]),
+          ])}
           onChange={setDuplicateId}
           className="min-w-64 flex-1"
         />
@@ -86,9 +95,23 @@ function CustomerDetail({ c }: { c: Customer }) {
       <CustomerJobs id={c.id} />
       {mayEdit && (
         <section aria-labelledby="edit-customer" className="space-y-2">
-          <h2 id="edit-customer" className="text-lg font-semibold">Edit</h2>
-          <CustomerForm key={`${c.id}-${c.name}-${c.email ?? ''}`} start={c} label="Edit the customer" submitLabel="Save changes" pending={update.isPending} error={update.error} onSubmit={(input) => update.mutate(input)} />
-          {update.isSuccess && <p className="text-sm font-semibold text-ok" aria-live="polite">Saved.</p>}
+          <h2 id="edit-customer" className="text-lg font-semibold">
+            Edit
+          </h2>
+          <CustomerForm
+            key={`${c.id}-${c.name}-${c.email ?? ''}`}
+            start={c}
+            label="Edit the customer"
+            submitLabel="Save changes"
+            pending={update.isPending}
+            error={update.error}
+            onSubmit={(input) => update.mutate(input)}
+          />
+          {update.isSuccess && (
+            <p className="text-sm font-semibold text-ok" aria-live="polite">
+              Saved.
+            </p>
+          )}
         </section>
       )}
       {mayEdit && <MergeDuplicate keep={c} />}

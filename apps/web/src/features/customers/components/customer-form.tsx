@@ -7,7 +7,14 @@ import { ErrorNote, TextField } from '@/components/ui/text-field';
 export const kindLabel: Record<CustomerKind, string> = { contractor: 'Contractor (firm)', 'field-technician': 'Field technician' };
 
 /** Name, firm, e-mail, phone, kind and notes: one form to add a customer and to edit one. */
-export function CustomerForm({ start, label, submitLabel, pending, error, onSubmit }: {
+export function CustomerForm({
+  start,
+  label,
+  submitLabel,
+  pending,
+  error,
+  onSubmit,
+}: {
   start?: Customer;
   label: string;
   submitLabel: string;
@@ -16,10 +23,16 @@ export function CustomerForm({ start, label, submitLabel, pending, error, onSubm
   onSubmit: (input: CreateCustomerRequest, reset: () => void) => void;
 }) {
   const empty = { name: '', company: '', email: '', phone: '', kind: 'contractor' as CustomerKind, notes: '' };
-  const initial = start ? { name: start.name, company: start.company ?? '', email: start.email ?? '', phone: start.phone ?? '', kind: start.kind, notes: start.notes ?? '' } : empty;
+  const initial = start
+    ? { name: start.name, company: start.company ?? '', email: start.email ?? '', phone: start.phone ?? '', kind: start.kind, notes: start.notes ?? '' }
+    : empty;
   const [f, setF] = useState(initial);
   const [errors, setErrors] = useState<Record<string, string>>({});
-  const bind = (k: 'name' | 'company' | 'email' | 'phone' | 'notes') => ({ value: f[k], onChange: (e: { target: { value: string } }) => setF({ ...f, [k]: e.target.value }), error: errors[k] });
+  const bind = (k: 'name' | 'company' | 'email' | 'phone' | 'notes') => ({
+    value: f[k],
+    onChange: (e: { target: { value: string } }) => setF({ ...f, [k]: e.target.value }),
+    error: errors[k],
+  });
   const submit = (e: FormEvent) => {
     e.preventDefault();
     const r = createCustomerRequest.safeParse(f);

@@ -16,11 +16,21 @@ export default function CustomersPage() {
     <div className="max-w-4xl space-y-6">
       <PageHeader title="Customers" />
       <section aria-labelledby="add-customer" className="space-y-2">
-        <h2 id="add-customer" className="text-lg font-semibold">Add a customer</h2>
-        <CustomerForm label="Add a customer" submitLabel="Add customer" pending={create.isPending} error={create.error} onSubmit={(input) => create.mutate(input, { onSuccess: (c) => void navigate(`/customers/${c.id}`) })} />
+        <h2 id="add-customer" className="text-lg font-semibold">
+          Add a customer
+        </h2>
+        <CustomerForm
+          label="Add a customer"
+          submitLabel="Add customer"
+          pending={create.isPending}
+          error={create.error}
+          onSubmit={(input) => create.mutate(input, { onSuccess: (c) => void navigate(`/customers/${c.id}`) })}
+        />
       </section>
       <section aria-labelledby="all-customers" className="space-y-3 rounded-lg border border-stone-300 bg-white p-4">
-        <h2 id="all-customers" className="text-lg font-semibold">All customers</h2>
+        <h2 id="all-customers" className="text-lg font-semibold">
+          All customers
+        </h2>
         <TextField label="Search by name, firm or e-mail" type="search" value={q} onChange={(e) => setQ(e.target.value)} className="max-w-md" />
         <QueryState query={list} label="the customers">
           {(d) =>

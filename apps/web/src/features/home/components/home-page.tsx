@@ -89,34 +89,34 @@ function LeadHome() {
   const signOff = useJobs({ status: 'repaired' });
   return (
     <>
-    <section aria-labelledby="signoff-h" className="space-y-2">
-      <h2 id="signoff-h" className="text-xl font-semibold">
-        Repairs waiting for your sign-off
-      </h2>
-      <QueryState query={signOff} label="the repairs waiting for sign-off">
-        {(d) => (
-          <JobCards
-            jobs={d.items}
-            empty="No repaired board is waiting for sign-off."
-            action={(j) => ({ to: `/jobs/${j.id}/repair`, label: `Verify and sign off${j.proposedPart ? ` ${j.proposedPart}` : ''}` })}
-          />
-        )}
-      </QueryState>
-    </section>
-    <section aria-labelledby="queue-h" className="space-y-2">
-      <h2 id="queue-h" className="text-xl font-semibold">
-        Review queue
-      </h2>
-      <QueryState query={jobs} label="the review queue">
-        {(d) => (
-          <JobCards
-            jobs={d.items}
-            empty="No diagnosis is waiting for review."
-            action={(j) => ({ to: `/jobs/${j.id}/review`, label: `Review${j.proposedPart ? ` ${j.proposedPart}` : ''}` })}
-          />
-        )}
-      </QueryState>
-    </section>
+      <section aria-labelledby="signoff-h" className="space-y-2">
+        <h2 id="signoff-h" className="text-xl font-semibold">
+          Repairs waiting for your sign-off
+        </h2>
+        <QueryState query={signOff} label="the repairs waiting for sign-off">
+          {(d) => (
+            <JobCards
+              jobs={d.items}
+              empty="No repaired board is waiting for sign-off."
+              action={(j) => ({ to: `/jobs/${j.id}/repair`, label: `Verify and sign off${j.proposedPart ? ` ${j.proposedPart}` : ''}` })}
+            />
+          )}
+        </QueryState>
+      </section>
+      <section aria-labelledby="queue-h" className="space-y-2">
+        <h2 id="queue-h" className="text-xl font-semibold">
+          Review queue
+        </h2>
+        <QueryState query={jobs} label="the review queue">
+          {(d) => (
+            <JobCards
+              jobs={d.items}
+              empty="No diagnosis is waiting for review."
+              action={(j) => ({ to: `/jobs/${j.id}/review`, label: `Review${j.proposedPart ? ` ${j.proposedPart}` : ''}` })}
+            />
+          )}
+        </QueryState>
+      </section>
     </>
   );
 }

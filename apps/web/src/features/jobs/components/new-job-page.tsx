@@ -35,7 +35,18 @@ function NewJobPage() {
   const [photos, setPhotos] = useState<File[]>([]);
   const form = useForm<FormIn, unknown, FormOut>({
     resolver: zodResolver(createJobRequest),
-    defaultValues: { idempotencyKey: crypto.randomUUID(), customerId: '', unitDescription: '', serial: '', unitSerial: '', boardId: '', faultCode: '', symptom: '', priority: 'normal', assigneeId: null },
+    defaultValues: {
+      idempotencyKey: crypto.randomUUID(),
+      customerId: '',
+      unitDescription: '',
+      serial: '',
+      unitSerial: '',
+      boardId: '',
+      faultCode: '',
+      symptom: '',
+      priority: 'normal',
+      assigneeId: null,
+    },
   });
   const boardId = useWatch({ control: form.control, name: 'boardId' });
   const faultCode = useWatch({ control: form.control, name: 'faultCode' });
@@ -117,7 +128,9 @@ function NewJobPage() {
           {history.data && history.data.jobs.length > 0 && (
             <>
               <WarrantyFlag history={history.data} />
-              <p className="text-sm font-medium">This serial was here before ({history.data.jobs.length} {history.data.jobs.length === 1 ? 'job' : 'jobs'}):</p>
+              <p className="text-sm font-medium">
+                This serial was here before ({history.data.jobs.length} {history.data.jobs.length === 1 ? 'job' : 'jobs'}):
+              </p>
               <EarlierJobs history={history.data} />
             </>
           )}
@@ -198,7 +211,11 @@ function NewJobPage() {
           </p>
         )}
         <div className="sm:col-span-2">
-          <button type="submit" disabled={form.formState.isSubmitting || form.formState.isSubmitSuccessful} className="min-h-11 rounded-md bg-board px-6 font-semibold text-white">
+          <button
+            type="submit"
+            disabled={form.formState.isSubmitting || form.formState.isSubmitSuccessful}
+            className="min-h-11 rounded-md bg-board px-6 font-semibold text-white"
+          >
             {form.formState.isSubmitting ? 'Opening…' : 'Open the job'}
           </button>
         </div>

@@ -13,7 +13,9 @@ function MailView({ id }: { id: string }) {
           <p className="text-sm">
             From {m.from} to {m.to.join(', ')} · {new Date(m.receivedAt).toLocaleString()}
           </p>
-          {m.attachments.length > 0 && <p className="text-sm">Attached: {m.attachments.map((a) => `${a.filename} (${a.contentType}, ${a.size} bytes)`).join(', ')}</p>}
+          {m.attachments.length > 0 && (
+            <p className="text-sm">Attached: {m.attachments.map((a) => `${a.filename} (${a.contentType}, ${a.size} bytes)`).join(', ')}</p>
+          )}
           {m.html && <iframe title={`HTML of ${m.subject}`} sandbox="" srcDoc={m.html} className="h-96 w-full rounded-md border border-stone-300 bg-white" />}
           {m.text && <pre className="overflow-auto whitespace-pre-wrap rounded-md border border-stone-300 bg-white p-3 text-sm">{m.text}</pre>}
         </article>
@@ -29,7 +31,9 @@ export default function MailOutboxPage() {
   return (
     <div>
       <PageHeader title="Mail outbox (local capture)" />
-      <p className="mb-3 text-stone-700">What the server sent to the local SMTP capture server. With a real mail relay configured, this page is empty and its API answers 404.</p>
+      <p className="mb-3 text-stone-700">
+        What the server sent to the local SMTP capture server. With a real mail relay configured, this page is empty and its API answers 404.
+      </p>
       <div className="grid gap-4 lg:grid-cols-[minmax(0,1fr)_minmax(0,1.4fr)]">
         <QueryState query={list} label="captured mail">
           {(d) =>

@@ -2,7 +2,8 @@ import { meterImportResponse, meterProfileListResponse, meterProfileSchema, type
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 
-export const useMeterProfiles = () => useQuery(queryOptions({ queryKey: ['meter-profiles'], queryFn: () => api('/meter-profiles', { schema: meterProfileListResponse }) }));
+export const useMeterProfiles = () =>
+  useQuery(queryOptions({ queryKey: ['meter-profiles'], queryFn: () => api('/meter-profiles', { schema: meterProfileListResponse }) }));
 
 export const useSaveMeterProfile = () => {
   const qc = useQueryClient();
@@ -17,7 +18,11 @@ export const useMeterImport = (jobId: string, mode: 'preview' | 'import') => {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: (input: MeterImportRequest) =>
-      api(`/jobs/${encodeURIComponent(jobId)}/meter-import${mode === 'preview' ? '/preview' : ''}`, { method: 'POST', body: JSON.stringify(input), schema: meterImportResponse }),
+      api(`/jobs/${encodeURIComponent(jobId)}/meter-import${mode === 'preview' ? '/preview' : ''}`, {
+        method: 'POST',
+        body: JSON.stringify(input),
+        schema: meterImportResponse,
+      }),
     onSuccess: () => (mode === 'import' ? qc.invalidateQueries({ queryKey: ['jobs', jobId] }) : undefined),
   });
 };

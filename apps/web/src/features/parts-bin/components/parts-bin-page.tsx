@@ -28,7 +28,10 @@ function StockForm() {
     } catch (err) {
       return setError(`Price: ${(err as Error).message}`);
     }
-    stock.mutate({ value: f.value, package: f.package, rating: f.rating, marking: f.marking, quantity, drawer: f.drawer, minimum, unitCents }, { onSuccess: () => setF(EMPTY) });
+    stock.mutate(
+      { value: f.value, package: f.package, rating: f.rating, marking: f.marking, quantity, drawer: f.drawer, minimum, unitCents },
+      { onSuccess: () => setF(EMPTY) },
+    );
   };
   const input = (k: keyof typeof EMPTY, label: string, extra: React.InputHTMLAttributes<HTMLInputElement> = {}) => (
     <label className="block">
@@ -66,7 +69,13 @@ function Restock({ part }: { part: BinPart }) {
         if (Number.isInteger(quantity) && quantity >= 0) update.mutate({ id: part.id, quantity });
       }}
     >
-      <input aria-label={`Quantity in drawer ${part.drawer} (${part.value} ${part.package})`} className="min-h-11 w-20 rounded-md border border-stone-500 px-2" inputMode="numeric" value={qty} onChange={(e) => setQty(e.target.value)} />
+      <input
+        aria-label={`Quantity in drawer ${part.drawer} (${part.value} ${part.package})`}
+        className="min-h-11 w-20 rounded-md border border-stone-500 px-2"
+        inputMode="numeric"
+        value={qty}
+        onChange={(e) => setQty(e.target.value)}
+      />
       <button type="submit" className="min-h-11 rounded-md border border-board px-2 text-sm text-board">
         Set
       </button>
@@ -116,7 +125,11 @@ function PartsBinPage() {
             <>
               <section aria-label="Reorder list">
                 {reorder.length ? (
-                  <BinTable items={reorder} caption={`Reorder list: ${reorder.length} ${reorder.length === 1 ? 'drawer' : 'drawers'} under the minimum`} editable={false} />
+                  <BinTable
+                    items={reorder}
+                    caption={`Reorder list: ${reorder.length} ${reorder.length === 1 ? 'drawer' : 'drawers'} under the minimum`}
+                    editable={false}
+                  />
                 ) : (
                   <p className="rounded-md border border-stone-300 bg-white p-2 text-sm">Reorder list: every drawer is at or above its minimum.</p>
                 )}

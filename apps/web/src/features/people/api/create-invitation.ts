@@ -6,7 +6,8 @@ import { getInvitationsQueryOptions } from './get-invitations';
 export const useCreateInvitation = () => {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (input: CreateInvitationRequest) => api('/users/invitations', { method: 'POST', body: JSON.stringify(input), schema: createInvitationResponse }),
+    mutationFn: (input: CreateInvitationRequest) =>
+      api('/users/invitations', { method: 'POST', body: JSON.stringify(input), schema: createInvitationResponse }),
     // Also after a mail failure: the invitation exists and can be resent.
     onSettled: () => qc.invalidateQueries(getInvitationsQueryOptions()),
   });

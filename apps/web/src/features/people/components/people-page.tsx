@@ -24,7 +24,12 @@ function InviteForm() {
     create.mutate(r.data, { onSuccess: () => setF({ name: '', email: '', role: f.role }) });
   };
   return (
-    <form onSubmit={submit} noValidate aria-label="Invite a person" className="grid gap-3 rounded-lg border border-stone-300 bg-white p-4 sm:grid-cols-[1fr_1fr_auto_auto] sm:items-end">
+    <form
+      onSubmit={submit}
+      noValidate
+      aria-label="Invite a person"
+      className="grid gap-3 rounded-lg border border-stone-300 bg-white p-4 sm:grid-cols-[1fr_1fr_auto_auto] sm:items-end"
+    >
       <TextField label="Name" value={f.name} onChange={(e) => setF({ ...f, name: e.target.value })} error={errors.name} autoComplete="off" />
       <TextField label="E-mail" type="email" value={f.email} onChange={(e) => setF({ ...f, email: e.target.value })} error={errors.email} autoComplete="off" />
       <SelectField label="Role" value={f.role} options={roles} labels={roleLabels} onChange={(role) => setF({ ...f, role })} />
@@ -48,7 +53,11 @@ function MemberRow({ title, detail, error, children }: { title: ReactNode; detai
         <p className="text-sm text-stone-700">{detail}</p>
       </div>
       {children}
-      {error && <p role="alert" className="w-full text-sm text-high">{error.message}</p>}
+      {error && (
+        <p role="alert" className="w-full text-sm text-high">
+          {error.message}
+        </p>
+      )}
     </li>
   );
 }
@@ -64,9 +73,23 @@ function PersonRow({ p, self }: { p: ShopMember; self: boolean }) {
   return (
     <MemberRow title={title} detail={p.email} error={update.error}>
       {!active && <span className="rounded bg-stone-200 px-2 text-sm">Deactivated</span>}
-      <SelectField label={`Role of ${p.name}`} hideLabel value={p.role} options={roles} labels={roleLabels} disabled={update.isPending} onChange={(role) => update.mutate({ id: p.id, role })} className="w-auto" />
+      <SelectField
+        label={`Role of ${p.name}`}
+        hideLabel
+        value={p.role}
+        options={roles}
+        labels={roleLabels}
+        disabled={update.isPending}
+        onChange={(role) => update.mutate({ id: p.id, role })}
+        className="w-auto"
+      />
       {!self && (
-        <Button variant={active ? 'secondary' : 'primary'} disabled={update.isPending} onClick={() => update.mutate({ id: p.id, active: !active })} aria-label={`${active ? 'Deactivate' : 'Reactivate'} ${p.name}`}>
+        <Button
+          variant={active ? 'secondary' : 'primary'}
+          disabled={update.isPending}
+          onClick={() => update.mutate({ id: p.id, active: !active })}
+          aria-label={`${active ? 'Deactivate' : 'Reactivate'} ${p.name}`}
+        >
           {active ? 'Deactivate' : 'Reactivate'}
         </Button>
       )}
@@ -83,7 +106,11 @@ function InvitationRow({ i }: { i: Invitation }) {
     </p>
   );
   return (
-    <MemberRow title={title} detail={`${i.email} · ${i.acceptedAt ? 'joined' : expired ? 'expired' : `open until ${i.expiresAt.slice(0, 10)}`}`} error={resend.error}>
+    <MemberRow
+      title={title}
+      detail={`${i.email} · ${i.acceptedAt ? 'joined' : expired ? 'expired' : `open until ${i.expiresAt.slice(0, 10)}`}`}
+      error={resend.error}
+    >
       {!i.acceptedAt && (
         <Button variant="secondary" disabled={resend.isPending} onClick={() => resend.mutate(i.id)} aria-label={`Resend the invitation to ${i.email}`}>
           {resend.isSuccess ? 'Sent again' : 'Resend'}
@@ -102,21 +129,43 @@ export default function PeoplePage() {
     <div className="max-w-4xl space-y-6">
       <PageHeader title="People" />
       <section aria-labelledby="invite" className="space-y-2">
-        <h2 id="invite" className="text-lg font-semibold">Invite someone</h2>
+        <h2 id="invite" className="text-lg font-semibold">
+          Invite someone
+        </h2>
         <p className="text-sm text-stone-700">They get an e-mail with a link to choose their password (valid 7 days).</p>
         <InviteForm />
       </section>
       <section aria-labelledby="members" className="rounded-lg border border-stone-300 bg-white p-4">
-        <h2 id="members" className="text-lg font-semibold">In the shop</h2>
+        <h2 id="members" className="text-lg font-semibold">
+          In the shop
+        </h2>
         <p className="text-sm text-stone-700">Deactivating signs the person out everywhere at once; their work stays in the history.</p>
         <QueryState query={people} label="the people">
-          {(d) => <ul>{d.items.map((p) => <PersonRow key={p.id} p={p} self={p.id === me.data?.id} />)}</ul>}
+          {(d) => (
+            <ul>
+              {d.items.map((p) => (
+                <PersonRow key={p.id} p={p} self={p.id === me.data?.id} />
+              ))}
+            </ul>
+          )}
         </QueryState>
       </section>
       <section aria-labelledby="invited" className="rounded-lg border border-stone-300 bg-white p-4">
-        <h2 id="invited" className="text-lg font-semibold">Invitations</h2>
+        <h2 id="invited" className="text-lg font-semibold">
+          Invitations
+        </h2>
         <QueryState query={invitations} label="the invitations">
-          {(d) => (d.items.length ? <ul>{d.items.map((i) => <InvitationRow key={i.id} i={i} />)}</ul> : <p className="text-stone-700">None yet.</p>)}
+          {(d) =>
+            d.items.length ? (
+              <ul>
+                {d.items.map((i) => (
+                  <InvitationRow key={i.id} i={i} />
+                ))}
+              </ul>
+            ) : (
+              <p className="text-stone-700">None yet.</p>
+            )
+          }
         </QueryState>
       </section>
     </div>

@@ -136,27 +136,29 @@ function MarkingDecoder() {
         <input className={field} value={bands} onChange={(e) => setBands(e.target.value)} />
       </label>
       <p aria-live="polite" data-testid="bands-result">
-        {b && ('ok' in b ? (
-          <>
-            <strong>{meterText(b.ok.ohms, 'ohm')}</strong> ±{(b.ok.tolerance * 100).toFixed(b.ok.tolerance < 0.01 ? 2 : 0)} %
-            {b.ok.tempcoPpmK ? `, ${b.ok.tempcoPpmK} ppm/K` : ''} · nearest E24 value {meterText(nearestPreferred(b.ok.ohms, 'E24').value, 'ohm')}
-          </>
-        ) : (
-          <span className="text-high">{b.err}</span>
-        ))}
+        {b &&
+          ('ok' in b ? (
+            <>
+              <strong>{meterText(b.ok.ohms, 'ohm')}</strong> ±{(b.ok.tolerance * 100).toFixed(b.ok.tolerance < 0.01 ? 2 : 0)} %
+              {b.ok.tempcoPpmK ? `, ${b.ok.tempcoPpmK} ppm/K` : ''} · nearest E24 value {meterText(nearestPreferred(b.ok.ohms, 'E24').value, 'ohm')}
+            </>
+          ) : (
+            <span className="text-high">{b.err}</span>
+          ))}
       </p>
       <label className="block">
         <span className="text-sm font-medium">SMD resistor code (3-digit, 4-digit, R-notation, EIA-96)</span>
         <input className={field} value={smd} onChange={(e) => setSmd(e.target.value)} />
       </label>
       <p aria-live="polite" data-testid="smd-result">
-        {s && ('ok' in s ? (
-          <>
-            <strong>{meterText(s.ok.ohms, 'ohm')}</strong> · {s.ok.system} code, usually ±{(s.ok.typicalTolerance * 100).toFixed(0)} %
-          </>
-        ) : (
-          <span className="text-high">{s.err}</span>
-        ))}
+        {s &&
+          ('ok' in s ? (
+            <>
+              <strong>{meterText(s.ok.ohms, 'ohm')}</strong> · {s.ok.system} code, usually ±{(s.ok.typicalTolerance * 100).toFixed(0)} %
+            </>
+          ) : (
+            <span className="text-high">{s.err}</span>
+          ))}
       </p>
     </section>
   );

@@ -31,7 +31,13 @@ function RepairForm({ job }: { job: JobDetail }) {
   });
   const submit = form.handleSubmit(async (v) => {
     // A refused repair (a drawer that does not fit) shows from the mutation state; it is not an uncaught error.
-    if (!(await create.mutateAsync(v).then(() => true, () => false))) return;
+    if (
+      !(await create.mutateAsync(v).then(
+        () => true,
+        () => false,
+      ))
+    )
+      return;
     if (job.allowedTransitions.includes('repaired')) await update.mutateAsync({ status: 'repaired' });
     // The drawer is not kept: saving again must not take a second part from it.
     form.reset({ ...v, notes: '', binPartId: undefined, binQuantity: 1 });
@@ -108,9 +114,7 @@ function Repair({ job }: { job: JobDetail }) {
   return (
     <div className="space-y-4">
       <div className="flex flex-wrap items-center justify-between gap-2">
-        <h1 className="text-2xl font-semibold">
-          Repair and verification · job #{job.number}
-        </h1>
+        <h1 className="text-2xl font-semibold">Repair and verification · job #{job.number}</h1>
         <StatusBadge status={job.status} />
       </div>
       <p>
@@ -149,7 +153,11 @@ function Repair({ job }: { job: JobDetail }) {
 function RepairPage() {
   const { id = '' } = useParams();
   const job = useJob(id);
-  return <QueryState query={job} label="the job">{(j) => <Repair job={j} />}</QueryState>;
+  return (
+    <QueryState query={job} label="the job">
+      {(j) => <Repair job={j} />}
+    </QueryState>
+  );
 }
 
 export default RepairPage;

@@ -1,4 +1,12 @@
-import { boardWords, unprovenRows, verificationChecklist, verificationReadings, type ExpectedReadingRow, type JobDetail, type StoredReading } from '@splitscope/contract';
+import {
+  boardWords,
+  unprovenRows,
+  verificationChecklist,
+  verificationReadings,
+  type ExpectedReadingRow,
+  type JobDetail,
+  type StoredReading,
+} from '@splitscope/contract';
 import { useMemo, useState, type FormEvent } from 'react';
 import { MarkerGlyph } from '@/components/board-map/marker-glyph';
 import { SafetyGate } from '@/components/safety-gate';
@@ -12,9 +20,20 @@ import { useRepairs } from '@/lib/api/get-repairs';
 import { useUpdateJob } from '@/lib/api/update-job';
 import { formSubmit } from '@/lib/form-submit';
 
-const stateOf = (v: string | null | undefined) => (v === 'ok' ? 'healthy' : v === 'low' ? 'low' : v === 'high' ? 'high' : 'unmeasured') as 'healthy' | 'low' | 'high' | 'unmeasured';
+const stateOf = (v: string | null | undefined) =>
+  (v === 'ok' ? 'healthy' : v === 'low' ? 'low' : v === 'high' ? 'high' : 'unmeasured') as 'healthy' | 'low' | 'high' | 'unmeasured';
 
-function Row({ row, label, latest, onSave }: { row: ExpectedReadingRow; label: string; latest?: { text: string; verdict: string | null; unsent?: boolean }; onSave: (row: ExpectedReadingRow, text: string) => Promise<string | null> }) {
+function Row({
+  row,
+  label,
+  latest,
+  onSave,
+}: {
+  row: ExpectedReadingRow;
+  label: string;
+  latest?: { text: string; verdict: string | null; unsent?: boolean };
+  onSave: (row: ExpectedReadingRow, text: string) => Promise<string | null>;
+}) {
   const [text, setText] = useState('');
   const [error, setError] = useState<string | null>(null);
   const test = `${label} · ${METER_LABEL[row.mode]} · ${row.power === 'on' ? 'powered' : 'unplugged'}`;
@@ -78,7 +97,10 @@ function Row({ row, label, latest, onSave }: { row: ExpectedReadingRow; label: s
 export function VerificationChecklist({ job, readings, canSignOff }: { job: JobDetail; readings: StoredReading[]; canSignOff: boolean }) {
   const view = useMemo(() => boardView(job.board.document), [job.board.document]);
   const words = useMemo(() => boardWords(view.model), [view.model]);
-  const { rows, functionalCheck } = useMemo(() => verificationChecklist(view.model, job.board.expectedReadings, job.proposedPart), [view.model, job.board.expectedReadings, job.proposedPart]);
+  const { rows, functionalCheck } = useMemo(
+    () => verificationChecklist(view.model, job.board.expectedReadings, job.proposedPart),
+    [view.model, job.board.expectedReadings, job.proposedPart],
+  );
   const sender = useReadingSender(job.id);
   const update = useUpdateJob(job.id);
   const [gateVolts, setGateVolts] = useState<number | null>(null);
@@ -91,7 +113,8 @@ export function VerificationChecklist({ job, readings, canSignOff }: { job: JobD
   const open = unprovenRows(rows, current, netOf);
 
   const latestOf = (row: ExpectedReadingRow) => {
-    const same = (a: { mode: string; red: string; black: string; power: string }) => a.mode === row.mode && a.power === row.power && netOf(a.red) === netOf(row.red) && netOf(a.black) === netOf(row.black);
+    const same = (a: { mode: string; red: string; black: string; power: string }) =>
+      a.mode === row.mode && a.power === row.power && netOf(a.red) === netOf(row.red) && netOf(a.black) === netOf(row.black);
     const u = [...sender.unsent].reverse().find((x) => x.body.phase === 'verification' && same(x.body));
     if (u) return { text: u.body.raw, verdict: null, unsent: true };
     const r = [...current].reverse().find((x) => same({ ...x, red: x.redNet, black: x.blackNet }));
@@ -108,7 +131,18 @@ export function VerificationChecklist({ job, readings, canSignOff }: { job: JobD
       return 'Pass the discharge gate above first: this reading is unpowered on the DC bus.';
     }
     if (row.power === 'on') setGateVolts(null);
-    await sender.save({ mode: row.mode, red: row.red, black: row.black, power: row.power, lifted: row.lifted, value: p.value, ...(p.beep !== undefined ? { beep: p.beep } : {}), raw: text.trim(), phase: 'verification', ...safetyCheck });
+    await sender.save({
+      mode: row.mode,
+      red: row.red,
+      black: row.black,
+      power: row.power,
+      lifted: row.lifted,
+      value: p.value,
+      ...(p.beep !== undefined ? { beep: p.beep } : {}),
+      raw: text.trim(),
+      phase: 'verification',
+      ...safetyCheck,
+    });
     return null;
   };
   const checkBus = async (t: string): Promise<{ ok: true; volts: number } | { ok: false; message: string }> => {
@@ -123,7 +157,10 @@ export function VerificationChecklist({ job, readings, canSignOff }: { job: JobD
       <h2 id="verify-h" className="text-lg font-semibold">
         Verification checklist · {rows.length - open.length} of {rows.length} healthy
       </h2>
-      <p className="text-sm text-stone-700">The readings that prove the repaired section ({words.designator(job.proposedPart ?? '')}) and the rails feeding it, chosen from the board’s expected table.</p>
+      <p className="text-sm text-stone-700">
+        The readings that prove the repaired section ({words.designator(job.proposedPart ?? '')}) and the rails feeding it, chosen from the board’s expected
+        table.
+      </p>
       {gateRefusal && gateVolts === null && (
         <SafetyGate
           figures={gateFigures(view, job.board.expectedReadings)}
@@ -156,7 +193,9 @@ export function VerificationChecklist({ job, readings, canSignOff }: { job: JobD
             <span className="font-semibold">Functional check:</span> {functionalCheck}
           </span>
         </label>
-        {job.status === 'repaired' && !canSignOff && <p className="text-sm text-stone-700">A lead signs the repair off once every row is healthy and the functional check is done.</p>}
+        {job.status === 'repaired' && !canSignOff && (
+          <p className="text-sm text-stone-700">A lead signs the repair off once every row is healthy and the functional check is done.</p>
+        )}
         {job.status === 'repaired' && canSignOff && (
           <button
             type="button"
@@ -167,7 +206,9 @@ export function VerificationChecklist({ job, readings, canSignOff }: { job: JobD
             Sign off: board verified
           </button>
         )}
-        {job.status === 'repaired' && canSignOff && open.length > 0 && <p className="text-sm">{open.length} checklist reading(s) still to measure healthy before sign-off.</p>}
+        {job.status === 'repaired' && canSignOff && open.length > 0 && (
+          <p className="text-sm">{open.length} checklist reading(s) still to measure healthy before sign-off.</p>
+        )}
         {update.error && (
           <p role="alert" className="text-sm text-high">
             {update.error.message}

@@ -14,11 +14,20 @@ function KeepAsReference({ jobId }: { jobId: string }) {
   if (!hasRole(me.data?.role, ROLES.reviewers)) return null;
   return (
     <div className="no-print text-sm">
-      <button type="button" disabled={promote.isPending || promote.isSuccess} onClick={() => promote.mutate(null)} className="min-h-11 rounded-md border border-stone-400 bg-white px-3 font-semibold">
+      <button
+        type="button"
+        disabled={promote.isPending || promote.isSuccess}
+        onClick={() => promote.mutate(null)}
+        className="min-h-11 rounded-md border border-stone-400 bg-white px-3 font-semibold"
+      >
         Keep the verification readings as a known-good reference
       </button>
       {promote.isSuccess && <p role="status">Kept: the board model now has {promote.data.sets.length} known-good boards.</p>}
-      {promote.isError && <p role="alert" className="text-high">{promote.error.message}</p>}
+      {promote.isError && (
+        <p role="alert" className="text-high">
+          {promote.error.message}
+        </p>
+      )}
     </div>
   );
 }

@@ -60,7 +60,12 @@ function Decision({ job, words }: { job: JobDetail; words: BoardWords }) {
             Cancel
           </button>
         )}
-        <button type="button" onClick={() => send('send-back')} disabled={review.isPending} className="min-h-11 rounded-md border-2 border-high bg-white px-4 font-semibold text-high">
+        <button
+          type="button"
+          onClick={() => send('send-back')}
+          disabled={review.isPending}
+          className="min-h-11 rounded-md border-2 border-high bg-white px-4 font-semibold text-high"
+        >
           Send back
         </button>
       </div>
@@ -88,7 +93,8 @@ function Review({ job }: { job: JobDetail }) {
         {job.symptom}
       </p>
       <p className="text-lg">
-        Proposed part: <strong data-testid="proposed-part">{job.proposedPart ? words.designator(job.proposedPart) : '—'}</strong> by {job.assigneeName ?? 'the technician'}
+        Proposed part: <strong data-testid="proposed-part">{job.proposedPart ? words.designator(job.proposedPart) : '—'}</strong> by{' '}
+        {job.assigneeName ?? 'the technician'}
       </p>
       {job.proposalNote && (
         <blockquote className="rounded-md border-l-4 border-copper bg-white p-2" data-testid="proposal-note">
@@ -107,9 +113,7 @@ function Review({ job }: { job: JobDetail }) {
               {snap.parts.slice(0, 8).map((p) => (
                 <li key={`${p.part}-${p.mode}`}>
                   <div className="flex justify-between text-sm">
-                    <span className="font-semibold">
-                      {p.label ?? words.fault(p.part, p.mode)}
-                    </span>
+                    <span className="font-semibold">{p.label ?? words.fault(p.part, p.mode)}</span>
                     <span className="tabular-nums">{(p.probability * 100).toFixed(1)} %</span>
                   </div>
                   <div className="h-2.5 rounded-full bg-stone-200">
@@ -154,7 +158,11 @@ function Review({ job }: { job: JobDetail }) {
 function ReviewJobPage() {
   const { id = '' } = useParams();
   const job = useJob(id);
-  return <QueryState query={job} label="the job">{(j) => <Review job={j} />}</QueryState>;
+  return (
+    <QueryState query={job} label="the job">
+      {(j) => <Review job={j} />}
+    </QueryState>
+  );
 }
 
 export default ReviewJobPage;

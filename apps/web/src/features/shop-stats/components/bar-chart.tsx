@@ -14,7 +14,13 @@ export function BarChart({ labels, series, horizontal = false }: { labels: strin
     const chart = new Chart(canvas.current, {
       type: 'bar',
       data: { labels, datasets: series.map((s, i) => ({ ...s, backgroundColor: COLOURS[i % COLOURS.length] })) },
-      options: { indexAxis: horizontal ? 'y' : 'x', responsive: true, maintainAspectRatio: false, animation: false, plugins: { legend: { display: series.length > 1 } } },
+      options: {
+        indexAxis: horizontal ? 'y' : 'x',
+        responsive: true,
+        maintainAspectRatio: false,
+        animation: false,
+        plugins: { legend: { display: series.length > 1 } },
+      },
     });
     return () => chart.destroy();
   }, [labels, series, horizontal]);

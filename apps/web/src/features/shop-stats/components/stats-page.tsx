@@ -68,7 +68,11 @@ function Stats({ s }: { s: ShopStats }) {
   return (
     <div className="grid gap-4 xl:grid-cols-2">
       <Figure title="Failures by part and board model" chart={<BarChart horizontal {...charts.parts} />}>
-        <Table caption="Failures by part" head={['Board model', 'Part replaced', 'Boards']} rows={s.failuresByPart.map((f) => [f.boardName, f.part, f.count])} />
+        <Table
+          caption="Failures by part"
+          head={['Board model', 'Part replaced', 'Boards']}
+          rows={s.failuresByPart.map((f) => [f.boardName, f.part, f.count])}
+        />
       </Figure>
       <Figure title="Intake to verification readings" chart={<BarChart {...charts.time} />}>
         <Table
@@ -95,7 +99,11 @@ function Stats({ s }: { s: ShopStats }) {
         />
       </Figure>
       <Figure title="Money: quoted, invoiced, paid" chart={<BarChart {...charts.money} />}>
-        <Table caption="Money by month" head={['Month', 'Quoted', 'Invoiced', 'Paid']} rows={s.money.map((m) => [m.month, money(m.quotedCents), money(m.invoicedCents), money(m.paidCents)])} />
+        <Table
+          caption="Money by month"
+          head={['Month', 'Quoted', 'Invoiced', 'Paid']}
+          rows={s.money.map((m) => [m.month, money(m.quotedCents), money(m.invoicedCents), money(m.paidCents)])}
+        />
       </Figure>
     </div>
   );

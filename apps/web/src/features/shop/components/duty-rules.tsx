@@ -11,11 +11,25 @@ function DutyRulesForm({ rules }: { rules: DutyRules }) {
       <fieldset className="space-y-2">
         <legend className="font-medium">Who approves a diagnosis</legend>
         <label className="flex min-h-11 items-center gap-3">
-          <input type="radio" name="self-approval" className="h-5 w-5" checked={!rules.selfApproval} disabled={update.isPending} onChange={() => update.mutate({ selfApproval: false })} />
+          <input
+            type="radio"
+            name="self-approval"
+            className="h-5 w-5"
+            checked={!rules.selfApproval}
+            disabled={update.isPending}
+            onChange={() => update.mutate({ selfApproval: false })}
+          />
           <span>A second person: whoever proposed the part may not approve it (recommended)</span>
         </label>
         <label className="flex min-h-11 items-center gap-3">
-          <input type="radio" name="self-approval" className="h-5 w-5" checked={rules.selfApproval} disabled={update.isPending} onChange={() => update.mutate({ selfApproval: true })} />
+          <input
+            type="radio"
+            name="self-approval"
+            className="h-5 w-5"
+            checked={rules.selfApproval}
+            disabled={update.isPending}
+            onChange={() => update.mutate({ selfApproval: true })}
+          />
           <span>The proposer may approve their own diagnosis (a one-person shop)</span>
         </label>
       </fieldset>
@@ -42,7 +56,9 @@ export function DutyRulesSection() {
   const rules = useDutyRules();
   return (
     <section aria-labelledby="duty-rules" className="space-y-2 rounded-lg border border-stone-300 bg-white p-4">
-      <h2 id="duty-rules" className="text-lg font-semibold">Duty rules</h2>
+      <h2 id="duty-rules" className="text-lg font-semibold">
+        Duty rules
+      </h2>
       <QueryState query={rules} label="the duty rules">
         {(r) => <DutyRulesForm rules={r} />}
       </QueryState>

@@ -66,7 +66,14 @@ export default function FirstRunPage() {
           <TextField label="Address" autoComplete="street-address" {...bind('address')} error={errors['shop.address']} className="sm:col-span-2" />
           <TextField label="Phone" type="tel" autoComplete="tel" {...bind('phone')} error={errors['shop.phone']} />
           <TextField label="Shop e-mail" type="email" autoComplete="email" {...bind('email')} error={errors['shop.email']} />
-          <TextField label="Currency" hint="Three letters, e.g. EUR, USD, GBP" maxLength={3} className="uppercase" {...bind('currency')} error={errors['shop.currency']} />
+          <TextField
+            label="Currency"
+            hint="Three letters, e.g. EUR, USD, GBP"
+            maxLength={3}
+            className="uppercase"
+            {...bind('currency')}
+            error={errors['shop.currency']}
+          />
           <TextField label="Tax number (optional)" {...bind('taxNumber')} error={errors['shop.taxNumber']} />
           <label className="block sm:col-span-2">
             <span className="text-sm font-medium">Logo (optional, PNG or JPEG)</span>
@@ -91,7 +98,10 @@ export default function FirstRunPage() {
         <ErrorNote error={firstRun.error} />
         {logoError && (
           <p role="alert" className="rounded-md bg-amber-50 p-2 text-sm">
-            {logoError} <a className="underline" href="/people">Continue</a>
+            {logoError}{' '}
+            <a className="underline" href="/people">
+              Continue
+            </a>
           </p>
         )}
         <Button type="submit" disabled={firstRun.isPending} className="w-full">

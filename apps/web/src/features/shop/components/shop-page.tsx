@@ -27,7 +27,12 @@ function ShopForm({ shop }: { shop: Shop }) {
   const bind = (k: keyof typeof f) => ({ value: f[k], onChange: (e: { target: { value: string } }) => setF({ ...f, [k]: e.target.value }), error: errors[k] });
   const submit = (e: FormEvent) => {
     e.preventDefault();
-    const r = updateShopRequest.safeParse({ ...f, sessionIdleHours: Number(f.sessionIdleHours), sessionMaxDays: Number(f.sessionMaxDays), meterProfile: f.meterProfile || null });
+    const r = updateShopRequest.safeParse({
+      ...f,
+      sessionIdleHours: Number(f.sessionIdleHours),
+      sessionMaxDays: Number(f.sessionMaxDays),
+      meterProfile: f.meterProfile || null,
+    });
     if (!r.success) return setErrors(Object.fromEntries(r.error.issues.map((i) => [i.path.join('.'), i.message])));
     setErrors({});
     update.mutate(r.data);
@@ -46,7 +51,9 @@ function ShopForm({ shop }: { shop: Shop }) {
     <div className="space-y-6">
       <form onSubmit={submit} noValidate className="grid gap-4 rounded-lg border border-stone-300 bg-white p-4 sm:grid-cols-2">
         <h2 className="text-lg font-semibold sm:col-span-2">What customers see</h2>
-        <p className="-mt-3 text-sm text-stone-700 sm:col-span-2">On repair reports, quote and invoice e-mails (which come from the shop's name) and the customer page.</p>
+        <p className="-mt-3 text-sm text-stone-700 sm:col-span-2">
+          On repair reports, quote and invoice e-mails (which come from the shop's name) and the customer page.
+        </p>
         <TextField label="Shop name" {...bind('name')} className="sm:col-span-2" />
         <TextField label="Address" {...bind('address')} className="sm:col-span-2" />
         <TextField label="Phone" type="tel" {...bind('phone')} />
@@ -58,7 +65,11 @@ function ShopForm({ shop }: { shop: Shop }) {
         <h2 className="mt-2 text-lg font-semibold sm:col-span-2">Meter</h2>
         <label className="block sm:col-span-2">
           <span className="text-sm font-medium">The meter jobs are read with unless a job names another</span>
-          <select className="mt-1 block min-h-11 w-full rounded-md border border-stone-500 bg-white px-3" value={f.meterProfile} onChange={(e) => setF({ ...f, meterProfile: e.target.value })}>
+          <select
+            className="mt-1 block min-h-11 w-full rounded-md border border-stone-500 bg-white px-3"
+            value={f.meterProfile}
+            onChange={(e) => setF({ ...f, meterProfile: e.target.value })}
+          >
             <option value="">{GENERIC_METER_LABEL}</option>
             {meterProfileIds.map((id) => (
               <option key={id} value={id}>
@@ -79,12 +90,20 @@ function ShopForm({ shop }: { shop: Shop }) {
       <section className="space-y-2 rounded-lg border border-stone-300 bg-white p-4">
         <h2 className="text-lg font-semibold">Logo</h2>
         <p className="text-sm text-stone-700">It heads the repair report and the customer page; a large picture is scaled down to fit.</p>
-        {shop.logoUploadId ? <img src={`/api/uploads/${shop.logoUploadId}`} alt={`${shop.name} logo`} className="max-h-24 max-w-60 object-contain" /> : <p className="text-stone-700">No logo yet.</p>}
+        {shop.logoUploadId ? (
+          <img src={`/api/uploads/${shop.logoUploadId}`} alt={`${shop.name} logo`} className="max-h-24 max-w-60 object-contain" />
+        ) : (
+          <p className="text-stone-700">No logo yet.</p>
+        )}
         <label className="block">
           <span className="text-sm font-medium">Choose a PNG or JPEG</span>
           <input type="file" accept="image/png,image/jpeg" className="mt-1 block min-h-11" onChange={(e) => void setLogo(e.target.files?.[0])} />
         </label>
-        {logoError && <p role="alert" className="text-sm text-high">{logoError}</p>}
+        {logoError && (
+          <p role="alert" className="text-sm text-high">
+            {logoError}
+          </p>
+        )}
       </section>
     </div>
   );
