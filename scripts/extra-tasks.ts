@@ -1,5 +1,6 @@
 // Tasks beyond start/test: fault injection, fuzzing and the benchmarks that need the running stack.
-import { printFuzzReport, runFuzz } from './proof/fuzz';
+import { runFuzz } from './proof/fuzz';
+import { printFuzzReport } from './proof/fuzz-report';
 import { printApiBench, runApiBench } from './proof/bench-api';
 import { printWebBench, runWebBench } from './proof/bench-web';
 import { FULL, printFaultReport, runFaults, SHORT, type FaultReport } from './proof/faults';

@@ -91,6 +91,8 @@ async function test(): Promise<number> {
 
   await step('typecheck', bin('tsx'), [join(root, 'scripts', 'typecheck.ts')]);
   await step('lint', bin('eslint'), ['.', '--max-warnings=0']);
+  // One formatting for the whole tree (.prettierrc); `npm run format` rewrites what this refuses.
+  await step('lint: formatting (prettier)', bin('prettier'), ['--check', '.', '--log-level', 'warn']);
   // Dead exports, unused files and dependencies nobody imports (knip.json says where each workspace starts).
   await step('lint: dead code (knip)', bin('knip'), ['--no-progress']);
   const unitJson = join(reports, 'unit.json');

@@ -2,7 +2,7 @@
 // from the shared zod contract (with the ids of real rows and the patterns the schemas name):
 // never a 5xx, a refused request never changes the database, and an accepted one changes what its answer says.
 import fc from 'fast-check';
-import { createHash, createHmac, randomBytes, randomUUID } from 'node:crypto';
+import { createHash, randomBytes, randomUUID } from 'node:crypto';
 import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -14,8 +14,10 @@ import { clusterSpec, root } from '../lib/stack';
 import { proofDatabase, ServerChild, signIn, type Session } from './env';
 import { findFreePort } from '../lib/proc';
 import { installWriteLog, settledWrites, takeWrites } from './write-log';
-import { payloadArb, payloadArbOf, realIds, type FuzzPayload } from './zod-arb';
+import { payloadArb, payloadArbOf, realIds } from './zod-arb';
 import { smallPicture } from '../../apps/server/src/testing/pictures';
+import type { FuzzReport } from './fuzz-report';
+import { send, WEBHOOK_SECRET } from './fuzz-http';
 import { fillFields, fillPath, placeholder, preconditions, SETUP_CUSTOMER_EMAIL, SETUP_PEOPLE, setupApi, type Fresh } from './fuzz-fresh';
 
 export interface WriteRoute {
@@ -127,24 +129,6 @@ async function fillParams(path: string, client: pg.Client, f: Fixtures): Promise
   return parts.join('/');
 }
 
-export interface FuzzReport {
-  ok: boolean;
-  tried: number;
-  routes: number;
-  accepted: number;
-  refused: number;
-  serverErrors: { route: string; status: number; label: string; sample: string }[];
-  changes: { route: string; status: number; label: string; tables: string[] }[];
-  /** Accepted requests whose effect on the database was not what their answer says (a GET that wrote, a 201 that stored nothing). */
-  stateErrors: { route: string; status: number; label: string; problem: string }[];
-  /** Set-up steps (fuzz-fresh.ts) that failed: the route then went without its fresh row. */
-  setupErrors: string[];
-  perRoute: Record<string, { accepted: number; refused: number }>;
-  unmapped: string[];
-  statuses: Record<number, number>;
-  seconds: number;
-}
-
 // What a refused or read-only request may still write, by design: a failed sign-in is audited, a session is
 // extended when used, billing settings are created with their defaults on first read, a customer link notes its use.
 const REFUSED_MAY_WRITE: Record<string, string[]> = {
@@ -161,14 +145,6 @@ const BACKGROUND_TABLES = ['fault_dictionaries', 'fault_dictionary_rows'];
 // address has an account (its timing tells nothing), then writes the link and mails it.
 const ANSWERS_FIRST = ['POST /api/auth/password-reset'];
 
-const WEBHOOK_SECRET = `whsec_fuzz_${process.pid}`;
-/** A payment-service signature over the exact bytes (t=…,v1=HMAC-SHA256 of "t.payload"), as the webhook checks. */
-const signWebhook = (payload: string) => {
-  const t = Math.floor(Date.now() / 1000);
-  return `t=${t},v1=${createHmac('sha256', WEBHOOK_SECRET).update(`${t}.${payload}`).digest('hex')}`;
-};
-
-/** Ids of real rows for the body fields that name them, so payloads reach past "no such customer". */
 async function loadRealIds(client: pg.Client): Promise<void> {
   const ids = async (q: string) => (await client.query<{ id: string }>(q)).rows.map((r) => r.id);
   realIds.customerId = await ids("SELECT id FROM customers WHERE shop_id = 'shop-demo'");
@@ -394,62 +370,4 @@ export async function runFuzz({ total, seed, only, log }: { total: number; seed?
   report.ok =
     report.tried > 0 && report.setupErrors.length === 0 && report.serverErrors.length === 0 && report.changes.length === 0 && report.stateErrors.length === 0;
   return report;
-}
-
-async function send(
-  method: string,
-  url: string,
-  p: FuzzPayload & { bytes?: Buffer },
-  session: Session | null,
-  signed: boolean,
-): Promise<{ status: number; body: string }> {
-  const headers: Record<string, string> = {};
-  if (signed) headers['stripe-signature'] = signWebhook(p.text);
-  if (p.contentType) headers['content-type'] = p.contentType;
-  if (p.contentEncoding) headers['content-encoding'] = p.contentEncoding;
-  if (session) headers.cookie = session.cookie;
-  try {
-    // A GET carries its payload as the query string (the route parses req.query).
-    const query = method === 'GET' ? queryOf(p.text) : '';
-    const r = await fetch(url + query, { method, headers, body: method === 'GET' ? undefined : (p.bytes ?? p.text), signal: AbortSignal.timeout(60_000) });
-    return { status: r.status, body: await r.text() };
-  } catch {
-    return { status: 0, body: '' }; // no answer at all counts with the server errors
-  }
-}
-
-/** A JSON object payload as `?k=v&…` (nested values as JSON text); anything else as one raw parameter. */
-function queryOf(text: string): string {
-  let v: unknown;
-  try {
-    v = JSON.parse(text);
-  } catch {
-    return `?q=${encodeURIComponent(text)}`;
-  }
-  if (!v || typeof v !== 'object' || Array.isArray(v)) return `?q=${encodeURIComponent(String(text))}`;
-  const params = new URLSearchParams();
-  for (const [k, x] of Object.entries(v)) params.append(k, typeof x === 'string' ? x : JSON.stringify(x));
-  return `?${params}`;
-}
-
-export function printFuzzReport(r: FuzzReport, log: (l: string) => void = console.log): void {
-  for (const u of r.unmapped) log(`fuzz: note: no contract schema named in ${u}; fuzzed with reading payloads`);
-  for (const e of r.serverErrors) log(`fuzz: FAIL ${e.status || 'no answer'} from ${e.route} (${e.label}): ${e.sample}`);
-  for (const c of r.changes) log(`fuzz: FAIL refused ${c.status} from ${c.route} (${c.label}) changed ${c.tables.join(', ')}`);
-  for (const e of r.stateErrors) log(`fuzz: FAIL accepted ${e.status} from ${e.route} (${e.label}): ${e.problem}`);
-  for (const e of r.setupErrors) log(`fuzz: set-up failed for ${e}`);
-  log('fuzz: accepted / refused per route:');
-  for (const [route, s] of Object.entries(r.perRoute))
-    log(
-      `  ${route.padEnd(52)} ${String(s.accepted).padStart(5)} / ${String(s.refused).padStart(5)}  (${Math.round((100 * s.accepted) / Math.max(1, s.accepted + s.refused))} % accepted)`,
-    );
-  log(
-    `fuzz: tried ${r.tried} payloads on ${r.routes} routes (${r.refused} refused, ${r.accepted} accepted) in ${r.seconds.toFixed(1)} s: ${r.serverErrors.length} server errors, ${r.changes.length} refused requests that changed the database, ${r.stateErrors.length} accepted requests with the wrong effect`,
-  );
-  log(
-    `fuzz: answers by status: ${Object.entries(r.statuses)
-      .map(([k, v]) => `${k}: ${v}`)
-      .join(', ')}`,
-  );
-  log(r.ok ? 'fuzz: ok' : 'fuzz: FAILED');
 }

@@ -50,14 +50,16 @@ describe('diagnosis threads', () => {
     expect(again.readings).toHaveLength(2);
   }, 120_000);
 
-  it("keep the engine's refusal a 409 and an unusable board a 422", async () => {
+  it("keep the engine's refusal a 409 and judge nothing on a stored board the schema rejects", async () => {
     const { pool, load } = setup();
     const refused = await pool.run('v-divider', [{ mode: 'dcv', red: 'nowhere', black: '0', power: 'on', value: 1 }], load).catch((e: unknown) => e);
     expect(refused).toBeInstanceOf(AppError);
     expect((refused as AppError).status).toBe(409);
     expect((refused as AppError).detail).toMatch(/^The diagnosis engine cannot use these readings: .*nowhere/);
-    const unusable = await pool.run('v-empty', readings, async () => ({ id: 'no-netlist' })).catch((e: unknown) => e);
-    expect((unusable as AppError).status).toBe(422);
+    // A stored document the schema rejects opens as a board of its photo only: readings recorded, none judged
+    // (boards/engine.ts boardEngine), until a lead corrects the model.
+    const unusable = await pool.run('v-empty', readings, async () => ({ id: 'no-netlist' }));
+    expect(unusable.readings).toEqual([]);
   }, 120_000);
 
   it('a thread that dies rejects its pending call; the next call starts a new thread and sends it the document again', async () => {

@@ -134,17 +134,15 @@ describe('ten verified boards whose C8 shorted move C8 on a new job', () => {
       await db.update(jobs).set({ status: 'verified', proposedPart: 'C8' }).where(eq(jobs.id, id));
       await db.insert(repairActions).values({ id: newId(), shopId, jobId: id, part: 'C8', action: 'replaced', replacementValue: '220u 35V', authorId: techId });
       // What the engine said when the tech proposed C8: its mode is what the history counts.
-      await db
-        .insert(diagnosisSnapshots)
-        .values({
-          id: newId(),
-          shopId,
-          jobId: id,
-          engineVersion: 'test',
-          proposedPart: 'C8',
-          createdBy: techId,
-          output: { parts: [{ part: 'C8', designator: 'C8', mode: 'short', probability: 0.8 }] },
-        });
+      await db.insert(diagnosisSnapshots).values({
+        id: newId(),
+        shopId,
+        jobId: id,
+        engineVersion: 'test',
+        proposedPart: 'C8',
+        createdBy: techId,
+        output: { parts: [{ part: 'C8', designator: 'C8', mode: 'short', probability: 0.8 }] },
+      });
     }
 
     const after = await newJob();

@@ -70,20 +70,18 @@ async function customerJob(email: string) {
   await db.insert(boardModelVersions).values({ id: versionId, boardId, version: 1, document: {}, expectedReadings: [] });
   const id = newId();
   jobNumber++;
-  await db
-    .insert(jobs)
-    .values({
-      id,
-      shopId,
-      number: jobNumber,
-      customerId: String(customer.body.id),
-      unitDescription: 'Wall split outdoor unit',
-      boardId,
-      boardVersionId: versionId,
-      symptom: 'fan never starts',
-      status: 'received',
-      createdBy: (await admin.get('/api/me')).body.id as string,
-    });
+  await db.insert(jobs).values({
+    id,
+    shopId,
+    number: jobNumber,
+    customerId: String(customer.body.id),
+    unitDescription: 'Wall split outdoor unit',
+    boardId,
+    boardVersionId: versionId,
+    symptom: 'fan never starts',
+    status: 'received',
+    createdBy: (await admin.get('/api/me')).body.id as string,
+  });
   return { id, db };
 }
 

@@ -5,6 +5,7 @@
 export * from './references';
 export * from './sections/types';
 export * from './sections/templates';
+export * from './sections/speed';
 export * from './sections/bands';
 export { ntcResistance } from './sections/sensing';
 export { MODELS, SUBCKTS, OPTO_SUBCKT, OPTO_CTR, OPTO_LED_IS, regulatorSubckt } from './sections/library';

@@ -30,8 +30,10 @@ export type {
 } from './circuit';
 export { solveOp, solveNodes, NodeSolution, SolveError, VT, GMIN, GISLAND } from './solver';
 export type { OpResult, SolveOptions, SolveMethod } from './solver';
-export { measure, measureDetailed, read, applyState, stateOf, refusal, meterProfile, DEFAULT_METER, MeasurementError } from './meter';
-export type { Probe, BoardState, Reading, MeterProfile, MeterMode, MeasureOptions, MeasuredReading, TestSource, Accuracy, MeterRange } from './meter';
+export { measure, measureDetailed, read, applyState, stateOf, refusal } from './meter';
+export { meterProfile, DEFAULT_METER, MeasurementError } from './meter-types';
+export type { MeasureOptions, MeasuredReading } from './meter';
+export type { Probe, BoardState, Reading, MeterProfile, MeterMode, TestSource, Accuracy, MeterRange } from './meter-types';
 export { CC_AUTORANGE_6000, ANALOG_THEVENIN_20K, METER_PROFILES, meterProfileById, accuracyLimit } from './meter-profiles';
 export { parseSpiceNumber } from './values';
 export { nodesWithoutDcPath } from './topology';

@@ -4,7 +4,7 @@
  * No manual was at hand when these were written: every value is from memory, typical of its class of meter, and
  * each profile says so in `reference`. A shop that owns a meter enters its own values from the meter's manual.
  */
-import type { Accuracy, MeterMode, MeterProfile, MeterRange, TestSource } from './meter';
+import type { Accuracy, MeterMode, MeterProfile, MeterRange, TestSource } from './meter-types';
 
 const cc = (current: number, compliance: number): TestSource => ({ kind: 'current', current, compliance });
 const th = (voc: number, rs: number): TestSource => ({ kind: 'thevenin', voc, rs });

@@ -43,7 +43,8 @@ export {
   decodePrediction,
 } from './electrical/dictionary.js';
 export type { FaultDictionary, PairColumn, BuildOptions } from './electrical/dictionary.js';
-export { Diagnoser, createDiagnoser, diagnoseCase, validateCase } from './electrical/diagnoser.js';
+export { Diagnoser, createDiagnoser } from './electrical/diagnoser.js';
+export { diagnoseCase, validateCase } from './electrical/diagnose-case.js';
 export type {
   DiagnosisCase,
   CaseReading,

@@ -18,8 +18,8 @@ import { PriorAdjustmentError, type PriorAdjustment } from '../core/priors.js';
 import { historyAdjustments } from './history.js';
 import { referenceAdjustments } from './references.js';
 import type { Observation } from '../core/types.js';
-import { CaseError, checkReadingShape, validateCaseShape } from './case.js';
-import type { BoardInput, CandidateReport, DiagnosisCase, DiagnosisOutput, NextTestReport, ReadingReport, UpdateOptions } from './case.js';
+import { CaseError, checkReadingShape } from './case.js';
+import type { BoardInput, CandidateReport, DiagnosisOutput, NextTestReport, ReadingReport, UpdateOptions } from './case.js';
 import { checkingKeys } from './dictionary.js';
 import { ElectricalModel, testKey, type ElectricalTest } from './model.js';
 import { partAloneRefusal } from './part-alone.js';
@@ -381,25 +381,4 @@ function sig(x: number): number {
 
 export function createDiagnoser(board: BoardInput): Diagnoser {
   return new Diagnoser(board);
-}
-
-/** Validate a case and diagnose it in one call. Throws CaseError on a bad case. */
-export function diagnoseCase(caseInput: unknown, options: UpdateOptions = {}): DiagnosisOutput {
-  const c = validateCaseShape(caseInput);
-  const d = new Diagnoser({
-    netlist: c.netlist,
-    params: c.params,
-    parts: c.parts,
-    testPoints: c.testPoints,
-    connectors: c.connectors,
-    meter: options.meter ?? c.meter,
-  });
-  return d.update(c.readings, options);
-}
-
-/** Full validation of a case against its netlist (shape, nets, parts). Returns the typed case. */
-export function validateCase(caseInput: unknown): DiagnosisCase {
-  const c = validateCaseShape(caseInput);
-  new Diagnoser({ netlist: c.netlist, params: c.params, parts: c.parts, testPoints: c.testPoints }).observations(c.readings);
-  return c;
 }

@@ -39,18 +39,16 @@ export async function createCustomerLink({
   const token = newToken();
   const id = newId();
   const expiresAt = new Date(Date.now() + validDays * 24 * 3600 * 1000);
-  await db
-    .insert(customerLinks)
-    .values({
-      id,
-      shopId,
-      jobId,
-      tokenHash: hashToken(token),
-      expiresAt,
-      createdBy,
-      recipientName: recipient?.name ?? null,
-      recipientEmail: recipient?.email ?? null,
-    });
+  await db.insert(customerLinks).values({
+    id,
+    shopId,
+    jobId,
+    tokenHash: hashToken(token),
+    expiresAt,
+    createdBy,
+    recipientName: recipient?.name ?? null,
+    recipientEmail: recipient?.email ?? null,
+  });
   return { id, token, url: `${publicBase(config)}/c/${token}`, expiresAt };
 }
 

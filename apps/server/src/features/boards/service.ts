@@ -208,20 +208,18 @@ export async function createBoard({
       .values({ id: newId(), boardId, version: 1, document, expectedReadings: prepared.expectedReadings, note: note ?? null, createdBy: actor.id });
     const codes = documentFaultCodes(document);
     if (codes.length) {
-      await tx
-        .insert(faultCodes)
-        .values(
-          codes.map((c) => ({
-            id: newId(),
-            shopId: actor.shopId,
-            boardId,
-            code: c.code,
-            title: c.title,
-            description: c.description ?? null,
-            sections: c.sections ?? [],
-            weights: c.weights ?? {},
-          })),
-        );
+      await tx.insert(faultCodes).values(
+        codes.map((c) => ({
+          id: newId(),
+          shopId: actor.shopId,
+          boardId,
+          code: c.code,
+          title: c.title,
+          description: c.description ?? null,
+          sections: c.sections ?? [],
+          weights: c.weights ?? {},
+        })),
+      );
     }
   });
   return getBoard({ db, shopId: actor.shopId, id: boardId });

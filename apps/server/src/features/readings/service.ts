@@ -12,7 +12,6 @@ import {
   type CreateReadingInput,
   type CreateReadingResponse,
   type JobStatus,
-  type ReadingVerdict,
   type StoredReading,
   unitOf,
 } from '@splitscope/contract';
@@ -28,43 +27,10 @@ import { getDutyRules } from '../duties';
 import { getJobRow } from '../../db/job-row';
 import { traineeGuidedLifted } from '../users';
 import { checkGuidedStep, checkSafetyGate } from './guided';
+import { toReading } from './stored-reading';
 import { insertReading, type NewReading, type ReadingRow } from './write-batch';
 
-type Row = ReadingRow;
 const later = alias(readings, 'later');
-
-type Struck = StoredReading['struck'];
-
-function toReading(r: Row, authorName: string, supersededBy: string | null, struck: Struck = null): StoredReading {
-  return {
-    id: r.id,
-    jobId: r.jobId,
-    mode: r.mode,
-    red: r.red,
-    black: r.black,
-    redNet: r.redNet,
-    blackNet: r.blackNet,
-    power: r.power,
-    lifted: r.lifted,
-    alone: r.alone,
-    value: r.overLimit ? 'OL' : r.value!,
-    unit: r.unit as 'V' | 'ohm',
-    beep: r.beep,
-    raw: r.raw,
-    instrument: r.instrument,
-    phase: r.phase,
-    idempotencyKey: r.idempotencyKey,
-    supersedes: r.supersedes,
-    supersededBy,
-    authorId: r.authorId,
-    authorName,
-    takenAt: iso(r.takenAt),
-    createdAt: iso(r.createdAt),
-    verdict: (r.verdict as ReadingVerdict | null) ?? null,
-    safetyBusVolts: r.safetyBusVolts,
-    struck,
-  };
-}
 
 const striker = alias(users, 'striker');
 

@@ -74,18 +74,16 @@ async function storeSet(
   });
   const id = newId();
   await db.transaction(async (tx) => {
-    await tx
-      .insert(referenceSets)
-      .values({
-        id,
-        shopId: o.actor.shopId,
-        boardId: o.boardId,
-        versionId: o.versionId,
-        jobId: o.jobId,
-        serial: o.serial,
-        note: o.note,
-        createdBy: o.actor.id,
-      });
+    await tx.insert(referenceSets).values({
+      id,
+      shopId: o.actor.shopId,
+      boardId: o.boardId,
+      versionId: o.versionId,
+      jobId: o.jobId,
+      serial: o.serial,
+      note: o.note,
+      createdBy: o.actor.id,
+    });
     await tx.insert(referenceReadings).values(rows.map((r) => ({ ...r, setId: id })));
   });
   priorsChanged();

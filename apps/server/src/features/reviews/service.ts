@@ -48,18 +48,16 @@ export async function createReview({
   const id = newId();
   await db.transaction(async (tx) => {
     if (!(await moveJob(tx, move))) throw new AppError('conflict', 'Someone reviewed this job a moment ago; reload it');
-    await tx
-      .insert(reviews)
-      .values({
-        id,
-        shopId: actor.shopId,
-        jobId,
-        reviewerId: actor.id,
-        decision: input.decision,
-        comment: input.comment,
-        proposedPart: part,
-        snapshotId: snap?.id ?? null,
-      });
+    await tx.insert(reviews).values({
+      id,
+      shopId: actor.shopId,
+      jobId,
+      reviewerId: actor.id,
+      decision: input.decision,
+      comment: input.comment,
+      proposedPart: part,
+      snapshotId: snap?.id ?? null,
+    });
   });
   const [row] = await db.select({ r: reviews, name: users.name }).from(reviews).innerJoin(users, eq(users.id, reviews.reviewerId)).where(eq(reviews.id, id));
   return toReview(row!.r, row!.name);

@@ -111,16 +111,14 @@ export async function setTraineeGuidedOrder({ db, actor, id, lifted }: { db: Db;
     .set({ guidedLiftedBy: lifted ? actor.id : null })
     .where(eq(users.id, id))
     .returning();
-  await db
-    .insert(auditLog)
-    .values({
-      id: newId(),
-      shopId: actor.shopId,
-      userId: actor.id,
-      action: lifted ? 'guided-order-lifted' : 'guided-order-restored',
-      subject: target.email,
-      detail: `${target.name}, all jobs`,
-    });
+  await db.insert(auditLog).values({
+    id: newId(),
+    shopId: actor.shopId,
+    userId: actor.id,
+    action: lifted ? 'guided-order-lifted' : 'guided-order-restored',
+    subject: target.email,
+    detail: `${target.name}, all jobs`,
+  });
   return member(row!);
 }
 

@@ -1,12 +1,4 @@
-import {
-  acceptsReadings,
-  canPropose,
-  isPhotoOnlyBoard,
-  jobStatusLabels,
-  type ExpectedReadingRow,
-  type JobDetail,
-  type StoredReading,
-} from '@splitscope/contract';
+import { acceptsReadings, canPropose, isPhotoOnlyBoard, jobStatusLabels, type JobDetail, type StoredReading } from '@splitscope/contract';
 import { useEffect, useMemo, useState } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { BoardMap } from '@/components/board-map/board-map';
@@ -36,7 +28,7 @@ import {
   type Target,
 } from '../lib/bench-model';
 import { useBenchTarget } from '../lib/use-bench-target';
-import { boardView, type BoardView } from '@/lib/board/board-view';
+import { boardView } from '@/lib/board/board-view';
 import { gateFigures } from '@/lib/board/gate-figures';
 import { gateRefusalFor, touchesBus } from '@/lib/board/gate';
 import { parseTyped, preloadReadingParser } from '@/lib/parse-reading';
@@ -54,31 +46,10 @@ import { JobPhotos } from '@/components/photos/job-photos';
 import { ReadingPanel, type LatestReading } from './reading-panel';
 import { BenchMeter } from './bench-meter';
 import { SafetyGate } from '@/components/safety-gate';
-import { SignalChain, type ChainLink } from './signal-chain';
+import { SignalChain } from './signal-chain';
+import { chainLinks } from '../lib/chain-links';
 import { UnsentList } from './unsent-list';
 import { UnmodelledBench } from './unmodelled-bench';
-
-function chainLinks(view: BoardView, rows: ExpectedReadingRow[], readings: StoredReading[]): ChainLink[] {
-  // The chain is the powered DC-volt rows in board order (the board model lists them bus first).
-  return rows
-    .filter((r) => r.mode === 'dcv' && r.power === 'on' && typeof r.expected === 'number' && r.low !== null && r.high !== null && r.lifted.length === 0)
-    .map((r) => {
-      const latest = latestFor(view, readings, r);
-      const p = view.pointOf(r.red);
-      return {
-        id: r.id,
-        // The test point first ("TP5 Fan control supply"): the chain's axis names each link by its point.
-        label: p?.label ?? r.label ?? r.red,
-        section: view.sections.find((s) => s.id === p?.section)?.name ?? p?.section ?? '',
-        unit: r.unit,
-        nominal: r.expected as number,
-        low: r.low ?? 0,
-        high: r.high ?? 0,
-        measured: latest?.value ?? null,
-        state: latest ? stateOf(latest.verdict?.verdict) : 'unmeasured',
-      };
-    });
-}
 
 type Tab = 'map' | 'chain' | 'points' | 'readings' | 'photos';
 const TABS: { id: Tab; label: string }[] = [
