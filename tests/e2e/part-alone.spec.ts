@@ -42,7 +42,8 @@ test('a lifted part measured on its own pins is listed as "C10 alone" and moves 
   await expect(row.getByRole('cell').nth(1)).toHaveText('Ω');
   await expect(row.getByTestId('board-state')).toHaveText('unplugged, C10 lifted');
 
+  // The ranking follows once the diagnosis of the new reading arrives (seconds on a busy machine).
   const ranking = page.getByTestId('ranking-area');
-  await expect(ranking.getByRole('button', { name: /C10 capacitor — shorted/ }).first()).toBeVisible({ timeout: 30_000 });
-  await expect(ranking).toContainText('C10 alone, Ω: 2 Ω');
+  await expect(ranking).toContainText('C10 alone, Ω: 2 Ω', { timeout: 30_000 });
+  await expect(ranking.getByRole('button', { name: /C10 capacitor — shorted/ }).first()).toBeVisible();
 });
