@@ -34,7 +34,9 @@ function config(port: number, servers: string[]): string {
     '  default_backend servers',
     'backend servers',
     '  balance roundrobin',
-    '  option httpchk GET /api/health',
+    // HTTP/1.1 with a Host the server answers for (its DNS-rebinding guard refuses a check without one).
+    '  option httpchk',
+    '  http-check send meth GET uri /api/health ver HTTP/1.1 hdr Host 127.0.0.1',
     '  default-server inter 500 fall 2 rise 2',
     ...servers.map((url, i) => `  server s${i + 1} ${new URL(url).host} check`),
     '',
