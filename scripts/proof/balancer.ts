@@ -11,7 +11,7 @@ export function ensureHaproxy(): void {
 }
 
 /**
- * Round robin over the servers, with a health check every 500 ms. A request whose server refused the
+ * Round robin over the servers, with a health check every second. A request whose server refused the
  * connection or closed it without an answer is sent to the other server: safe for reading writes because each
  * carries an idempotency key the server stores with the row (a repeat answers the stored reading), and possible
  * because the request body is buffered in the balancer.
@@ -37,7 +37,8 @@ function config(port: number, servers: string[]): string {
     // HTTP/1.1 with a Host the server answers for (its DNS-rebinding guard refuses a check without one).
     '  option httpchk',
     '  http-check send meth GET uri /api/health ver HTTP/1.1 hdr Host 127.0.0.1',
-    '  default-server inter 500 fall 2 rise 2',
+    '  timeout check 3s',
+    '  default-server inter 1s fall 2 rise 2',
     ...servers.map((url, i) => `  server s${i + 1} ${new URL(url).host} check`),
     '',
   ].join('\n');

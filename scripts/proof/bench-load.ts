@@ -49,10 +49,11 @@ export async function waitForDictionary(baseUrl: string, session: Session, jobId
   const t0 = Date.now();
   for (;;) {
     const r = await fetch(`${baseUrl}/api/jobs/${encodeURIComponent(jobId)}/diagnosis`, { headers: { cookie: session.cookie } });
-    const body = (await r.json()) as { preparing?: { partsDone: number; partsTotal: number } };
-    if (r.ok && !body.preparing) return (Date.now() - t0) / 1000;
+    // A busy server may answer late; behind the balancer that is HAProxy's own error page: asked again.
+    const body = r.ok ? ((await r.json()) as { preparing?: { partsDone: number; partsTotal: number } }) : (await r.arrayBuffer(), null);
+    if (body && !body.preparing) return (Date.now() - t0) / 1000;
     if (Date.now() - t0 > 15 * 60_000) throw new Error('the demo board’s fault dictionary was not ready within 15 minutes');
-    if (body.preparing) log(`bench:load: fault dictionary ${body.preparing.partsDone}/${body.preparing.partsTotal} parts`);
+    if (body?.preparing) log(`bench:load: fault dictionary ${body.preparing.partsDone}/${body.preparing.partsTotal} parts`);
     await sleep(5000);
   }
 }
