@@ -176,6 +176,11 @@ export interface BoardInput {
   connectors?: ConnectorInput[];
   /** Nets the board names as AC mains (besides those found from its sources). */
   acMains?: string[];
+  /**
+   * Netlist elements that model what is not on the board (the load a connector sees): they shape every expected
+   * value but are never candidates, lifted parts or names in the words. Unknown names are refused.
+   */
+  offBoard?: string[];
 }
 
 const MODES: readonly MeterMode[] = ['dcv', 'ohm', 'diode', 'continuity'];

@@ -52,8 +52,10 @@ export class Diagnoser {
         throw err;
       }
     } else netlist = board.netlist;
+    const elementNames = new Set(netlist.elements.map((e) => e.name.toLowerCase()));
+    for (const name of board.offBoard ?? []) if (!elementNames.has(name.toLowerCase())) throw new CaseError(`offBoard: no top-level element ${name} in the netlist`);
     try {
-      this.model = new ElectricalModel({ netlist, params: board.params, parts: board.parts, meter: board.meter, acMains: board.acMains?.map(normNode) });
+      this.model = new ElectricalModel({ netlist, params: board.params, parts: board.parts, meter: board.meter, acMains: board.acMains?.map(normNode), offBoard: board.offBoard });
     } catch (err) {
       const msg = (err as Error).message.split('\n')[0] ?? '';
       throw new CaseError(err instanceof NetlistError ? `netlist: ${msg}` : msg);
