@@ -18,7 +18,7 @@ describe('model-only elements of a board model', () => {
     const engine = buildBoardEngine('off-board-test', OUTDOOR_FAN_BOARD);
     expect(engine.diagnoser.model.parts.map((p) => p.name)).not.toContain('RLOAD');
     // VFAN at 0 V with the fan commanded on: a shorted load would explain it as well as a shorted C8 or D3.
-    const out = engine.diagnoser.update([{ mode: 'dcv', red: 'vfan', black: '0', value: 0.02, power: 'on' }], { top: 40, next: 10 });
+    const out = engine.diagnoser.update([{ mode: 'dcv', red: 'vfan', black: '0', value: 0.02, power: 'on' }], { top: 40, nextTests: 10 });
     expect(out.candidates.length).toBeGreaterThan(3);
     expect(out.candidates[0]!.faults.length).toBeGreaterThan(0);
     const named = JSON.stringify({ candidates: out.candidates, parts: out.parts, nextTests: out.nextTests, unexplained: out.unexplained });
