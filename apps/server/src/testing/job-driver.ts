@@ -7,10 +7,10 @@ import { jobStatuses, verificationChecklist } from '@splitscope/contract';
 import { readingRequest } from './requests';
 
 /** Who takes a step: the technician at the bench or the lead who reviews and signs off. */
-export type DriverRole = 'tech' | 'lead';
+type DriverRole = 'tech' | 'lead';
 
 /** A call of the API as that person; `path` is after `/api` (`/jobs/…`). Answers the parsed JSON, throws on a refusal. */
-export type ApiCall = (who: DriverRole, method: 'get' | 'post' | 'patch', path: string, body?: unknown) => Promise<unknown>;
+type ApiCall = (who: DriverRole, method: 'get' | 'post' | 'patch', path: string, body?: unknown) => Promise<unknown>;
 
 /** The board's healthy value for one expected-table row as a reading (unpowered rows with the bus discharged, 1.2 V). */
 export function healthyReading(r: ExpectedReadingRow, phase: 'diagnosis' | 'verification') {
