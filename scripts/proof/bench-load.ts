@@ -50,7 +50,8 @@ export async function waitForDictionary(baseUrl: string, session: Session, jobId
   for (;;) {
     const r = await fetch(`${baseUrl}/api/jobs/${encodeURIComponent(jobId)}/diagnosis`, { headers: { cookie: session.cookie } });
     // A busy server may answer late; behind the balancer that is HAProxy's own error page: asked again.
-    const body = r.ok ? ((await r.json()) as { preparing?: { partsDone: number; partsTotal: number } }) : (await r.arrayBuffer(), null);
+    const text = await r.text();
+    const body = r.ok ? (JSON.parse(text) as { preparing?: { partsDone: number; partsTotal: number } }) : null;
     if (body && !body.preparing) return (Date.now() - t0) / 1000;
     if (Date.now() - t0 > 15 * 60_000) throw new Error('the demo board’s fault dictionary was not ready within 15 minutes');
     if (body?.preparing) log(`bench:load: fault dictionary ${body.preparing.partsDone}/${body.preparing.partsTotal} parts`);
