@@ -196,9 +196,7 @@ export function RankingPanel({
             <summary className="cursor-pointer font-semibold">Why these first ({reasons.length})</summary>
             <ul className="mt-1 list-disc space-y-1 pl-5">
               {reasons.map((r) => (
-                <li key={r.text}>
-                  {r.source === 'fault-code' ? `${r.text} — ${r.parts.join(', ')}` : r.source === 'history-kind' ? `${r.parts.join(', ')}: ${r.text}` : r.text}
-                </li>
+                <li key={r.text}>{r.text}</li>
               ))}
             </ul>
           </details>
