@@ -7,8 +7,10 @@
  *   without `/api`; a status other than the expected one fails the test with the server's answer.
  * - `createCustomer(page, overrides?)` → `Customer`: a customer of the page user's shop, named with `runTag()`
  *   so its name and e-mail are the spec's alone.
- * - `createJob(page, overrides?)` → `JobDetail`: a job on the demo outdoor fan-drive board (`DEMO_BOARD_IDS`)
+ * - `createJob(page, overrides?)` → `JobDetail`: a job on the shop's demo outdoor fan-drive board (`shopBoard`)
  *   for a customer of its own (`overrides.customerId` to reuse one), assigned to nobody unless told.
+ * - `shopBoard(page, key?)` → board id: the page user's shop's copy of a demo board (`DEMO_BOARD_IDS` key; a test
+ *   shop's, support/own-shop.ts, or the demo shop's own).
  * - `recordReading(page, jobId, reading)` → `CreateReadingResponse`: one meter reading; the idempotency key and
  *   the typed text are filled in (`readingRequest`).
  * - `moveJob(page, jobId, change)` → `Job`: a PATCH of the job (status moves, proposals, sign-off).
@@ -21,6 +23,7 @@
 import type { Page } from '@playwright/test';
 import type {
   BoardDetail,
+  BoardList,
   CreateCustomerRequest,
   CreateJobRequest,
   CreateReadingRequest,
@@ -64,9 +67,18 @@ export function createCustomer(page: Page, overrides: Partial<CreateCustomerRequ
 
 export async function createJob(page: Page, overrides: Partial<CreateJobRequest> = {}): Promise<JobDetail> {
   const customerId = overrides.customerId ?? (await createCustomer(page)).id;
-  const body: CreateJobRequest = { ...JOB_DEFAULTS, boardId: DEMO_BOARD_IDS.outdoorFan, ...overrides, customerId };
+  const boardId = overrides.boardId ?? (await shopBoard(page));
+  const body: CreateJobRequest = { ...JOB_DEFAULTS, ...overrides, boardId, customerId };
   const created = await api.send<{ id: string }>(page, 'POST', '/jobs', body, 201);
   return api.get<JobDetail>(page, `/jobs/${created.id}`);
+}
+
+/** The page user's shop's board of a demo board: a test shop stores it as `<shop id>-<demo board id>`. */
+export async function shopBoard(page: Page, key: keyof typeof DEMO_BOARD_IDS = 'outdoorFan'): Promise<string> {
+  const { items } = await api.get<BoardList>(page, '/boards');
+  const board = items.find((b) => b.id.endsWith(DEMO_BOARD_IDS[key]));
+  expect(board, `the shop's ${key} demo board`).toBeDefined();
+  return board!.id;
 }
 
 export function recordReading(page: Page, jobId: string, reading: Parameters<typeof readingRequest>[0]): Promise<CreateReadingResponse> {

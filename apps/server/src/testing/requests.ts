@@ -17,3 +17,17 @@ export function readingRequest(
 ): CreateReadingRequest {
   return { idempotencyKey: crypto.randomUUID(), raw: String(r.value), ...r };
 }
+
+/**
+ * A shop of a browser spec's own (apps/server/src/testing/test-shops.ts), as the test-only route answers it: one
+ * person per role (signed in with TEST_SHOP_PASSWORD) and the demo boards published in it under `boards`.
+ */
+export interface TestShop {
+  id: string;
+  name: string;
+  users: Record<'admin' | 'lead' | 'tech' | 'trainee', { id: string; email: string; name: string }>;
+  boards: Record<keyof typeof DEMO_BOARD_IDS, string>;
+}
+
+/** The demo people's password, so a spec signs a test shop's people in as it signs the demo's. */
+export const TEST_SHOP_PASSWORD = 'splitscope-demo';
