@@ -31,3 +31,8 @@ export interface TestShop {
 
 /** The demo people's password, so a spec signs a test shop's people in as it signs the demo's. */
 export const TEST_SHOP_PASSWORD = 'splitscope-demo';
+
+/** The reading most integration tests start from: DC V powered, TP2 to ground, 7.5 V (the demo board's divider). */
+export function dividerReading(over: Partial<CreateReadingRequest> = {}): CreateReadingRequest {
+  return readingRequest({ mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', value: 7.5, ...over });
+}
