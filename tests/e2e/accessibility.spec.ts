@@ -61,7 +61,7 @@ test('the technician views have no serious accessibility violations', async ({ p
   await noSeriousViolations(page, 'bench');
 
   await page.goto(`/jobs/${job.id}?mode=free&tab=chain`);
-  await expect(page.getByRole('table', { name: 'Signal chain readings' })).toBeVisible();
+  await expect(page.getByRole('table', { name: 'Signal chain readings' })).toBeVisible({ timeout: 30_000 });
   await noSeriousViolations(page, 'signal-chain');
 
   await page.goto(`/jobs/${job.id}?mode=guided`);
@@ -90,7 +90,7 @@ test('the lead and admin views have no serious accessibility violations', async 
   await expect(page.getByRole('link', { name: 'Open the editor' }).first()).toBeVisible();
   await noSeriousViolations(page, 'board-library');
   await page.getByRole('link', { name: 'Open the editor' }).first().click();
-  await expect(page.getByRole('heading', { name: /Expected readings/ })).toBeVisible();
+  await expect(page.getByRole('heading', { name: /Expected readings/ })).toBeVisible({ timeout: 30_000 });
   await noSeriousViolations(page, 'board-editor');
 
   // The spec's job in review: the ranking when proposed, the readings history and the decision.
