@@ -92,6 +92,10 @@ export function benchValid(name: string, schema: ZodSchema, ids: Ids, board: Boa
     case 'POST /api/jobs/:jobId/notify':
       // a customer link goes to the customer's address on file, or is refused (hole 5)
       return pinned({ to: fc.constantFrom(customerEmail, undefined) });
+    case 'GET /api/bench-meter/next':
+    case 'GET /api/jobs/:id/bench-meter':
+      // a long poll holds its answer up to `wait` seconds: 0–1 s keeps a run's time on payloads, not on waiting
+      return pinned({ wait: fc.constantFrom(0, 1) });
     default:
       return null;
   }

@@ -285,6 +285,7 @@ export async function runFuzz({ total, seed, only, log }: { total: number; seed?
       // Who the route lets in, learnt from its answers: after a first round over everyone, three payloads in four
       // go as the people it accepted, so the valid space is reached; every fourth still goes round everyone.
       const letIn: number[] = [];
+      let errors = 0;
       await takeWrites(client);
       for (const [i, p] of samples.entries()) {
         const k = i < 2 * PEOPLE.length || i % 4 === 0 || letIn.length === 0 ? i % PEOPLE.length : letIn[i % letIn.length]!;
@@ -324,6 +325,7 @@ export async function runFuzz({ total, seed, only, log }: { total: number; seed?
         report.tried++;
         report.statuses[status] = (report.statuses[status] ?? 0) + 1;
         if (status >= 500 || status === 0) {
+          errors++;
           if (report.serverErrors.length < 20) report.serverErrors.push({ route: name, status, label: p.label, sample: text.slice(0, 300) });
         }
         const writes = ANSWERS_FIRST.includes(name) ? await settledWrites(client) : await takeWrites(client);
@@ -357,7 +359,7 @@ export async function runFuzz({ total, seed, only, log }: { total: number; seed?
         }
       }
       log(
-        `fuzz: ${name}: ${stats.accepted} accepted, ${stats.refused} refused of ${samples.length}${schema ? ` from ${route.schemaName}` : ' (no contract schema found)'}`,
+        `fuzz: ${name}: ${stats.accepted} accepted, ${stats.refused} refused of ${samples.length}, ${errors} answered 5xx${schema ? ` from ${route.schemaName}` : ' (no contract schema found)'}`,
       );
     }
     const h = await fetch(`${server.url}/api/health`).catch(() => null);

@@ -4,7 +4,8 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { hasSocat, openPtyPair, type PtyPair } from '../../apps/meter-bridge/sim/pty-pair';
 import { ScpiMeterSim } from '../../apps/meter-bridge/sim/scpi-meter-sim';
-import { DEMO_PASSWORD, expect, signIn, test } from './fixtures';
+import { DEMO_PASSWORD, signIn } from './fixtures';
+import { expect, test } from './support/own-shop';
 import { benchSetup, send } from './support/divider-job';
 
 const socat = hasSocat();
@@ -24,8 +25,8 @@ test.describe('bench meter', () => {
     await pair?.close();
   });
 
-  test('a reading triggered on the meter lands in the open bench within 1 s', async ({ page }) => {
-    const setup = await benchSetup();
+  test('a reading triggered on the meter lands in the open bench within 1 s', async ({ page, shop }) => {
+    const setup = await benchSetup(shop);
     const job = await send<{ id: string }>(setup.tech, 'post', '/jobs', {
       customerId: setup.customerId,
       boardId: setup.boardId,
@@ -39,7 +40,7 @@ test.describe('bench meter', () => {
 
     // The README's command, signed in as the technician at this bench.
     const base = process.env.BASE_URL ?? 'http://127.0.0.1:5180';
-    bridge = spawn('node_modules/.bin/tsx', ['apps/meter-bridge/src/cli.ts', '--port', pair.meterPort, '--server', base, '--email', 'tech@demo.test'], {
+    bridge = spawn('node_modules/.bin/tsx', ['apps/meter-bridge/src/cli.ts', '--port', pair.meterPort, '--server', base, '--email', shop.users.tech.email], {
       env: { ...process.env, SPLITSCOPE_PASSWORD: DEMO_PASSWORD },
       stdio: ['ignore', 'pipe', 'pipe'],
     });
@@ -48,7 +49,7 @@ test.describe('bench meter', () => {
     bridge.stderr!.on('data', (d: Buffer) => (out += d.toString()));
 
     // The bench opens while the bridge starts (on a busy machine tsx takes seconds to start it).
-    await signIn(page, 'tech@demo.test');
+    await signIn(page, shop.users.tech.email);
     await page.goto(`/jobs/${job.id}?mode=free&tab=points`);
     await page.getByRole('navigation', { name: 'Test points' }).getByRole('button', { name: /TP1/ }).click();
     await expect.poll(() => out, { timeout: 30_000 }).toContain('meter: Invented Instruments,BM-2300');

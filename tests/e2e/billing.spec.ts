@@ -1,5 +1,6 @@
 import type { BillingSettings, CapturedMailSummary } from '@splitscope/contract';
-import { expect, signIn, test } from './fixtures';
+import { signIn } from './fixtures';
+import { expect, test } from './support/own-shop';
 import { getJson, shot } from './helpers';
 import { createJob } from './support/shop-data';
 
@@ -7,8 +8,8 @@ import { createJob } from './support/shop-data';
 // tooling's own script being refused there at times. That refusal is the sandbox working, not a page error.
 test.use({ expectedConsoleErrors: [/Blocked script execution in 'about:srcdoc'/] });
 
-test('the shop admin composes a quote in the shop currency, sends it, and the mail outbox shows it', async ({ page }) => {
-  await signIn(page, 'admin@demo.test');
+test('the shop admin composes a quote in the shop currency, sends it, and the mail outbox shows it', async ({ page, shop }) => {
+  await signIn(page, shop.users.admin.email);
   await expect(page.getByRole('navigation', { name: 'Main' })).toBeVisible();
   const job = await createJob(page);
   const settings = await getJson<BillingSettings>(page, '/billing/settings');
@@ -65,13 +66,13 @@ test('the shop admin composes a quote in the shop currency, sends it, and the ma
   await shot(page, 'billing-settings');
 });
 
-test('a trainee sees a job’s billing but cannot quote, and the settings page is not theirs', async ({ page }) => {
+test('a trainee sees a job’s billing but cannot quote, and the settings page is not theirs', async ({ page, shop }) => {
   // A technician opens the job; the trainee then looks at it.
-  await signIn(page, 'tech@demo.test');
+  await signIn(page, shop.users.tech.email);
   const job = await createJob(page);
   await page.getByRole('button', { name: 'Sign out' }).click();
   await expect(page.getByRole('button', { name: 'Sign in' })).toBeVisible();
-  await signIn(page, 'trainee@demo.test');
+  await signIn(page, shop.users.trainee.email);
   await expect(page.getByRole('navigation', { name: 'Main' })).toBeVisible();
   await page.goto(`/jobs/${job.id}/billing`);
   await expect(page.getByRole('heading', { name: `Billing · job #${job.number}` })).toBeVisible();

@@ -1,16 +1,17 @@
 // A board that comes back within the shop's warranty days is flagged at intake, with what was done to it last time;
 // the new job shows the flag too. The spec makes its own board model, customer and earlier job through the API.
 import { randomUUID } from 'node:crypto';
-import { expect, signIn, test } from './fixtures';
+import { signIn } from './fixtures';
+import { expect, test } from './support/own-shop';
 import { benchSetup, returnedJob } from './support/divider-job';
 
-test('a warranty return is flagged at intake and on the job, in the bench’s words', async ({ page }) => {
+test('a warranty return is flagged at intake and on the job, in the bench’s words', async ({ page, shop }) => {
   test.setTimeout(120_000); // the earlier job's proposal runs the diagnosis of a new board model
-  const setup = await benchSetup();
+  const setup = await benchSetup(shop);
   const serial = `BRD-${randomUUID().slice(0, 8)}`;
   const earlier = await returnedJob(setup, { serial });
 
-  await signIn(page, 'tech@demo.test');
+  await signIn(page, shop.users.tech.email);
   for (const viewport of [
     { width: 1024, height: 768 },
     { width: 390, height: 844 },

@@ -1,13 +1,14 @@
 import type { BoardModel } from '@splitscope/contract';
-import { expect, signIn, test } from './fixtures';
+import { signIn } from './fixtures';
+import { expect, test } from './support/own-shop';
 import { shot } from './helpers';
 import { createJob } from './support/shop-data';
 
 // The test-point list is under its own "Test points" tab beside the map: the keyboard walk opens that tab.
-test('the board map pans, zooms and selects points by mouse and by keyboard', async ({ page }) => {
+test('the board map pans, zooms and selects points by mouse and by keyboard', async ({ page, shop }) => {
   // Some twenty gestures, each waiting for the canvas to redraw: slower than a minute on a loaded machine.
   test.setTimeout(120_000);
-  await signIn(page, 'tech@demo.test');
+  await signIn(page, shop.users.tech.email);
   await expect(page.getByRole('heading', { name: /Welcome/ })).toBeVisible();
   const job = await createJob(page, { symptom: 'Map walk: fan never starts' });
   const doc = job.board.document as unknown as BoardModel;

@@ -2,12 +2,13 @@
 // and its search, adding one, editing one, merging a duplicate into the customer it repeats, and the jobs a
 // customer has (the duplicate's job moves over with the merge).
 import type { BoardList, Customer } from '@splitscope/contract';
-import { expect, test, signIn } from './fixtures';
+import { signIn } from './fixtures';
+import { expect, test } from './support/own-shop';
 import { fetchInPage, getJson } from './helpers';
 
-test('customers: list, search, add, edit, merge a duplicate, their jobs', async ({ page }) => {
+test('customers: list, search, add, edit, merge a duplicate, their jobs', async ({ page, shop }) => {
   const tag = `c${Date.now().toString(36)}`;
-  await signIn(page, 'admin@demo.test');
+  await signIn(page, shop.users.admin.email);
 
   // Our own data: the customer, a duplicate of them with a job on a demo board.
   const made = async (body: Record<string, unknown>) => {

@@ -1,6 +1,7 @@
 // A meter's CSV log imported onto a job: the technician maps the columns once for the meter, previews (one clear
 // error per bad row, nothing stored), binds a row without a test point by hand, and imports the good rows.
-import { expect, signIn, test } from './fixtures';
+import { signIn } from './fixtures';
+import { expect, test } from './support/own-shop';
 import { benchSetup, send } from './support/divider-job';
 
 const LOG = [
@@ -13,8 +14,8 @@ const LOG = [
   '2026-12-05T09:00:25Z;TP2;4k7;;RES',
 ].join('\n');
 
-test('a meter log with good and bad rows: preview, bind, import once', async ({ page }) => {
-  const setup = await benchSetup();
+test('a meter log with good and bad rows: preview, bind, import once', async ({ page, shop }) => {
+  const setup = await benchSetup(shop);
   const job = await send<{ id: string }>(setup.tech, 'post', '/jobs', {
     customerId: setup.customerId,
     boardId: setup.boardId,
@@ -22,7 +23,7 @@ test('a meter log with good and bad rows: preview, bind, import once', async ({ 
     symptom: 'Fan never starts',
   });
 
-  await signIn(page, 'tech@demo.test');
+  await signIn(page, shop.users.tech.email);
   await page.setViewportSize({ width: 1024, height: 768 });
   await page.goto(`/jobs/${job.id}/import`);
   await page.getByLabel('Meter log (CSV)').setInputFiles({ name: 'bench-meter.csv', mimeType: 'text/csv', buffer: Buffer.from(LOG) });

@@ -1,20 +1,21 @@
 // The parts bin on the bench: a repair fitted from a drawer takes its stock (a drawer of another value is refused),
 // the drawer falls on the reorder list, and the new quote starts from the part used. The spec makes its own data.
-import { expect, signIn, test } from './fixtures';
+import { signIn } from './fixtures';
+import { expect, test } from './support/own-shop';
 import { approvedJob, benchSetup, send } from './support/divider-job';
 
 // The refused drawer is a 422 the page shows as an alert; the browser logs the refused request.
 test.use({ expectedConsoleErrors: [/status of 422/] });
 
-test('a repair takes a part from the bin; the drawer lands on the reorder list; the quote starts from it', async ({ page }) => {
+test('a repair takes a part from the bin; the drawer lands on the reorder list; the quote starts from it', async ({ page, shop }) => {
   test.setTimeout(120_000); // the job's proposal runs the diagnosis of a new board model
-  const setup = await benchSetup();
+  const setup = await benchSetup(shop);
   const job = await approvedJob(setup);
   const drawer = `S${setup.tag.slice(0, 5)}`;
   await send(setup.tech, 'post', '/parts-bin', { value: '10k', package: '0805', rating: '0.125 W', drawer, quantity: 2, minimum: 2, unitCents: 40 });
   await send(setup.tech, 'post', '/parts-bin', { value: '1k', package: '0805', drawer: `${drawer}-1k`, quantity: 5, minimum: 1 });
 
-  await signIn(page, 'tech@demo.test');
+  await signIn(page, shop.users.tech.email);
   await page.setViewportSize({ width: 1024, height: 768 });
   await page.goto(`/jobs/${job.id}/repair`);
   const bin = page.getByLabel('Fitted from the parts bin (optional)');

@@ -1,12 +1,13 @@
 // The lead's statistics page: each chart with its table, the spec's own repaired board and its warranty return in
 // the figures, at a tablet's and a phone's width. Also takes the page's picture for the docs.
 import { randomUUID } from 'node:crypto';
-import { expect, signIn, test } from './fixtures';
+import { signIn } from './fixtures';
+import { expect, test } from './support/own-shop';
 import { benchSetup, returnedJob, send } from './support/divider-job';
 
-test('the statistics page shows failures by part, time to verification, repeat returns and money, each over its table', async ({ page }) => {
+test('the statistics page shows failures by part, time to verification, repeat returns and money, each over its table', async ({ page, shop }) => {
   test.setTimeout(120_000); // the earlier job's proposal runs the diagnosis of a new board model
-  const setup = await benchSetup();
+  const setup = await benchSetup(shop);
   const serial = `BRD-${randomUUID().slice(0, 8)}`;
   const first = await returnedJob(setup, { serial });
   const back = await send<{ number: number }>(setup.tech, 'post', '/jobs', {
@@ -17,7 +18,7 @@ test('the statistics page shows failures by part, time to verification, repeat r
     symptom: 'Fan stops again',
   });
 
-  await signIn(page, 'lead@demo.test');
+  await signIn(page, shop.users.lead.email);
   await page.setViewportSize({ width: 1024, height: 768 });
   await page.goto('/stats');
   const parts = page.getByRole('region', { name: 'Failures by part and board model' });

@@ -32,6 +32,7 @@ import { partsBinRoutes } from './features/parts-bin';
 import { meterImportRoutes } from './features/meter-import';
 import { shopStatsRoutes } from './features/shop-stats';
 import { benchMeterRoutes } from './features/bench-meter';
+import { testShopRoutes, testShopsOn } from './testing/routes';
 import { errorHandler, notFoundApi } from './http/errors';
 import { hostAllowList } from './http/host';
 import { originCheck } from './http/origin';
@@ -70,6 +71,8 @@ export function createApp(ctx: AppContext): Express {
     next();
   });
   api.use(healthRoutes(ctx));
+  // Shops of the browser specs' own: only on a demo server with the local fakes (testing/routes.ts).
+  if (testShopsOn(ctx.config)) api.use(testShopRoutes(ctx));
   api.use(customerPortalRoutes(ctx));
   api.use(sessionMiddleware(ctx.auth));
   // A published version's fault dictionary is built in the background; the version is usable at once.

@@ -7,7 +7,7 @@ import { createApp } from '../src/app';
 import { boardModelVersions, invitations, jobs } from '../src/db/schema';
 import type { RunningServer } from '../src/server';
 import { createBoardModel, createCustomer, createJob, DIVIDER_BOARD } from '../src/testing/factories';
-import { Client, startTestServer } from './harness';
+import { Client, listenApp, startTestServer } from './harness';
 import { apiRoutes } from './routes';
 import { TINY_PNG } from './pictures';
 
@@ -30,6 +30,11 @@ interface Entry {
   body?: () => unknown;
   /** The call ends the caller's sessions: the role's client signs in again after it. */
   endsSession?: boolean;
+  /**
+   * A test-only route (testing/routes.ts): served on a demo server with the local fakes (test-shops.test.ts) and
+   * absent, 404, in shop mode and without the fakes.
+   */
+  testOnly?: boolean;
   /** Own-shop answers that differ from "allowed": a trainee records readings only on jobs assigned to them. */
   own?: Partial<Record<Role, number>>;
 }
@@ -174,6 +179,10 @@ const TABLE: Entry[] = [
   { method: 'POST', path: '/api/invoices/:id/send', roles: BENCH, kind: 'invoice', billing: true },
   { method: 'GET', path: '/api/dev/mail', roles: ADMIN, billing: true },
   { method: 'GET', path: '/api/dev/mail/:id', roles: ADMIN, billing: true },
+  // A browser spec's own shop: made and removed without a session, on a demo server with the local fakes only.
+  { method: 'POST', path: '/api/testing/shops', testOnly: true },
+  { method: 'GET', path: '/api/testing/shops/:id/rows', testOnly: true },
+  { method: 'DELETE', path: '/api/testing/shops/:id', testOnly: true },
 ];
 
 let server: RunningServer;
@@ -254,6 +263,15 @@ describe('authorization matrix', () => {
 
   for (const e of TABLE) {
     it(`${e.method} ${e.path}`, async () => {
+      if (e.testOnly) {
+        for (const change of [{ SPLITSCOPE_MODE: 'shop' as const }, { LOCAL_FAKES: '0' as const }]) {
+          const other = await listenApp(createApp({ ...server.ctx, config: { ...server.ctx.config, ...change } }));
+          const r = await call(new Client(other.url), e, 'own');
+          other.close();
+          expect(r.status, `absent with ${JSON.stringify(change)}`).toBe(404);
+        }
+        return;
+      }
       const anon = await call(new Client(server.url), e, 'own');
       if (e.public) {
         expect(anon.status, 'answers without a session').not.toBe(401);

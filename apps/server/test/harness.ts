@@ -1,4 +1,5 @@
 // Starts the real server in-process on a free port against the test database that `npm test` prepared.
+import type { Express } from 'express';
 import { loadConfig } from '../src/config';
 import { startServer, type RunningServer } from '../src/server';
 
@@ -68,4 +69,12 @@ export async function createEmptyDatabase(name: string): Promise<{ url: string; 
       await admin.end();
     },
   };
+}
+
+/** Serves an app built with another configuration (createApp) on a free port until `close`. */
+export async function listenApp(app: Express): Promise<{ url: string; close(): void }> {
+  const listening = app.listen(0, '127.0.0.1');
+  await new Promise((ok) => listening.once('listening', ok));
+  const { port } = listening.address() as { port: number };
+  return { url: `http://127.0.0.1:${port}`, close: () => listening.close() };
 }

@@ -38,31 +38,3 @@ describe('short sweeps of twins', () => {
     expect(out.nextTests.some((t) => (t.lifted ?? []).length > 0)).toBe(true);
   });
 });
-
-/**
- * An open that leaks nothing. A feed resistor burnt through leaves the LED anode with no path but the meter's own
- * 10 MΩ input: it reads 0 V. The open sweep's 1 GΩ point still reads 15 V × 10 MΩ / 1.01 GΩ ≈ 0.15 V there (Ohm's
- * law), so without a point beyond it only "open + LED shorted" explained the 0 V (common practice: an open part
- * measures as nothing at all).
- */
-const FEED = `LED feed (invented)
-.model DL D(is=1e-20 n=1.8)
-V1 vf 0 DC 15
-R1 vf fa 3.3k
-D1 fa fg DL
-R2 fg 0 220
-.end`;
-
-describe('open sweep', () => {
-  it('a burnt-through feed resistor (0 V at the LED anode) is the open resistor alone', () => {
-    const d = createDiagnoser({ netlist: FEED });
-    const out = d.update(
-      [
-        { mode: 'dcv', red: 'fa', black: '0', value: 0, power: 'on' },
-        { mode: 'dcv', red: 'fg', black: '0', value: 0, power: 'on' },
-      ],
-      { top: 5, nextTests: 0 },
-    );
-    expect(out.candidates[0]!.faults).toEqual([{ part: 'R1', mode: 'open' }]);
-  });
-});

@@ -3,6 +3,7 @@ import { request, type APIRequestContext } from '@playwright/test';
 import { DIVIDER_BOARD } from '../../../apps/server/src/testing/boards';
 import { readingRequest } from '../../../apps/server/src/testing/requests';
 import { DEMO_PASSWORD, expect } from '../fixtures';
+import type { TestShop } from './own-shop';
 
 /**
  * A job of a spec's own on an invented divider board, taken through the flow by the people whose role each step
@@ -29,12 +30,12 @@ export function dividerBoard(tag: string) {
   return { ...DIVIDER_BOARD, id: `e2e-divider-${tag}`, slug: `e2e-divider-${tag}`, name: `Divider test board ${tag}` };
 }
 
-/** The spec's own board model and customer. */
-export async function benchSetup() {
+/** The spec's own board model and customer, in the spec's shop (support/own-shop.ts). */
+export async function benchSetup(shop: TestShop) {
   const tag = randomUUID().slice(0, 8);
-  const admin = await apiAs('admin@demo.test');
-  const tech = await apiAs('tech@demo.test');
-  const lead = await apiAs('lead@demo.test');
+  const admin = await apiAs(shop.users.admin.email);
+  const tech = await apiAs(shop.users.tech.email);
+  const lead = await apiAs(shop.users.lead.email);
   const board = await send<{ id: string }>(admin, 'post', '/boards', { document: dividerBoard(tag) });
   const customer = await send<{ id: string }>(tech, 'post', '/customers', { name: `Spec Cooling ${tag}`, kind: 'contractor' });
   return { tag, admin, tech, lead, boardId: board.id, customerId: customer.id };

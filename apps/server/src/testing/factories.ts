@@ -1,6 +1,6 @@
 // Factories shared by the demo seed and the tests: one way to make a shop or a user.
 import { eq } from 'drizzle-orm';
-import type { BoardModel, CreateJobRequest, Role } from '@splitscope/contract';
+import type { BoardModel, CreateJobRequest, ExpectedReadingRow, Role } from '@splitscope/contract';
 import { hashPassword } from '../auth/password';
 import type { Db } from '../db/client';
 import { boardModels, customers, jobs, shops, users } from '../db/schema';
@@ -38,12 +38,15 @@ export async function createCustomer(db: Db, overrides: Partial<typeof customers
 }
 
 /** A board model at version 1 (skipped when the id is already there). */
-export async function createBoardModel(db: Db, o: { shopId: string; createdBy: string; id?: string; document?: BoardModel }) {
+export async function createBoardModel(
+  db: Db,
+  o: { shopId: string; createdBy: string; id?: string; document?: BoardModel; expectedReadings?: ExpectedReadingRow[] },
+) {
   const id = o.id ?? newId();
   const [exists] = await db.select({ id: boardModels.id }).from(boardModels).where(eq(boardModels.id, id));
   if (exists) return { id };
   const document = o.document ?? { ...DIVIDER_BOARD, id: `test-divider-${id}` };
-  await createBoard({ db, actor: { id: o.createdBy, shopId: o.shopId }, document, id });
+  await createBoard({ db, actor: { id: o.createdBy, shopId: o.shopId }, document, id, expectedReadings: o.expectedReadings });
   return { id };
 }
 

@@ -18,6 +18,20 @@ export function readingRequest(
   return { idempotencyKey: crypto.randomUUID(), raw: String(r.value), ...r };
 }
 
+/**
+ * A shop of a browser spec's own (apps/server/src/testing/test-shops.ts), as the test-only route answers it: one
+ * person per role (signed in with TEST_SHOP_PASSWORD) and the demo boards published in it under `boards`.
+ */
+export interface TestShop {
+  id: string;
+  name: string;
+  users: Record<'admin' | 'lead' | 'tech' | 'trainee', { id: string; email: string; name: string }>;
+  boards: Record<keyof typeof DEMO_BOARD_IDS, string>;
+}
+
+/** The demo people's password, so a spec signs a test shop's people in as it signs the demo's. */
+export const TEST_SHOP_PASSWORD = 'splitscope-demo';
+
 /** The reading most integration tests start from: DC V powered, TP2 to ground, 7.5 V (the demo board's divider). */
 export function dividerReading(over: Partial<CreateReadingRequest> = {}): CreateReadingRequest {
   return readingRequest({ mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', value: 7.5, ...over });

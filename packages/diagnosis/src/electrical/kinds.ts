@@ -14,9 +14,7 @@
  *   sweep is a quadrature of the unknown short's resistance; on different grids a short between two points fits the
  *   twin whose grid lies nearer, and the grid, not the evidence, picks the part (the marginal likelihood of a
  *   parameterised model, MacKay, "Information Theory, Inference, and Learning Algorithms", 2003, ch. 28; from memory).
- * - `open`: a very high resistance (1 MΩ … 1 GΩ): cracked films and lifted joints leak; and 1 TΩ, an open that leaks
- *   nothing (burnt through, a part missing): behind a 1 GΩ leak a 10 MΩ DC voltmeter still reads 1 % of the rail, where
- *   a true open reads 0 V, and without that point only a second fault explained the 0 V (Ohm's law; common practice).
+ * - `open`: a very high resistance (1 MΩ … 1 GΩ), not a missing element: cracked films and lifted joints leak.
  * - `drift`: a multiplier on the value (×0.5 … ×10); carbon and metal-film resistors under stress mostly go
  *   high (common practice), so the sweep is weighted towards ×2 … ×10.
  * - `leaky`: a capacitor with a parallel resistance of hundreds of ohms to tens of kilohms.
@@ -85,7 +83,7 @@ export interface ModeTemplate {
 }
 
 const SHORT_GRID = [0.1, 0.3, 1, 3, 10, 30];
-const OPEN = [1e6, 1e7, 1e8, 1e9, 1e12];
+const OPEN = [1e6, 1e7, 1e8, 1e9];
 
 export const DEFAULT_MODES: Readonly<Record<PartKind, readonly ModeTemplate[]>> = {
   resistor: [

@@ -187,14 +187,17 @@ export async function createBoard({
   document,
   note,
   id,
+  expectedReadings,
 }: {
   db: Db;
   actor: Pick<Actor, 'id' | 'shopId'>;
   document: BoardDocument;
   note?: string | null;
   id?: string;
+  /** The table another stored version of this same document already holds (a test shop's copy of a demo board). */
+  expectedReadings?: ExpectedReadingRow[];
 }) {
-  const prepared = await prepareVersion(db, actor.shopId, document);
+  const prepared = expectedReadings ? { key: document.id, name: document.name.trim(), expectedReadings } : await prepareVersion(db, actor.shopId, document);
   const boardId = id ?? newId();
   await db.transaction(async (tx) => {
     const [clash] = await tx
