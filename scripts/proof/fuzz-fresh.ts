@@ -2,11 +2,15 @@
 // invitation token), a duplicate to merge, a fault code to delete, a sent quote and its customer link, an invoiced
 // job, a stored picture, a board taken in from its photo. The fuzzer makes a fresh one through the API before a
 // route's first payload and again after each accepted payload that used one up, so each route is exercised on
-// its accepted path. Where a step has no API (the reset token reaches a person only by e-mail, the sign-off of a
-// repair needs the board's verification readings) the step is written to the database and named below.
+// its accepted path. Jobs are taken through their statuses over the API by the shared job driver
+// (apps/server/src/testing/job-driver.ts). Where a step has no API (the reset token reaches a person only by
+// e-mail) the step is written to the database and named below.
 import { createHash, randomBytes, randomUUID } from 'node:crypto';
 import type pg from 'pg';
+import type { JobStatus } from '../../packages/contract/src/index';
+import { healthyReading, jobDriver } from '../../apps/server/src/testing/job-driver';
 import { smallPicture } from '../../apps/server/src/testing/pictures';
+import { DEMO_BOARD_IDS } from '../../apps/server/src/testing/requests';
 import { signIn, type Session } from './env';
 
 /** Path parameters (`:id` → value) and body fields whose value the fuzzer sends as made here. */
@@ -19,6 +23,8 @@ interface Api {
   session(who: Who): Promise<Session>;
   call(who: Who, method: string, path: string, body?: unknown): Promise<Record<string, unknown>>;
   db: pg.Client;
+  /** Made on first use: it reads the board once. */
+  driver?: ReturnType<typeof jobDriver>;
 }
 /**
  * The set-up steps' own people (one per role, made by the fuzzer beside the demo's): a fuzzed password change or
@@ -32,6 +38,8 @@ interface Precondition {
   fields?: string[];
   /** An accepted payload used it up (a token, a duplicate, a decision): the next payload gets a fresh one. */
   once: boolean;
+  /** After an accepted payload: what the next payload uses instead (a correction corrects the newest reading). */
+  accepted?(fresh: Fresh, answer: string): void;
   make(api: Api): Promise<Fresh>;
 }
 
@@ -43,7 +51,7 @@ async function upload(url: string, session: Session): Promise<{ uploadId: string
   const r = await fetch(`${url}/api/uploads?name=fuzz-board.${p.type === 'image/png' ? 'png' : 'jpg'}`, {
     method: 'POST',
     headers: { 'content-type': p.type, cookie: session.cookie },
-    body: p.bytes,
+    body: new Uint8Array(p.bytes),
   });
   if (r.status !== 201) throw new Error(`fuzz set-up: an upload answered ${r.status}: ${await r.text()}`);
   const up = (await r.json()) as { id: string; width: number; height: number };
@@ -56,21 +64,19 @@ async function unlistedBoard(api: Api, url: string, session: Session) {
   return String(board.id);
 }
 
+/** The shared job driver on the demo outdoor fan board, calling the API as the set-up's own people. */
+function driverOf(api: Api): ReturnType<typeof jobDriver> {
+  return (api.driver ??= jobDriver((who, method, path, body) => api.call(who, method.toUpperCase(), `/api${path}`, body), DEMO_BOARD_IDS.outdoorFan));
+}
+
 /** A job of a demo customer (e-mail on file) on the outdoor fan board, with a quote sent: its link token from the mail. */
 async function sentQuote(api: Api) {
-  const board = (await api.db.query<{ id: string }>("SELECT id FROM board_models WHERE shop_id = 'shop-demo' AND current_version > 0 ORDER BY id LIMIT 1"))
-    .rows[0]!;
-  const job = await api.call('tech', 'POST', '/api/jobs', {
-    customerId: 'customer-coastline',
-    unitDescription: 'Outdoor unit (fuzz)',
-    boardId: board.id,
-    symptom: 'Outdoor fan never starts',
-  });
-  const quote = await api.call('tech', 'POST', `/api/jobs/${String(job.id)}/quotes`, {
+  const jobId = await (await driverOf(api)).jobAt('received', { customerId: 'customer-coastline', unitDescription: 'Outdoor unit (fuzz)' });
+  const quote = await api.call('tech', 'POST', `/api/jobs/${jobId}/quotes`, {
     lines: [{ kind: 'labour', description: 'Bench diagnosis', quantity: '1', unitCents: 4500 }],
   });
   await api.call('tech', 'POST', `/api/quotes/${String(quote.id)}/send`, {});
-  return { jobId: String(job.id), quoteId: String(quote.id), token: await linkOfMail(api, 'Quote') };
+  return { jobId, quoteId: String(quote.id), token: await linkOfMail(api, 'Quote') };
 }
 
 const seenMail = new Set<string>();
@@ -91,15 +97,11 @@ async function linkOfMail(api: Api, subject: 'Quote' | 'Invoice'): Promise<strin
   throw new Error(`fuzz set-up: no new ${subject} mail in the outbox`);
 }
 
-/**
- * A sent quote's job taken to `verified`. The customer approves the quote through its link (API); the sign-off
- * needs the verification readings of the board model and the diagnosis engine's run, which the fuzzer does not
- * repeat for every job: the status is written to the database, as the billing tests do.
- */
+/** A sent quote's job, the quote approved by the customer through its link, then taken to verified by the job driver. */
 async function verifiedJob(api: Api) {
   const q = await sentQuote(api);
   await api.call('admin', 'POST', `/api/public/links/${q.token}/quotes/${q.quoteId}/approve`);
-  await api.db.query("UPDATE jobs SET status = 'verified' WHERE id = $1", [q.jobId]);
+  await (await driverOf(api)).advance(q.jobId, 'received', 'verified');
   return q;
 }
 
@@ -110,50 +112,31 @@ async function invoicedJob(api: Api) {
   return { ...q, invoiceId: String(inv.id), token: await linkOfMail(api, 'Invoice') };
 }
 
-interface JobOfBoard {
-  board?: { document?: { testPoints?: { id: string; reference?: string; modes?: string[]; powerStates?: string[] }[] } };
-}
+/** A fresh job of a demo customer taken to `status` by the job driver. */
+const jobAt = async (api: Api, status: JobStatus) =>
+  (await driverOf(api)).jobAt(status, { customerId: 'customer-jun', unitDescription: 'Outdoor unit (fuzz)', symptom: 'Fan starts, then stops' });
 
-/** A fresh job of the demo shop taken along the flow through the API: received → diagnosing → awaiting-review → approved. */
-async function jobAt(api: Api, status: 'diagnosing' | 'awaiting-review' | 'approved'): Promise<string> {
-  const board = (await api.db.query<{ id: string }>("SELECT id FROM board_models WHERE shop_id = 'shop-demo' AND current_version > 0 ORDER BY id LIMIT 1"))
-    .rows[0]!;
-  const id = String(
-    (
-      await api.call('tech', 'POST', '/api/jobs', {
-        customerId: 'customer-jun',
-        unitDescription: 'Outdoor unit (fuzz)',
-        boardId: board.id,
-        symptom: 'Fan starts, then stops',
-      })
-    ).id,
-  );
-  await api.call('tech', 'PATCH', `/api/jobs/${id}`, { status: 'diagnosing' });
-  if (status === 'diagnosing') return id;
-  // the technician proposes, a lead approves: the shop's duty rules keep the two people apart
-  await api.call('tech', 'PATCH', `/api/jobs/${id}`, { status: 'awaiting-review', proposedPart: 'Q1' });
-  if (status === 'awaiting-review') return id;
-  await api.call('lead', 'POST', `/api/jobs/${id}/reviews`, { decision: 'approve', comment: 'Agreed.' });
-  return id;
-}
-
-/** A job in diagnosis with one reading on it (a powered DC V reading at a test point its board model has). */
+/** A job in diagnosis with a reading of the set-up technician's on it: the reading a correction or a strike names. */
 async function jobWithReading(api: Api): Promise<Fresh> {
+  const driver = await driverOf(api);
   const id = await jobAt(api, 'diagnosing');
-  const detail = (await api.call('tech', 'GET', `/api/jobs/${id}`)) as JobOfBoard;
-  const tp = detail.board?.document?.testPoints?.find((t) => t.modes?.includes('dcv') && t.powerStates?.includes('on'));
-  const reading = await api.call('tech', 'POST', `/api/jobs/${id}/readings`, {
-    idempotencyKey: randomUUID(),
-    mode: 'dcv',
-    red: tp?.id ?? 'GND',
-    black: tp?.reference || 'GND',
+  const row = driver.board.expectedReadings.find((r) => r.mode === 'dcv' && r.power === 'on' && r.lifted.length === 0)!;
+  const reading = await api.call('tech', 'POST', `/api/jobs/${id}/readings`, healthyReading(row, 'diagnosis'));
+  return { params: { id, readingId: String(reading.id) }, fields: { supersedes: String(reading.id) } };
+}
+
+/** A job in diagnosis and the set-up's meter profile (a log of two columns, Point and Reading, DC V powered). */
+async function meterImport(api: Api): Promise<Fresh> {
+  const { board } = await driverOf(api);
+  const black = board.expectedReadings.find((r) => r.mode === 'dcv' && r.power === 'on')?.black ?? 'gnd';
+  const profile = await api.call('tech', 'PUT', '/api/meter-profiles', {
+    name: 'Fuzz bench meter',
+    mapping: { point: 'Point', value: 'Reading' },
+    defaultMode: 'dcv',
+    defaultReference: black,
     power: 'on',
-    lifted: [],
-    value: 14.9,
-    raw: '14.90 V',
-    phase: 'diagnosis',
   });
-  return { params: { id, readingId: String(reading.id) }, fields: {} };
+  return { params: { id: await jobAt(api, 'diagnosing') }, fields: { profileId: String(profile.id) } };
 }
 
 /** Preconditions by route (`METHOD /path` as the route files spell it). */
@@ -266,13 +249,21 @@ export function preconditions(url: string): Record<string, Precondition> {
     'GET /api/public/links/:token/logo': linkRoute('quote', false),
     'GET /api/public/links/:token/report.pdf': linkRoute('verified', false),
     'POST /api/public/links/:token/invoices/:id/checkout': linkRoute('invoice', true),
-    'POST /api/jobs/:id/readings': { once: false, make: async (api) => ({ params: { id: await jobAt(api, 'diagnosing') }, fields: {} }) },
+    'POST /api/jobs/:id/readings': {
+      once: false,
+      make: jobWithReading,
+      accepted: (fresh, answer) => {
+        fresh.fields.supersedes = (JSON.parse(answer) as { id: string }).id;
+      },
+    },
     'POST /api/jobs/:id/readings/:readingId/strike': { once: true, make: jobWithReading },
-    'POST /api/jobs/:id/meter-import/preview': { once: false, make: async (api) => ({ params: { id: await jobAt(api, 'diagnosing') }, fields: {} }) },
-    'POST /api/jobs/:id/meter-import': { once: false, make: async (api) => ({ params: { id: await jobAt(api, 'diagnosing') }, fields: {} }) },
+    'POST /api/jobs/:id/meter-import/preview': { once: false, make: meterImport },
+    'POST /api/jobs/:id/meter-import': { once: false, make: meterImport },
     'POST /api/jobs/:id/reviews': { once: true, make: async (api) => ({ params: { id: await jobAt(api, 'awaiting-review') }, fields: {} }) },
     'POST /api/jobs/:id/repairs': { once: false, make: async (api) => ({ params: { id: await jobAt(api, 'approved') }, fields: {} }) },
-    'POST /api/jobs/:id/reference': { once: true, make: async (api) => ({ params: { id: (await verifiedJob(api)).jobId }, fields: {} }) },
+    'POST /api/jobs/:id/reference': { once: true, make: async (api) => ({ params: { id: await jobAt(api, 'verified') }, fields: {} }) },
+    // the board the bench routes' bodies are drawn from (fuzz-bodies.ts)
+    'POST /api/boards/:id/references': { once: false, make: async () => ({ params: { id: DEMO_BOARD_IDS.outdoorFan }, fields: {} }) },
     'GET /api/dev/mail/:id': {
       once: false,
       make: async (api) => {
@@ -281,7 +272,13 @@ export function preconditions(url: string): Record<string, Precondition> {
         return { params: { id: list.items[0]?.id ?? 'no-such-id' }, fields: {} };
       },
     },
-    'POST /api/jobs/:jobId/invoices': { once: true, make: async (api) => ({ params: { jobId: (await verifiedJob(api)).jobId }, fields: {} }) },
+    'POST /api/jobs/:jobId/invoices': {
+      once: true,
+      make: async (api) => {
+        const q = await verifiedJob(api);
+        return { params: { jobId: q.jobId }, fields: { quoteId: q.quoteId } };
+      },
+    },
     'GET /api/invoices/:id': { once: false, make: async (api) => ({ params: { id: (await invoicedJob(api)).invoiceId }, fields: {} }) },
     'POST /api/invoices/:id/send': { once: false, make: async (api) => ({ params: { id: (await invoicedJob(api)).invoiceId }, fields: {} }) },
   };
@@ -332,3 +329,6 @@ export function setupApi(url: string, db: pg.Client): Api {
   };
   return { session, call, db };
 }
+
+/** The board the set-ups open their jobs on, as its detail (expected table, parts). */
+export const setupBoard = async (api: Api) => (await driverOf(api)).board;

@@ -9,16 +9,26 @@ interface Def {
   [k: string]: unknown;
 }
 const defOf = (s: Any) => (s as unknown as { _zod: { def: Def; optin?: string } })._zod.def;
+/** The checks on a schema (length bounds, patterns, refinements), as zod keeps them. */
+const checksOf = (s: Any) => ((defOf(s).checks ?? []) as { _zod: { def: Record<string, unknown> } }[]).map((c) => c._zod.def);
+const patternOf = (s: Any) => checksOf(s).find((c) => c.pattern)?.pattern as RegExp | undefined;
+const parses = (s: Any, v: unknown) => (s as { safeParse(v: unknown): { success: boolean } }).safeParse(v).success;
 const isOptional = (s: Any) => (s as unknown as { _zod: { optin?: string } })._zod.optin === 'optional';
 
 /** Ids of real rows by the field name that carries them (customerId, boardId, ...): set before generating. */
 export const realIds: Record<string, unknown[]> = {};
 
+/**
+ * Values by field name: a list of real values is mixed with the schema's own (four in five from the list); an
+ * arbitrary is the field's only source, for fields whose valid values depend on each other or on a row.
+ */
+export type Ids = Record<string, unknown[] | fc.Arbitrary<unknown>>;
+
 const safeChars = fc.constantFrom(...'abcdefghijklmnopqrstuvwxyz0123456789-'.split(''));
 const safeLetters = fc.constantFrom(...'abcdefghijklmnopqrstuvwxyz0123456789'.split(''));
 
 /** Values the schema's shape accepts (constraints beyond the shape, such as refinements, may still refuse them). */
-export function validArb(schema: Any, depth = 0, ids: Record<string, unknown[]> = realIds): fc.Arbitrary<unknown> {
+export function validArb(schema: Any, depth = 0, ids: Ids = realIds): fc.Arbitrary<unknown> {
   const def = defOf(schema);
   const s = schema as unknown as Record<string, unknown>;
   switch (def.type) {
@@ -32,11 +42,13 @@ export function validArb(schema: Any, depth = 0, ids: Record<string, unknown[]> 
           .map(([a, b]) => `${a}@${b}.test`);
       if (format === 'uuid') return fc.uuid();
       if (format === 'url') return fc.webUrl();
-      // The schema's own pattern: values a `^\d{1,3}(\.\d{1,3})?$` tax rate or a quantity accepts, not a made-up shape.
+      // The schema's own pattern: values a `^\d{1,3}(\.\d{1,3})?$` tax rate or a quantity accepts, not a made-up
+      // shape; with a rule beyond the pattern (a tax rate of at most 100 %), only the pattern's values it takes.
       if (format === 'regex') {
-        const check = ((s._zod as { def: { checks?: { _zod: { def: { pattern?: RegExp } } }[] } }).def.checks ?? []).find((c) => c._zod.def.pattern);
-        const pattern = check?._zod.def.pattern;
-        return pattern ? fc.stringMatching(pattern).filter((v) => v.trim() === v) : fc.nat(999).map((n) => `TP${n}`);
+        const pattern = patternOf(schema);
+        if (!pattern) return fc.nat(999).map((n) => `TP${n}`);
+        const refined = checksOf(schema).some((c) => c.check === 'custom');
+        return fc.stringMatching(pattern).filter((v) => v.trim() === v && (!refined || parses(schema, v)));
       }
       const min = Math.max(1, Number(s.minLength ?? 1));
       const max = Math.max(min, Math.min(Number(s.maxLength ?? 40), 40));
@@ -45,9 +57,15 @@ export function validArb(schema: Any, depth = 0, ids: Record<string, unknown[]> 
     case 'number': {
       const min = Number.isFinite(s.minValue as number) ? (s.minValue as number) : -1e6;
       const max = Number.isFinite(s.maxValue as number) ? (s.maxValue as number) : 1e6;
-      return s.isInt
-        ? fc.integer({ min: Math.ceil(Math.max(min, -1e9)), max: Math.floor(Math.min(max, 1e9)) })
-        : fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
+      const lo = s.isInt ? Math.ceil(Math.max(min, -1e9)) : min;
+      const hi = s.isInt ? Math.floor(Math.min(max, 1e9)) : max;
+      const full = s.isInt ? fc.integer({ min: lo, max: hi }) : fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
+      // Mostly everyday sizes: a sum of several fields at the top of their range breaks a rule on the sum (a
+      // quote's total), and the rules beyond the sum are what the valid space is for; the edges still come.
+      const [smallLo, smallHi] = [Math.max(lo, -1000), Math.min(hi, 10_000)];
+      if (smallLo > smallHi) return full;
+      const small = s.isInt ? fc.integer({ min: smallLo, max: smallHi }) : fc.double({ min: smallLo, max: smallHi, noNaN: true });
+      return fc.oneof({ weight: 3, arbitrary: small }, { weight: 1, arbitrary: full });
     }
     case 'int':
       return fc.integer({ min: 0, max: 1000 });
@@ -57,17 +75,27 @@ export function validArb(schema: Any, depth = 0, ids: Record<string, unknown[]> 
       return fc.constantFrom(...Object.values(def.entries as Record<string, string>));
     case 'literal':
       return fc.constantFrom(...(def.values as unknown[]));
-    case 'array':
-      return depth > 4 ? fc.constant([]) : fc.array(validArb(def.element as Any, depth + 1, ids), { maxLength: 3 });
+    case 'array': {
+      const bound = (kind: string) => checksOf(schema).find((c) => c.check === kind)?.[kind === 'min_length' ? 'minimum' : 'maximum'];
+      const minLength = Math.min(Number(bound('min_length') ?? 0), 3);
+      const maxLength = Math.max(minLength, Math.min(Number(bound('max_length') ?? 3), 3));
+      if (depth > 4) return fc.constant([]);
+      const items = fc.array(validArb(def.element as Any, depth + 1, ids), { minLength, maxLength });
+      // a rule over the whole list (a quote's lines add up to less than the money range): the lists it takes
+      return checksOf(schema).some((c) => c.check === 'custom') ? items.filter((v) => parses(schema, v)) : items;
+    }
     case 'object': {
       const shape = def.shape as Record<string, Any>;
       const model: Record<string, fc.Arbitrary<unknown>> = {};
       const required: string[] = [];
       for (const [k, v] of Object.entries(shape)) {
         const real = ids[k];
-        model[k] = real?.length
-          ? fc.oneof({ weight: 4, arbitrary: fc.constantFrom(...real) }, { weight: 1, arbitrary: validArb(v, depth + 1, ids) })
-          : validArb(v, depth + 1, ids);
+        model[k] =
+          real instanceof fc.Arbitrary
+            ? real
+            : real?.length
+              ? fc.oneof({ weight: 4, arbitrary: fc.constantFrom(...real) }, { weight: 1, arbitrary: validArb(v, depth + 1, ids) })
+              : validArb(v, depth + 1, ids);
         if (!isOptional(v)) required.push(k);
       }
       return fc.record(model, { requiredKeys: required as never[] });
@@ -181,9 +209,9 @@ function stringifySafe(v: unknown): string {
 }
 
 /** Malformed and boundary bodies for one schema (and a share of well-formed ones, so boundaries get through). */
-export function payloadArb(schema: Any, ids: Record<string, unknown[]> = realIds): fc.Arbitrary<FuzzPayload> {
+export function payloadArb(schema: Any, ids: Ids = realIds, valid: fc.Arbitrary<unknown> = validArb(schema, 0, ids)): fc.Arbitrary<FuzzPayload> {
   const def = defOf(schema);
-  return payloadArbOf(validArb(schema, 0, ids), def.type === 'object' ? Object.keys(def.shape as object) : []);
+  return payloadArbOf(valid, def.type === 'object' ? Object.keys(def.shape as object) : []);
 }
 
 /** The same mix for a body no contract schema describes (a payment event): well-formed values and their breakages. */

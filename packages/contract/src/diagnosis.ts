@@ -89,6 +89,7 @@ export const priorReasonSchema = z.object({
   ),
 });
 export type PriorReason = z.infer<typeof priorReasonSchema>;
+const priorNoteSchema = z.object({ source: priorSourceSchema, text: z.string(), parts: z.array(z.string()) });
 
 /** The output of `pnpm diagnose` for a job's current readings, plus where it came from. */
 export const diagnosisResponse = z.object({
@@ -105,6 +106,11 @@ export const diagnosisResponse = z.object({
   entropy: z.number(),
   /** Priors this job moved, with their reasons (largest move first); empty when none moved. */
   priors: z.array(priorReasonSchema).default([]),
+  /**
+   * Why they moved, one line per reason in the engine's words, this job's own evidence first; a reason moving many
+   * parts names the few it moves most and counts the rest ("R12, R7, R3 and 27 other resistors").
+   */
+  priorNotes: z.array(priorNoteSchema).default([]),
   /** The board's expected values for every fault are still being computed: parts done of the total. */
   preparing: z.object({ partsDone: z.number().int(), partsTotal: z.number().int() }).optional(),
   /** Candidates still being checked (mostly fault pairs the readings call for); the ranking updates when they arrive. */
@@ -163,6 +169,7 @@ export function readableDiagnosis(stored: unknown): { output: Diagnosis; unreada
     nextTests: list('nextTests', nextTestSchema),
     entropy: one('entropy', z.number(), 0),
     priors: list('priors', priorReasonSchema),
+    priorNotes: list('priorNotes', priorNoteSchema),
   };
   return { output, unreadable };
 }

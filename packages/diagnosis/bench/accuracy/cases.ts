@@ -32,113 +32,101 @@ const ceShort = (part: string) => fault(part, { do: 'ce-short', ohms: 1 }, `${pa
 const beOpen = (part: string) => fault(part, { do: 'be-open' }, `${part} base–emitter open`, /^be-open$/);
 const ledOpen = (part: string) => fault(part, { do: 'inner', element: 'DLED', inner: { do: 'open' } }, `${part} opto — LED open`, /^dled:open$/);
 const dcv = (red: string, black = '0'): Probe => ({ mode: 'dcv', red, black, power: 'on' });
+const dcvs = (...reds: string[]): Probe[] => reds.map((r) => dcv(r));
 const beep = (red: string, black = '0'): Probe => ({ mode: 'continuity', red, black, power: 'off' });
 
+/**
+ * One case: the board, the symptom the unit came in with, the first readings (a net name is a powered DC V reading
+ * to ground) and the faults; `more` adds the board's parameters and the note for the table's reader.
+ */
+function kase(
+  id: string,
+  board: BenchBoard,
+  symptom: string,
+  start: string | Probe[],
+  faults: TrueFault[],
+  more: Pick<BenchCase, 'params' | 'note'> = {},
+): BenchCase {
+  return {
+    id,
+    board,
+    ...(more.params ? { params: more.params } : {}),
+    symptom,
+    faults,
+    start: typeof start === 'string' ? [dcv(start)] : start,
+    ...(more.note ? { note: more.note } : {}),
+  };
+}
+
 export const CASES: BenchCase[] = [
-  {
-    id: 'B01-bulk-open',
-    board: B01_BUS,
-    symptom: 'F3 bus voltage out of range',
-    start: [dcv('bus')],
-    // Model: with C101 open the bus is the unsmoothed full-wave rectified mains; a DC meter reads its mean
-    // (2√2/π·Vrms less the bridge drops), which the transient ground truth computes directly.
-    faults: [fault('C101', { do: 'open' }, 'C101 bulk capacitor open (dried out)', /open|dry|dried|capacit/)],
-    note: 'not in the DC model: the honest answer is "not explained"',
-  },
-  { id: 'B01-sense-drift', board: B01_BUS, symptom: 'F3 bus voltage out of range', start: [dcv('bs')], faults: [drift('R103', 2.5)] },
-  {
-    id: 'B01-bridge-short',
-    board: B01_BUS,
-    symptom: 'mains fuse blown, board dead',
-    start: [beep('n', '0')],
-    faults: [short('D104', 0.5)],
+  // Model: with C101 open the bus is the unsmoothed full-wave rectified mains; a DC meter reads its mean
+  // (2√2/π·Vrms less the bridge drops), which the transient ground truth computes directly.
+  kase(
+    'B01-bulk-open',
+    B01_BUS,
+    'F3 bus voltage out of range',
+    'bus',
+    [fault('C101', { do: 'open' }, 'C101 bulk capacitor open (dried out)', /open|dry|dried|capacit/)],
+    {
+      note: 'not in the DC model: the honest answer is "not explained"',
+    },
+  ),
+  kase('B01-sense-drift', B01_BUS, 'F3 bus voltage out of range', 'bs', [drift('R103', 2.5)]),
+  kase('B01-bridge-short', B01_BUS, 'mains fuse blown, board dead', [beep('n', '0')], [short('D104', 0.5)], {
     note: 'starts unpowered; a powered test on it is a hazard',
-  },
-  { id: 'B02-zener-short', board: B02_REG15, symptom: 'no 15 V, board dead', start: [dcv('v15')], faults: [short('DZ201', 0.3)] },
-  { id: 'B02-pass-be-open', board: B02_REG15, symptom: 'no 15 V, board dead', start: [dcv('v15')], faults: [beOpen('Q201')] },
-  { id: 'B02-cap-short', board: B02_REG15, symptom: 'no 15 V, board dead', start: [dcv('v15')], faults: [short('C203', 0.2)] },
-  {
-    id: 'B03-reg-dead',
-    board: B03_REG5,
-    symptom: 'controller dead, no 5 V',
-    start: [dcv('v5')],
-    faults: [fault('XU301', { do: 'inner', element: 'QPASS', inner: { do: 'open' } }, 'XU301 regulator dead (no output)', /^dead$/)],
-  },
-  { id: 'B03-cap-short', board: B03_REG5, symptom: 'controller dead, no 5 V', start: [dcv('v5')], faults: [short('C302', 0.2)] },
-  { id: 'B04-led-open', board: B04_FAN_SWITCH, symptom: 'outdoor fan never starts', start: [dcv('vf')], faults: [ledOpen('XU401')] },
-  { id: 'B04-switch-be-open', board: B04_FAN_SWITCH, symptom: 'outdoor fan never starts', start: [dcv('vf')], faults: [beOpen('Q401')] },
-  { id: 'B04-drive-r-open', board: B04_FAN_SWITCH, symptom: 'outdoor fan never starts', start: [dcv('vf')], faults: [open('R402')] },
-  {
-    id: 'B04-cap+ce-short',
-    board: B04_FAN_SWITCH,
-    symptom: 'outdoor fan never starts, 15 V rail low',
-    start: [dcv('vf'), dcv('v15')],
-    faults: [short('C401', 0.2), ceShort('Q401')],
+  }),
+  kase('B02-zener-short', B02_REG15, 'no 15 V, board dead', 'v15', [short('DZ201', 0.3)]),
+  kase('B02-pass-be-open', B02_REG15, 'no 15 V, board dead', 'v15', [beOpen('Q201')]),
+  kase('B02-cap-short', B02_REG15, 'no 15 V, board dead', 'v15', [short('C203', 0.2)]),
+  kase('B03-reg-dead', B03_REG5, 'controller dead, no 5 V', 'v5', [
+    fault('XU301', { do: 'inner', element: 'QPASS', inner: { do: 'open' } }, 'XU301 regulator dead (no output)', /^dead$/),
+  ]),
+  kase('B03-cap-short', B03_REG5, 'controller dead, no 5 V', 'v5', [short('C302', 0.2)]),
+  kase('B04-led-open', B04_FAN_SWITCH, 'outdoor fan never starts', 'vf', [ledOpen('XU401')]),
+  kase('B04-switch-be-open', B04_FAN_SWITCH, 'outdoor fan never starts', 'vf', [beOpen('Q401')]),
+  kase('B04-drive-r-open', B04_FAN_SWITCH, 'outdoor fan never starts', 'vf', [open('R402')]),
+  kase('B04-cap+ce-short', B04_FAN_SWITCH, 'outdoor fan never starts, 15 V rail low', dcvs('vf', 'v15'), [short('C401', 0.2), ceShort('Q401')], {
     note: 'masked pair: the C–E short shows nothing alone with the fan on',
-  },
-  {
-    id: 'B04-ce-short+led-open',
-    board: B04_FAN_SWITCH,
+  }),
+  kase('B04-ce-short+led-open', B04_FAN_SWITCH, 'fan runs when the controller stops it', 'vf', [ceShort('Q401'), ledOpen('XU401')], {
     params: { FANON: 0 },
-    symptom: 'fan runs when the controller stops it',
-    start: [dcv('vf')],
-    faults: [ceShort('Q401'), ledOpen('XU401')],
     note: 'masked pair: the LED open is invisible while Q401 conducts; only an unpowered test of the LED shows it',
-  },
-  { id: 'B05-led-open', board: B05_SPEED_CMD, symptom: 'fan always at full speed', start: [dcv('vsp')], faults: [ledOpen('XU501')] },
-  { id: 'B05-pullup-open', board: B05_SPEED_CMD, symptom: 'fan never starts (speed command 0)', start: [dcv('vsp')], faults: [open('R502')] },
-  {
-    id: 'B05-ctr-low',
-    board: B05_SPEED_CMD,
-    symptom: 'fan runs faster than commanded',
-    start: [dcv('vsp')],
-    faults: [fault('XU501', { do: 'inner', element: 'FCT', inner: { do: 'scale', factor: 0.35 } }, 'XU501 opto — CTR degraded to 35 %', /^fct:drift/)],
-  },
-  { id: 'B05-follower-ce-short', board: B05_SPEED_CMD, symptom: 'fan always at full speed', start: [dcv('vsp')], faults: [ceShort('Q501')] },
-  { id: 'B06-led-r-open', board: B06_FEEDBACK, symptom: 'F7 no speed feedback', start: [dcv('fo', 'gc')], faults: [open('R601')] },
-  { id: 'B06-clamp-short', board: B06_FEEDBACK, symptom: 'F7 no speed feedback', start: [dcv('fin', 'gc')], faults: [short('D601', 0.5)] },
-  { id: 'B07-sensor-open', board: B07_THERMISTOR, symptom: 'F9 coil sensor out of range', start: [dcv('th')], faults: [open('RTH701')] },
-  { id: 'B07-filter-short', board: B07_THERMISTOR, symptom: 'F9 coil sensor out of range', start: [dcv('adc')], faults: [short('C701', 0.3)] },
-  { id: 'B07-pullup-drift', board: B07_THERMISTOR, symptom: 'coil temperature reads wrong', start: [dcv('th')], faults: [drift('R701', 2.2)] },
-  { id: 'B08-be-open', board: B08_RELAY, symptom: 'relay never clicks', start: [dcv('rc')], faults: [beOpen('Q801')] },
-  { id: 'B08-flyback-short', board: B08_RELAY, symptom: 'relay never clicks', start: [dcv('rc')], faults: [short('D801', 0.5)] },
-  { id: 'B08-base-r-open', board: B08_RELAY, symptom: 'relay never clicks', start: [dcv('rc')], faults: [open('R801')] },
-  {
-    id: 'B08-ce-short+base-open',
-    board: B08_RELAY,
+  }),
+  kase('B05-led-open', B05_SPEED_CMD, 'fan always at full speed', 'vsp', [ledOpen('XU501')]),
+  kase('B05-pullup-open', B05_SPEED_CMD, 'fan never starts (speed command 0)', 'vsp', [open('R502')]),
+  kase('B05-ctr-low', B05_SPEED_CMD, 'fan runs faster than commanded', 'vsp', [
+    fault('XU501', { do: 'inner', element: 'FCT', inner: { do: 'scale', factor: 0.35 } }, 'XU501 opto — CTR degraded to 35 %', /^fct:drift/),
+  ]),
+  kase('B05-follower-ce-short', B05_SPEED_CMD, 'fan always at full speed', 'vsp', [ceShort('Q501')]),
+  kase('B06-led-r-open', B06_FEEDBACK, 'F7 no speed feedback', [dcv('fo', 'gc')], [open('R601')]),
+  kase('B06-clamp-short', B06_FEEDBACK, 'F7 no speed feedback', [dcv('fin', 'gc')], [short('D601', 0.5)]),
+  kase('B07-sensor-open', B07_THERMISTOR, 'F9 coil sensor out of range', 'th', [open('RTH701')]),
+  kase('B07-filter-short', B07_THERMISTOR, 'F9 coil sensor out of range', 'adc', [short('C701', 0.3)]),
+  kase('B07-pullup-drift', B07_THERMISTOR, 'coil temperature reads wrong', 'th', [drift('R701', 2.2)]),
+  kase('B08-be-open', B08_RELAY, 'relay never clicks', 'rc', [beOpen('Q801')]),
+  kase('B08-flyback-short', B08_RELAY, 'relay never clicks', 'rc', [short('D801', 0.5)]),
+  kase('B08-base-r-open', B08_RELAY, 'relay never clicks', 'rc', [open('R801')]),
+  kase('B08-ce-short+base-open', B08_RELAY, 'relay stays on when switched off', 'rc', [ceShort('Q801'), open('R801')], {
     params: { RLY: 0 },
-    symptom: 'relay stays on when switched off',
-    start: [dcv('rc')],
-    faults: [ceShort('Q801'), open('R801')],
     note: 'masked pair: R801 open is invisible while Q801 is shorted',
-  },
-  { id: 'B09-zener-open', board: B09_ZENER, symptom: 'reference high, sensor readings wrong', start: [dcv('vz')], faults: [open('DZ901')] },
-  { id: 'B09-zener-short', board: B09_ZENER, symptom: 'indicator dark, reference 0 V', start: [dcv('vz')], faults: [short('DZ901', 0.3)] },
-  { id: 'B09-feed-drift', board: B09_ZENER, symptom: 'reference low', start: [dcv('vz')], faults: [drift('R901', 4)] },
-  { id: 'B10-shunt-open', board: B10_SHUNT, symptom: 'overcurrent trip at every start', start: [dcv('cs')], faults: [open('RSH1')] },
-  { id: 'B10-filter-r-open', board: B10_SHUNT, symptom: 'overcurrent trip at every start', start: [dcv('cs')], faults: [open('R1001')] },
-  { id: 'B11-bootstrap-open', board: B11_BOOTSTRAP, symptom: 'one motor phase never switches', start: [dcv('vbu')], faults: [open('DBS1')] },
-  { id: 'B11-choke-open', board: B11_BOOTSTRAP, symptom: 'gate drive dead, all phases', start: [dcv('vdd')], faults: [open('L1101')] },
-  { id: 'B12-feedback-led-open', board: B12_FAN_DRIVE, symptom: 'F7 no speed feedback', start: [dcv('fo', 'gc')], faults: [ledOpen('XU601')] },
-  { id: 'B12-switch-be-open', board: B12_FAN_DRIVE, symptom: 'F7 fan never starts', start: [dcv('vf'), dcv('fo', 'gc')], faults: [beOpen('Q401')] },
-  { id: 'B12-speed-pullup-open', board: B12_FAN_DRIVE, symptom: 'fan never starts (speed command 0)', start: [dcv('vsp')], faults: [open('R502')] },
-  {
-    id: 'B12-cap+ce-short',
-    board: B12_FAN_DRIVE,
-    symptom: 'F7 fan never starts, 15 V rail low',
-    start: [dcv('vf'), dcv('v15')],
-    faults: [short('C401', 0.2), ceShort('Q401')],
+  }),
+  kase('B09-zener-open', B09_ZENER, 'reference high, sensor readings wrong', 'vz', [open('DZ901')]),
+  kase('B09-zener-short', B09_ZENER, 'indicator dark, reference 0 V', 'vz', [short('DZ901', 0.3)]),
+  kase('B09-feed-drift', B09_ZENER, 'reference low', 'vz', [drift('R901', 4)]),
+  kase('B10-shunt-open', B10_SHUNT, 'overcurrent trip at every start', 'cs', [open('RSH1')]),
+  kase('B10-filter-r-open', B10_SHUNT, 'overcurrent trip at every start', 'cs', [open('R1001')]),
+  kase('B11-bootstrap-open', B11_BOOTSTRAP, 'one motor phase never switches', 'vbu', [open('DBS1')]),
+  kase('B11-choke-open', B11_BOOTSTRAP, 'gate drive dead, all phases', 'vdd', [open('L1101')]),
+  kase('B12-feedback-led-open', B12_FAN_DRIVE, 'F7 no speed feedback', [dcv('fo', 'gc')], [ledOpen('XU601')]),
+  kase('B12-switch-be-open', B12_FAN_DRIVE, 'F7 fan never starts', [dcv('vf'), dcv('fo', 'gc')], [beOpen('Q401')]),
+  kase('B12-speed-pullup-open', B12_FAN_DRIVE, 'fan never starts (speed command 0)', 'vsp', [open('R502')]),
+  kase('B12-cap+ce-short', B12_FAN_DRIVE, 'F7 fan never starts, 15 V rail low', dcvs('vf', 'v15'), [short('C401', 0.2), ceShort('Q401')], {
     note: 'masked pair on a board of over 40 parts',
-  },
-  {
-    id: 'B01-bridge-open',
-    board: B01_BUS,
-    symptom: 'bus sags and hums under load',
-    start: [{ mode: 'diode', red: 'l', black: 'bus', power: 'off' }],
-    faults: [open('D101')],
+  }),
+  kase('B01-bridge-open', B01_BUS, 'bus sags and hums under load', [{ mode: 'diode', red: 'l', black: 'bus', power: 'off' }], [open('D101')], {
     note: 'starts with a diode test from the mains pin through the bridge',
-  },
+  }),
   // Boards with nothing wrong on them (the fault was in the motor or the wiring): the right answer is "no fault".
-  { id: 'B04-healthy', board: B04_FAN_SWITCH, symptom: 'outdoor fan never starts (motor at fault)', start: [dcv('vf')], faults: [] },
-  { id: 'B07-healthy', board: B07_THERMISTOR, symptom: 'F9 once, not repeatable', start: [dcv('th')], faults: [] },
+  kase('B04-healthy', B04_FAN_SWITCH, 'outdoor fan never starts (motor at fault)', 'vf', []),
+  kase('B07-healthy', B07_THERMISTOR, 'F9 once, not repeatable', 'th', []),
 ];

@@ -4,6 +4,7 @@
  */
 import type { MeterProfile, Netlist } from '@splitscope/circuit';
 import type { PriorAdjustment, PriorChange } from '../core/priors.js';
+import type { PriorNote } from './prior-notes.js';
 import type { FailureHistory } from './history.js';
 import type { ReferenceBand } from './references.js';
 import { PART_KINDS, type PartKind } from './kinds.js';
@@ -130,6 +131,8 @@ export interface DiagnosisOutput {
   generated: { pairs: number; triples: number; capped: boolean };
   /** Priors moved by `UpdateOptions.priors`, largest move first. */
   priors: PriorReport[];
+  /** Why they moved, one line per reason in the bench's words (prior-notes.ts). */
+  priorNotes: PriorNote[];
   /**
    * Candidates still being checked: predictions the board's dictionary lacks (fault pairs the readings call for,
    * a test outside it) are computed in the background (dictionary.ts); the ranking updates when they arrive.
@@ -176,6 +179,11 @@ export interface BoardInput {
   connectors?: ConnectorInput[];
   /** Nets the board names as AC mains (besides those found from its sources). */
   acMains?: string[];
+  /**
+   * Netlist elements that model what is not on the board (the load a connector sees): they shape every expected
+   * value but are never candidates, lifted parts or names in the words. Unknown names are refused.
+   */
+  offBoard?: string[];
 }
 
 const MODES: readonly MeterMode[] = ['dcv', 'ohm', 'diode', 'continuity'];

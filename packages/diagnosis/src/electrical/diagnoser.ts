@@ -23,6 +23,7 @@ import type { BoardInput, CandidateReport, DiagnosisOutput, NextTestReport, Read
 import { checkingKeys } from './dictionary.js';
 import { ElectricalModel, testKey, type ElectricalTest } from './model.js';
 import { partAloneRefusal } from './part-alone.js';
+import { priorNotes } from './prior-notes.js';
 import { candidateTests, HAZARD_CAUTION, instruction, testCost, type BenchState, type Hazard, type TestPoint } from './nexttests.js';
 import { bandOf, isPredicted, verdictOf, type Prediction, type ReadingValue } from './noise.js';
 import type { ObservedValue } from './repeats.js';
@@ -52,8 +53,18 @@ export class Diagnoser {
         throw err;
       }
     } else netlist = board.netlist;
+    const elementNames = new Set(netlist.elements.map((e) => e.name.toLowerCase()));
+    for (const name of board.offBoard ?? [])
+      if (!elementNames.has(name.toLowerCase())) throw new CaseError(`offBoard: no top-level element ${name} in the netlist`);
     try {
-      this.model = new ElectricalModel({ netlist, params: board.params, parts: board.parts, meter: board.meter, acMains: board.acMains?.map(normNode) });
+      this.model = new ElectricalModel({
+        netlist,
+        params: board.params,
+        parts: board.parts,
+        meter: board.meter,
+        acMains: board.acMains?.map(normNode),
+        offBoard: board.offBoard,
+      });
     } catch (err) {
       const msg = (err as Error).message.split('\n')[0] ?? '';
       throw new CaseError(err instanceof NetlistError ? `netlist: ${msg}` : msg);
@@ -254,6 +265,10 @@ export class Diagnoser {
       obs.map((o) => shown(o.value, o.test.mode)),
     );
 
+    const priors = (post.priorChanges ?? [])
+      .filter((c) => c.steps.some((s) => s.note))
+      .map((c) => ({ ...c, words: faultWords(model, names, c.part, c.mode) }))
+      .sort((a, b) => Math.abs(Math.log(b.after / b.before)) - Math.abs(Math.log(a.after / a.before)) || a.part.localeCompare(b.part));
     return {
       readings: readingReports,
       candidates,
@@ -265,10 +280,8 @@ export class Diagnoser {
       unmodelledProbability: post.unmodelled?.probability ?? 0,
       ...(unexplained ? { unexplained } : {}),
       generated: post.generated,
-      priors: (post.priorChanges ?? [])
-        .filter((c) => c.steps.some((s) => s.note))
-        .map((c) => ({ ...c, words: faultWords(model, names, c.part, c.mode) }))
-        .sort((a, b) => Math.abs(Math.log(b.after / b.before)) - Math.abs(Math.log(a.after / a.before)) || a.part.localeCompare(b.part)),
+      priors,
+      priorNotes: priorNotes(priors),
       ...(checking?.size ? { checking: { candidates: post.candidates.filter((c) => c.combos.some((k) => checking.has(k.key))).length } } : {}),
     };
   }

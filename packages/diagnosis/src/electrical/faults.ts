@@ -122,9 +122,18 @@ const PORT_PATTERNS = {
 
 /**
  * Build the parts of a board from its netlist and flat (healthy, powered) circuit. With `hazards`, the bulk
- * electrolytic capacitor(s) on the rectified bus get the behavioural BULK_MODES on the bus source.
+ * electrolytic capacitor(s) on the rectified bus get the behavioural BULK_MODES on the bus source. Elements named
+ * in `offBoard` (the load a connector sees, the mains behind a plug) stay in the circuit but are not parts: a
+ * technician cannot replace what is not on the board, so they are never candidates, lifted or named.
  */
-export function buildParts(netlist: Netlist, circuit: Circuit, overrides: Record<string, PartOverride> = {}, hazards?: Hazards): ElectricalPart[] {
+export function buildParts(
+  netlist: Netlist,
+  circuit: Circuit,
+  overrides: Record<string, PartOverride> = {},
+  hazards?: Hazards,
+  offBoard: readonly string[] = [],
+): ElectricalPart[] {
+  const skip = new Set(offBoard.map((n) => n.toLowerCase()));
   const byPart = new Map<string, Element[]>();
   for (const e of circuit.elements) {
     const k = e.part.toLowerCase();
@@ -136,6 +145,7 @@ export function buildParts(netlist: Netlist, circuit: Circuit, overrides: Record
   const parts: ElectricalPart[] = [];
   for (const raw of netlist.elements) {
     const lname = raw.name.toLowerCase();
+    if (skip.has(lname)) continue;
     const els = byPart.get(lname) ?? [];
     const ov = overrideByLower.get(lname);
     const kind = ov?.kind ?? inferKind(els.length === 1 ? els[0] : undefined, raw, netlist);

@@ -9,7 +9,11 @@
  * Real faults are not ideal, so each parameterised mode is a finite sweep and the prior is split evenly among
  * its points (the likelihood of a candidate is the sum over the points):
  * - `short`: a shorted ceramic capacitor reads a fraction of an ohm to a few ohms (common practice), so the
- *   sweep runs 0.1 Ω … 30 Ω (electrolytics to 50 Ω), and the rail it kills sits at some millivolts to a few hundred, not at zero.
+ *   sweep runs 0.1 Ω … 30 Ω, and the rail it kills sits at some millivolts to a few hundred, not at zero. Capacitors
+ *   and diodes share one grid (SHORT_GRID): a capacitor across a zener or a clamp diode is its twin at DC, and a
+ *   sweep is a quadrature of the unknown short's resistance; on different grids a short between two points fits the
+ *   twin whose grid lies nearer, and the grid, not the evidence, picks the part (the marginal likelihood of a
+ *   parameterised model, MacKay, "Information Theory, Inference, and Learning Algorithms", 2003, ch. 28; from memory).
  * - `open`: a very high resistance (1 MΩ … 1 GΩ), not a missing element: cracked films and lifted joints leak.
  * - `drift`: a multiplier on the value (×0.5 … ×10); carbon and metal-film resistors under stress mostly go
  *   high (common practice), so the sweep is weighted towards ×2 … ×10.
@@ -78,7 +82,7 @@ export interface ModeTemplate {
   weights?: readonly number[];
 }
 
-const SHORT_CERAMIC = [0.1, 0.3, 1, 3, 10, 30];
+const SHORT_GRID = [0.1, 0.3, 1, 3, 10, 30];
 const OPEN = [1e6, 1e7, 1e8, 1e9];
 
 export const DEFAULT_MODES: Readonly<Record<PartKind, readonly ModeTemplate[]>> = {
@@ -90,18 +94,18 @@ export const DEFAULT_MODES: Readonly<Record<PartKind, readonly ModeTemplate[]>> 
   ],
   'ceramic-capacitor': [
     // Multilayer ceramics on supply rails fail short after cracking (common practice).
-    { name: 'short', action: 'short', prior: 0.004, source: 'common practice', sweep: SHORT_CERAMIC },
+    { name: 'short', action: 'short', prior: 0.004, source: 'common practice', sweep: SHORT_GRID },
     { name: 'leaky', action: 'parallel', prior: 0.001, source: 'from memory', sweep: [300, 3e3, 30e3] },
   ],
   'electrolytic-capacitor': [
     // Electrolytics mostly lose capacitance (invisible at DC); a hard short is rarer than on ceramics (from memory).
-    { name: 'short', action: 'short', prior: 0.002, source: 'from memory', sweep: [0.1, 0.3, 1, 3, 10, 50] },
+    { name: 'short', action: 'short', prior: 0.002, source: 'from memory', sweep: SHORT_GRID },
     { name: 'leaky', action: 'parallel', prior: 0.003, source: 'from memory', sweep: [200, 2e3, 20e3] },
   ],
   inductor: [{ name: 'open', action: 'open', prior: 0.001, source: 'from memory', sweep: [1e6, 1e9] }],
   diode: [
     // Rectifier and clamp diodes fail short more often than open (common practice).
-    { name: 'short', action: 'short', prior: 0.004, source: 'common practice', sweep: [0.5, 5, 50] },
+    { name: 'short', action: 'short', prior: 0.004, source: 'common practice', sweep: SHORT_GRID },
     { name: 'open', action: 'open', prior: 0.002, source: 'from memory', sweep: [1e7, 1e9] },
   ],
   led: [

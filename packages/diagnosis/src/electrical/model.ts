@@ -42,6 +42,8 @@ export interface BoardModelInput {
   meter?: MeterProfile;
   /** Nets the board names as AC mains (added to those found from the sources, hazard.ts). */
   acMains?: string[];
+  /** Netlist elements that model something off the board (faults.ts `buildParts`). */
+  offBoard?: string[];
 }
 
 export class ElectricalModel implements SystemModel<ElectricalTest, ObservedValue, Prediction> {
@@ -74,7 +76,7 @@ export class ElectricalModel implements SystemModel<ElectricalTest, ObservedValu
     } else {
       this.circuit = flatten(input.netlist, input.params);
       this.hazards = findHazards(this.circuit, this.poweredVoltages(), input.acMains);
-      this.parts = buildParts(input.netlist, this.circuit, input.parts, this.hazards);
+      this.parts = buildParts(input.netlist, this.circuit, input.parts, this.hazards, input.offBoard);
       for (const p of this.parts) {
         for (const n of p.nets) {
           const list = this.partsOnNet.get(n);

@@ -3,7 +3,7 @@
 // the healthy board. A version never changes, so everything here is cached per version id for the life of the
 // process.
 import { expectedReadings, type BandFn, type ExpectedReadingsInput, type ExpectedReadingsTestPoint } from '@splitscope/boards/readings';
-import { meterProfileById, normNode, refusal, type MeterProfile } from '@splitscope/circuit';
+import { meterProfileById, normNode, parseNetlist, refusal, type MeterProfile } from '@splitscope/circuit';
 import {
   bandOf,
   CaseError,
@@ -80,6 +80,26 @@ export function partsOf(model: BoardModel): Record<string, CasePart> {
   return out;
 }
 
+/** Element letters that model a board part; sources (V, I) and controlled sources stand for no part of their own. */
+const PART_LETTERS = new Set(['R', 'C', 'L', 'D', 'Q', 'X']);
+
+/**
+ * The netlist's top-level elements that are no part of the board's part list (the load a connector sees, the
+ * motor): the engine keeps them in the circuit but never ranks, lifts or names them. A model that maps no part to
+ * an element has no part list to go by, and every element stays a candidate.
+ */
+export function offBoardElements(model: BoardModel): string[] {
+  const listed = new Set(model.parts.flatMap((p) => (p.element ? [p.element.toLowerCase()] : [])));
+  if (listed.size === 0) return [];
+  let elements: { name: string; letter: string }[];
+  try {
+    elements = parseNetlist(model.netlist).elements;
+  } catch {
+    return []; // the diagnoser refuses the netlist itself, naming the line
+  }
+  return elements.filter((e) => PART_LETTERS.has(e.letter) && !listed.has(e.name.toLowerCase())).map((e) => e.name);
+}
+
 function testPointsOf(model: BoardModel): BoardTestPoint[] {
   return model.testPoints.map((tp) => {
     const table: ExpectedReadingsTestPoint = {
@@ -147,6 +167,7 @@ export function buildBoardEngine(versionId: string, model: BoardModel): BoardEng
       netlist,
       params,
       parts,
+      offBoard: offBoardElements(model),
       testPoints: testPoints.map(({ id, net, label, ref }) => ({ id, net, label, ref })),
       // A net with no test point is named by its connector pin ("CN3 pin 3") before a part's pin.
       connectors: model.connectors.map((c) => ({

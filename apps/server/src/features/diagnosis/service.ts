@@ -204,6 +204,7 @@ export function shapeDiagnosis(out: DiagnosisOutput, job: JobRef, rows: ReadingR
       after: p.after,
       steps: p.steps.map((s) => ({ ...s, source: s.source as PriorSource })),
     })),
+    priorNotes: (out.priorNotes ?? []).map((n) => ({ ...n, source: n.source as PriorSource })),
     readings: out.readings.map((rep) => {
       const r = rows[rep.index]!;
       return {

@@ -129,24 +129,9 @@ export function nextTests(view: BoardView, d: Diagnosis): (NextTestView & { targ
   });
 }
 
-/** Why priors moved on this job, one line per reason: a fault code names a section (many parts), history a part. */
+/** Why priors moved on this job, one line per reason, as the engine words them (this job's evidence first). */
 export function priorNotes(d: Diagnosis): { text: string; parts: string[]; source: string }[] {
-  const out = new Map<string, { text: string; parts: string[]; source: string }>();
-  for (const p of d.priors ?? []) {
-    for (const s of p.steps) {
-      if (!s.note) continue;
-      const pct = (x: number) => `${(x * 100).toFixed(x < 0.01 ? 2 : 1)} %`;
-      // A section-wide reason lists its parts; a part's own history says its prior before and after.
-      const text = s.source === 'fault-code' ? s.note : `${s.note} (prior ${pct(s.before)} → ${pct(s.after)})`;
-      const e = out.get(text);
-      if (e) {
-        if (!e.parts.includes(p.designator)) e.parts.push(p.designator);
-      } else out.set(text, { text, parts: [p.designator], source: s.source });
-    }
-  }
-  // This job's own evidence first (its fault code), then this model's history, then other models' (the weakest).
-  const order = ['fault-code', 'reference', 'history', 'history-kind'];
-  return [...out.values()].sort((a, b) => order.indexOf(a.source) - order.indexOf(b.source));
+  return d.priorNotes ?? [];
 }
 
 /** The board's sections by the summed probability of their parts' faults (what to suspect before any reading). */
