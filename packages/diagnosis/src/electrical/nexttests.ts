@@ -73,8 +73,6 @@ function namerOf(points: readonly TestPoint[] | NetNamer): NetNamer {
     );
 }
 
-const said = (p: ProbePoint) => (p.description ? `${p.label} (${p.description})` : p.label);
-
 const READ: Record<MeterMode, string> = {
   dcv: 'read DC volts',
   ohm: 'read resistance',
@@ -96,7 +94,7 @@ export function instruction(t: ElectricalTest, cur: BenchState, points: readonly
   if (t.power === 'on' && (cur.power === 'off' || needOff)) {
     steps.push(t.lifted.length > 0 ? `power the board with ${t.lifted.join(', ')} still lifted` : 'power the board');
   }
-  const probe = `put the red probe on ${said(name(t.red))} and the black on ${name(t.black).label} and ${READ[t.mode]}`;
+  const probe = `put the red probe on ${name(t.red).said} and the black on ${name(t.black).said} and ${READ[t.mode]}`;
   const s = steps.length > 0 ? `${steps.join(', ')}, then ${probe}` : probe;
   const warn =
     t.power !== 'on' ? '' : hazard ? ` (${hazard === 'mains' ? 'mains' : 'DC bus'} live: see the caution)` : ' (board live: keep one hand away from the bus)';

@@ -79,6 +79,11 @@ export interface ProbePoint {
   label: string;
   /** What it is ("Fan control supply (VFAN)", "Speed pulses", "no test point on this net"). */
   description?: string;
+  /**
+   * The point as a next test's sentence names it: a test point as printed, then what it is ("TP5 Fan control
+   * supply (VFAN)", as the readings list reads); a connector pin or a part pin by itself ("CN3 pin 3", "C10 +").
+   */
+  said: string;
 }
 
 export interface NamedTestPoint {
@@ -162,7 +167,8 @@ export function nearestPin(net: string, parts: readonly PinPart[], prefer?: Read
   );
   const best = on[0];
   if (!best) return undefined;
-  return { label: pinName(best, net), description: net === '0' ? 'ground (reference)' : 'no test point on this net: the pin of the nearest part' };
+  const label = pinName(best, net);
+  return { label, description: net === '0' ? 'ground (reference)' : 'no test point on this net: the pin of the nearest part', said: label };
 }
 
 /** Names a net as the bench finds it (see the header). */
@@ -178,16 +184,23 @@ export function probePoint(
     const name = tp.id ?? (tp.label as string);
     const label = tp.connector && tp.pin ? `${name} (${tp.connector} pin ${tp.pin})` : name;
     const description = tp.description ?? (tp.id ? tp.label : undefined);
-    return description ? { label, description } : { label };
+    return description ? { label, description, said: `${label} ${description}` } : { label, said: label };
   }
+  // The reference is the bulk capacitor's negative pin where the board has one: the pin the discharge check
+  // uses, before a connector's ground pin.
+  const reference =
+    net === '0' && prefer?.size
+      ? nearestPin(
+          net,
+          parts.filter((p) => prefer.has(p.part.name)),
+        )
+      : undefined;
+  if (reference) return reference;
   for (const c of connectors) {
     const pin = c.pins.find((p) => p.net.toLowerCase() === net);
-    if (pin) return { label: `${c.name} pin ${pin.pin}`, ...(pin.function ? { description: pin.function } : {}) };
+    const label = pin && `${c.name} pin ${pin.pin}`;
+    if (pin && label) return { label, ...(pin.function ? { description: pin.function } : {}), said: label };
   }
-  return (
-    nearestPin(net, parts, net === '0' ? prefer : undefined) ?? {
-      label: net === '0' ? 'ground' : 'an unlabelled point',
-      description: 'no test point or part pin on this net',
-    }
-  );
+  const none = net === '0' ? 'ground' : 'an unlabelled point';
+  return nearestPin(net, parts, net === '0' ? prefer : undefined) ?? { label: none, description: 'no test point or part pin on this net', said: none };
 }

@@ -168,7 +168,12 @@ export function buildBoardEngine(versionId: string, model: BoardModel): BoardEng
       params,
       parts,
       offBoard: offBoardElements(model),
-      testPoints: testPoints.map(({ net, label, ref }) => ({ net, label, ref })),
+      testPoints: testPoints.map(({ id, net, label, ref }) => ({ id, net, label, ref })),
+      // A net with no test point is named by its connector pin ("CN3 pin 3") before a part's pin.
+      connectors: model.connectors.map((c) => ({
+        name: c.name,
+        pins: c.pins.map((p) => ({ pin: p.pin, net: p.net, ...(p.function ? { function: p.function } : {}) })),
+      })),
     });
     return { versionId, netlist, params, parts, testPoints, diagnoser };
   } catch (err) {
