@@ -1,18 +1,17 @@
 // The bench on a tablet-sized laptop (1024×768) and a phone (390×844): at 1024 the map, the reading entry, the
 // ranking and the next test share one screen without page scroll; on the phone the current step and the value
 // field are on the first screen. Screenshots go to docs/screens/ with the date.
-import type { JobList } from '@splitscope/contract';
-import { expect, signIn, test } from './fixtures';
-import { getJson } from './helpers';
+import { signIn } from './fixtures';
+import { expect, test } from './support/own-shop';
+import { apiAs } from './support/divider-job';
+import { createJob } from './support/shop-data';
 
 const DATE = new Date().toISOString().slice(0, 10);
 
-test('at 1024×768 the bench fits one screen: map, reading entry, ranking and next test', async ({ page }) => {
+test('at 1024×768 the bench fits one screen: map, reading entry, ranking and next test', async ({ page, shop }) => {
   await page.setViewportSize({ width: 1024, height: 768 });
-  await signIn(page, 'tech@demo.test');
-  const job =
-    (await getJson<JobList>(page, '/jobs?status=diagnosing&assignee=me')).items[0] ??
-    (await getJson<JobList>(page, '/jobs?status=received,diagnosing')).items[0]!;
+  await signIn(page, shop.users.tech.email);
+  const job = await createJob(page, { faultCode: 'F7', assigneeId: shop.users.tech.id });
   await page.goto(`/jobs/${job.id}?mode=free`);
   await page.getByRole('tab', { name: 'Test points' }).click();
   await page
@@ -36,10 +35,13 @@ test('at 1024×768 the bench fits one screen: map, reading entry, ranking and ne
   await page.screenshot({ path: `docs/screens/${DATE}-bench-1024x768.png` });
 });
 
-test('at 390×844 the current step and the value field are on the first screen', async ({ page }) => {
+test('at 390×844 the current step and the value field are on the first screen', async ({ page, shop }) => {
   await page.setViewportSize({ width: 390, height: 844 });
-  await signIn(page, 'trainee@demo.test');
-  const job = (await getJson<JobList>(page, '/jobs?status=received,diagnosing&assignee=me')).items[0]!;
+  // The trainee's job, opened by the shop's technician (a trainee opens none).
+  const tech = await apiAs(shop.users.tech.email);
+  const job = await createJob(tech, { faultCode: 'F7', assigneeId: shop.users.trainee.id });
+  await tech.dispose();
+  await signIn(page, shop.users.trainee.email);
   await page.goto(`/jobs/${job.id}`);
   // The first diagnosis of a job takes the engine a few seconds.
   await expect(page.getByTestId('guided-step')).toBeVisible({ timeout: 45_000 });

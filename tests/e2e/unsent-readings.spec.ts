@@ -1,15 +1,17 @@
 import type { ReadingList } from '@splitscope/contract';
-import { expect, signIn, test } from './fixtures';
-import { findJob, getJson, shot } from './helpers';
+import { signIn } from './fixtures';
+import { expect, test } from './support/own-shop';
+import { getJson, shot } from './helpers';
+import { createJob } from './support/shop-data';
 
 test.describe('readings typed while the network is down', () => {
   // One pattern: a two-element array whose second element is an object reads as Playwright's [value, options].
   test.use({ expectedConsoleErrors: [/ERR_INTERNET_DISCONNECTED|Failed to fetch/] });
 
-  test('are kept, listed as unsent and sent once with the same key when the network returns', async ({ page, context }) => {
-    await signIn(page, 'tech@demo.test');
+  test('are kept, listed as unsent and sent once with the same key when the network returns', async ({ page, context, shop }) => {
+    await signIn(page, shop.users.tech.email);
     await expect(page.getByRole('heading', { name: /Welcome/ })).toBeVisible();
-    const job = await findJob(page, ['received', 'diagnosing'], '&assignee=me');
+    const job = await createJob(page, { faultCode: 'F7', assigneeId: shop.users.tech.id });
     const before = (await getJson<ReadingList>(page, `/jobs/${job.id}/readings`)).items.length;
     // The test-point list is a view of its own beside the map.
     await page.goto(`/jobs/${job.id}?mode=free&tab=points`);
