@@ -2,6 +2,7 @@
 import { runFuzz } from './proof/fuzz';
 import { printFuzzReport } from './proof/fuzz-report';
 import { printApiBench, runApiBench } from './proof/bench-api';
+import { printLoadBench, runLoadBench } from './proof/bench-load';
 import { printWebBench, runWebBench } from './proof/bench-web';
 import { FULL, printFaultReport, runFaults, SHORT, type FaultReport } from './proof/faults';
 import { modeFromEnv, prepareDatabase } from './lib/stack';
@@ -45,6 +46,25 @@ async function benchApi(args: string[]): Promise<number> {
   return report.writes.failed + report.diagnosis.failed === 0 ? 0 : 1;
 }
 
+/** `bench:load [--servers=2] [--kill] [--seconds=30] [--technicians=300]`: the open-loop load (bench-load.ts). */
+async function benchLoad(args: string[]): Promise<number> {
+  const num = (name: string, fallback: number) => {
+    const v = Number(args.find((a) => a.startsWith(`--${name}=`))?.slice(name.length + 3));
+    return Number.isFinite(v) && v > 0 ? v : fallback;
+  };
+  const report = await runLoadBench({
+    technicians: num('technicians', 300),
+    periodMs: 3000,
+    seconds: num('seconds', 30),
+    servers: num('servers', 1) === 2 ? 2 : 1,
+    kill: args.includes('--kill'),
+    log: console.log,
+  });
+  printLoadBench(report);
+  // Missed latency targets are figures to report; a lost acknowledged reading fails the command.
+  return report.stored === report.acknowledged ? 0 : 1;
+}
+
 async function benchWeb(): Promise<number> {
   const report = await runWebBench({ points: 1000, seconds: 5 });
   printWebBench(report);
@@ -65,5 +85,6 @@ export const tasks: Record<string, (args: string[]) => Promise<number>> = {
   faults,
   fuzz,
   'bench:api': benchApi,
+  'bench:load': benchLoad,
   'bench:web': benchWeb,
 };

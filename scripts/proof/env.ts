@@ -149,3 +149,10 @@ export const machineSize = async () => {
   const os = await import('node:os');
   return `${os.cpus().length} cores, ${Math.round(os.totalmem() / 2 ** 30)} GB`;
 };
+
+/** The 1, 5 and 15 minute load averages, printed beside a figure measured on a shared machine. */
+export const loadAverage = async () =>
+  (await import('node:os'))
+    .loadavg()
+    .map((l) => l.toFixed(2))
+    .join(' ');

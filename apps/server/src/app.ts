@@ -72,35 +72,42 @@ export function createApp(ctx: AppContext): Express {
   api.use(healthRoutes(ctx));
   api.use(customerPortalRoutes(ctx));
   api.use(sessionMiddleware(ctx.auth));
-  // First after the session: a reading write is the busiest request, and every router ahead of it is tried in turn.
-  api.use(readingRoutes(ctx));
-  api.use(authRoutes(ctx));
-  api.use(shopRoutes(ctx));
-  api.use(userRoutes(ctx));
-  api.use(customerRoutes(ctx));
-  api.use(captureRoutes(ctx));
   // A published version's fault dictionary is built in the background; the version is usable at once.
   const buildDictionary = (versionId: string) =>
     void ensureDictionary(ctx.db, versionId).catch((err: unknown) =>
       console.error(`splitscope: fault dictionary of ${versionId} not started: ${(err as Error).message}`),
     );
-  api.use(boardRoutes(ctx, buildDictionary));
-  api.use(jobRoutes(ctx));
-  api.use(diagnosisRoutes(ctx));
-  api.use(reviewRoutes(ctx));
-  api.use(repairRoutes(ctx));
-  api.use(reportRoutes(ctx));
-  api.use(uploadRoutes(ctx));
-  api.use(referenceRoutes(ctx));
-  // Billing: settings, quotes, invoices, status e-mails and the development outbox.
-  api.use(billingRoutes(ctx), quoteRoutes(ctx), invoiceRoutes(ctx), mailOutboxRoutes(ctx));
-  api.use(dutyRoutes(ctx));
-  api.use(serviceTermsRoutes(ctx));
-  api.use(boardHistoryRoutes(ctx));
-  api.use(partsBinRoutes(ctx));
-  api.use(meterImportRoutes(ctx));
-  api.use(shopStatsRoutes(ctx));
-  api.use(benchMeterRoutes(ctx));
+  // The signed-in API, mounted in this order. First the readings: a reading write is the busiest request, and
+  // every router ahead of it is tried in turn.
+  const signedIn: ((c: AppContext) => express.Router)[] = [
+    readingRoutes,
+    authRoutes,
+    shopRoutes,
+    userRoutes,
+    customerRoutes,
+    captureRoutes,
+    (c) => boardRoutes(c, buildDictionary),
+    jobRoutes,
+    diagnosisRoutes,
+    reviewRoutes,
+    repairRoutes,
+    reportRoutes,
+    uploadRoutes,
+    referenceRoutes,
+    // Billing: settings, quotes, invoices, status e-mails and the development outbox.
+    billingRoutes,
+    quoteRoutes,
+    invoiceRoutes,
+    mailOutboxRoutes,
+    dutyRoutes,
+    serviceTermsRoutes,
+    boardHistoryRoutes,
+    partsBinRoutes,
+    meterImportRoutes,
+    shopStatsRoutes,
+    benchMeterRoutes,
+  ];
+  for (const routes of signedIn) api.use(routes(ctx));
   api.use(notFoundApi);
   app.use('/api', api);
 

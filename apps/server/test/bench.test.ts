@@ -1,11 +1,11 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import { readings } from '../src/db/schema';
 import type { RunningServer } from '../src/server';
 import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
 import { TINY_PNG, tinyJpeg } from './pictures';
+import { dividerReading } from '../src/testing/requests';
 
 let server: RunningServer;
 let tech: Client;
@@ -21,32 +21,22 @@ beforeAll(async () => {
 });
 afterAll(() => server.close());
 
-const reading = (over: Record<string, unknown> = {}) => ({
-  idempotencyKey: randomUUID(),
-  mode: 'dcv',
-  red: 'TP2',
-  black: 'gnd',
-  power: 'on',
-  value: 7.5,
-  raw: '7.5',
-  ...over,
-});
 const count = async () => (await server.ctx.db.select({ id: readings.id }).from(readings).where(eq(readings.jobId, jobId))).length;
 
 describe('readings', () => {
   // 15 V over 10k/10k is 7.5 V; the default meter's 10 Mohm input (a typical DMM, from memory) loads the
   // lower 10k to 9.990k, so 15 * 9990 / 19990 = 7.496 V.
   it('stores a reading with the verdict from the pinned board model (divider of 15 V read by a 10 Mohm meter)', async () => {
-    const r = await tech.post(`/api/jobs/${jobId}/readings`, reading());
+    const r = await tech.post(`/api/jobs/${jobId}/readings`, dividerReading());
     expect(r.status).toBe(201);
     expect(r.body).toMatchObject({ redNet: 'mid', blackNet: '0', verdict: { verdict: 'ok', unit: 'V' } });
     expect(r.body.expected).toBeCloseTo(7.496, 3);
-    const low = await tech.post(`/api/jobs/${jobId}/readings`, reading({ value: 2.1, raw: '2.1' }));
+    const low = await tech.post(`/api/jobs/${jobId}/readings`, dividerReading({ value: 2.1, raw: '2.1' }));
     expect(low.body).toMatchObject({ verdict: { verdict: 'low' } });
   });
 
   it('a retried POST with the same key stores one row and answers the same body', async () => {
-    const body = reading({ value: 7.4, raw: '7.4' });
+    const body = dividerReading({ value: 7.4, raw: '7.4' });
     const before = await count();
     const a = await tech.post(`/api/jobs/${jobId}/readings`, body);
     const b = await tech.post(`/api/jobs/${jobId}/readings`, body);
@@ -57,8 +47,8 @@ describe('readings', () => {
   });
 
   it('a correction keeps the history: the old row stays, marked superseded', async () => {
-    const first = await tech.post(`/api/jobs/${jobId}/readings`, reading({ value: 75, raw: '75' }));
-    const fix = await tech.post(`/api/jobs/${jobId}/readings`, reading({ value: 7.5, raw: '7.5', supersedes: first.body.id }));
+    const first = await tech.post(`/api/jobs/${jobId}/readings`, dividerReading({ value: 75, raw: '75' }));
+    const fix = await tech.post(`/api/jobs/${jobId}/readings`, dividerReading({ value: 7.5, raw: '7.5', supersedes: String(first.body.id) }));
     expect(fix.status).toBe(201);
     const all = await tech.get(`/api/jobs/${jobId}/readings`);
     const old = (all.body.items as { id: string; supersededBy: string | null }[]).find((x) => x.id === first.body.id);
@@ -68,8 +58,8 @@ describe('readings', () => {
   });
 
   it.each([
-    ['dcv sent as unpowered', reading({ power: 'off' }), 422, /powered/],
-    ['"abc" as the value', reading({ value: 'abc' }), 422, /value/],
+    ['dcv sent as unpowered', dividerReading({ power: 'off' }), 422, /powered/],
+    ['"abc" as the value', { ...dividerReading(), value: 'abc' }, 422, /value/],
     [
       'Infinity (1e400 in JSON)',
       '{"idempotencyKey":"k-1e400-aaaa","mode":"dcv","red":"TP2","black":"0","power":"on","value":1e400,"raw":"x"}',
@@ -77,8 +67,8 @@ describe('readings', () => {
       /must be a number/,
     ],
     ['NaN', '{"idempotencyKey":"k-nan-aaaaaa","mode":"dcv","red":"TP2","black":"0","power":"on","value":NaN,"raw":"x"}', 400, /JSON/],
-    ['a negative resistance', reading({ mode: 'ohm', power: 'off', value: -5, raw: '-5' }), 422, /negative/],
-    ['an unknown net', reading({ red: 'TP99' }), 422, /TP99/],
+    ['a negative resistance', dividerReading({ mode: 'ohm', power: 'off', value: -5, raw: '-5' }), 422, /negative/],
+    ['an unknown net', dividerReading({ red: 'TP99' }), 422, /TP99/],
   ])('refuses %s and stores nothing', async (_what, body, status, detail) => {
     const before = await count();
     const r = await tech.post(`/api/jobs/${jobId}/readings`, body);
@@ -90,16 +80,16 @@ describe('readings', () => {
 
   it('refuses a 10 MB body with 413', async () => {
     const before = await count();
-    const r = await tech.post(`/api/jobs/${jobId}/readings`, reading({ raw: 'x'.repeat(10 * 1024 * 1024) }));
+    const r = await tech.post(`/api/jobs/${jobId}/readings`, dividerReading({ raw: 'x'.repeat(10 * 1024 * 1024) }));
     expect(r.status).toBe(413);
     expect(await count()).toBe(before);
   });
 
   it('answers 404 for another shop and 403 for a trainee on a job not assigned to them', async () => {
     const other = await new Client(server.url).signIn('tech@other.test');
-    expect((await other.post(`/api/jobs/${jobId}/readings`, reading())).status).toBe(404);
+    expect((await other.post(`/api/jobs/${jobId}/readings`, dividerReading())).status).toBe(404);
     const trainee = await new Client(server.url).signIn('trainee@demo.test');
-    expect((await trainee.post(`/api/jobs/${jobId}/readings`, reading())).status).toBe(403);
+    expect((await trainee.post(`/api/jobs/${jobId}/readings`, dividerReading())).status).toBe(403);
   });
 
   it('runs the diagnosis on the current readings', async () => {

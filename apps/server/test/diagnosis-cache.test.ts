@@ -1,12 +1,12 @@
 // The diagnosis is kept per job while its current readings stay the same: a repeated GET does not run the
 // engine again, and anything that changes what the engine reads (a new reading, a correction) changes the answer.
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { randomUUID } from 'node:crypto';
 import type { Diagnosis } from '@splitscope/contract';
 import { diagnosisPool } from '../src/features/diagnosis/pool';
 import type { RunningServer } from '../src/server';
 import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
+import { dividerReading } from '../src/testing/requests';
 
 let server: RunningServer;
 let tech: Client;
@@ -15,16 +15,6 @@ let jobId: string;
 // How many times the engine ran since the last reset: a wrapper around the call to the diagnosis thread.
 const runs = { count: 0, restore: () => {} };
 
-const reading = (over: Record<string, unknown> = {}) => ({
-  idempotencyKey: randomUUID(),
-  mode: 'dcv',
-  red: 'TP2',
-  black: 'gnd',
-  power: 'on',
-  value: 7.5,
-  raw: '7.5',
-  ...over,
-});
 const diagnosis = async () => {
   const r = await tech.get(`/api/jobs/${jobId}/diagnosis`);
   expect(r.status).toBe(200);
@@ -40,7 +30,7 @@ beforeAll(async () => {
   jobId = (await createJob(db, { shopId: 'shop-demo', createdBy: 'user-tech', customerId: customer.id, boardId: board.id })).id;
   tech = await new Client(server.url).signIn('tech@demo.test');
   other = await new Client(server.url).signIn('tech@other.test');
-  expect((await tech.post(`/api/jobs/${jobId}/readings`, reading())).status).toBe(201);
+  expect((await tech.post(`/api/jobs/${jobId}/readings`, dividerReading())).status).toBe(201);
   await diagnosis();
   const pool = diagnosisPool();
   const original = pool.run;
@@ -68,7 +58,7 @@ describe('diagnosis cache', () => {
 
   it('a new reading changes the answer, and concurrent GETs for it run the engine once', async () => {
     const before = readingIds(await diagnosis());
-    const r = await tech.post(`/api/jobs/${jobId}/readings`, reading({ value: 2.1, raw: '2.1' }));
+    const r = await tech.post(`/api/jobs/${jobId}/readings`, dividerReading({ value: 2.1, raw: '2.1' }));
     expect(r.status).toBe(201);
     const answers = await Promise.all(Array.from({ length: 5 }, () => diagnosis()));
     expect(runs.count).toBe(1);
@@ -76,7 +66,7 @@ describe('diagnosis cache', () => {
   });
 
   it('a retried POST (same key) stores nothing, so the kept answer stands', async () => {
-    const body = reading({ value: 7.4, raw: '7.4' });
+    const body = dividerReading({ value: 7.4, raw: '7.4' });
     const first = await tech.post(`/api/jobs/${jobId}/readings`, body);
     const ids = readingIds(await diagnosis());
     runs.count = 0;
@@ -87,9 +77,9 @@ describe('diagnosis cache', () => {
   });
 
   it('a correction changes the answer: the corrected reading leaves it, the correction joins it', async () => {
-    const wrong = await tech.post(`/api/jobs/${jobId}/readings`, reading({ value: 75, raw: '75' }));
+    const wrong = await tech.post(`/api/jobs/${jobId}/readings`, dividerReading({ value: 75, raw: '75' }));
     expect(readingIds(await diagnosis())).toContain(wrong.body.id);
-    const fix = await tech.post(`/api/jobs/${jobId}/readings`, reading({ value: 7.5, raw: '7.5', supersedes: wrong.body.id }));
+    const fix = await tech.post(`/api/jobs/${jobId}/readings`, dividerReading({ value: 7.5, raw: '7.5', supersedes: String(wrong.body.id) }));
     expect(fix.status).toBe(201);
     const ids = readingIds(await diagnosis());
     expect(ids).not.toContain(wrong.body.id);

@@ -1,9 +1,9 @@
 // Separation of duties per shop (hole 11): by default the proposer of a diagnosis does not approve it, and a
 // reading someone else took is corrected only by a lead or above; an admin can relax both for a small shop.
-import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startBench, type Bench } from './bench-fixture';
 import type { Client } from './harness';
+import { dividerReading } from '../src/testing/requests';
 
 let bench: Bench;
 let admin: Client;
@@ -22,16 +22,6 @@ afterAll(async () => {
 
 const newJob = (assigneeId = 'user-trainee') => bench.newJob({ createdBy: 'user-lead', assigneeId });
 // The divider board: 15 V over 10k/10k reads about 7.5 V at TP2.
-const reading = (over: Record<string, unknown> = {}) => ({
-  idempotencyKey: randomUUID(),
-  mode: 'dcv',
-  red: 'TP2',
-  black: 'gnd',
-  power: 'on',
-  value: 7.5,
-  raw: '7.5',
-  ...over,
-});
 
 describe('separation of duties', () => {
   it('reads the defaults, and only an admin changes them', async () => {
@@ -42,7 +32,7 @@ describe('separation of duties', () => {
 
   it('refuses the proposer approving their own proposal unless the shop allows it', async () => {
     const job = await newJob('user-lead');
-    expect((await lead.post(`/api/jobs/${job}/readings`, reading({ value: 2.1, raw: '2.1' }))).status).toBe(201);
+    expect((await lead.post(`/api/jobs/${job}/readings`, dividerReading({ value: 2.1, raw: '2.1' }))).status).toBe(201);
     expect((await lead.patch(`/api/jobs/${job}`, { status: 'awaiting-review', proposedPart: 'R2' })).status).toBe(200);
     const own = await lead.post(`/api/jobs/${job}/reviews`, { decision: 'approve', comment: 'R2 open' });
     expect(own.status).toBe(403);
@@ -51,7 +41,7 @@ describe('separation of duties', () => {
     expect((await admin.post(`/api/jobs/${job}/reviews`, { decision: 'approve', comment: 'R2 open, agreed' })).status).toBe(201);
 
     const next = await newJob('user-lead');
-    await lead.post(`/api/jobs/${next}/readings`, reading({ value: 2.1, raw: '2.1' }));
+    await lead.post(`/api/jobs/${next}/readings`, dividerReading({ value: 2.1, raw: '2.1' }));
     await lead.patch(`/api/jobs/${next}`, { status: 'awaiting-review', proposedPart: 'R2' });
     expect((await admin.patch('/api/shop/duties', { selfApproval: true })).status).toBe(200);
     expect((await lead.post(`/api/jobs/${next}/reviews`, { decision: 'approve', comment: 'one-person bench' })).status).toBe(201);
@@ -60,19 +50,19 @@ describe('separation of duties', () => {
 
   it("lets a trainee or technician correct only their own readings, and a lead anyone's", async () => {
     const job = await newJob('user-trainee');
-    const leads = await lead.post(`/api/jobs/${job}/readings`, reading());
+    const leads = await lead.post(`/api/jobs/${job}/readings`, dividerReading());
     expect(leads.status).toBe(201);
-    const byTrainee = await trainee.post(`/api/jobs/${job}/readings`, reading({ supersedes: leads.body.id }));
+    const byTrainee = await trainee.post(`/api/jobs/${job}/readings`, dividerReading({ supersedes: String(leads.body.id) }));
     expect(byTrainee.status).toBe(403);
     expect(String(byTrainee.body.detail)).toMatch(/needs a lead or above/);
-    const techs = await tech.post(`/api/jobs/${job}/readings`, reading({ value: 7.4, raw: '7.4' }));
-    expect((await tech.post(`/api/jobs/${job}/readings`, reading({ supersedes: leads.body.id }))).status).toBe(403);
-    expect((await tech.post(`/api/jobs/${job}/readings`, reading({ supersedes: techs.body.id, value: 7.45, raw: '7.45' }))).status).toBe(201);
-    expect((await lead.post(`/api/jobs/${job}/readings`, reading({ supersedes: leads.body.id, value: 7.5, raw: '7.50' }))).status).toBe(201);
+    const techs = await tech.post(`/api/jobs/${job}/readings`, dividerReading({ value: 7.4, raw: '7.4' }));
+    expect((await tech.post(`/api/jobs/${job}/readings`, dividerReading({ supersedes: String(leads.body.id) }))).status).toBe(403);
+    expect((await tech.post(`/api/jobs/${job}/readings`, dividerReading({ supersedes: String(techs.body.id), value: 7.45, raw: '7.45' }))).status).toBe(201);
+    expect((await lead.post(`/api/jobs/${job}/readings`, dividerReading({ supersedes: String(leads.body.id), value: 7.5, raw: '7.50' }))).status).toBe(201);
 
     // a shop that lets technicians correct each other
     expect((await admin.patch('/api/shop/duties', { correctOthersMinRole: 'tech' })).status).toBe(200);
-    const again = await lead.post(`/api/jobs/${job}/readings`, reading({ value: 7.6, raw: '7.6' }));
-    expect((await tech.post(`/api/jobs/${job}/readings`, reading({ supersedes: again.body.id }))).status).toBe(201);
+    const again = await lead.post(`/api/jobs/${job}/readings`, dividerReading({ value: 7.6, raw: '7.6' }));
+    expect((await tech.post(`/api/jobs/${job}/readings`, dividerReading({ supersedes: String(again.body.id) }))).status).toBe(201);
   });
 });

@@ -10,6 +10,7 @@ import { newId } from '../src/lib/ids';
 import type { RunningServer } from '../src/server';
 import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
+import { dividerReading } from '../src/testing/requests';
 
 let server: RunningServer;
 let tech: Client;
@@ -28,16 +29,6 @@ beforeAll(async () => {
 afterAll(() => server.close());
 
 const newJob = async () => (await createJob(server.ctx.db, { shopId: 'shop-demo', createdBy: 'user-tech', customerId, boardId })).id;
-const reading = (over: Record<string, unknown> = {}) => ({
-  idempotencyKey: randomUUID(),
-  mode: 'dcv',
-  red: 'TP2',
-  black: 'gnd',
-  power: 'on',
-  value: 7.5,
-  raw: '7.5',
-  ...over,
-});
 const rowsOf = (jobId: string) => server.ctx.db.select().from(readings).where(eq(readings.jobId, jobId));
 const statusOf = async (jobId: string) => (await server.ctx.db.select({ s: jobs.status }).from(jobs).where(eq(jobs.id, jobId)))[0]!.s;
 
@@ -46,7 +37,7 @@ describe('readings sent together', () => {
   // loop depends on the machine): rows handed to the writer in one turn go out as one statement.
   it('rows queued in the same turn of the event loop are stored by one statement', async () => {
     const jobId = await newJob();
-    expect((await tech.post(`/api/jobs/${jobId}/readings`, reading())).status).toBe(201);
+    expect((await tech.post(`/api/jobs/${jobId}/readings`, dividerReading())).status).toBe(201);
     const [{ createdAt: _createdAt, ...stored }] = (await rowsOf(jobId)) as [typeof readings.$inferSelect];
     const rows = Array.from({ length: 40 }, () => ({ ...stored, id: newId(), idempotencyKey: randomUUID() }));
     const before = batchStats.statements;
@@ -59,7 +50,7 @@ describe('readings sent together', () => {
   it('are all stored, each answered with its own row, and the first moves a received job to diagnosing', async () => {
     const jobId = await newJob();
     expect(await statusOf(jobId)).toBe('received');
-    const bodies = Array.from({ length: 40 }, (_, i) => reading({ value: 7 + i / 100, raw: `${7 + i / 100}` }));
+    const bodies = Array.from({ length: 40 }, (_, i) => dividerReading({ value: 7 + i / 100, raw: `${7 + i / 100}` }));
     const answers = await Promise.all(bodies.map((b) => tech.post(`/api/jobs/${jobId}/readings`, b)));
     expect(answers.map((a) => a.status)).toEqual(bodies.map(() => 201));
     // The route writes the answer without parsing it again: the contract must still accept every one.
@@ -81,7 +72,7 @@ describe('readings sent together', () => {
   // Batches in flight at once may name the same received jobs; each first reading moves its job on.
   it('first readings of several received jobs, interleaved over concurrent batches, are all stored', async () => {
     const ids = await Promise.all(Array.from({ length: 6 }, () => newJob()));
-    const sent = Array.from({ length: 150 }, (_, i) => ({ jobId: ids[(i * 7) % ids.length]!, body: reading() }));
+    const sent = Array.from({ length: 150 }, (_, i) => ({ jobId: ids[(i * 7) % ids.length]!, body: dividerReading() }));
     const answers = await Promise.all(sent.map(({ jobId, body }) => tech.post(`/api/jobs/${jobId}/readings`, body)));
     expect(answers.filter((a) => a.status !== 201).map((a) => a.body)).toEqual([]);
     for (const id of ids) {
@@ -92,7 +83,7 @@ describe('readings sent together', () => {
 
   it('a key sent twice in the same batch stores one row, and both answers are that row', async () => {
     const jobId = await newJob();
-    const body = reading();
+    const body = dividerReading();
     const [a, b] = await Promise.all([tech.post(`/api/jobs/${jobId}/readings`, body), tech.post(`/api/jobs/${jobId}/readings`, body)]);
     expect([a.status, b.status]).toEqual([201, 201]);
     expect(b.body.id).toBe(a.body.id);
@@ -103,14 +94,14 @@ describe('readings sent together', () => {
     const open = await newJob();
     const closed = await newJob();
     await server.ctx.db.update(jobs).set({ status: 'awaiting-review' }).where(eq(jobs.id, closed));
-    const first = await tech.post(`/api/jobs/${open}/readings`, reading({ value: 75, raw: '75' }));
+    const first = await tech.post(`/api/jobs/${open}/readings`, dividerReading({ value: 75, raw: '75' }));
     const sent = await Promise.all([
-      tech.post(`/api/jobs/${open}/readings`, reading()),
-      tech.post(`/api/jobs/${closed}/readings`, reading()),
-      other.post(`/api/jobs/${open}/readings`, reading()),
-      tech.post(`/api/jobs/${open}/readings`, reading({ supersedes: first.body.id })),
-      tech.post(`/api/jobs/${open}/readings`, reading({ supersedes: first.body.id })),
-      tech.post(`/api/jobs/${open}/readings`, reading({ value: 7.4, raw: '7.4' })),
+      tech.post(`/api/jobs/${open}/readings`, dividerReading()),
+      tech.post(`/api/jobs/${closed}/readings`, dividerReading()),
+      other.post(`/api/jobs/${open}/readings`, dividerReading()),
+      tech.post(`/api/jobs/${open}/readings`, dividerReading({ supersedes: String(first.body.id) })),
+      tech.post(`/api/jobs/${open}/readings`, dividerReading({ supersedes: String(first.body.id) })),
+      tech.post(`/api/jobs/${open}/readings`, dividerReading({ value: 7.4, raw: '7.4' })),
     ]);
     const [plain, toClosed, fromOther, fixA, fixB, plain2] = sent;
     expect(plain!.status).toBe(201);
@@ -131,9 +122,9 @@ describe('readings sent together', () => {
     const [ohm, cont] = await Promise.all([
       tech.post(
         `/api/jobs/${jobId}/readings`,
-        reading({ mode: 'ohm', power: 'off', value: 'OL', raw: 'OL', lifted: ['R2'], safetyCheck: { unplugged: true, busVolts: 1.2 } }),
+        dividerReading({ mode: 'ohm', power: 'off', value: 'OL', raw: 'OL', lifted: ['R2'], safetyCheck: { unplugged: true, busVolts: 1.2 } }),
       ),
-      tech.post(`/api/jobs/${jobId}/readings`, reading({ mode: 'continuity', power: 'off', value: 'OL', raw: 'no beep', beep: false })),
+      tech.post(`/api/jobs/${jobId}/readings`, dividerReading({ mode: 'continuity', power: 'off', value: 'OL', raw: 'no beep', beep: false })),
     ]);
     expect(ohm!.status).toBe(201);
     expect(ohm!.body).toMatchObject({ value: 'OL', lifted: ['R2'], safetyBusVolts: 1.2 });

@@ -1,6 +1,5 @@
 // The job's flow through moveJob, and the repair report's one model: the web's report, the PDF and the e-mail
 // render what GET /api/jobs/:id/report answers, with the verification readings as the sign-off check sees them.
-import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { repairReportSchema, type RepairReport } from '@splitscope/contract';
@@ -11,6 +10,7 @@ import { reportLines } from '../src/features/reports/pdf';
 import type { RunningServer } from '../src/server';
 import { createBoardModel, createCustomer, createJob } from '../src/testing/factories';
 import { Client, startTestServer } from './harness';
+import { dividerReading } from '../src/testing/requests';
 
 let server: RunningServer;
 let tech: Client;
@@ -29,21 +29,11 @@ beforeAll(async () => {
 afterAll(() => server.close());
 
 // The divider board: 15 V over 10k/10k reads about 7.5 V at TP2 (see bench.test.ts for the loading figure).
-const reading = (over: Record<string, unknown> = {}) => ({
-  idempotencyKey: randomUUID(),
-  mode: 'dcv',
-  red: 'TP2',
-  black: 'gnd',
-  power: 'on',
-  value: 7.5,
-  raw: '7.5',
-  ...over,
-});
 const statusOf = async () => (await server.ctx.db.select({ s: jobs.status }).from(jobs).where(eq(jobs.id, jobId)))[0]!.s;
 
 describe('job flow and repair report', () => {
   it('moves only along the table: a review decision is refused as an edit, and moveJob refuses a move the table lacks', async () => {
-    expect((await tech.post(`/api/jobs/${jobId}/readings`, reading({ value: 2.1, raw: '2.1' }))).status).toBe(201);
+    expect((await tech.post(`/api/jobs/${jobId}/readings`, dividerReading({ value: 2.1, raw: '2.1' }))).status).toBe(201);
     expect(await statusOf()).toBe('diagnosing');
     expect((await tech.patch(`/api/jobs/${jobId}`, { status: 'awaiting-review', proposedPart: 'R2' })).status).toBe(200);
     const asEdit = await lead.patch(`/api/jobs/${jobId}`, { status: 'approved' });
@@ -59,12 +49,12 @@ describe('job flow and repair report', () => {
 
   it('leaves a corrected verification reading out of the sign-off, the report and the PDF', async () => {
     expect((await tech.post(`/api/jobs/${jobId}/repairs`, { part: 'R2', action: 'replaced', replacementValue: '10k' })).status).toBe(201);
-    const typo = await tech.post(`/api/jobs/${jobId}/readings`, reading({ phase: 'verification', value: 75, raw: '75' }));
+    const typo = await tech.post(`/api/jobs/${jobId}/readings`, dividerReading({ phase: 'verification', value: 75, raw: '75' }));
     expect(typo.body).toMatchObject({ verdict: { verdict: 'high' } });
-    const fix = await tech.post(`/api/jobs/${jobId}/readings`, reading({ phase: 'verification', supersedes: typo.body.id }));
+    const fix = await tech.post(`/api/jobs/${jobId}/readings`, dividerReading({ phase: 'verification', supersedes: String(typo.body.id) }));
     expect(fix.body).toMatchObject({ verdict: { verdict: 'ok' } });
     // The sign-off checklist also asks for the rail that feeds the divider (TP1, 15 V).
-    const rail = await tech.post(`/api/jobs/${jobId}/readings`, reading({ phase: 'verification', red: 'TP1', value: 15, raw: '15' }));
+    const rail = await tech.post(`/api/jobs/${jobId}/readings`, dividerReading({ phase: 'verification', red: 'TP1', value: 15, raw: '15' }));
     expect(rail.body).toMatchObject({ verdict: { verdict: 'ok' } });
     expect((await tech.patch(`/api/jobs/${jobId}`, { status: 'repaired' })).status).toBe(200);
     // the sign-off judges the correction, not the typo it replaced

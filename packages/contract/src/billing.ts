@@ -77,46 +77,40 @@ export function computeTotals(lines: readonly LineForTotals[], rateMilliPercent:
   return { lines: amounts, subtotalCents: toSafe(BigInt(subtotal)), taxableCents: taxable, taxCents: tax, totalCents: toSafe(BigInt(subtotal + tax)) };
 }
 
+/** Typed decimal text → an integer count of 10^-places units, without going through a float. */
+function parseFixed(text: string, digits: number, places: number, shape: string): number {
+  const m = new RegExp(`^(\\d{1,${digits}})(?:\\.(\\d{1,${places}}))?$`).exec(text.trim());
+  if (!m) throw new RangeError(shape);
+  return Number(m[1]) * 10 ** places + Number((m[2] ?? '').padEnd(places, '0'));
+}
+
+/** An integer count of 10^-places units → the shortest decimal ("1.5", "2"). */
+function formatFixed(units: number, places: number): string {
+  const one = 10 ** places;
+  const frac = String(units % one)
+    .padStart(places, '0')
+    .replace(/0+$/, '');
+  return frac ? `${Math.trunc(units / one)}.${frac}` : String(Math.trunc(units / one));
+}
+
 /** "8.875" (percent) → 8875; at most three decimals. */
 export function parseTaxRate(percent: string): number {
-  const m = /^(\d{1,3})(?:\.(\d{1,3}))?$/.exec(percent.trim());
-  if (!m) throw new RangeError('tax rate must look like 8.25');
-  const v = Number(m[1]) * 1000 + Number((m[2] ?? '').padEnd(3, '0'));
+  const v = parseFixed(percent, 3, 3, 'tax rate must look like 8.25');
   if (v > MAX_TAX_RATE_MILLI_PERCENT) throw new RangeError('tax rate must be at most 100 %');
   return v;
 }
 
 /** 8875 → "8.875", 8000 → "8". */
-export function formatTaxRate(milliPercent: number): string {
-  const whole = Math.trunc(milliPercent / 1000);
-  const frac = String(milliPercent % 1000)
-    .padStart(3, '0')
-    .replace(/0+$/, '');
-  return frac ? `${whole}.${frac}` : String(whole);
-}
+export const formatTaxRate = (milliPercent: number): string => formatFixed(milliPercent, 3);
 
 /** "1.5" → 150; at most two decimals. */
-export function parseQuantity(text: string): number {
-  const m = /^(\d{1,6})(?:\.(\d{1,2}))?$/.exec(text.trim());
-  if (!m) throw new RangeError('quantity must look like 1 or 1.5');
-  return Number(m[1]) * 100 + Number((m[2] ?? '').padEnd(2, '0'));
-}
+export const parseQuantity = (text: string): number => parseFixed(text, 6, 2, 'quantity must look like 1 or 1.5');
 
 /** 150 → "1.5", 200 → "2". */
-export function formatQuantity(hundredths: number): string {
-  const whole = Math.trunc(hundredths / 100);
-  const frac = String(hundredths % 100)
-    .padStart(2, '0')
-    .replace(/0+$/, '');
-  return frac ? `${whole}.${frac}` : String(whole);
-}
+export const formatQuantity = (hundredths: number): string => formatFixed(hundredths, 2);
 
 /** "12.50" / "12.5" / "12" (major units) → 1250 cents, without going through a float. */
-export function parseMoney(text: string): number {
-  const m = /^(\d{1,9})(?:\.(\d{1,2}))?$/.exec(text.trim());
-  if (!m) throw new RangeError('amount must look like 12.50');
-  return Number(m[1]) * 100 + Number((m[2] ?? '').padEnd(2, '0'));
-}
+export const parseMoney = (text: string): number => parseFixed(text, 9, 2, 'amount must look like 12.50');
 
 /** 1250 → "12.50": cents as the decimal a person types back into a price field. */
 export function centsToDecimal(cents: number): string {

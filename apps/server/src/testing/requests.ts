@@ -17,3 +17,8 @@ export function readingRequest(
 ): CreateReadingRequest {
   return { idempotencyKey: crypto.randomUUID(), raw: String(r.value), ...r };
 }
+
+/** The reading most integration tests start from: DC V powered, TP2 to ground, 7.5 V (the demo board's divider). */
+export function dividerReading(over: Partial<CreateReadingRequest> = {}): CreateReadingRequest {
+  return readingRequest({ mode: 'dcv', red: 'TP2', black: 'gnd', power: 'on', value: 7.5, ...over });
+}

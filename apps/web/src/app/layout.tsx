@@ -1,6 +1,6 @@
 import { Suspense } from 'react';
 import { Navigate, NavLink, Outlet, useLocation, useNavigate } from 'react-router-dom';
-import { hasRole, roleLabels, ROLES } from '@splitscope/contract';
+import { hasRole, roleLabels, ROLES, type Role } from '@splitscope/contract';
 import { useMe } from '@/lib/api/me';
 import { useSignOut } from '@/features/auth/api/sign-in';
 
@@ -12,6 +12,20 @@ const Short = ({ short, long }: { short: string; long: string }) => (
   </>
 );
 
+/** The main links in their order; `roles` keeps a link to those roles (the contract's role sets). */
+const LINKS: { to: string; label: string; short?: string; end?: boolean; roles?: readonly Role[] }[] = [
+  { to: '/', label: 'Home', end: true },
+  { to: '/jobs', label: 'Jobs', end: true },
+  { to: '/customers', label: 'Customers' },
+  { to: '/review', label: 'Review', roles: ROLES.reviewers },
+  { to: '/boards', label: 'Board library', short: 'Boards', roles: ROLES.reviewers },
+  { to: '/references', label: 'Bench references', short: 'References' },
+  { to: '/people', label: 'People', roles: ROLES.admins },
+  { to: '/shop', label: 'Shop', roles: ROLES.admins },
+  { to: '/billing/settings', label: 'Billing', roles: ROLES.admins },
+  { to: '/dev/mail', label: 'Mail outbox', short: 'Mail', roles: ROLES.admins },
+];
+
 /** The signed-in frame: header with navigation; sends signed-out visitors to the sign-in page. */
 export function AppLayout() {
   const me = useMe();
@@ -22,6 +36,7 @@ export function AppLayout() {
   if (me.isError) return <p className="p-6 text-high">Could not reach the server: {me.error.message}</p>;
   if (!me.data) return <Navigate to="/sign-in" replace state={{ from: location.pathname }} />;
 
+  const role = me.data.role;
   const link = ({ isActive }: { isActive: boolean }) =>
     `flex min-h-11 items-center whitespace-nowrap rounded-md px-2 xl:px-3 ${isActive ? 'bg-white/15 font-semibold' : 'hover:bg-white/10'}`;
   return (
@@ -32,48 +47,11 @@ export function AppLayout() {
         </NavLink>
         {/* One row from 1024 px (the admin has the most links); on a phone the links wrap under the name. */}
         <nav aria-label="Main" className="order-last flex w-full flex-wrap gap-1 lg:order-none lg:w-auto lg:flex-1 lg:flex-nowrap">
-          <NavLink to="/" end className={link}>
-            Home
-          </NavLink>
-          <NavLink to="/jobs" end className={link}>
-            Jobs
-          </NavLink>
-          <NavLink to="/customers" className={link}>
-            Customers
-          </NavLink>
-          {hasRole(me.data.role, ROLES.reviewers) && (
-            <NavLink to="/review" className={link}>
-              Review
+          {LINKS.filter((l) => !l.roles || hasRole(role, l.roles)).map((l) => (
+            <NavLink key={l.to} to={l.to} end={l.end} className={link}>
+              {l.short ? <Short short={l.short} long={l.label} /> : l.label}
             </NavLink>
-          )}
-          {hasRole(me.data.role, ROLES.reviewers) && (
-            <NavLink to="/boards" className={link}>
-              <Short short="Boards" long="Board library" />
-            </NavLink>
-          )}
-          <NavLink to="/references" className={link}>
-            <Short short="References" long="Bench references" />
-          </NavLink>
-          {hasRole(me.data.role, ROLES.admins) && (
-            <NavLink to="/people" className={link}>
-              People
-            </NavLink>
-          )}
-          {hasRole(me.data.role, ROLES.admins) && (
-            <NavLink to="/shop" className={link}>
-              Shop
-            </NavLink>
-          )}
-          {hasRole(me.data.role, ROLES.admins) && (
-            <NavLink to="/billing/settings" className={link}>
-              Billing
-            </NavLink>
-          )}
-          {hasRole(me.data.role, ROLES.admins) && (
-            <NavLink to="/dev/mail" className={link}>
-              <Short short="Mail" long="Mail outbox" />
-            </NavLink>
-          )}
+          ))}
         </nav>
         <NavLink
           to="/account"

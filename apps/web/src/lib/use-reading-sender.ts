@@ -1,6 +1,7 @@
 import type { CreateReadingRequest, CreateReadingResponse } from '@splitscope/contract';
 import { useQueryClient } from '@tanstack/react-query';
 import { useCallback, useEffect, useRef, useState } from 'react';
+import { afterReadingWritten } from '@/lib/after-reading-written';
 import { createReading } from '@/lib/api/create-reading';
 import { ApiError } from '@/lib/api-client';
 import { enqueueUnsent, flushUnsent, loadUnsent, type KeyValueStore, type UnsentEntry } from '@/lib/unsent-queue';
@@ -63,10 +64,7 @@ export function useReadingSender(jobId: string) {
         if (r.sent.length) {
           // Stored: no longer listed as unsent while the readings and the (slower) diagnosis are fetched again.
           refresh();
-          await Promise.all([
-            qc.invalidateQueries({ queryKey: ['jobs', jobId, 'readings'] }),
-            qc.invalidateQueries({ queryKey: ['jobs', jobId, 'diagnosis'] }),
-          ]);
+          await afterReadingWritten(qc, jobId);
         }
       }
     } finally {

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { formatValue, spiceParts, spiceValue } from './spice-section';
+import { formatSi } from '../references/decode-marking';
+import { spiceParts, spiceValue } from './spice-section';
 
 describe('SPICE sections', () => {
   it('reads SPICE3 scale suffixes (Berkeley SPICE3 user guide, "Numeric values"): meg is mega, m is milli', () => {
@@ -9,7 +10,7 @@ describe('SPICE sections', () => {
     expect(spiceValue('100n')).toBeCloseTo(1e-7, 15);
     expect(spiceValue('1.5e3')).toBe(1500);
     expect(spiceValue('QP')).toBeUndefined();
-    expect(formatValue(4700, 'Ω')).toBe('4.7 kΩ');
+    expect(formatSi(4700, 'Ω')).toBe('4.7 kΩ');
   });
 
   it('reads parts from element lines, leaving sources and off-board elements out', () => {

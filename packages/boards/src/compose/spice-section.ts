@@ -4,6 +4,7 @@
  * circuit package so composing a board in the browser does not load the expression evaluator.
  */
 import type { BoardPartKind } from '@splitscope/contract';
+import { formatSi } from '../references/decode-marking';
 import type { TemplatePart } from '../sections/types';
 
 const SCALE: [string, number][] = [
@@ -27,21 +28,6 @@ export function spiceValue(token: string | undefined): number | undefined {
   const suffix = (m[2] ?? '').toLowerCase();
   const hit = SCALE.find(([s]) => suffix.startsWith(s));
   return Number(m[1]) * (hit ? hit[1] : 1);
-}
-
-/** Engineering notation for a part label: 4700 → "4.7 kΩ", 1e-7 → "100 nF". */
-export function formatValue(v: number, unit: string): string {
-  const steps: [number, string][] = [
-    [1e6, 'M'],
-    [1e3, 'k'],
-    [1, ''],
-    [1e-3, 'm'],
-    [1e-6, 'µ'],
-    [1e-9, 'n'],
-    [1e-12, 'p'],
-  ];
-  for (const [s, p] of steps) if (Math.abs(v) >= s) return `${Number((v / s).toPrecision(3))} ${p}${unit}`;
-  return `${v} ${unit}`;
 }
 
 const TWO_PIN = new Set(['R', 'C', 'L', 'D', 'V', 'I']);
@@ -98,7 +84,7 @@ export function spiceParts(text: string, offBoard: readonly string[] = [], kinds
       designator: name,
       element: name,
       kind,
-      value: value !== undefined ? formatValue(value, letter === 'R' ? 'Ω' : 'F') : model,
+      value: value !== undefined ? formatSi(value, letter === 'R' ? 'Ω' : 'F') : model,
       package: packageOf(kind),
       pins: nodes.map((n, i) => ({ pin: pinNames[i] ?? String(i + 1), net: n })),
     };

@@ -3,7 +3,18 @@
 // speed command, the speed feedback and two thermistor inputs (room and indoor coil).
 import type { BoardModel } from '@splitscope/contract';
 import { composeBoard } from '../compose/compose';
-import type { BoardSpec } from '../compose/types';
+import type { BoardSpec, TemplateSectionInstance } from '../compose/types';
+
+/** The room and coil inputs are one thermistor-sense section each, side by side along the bottom edge. */
+const thermistorInput = (id: string, base: number, title: string, sensor: string, celsius: number, x: number): TemplateSectionInstance => ({
+  id,
+  template: 'thermistor-sense',
+  base,
+  title,
+  nets: { sensor },
+  params: { celsius },
+  region: { x, y: 630, w: 360, h: 130 },
+});
 
 export const INDOOR_FAN_SPEC: BoardSpec = {
   id: 'demo-idf-310',
@@ -47,24 +58,8 @@ export const INDOOR_FAN_SPEC: BoardSpec = {
       params: { pulsesPerRevolution: 4 },
       region: { x: 880, y: 340, w: 280, h: 260 },
     },
-    {
-      id: 'room-th',
-      template: 'thermistor-sense',
-      base: 600,
-      title: 'Room thermistor input',
-      nets: { sensor: 'room_th' },
-      params: { celsius: 25 },
-      region: { x: 40, y: 630, w: 360, h: 130 },
-    },
-    {
-      id: 'coil-th',
-      template: 'thermistor-sense',
-      base: 610,
-      title: 'Coil thermistor input',
-      nets: { sensor: 'coil_th' },
-      params: { celsius: 10 },
-      region: { x: 420, y: 630, w: 360, h: 130 },
-    },
+    thermistorInput('room-th', 600, 'Room thermistor input', 'room_th', 25, 40),
+    thermistorInput('coil-th', 610, 'Coil thermistor input', 'coil_th', 10, 420),
   ],
   connectors: [
     {

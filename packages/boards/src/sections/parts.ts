@@ -52,3 +52,38 @@ export const OPTO = (d: string, a: string, k: string, c: string, e: string): [Te
 export function collect(rows: [TemplatePart, string][]): { parts: TemplatePart[]; lines: string[] } {
   return { parts: rows.map((r) => r[0]), lines: rows.map((r) => r[1]) };
 }
+
+/** The nets of an opto-driven PNP stage; `bias` are the stage's own base/emitter resistors, in designator order. */
+export interface OptoStage {
+  /** The cold-side drive (MCU pin) and the LED anode net between the LED resistor and the opto. */
+  drive: string;
+  ledAnode: string;
+  led: { ohms: number; label: string };
+  coldGnd: string;
+  hotGnd: string;
+  /** The opto's collector, which pulls the PNP's base down through the bias network. */
+  collector: string;
+  bias: [TemplatePart, string][];
+  pnp: { label: string; emitter: string; base: string; collector: string };
+}
+
+/**
+ * LED resistor R(b+1) → opto PC(b+1) → bias resistors → PNP Q(b+1): the stage the fan switch and the speed command
+ * share (an MCU pin lights the LED, the opto's transistor turns the hot-side PNP on).
+ */
+export function optoStage(b: number, s: OptoStage): [TemplatePart, string][] {
+  const q = `Q${b + 1}`;
+  return [
+    R(`R${b + 1}`, s.drive, s.ledAnode, s.led.ohms, s.led.label),
+    OPTO(`PC${b + 1}`, s.ledAnode, s.coldGnd, s.collector, s.hotGnd),
+    ...s.bias,
+    [
+      mk(q, q, 'bjt', s.pnp.label, undefined, undefined, 'to-92', [
+        ['E', s.pnp.emitter],
+        ['B', s.pnp.base],
+        ['C', s.pnp.collector],
+      ]),
+      `${q} ${s.pnp.collector} ${s.pnp.base} ${s.pnp.emitter} QPNP`,
+    ],
+  ];
+}

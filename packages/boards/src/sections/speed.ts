@@ -1,6 +1,6 @@
 // Section templates of the motor's speed path: the opto-isolated speed command and the speed feedback (FG).
 import { SPEED_COMMAND } from './bands';
-import { C, collect, mk, net, num, OPTO, R } from './parts';
+import { C, collect, mk, net, num, OPTO, optoStage, R } from './parts';
 import type { SectionTemplate, TemplatePart } from './types';
 
 /** 4. Opto-isolated speed command: PWM duty → opto current → PNP stage → motor speed-command voltage. */
@@ -19,19 +19,16 @@ export const speedCommand: SectionTemplate = (ctx) => {
   const rLed = 680;
   const ifMax = (5 - 1.2) / rLed; // MCU pin high 5 V, LED VF 1.2 V (PC817 datasheet typical)
   const rows: [TemplatePart, string][] = [
-    R(`R${b + 1}`, pwm, la, rLed, '680R'),
-    OPTO(`PC${b + 1}`, la, gc, oc, gnd),
-    R(`R${b + 2}`, sup, em, 4.7e3, '4k7'),
-    R(`R${b + 3}`, sup, base, 1e3, '1k'),
-    R(`R${b + 4}`, base, oc, 470, '470R'),
-    [
-      mk(`Q${b + 1}`, `Q${b + 1}`, 'bjt', 'PNP small-signal', undefined, undefined, 'to-92', [
-        ['E', em],
-        ['B', base],
-        ['C', vsp],
-      ]),
-      `Q${b + 1} ${vsp} ${base} ${em} QPNP`,
-    ],
+    ...optoStage(b, {
+      drive: pwm,
+      ledAnode: la,
+      led: { ohms: rLed, label: '680R' },
+      coldGnd: gc,
+      hotGnd: gnd,
+      collector: oc,
+      bias: [R(`R${b + 2}`, sup, em, 4.7e3, '4k7'), R(`R${b + 3}`, sup, base, 1e3, '1k'), R(`R${b + 4}`, base, oc, 470, '470R')],
+      pnp: { label: 'PNP small-signal', emitter: em, base, collector: vsp },
+    }),
     R(`R${b + 5}`, vsp, gnd, 12e3, '12k'),
     R(`R${b + 6}`, vsp, gnd, 6.8e3, '6k8'),
     C(`C${b + 1}`, vsp, gnd, 1e-6, '1µ', false),

@@ -6,7 +6,7 @@
  * Hot side = bus negative "0"; cold side = microcontroller ground (board net, e.g. "gnd_c").
  */
 import { busBand, RAIL_15V, RAIL_5V, REG15_INPUT, REG5_INPUT, SWITCHED_15V } from './bands';
-import { C, collect, mk, net, num, OPTO, R } from './parts';
+import { C, collect, mk, net, num, OPTO, optoStage, R } from './parts';
 import { thermistorSense } from './sensing';
 import type { SectionContext, SectionOutput, SectionTemplate, TemplatePart } from './types';
 import { speedCommand, speedFeedback } from './speed';
@@ -213,18 +213,16 @@ export const fanSwitch: SectionTemplate = (ctx) => {
     fa = `${s}_fa`,
     fc = `${s}_fc`;
   const rows: [TemplatePart, string][] = [
-    R(`R${b + 1}`, drv, la, 330, '330R'),
-    OPTO(`PC${b + 1}`, la, gc, oc, gnd),
-    R(`R${b + 2}`, oc, base, 4.7e3, '4k7'),
-    R(`R${b + 3}`, v15, base, 10e3, '10k'),
-    [
-      mk(`Q${b + 1}`, `Q${b + 1}`, 'bjt', 'PNP 0.5 A', undefined, undefined, 'to-92', [
-        ['E', v15],
-        ['B', base],
-        ['C', sw],
-      ]),
-      `Q${b + 1} ${sw} ${base} ${v15} QPNP`,
-    ],
+    ...optoStage(b, {
+      drive: drv,
+      ledAnode: la,
+      led: { ohms: 330, label: '330R' },
+      coldGnd: gc,
+      hotGnd: gnd,
+      collector: oc,
+      bias: [R(`R${b + 2}`, oc, base, 4.7e3, '4k7'), R(`R${b + 3}`, v15, base, 10e3, '10k')],
+      pnp: { label: 'PNP 0.5 A', emitter: v15, base, collector: sw },
+    }),
     C(`C${b + 1}`, sw, gnd, 100e-9, '100n', false),
     C(`C${b + 2}`, sw, gnd, 47e-6, '47µ 25V', true),
     R(`R${b + 4}`, sw, fa, 3.3e3, '3k3'),

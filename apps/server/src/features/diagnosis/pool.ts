@@ -1,15 +1,19 @@
-// The server's diagnosis threads. A small wrapper around node:worker_threads rather than a general pool
-// package: what matters here is which thread already holds which board's engine (its prediction cache is what
-// makes a later update fast), so calls go to the thread that has the board, a board document crosses to a
-// thread once, and a thread that dies takes only its own pending calls with it.
-import { Worker } from 'node:worker_threads';
+// The server's diagnosis threads, run by piscina (docs/decisions/0008-diagnosis-pool-library.md). What matters
+// here is which thread already holds which board's engine (its prediction cache and dictionary are what make a
+// later update fast), so piscina's load balancer is given our own choice: an idle thread that holds the board,
+// else any idle one, else a new one, else the least busy holder. A board document and its dictionary cross to a
+// thread once; a thread that lacks one answers `missing` and the call is sent again with both. A thread that dies
+// takes only its own pending calls with it; piscina starts its replacement.
+import { Piscina, queueOptionsSymbol, type PiscinaTask } from 'piscina';
 import type { MeterProfileId } from '@splitscope/contract';
 import type { CaseReading, DiagnosisOutput, PairColumn, UpdateOptions } from '@splitscope/diagnosis';
 import { AppError } from '../../http/errors';
 import type { StoredDictionary } from './dictionary';
 import type { PairsMessage, WorkerFailure, WorkerReply, WorkerRequest } from './protocol';
 
-const ENTRY = new URL('./worker-entry.mjs', import.meta.url);
+const ENTRY = new URL('./worker-entry.mjs', import.meta.url).href;
+/** Calls a busy thread that holds the board may queue before the next call goes to another thread. */
+const PER_THREAD = 4;
 
 interface Call {
   versionId: string;
@@ -21,40 +25,30 @@ interface Call {
   loadDictionary?: () => Promise<StoredDictionary | undefined>;
   /** Where fault pairs the thread computes after answering go (stored in the dictionary). */
   onPairs?: (columns: PairColumn[]) => void;
-  resolve: (out: DiagnosisOutput) => void;
-  reject: (err: unknown) => void;
 }
 
-interface Thread {
-  worker: Worker;
-  /** The versions this thread holds an engine for: sent to it, less those its engine cache reports dropped. */
-  known: Set<string>;
-  pending: Map<number, Call>;
-  /** The versions whose dictionary this thread was sent. */
-  dictionaries: Set<string>;
-  /** Per version, where the pairs the thread computes for it go. */
-  pairSinks: Map<string, (columns: PairColumn[]) => void>;
-  /** What the thread threw before it exited, for the pending calls' error. */
-  crash?: Error;
-}
+/** The request, and for piscina's balancer the board it is for (a symbol key does not cross to the thread). */
+type Task = WorkerRequest & { [queueOptionsSymbol]: { versionId: string } };
+
+type Balancer = NonNullable<NonNullable<ConstructorParameters<typeof Piscina>[0]>['loadBalancer']>;
+type PoolThread = Parameters<Balancer>[1][number];
 
 export interface PoolOptions {
   size: number;
-  /** Starts a thread; tests wrap it to reach the Worker. */
-  spawn?: () => Worker;
 }
 
-export const spawnDiagnosisWorker = () => new Worker(ENTRY, { name: 'splitscope-diagnosis' });
-
 export class DiagnosisPool {
-  private threads: Thread[] = [];
+  private piscina: Piscina<Task, WorkerReply> | undefined;
+  /** Per thread id, the versions its engine holds, and whether with their dictionary (from the thread's replies). */
+  private holds = new Map<number, Map<string, { dictionary: boolean }>>();
+  private pairSinks = new Map<string, (columns: PairColumn[]) => void>();
   private nextId = 1;
   private closed = false;
 
   constructor(private readonly options: PoolOptions) {}
 
   /** The engine's output for these readings on a board version; the document is loaded only if needed. */
-  run(
+  async run(
     versionId: string,
     readings: CaseReading[],
     loadDocument: () => Promise<unknown>,
@@ -62,10 +56,14 @@ export class DiagnosisPool {
     options?: Pick<UpdateOptions, 'priors' | 'history' | 'references'>,
     meter: MeterProfileId | null = null,
   ): Promise<DiagnosisOutput> {
-    return new Promise(
-      (resolve, reject) =>
-        void this.dispatch({ versionId, readings, meter, loadDocument, ...dictionary, resolve, reject, ...(options ? { options } : {}) }, false),
-    );
+    const call: Call = { versionId, readings, meter, loadDocument, ...dictionary, ...(options ? { options } : {}) };
+    if (call.onPairs) this.pairSinks.set(versionId, call.onPairs);
+    const first = await this.send(call, false);
+    // Sent again at most once, with the document and dictionary: the thread that took it lacked them.
+    const reply = 'missing' in first ? await this.send(call, true) : first;
+    if (reply.ok) return reply.output;
+    if ('missing' in reply) throw new Error(`The diagnosis worker could not open board version ${versionId}`);
+    throw rebuild(reply.error);
   }
 
   /**
@@ -73,98 +71,92 @@ export class DiagnosisPool {
    * above all), which a first diagnosis would otherwise wait for.
    */
   warm(): void {
-    while (!this.closed && this.threads.length < this.options.size) this.start();
+    if (!this.closed) this.threads(this.options.size);
+  }
+
+  /** The live threads (tests stop one to see a call fail alone). */
+  workers() {
+    return this.piscina?.threads ?? [];
   }
 
   /** Stops every thread; calls still pending are rejected. */
   async close(): Promise<void> {
     this.closed = true;
-    const threads = this.threads;
-    this.threads = [];
-    for (const t of threads) this.fail(t, new Error('The diagnosis workers were stopped'));
-    await Promise.all(threads.map((t) => t.worker.terminate()));
+    const piscina = this.piscina;
+    this.piscina = undefined;
+    await piscina?.destroy();
   }
 
-  private async dispatch(call: Call, resend: boolean): Promise<void> {
-    try {
-      let thread = this.pick(call.versionId);
-      const withDocument = resend || !thread.known.has(call.versionId);
-      const document = withDocument ? await call.loadDocument() : undefined;
-      const dictionary = (withDocument || !thread.dictionaries.has(call.versionId)) && call.loadDictionary ? await call.loadDictionary() : undefined;
-      // The thread may have died while the document loaded; a new one is sent the document too.
-      if (!this.threads.includes(thread)) thread = this.pick(call.versionId);
-      if (dictionary) thread.dictionaries.add(call.versionId);
-      if (call.onPairs) thread.pairSinks.set(call.versionId, call.onPairs);
-      const id = this.nextId++;
-      thread.known.add(call.versionId);
-      thread.pending.set(id, call);
-      // Referenced only while it owes an answer, so an idle thread never keeps the process alive.
-      thread.worker.ref();
-      const message: WorkerRequest = {
-        id,
-        versionId: call.versionId,
-        readings: call.readings,
-        meter: call.meter,
-        ...(call.options ? { options: call.options } : {}),
-        ...(withDocument ? { document } : {}),
-        ...(dictionary ? { dictionary } : {}),
-      };
-      thread.worker.postMessage(message);
-    } catch (err) {
-      call.reject(err);
-    }
-  }
-
-  /** A thread that holds the board and is idle, else any idle one, else a new one, else the least busy. */
-  private pick(versionId: string): Thread {
+  private async send(call: Call, resend: boolean): Promise<WorkerReply> {
+    const held = this.holders(call.versionId);
+    const dictionary = call.loadDictionary ? await call.loadDictionary() : undefined;
+    const withDocument = resend || held.length === 0;
+    const withDictionary = dictionary && (withDocument || !held.some((h) => h.dictionary));
+    const request: WorkerRequest = {
+      id: this.nextId++,
+      versionId: call.versionId,
+      readings: call.readings,
+      meter: call.meter,
+      dictionaryReady: dictionary !== undefined,
+      ...(call.options ? { options: call.options } : {}),
+      ...(withDocument ? { document: await call.loadDocument() } : {}),
+      ...(withDictionary ? { dictionary } : {}),
+    };
     if (this.closed) throw new Error('The diagnosis workers were stopped');
-    const idle = this.threads.filter((t) => t.pending.size === 0);
-    const ready = idle.find((t) => t.known.has(versionId)) ?? idle[0];
-    if (ready) return ready;
-    if (this.threads.length < this.options.size) return this.start();
-    const load = (a: Thread, b: Thread) => a.pending.size - b.pending.size;
-    // A queued warm update usually beats a cold run on another thread.
-    return [...this.threads].sort(load).find((t) => t.known.has(versionId)) ?? [...this.threads].sort(load)[0]!;
-  }
-
-  private start(): Thread {
-    const worker = (this.options.spawn ?? spawnDiagnosisWorker)();
-    worker.unref();
-    const thread: Thread = { worker, known: new Set(), pending: new Map(), dictionaries: new Set(), pairSinks: new Map() };
-    worker.on('message', (reply: WorkerReply | PairsMessage) =>
-      'pairs' in reply ? thread.pairSinks.get(reply.versionId)?.(reply.columns) : this.answered(thread, reply),
-    );
-    worker.on('error', (err) => void (thread.crash = err));
-    worker.on('exit', (code) => {
-      this.threads = this.threads.filter((t) => t !== thread);
-      // The next call starts a fresh thread, which is sent its documents again (its `known` starts empty).
-      this.fail(thread, new Error(`The diagnosis worker stopped (exit code ${code})${thread.crash ? `: ${thread.crash.message}` : ''} before answering`));
-    });
-    this.threads.push(thread);
-    return thread;
-  }
-
-  private answered(thread: Thread, reply: WorkerReply): void {
-    for (const v of reply.dropped) {
-      thread.known.delete(v);
-      thread.dictionaries.delete(v);
+    let reply: WorkerReply;
+    try {
+      reply = await this.threads(0).run({ ...request, [queueOptionsSymbol]: { versionId: call.versionId } });
+    } catch (err) {
+      if (this.closed) throw new Error('The diagnosis workers were stopped', { cause: err });
+      throw new Error(`The diagnosis worker stopped (${err instanceof Error ? err.message : String(err)}) before answering`, { cause: err });
     }
-    const call = thread.pending.get(reply.id);
-    if (!call) return;
-    thread.pending.delete(reply.id);
-    if (thread.pending.size === 0) thread.worker.unref();
-    if (reply.ok) call.resolve(reply.output);
-    else if ('missing' in reply) {
-      thread.known.delete(call.versionId);
-      thread.dictionaries.delete(call.versionId);
-      void this.dispatch(call, true);
-    } else call.reject(rebuild(reply.error));
+    const holds = this.holds.get(reply.thread) ?? new Map<string, { dictionary: boolean }>();
+    this.holds.set(reply.thread, holds);
+    for (const v of reply.dropped) holds.delete(v);
+    if (reply.ok) holds.set(call.versionId, { dictionary: dictionary !== undefined });
+    else if ('missing' in reply) holds.delete(call.versionId);
+    return reply;
   }
 
-  private fail(thread: Thread, err: Error): void {
-    const calls = [...thread.pending.values()];
-    thread.pending.clear();
-    for (const c of calls) c.reject(err);
+  /** What the live threads hold of a version. */
+  private holders(versionId: string): { dictionary: boolean }[] {
+    const live = new Set(this.workers().map((w) => w.threadId));
+    return [...this.holds].flatMap(([id, m]) => (live.has(id) && m.has(versionId) ? [m.get(versionId)!] : []));
+  }
+
+  private threads(minThreads: number): Piscina<Task, WorkerReply> {
+    if (this.piscina) return this.piscina;
+    const piscina = new Piscina<Task, WorkerReply>({
+      filename: ENTRY,
+      minThreads,
+      maxThreads: this.options.size,
+      // A thread's engines are its cache: an idle thread is kept, never reaped.
+      idleTimeout: Infinity,
+      concurrentTasksPerWorker: PER_THREAD,
+      // An idle thread computes fault pairs in the background (worker.ts); piscina's default Atomics.wait loop
+      // would block its event loop between calls and hold the pairs back until the next call.
+      atomics: 'disabled',
+      loadBalancer: (task, workers) => this.balance(task, workers),
+    });
+    piscina.on('message', (m: PairsMessage) => m.pairs && this.pairSinks.get(m.versionId)?.(m.columns));
+    piscina.on('workerDestroy', (w: { id: number }) => this.holds.delete(w.id));
+    // A thread that fails with no call pending is replaced by piscina; its pending calls got the error already.
+    piscina.on('error', (err: unknown) => console.error('diagnosis worker failed', err));
+    this.piscina = piscina;
+    return piscina;
+  }
+
+  /** An idle thread that holds the board, else any idle one; null starts a new thread or queues the call. */
+  private balance(task: PiscinaTask, workers: PoolThread[]): PoolThread | null {
+    const versionId = (task[queueOptionsSymbol] as { versionId?: string } | null)?.versionId;
+    const holds = (w: PoolThread) => versionId !== undefined && this.holds.get(w.id)?.has(versionId) === true;
+    const idle = workers.filter((w) => w.currentUsage === 0 && !w.terminating);
+    const ready = idle.find(holds) ?? idle[0];
+    if (ready) return ready;
+    if (workers.length < this.options.size) return null;
+    // A queued warm update usually beats a cold run on another thread.
+    const open = workers.filter((w) => w.currentUsage < PER_THREAD && !w.terminating).sort((a, b) => a.currentUsage - b.currentUsage);
+    return open.find(holds) ?? open[0] ?? null;
   }
 }
 

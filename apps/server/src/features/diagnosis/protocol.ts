@@ -17,6 +17,8 @@ export interface WorkerRequest {
   document?: unknown;
   /** The version's fault dictionary, sent once per thread when it is ready (dictionary.ts). */
   dictionary?: StoredDictionary;
+  /** The version has a ready dictionary: a thread whose engine lacks it answers `missing` rather than simulate. */
+  dictionaryReady?: boolean;
 }
 
 export type WorkerFailure =
@@ -24,7 +26,6 @@ export type WorkerFailure =
   | { kind: 'app'; code: AppError['code']; detail: string; extra: AppError['extra'] }
   | { kind: 'other'; message: string; stack?: string };
 
-/** `dropped`: versions whose engine the thread let go since its last reply (they need their document again). */
 /** Fault pairs a thread computed in the background after an answer, to be stored in the dictionary. */
 export interface PairsMessage {
   pairs: true;
@@ -32,6 +33,10 @@ export interface PairsMessage {
   columns: PairColumn[];
 }
 
-export type WorkerReply = { id: number; dropped: string[] } & (
+/**
+ * `thread`: the answering thread's id, so the pool knows which thread now holds the version; `dropped`: versions
+ * whose engine the thread let go since its last reply (they need their document again).
+ */
+export type WorkerReply = { id: number; thread: number; dropped: string[] } & (
   { ok: true; output: DiagnosisOutput } | { ok: false; missing: true } | { ok: false; error: WorkerFailure }
 );

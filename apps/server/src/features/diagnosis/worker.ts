@@ -1,8 +1,9 @@
 // The diagnosis engine's thread. A first diagnosis of a board simulates every fault mode it ranks and takes
 // seconds, which on the server's own thread would stall every other request; here it stalls only this thread.
 // Engines are kept per board version (boards/engine.ts bounds how many and reports the ones it drops), so a later update of the same board
-// reuses the diagnoser's prediction cache and is fast. Messages are answered one at a time, in arrival order.
-import { parentPort } from 'node:worker_threads';
+// reuses the diagnoser's prediction cache and is fast. The pool library (pool.ts) calls the default export once per
+// request, one at a time; fault pairs go back outside those answers, as plain messages on the thread's port.
+import { parentPort, threadId } from 'node:worker_threads';
 import { addPairs, attachDictionary, CaseError, computePairs, takeWantedPairs, type Diagnoser } from '@splitscope/diagnosis';
 import { AppError } from '../../http/errors';
 // The worker thread loads the board engine alone, not the boards feature's database service behind its index.
@@ -19,12 +20,15 @@ function failure(err: unknown): WorkerFailure {
 
 const withDictionary = new WeakSet<Diagnoser>();
 
-function answer({ id, versionId, readings, meter, document, dictionary, options }: WorkerRequest): WorkerReply {
+export default function answer({ id, versionId, readings, meter, document, dictionary, dictionaryReady, options }: WorkerRequest): WorkerReply {
+  const reply = { id, thread: threadId };
   try {
     const engine = document === undefined ? cachedBoardEngine(versionId) : boardEngine(versionId, document);
-    // The server sends a document only for a version it has not sent before; one dropped from the bound since
-    // is asked for again rather than guessed.
-    if (!engine) return { id, dropped: takeDroppedEngines(), ok: false, missing: true };
+    // The server sends a document only for a version no thread holds yet; a thread that lacks it (another
+    // thread took the call, or the engine was dropped from the bound since) asks for it again rather than guess,
+    // and so does one whose engine lacks the ready dictionary, which would otherwise simulate for seconds.
+    const lacksDictionary = dictionaryReady && !dictionary && engine && !withDictionary.has(engine.diagnoser);
+    if (!engine || lacksDictionary) return { ...reply, dropped: takeDroppedEngines(), ok: false, missing: true };
     if (dictionary && !withDictionary.has(engine.diagnoser)) {
       attachDictionary(engine.diagnoser, dictionary.dictionary, dictionary.pairs);
       withDictionary.add(engine.diagnoser);
@@ -34,9 +38,9 @@ function answer({ id, versionId, readings, meter, document, dictionary, options 
     const photoOnly = engine.testPoints.length === 0 && Object.keys(engine.parts).length === 0;
     const output = engine.diagnoser.update(photoOnly ? [] : readings, { ...options, ...meterOptions(meter) });
     schedulePairs(versionId, engine.diagnoser);
-    return { id, dropped: takeDroppedEngines(), ok: true, output };
+    return { ...reply, dropped: takeDroppedEngines(), ok: true, output };
   } catch (err) {
-    return { id, dropped: takeDroppedEngines(), ok: false, error: failure(err) };
+    return { ...reply, dropped: takeDroppedEngines(), ok: false, error: failure(err) };
   }
 }
 
@@ -55,5 +59,3 @@ function schedulePairs(versionId: string, diagnoser: Diagnoser): void {
   };
   if (work.length > 0) setImmediate(step, 0);
 }
-
-parentPort!.on('message', (m: WorkerRequest) => parentPort!.postMessage(answer(m)));

@@ -11,7 +11,6 @@ import {
   readMeterProfileId,
   unprovenRows,
   verificationChecklist,
-  verificationReadings,
   type CreateJobRequest,
   type Job,
   type JobDetail,
@@ -21,19 +20,8 @@ import {
 import { assertRole, type Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
 import { getJobRow, type JobRow } from '../../db/job-row';
-import {
-  boardModels,
-  boardModelVersions,
-  customers,
-  diagnosisSnapshots,
-  jobs,
-  readingStrikes,
-  readings,
-  repairActions,
-  reviews,
-  shops,
-  users,
-} from '../../db/schema';
+import { countingVerificationReadings } from '../../db/verification-readings';
+import { boardModels, boardModelVersions, customers, diagnosisSnapshots, jobs, repairActions, reviews, shops, users } from '../../db/schema';
 import { AppError } from '../../http/errors';
 import { iso, isoOrNull } from '../../lib/dates';
 import { newId } from '../../lib/ids';
@@ -268,25 +256,8 @@ async function insertJob({ db, actor, input }: { db: Db; actor: Pick<Actor, 'id'
  * no healthy verification reading (contract: verificationReadings) proves, or no repair.
  */
 async function verificationProblems(db: Db, actor: Actor, job: JobRow): Promise<string | null> {
-  const [last] = await db
-    .select({ at: repairActions.createdAt })
-    .from(repairActions)
-    .where(eq(repairActions.jobId, job.id))
-    .orderBy(desc(repairActions.createdAt))
-    .limit(1);
-  if (!last) return 'no repair action is recorded';
-  const later = alias(readings, 'later');
-  const taken = await db
-    .select({ r: readings, supersededBy: later.id, struck: readingStrikes.id })
-    .from(readings)
-    .leftJoin(later, eq(later.supersedes, readings.id))
-    .leftJoin(readingStrikes, eq(readingStrikes.readingId, readings.id))
-    .where(and(eq(readings.jobId, job.id), eq(readings.phase, 'verification')))
-    .orderBy(asc(readings.createdAt));
-  const rows = verificationReadings(
-    taken.map(({ r, supersededBy, struck }) => ({ ...r, supersededBy, struck, createdAt: iso(r.createdAt), verdict: r.verdict as { verdict: string } | null })),
-    iso(last.at),
-  );
+  const { repaired, rows } = await countingVerificationReadings(db, job.id);
+  if (!repaired) return 'no repair action is recorded';
   const board = await getBoardVersion({ db, shopId: actor.shopId, versionId: job.boardVersionId });
   const parsed = boardModelSchema.safeParse(board.document);
   const m = parsed.success ? parsed.data : null;

@@ -118,35 +118,36 @@ const withVerdict = (r: StoredReading): CreateReadingResponse => ({
 });
 
 const p = sql.placeholder;
+// The meter the job's readings are read with (the job's profile, else the shop's): it can change on the bench,
+// so it is read with every write rather than kept, in the query the write makes anyway.
+const meterColumns = { job: jobs.meterProfile, shop: shops.meterProfile };
+type MeterRow = { job: string | null; shop: string | null };
 const stored = alias(readings, 'stored');
 
 // The write path's statements, built once per database handle and named so pg parses each once per connection.
 const prepared = new WeakMap<Db, ReturnType<typeof prepare>>();
 function prepare(db: Db) {
   return {
-    boardVersion: db
-      .select({ boardVersionId: jobs.boardVersionId })
-      .from(jobs)
-      .where(and(eq(jobs.id, p('jobId')), eq(jobs.shopId, p('shopId'))))
-      .prepare('reading_job_board_version'),
-    // The job (of this shop only) and, in the same round trip, the row a retry with this key already stored.
+    // The job (of this shop only) with its meter and, in the same round trip, the row a retry with this key already stored.
     jobAndReplay: db
       .select({
         job: { id: jobs.id, status: jobs.status, assigneeId: jobs.assigneeId, boardVersionId: jobs.boardVersionId, guidedLiftedBy: jobs.guidedLiftedBy },
+        meter: meterColumns,
         r: stored,
         authorName: users.name,
         supersededBy: later.id,
       })
       .from(jobs)
+      .innerJoin(shops, eq(shops.id, jobs.shopId))
       .leftJoin(stored, and(eq(stored.jobId, jobs.id), eq(stored.idempotencyKey, p('key'))))
       .leftJoin(users, eq(users.id, stored.authorId))
       .leftJoin(later, eq(later.supersedes, stored.id))
       .where(and(eq(jobs.id, p('jobId')), eq(jobs.shopId, p('shopId'))))
       .prepare('reading_job_and_replay'),
-    // The meter the job's readings are read with (the job's profile, else the shop's): it can change on the bench,
-    // so it is read with every write rather than kept.
+    // A plain write's one look at the job before it is stored: its meter, and the board version it pins (used
+    // only when the version is not cached yet).
     meter: db
-      .select({ job: jobs.meterProfile, shop: shops.meterProfile })
+      .select({ meter: meterColumns, boardVersionId: jobs.boardVersionId })
       .from(jobs)
       .innerJoin(shops, eq(shops.id, jobs.shopId))
       .where(and(eq(jobs.id, p('jobId')), eq(jobs.shopId, p('shopId'))))
@@ -177,13 +178,13 @@ function queries(db: Db) {
 }
 
 // A job's shop and board version never change, so which version a job of a shop pins is kept once looked up:
-// a plain reading write then needs no query before the statement that stores it.
+// a plain reading write then waits for no query before its checks and the engine (its meter query runs meanwhile).
 const versions = new LRUCache<string, string>({ max: 1000 });
-async function boardVersionOf(db: Db, shopId: string, jobId: string): Promise<string | undefined> {
+async function boardVersionOf(shopId: string, jobId: string, jobRow: Promise<{ boardVersionId: string } | undefined>): Promise<string | undefined> {
   const key = `${shopId}\n${jobId}`;
   const hit = versions.get(key);
   if (hit) return hit;
-  const [row] = await queries(db).boardVersion.execute({ jobId, shopId });
+  const row = await jobRow;
   if (!row) return undefined;
   versions.set(key, row.boardVersionId);
   return row.boardVersionId;
@@ -217,7 +218,12 @@ export const requestHashOf = (input: CreateReadingInput) =>
     .digest('base64url');
 
 /** The job as a checked write sees it first: of this shop, open to this actor, and any row this key stored. */
-async function jobAndReplay(db: Db, actor: Actor, jobId: string, input: CreateReadingInput): Promise<{ job: JobState; replay: CreateReadingResponse | null }> {
+async function jobAndReplay(
+  db: Db,
+  actor: Actor,
+  jobId: string,
+  input: CreateReadingInput,
+): Promise<{ job: JobState; meter: MeterRow; replay: CreateReadingResponse | null }> {
   const [found] = await queries(db).jobAndReplay.execute({ jobId, shopId: actor.shopId, key: input.idempotencyKey });
   if (!found) throw new AppError('not_found', `No job ${jobId}`);
   const { job } = found;
@@ -231,7 +237,7 @@ async function jobAndReplay(db: Db, actor: Actor, jobId: string, input: CreateRe
       `Idempotency key ${input.idempotencyKey} was already used for a different reading (key reused with a different reading); send this reading with a new key`,
     );
   }
-  return { job, replay: found.r ? withVerdict(toReading(found.r, found.authorName!, found.supersededBy)) : null };
+  return { job, meter: found.meter, replay: found.r ? withVerdict(toReading(found.r, found.authorName!, found.supersededBy)) : null };
 }
 
 /**
@@ -254,20 +260,24 @@ export async function createReading({
   input: CreateReadingInput;
 }): Promise<CreateReadingResponse> {
   const q = queries(db);
-  // Started now, read when the verdict is computed: it overlaps the checks below.
-  const meterRow = q.meter.execute({ jobId, shopId: actor.shopId });
-  // A check below may throw first; the query's own failure is then not the one to report.
-  meterRow.catch(() => undefined);
   let versionId: string;
   let job: JobState | undefined;
+  let meterRow: Promise<MeterRow | undefined>;
   if (actor.role === 'trainee' || input.supersedes) {
     const seen = await jobAndReplay(db, actor, jobId, input);
     if (seen.replay) return seen.replay;
     checkOpen(seen.job.status, input.phase);
     job = seen.job;
     versionId = job.boardVersionId;
+    meterRow = Promise.resolve(seen.meter);
   } else {
-    const v = await boardVersionOf(db, actor.shopId, jobId);
+    // Started now, read when the verdict is computed: it overlaps the checks below.
+    const jobRow = q.meter.execute({ jobId, shopId: actor.shopId }).then((rows) => rows[0]);
+    // A check below may throw first; the query's own failure is then not the one to report.
+    jobRow.catch(() => undefined);
+    meterRow = jobRow.then((row) => row?.meter);
+    meterRow.catch(() => undefined);
+    const v = await boardVersionOf(actor.shopId, jobId, jobRow);
     if (!v) throw new AppError('not_found', `No job ${jobId}`);
     versionId = v;
   }
@@ -325,7 +335,7 @@ export async function createReading({
   await checkSafetyGate(versionId, async () => (await loadVersion()).document, input);
 
   const engineValue = input.mode === 'continuity' ? (input.beep ?? input.value !== 'OL') : input.value;
-  const [meterOfJob] = await meterRow;
+  const meterOfJob = await meterRow;
   const meter = meterOf(jobMeter(meterOfJob?.job, meterOfJob?.shop).profile);
   const verdict = photoPoints ? null : verdictFor(engine, { ...probe, ...(alone ? { alone } : {}) }, engineValue, meter);
   const row: NewReading = {

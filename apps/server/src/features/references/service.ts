@@ -1,13 +1,11 @@
 // Known-good references per board model: sets of readings of boards that work (recorded on purpose, or the
 // verification readings of a repaired board promoted by a lead), and the expected bands of each point from the
 // three sources the contract names (model, measured, published), with the points where they disagree flagged.
-import { alias } from 'drizzle-orm/pg-core';
-import { and, asc, desc, eq, inArray } from 'drizzle-orm';
+import { and, desc, eq, inArray } from 'drizzle-orm';
 import {
   boardWords,
   measuredBand,
   referenceReview,
-  verificationReadings,
   wordsModelOf,
   type BoardModel,
   type BoardReferences,
@@ -17,7 +15,8 @@ import {
 } from '@splitscope/contract';
 import type { Actor } from '../../auth/guards';
 import type { Db } from '../../db/client';
-import { boardModelVersions, jobs, readings, readingStrikes, referenceReadings, referenceSets, repairActions, users } from '../../db/schema';
+import { boardModelVersions, jobs, referenceReadings, referenceSets, users } from '../../db/schema';
+import { countingVerificationReadings } from '../../db/verification-readings';
 import { AppError } from '../../http/errors';
 import { iso } from '../../lib/dates';
 import { newId } from '../../lib/ids';
@@ -108,24 +107,9 @@ export async function promoteVerification({ db, actor, jobId, note }: { db: Db; 
     throw new AppError('conflict', 'Only a repaired board signed off as verified is a known-good reference');
   const [dup] = await db.select({ id: referenceSets.id }).from(referenceSets).where(eq(referenceSets.jobId, jobId));
   if (dup) throw new AppError('conflict', `Job #${job.number}'s verification readings are already a reference`);
-  const [last] = await db
-    .select({ at: repairActions.createdAt })
-    .from(repairActions)
-    .where(eq(repairActions.jobId, jobId))
-    .orderBy(desc(repairActions.createdAt))
-    .limit(1);
-  const later = alias(readings, 'later');
-  const taken = await db
-    .select({ r: readings, supersededBy: later.id, struck: readingStrikes.id })
-    .from(readings)
-    .leftJoin(later, eq(later.supersedes, readings.id))
-    .leftJoin(readingStrikes, eq(readingStrikes.readingId, readings.id))
-    .where(and(eq(readings.jobId, jobId), eq(readings.phase, 'verification')))
-    .orderBy(asc(readings.createdAt));
-  const rows = verificationReadings(
-    taken.map(({ r, supersededBy, struck }) => ({ ...r, supersededBy, struck, createdAt: iso(r.createdAt) })),
-    last ? iso(last.at) : null,
-  ).filter((r) => r.lifted.length === 0 && r.mode !== 'continuity' && (r.overLimit || r.value !== null));
+  const rows = (await countingVerificationReadings(db, jobId)).rows.filter(
+    (r) => r.lifted.length === 0 && r.mode !== 'continuity' && (r.overLimit || r.value !== null),
+  );
   if (rows.length === 0)
     throw new AppError('conflict', 'This job has no verification reading to keep as a reference (continuity and readings with a part lifted are not kept)');
   const [v] = await db.select().from(boardModelVersions).where(eq(boardModelVersions.id, job.boardVersionId));

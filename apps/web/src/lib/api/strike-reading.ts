@@ -1,5 +1,6 @@
 import { readingSchema } from '@splitscope/contract';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { afterReadingWritten } from '@/lib/after-reading-written';
 import { api } from '@/lib/api-client';
 
 /** Strikes a reading out with a reason; the reading stays listed and stops counting. */
@@ -14,7 +15,6 @@ export const useStrikeReading = (jobId: string) => {
   const qc = useQueryClient();
   return useMutation({
     mutationFn: ({ readingId, reason }: { readingId: string; reason: string }) => strikeReading(jobId, readingId, reason),
-    onSuccess: () =>
-      Promise.all([qc.invalidateQueries({ queryKey: ['jobs', jobId, 'readings'] }), qc.invalidateQueries({ queryKey: ['jobs', jobId, 'diagnosis'] })]),
+    onSuccess: () => afterReadingWritten(qc, jobId),
   });
 };

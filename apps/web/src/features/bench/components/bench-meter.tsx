@@ -1,6 +1,7 @@
 import { benchMeterModes, type BenchMeterArm, type BenchMeterMode, type Role, mayUseBenchMeter } from '@splitscope/contract';
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect, useRef } from 'react';
+import { afterReadingWritten } from '@/lib/after-reading-written';
 import { METER_LABEL, readingText } from '@/lib/format';
 import { useArmBenchMeter, useBenchMeter, useCancelBenchMeter } from '../api/bench-meter';
 
@@ -48,8 +49,7 @@ export function BenchMeter({
   useEffect(() => {
     if (arm?.state !== 'taken' || seen.current === arm.id) return;
     seen.current = arm.id;
-    void qc.invalidateQueries({ queryKey: ['jobs', jobId, 'readings'] });
-    void qc.invalidateQueries({ queryKey: ['jobs', jobId, 'diagnosis'] });
+    void afterReadingWritten(qc, jobId);
   }, [arm?.id, arm?.state, jobId, qc]);
 
   if (!usable || !isMeterMode(target.mode)) return null;

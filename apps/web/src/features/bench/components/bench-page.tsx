@@ -309,6 +309,7 @@ function Bench({ job }: { job: JobDetail }) {
                   guided={guided}
                   preparing={diagnosisQ.data?.preparing}
                   checkingPairs={diagnosisQ.data?.checking?.candidates}
+                  readingsKey={diagnosisQ.data ? `${diagnosisQ.data.readings.length}:${diagnosisQ.data.readings.at(-1)?.readingId ?? ''}` : undefined}
                   onPickPart={bench.pickPart}
                   onPickTest={guided ? undefined : (t) => bench.chooseTest(t as (typeof steps)[number])}
                 />

@@ -42,6 +42,7 @@ export function RankingPanel({
   guided = false,
   preparing,
   checkingPairs,
+  readingsKey,
 }: {
   parts: RankedPart[];
   nextTests: NextTestView[];
@@ -60,12 +61,14 @@ export function RankingPanel({
   preparing?: { partsDone: number; partsTotal: number };
   /** How many fault pairs are still being checked. */
   checkingPairs?: number;
+  /** Which readings the ranking was made from (count:last reading id), on the page for a benchmark to watch. */
+  readingsKey?: string;
 }) {
   // With no readings every part is equally suspect: a list of a hundred parts helps nobody, so show the leaders.
   const [all, setAll] = useState(false);
   const shown = all ? parts : parts.slice(0, SHORT_LIST);
   return (
-    <div className="grid gap-3 sm:grid-cols-2">
+    <div className="grid gap-3 sm:grid-cols-2" data-testid="ranking" data-readings={readingsKey}>
       <section aria-labelledby="next-h">
         <h2 id="next-h" className="mb-1 text-base font-semibold">
           Next tests

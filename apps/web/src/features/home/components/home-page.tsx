@@ -37,50 +37,66 @@ function JobCards({ jobs, empty, action }: { jobs: Job[]; empty: string; action:
   );
 }
 
+/** One home list: a heading, the jobs of one query as cards, and what each card's button does. */
+function JobsSection({
+  id,
+  title,
+  note,
+  ...cards
+}: {
+  id: string;
+  title: string;
+  note?: string;
+  jobs: ReturnType<typeof useJobs>;
+  label: string;
+  empty: string;
+  action: (j: Job) => { to: string; label: string };
+}) {
+  return (
+    <section aria-labelledby={id} className="space-y-2">
+      <h2 id={id} className="text-xl font-semibold">
+        {title}
+      </h2>
+      {note && <p className="text-sm text-stone-700">{note}</p>}
+      <QueryState query={cards.jobs} label={cards.label}>
+        {(d) => <JobCards jobs={d.items} empty={cards.empty} action={cards.action} />}
+      </QueryState>
+    </section>
+  );
+}
+
 function TechHome() {
   const jobs = useJobs({ assignee: 'me', status: OPEN.join(',') });
   return (
-    <section aria-labelledby="mine-h" className="space-y-2">
-      <h2 id="mine-h" className="text-xl font-semibold">
-        My open jobs
-      </h2>
-      <QueryState query={jobs} label="your jobs">
-        {(d) => (
-          <JobCards
-            jobs={d.items}
-            empty="No open jobs are assigned to you."
-            action={(j) =>
-              j.status === 'approved'
-                ? { to: `/jobs/${j.id}/repair`, label: 'Record the repair' }
-                : j.status === 'repaired'
-                  ? { to: `/jobs/${j.id}/repair`, label: 'Verify the board' }
-                  : { to: `/jobs/${j.id}`, label: 'Open the bench' }
-            }
-          />
-        )}
-      </QueryState>
-    </section>
+    <JobsSection
+      id="mine-h"
+      title="My open jobs"
+      jobs={jobs}
+      label="your jobs"
+      empty="No open jobs are assigned to you."
+      action={(j) =>
+        j.status === 'approved'
+          ? { to: `/jobs/${j.id}/repair`, label: 'Record the repair' }
+          : j.status === 'repaired'
+            ? { to: `/jobs/${j.id}/repair`, label: 'Verify the board' }
+            : { to: `/jobs/${j.id}`, label: 'Open the bench' }
+      }
+    />
   );
 }
 
 function TraineeHome() {
   const jobs = useJobs({ assignee: 'me', status: 'received,diagnosing' });
   return (
-    <section aria-labelledby="steps-h" className="space-y-2">
-      <h2 id="steps-h" className="text-xl font-semibold">
-        My assigned steps
-      </h2>
-      <p className="text-sm text-stone-700">Each job opens in guided order: one step at a time, with the safety gates.</p>
-      <QueryState query={jobs} label="your assigned jobs">
-        {(d) => (
-          <JobCards
-            jobs={d.items}
-            empty="Nothing is assigned to you right now."
-            action={(j) => ({ to: `/jobs/${j.id}?mode=guided`, label: 'Continue the guided order' })}
-          />
-        )}
-      </QueryState>
-    </section>
+    <JobsSection
+      id="steps-h"
+      title="My assigned steps"
+      note="Each job opens in guided order: one step at a time, with the safety gates."
+      jobs={jobs}
+      label="your assigned jobs"
+      empty="Nothing is assigned to you right now."
+      action={(j) => ({ to: `/jobs/${j.id}?mode=guided`, label: 'Continue the guided order' })}
+    />
   );
 }
 
@@ -89,34 +105,22 @@ function LeadHome() {
   const signOff = useJobs({ status: 'repaired' });
   return (
     <>
-      <section aria-labelledby="signoff-h" className="space-y-2">
-        <h2 id="signoff-h" className="text-xl font-semibold">
-          Repairs waiting for your sign-off
-        </h2>
-        <QueryState query={signOff} label="the repairs waiting for sign-off">
-          {(d) => (
-            <JobCards
-              jobs={d.items}
-              empty="No repaired board is waiting for sign-off."
-              action={(j) => ({ to: `/jobs/${j.id}/repair`, label: `Verify and sign off${j.proposedPart ? ` ${j.proposedPart}` : ''}` })}
-            />
-          )}
-        </QueryState>
-      </section>
-      <section aria-labelledby="queue-h" className="space-y-2">
-        <h2 id="queue-h" className="text-xl font-semibold">
-          Review queue
-        </h2>
-        <QueryState query={jobs} label="the review queue">
-          {(d) => (
-            <JobCards
-              jobs={d.items}
-              empty="No diagnosis is waiting for review."
-              action={(j) => ({ to: `/jobs/${j.id}/review`, label: `Review${j.proposedPart ? ` ${j.proposedPart}` : ''}` })}
-            />
-          )}
-        </QueryState>
-      </section>
+      <JobsSection
+        id="signoff-h"
+        title="Repairs waiting for your sign-off"
+        jobs={signOff}
+        label="the repairs waiting for sign-off"
+        empty="No repaired board is waiting for sign-off."
+        action={(j) => ({ to: `/jobs/${j.id}/repair`, label: `Verify and sign off${j.proposedPart ? ` ${j.proposedPart}` : ''}` })}
+      />
+      <JobsSection
+        id="queue-h"
+        title="Review queue"
+        jobs={jobs}
+        label="the review queue"
+        empty="No diagnosis is waiting for review."
+        action={(j) => ({ to: `/jobs/${j.id}/review`, label: `Review${j.proposedPart ? ` ${j.proposedPart}` : ''}` })}
+      />
     </>
   );
 }
