@@ -6,7 +6,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { diode, isource, resistor, solveNodes, vsource, type Circuit, type Element } from './index';
-import { HealthyFactor, rubberStamps } from './fault-sim';
+import { HealthyFactor } from './fault-sim';
+import { rubberStamps } from './rubber-stamps';
 
 const RELTOL = 1e-3;
 const VNTOL = 1e-6;

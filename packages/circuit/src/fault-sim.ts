@@ -22,29 +22,13 @@
  * Where each case applies: docs/decisions/0006-fast-fault-simulation.md.
  */
 import type { Circuit, Element } from './circuit';
+import { Solution, type FaultSolution, type RubberStamp } from './rubber-stamps';
 import type { Topology } from './system';
 import { stampJunctions } from './devices';
-import { luFactor, luProgramToDense, luSolve, luWorkspace, type LuWorkspace } from './lu';
+import { luColumnScale, luFactor, luProgramFactor, luProgramSolve, luProgramToDense, luSolve, luWorkspace, type LuWorkspace } from './lu';
 import { solveNodes, type SolveOptions } from './solver';
 import { stampValues } from './stamp';
 import { topologyOf } from './structure-cache';
-
-/** A conductance change of `dg` siemens between two nets (lower-case names, "0" the reference). */
-export interface RubberStamp {
-  a: string;
-  b: string;
-  dg: number;
-}
-
-export type FaultMethod = 'woodbury' | 'newton-woodbury' | 'full';
-
-export interface FaultSolution {
-  /** Node voltage by lower-case name (0 for the reference or an unknown net). */
-  voltage(node: string): number;
-  method: FaultMethod;
-  /** Newton steps (2 for a linear board: the solve and one refinement). */
-  iterations: number;
-}
 
 /** Newton iterations allowed before the full solve takes over (a fault that moves junctions far does not settle). */
 const MAX_ITERATIONS = 12;
@@ -61,88 +45,54 @@ const ABSTOL = 1e-14;
 const MAX_RANK_FLOOR = 16;
 
 /**
- * The conductance stamps that turn `healthy` into `faulted`, or undefined when the difference is not one (an
- * element other than a resistor or capacitor added, removed or changed, or a net only one of them has). A
- * capacitor is open at DC, so adding or removing one stamps nothing.
- */
-export function rubberStamps(healthy: Circuit, faulted: Circuit): RubberStamp[] | undefined {
-  const before = new Map(healthy.elements.map((e) => [e.name, e]));
-  const after = new Map(faulted.elements.map((e) => [e.name, e]));
-  // elements are matched by name: a name written twice cannot be matched
-  if (before.size !== healthy.elements.length || after.size !== faulted.elements.length) return undefined;
-  const out: RubberStamp[] = [];
-  const stamp = (e: Element, sign: number): boolean => {
-    if (e.kind === 'C') return true;
-    if (e.kind !== 'R') return false;
-    out.push({ a: e.nodes[0] as string, b: e.nodes[1] as string, dg: sign / e.value });
-    return true;
-  };
-  for (const [name, e] of before) {
-    const f = after.get(name);
-    if (f === e) continue;
-    if (!f) {
-      if (!stamp(e, -1)) return undefined;
-    } else if (!sameElement(e, f)) {
-      if (!stamp(e, -1) || !stamp(f, 1)) return undefined;
-    }
-  }
-  for (const [name, f] of after) if (!before.has(name) && !stamp(f, 1)) return undefined;
-  return sameNets(healthy, faulted) ? out.filter((s) => s.dg !== 0 && s.a !== s.b) : undefined;
-}
-
-function sameElement(a: Element, b: Element): boolean {
-  return JSON.stringify(a) === JSON.stringify(b);
-}
-
-function netsOf(c: Circuit): Set<string> {
-  const s = new Set<string>();
-  for (const e of c.elements) for (const n of e.nodes) s.add(n);
-  return s;
-}
-
-function sameNets(a: Circuit, b: Circuit): boolean {
-  const na = netsOf(a);
-  const nb = netsOf(b);
-  return na.size === nb.size && [...na].every((n) => nb.has(n));
-}
-
-class Solution implements FaultSolution {
-  constructor(
-    private readonly x: Float64Array,
-    private readonly nodeIndex: ReadonlyMap<string, number>,
-    readonly method: FaultMethod,
-    readonly iterations: number,
-  ) {}
-
-  voltage(node: string): number {
-    const i = this.nodeIndex.get(node);
-    return i === undefined ? 0 : (this.x[i] as number);
-  }
-}
-
-/**
  * A board state solved once, healthy, with its Jacobian factored: faults given as rubber stamps are then solved
  * from it (`solve`). One instance per circuit; not re-entrant (it reuses the compiled topology's work arrays).
+ * The Jacobian is kept in the topology's sparse positions (lu.ts LuProgram): a step's residual and its difference
+ * from the healthy Jacobian cost the non-zeros, not n²; only A₀'s factors are dense.
  */
 export class HealthyFactor {
   private readonly n: number;
   private readonly nonlinear: boolean;
-  /** Healthy solution, dense healthy Jacobian (rows × solution indices) and its factors. */
+  /**
+   * Healthy solution, healthy Jacobian values (per sparse position) and A₀'s factors: sparse along the compiled
+   * program (`sparse`), dense with pivoting (`f0`, `ws`) where a pivot of the compiled order is too weak.
+   */
   private readonly x0: Float64Array;
-  private readonly a0: Float64Array;
-  private readonly f0: Float64Array;
-  private readonly ws: LuWorkspace;
+  private readonly vals0: Float64Array;
+  private readonly sparse?: Float64Array;
+  private readonly f0?: Float64Array;
+  private readonly ws?: LuWorkspace;
   /** Per node solution index: its KCL row. */
   private readonly rowOfX: Int32Array;
   /** Solution indices of nodes the healthy structure ties to the reference by GISLAND (no DC path of their own). */
   private readonly islands = new Set<number>();
   /** A₀⁻¹ e_r by row r (Z's columns), computed when a change first touches row r. */
   private readonly zCols = new Map<number, Float64Array>();
-  private readonly dense: Float64Array;
   /** Per solution index: step tolerance beyond RELTOL (see ABSTOL), computed on the first solve. */
   private floor?: Float64Array;
+  /** The values of the linear stamps and sources (stampValues), kept so that a step stamps only the junctions. */
+  private readonly base: Float64Array;
+  private readonly rhs0: Float64Array;
+  /** Work of a step: Jacobian values, right-hand side, residual, solves. */
+  private readonly vals: Float64Array;
   private readonly b: Float64Array;
+  private readonly r: Float64Array;
+  private readonly dx: Float64Array;
   private readonly y: Float64Array;
+  /** Row → its index among the rows a step's change touches (-1 when untouched), and those rows. */
+  private readonly slot: Int32Array;
+  private readonly rows: Int32Array;
+  /** Largest rank of a change taken by Woodbury, and the buffers of its k×k system. */
+  private readonly maxRank: number;
+  private readonly kk: Float64Array;
+  private readonly my: Float64Array;
+  private readonly wv: Float64Array;
+  private readonly zs: Float64Array[] = [];
+  private readonly kws: LuWorkspace[] = [];
+  /** Entries of a step's change (row, solution index, value). */
+  private er = new Int32Array(0);
+  private ec = new Int32Array(0);
+  private ed = new Float64Array(0);
 
   private constructor(
     private readonly circuit: Circuit,
@@ -159,14 +109,40 @@ export class HealthyFactor {
     for (let i = 0; i < top.shuntX.length; i++) this.rowOfX[top.shuntX[i] as number] = top.shuntRow[i] as number;
     const islandPos = new Set(top.islandPos);
     for (let i = 0; i < top.shuntPos.length; i++) if (islandPos.has(top.shuntPos[i] as number)) this.islands.add(top.shuntX[i] as number);
-    this.dense = new Float64Array(n * n);
-    this.b = new Float64Array(n + 1);
+    const w = stampValues(top, circuit.elements);
+    this.base = w.base.slice();
+    this.rhs0 = w.rhs0.slice();
+    this.vals = new Float64Array(top.lu.nnz);
+    this.b = new Float64Array(n);
+    this.r = new Float64Array(n);
+    this.dx = new Float64Array(n);
     this.y = new Float64Array(n);
+    this.slot = new Int32Array(n).fill(-1);
+    this.rows = new Int32Array(n);
+    this.maxRank = Math.max(MAX_RANK_FLOOR, n / 2);
+    const kmax = Math.floor(this.maxRank);
+    this.kk = new Float64Array(kmax * kmax);
+    this.my = new Float64Array(kmax);
+    this.wv = new Float64Array(kmax);
     this.assembleAt(this.x0);
-    this.a0 = this.dense.slice();
-    this.f0 = this.dense.slice();
-    this.ws = luWorkspace(n);
-    if (luFactor(this.f0, this.ws) >= 0) throw new Error('the healthy Jacobian is singular');
+    this.vals0 = this.vals.slice();
+    const fac = this.vals0.slice();
+    const scale = new Float64Array(n);
+    luColumnScale(this.vals0, top.lu, scale);
+    if (luProgramFactor(fac, top.lu, scale, this.vals0)) {
+      this.sparse = fac;
+    } else {
+      this.f0 = new Float64Array(n * n);
+      luProgramToDense(this.vals0, top.lu, this.f0);
+      this.ws = luWorkspace(n);
+      if (luFactor(this.f0, this.ws) >= 0) throw new Error('the healthy Jacobian is singular');
+    }
+  }
+
+  /** x = A₀⁻¹ b with the healthy factors. */
+  private solveA0(b: Float64Array, x: Float64Array): void {
+    if (this.sparse) luProgramSolve(this.sparse, this.top.lu, b, x);
+    else luSolve(this.f0 as Float64Array, this.ws as LuWorkspace, b, x);
   }
 
   /** Solves the healthy circuit and factors its Jacobian; undefined when the healthy circuit does not solve. */
@@ -202,11 +178,12 @@ export class HealthyFactor {
    * apply; throws SolveError when the faulted circuit cannot be solved at all.
    */
   solve(stamps: readonly RubberStamp[]): FaultSolution {
-    const fast = this.fast(stamps);
+    const entries = this.stampEntries(stamps);
+    const fast = entries && this.fast(entries);
     if (fast) return fast;
     const extra = stamps.map((s, i): Element => ({ kind: 'R', name: `fault#${i}`, part: 'fault', nodes: [s.a, s.b], value: 1 / s.dg }));
     const sol = solveNodes({ ...this.circuit, elements: [...this.circuit.elements, ...extra] }, { ...this.options, initialGuess: this.healthyGuess() });
-    return { voltage: (node) => sol.voltage(node), method: 'full', iterations: 0 };
+    return { voltage: (node) => sol.voltage(node), nodes: () => sol.nodes(), method: 'full', iterations: 0 };
   }
 
   private healthyGuess(): Record<string, number> {
@@ -215,10 +192,13 @@ export class HealthyFactor {
     return out;
   }
 
-  /** Dense Jacobian and right-hand side of the healthy circuit linearised at x (into this.dense, this.b); true if pnjlim limited a junction. */
+  /** Healthy Jacobian values and right-hand side linearised at x (into this.vals, this.b); true if pnjlim limited a junction. */
   private assembleAt(x: Float64Array): boolean {
     const { top } = this;
-    const w = stampValues(top, this.circuit.elements);
+    const w = top.work;
+    // the work arrays are the topology's, shared with every solve of the same structure: the junctions' device
+    // parameters are written again; the linear stamps are this circuit's own copy (base, rhs0)
+    if (this.nonlinear) stampValues(top, this.circuit.elements);
     w.x.set(x.subarray(0, top.n));
     w.x[top.n] = 0;
     // junction state from x, so that pnjlim limits each step against the previous iterate (as newton.ts)
@@ -229,10 +209,10 @@ export class HealthyFactor {
       w.qVbe[i] = pol * (xb - (x[top.qX[3 * i + 2] as number] as number));
       w.qVbc[i] = pol * (xb - (x[top.qX[3 * i] as number] as number));
     }
-    w.asm.set(w.base);
-    w.b.set(w.rhs0);
-    const limited = stampJunctions(top, w, false);
-    luProgramToDense(w.asm, top.lu, this.dense);
+    w.asm.set(this.base);
+    w.b.set(this.rhs0);
+    const limited = this.nonlinear && stampJunctions(top, w, false);
+    this.vals.set(w.asm.subarray(0, this.vals.length));
     this.b.set(w.b.subarray(0, top.n));
     return limited;
   }
@@ -243,32 +223,38 @@ export class HealthyFactor {
       const e = new Float64Array(this.n);
       e[r] = 1;
       z = new Float64Array(this.n);
-      luSolve(this.f0, this.ws, e, z);
+      this.solveA0(e, z);
       this.zCols.set(r, z);
     }
     return z;
   }
 
-  /** Adds the stamps to this.dense. */
-  private addStamps(stamps: readonly RubberStamp[]): boolean {
-    const { n, dense, rowOfX } = this;
+  /** The stamps as Jacobian entries (row, solution index, value), or undefined where the fast path does not apply. */
+  private stampEntries(stamps: readonly RubberStamp[]): Entries | undefined {
+    const { n, rowOfX } = this;
+    const out: Entries = { row: [], col: [], d: [] };
+    const put = (r: number, c: number, d: number) => {
+      out.row.push(r);
+      out.col.push(c);
+      out.d.push(d);
+    };
     for (const s of stamps) {
       const xa = s.a === '0' ? n : this.top.nodeIndex.get(s.a);
       const xb = s.b === '0' ? n : this.top.nodeIndex.get(s.b);
-      if (xa === undefined || xb === undefined) return false;
+      if (xa === undefined || xb === undefined) return undefined;
       // a stamp on an island may give it a DC path: the faulted structure then has no GISLAND there (full solve)
-      if (this.islands.has(xa) || this.islands.has(xb)) return false;
+      if (this.islands.has(xa) || this.islands.has(xb)) return undefined;
       const ra = xa < n ? (rowOfX[xa] as number) : -1;
       const rb = xb < n ? (rowOfX[xb] as number) : -1;
-      if ((xa < n && ra < 0) || (xb < n && rb < 0)) return false;
-      if (ra >= 0) dense[ra * n + xa] = (dense[ra * n + xa] as number) + s.dg;
-      if (rb >= 0) dense[rb * n + xb] = (dense[rb * n + xb] as number) + s.dg;
+      if ((xa < n && ra < 0) || (xb < n && rb < 0)) return undefined;
+      if (ra >= 0) put(ra, xa, s.dg);
+      if (rb >= 0) put(rb, xb, s.dg);
       if (ra >= 0 && rb >= 0) {
-        dense[ra * n + xb] = (dense[ra * n + xb] as number) - s.dg;
-        dense[rb * n + xa] = (dense[rb * n + xa] as number) - s.dg;
+        put(ra, xb, -s.dg);
+        put(rb, xa, -s.dg);
       }
     }
-    return true;
+    return out;
   }
 
   /**
@@ -277,23 +263,24 @@ export class HealthyFactor {
    * of a fraction of an ohm meets a 300 V bus) only perturbs the step: the next step corrects it, as iterative
    * refinement does (Golub & Van Loan, Matrix Computations, 4th ed., §3.5.3). A linear board takes two steps.
    */
-  private fast(stamps: readonly RubberStamp[]): FaultSolution | undefined {
-    const { n, top, dense, b } = this;
+  private fast(stamps: Entries): FaultSolution | undefined {
+    const { n, top, vals, b, r, dx } = this;
+    const { nnz, posRow, posCol } = top.lu;
     const x = this.x0.slice();
-    const r = new Float64Array(n);
-    const dx = new Float64Array(n);
     const floor = this.stepFloor();
     for (let iter = 1; iter <= MAX_ITERATIONS; iter++) {
       // a step limited by pnjlim is not converged, however small (as newton.ts)
       const limited = this.assembleAt(x);
-      if (!this.addStamps(stamps)) return undefined;
-      for (let i = 0; i < n; i++) {
-        let s = -(b[i] as number);
-        const ro = i * n;
-        for (let j = 0; j < n; j++) s += (dense[ro + j] as number) * (x[j] as number);
-        r[i] = s;
+      for (let i = 0; i < n; i++) r[i] = -(b[i] as number);
+      for (let t = 0; t < nnz; t++) {
+        const ri = posRow[t] as number;
+        r[ri] = (r[ri] as number) + (vals[t] as number) * (x[posCol[t] as number] as number);
       }
-      if (!this.woodbury(r, dx)) return undefined;
+      for (let s = 0; s < stamps.d.length; s++) {
+        const ri = stamps.row[s] as number;
+        r[ri] = (r[ri] as number) + (stamps.d[s] as number) * (x[stamps.col[s] as number] as number);
+      }
+      if (!this.woodbury(stamps, r, dx)) return undefined;
       let conv = iter > 1 && !limited;
       for (let i = 0; i < n; i++) {
         const xo = x[i] as number;
@@ -320,58 +307,83 @@ export class HealthyFactor {
     return this.floor;
   }
 
-  /** Solves this.dense · out = rhs with A₀'s factors and the Woodbury correction for D = dense − A₀. */
-  private woodbury(rhs: Float64Array, out: Float64Array): boolean {
-    const { n, dense, a0 } = this;
-    // rows and columns where the matrix differs from the healthy one
-    const rows: number[] = [];
-    const colSet = new Set<number>();
-    for (let r = 0; r < n; r++) {
-      let touched = false;
-      const ro = r * n;
-      for (let c = 0; c < n; c++) {
-        if (dense[ro + c] === a0[ro + c]) continue;
-        touched = true;
-        colSet.add(c);
-      }
-      if (touched) rows.push(r);
+  /** Solves (A₀ + D) · out = rhs with A₀'s factors and the Woodbury correction, D = the stamps plus this.vals − A₀. */
+  private woodbury(stamps: Entries, rhs: Float64Array, out: Float64Array): boolean {
+    const { n, vals, vals0, slot } = this;
+    const { nnz, posRow, posCol } = this.top.lu;
+    // the entries of D: the stamps, then the junction entries that moved (buffers kept: a build makes ~10⁵ steps)
+    const cap = stamps.d.length + nnz;
+    if (this.er.length < cap) {
+      this.er = new Int32Array(cap);
+      this.ec = new Int32Array(cap);
+      this.ed = new Float64Array(cap);
     }
-    // k column solves (O(k·n²) dense, cached across faults) and a k×k system: beyond half the rows (and a small
-    // floor, where everything is cheap) a refactorisation of the faulted matrix costs less
-    if (rows.length > Math.max(MAX_RANK_FLOOR, n / 2)) return false;
-    luSolve(this.f0, this.ws, rhs, this.y);
-    const y = this.y;
-    if (rows.length === 0) {
-      out.set(y);
+    const { er, ec, ed, rows } = this;
+    let m = 0;
+    for (let s = 0; s < stamps.d.length; s++, m++) {
+      er[m] = stamps.row[s] as number;
+      ec[m] = stamps.col[s] as number;
+      ed[m] = stamps.d[s] as number;
+    }
+    for (let t = 0; t < nnz; t++) {
+      const d = (vals[t] as number) - (vals0[t] as number);
+      if (d === 0) continue;
+      er[m] = posRow[t] as number;
+      ec[m] = posCol[t] as number;
+      ed[m++] = d;
+    }
+    let k = 0;
+    for (let e = 0; e < m; e++) {
+      const ri = er[e] as number;
+      if (slot[ri] !== -1) continue;
+      slot[ri] = k;
+      rows[k++] = ri;
+    }
+    try {
+      // k column solves (cached across faults) and a k×k system: beyond half the rows (and a small floor, where
+      // everything is cheap) a refactorisation of the faulted matrix costs less
+      if (k > this.maxRank) return false;
+      this.solveA0(rhs, this.y);
+      const y = this.y;
+      if (k === 0) {
+        out.set(y);
+        return true;
+      }
+      const z = this.zs;
+      for (let j = 0; j < k; j++) z[j] = this.zCol(rows[j] as number);
+      // K = I + M Vᵀ Z (k×k), rhs = M Vᵀ y, with M Vᵀ = D's rows
+      const kk = this.kk;
+      const my = this.my;
+      kk.fill(0, 0, k * k);
+      my.fill(0, 0, k);
+      for (let i = 0; i < k; i++) kk[i * k + i] = 1;
+      for (let e = 0; e < m; e++) {
+        const i = slot[er[e] as number] as number;
+        const c = ec[e] as number;
+        const d = ed[e] as number;
+        my[i] = (my[i] as number) + d * (y[c] as number);
+        const ro = i * k;
+        for (let j = 0; j < k; j++) kk[ro + j] = (kk[ro + j] as number) + d * ((z[j] as Float64Array)[c] as number);
+      }
+      const ws = (this.kws[k] ??= luWorkspace(k));
+      if (luFactor(kk, ws) >= 0) return false;
+      const wv = this.wv;
+      luSolve(kk, ws, my, wv);
+      for (let i = 0; i < n; i++) {
+        let s = y[i] as number;
+        for (let j = 0; j < k; j++) s -= ((z[j] as Float64Array)[i] as number) * (wv[j] as number);
+        out[i] = s;
+      }
       return true;
+    } finally {
+      for (let j = 0; j < k; j++) slot[rows[j] as number] = -1;
     }
-    const cols = [...colSet];
-    const k = rows.length;
-    const z = rows.map((r) => this.zCol(r));
-    // K = I + M Vᵀ Z (k×k), rhs = M Vᵀ y, with M = D[rows, cols]
-    const kk = new Float64Array(k * k);
-    const my = new Float64Array(k);
-    for (let i = 0; i < k; i++) {
-      const ro = (rows[i] as number) * n;
-      kk[i * k + i] = 1;
-      let s = 0;
-      for (const c of cols) {
-        const d = (dense[ro + c] as number) - (a0[ro + c] as number);
-        if (d === 0) continue;
-        s += d * (y[c] as number);
-        for (let j = 0; j < k; j++) kk[i * k + j] = (kk[i * k + j] as number) + d * ((z[j] as Float64Array)[c] as number);
-      }
-      my[i] = s;
-    }
-    const ws = luWorkspace(k);
-    if (luFactor(kk, ws) >= 0) return false;
-    const wv = new Float64Array(k);
-    luSolve(kk, ws, my, wv);
-    for (let i = 0; i < n; i++) {
-      let s = y[i] as number;
-      for (let j = 0; j < k; j++) s -= ((z[j] as Float64Array)[i] as number) * (wv[j] as number);
-      out[i] = s;
-    }
-    return true;
   }
+}
+
+/** Jacobian entries of a change: row, solution index (n is the reference: no column), value. */
+interface Entries {
+  row: number[];
+  col: number[];
+  d: number[];
 }

@@ -37,4 +37,7 @@ export type { Probe, BoardState, Reading, MeterProfile, MeterMode, TestSource, A
 export { CC_AUTORANGE_6000, ANALOG_THEVENIN_20K, METER_PROFILES, meterProfileById, accuracyLimit } from './meter-profiles';
 export { parseSpiceNumber } from './values';
 export { nodesWithoutDcPath } from './topology';
-export { HealthyFactor, rubberStamps } from './fault-sim';
+export { HealthyFactor } from './fault-sim';
+export { rubberStamps } from './rubber-stamps';
+export type { RubberStamp } from './rubber-stamps';
+export { FaultMeter } from './fault-meter';

@@ -3,7 +3,7 @@ import { normNode, REFERENCE } from './circuit';
 import { flatten } from './flatten';
 import type { Netlist } from './netlist-types';
 import { VT } from './devices';
-import { solveNodes, type NodeSolution, type SolveOptions } from './solver';
+import { solveNodes, type SolveOptions } from './solver';
 import {
   DEFAULT_METER,
   MeasurementError,
@@ -60,7 +60,25 @@ export interface MeasureOptions {
    * `extraNodes` is always the two probed nets.
    */
   solve?: Omit<SolveOptions, 'extraNodes'>;
+  /**
+   * Solves the circuit with the meter's elements attached in place of solveNodes: the fault dictionary attaches
+   * the meter to a faulted board through the healthy board's factors (fault-meter.ts). Called with the meter's
+   * elements of one function / range; its solution is read exactly as a full solve's.
+   */
+  attach?: MeterAttach;
 }
+
+/** What the meter reads of a solved circuit: node voltages, and the vector a warm start of the next range takes. */
+export interface MeterSolution {
+  voltage(node: string): number;
+  readonly x?: Float64Array;
+  nodes(): Record<string, number>;
+}
+
+type MeterAttach = (extra: Element[], red: string, black: string) => MeterSolution;
+
+/** The solve options threaded through a reading (one value, so that each range's solve passes the hook on). */
+type SolveArgs = (MeasureOptions['solve'] & { attach?: MeterAttach }) | undefined;
 
 /** A reading with the solved circuit behind it (undefined for a probe on one net, which needs no solve). */
 export interface MeasuredReading {
@@ -76,10 +94,10 @@ const METER_NODE = 'meter#src';
 /** A solved reading; the node record is built only when asked for (the diagnosis reads it once per probe). */
 class Solved implements MeasuredReading {
   private record?: Record<string, number>;
-  readonly x: Float64Array;
+  readonly x?: Float64Array;
   constructor(
     readonly reading: Reading,
-    private readonly solution: NodeSolution,
+    private readonly solution: MeterSolution,
   ) {
     this.x = solution.x;
   }
@@ -89,10 +107,11 @@ class Solved implements MeasuredReading {
   }
 }
 
-const solved = (reading: Reading, s: NodeSolution): MeasuredReading => new Solved(reading, s);
+const solved = (reading: Reading, s: MeterSolution): MeasuredReading => new Solved(reading, s);
 
 /** Solves the circuit with the meter's elements attached; SolveError (never a reading) when it cannot be solved. */
-function withMeter(circuit: Circuit, extra: Element[], red: string, black: string, solve: MeasureOptions['solve']): NodeSolution {
+function withMeter(circuit: Circuit, extra: Element[], red: string, black: string, solve: SolveArgs): MeterSolution {
+  if (solve?.attach) return solve.attach(extra, red, black);
   return solveNodes({ ...circuit, elements: [...circuit.elements, ...extra] }, { ...solve, extraNodes: [red, black] });
 }
 
@@ -117,7 +136,7 @@ function clampModel(src: { current: number; compliance: number }) {
  * Drives the probes from a test source; v = V(red) − V(black), i = the current the meter takes as flowing (the
  * Thevenin source's actual current; a current source's nominal current, as its display is calibrated).
  */
-function driven(circuit: Circuit, red: string, black: string, src: TestSource, solve: MeasureOptions['solve']): { v: number; i: number; s: NodeSolution } {
+function driven(circuit: Circuit, red: string, black: string, src: TestSource, solve: SolveArgs): { v: number; i: number; s: MeterSolution } {
   if (src.kind === 'current') {
     const extra: Element[] = [
       { kind: 'I', name: 'meter#i', part: 'meter#', nodes: [black, red], value: src.current },
@@ -158,8 +177,8 @@ function autorangeOhm(
   red: string,
   black: string,
   ranges: readonly MeterRange[],
-  solve: MeasureOptions['solve'],
-): { reading: number | 'OL'; s: NodeSolution; range: number } {
+  solve: SolveArgs,
+): { reading: number | 'OL'; s: MeterSolution; range: number } {
   let k = 0;
   let guess = solve?.initialGuess;
   for (;;) {
@@ -191,31 +210,32 @@ const continuitySource = (m: MeterProfile): TestSource => m.continuity.source ??
 export function measureDetailed(circuit: Circuit, probe: Probe, meter: MeterProfile = DEFAULT_METER, options: MeasureOptions = {}): MeasuredReading {
   const red = checkNet(circuit, probe.red, 'red');
   const black = checkNet(circuit, probe.black, 'black');
+  const solve: SolveArgs = options.attach ? { ...options.solve, attach: options.attach } : options.solve;
   switch (probe.mode) {
     case 'dcv': {
       if (red === black) return { reading: { value: 0, unit: 'V' } };
-      return dcvReading(circuit, red, black, meter, options.solve);
+      return dcvReading(circuit, red, black, meter, solve);
     }
     case 'ohm': {
       if (red === black) return { reading: { value: 0, unit: 'ohm' } };
       const ranges = meter.ohm.ranges;
       if (ranges?.length) {
-        const { reading, s } = autorangeOhm(circuit, red, black, ranges, options.solve);
+        const { reading, s } = autorangeOhm(circuit, red, black, ranges, solve);
         return solved({ value: reading, unit: 'ohm' }, s);
       }
-      const { v, i, s } = driven(circuit, red, black, thevenin(meter.ohm), options.solve);
+      const { v, i, s } = driven(circuit, red, black, thevenin(meter.ohm), solve);
       return solved({ value: resistanceReading(v, i, meter.ohm.overRange), unit: 'ohm' }, s);
     }
     case 'continuity': {
       const c = meter.continuity;
       if (red === black) return { reading: { value: 0, unit: 'ohm', beep: true } };
-      const { v, i, s } = driven(circuit, red, black, continuitySource(meter), options.solve);
+      const { v, i, s } = driven(circuit, red, black, continuitySource(meter), solve);
       const value = resistanceReading(v, i, c.overRange);
       return solved({ value, unit: 'ohm', beep: value !== 'OL' && value < c.threshold }, s);
     }
     case 'diode': {
       if (red === black) return { reading: { value: 0, unit: 'V' } };
-      const { v, s } = driven(circuit, red, black, meter.diode.source ?? thevenin(meter.diode), options.solve);
+      const { v, s } = driven(circuit, red, black, meter.diode.source ?? thevenin(meter.diode), solve);
       return solved({ value: v > meter.diode.overRange ? 'OL' : v, unit: 'V' }, s);
     }
     default:
@@ -228,7 +248,7 @@ export function measureDetailed(circuit: Circuit, probe: Probe, meter: MeterProf
  * ohms-per-volt times the range's full scale: the reading is taken as a technician does, stepping down from a
  * range that holds the value to the lowest range that still holds it (each lower range loads the node more).
  */
-function dcvReading(circuit: Circuit, red: string, black: string, meter: MeterProfile, solve: MeasureOptions['solve']): MeasuredReading {
+function dcvReading(circuit: Circuit, red: string, black: string, meter: MeterProfile, solve: SolveArgs): MeasuredReading {
   const load = (rin: number): Element[] =>
     Number.isFinite(rin) && rin > 0 ? [{ kind: 'R', name: 'meter#rin', part: 'meter#', nodes: [red, black], value: rin }] : [];
   const ranges = meter.dcv.ranges;

@@ -22,6 +22,7 @@ import { subFaultKey } from '../core/cache.js';
 import { modeChoices } from '../core/choices.js';
 import type { SubFault } from '../core/types.js';
 import type { Diagnoser } from './diagnoser.js';
+import { FastPredictor } from './fast-predict.js';
 import { testKey, type ElectricalModel, type ElectricalTest } from './model.js';
 import { candidateTests, type PartNets } from './nexttests.js';
 import type { MeterMode, Prediction } from './noise.js';
@@ -84,7 +85,10 @@ export function decodePrediction(x: number, mode: MeterMode, meter: MeterProfile
 export interface BuildOptions {
   /** Called after each part with parts done and the total. */
   onProgress?: (done: number, total: number) => void;
-  /** Predicts one fault set on the tests (default: the board model's own solves, model.ts `predict`). */
+  /**
+   * Predicts one fault set on the tests (default: fast fault simulation from the healthy factors per test,
+   * fast-predict.ts, which falls back to the board model's own solves where it does not apply).
+   */
   predict?: (faults: readonly SubFault[], tests: readonly ElectricalTest[]) => Prediction[];
 }
 
@@ -96,7 +100,8 @@ export function buildDictionary(d: Diagnoser, options: BuildOptions = {}): Fault
   const faults = ['∅', ...groups.flatMap((g) => g.map((f) => subFaultKey([f])))];
   const rows = tests.map(() => new Float64Array(faults.length));
   tests.forEach((t, i) => ((rows[i] as Float64Array)[0] = encodePrediction(model.healthyPrediction(t))));
-  const predict = options.predict ?? ((f, ts) => model.predict(f, ts));
+  const fast = options.predict ? undefined : new FastPredictor(model);
+  const predict = options.predict ?? ((f, ts) => (fast as FastPredictor).predict(f, ts));
   let col = 1;
   groups.forEach((group, g) => {
     for (const f of group) {

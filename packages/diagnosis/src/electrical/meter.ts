@@ -49,6 +49,11 @@ export function meterReading(
     if (isSolveFailure(err)) return { prediction: { value: 'unknown', reason: 'no-solve' } };
     throw err;
   }
+  return new Read(toPrediction(probe.mode, m), m);
+}
+
+/** A meter reading as a prediction (continuity keeps its beep). */
+export function toPrediction(mode: MeterMode, m: MeasuredReading): Prediction {
   const { value, beep } = m.reading;
-  return new Read(probe.mode === 'continuity' ? { value, beep } : { value }, m);
+  return mode === 'continuity' ? { value, beep } : { value };
 }
