@@ -8,8 +8,8 @@
 import { describe, expect, it } from 'vitest';
 import { DEMO_BOARDS } from '@splitscope/boards';
 import { boardView } from '@/lib/board/board-view';
-import { layoutLabels, leaderEnd, type LabelInput } from './label-layout';
-import { connectorObstacles, labelHeights, labelWidths } from './overlay-draw';
+import { layoutLabels, leaderEnd, placedWidth, type LabelInput } from './label-layout';
+import { connectorObstacles, labelHeights, labelWidths, shortLabel } from './overlay-draw';
 import type { MapConnector, MapPoint } from './types';
 
 type Box = [number, number, number, number];
@@ -26,6 +26,7 @@ function inputOf(
     xs: Float32Array.from(points, (p) => p.x),
     ys: Float32Array.from(points, (p) => p.y),
     widths: labelWidths(points, probes, measure),
+    shortWidths: labelWidths(points, probes, measure, shortLabel),
     heights: labelHeights(points, probes),
     board,
     markerHalf: 12,
@@ -36,10 +37,11 @@ function inputOf(
 
 /** Every placed label clear of labels, markers and obstacles, every leader line clear of labels and markers; the hidden ones. */
 function check(input: LabelInput, scale: number): { hidden: number; placed: number } {
-  const { dx, dy, led } = layoutLabels(input, scale);
+  const layout = layoutLabels(input, scale);
+  const { dx, dy, led } = layout;
   const n = input.xs.length;
   const label = (i: number): Box | null =>
-    Number.isNaN(dx[i]!) ? null : [input.xs[i]! * scale + dx[i]!, input.ys[i]! * scale + dy[i]!, input.widths[i]!, input.heights[i]!];
+    Number.isNaN(dx[i]!) ? null : [input.xs[i]! * scale + dx[i]!, input.ys[i]! * scale + dy[i]!, placedWidth(input, layout, i), input.heights[i]!];
   const marker = (i: number): Box => [input.xs[i]! * scale - 12, input.ys[i]! * scale - 12, 24, 24];
   const obstacles = (input.obstacles ?? []).map((o): Box => [o.x * scale + o.dx, o.y * scale + o.dy, o.w, o.h]);
   const labels = Array.from({ length: n }, (_, i) => label(i));
@@ -89,8 +91,9 @@ describe('labels on whole boards never overlap', () => {
       for (const scale of SCALES) {
         const { hidden } = check(plain, scale);
         check(tagged, scale);
-        // From 1:1 up every label of a demo board has its place.
-        if (scale >= 1) expect(hidden, `${doc.name} at ${scale}`).toBe(0);
+        // From the bench's fit on a 1024 px screen up, every test point of a demo board shows at least its id
+        // (TP7 used to vanish at fit until hovered).
+        if (scale >= 0.41) expect(hidden, `${doc.name} at ${scale}`).toBe(0);
       }
     }, 30_000);
   }

@@ -2,8 +2,10 @@
  * Where each test-point label goes. Labels keep their size on screen while the board zooms, so collisions depend
  * on the scale: the layout works in screen pixels at one scale and is redone when the scale changes (not on pan).
  * Each label tries a few places around its marker and takes the first one that stays inside the picture and
- * touches no marker, no fixed obstacle and no label placed before it. Labels left without one then try places a
- * row or more away, joined to their marker by a leader line that crosses nothing either; the rest are hidden.
+ * touches no marker, no fixed obstacle and no label placed before it. Labels left without one then try the same
+ * places with their short form (the test point's id alone: a technician finds "TP7" on the board and reads the rest
+ * on hover), then places a row or more away, joined to their marker by a leader line that crosses nothing either;
+ * the rest are hidden.
  */
 
 /**
@@ -52,6 +54,8 @@ export interface LabelInput {
   ys: ArrayLike<number>;
   /** Label box sizes, screen px. */
   widths: ArrayLike<number>;
+  /** Box widths of the labels' short forms (the test point id), where a point has one. */
+  shortWidths?: ArrayLike<number>;
   heights: ArrayLike<number>;
   board: { width: number; height: number };
   /** Half the side of the square a marker covers, and the marker-to-label gap, screen px. */
@@ -68,7 +72,13 @@ export interface LabelLayout {
   dy: Float32Array;
   /** 1 where the label sits away from its marker and a leader line joins them. */
   led: Uint8Array;
+  /** 1 where the label is shown in its short form. */
+  short: Uint8Array;
 }
+
+/** A placed label's box width: its short form's where the layout chose that. */
+export const placedWidth = (input: LabelInput, layout: LabelLayout, i: number) =>
+  layout.short[i] && input.shortWidths ? input.shortWidths[i]! : input.widths[i]!;
 
 const CELL = 64;
 
@@ -76,9 +86,11 @@ const CELL = 64;
 class BoxGrid {
   private cells = new Map<number, number[]>();
   private boxes: number[] = [];
+  private removed = new Set<number>();
   constructor(private cols: number) {}
 
-  add(x: number, y: number, w: number, h: number) {
+  /** Adds a box; the id it returns can take it out again. */
+  add(x: number, y: number, w: number, h: number): number {
     const id = this.boxes.length;
     this.boxes.push(x, y, x + w, y + h);
     this.each(x, y, w, h, (key) => {
@@ -87,14 +99,21 @@ class BoxGrid {
       else this.cells.set(key, [id]);
       return false;
     });
+    return id;
   }
 
-  hits(x: number, y: number, w: number, h: number): boolean {
+  remove(id: number) {
+    this.removed.add(id);
+  }
+
+  /** Whether a box touches any box but `except`. */
+  hits(x: number, y: number, w: number, h: number, except = -1): boolean {
     const b = this.boxes;
     return this.each(x, y, w, h, (key) => {
       const list = this.cells.get(key);
       if (!list) return false;
-      for (const id of list) if (x < b[id + 2]! && x + w > b[id]! && y < b[id + 3]! && y + h > b[id + 1]!) return true;
+      for (const id of list)
+        if (id !== except && x < b[id + 2]! && x + w > b[id]! && y < b[id + 3]! && y + h > b[id + 1]! && !this.removed.has(id)) return true;
       return false;
     });
   }
@@ -122,38 +141,54 @@ export function layoutLabels(input: LabelInput, scale: number): LabelLayout {
   const dy = new Float32Array(n).fill(NaN);
   const led = new Uint8Array(n);
   const put = (i: number, x: number, y: number, w: number, h: number) => {
-    grid.add(x, y, w, h);
     dx[i] = x - xs[i]! * scale;
     dy[i] = y - ys[i]! * scale;
+    return grid.add(x, y, w, h);
   };
   // Clamp inside the picture: a label running past the board edge reads as belonging to nothing.
   const clampX = (x: number, w: number) => Math.max(0, Math.min(W - w, x));
   const clampY = (y: number, h: number) => Math.max(0, Math.min(H - h, y));
 
-  // Every label gets the chance of a near place before any takes a far one.
-  let hidden = 0;
-  for (let i = 0; i < n; i++) {
+  /** Puts label i in the first near place clear of everything but box `except`: its grid id, or −1. */
+  const near = (i: number, w: number, except = -1): number => {
     const sx = xs[i]! * scale;
     const sy = ys[i]! * scale;
-    const w = widths[i]!;
     const h = heights[i]!;
     for (let c = 0; c < PLACES.length; c++) {
       const x = clampX(sx + placeX(c, w, gap), w);
       const y = clampY(sy + placeY(c, h, gap), h);
-      if (grid.hits(x, y, w, h)) continue;
-      put(i, x, y, w, h);
-      break;
+      if (!grid.hits(x, y, w, h, except)) return put(i, x, y, w, h);
     }
-    if (Number.isNaN(dx[i]!)) hidden++;
+    return -1;
+  };
+
+  // Every point first reserves a near place for its short form, so a crowded point keeps at least its id; then
+  // every label tries a near place in full (its own reservation aside) and frees the reservation when it finds one.
+  const shortWidths = input.shortWidths;
+  const short = new Uint8Array(n);
+  const reserved = new Int32Array(n).fill(-1);
+  if (shortWidths)
+    for (let i = 0; i < n; i++) {
+      if (shortWidths[i]! >= widths[i]!) continue;
+      reserved[i] = near(i, shortWidths[i]!);
+      if (reserved[i]! >= 0) short[i] = 1;
+    }
+  let hidden = 0;
+  for (let i = 0; i < n; i++) {
+    if (near(i, widths[i]!, reserved[i]) >= 0) {
+      if (reserved[i]! >= 0) grid.remove(reserved[i]!);
+      short[i] = 0;
+    } else if (reserved[i]! < 0) hidden++;
   }
 
-  if (hidden > FAR_MAX) return { scale, dx, dy, led };
+  if (hidden > FAR_MAX) return { scale, dx, dy, led, short };
   for (let i = 0; i < n && hidden > 0; i++) {
     if (!Number.isNaN(dx[i]!)) continue;
     hidden--;
     const sx = xs[i]! * scale;
     const sy = ys[i]! * scale;
-    const w = widths[i]!;
+    // Away from its marker a label is short where it can be: the leader line already says whose it is.
+    const w = shortWidths ? Math.min(shortWidths[i]!, widths[i]!) : widths[i]!;
     const h = heights[i]!;
     far: for (let r = 1; r <= FAR_ROWS; r++) {
       for (const [a, b, dir] of FAR) {
@@ -163,11 +198,12 @@ export function layoutLabels(input: LabelInput, scale: number): LabelLayout {
         put(i, x, y, w, h);
         markLeader(grid, sx, sy, x, y, w, h, m);
         led[i] = 1;
+        if (shortWidths && shortWidths[i]! < widths[i]!) short[i] = 1;
         break far;
       }
     }
   }
-  return { scale, dx, dy, led };
+  return { scale, dx, dy, led, short };
 }
 
 /** Where a leader line from a marker centre meets a label box: the box's nearest point. */

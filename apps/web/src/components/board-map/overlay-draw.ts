@@ -1,6 +1,6 @@
 import type { View } from '@/lib/map-geometry';
 import { LABEL_FONT, LINE, R, SPRITE, labelSprite, markerSprite } from './sprites';
-import { forcedPlace, layoutLabels, type LabelInput, type LabelLayout } from './label-layout';
+import { forcedPlace, layoutLabels, placedWidth, type LabelInput, type LabelLayout } from './label-layout';
 import type { MapConnector, MapPart, MapPoint } from './types';
 
 /**
@@ -114,8 +114,9 @@ export function drawOverlay(ctx: CanvasRenderingContext2D, s: OverlayScene, v: V
 
   // labels where the layout found room; the selected and hovered points' labels always, on a backing
   if (!s.layout || s.layout.scale !== k) s.layout = layoutLabels(s.labels, k);
-  const { dx, dy, led } = s.layout;
+  const { dx, dy, led, short } = s.layout;
   const { widths, heights } = s.labels;
+  const boxWidth = (i: number) => placedWidth(s.labels, s.layout!, i);
   // leader lines, from the marker's edge to the nearest point of a label a row or more away, under the labels
   ctx.beginPath();
   for (let i = 0; i < n; i++) {
@@ -123,7 +124,7 @@ export function drawOverlay(ctx: CanvasRenderingContext2D, s: OverlayScene, v: V
     const x = px(pts[i]!.x);
     const y = py(pts[i]!.y);
     if (!on(x, y, 300)) continue;
-    const ex = Math.max(x + dx[i]!, Math.min(x + dx[i]! + widths[i]!, x));
+    const ex = Math.max(x + dx[i]!, Math.min(x + dx[i]! + boxWidth(i), x));
     const ey = Math.max(y + dy[i]!, Math.min(y + dy[i]! + heights[i]!, y));
     const len = Math.hypot(ex - x, ey - y) || 1;
     ctx.moveTo(x + ((ex - x) * R) / len, y + ((ey - y) * R) / len);
@@ -147,20 +148,30 @@ export function drawOverlay(ctx: CanvasRenderingContext2D, s: OverlayScene, v: V
       ctx.fillRect(x + ox - 2, y + oy - 1, widths[i]! + 4, heights[i]! + 2);
     }
     const probe = probeOf(s, p.net);
-    const img = labelSprite(p.label, probe ? PROBE_TAG[probe] : null, widths[i]!, heights[i]!, pr);
-    if (img) ctx.drawImage(img, snap(x + ox), snap(y + oy), widths[i]!, heights[i]!);
+    const placedShort = short[i] === 1 && !Number.isNaN(dx[i]!);
+    const w = placedShort ? boxWidth(i) : widths[i]!;
+    const img = labelSprite(placedShort ? p.id : p.label, probe ? PROBE_TAG[probe] : null, w, heights[i]!, pr);
+    if (img) ctx.drawImage(img, snap(x + ox), snap(y + oy), w, heights[i]!);
   }
 }
 
 export const PROBE_TAG = { red: 'RED +', black: 'BLACK −' } as const;
 
-/** Label box widths: the wider of the name and, where a probe goes, its tag. */
-export function labelWidths(points: MapPoint[], probes: { red?: string; black?: string }, measure: (text: string, font: string) => number): Float32Array {
+/** Label box widths: the wider of the name (or, for the short form, the point's id) and, where a probe goes, its tag. */
+export function labelWidths(
+  points: MapPoint[],
+  probes: { red?: string; black?: string },
+  measure: (text: string, font: string) => number,
+  text: (p: MapPoint) => string = (p) => p.label,
+): Float32Array {
   return Float32Array.from(points, (p) => {
     const tag = p.net === probes.red ? PROBE_TAG.red : p.net === probes.black ? PROBE_TAG.black : null;
-    return Math.max(measure(p.label, LABEL_FONT), tag ? measure(tag, PROBE_FONT) : 0);
+    return Math.max(measure(text(p), LABEL_FONT), tag ? measure(tag, PROBE_FONT) : 0);
   });
 }
+
+/** The short form of a point's label: its id as printed on the board (TP7). */
+export const shortLabel = (p: MapPoint) => p.id;
 
 /** Label box heights: one line, two where a probe tag goes under the name. */
 export function labelHeights(points: MapPoint[], probes: { red?: string; black?: string }): Float32Array {

@@ -6,7 +6,7 @@
 import Konva from 'konva';
 import { useCallback, useEffect, useLayoutEffect, useMemo, useRef } from 'react';
 import type { View } from '@/lib/map-geometry';
-import { connectorObstacles, labelHeights, labelWidths, PROBE_TAG, type OverlayScene } from './overlay-draw';
+import { connectorObstacles, labelHeights, labelWidths, PROBE_TAG, shortLabel, type OverlayScene } from './overlay-draw';
 import { OverlayCache } from './overlay-cache';
 import { labelSprite } from './sprites';
 
@@ -37,6 +37,7 @@ export function useMapScene(input: SceneInput) {
       xs: Float32Array.from(points, (p) => p.x),
       ys: Float32Array.from(points, (p) => p.y),
       widths: labelWidths(points, { red, black }, measure),
+      shortWidths: labelWidths(points, { red, black }, measure, shortLabel),
       heights: labelHeights(points, { red, black }),
       board: { width: board.width, height: board.height },
       markerHalf: 12,
