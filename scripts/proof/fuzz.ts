@@ -140,8 +140,9 @@ const REFUSED_MAY_WRITE: Record<string, string[]> = {
 };
 const READS_MAY_WRITE = ['sessions', 'billing_settings', 'service_terms', 'customer_links'];
 // Written by the server's own background work, whatever request is in flight: a board model's fault dictionary is
-// built in the background after the server starts or a board changes (diagnosis/dictionary.ts).
-const BACKGROUND_TABLES = ['fault_dictionaries', 'fault_dictionary_rows'];
+// built in the background after the server starts or a board changes (diagnosis/dictionary.ts), and the fault pairs
+// a diagnosis calls for are computed in the worker and stored after the read that asked for them has answered.
+const BACKGROUND_TABLES = ['fault_dictionaries', 'fault_dictionary_rows', 'fault_dictionary_pairs'];
 // Routes that answer before their work is done, on purpose: a reset request answers at once whether or not the
 // address has an account (its timing tells nothing), then writes the link and mails it.
 const ANSWERS_FIRST = ['POST /api/auth/password-reset'];
