@@ -25,7 +25,7 @@ export function ReadingsTable({
   const groups = useMemo(() => groupRepeats(readings), [readings]);
   if (readings.length === 0) return <p className="text-sm text-stone-700">No reading yet.</p>;
   return (
-    <table className="w-full text-left text-sm" data-testid="readings-table">
+    <table className="w-full text-left text-sm sm:[&_td]:pr-2 sm:[&_th]:pr-2" data-testid="readings-table">
       {caption && <caption className="sr-only">{caption}</caption>}
       <thead>
         <tr className="border-b border-stone-300">

@@ -205,7 +205,7 @@ function Bench({ job }: { job: JobDetail }) {
           {job.faultCode ? `code ${job.faultCode} · ` : ''}
           {job.symptom} · {job.customerName}
         </p>
-        <div className="flex flex-wrap gap-1">
+        <div className="flex min-w-0 max-w-full flex-wrap gap-1">
           <GuidedSwitch job={job} guided={guided} onToggle={() => setParams((p) => (p.set('mode', guided ? 'free' : 'guided'), p))} />
           <MeterSwitch job={job} />
           {['approved', 'repaired', 'verified', 'returned'].includes(job.status) && (

@@ -22,11 +22,11 @@ function ReviewQueuePage() {
               <thead className="bg-stone-100 text-sm">
                 <tr>
                   <th className="p-2">Job</th>
-                  <th>Board</th>
-                  <th>Customer</th>
-                  <th>Proposed part</th>
-                  <th>Technician</th>
-                  <th>Waiting</th>
+                  <th className="hidden sm:table-cell">Board</th>
+                  <th className="hidden sm:table-cell">Customer</th>
+                  <th className="pr-2">Proposed part</th>
+                  <th className="pr-2">Technician</th>
+                  <th className="pr-2">Waiting</th>
                 </tr>
               </thead>
               <tbody>
@@ -37,11 +37,12 @@ function ReviewQueuePage() {
                         Review #{j.number}
                       </Link>
                     </td>
-                    <td>{j.boardName}</td>
-                    <td>{j.customerName}</td>
-                    <td className="font-semibold">{j.proposedPart ?? '—'}</td>
-                    <td>{j.assigneeName ?? '—'}</td>
-                    <td>{age(j.updatedAt)}</td>
+                    {/* A phone shows what a lead decides on: the job, the part and who waits; board and customer open with the job. */}
+                    <td className="hidden sm:table-cell">{j.boardName}</td>
+                    <td className="hidden sm:table-cell">{j.customerName}</td>
+                    <td className="pr-2 font-semibold">{j.proposedPart ?? '—'}</td>
+                    <td className="pr-2">{j.assigneeName ?? '—'}</td>
+                    <td className="pr-2">{age(j.updatedAt)}</td>
                   </tr>
                 ))}
               </tbody>
