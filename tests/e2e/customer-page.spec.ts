@@ -1,5 +1,6 @@
 import type { CapturedMail, CapturedMailSummary, JobBilling, Quote } from '@splitscope/contract';
-import { expect, signIn, test } from './fixtures';
+import { signIn } from './fixtures';
+import { expect, test } from './support/own-shop';
 import { getJson, shot } from './helpers';
 import { api, createJob } from './support/shop-data';
 
@@ -7,8 +8,8 @@ test.describe('the customer page', () => {
   // The altered link's API call answers 404 on purpose; the browser logs that as a console error.
   test.use({ expectedConsoleErrors: [/404 \(Not Found\)/] });
 
-  test('the link from the e-mail approves the quote; an altered link shows the plain dead-link page', async ({ page, browser }) => {
-    await signIn(page, 'tech@demo.test');
+  test('the link from the e-mail approves the quote; an altered link shows the plain dead-link page', async ({ page, browser, shop }) => {
+    await signIn(page, shop.users.tech.email);
     await expect(page.getByRole('navigation', { name: 'Main' })).toBeVisible();
     const job = await createJob(page);
     const quote = await api.send<Quote>(
@@ -22,7 +23,7 @@ test.describe('the customer page', () => {
 
     // The shop admin's outbox holds what the local SMTP capture server received: take the link from there.
     const admin = await browser.newPage();
-    await signIn(admin, 'admin@demo.test');
+    await signIn(admin, shop.users.admin.email);
     await expect(admin.getByRole('navigation', { name: 'Main' })).toBeVisible();
     const list = await getJson<{ items: CapturedMailSummary[] }>(admin, '/dev/mail');
     const summary = list.items.find((m) => m.subject.startsWith(`Quote ${quote.number} `));
