@@ -1,7 +1,7 @@
 /**
  * A shop of the spec's own: `test` here is the project's `test` (fixtures.ts) with a `shop` fixture. The first test
  * of a spec file that asks for `shop` gets a new shop from the server's test-only route (apps/server/src/testing/
- * routes.ts, docs/decisions/0008-test-shops.md), made by the factories the demo seed uses: one person per role
+ * routes.ts, docs/decisions/0009-test-shops.md), made by the factories the demo seed uses: one person per role
  * (`shop.users.tech.email`, the demo password) and the demo boards published in it (`shop.boards.outdoorFan`).
  * Every test of that file shares it; `test.beforeAll` reaches it through the worker fixture `specShop(file)`.
  * The shop is removed with everything it owns once the worker moves on to the next spec file, or at the end.

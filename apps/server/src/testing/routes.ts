@@ -1,6 +1,6 @@
 // Test-only routes: a browser spec asks the server for a shop of its own and removes it afterwards. They exist only
 // on a demo server with the local fakes (`npm start`, the browser-test run, the integration tests): never in shop
-// mode and never against the hosted mail and payment services (docs/decisions/0008-test-shops.md).
+// mode and never against the hosted mail and payment services (docs/decisions/0009-test-shops.md).
 import { Router } from 'express';
 import type { Config } from '../config';
 import type { AppContext } from '../context';

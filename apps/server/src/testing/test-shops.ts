@@ -1,6 +1,6 @@
 // A shop of a browser spec's own: made by the factories the demo seed uses (one person per role, the demo boards
 // published), and removed with everything it owns (remove-shop.ts). Only the test-only route calls this
-// (routes.ts; docs/decisions/0008-test-shops.md).
+// (routes.ts; docs/decisions/0009-test-shops.md).
 import { and, eq, sql } from 'drizzle-orm';
 import type { BoardModel, ExpectedReadingRow } from '@splitscope/contract';
 import { INDOOR_FAN_BOARD, OUTDOOR_FAN_BOARD } from '@splitscope/boards';
