@@ -4,9 +4,7 @@
 // confirmation and sign-off, and the board's return to the customer.
 import type { JobDetail } from '@splitscope/contract';
 import type { Page } from '@playwright/test';
-import { signIn } from './fixtures';
-import { expect, test, type TestShop } from './support/own-shop';
-import { createJob } from './support/shop-data';
+import { expect, signIn, test } from './fixtures';
 import { fetchInPage, getJson } from './helpers';
 import { jobsInEachStatus } from './support/job-states';
 
@@ -14,9 +12,22 @@ import { jobsInEachStatus } from './support/job-states';
 // engine to compute that state's expected value (seconds on a busy machine), so it gets more than the default 5 s.
 const VERDICT_WAIT = 30_000;
 
-/** A fresh job on the shop's demo outdoor board, assigned to the shop's technician. */
-const newJob = (page: Page, shop: TestShop, symptom: string): Promise<JobDetail> =>
-  createJob(page, { unitDescription: 'Outdoor unit, bench test', faultCode: 'F7', symptom, assigneeId: shop.users.tech.id });
+/** A fresh job on the demo outdoor board, assigned to the signed-in technician. */
+async function newJob(page: Page, symptom: string): Promise<JobDetail> {
+  const r = await fetchInPage(page, '/jobs', {
+    method: 'POST',
+    body: {
+      customerId: 'customer-coastline',
+      boardId: 'board-demo-ofd-220',
+      unitDescription: 'Outdoor unit, bench test',
+      faultCode: 'F7',
+      symptom,
+      assigneeId: 'user-tech',
+    },
+  });
+  expect(r.status, JSON.stringify(r.body)).toBe(201);
+  return getJson<JobDetail>(page, `/jobs/${(r.body as { id: string }).id}`);
+}
 
 /** Picks a test point in the list and one of its tests ("Ω · unplugged"). */
 async function pickTest(page: Page, point: RegExp, test?: RegExp) {
@@ -39,9 +50,9 @@ async function passGate(page: Page, volts: string) {
 }
 
 test.describe('technician at the bench', () => {
-  test('the discharge gate refuses a reversed −120 V bus in words, then takes the reading', async ({ page, shop }) => {
-    await signIn(page, shop.users.tech.email);
-    const job = await newJob(page, shop, 'Gate check: bus reversed');
+  test('the discharge gate refuses a reversed −120 V bus in words, then takes the reading', async ({ page }) => {
+    await signIn(page, 'tech@demo.test');
+    const job = await newJob(page, 'Gate check: bus reversed');
     await page.goto(`/jobs/${job.id}?mode=free`);
     await pickTest(page, /^TP1 DC bus/, /Ω · unplugged/);
     await expect(page.getByRole('heading', { name: /Safety gate/ })).toBeVisible();
@@ -57,9 +68,9 @@ test.describe('technician at the bench', () => {
     await expect(row.getByTestId('board-state')).toHaveText('unplugged');
   });
 
-  test('the meter chosen for the job sets the expected Ω through a junction, and the bench names it', async ({ page, shop }) => {
-    await signIn(page, shop.users.tech.email);
-    const job = await newJob(page, shop, 'Meter check: regulator input');
+  test('the meter chosen for the job sets the expected Ω through a junction, and the bench names it', async ({ page }) => {
+    await signIn(page, 'tech@demo.test');
+    const job = await newJob(page, 'Meter check: regulator input');
     await page.goto(`/jobs/${job.id}?mode=free`);
     const meter = page.getByRole('combobox', { name: 'Meter', exact: true });
     await meter.selectOption({ label: 'Analog needle meter (20 kΩ/V), battery-and-resistor Ω' });
@@ -78,9 +89,9 @@ test.describe('technician at the bench', () => {
     expect(await rowOf()).toBeLessThan(0.9 * handheld);
   });
 
-  test('continuity is entered as beep / no beep, and a mistyped reading is corrected and another struck out', async ({ page, shop }) => {
-    await signIn(page, shop.users.tech.email);
-    const job = await newJob(page, shop, 'Continuity and corrections');
+  test('continuity is entered as beep / no beep, and a mistyped reading is corrected and another struck out', async ({ page }) => {
+    await signIn(page, 'tech@demo.test');
+    const job = await newJob(page, 'Continuity and corrections');
     await page.goto(`/jobs/${job.id}?mode=free`);
     await pickTest(page, /^TP3 15 V rail/, /continuity · unplugged/);
     await passGateIfAsked(page);
@@ -112,9 +123,9 @@ test.describe('technician at the bench', () => {
     await expect(cont).toContainText('struck out');
   });
 
-  test('a lifted part’s reading carries the board state to the review and the report; the lead confirms the approval', async ({ page, browser, shop }) => {
-    await signIn(page, shop.users.tech.email);
-    const job = await newJob(page, shop, 'Fan never starts: lifted-part check');
+  test('a lifted part’s reading carries the board state to the review and the report; the lead confirms the approval', async ({ page, browser }) => {
+    await signIn(page, 'tech@demo.test');
+    const job = await newJob(page, 'Fan never starts: lifted-part check');
     await page.goto(`/jobs/${job.id}?mode=free`);
     const c10 = (await page.locator('#lift-pick option', { hasText: /^C10 / }).textContent())!;
     await page.getByLabel('Part to lift').selectOption({ label: c10 });
@@ -139,7 +150,7 @@ test.describe('technician at the bench', () => {
     await expect(page.getByText(/waiting for a lead’s review/)).toBeVisible();
 
     const lead = await browser.newPage();
-    await signIn(lead, shop.users.lead.email);
+    await signIn(lead, 'lead@demo.test');
     await lead.goto(`/jobs/${job.id}/review`);
     await expect(lead.getByTestId('proposal-note')).toContainText('C10 is the short');
     await expect(lead.getByTestId('reading-row').first().getByTestId('board-state')).toHaveText('unplugged, C10 lifted');
@@ -160,10 +171,9 @@ test.describe('repair, sign-off and return', () => {
   test('verification is a short checklist; an unpowered reading across the bus waits for the gate; the lead signs off from home; the board leaves by courier', async ({
     page,
     browser,
-    shop,
   }) => {
-    await signIn(page, shop.users.tech.email);
-    const job = await newJob(page, shop, 'Bus bleeder open');
+    await signIn(page, 'tech@demo.test');
+    const job = await newJob(page, 'Bus bleeder open');
     // Through diagnosis and review by the API: this test is about what follows the repair.
     await fetchInPage(page, `/jobs/${job.id}/readings`, {
       method: 'POST',
@@ -171,7 +181,7 @@ test.describe('repair, sign-off and return', () => {
     });
     expect((await fetchInPage(page, `/jobs/${job.id}`, { method: 'PATCH', body: { status: 'awaiting-review', proposedPart: 'R1' } })).status).toBe(200);
     const lead = await browser.newPage();
-    await signIn(lead, shop.users.lead.email);
+    await signIn(lead, 'lead@demo.test');
     expect((await fetchInPage(lead, `/jobs/${job.id}/reviews`, { method: 'POST', body: { decision: 'approve', comment: '' } })).status).toBe(201);
     await page.goto(`/jobs/${job.id}/repair`);
     await page.getByLabel('Replacement value').fill('470k');
@@ -203,7 +213,6 @@ test.describe('repair, sign-off and return', () => {
   });
 
   test('a verified board is returned with the date and how it left', async ({ page }) => {
-    // The job driver (support/job-states.ts) works in the demo shop with the demo people, so this test does too.
     await signIn(page, 'tech@demo.test');
     // A verified job of the spec's own: repaired, verified against its checklist and signed off through the API.
     const id = (await jobsInEachStatus(['verified'])).get('verified');

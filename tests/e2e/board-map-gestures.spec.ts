@@ -1,9 +1,7 @@
 import type { BoardDetail, BoardModel } from '@splitscope/contract';
 import type { CDPSession, Locator, Page } from '@playwright/test';
-import { signIn } from './fixtures';
-import { expect, test } from './support/own-shop';
-import { fetchInPage, getJson, shot } from './helpers';
-import { createJob } from './support/shop-data';
+import { expect, signIn, test } from './fixtures';
+import { fetchInPage, findJob, getJson, shot } from './helpers';
 
 // Gestures on the board map: dragging a test point in the board editor, panning, wheel and two-finger pinch zoom.
 // The map mirrors its view transform in data-scale / data-offset, so a test can turn board positions into screen
@@ -15,6 +13,8 @@ interface View {
   y: number;
 }
 type Pt = { x: number; y: number };
+
+const BOARD = 'board-demo-ofd-220';
 
 async function viewOf(map: Locator): Promise<View> {
   const scale = Number(await map.getAttribute('data-scale'));
@@ -100,10 +100,9 @@ async function pinch(cdp: CDPSession, c0: Pt, c1: Pt, from: number, to: number, 
 }
 
 test.describe('board editor, mouse', () => {
-  test('an admin drags a test point to a new place and saves it; a drag is not a pan and a pan moves no point', async ({ page, shop }) => {
+  test('an admin drags a test point to a new place and saves it; a drag is not a pan and a pan moves no point', async ({ page }) => {
     test.setTimeout(120_000);
-    await signIn(page, shop.users.admin.email);
-    const BOARD = shop.boards.outdoorFan;
+    await signIn(page, 'admin@demo.test');
     const original = await getJson<BoardDetail>(page, `/boards/${BOARD}`);
     const doc = original.document as unknown as BoardModel;
     await page.goto(`/boards/${BOARD}`);
@@ -171,7 +170,7 @@ test.describe('board editor, mouse', () => {
       await mapReady(page);
       expect(await listedAt(page, tp.id)).toEqual(moved);
     } finally {
-      // Later tests of this spec start jobs on the shop's board: give it its test points back (as a newer version).
+      // Later tests start jobs on this board: give it its test points back (as a newer version).
       if (saving) {
         const restored = await fetchInPage(page, `/boards/${BOARD}`, { method: 'PATCH', body: { document: doc, note: 'test points as seeded' } });
         expect(restored.status).toBe(200);
@@ -183,9 +182,9 @@ test.describe('board editor, mouse', () => {
 test.describe('touch screen', () => {
   test.use({ hasTouch: true });
 
-  test('a two-finger pinch zooms about the fingers, and a tap afterwards selects the point under it', async ({ page, shop }) => {
-    await signIn(page, shop.users.tech.email);
-    const job = await createJob(page);
+  test('a two-finger pinch zooms about the fingers, and a tap afterwards selects the point under it', async ({ page }) => {
+    await signIn(page, 'tech@demo.test');
+    const job = await findJob(page, ['received', 'diagnosing']);
     const doc = job.board.document as unknown as BoardModel;
     await page.goto(`/jobs/${job.id}?mode=free`);
     const map = await mapReady(page);
@@ -234,10 +233,9 @@ test.describe('touch screen', () => {
     await shot(page, 'bench-map-pinched');
   });
 
-  test('in the board editor a finger drags a point, a finger on empty board pans, and a pinch places nothing', async ({ page, shop }) => {
+  test('in the board editor a finger drags a point, a finger on empty board pans, and a pinch places nothing', async ({ page }) => {
     test.setTimeout(120_000);
-    await signIn(page, shop.users.admin.email);
-    const BOARD = shop.boards.outdoorFan;
+    await signIn(page, 'admin@demo.test');
     const original = await getJson<BoardDetail>(page, `/boards/${BOARD}`);
     const doc = original.document as unknown as BoardModel;
     await page.goto(`/boards/${BOARD}`);
@@ -287,9 +285,9 @@ test.describe('touch screen', () => {
   });
 });
 
-test('the mouse wheel zooms about the pointer', async ({ page, shop }) => {
-  await signIn(page, shop.users.tech.email);
-  const job = await createJob(page);
+test('the mouse wheel zooms about the pointer', async ({ page }) => {
+  await signIn(page, 'tech@demo.test');
+  const job = await findJob(page, ['received', 'diagnosing']);
   await page.goto(`/jobs/${job.id}?mode=free`);
   const map = await mapReady(page);
   const box = (await map.boundingBox())!;

@@ -1,6 +1,5 @@
 import type { CapturedMail, CapturedMailSummary, JobBilling, Quote } from '@splitscope/contract';
-import { signIn } from './fixtures';
-import { expect, test } from './support/own-shop';
+import { expect, signIn, test } from './fixtures';
 import { getJson, shot } from './helpers';
 import { api, createJob } from './support/shop-data';
 
@@ -8,8 +7,8 @@ test.describe('the customer page', () => {
   // The altered link's API call answers 404 on purpose; the browser logs that as a console error.
   test.use({ expectedConsoleErrors: [/404 \(Not Found\)/] });
 
-  test('the link from the e-mail approves the quote; an altered link shows the plain dead-link page', async ({ page, browser, shop }) => {
-    await signIn(page, shop.users.tech.email);
+  test('the link from the e-mail approves the quote; an altered link shows the plain dead-link page', async ({ page, browser }) => {
+    await signIn(page, 'tech@demo.test');
     await expect(page.getByRole('navigation', { name: 'Main' })).toBeVisible();
     const job = await createJob(page);
     const quote = await api.send<Quote>(
@@ -23,7 +22,7 @@ test.describe('the customer page', () => {
 
     // The shop admin's outbox holds what the local SMTP capture server received: take the link from there.
     const admin = await browser.newPage();
-    await signIn(admin, shop.users.admin.email);
+    await signIn(admin, 'admin@demo.test');
     await expect(admin.getByRole('navigation', { name: 'Main' })).toBeVisible();
     const list = await getJson<{ items: CapturedMailSummary[] }>(admin, '/dev/mail');
     const summary = list.items.find((m) => m.subject.startsWith(`Quote ${quote.number} `));

@@ -1,19 +1,15 @@
 // A lead lifts guided order for a trainee on all of that trainee's jobs, from the bench of any one of them, and
 // puts it back. The spec makes its own trainee (an invitation accepted through the API), customer and jobs.
 import type { CreatedInvitation, Me } from '@splitscope/contract';
-import { DEMO_PASSWORD, signIn } from './fixtures';
-import { expect, test } from './support/own-shop';
+import { DEMO_PASSWORD, expect, signIn, test } from './fixtures';
 import { api, createCustomer, createJob, runTag } from './support/shop-data';
 
-test('a lead lifts guided order on all of a trainee’s jobs, and holds the trainee to it again', async ({ page, browser, shop }) => {
+test('a lead lifts guided order on all of a trainee’s jobs, and holds the trainee to it again', async ({ page, browser }) => {
   // Three people sign in (argon2 each) and three benches load: about 30 s on a quiet machine, 85 s on a busy one.
   test.setTimeout(120_000);
   // The admin only invites (through the API); the lead works in the browser. Both sign in at once.
   const admin = await browser.newPage();
-  await Promise.all([
-    signIn(page, shop.users.lead.email),
-    admin.request.post('/api/auth/sign-in', { data: { email: shop.users.admin.email, password: DEMO_PASSWORD } }),
-  ]);
+  await Promise.all([signIn(page, 'lead@demo.test'), admin.request.post('/api/auth/sign-in', { data: { email: 'admin@demo.test', password: DEMO_PASSWORD } })]);
   const tag = runTag();
   const name = `Robin ${tag.slice(0, 6)}`;
   const invite = await api.send<CreatedInvitation>(admin, 'POST', '/users/invitations', { name, email: `robin-${tag}@example.test`, role: 'trainee' }, 201);

@@ -1,6 +1,5 @@
 import type { JobDetail } from '@splitscope/contract';
-import { signIn } from './fixtures';
-import { expect, test } from './support/own-shop';
+import { expect, signIn, test } from './fixtures';
 import { fetchInPage, getJson, shot } from './helpers';
 import { boardPhoto } from './photo';
 import { createCustomer } from './support/shop-data';
@@ -9,10 +8,10 @@ import { createCustomer } from './support/shop-data';
 // 4 MB photo, marks six test points and three sections from templates (values typed from the part markings),
 // saves the draft and sees the computed expected values on the points, publishes, records a known-good board
 // (its measured band shown beside the computed one), and a second job on the board gets verdicts and a ranking. The spec makes its own customer and jobs.
-test('a board not in the library: photo, six points, three template sections, a draft, a model, a judged second job', async ({ page, shop }) => {
+test('a board not in the library: photo, six points, three template sections, a draft, a model, a judged second job', async ({ page }) => {
   test.setTimeout(150_000);
   await page.setViewportSize({ width: 1280, height: 900 });
-  await signIn(page, shop.users.lead.email);
+  await signIn(page, 'lead@demo.test');
   const suffix = Date.now().toString(36);
   const customerId = (await createCustomer(page)).id;
 

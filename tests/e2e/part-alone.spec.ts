@@ -1,15 +1,14 @@
 // A technician lifts C10 and measures it on its own pins: the bench records "C10 alone, Ω: 2 Ω" through the
 // same reading field, lists it in bench words, and the engine's ranking puts "C10 capacitor — shorted" first.
 // The spec makes its own customer, job and readings through the API.
-import { signIn } from './fixtures';
-import { expect, test } from './support/own-shop';
+import { expect, signIn, test } from './fixtures';
 import { createJob, recordReading } from './support/shop-data';
 
 // On the browser run (no fault dictionary) the bench's first diagnosis of the board is still loading when the
 // reading is saved: the ranking must come from a diagnosis asked for after the save (after-reading-written.ts).
-test('a lifted part measured on its own pins is listed as "C10 alone" and moves the ranking', async ({ page, shop }) => {
-  await signIn(page, shop.users.tech.email);
-  const job = await createJob(page, { assigneeId: shop.users.tech.id, symptom: 'Fan never starts: C10 measured alone' });
+test('a lifted part measured on its own pins is listed as "C10 alone" and moves the ranking', async ({ page }) => {
+  await signIn(page, 'tech@demo.test');
+  const job = await createJob(page, { assigneeId: 'user-tech', symptom: 'Fan never starts: C10 measured alone' });
   // A dead fan supply with a healthy 15 V rail and a beeping supply: a short on the fan supply.
   const gate = { unplugged: true as const, busVolts: 1.1 };
   await recordReading(page, job.id, { mode: 'dcv', red: 'v15', black: '0', power: 'on', value: 14.98 });

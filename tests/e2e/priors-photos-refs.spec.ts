@@ -11,9 +11,8 @@
 import { randomFillSync } from 'node:crypto';
 import { crc32, deflateSync } from 'node:zlib';
 import type { Page } from '@playwright/test';
-import { signIn } from './fixtures';
-import { expect, test } from './support/own-shop';
-import { api, copyBoard, createJob } from './support/shop-data';
+import { expect, signIn, test } from './fixtures';
+import { api, copyBoard, createJob, DEMO_BOARD_IDS } from './support/shop-data';
 
 const DAY = '2026-12-05';
 const sizes = [
@@ -60,8 +59,8 @@ function phonePhoto(): Buffer {
 
 test.describe.configure({ timeout: 180_000 });
 
-test('a fault code steers the first tests, and the bench says why', async ({ page, shop }) => {
-  await signIn(page, shop.users.tech.email);
+test('a fault code steers the first tests, and the bench says why', async ({ page }) => {
+  await signIn(page, 'tech@demo.test');
   const job = await createJob(page, { faultCode: 'F7' });
   await page.setViewportSize({ width: 1024, height: 768 });
   await page.goto(`/jobs/${job.id}`);
@@ -78,8 +77,8 @@ test('a fault code steers the first tests, and the bench says why', async ({ pag
 test.describe('photos', () => {
   // The browser logs the refused upload's 415 answer; that is the refusal this test provokes.
   test.use({ expectedConsoleErrors: [/status of 415/] });
-  test('photos on the job: a 4 MB phone photo is resized and shown, a refused file is listed on the job', async ({ page, shop }) => {
-    await signIn(page, shop.users.tech.email);
+  test('photos on the job: a 4 MB phone photo is resized and shown, a refused file is listed on the job', async ({ page }) => {
+    await signIn(page, 'tech@demo.test');
     const job = await createJob(page);
     await page.setViewportSize({ width: 1024, height: 768 });
     await page.goto(`/jobs/${job.id}?tab=photos`);
@@ -96,9 +95,9 @@ test.describe('photos', () => {
   });
 });
 
-test('known-good references: three labelled sources per point in the board editor', async ({ page, shop }) => {
-  await signIn(page, shop.users.admin.email);
-  const board = await copyBoard(page, shop.boards.outdoorFan);
+test('known-good references: three labelled sources per point in the board editor', async ({ page }) => {
+  await signIn(page, 'admin@demo.test');
+  const board = await copyBoard(page, DEMO_BOARD_IDS.outdoorFan);
   for (const [serial, rail] of [
     ['GOOD-A', 14.96],
     ['GOOD-B', 14.9],

@@ -1,27 +1,23 @@
 import type { BoardModel, Diagnosis, FaultCodeList, JobDetail } from '@splitscope/contract';
-import { signIn } from './fixtures';
-import { expect, test } from './support/own-shop';
-import { getJson, shot, typed } from './helpers';
-import { createJob } from './support/shop-data';
+import { expect, signIn, test } from './fixtures';
+import { findJob, getJson, shot, typed } from './helpers';
 import { faultedBoard } from './simulated-fault';
 // A test may reach into the contract's source; the root package does not depend on the workspace packages.
 import { verificationChecklist } from '../../packages/contract/src/index';
 
-// The job's board (the demo outdoor board) has a shorted ceramic filter capacitor on the switched fan rail (C9, 0.3 ohm): the
+// The demo job's board has a shorted ceramic filter capacitor on the switched fan rail (C9, 0.3 ohm): the
 // lesson of the trade that a shorted capacitor kills a rail while every transistor tests fine.
 const FAULT = { component: 'C9', mode: 'short', value: 0.3 };
 
-test('tech diagnoses on the map, lead approves, tech repairs and verifies, the report shows it all', async ({ page, context, shop }) => {
+test('tech diagnoses on the map, lead approves, tech repairs and verifies, the report shows it all', async ({ page, context }) => {
   test.setTimeout(300_000);
-  await signIn(page, shop.users.tech.email);
-  // The spec's job, as the demo's: fault code F7 on the outdoor fan-drive board, assigned to the technician.
-  const job = await createJob(page, { faultCode: 'F7', assigneeId: shop.users.tech.id });
-  await page.goto('/');
+  await signIn(page, 'tech@demo.test');
   await expect(page.getByRole('heading', { name: 'My open jobs' })).toBeVisible();
+  const job = await findJob(page, ['received', 'diagnosing'], '&assignee=me');
   const doc = job.board.document as unknown as BoardModel;
   const codes = await getJson<FaultCodeList>(page, `/fault-codes?boardId=${job.boardId}`);
   const suspect = new Set(codes.items.find((c) => c.code === job.faultCode)?.sections ?? []);
-  expect(suspect.size, 'the job has a fault code that names suspect sections').toBeGreaterThan(0);
+  expect(suspect.size, 'the demo job has a fault code that names suspect sections').toBeGreaterThan(0);
   const partSection = (part: string) => doc.parts.find((p) => p.designator === part || p.element === part)?.section;
   const board = faultedBoard(job, FAULT);
 
@@ -66,7 +62,7 @@ test('tech diagnoses on the map, lead approves, tech repairs and verifies, the r
 
   // The lead approves.
   const lead = await context.browser()!.newPage();
-  await signIn(lead, shop.users.lead.email);
+  await signIn(lead, 'lead@demo.test');
   await expect(lead.getByRole('heading', { name: 'Review queue' })).toBeVisible();
   await lead.goto(`/jobs/${job.id}/review`);
   await expect(lead.getByTestId('proposed-part')).toHaveText(top.part);

@@ -1,21 +1,15 @@
 import type { Diagnosis } from '@splitscope/contract';
-import { signIn } from './fixtures';
-import { expect, test } from './support/own-shop';
-import { expectedRowFor, fetchInPage, getJson, shot, typed } from './helpers';
-import { apiAs } from './support/divider-job';
-import { createJob } from './support/shop-data';
+import { expect, signIn, test } from './fixtures';
+import { expectedRowFor, fetchInPage, findJob, getJson, shot, typed } from './helpers';
 
 test.describe('trainee', () => {
   test.use({ expectedConsoleErrors: [/status of 403/] });
 
-  test('follows the guided order, is stopped by the safety gate, and cannot approve', async ({ page, shop }) => {
-    // The trainee's job, opened by the shop's technician (a trainee opens none).
-    const tech = await apiAs(shop.users.tech.email);
-    const job = await createJob(tech, { faultCode: 'F7', assigneeId: shop.users.trainee.id });
-    await tech.dispose();
-    await signIn(page, shop.users.trainee.email);
+  test('follows the guided order, is stopped by the safety gate, and cannot approve', async ({ page }) => {
+    await signIn(page, 'trainee@demo.test');
     await expect(page.getByRole('heading', { name: 'My assigned steps' })).toBeVisible();
     await shot(page, 'trainee-home');
+    const job = await findJob(page, ['received', 'diagnosing'], '&assignee=me');
     await page.goto(`/jobs/${job.id}`);
     // Guided order is the trainee's only mode: no switch to turn it off, and asking for the free bench changes nothing.
     await expect(page.getByTestId('guided-locked')).toContainText('Guided order: on');
