@@ -76,12 +76,7 @@ export async function measureSaveToRanking(saves: number, log: (line: string) =>
     const cookie = (await page.context().cookies()).map((c) => `${c.name}=${c.value}`).join('; ');
     const dictionaryWait = await waitForDictionary(server.url, { cookie }, jobId, log);
     await page.goto(`/jobs/${jobId}?mode=free`);
-    await page.getByRole('tab', { name: 'Test points' }).click();
-    await page
-      .getByRole('navigation', { name: 'Test points' })
-      .getByRole('button', { name: /^TP3 15 V rail/ })
-      .click();
-    await page.getByRole('button', { name: /DC V · powered/ }).click();
+    await pickTest(page);
     await page.getByTestId('ranking').waitFor();
     // The first save opens the job's engine on the server; it is measured with the rest.
     const times: number[] = [];
